@@ -1,0 +1,8 @@
+import { type RouteConfig, index, layout, route } from "@react-router/dev/routes";
+
+export default [
+  route("healthz", "routes/healthz.ts"),
+  layout("routes/_shell.tsx", [
+    index("routes/_index.tsx"),
+  ]),
+] satisfies RouteConfig;

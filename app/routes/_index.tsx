@@ -1,0 +1,84 @@
+import { Link } from "react-router";
+import type { Route } from "./+types/_index";
+
+export const meta: Route.MetaFunction = () => [
+  { title: "Fallwright · shape parapet roofs to their outlets" },
+  { name: "description", content: "Teach and check how a flat membrane roof inside parapets sheds its water." },
+];
+
+/** A plan of a shaped roof: level rim, fall lines converging on one outlet. Drawn, not loaded. */
+function ShapedRoofSketch() {
+  const lines = Array.from({ length: 9 }, (_, i) => 20 + i * 40);
+  return (
+    <svg viewBox="0 0 360 220" className="h-auto w-full" role="img" aria-label="Plan of a roof inside parapets with fall lines running to one outlet on the front edge">
+      <rect x="10" y="10" width="340" height="200" fill="var(--color-sheet)" stroke="var(--color-ink)" strokeWidth="3" />
+      {lines.map((x) => (
+        <line key={x} x1={x} y1="14" x2={x} y2="206" stroke="var(--color-rule)" strokeWidth="1" strokeDasharray="3 4" />
+      ))}
+      {[40, 80, 120, 160].map((d, i) => (
+        <path
+          key={d}
+          d={`M ${180 - d * 1.6} 206 Q 180 ${206 - d * 0.9} ${180 + d * 1.6} 206`}
+          fill="none"
+          stroke="var(--color-ink-soft)"
+          strokeWidth="1"
+          opacity={1 - i * 0.15}
+        />
+      ))}
+      {[30, 100, 260, 330].map((x) => (
+        <path key={x} d={`M ${x} 30 Q ${(x + 180) / 2} 120 178 200`} fill="none" stroke="var(--color-accent)" strokeWidth="1.6" markerEnd="url(#arrow)" />
+      ))}
+      <defs>
+        <marker id="arrow" viewBox="0 0 10 10" refX="8" refY="5" markerWidth="6" markerHeight="6" orient="auto-start-reverse">
+          <path d="M 0 0 L 10 5 L 0 10 z" fill="var(--color-accent)" />
+        </marker>
+      </defs>
+      <circle cx="180" cy="206" r="7" fill="var(--color-accent)" stroke="var(--color-ink)" strokeWidth="2" />
+      <text x="194" y="200" fontSize="11" fill="var(--color-ink)">outlet</text>
+      <text x="16" y="26" fontSize="11" fill="var(--color-ink-soft)">level rim at H</text>
+    </svg>
+  );
+}
+
+export default function Home() {
+  return (
+    <div className="grid gap-8 lg:grid-cols-[1.2fr_1fr]">
+      <section>
+        <p className="text-sm font-medium uppercase tracking-widest text-accent">Fallwright</p>
+        <h1 className="mt-2 text-display font-bold tracking-tight">
+          Shape the roof, not a gutter.
+        </h1>
+        <p className="mt-4 max-w-prose text-lg text-ink-soft">
+          Keep the parapet rim level, drop each joist a little more toward the outlet, and a flat
+          membrane roof becomes a gently warped surface that sheds its water. Fallwright builds that
+          surface joist by joist, colours it by fall, traces the water, sets it beside an internal
+          gutter layout, and gives the builder a drop schedule.
+        </p>
+        <div className="mt-6 flex flex-wrap gap-3">
+          <Link className="btn-primary" to="/sandbox">Open the sandbox</Link>
+          <Link className="btn" to="/lessons">Browse the lessons</Link>
+        </div>
+        <ul className="mt-8 grid gap-3 sm:grid-cols-2">
+          {[
+            ["Trainers", "present live roofs to a class, hand out lessons, keep a gradebook."],
+            ["Trainees", "move outlets, change falls, watch the water, submit graded tasks."],
+            ["Designers", "check build-up height, falls and outlet places before detailing."],
+            ["Admins", "run accounts, roles and invitations."],
+          ].map(([who, what]) => (
+            <li key={who} className="card">
+              <p className="font-bold">{who}</p>
+              <p className="text-sm text-ink-soft">{what}</p>
+            </li>
+          ))}
+        </ul>
+      </section>
+      <section className="card self-start">
+        <ShapedRoofSketch />
+        <p className="mt-3 text-sm text-ink-soft">
+          A level rim, one outlet, straight joists: the warp does the work a gutter would, without
+          the extra height or the folds in the membrane.
+        </p>
+      </section>
+    </div>
+  );
+}

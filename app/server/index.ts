@@ -1,0 +1,68 @@
+/**
+ * The HTTP host: Express in front of React Router. Adds what every response needs (security
+ * headers, cross-site refusal, body caps), serves built assets, and shuts down cleanly.
+ * Production: `NODE_ENV=production node --import tsx app/server/index.ts`; development runs
+ * Vite in middleware mode for hot reload.
+ */
+import path from "node:path";
+import type { ServerBuild } from "react-router";
+import { createRequestHandler } from "@react-router/express";
+import compression from "compression";
+import express from "express";
+import { securityHeaders, refuseCrossSite, capBodySize } from "./security.ts";
+
+const root = path.resolve(import.meta.dirname, "../..");
+const production = process.env.NODE_ENV === "production";
+const port = Number(process.env.PORT ?? 3000);
+const host = process.env.HOST ?? "127.0.0.1";
+
+const app = express();
+app.disable("x-powered-by");
+app.set("trust proxy", process.env.TRUST_PROXY === "1" ? 1 : false);
+app.use(compression({ filter: (req, res) => !String(res.getHeader("Content-Type") ?? "").includes("text/event-stream") && compression.filter(req, res) }));
+app.use(securityHeaders({ production }));
+app.use(refuseCrossSite());
+app.use(capBodySize(12 * 1024 * 1024));
+
+let build: ServerBuild | (() => Promise<ServerBuild>);
+if (production) {
+  app.use("/assets", express.static(path.join(root, "build/client/assets"), { immutable: true, maxAge: "1y" }));
+  app.use(express.static(path.join(root, "build/client"), { maxAge: "1h" }));
+  build = (await import(path.join(root, "build/server/index.js"))) as ServerBuild;
+} else {
+  const vite = await import("vite");
+  const viteServer = await vite.createServer({ root, server: { middlewareMode: true } });
+  app.use(viteServer.middlewares);
+  build = () => viteServer.ssrLoadModule("virtual:react-router/server-build") as Promise<ServerBuild>;
+}
+
+app.all(
+  "/{*splat}",
+  createRequestHandler({
+    build,
+    mode: production ? "production" : "development",
+    getLoadContext: (_req, res) => ({ cspNonce: res.locals.cspNonce as string }),
+  }),
+);
+
+const server = app.listen(port, host, () => {
+  console.log(`Fallwright is serving on http://${host === "0.0.0.0" ? "localhost" : host}:${port}`);
+});
+server.keepAliveTimeout = 65_000;
+
+let closing = false;
+async function shutdown(signal: string) {
+  if (closing) return;
+  closing = true;
+  console.log(`[fallwright] ${signal}: closing`);
+  const force = setTimeout(() => process.exit(0), 8000);
+  force.unref();
+  server.close();
+  server.closeIdleConnections?.();
+  const { closeDb } = await import("../lib/db.server.ts");
+  await closeDb();
+  process.exit(0);
+}
+process.on("SIGTERM", () => void shutdown("SIGTERM"));
+process.on("SIGINT", () => void shutdown("SIGINT"));
+process.on("unhandledRejection", (reason) => console.warn("[fallwright] unhandled rejection:", reason));

@@ -1,0 +1,10 @@
+import type { Config } from "@react-router/dev/config";
+
+export default {
+  ssr: true,
+  future: {
+    v8_middleware: false,
+    v8_splitRouteModules: true,
+    v8_viteEnvironmentApi: true,
+  },
+} satisfies Config;
