@@ -8,7 +8,6 @@ export default defineConfig({
   resolve: { alias: { "~": `${root}app` } },
   test: {
     include: ["tests/unit/**/*.test.ts", "tests/integration/**/*.test.ts", "app/**/*.test.ts"],
-    globalSetup: ["tests/support/global-setup.ts"],
     setupFiles: ["tests/support/setup.ts"],
     testTimeout: 30_000,
     hookTimeout: 60_000,

@@ -1,2 +1,0 @@
-// Replaced by the database-aware global setup once the foundation lands.
-export default async function setup() {}

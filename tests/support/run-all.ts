@@ -1,0 +1,125 @@
+/**
+ * Runs the whole suite against the project's own test cluster and fakes:
+ * typecheck → vitest (unit + integration) → production build → Playwright in Debian's chromium.
+ * Ends with `N passed, N failed` and a non-zero exit on any failure.
+ * `npm test -- --only=vitest|e2e` runs one stage (the set-up still happens).
+ */
+import { execFileSync, spawn, spawnSync, type ChildProcess } from "node:child_process";
+import fs from "node:fs";
+import path from "node:path";
+import { log, PROJECT_ROOT, readClusterInfo, clusterUrl, ensureDatabase, dropDatabase } from "../../app/dev/cluster.ts";
+import { PROFILES, prepareDatabase, serviceEnv, startFakes, waitForPort } from "../../app/dev/services.ts";
+
+const only = process.argv.find((a) => a.startsWith("--only="))?.split("=")[1];
+const profile = PROFILES.test;
+const results = path.join(PROJECT_ROOT, ".data/test-results");
+fs.rmSync(results, { recursive: true, force: true });
+fs.mkdirSync(results, { recursive: true });
+
+let passed = 0;
+let failed = 0;
+const children: ChildProcess[] = [];
+
+function bin(name: string) {
+  return path.join(PROJECT_ROOT, "node_modules/.bin", name);
+}
+
+function stage(name: string, cmd: string, args: string[], env: Record<string, string> = {}): number {
+  log(`── ${name}`);
+  const r = spawnSync(cmd, args, { cwd: PROJECT_ROOT, stdio: "inherit", env: { ...process.env, ...env } });
+  return r.status ?? 1;
+}
+
+function ensureChromium() {
+  if (fs.existsSync("/usr/bin/chromium")) return;
+  if (process.getuid?.() !== 0) throw new Error("Debian's chromium is missing: sudo apt-get install -y chromium");
+  log("installing Debian's chromium (once)...");
+  execFileSync("apt-get", ["update"], { stdio: "inherit" });
+  execFileSync("apt-get", ["install", "-y", "--no-install-recommends", "chromium", "fonts-dejavu-core"], {
+    stdio: "inherit",
+    env: { ...process.env, DEBIAN_FRONTEND: "noninteractive" },
+  });
+}
+
+async function main() {
+  const templateUrl = await prepareDatabase(profile);
+  const info = readClusterInfo("test");
+  const env: Record<string, string> = {
+    ...serviceEnv(profile),
+    TEST_TEMPLATE_DB: profile.database,
+    TEST_TEMPLATE_URL: templateUrl,
+    FALLWRIGHT_TEST: "1",
+  };
+  fs.rmSync(env.MAIL_SPOOL_DIR, { recursive: true, force: true });
+  const fakes = await startFakes(profile, env);
+  if (fakes) children.push(fakes);
+
+  if (!only || only === "typecheck") {
+    const a = stage("typecheck", process.execPath, [path.join(PROJECT_ROOT, "node_modules/@react-router/dev/bin.js"), "typegen"]);
+    const b = a === 0 ? stage("typecheck", bin("tsc"), ["--noEmit"]) : 1;
+    if (a === 0 && b === 0) passed++;
+    else failed++;
+  }
+
+  if (!only || only === "build" || only === "e2e" || only === "vitest") {
+    if (stage("build", process.execPath, [path.join(PROJECT_ROOT, "node_modules/@react-router/dev/bin.js"), "build"]) !== 0) {
+      failed++;
+      return;
+    }
+  }
+
+  if (!only || only === "vitest") {
+    stage("vitest", bin("vitest"), ["run", "--config", "tests/vitest.config.ts"], env);
+    const file = path.join(results, "vitest.json");
+    if (fs.existsSync(file)) {
+      const r = JSON.parse(fs.readFileSync(file, "utf8"));
+      passed += r.numPassedTests;
+      failed += r.numFailedTests + (r.numRuntimeErrorTestSuites ?? 0) + (r.success || r.numFailedTests ? 0 : 1);
+    } else {
+      failed++;
+    }
+  }
+
+  if (!only || only === "e2e") {
+    ensureChromium();
+    if (!info) throw new Error("test cluster info missing");
+    const e2eDb = "fallwright_e2e";
+    await dropDatabase(info, e2eDb);
+    await ensureDatabase(info, e2eDb, profile.database);
+    const port = Number(process.env.E2E_PORT ?? 3107);
+    const server = spawn(process.execPath, ["--import", "tsx", "app/server/index.ts"], {
+      cwd: PROJECT_ROOT,
+      stdio: ["ignore", fs.openSync(path.join(results, "e2e-server.log"), "w"), fs.openSync(path.join(results, "e2e-server.log"), "a")],
+      env: { ...process.env, ...env, NODE_ENV: "production", PORT: String(port), DATABASE_URL: clusterUrl(info, e2eDb) },
+    });
+    children.push(server);
+    await waitForPort(port);
+    stage("playwright", bin("playwright"), ["test", "--config", "tests/playwright.config.ts"], {
+      ...env,
+      E2E_BASE_URL: `http://127.0.0.1:${port}`,
+      DATABASE_URL: clusterUrl(info, e2eDb),
+    });
+    const file = path.join(results, "playwright.json");
+    if (fs.existsSync(file)) {
+      const r = JSON.parse(fs.readFileSync(file, "utf8"));
+      passed += r.stats.expected + (r.stats.flaky ?? 0);
+      failed += r.stats.unexpected;
+      if (r.errors?.length) failed += r.errors.length;
+    } else {
+      failed++;
+    }
+  }
+}
+
+let code = 0;
+try {
+  await main();
+} catch (error) {
+  console.error(error);
+  failed++;
+} finally {
+  for (const c of children) c.kill("SIGTERM");
+}
+if (failed > 0) code = 1;
+console.log(`\n${passed} passed, ${failed} failed`);
+process.exit(code);
