@@ -2,13 +2,13 @@ import { defineConfig } from "@playwright/test";
 
 export default defineConfig({
   testDir: "./e2e",
-  outputDir: "../.data/test-results/playwright",
+  outputDir: `../${process.env.TEST_RESULTS_DIR ?? ".data/test-results"}/playwright`,
   fullyParallel: false,
   workers: 2,
   retries: 0,
   timeout: 60_000,
   expect: { timeout: 10_000 },
-  reporter: [["list"], ["json", { outputFile: "../.data/test-results/playwright.json" }]],
+  reporter: [["list"], ["json", { outputFile: `../${process.env.TEST_RESULTS_DIR ?? ".data/test-results"}/playwright.json` }]],
   use: {
     baseURL: process.env.E2E_BASE_URL ?? "http://127.0.0.1:3107",
     trace: "retain-on-failure",

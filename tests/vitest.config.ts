@@ -13,6 +13,6 @@ export default defineConfig({
     hookTimeout: 60_000,
     pool: "forks",
     reporters: ["default", "json"],
-    outputFile: { json: ".data/test-results/vitest.json" },
+    outputFile: { json: `${process.env.TEST_RESULTS_DIR ?? ".data/test-results"}/vitest.json` },
   },
 });

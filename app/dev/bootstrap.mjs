@@ -27,7 +27,7 @@ export function runTs(file, args = [], env = {}) {
 }
 
 const task = process.argv[2];
-if (task) {
+if (import.meta.url === `file://${process.argv[1]}` && task) {
   ensureDependencies();
   process.exit(runTs(`app/dev/${task}.ts`, process.argv.slice(3)));
 }

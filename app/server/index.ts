@@ -15,6 +15,7 @@ const root = path.resolve(import.meta.dirname, "../..");
 const production = process.env.NODE_ENV === "production";
 const port = Number(process.env.PORT ?? 3000);
 const host = process.env.HOST ?? "127.0.0.1";
+const buildDir = path.resolve(root, process.env.FALLWRIGHT_BUILD_DIR ?? "build");
 
 const app = express();
 app.disable("x-powered-by");
@@ -26,9 +27,9 @@ app.use(capBodySize(12 * 1024 * 1024));
 
 let build: ServerBuild | (() => Promise<ServerBuild>);
 if (production) {
-  app.use("/assets", express.static(path.join(root, "build/client/assets"), { immutable: true, maxAge: "1y" }));
-  app.use(express.static(path.join(root, "build/client"), { maxAge: "1h" }));
-  build = (await import(path.join(root, "build/server/index.js"))) as ServerBuild;
+  app.use("/assets", express.static(path.join(buildDir, "client/assets"), { immutable: true, maxAge: "1y" }));
+  app.use(express.static(path.join(buildDir, "client"), { maxAge: "1h" }));
+  build = (await import(path.join(buildDir, "server/index.js"))) as ServerBuild;
 } else {
   const vite = await import("vite");
   const viteServer = await vite.createServer({ root, server: { middlewareMode: true } });

@@ -12,7 +12,7 @@ import { PROFILES, prepareDatabase, serviceEnv, startFakes, waitForPort } from "
 
 const only = process.argv.find((a) => a.startsWith("--only="))?.split("=")[1];
 const profile = PROFILES.test;
-const results = path.join(PROJECT_ROOT, ".data/test-results");
+const results = path.join(PROJECT_ROOT, process.env.TEST_RESULTS_DIR ?? ".data/test-results");
 fs.rmSync(results, { recursive: true, force: true });
 fs.mkdirSync(results, { recursive: true });
 
@@ -61,7 +61,7 @@ async function main() {
     else failed++;
   }
 
-  if (!only || only === "build" || only === "e2e" || only === "vitest") {
+  if (!only || only === "build" || only === "e2e") {
     if (stage("build", process.execPath, [path.join(PROJECT_ROOT, "node_modules/@react-router/dev/bin.js"), "build"]) !== 0) {
       failed++;
       return;
@@ -69,7 +69,8 @@ async function main() {
   }
 
   if (!only || only === "vitest") {
-    stage("vitest", bin("vitest"), ["run", "--config", "tests/vitest.config.ts"], env);
+    const extra = process.argv.slice(2).filter((a) => !a.startsWith("--only="));
+    stage("vitest", bin("vitest"), ["run", "--config", "tests/vitest.config.ts", ...extra], env);
     const file = path.join(results, "vitest.json");
     if (fs.existsSync(file)) {
       const r = JSON.parse(fs.readFileSync(file, "utf8"));
@@ -83,10 +84,10 @@ async function main() {
   if (!only || only === "e2e") {
     ensureChromium();
     if (!info) throw new Error("test cluster info missing");
-    const e2eDb = "fallwright_e2e";
+    const port = Number(process.env.E2E_PORT ?? 3107);
+    const e2eDb = `fallwright_e2e_${port}`;
     await dropDatabase(info, e2eDb);
     await ensureDatabase(info, e2eDb, profile.database);
-    const port = Number(process.env.E2E_PORT ?? 3107);
     const server = spawn(process.execPath, ["--import", "tsx", "app/server/index.ts"], {
       cwd: PROJECT_ROOT,
       stdio: ["ignore", fs.openSync(path.join(results, "e2e-server.log"), "w"), fs.openSync(path.join(results, "e2e-server.log"), "a")],
@@ -94,7 +95,8 @@ async function main() {
     });
     children.push(server);
     await waitForPort(port);
-    stage("playwright", bin("playwright"), ["test", "--config", "tests/playwright.config.ts"], {
+    const extra = process.argv.slice(2).filter((a) => !a.startsWith("--only="));
+    stage("playwright", bin("playwright"), ["test", "--config", "tests/playwright.config.ts", ...extra], {
       ...env,
       E2E_BASE_URL: `http://127.0.0.1:${port}`,
       DATABASE_URL: clusterUrl(info, e2eDb),
