@@ -61,13 +61,13 @@ async function main() {
     else failed++;
   }
 
-  if (!only || only === "build" || only === "e2e") {
+
+  if (!only || only === "build" || only === "e2e" || only === "vitest") {
     if (stage("build", process.execPath, [path.join(PROJECT_ROOT, "node_modules/@react-router/dev/bin.js"), "build"]) !== 0) {
       failed++;
       return;
     }
   }
-
   if (!only || only === "vitest") {
     const extra = process.argv.slice(2).filter((a) => !a.startsWith("--only="));
     stage("vitest", bin("vitest"), ["run", "--config", "tests/vitest.config.ts", ...extra], env);
