@@ -1,0 +1,8 @@
+/** GET /api/v1: what this API is, and a trivial JSON answer (the bench's baseline route). */
+export function loader() {
+  return Response.json({
+    name: "Fallwright API",
+    version: 1,
+    endpoints: ["POST /api/v1/analyses", "GET|POST /api/v1/roofs", "GET|PUT|DELETE /api/v1/roofs/:id", "GET /api/v1/lessons", "POST /api/v1/attempts"],
+  });
+}
