@@ -1,0 +1,71 @@
+/**
+ * Shared habits of the JSON API (QUALITY.md, Security and Reliability): one error shape
+ * `{error: {message, issues: [{path, message}]}}`, writes only as application/json (415),
+ * bodies capped before they are parsed (413), 401 rather than a redirect when signed out.
+ */
+import { requireApiUser, type SessionUser } from "~/lib/auth.server";
+import { can, type Permission } from "~/lib/permissions";
+
+export interface ApiIssue {
+  path: string;
+  message: string;
+}
+
+export function jsonError(status: number, message: string, issues: ApiIssue[] = [], headers?: HeadersInit): Response {
+  return Response.json({ error: { message, issues } }, { status, headers });
+}
+
+/** Reads at most `limit` bytes of the body; null when there were more. */
+export async function readBodyCapped(request: Request, limit: number): Promise<Uint8Array | null> {
+  const declared = Number(request.headers.get("content-length") ?? "0");
+  if (declared > limit) return null;
+  if (!request.body) return new Uint8Array(0);
+  const reader = request.body.getReader();
+  const chunks: Uint8Array[] = [];
+  let total = 0;
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    total += value.byteLength;
+    if (total > limit) {
+      await reader.cancel().catch(() => {});
+      return null;
+    }
+    chunks.push(value);
+  }
+  const out = new Uint8Array(total);
+  let at = 0;
+  for (const c of chunks) {
+    out.set(c, at);
+    at += c.byteLength;
+  }
+  return out;
+}
+
+export type JsonBody = { ok: true; value: unknown } | { ok: false; response: Response };
+
+export async function readJsonBody(request: Request, limit: number): Promise<JsonBody> {
+  const type = (request.headers.get("content-type") ?? "").split(";")[0].trim().toLowerCase();
+  if (type !== "application/json") {
+    return { ok: false, response: jsonError(415, "Send the body as JSON with Content-Type: application/json.") };
+  }
+  const bytes = await readBodyCapped(request, limit);
+  if (!bytes) return { ok: false, response: jsonError(413, `The body is over ${Math.round(limit / 1024)} kB.`) };
+  try {
+    return { ok: true, value: JSON.parse(new TextDecoder("utf-8", { fatal: true }).decode(bytes)) };
+  } catch {
+    return { ok: false, response: jsonError(400, "The body is not valid JSON.", [{ path: "(body)", message: "could not be parsed as JSON" }]) };
+  }
+}
+
+/** The signed-in user (401 JSON thrown when signed out) who holds `permission` (403 otherwise). */
+export async function requireApiPermission(request: Request, permission: Permission): Promise<SessionUser> {
+  const user = await requireApiUser(request);
+  if (!can(user.role, permission)) throw jsonError(403, "Your account may not do this.");
+  return user;
+}
+
+/** zod issues in the API's shape. */
+export function zodIssues(issues: readonly { path: readonly PropertyKey[]; message: string }[]): ApiIssue[] {
+  return issues.map((i) => ({ path: i.path.length ? i.path.map(String).join(".") : "(body)", message: i.message }));
+}

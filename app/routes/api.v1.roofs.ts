@@ -1,0 +1,22 @@
+import type { Route } from "./+types/api.v1.roofs";
+import { jsonError, readJsonBody, requireApiPermission } from "~/lib/json-api.server";
+import { createRoof, listMyRoofs } from "~/lib/roofs.server";
+import { parseRoofWrite, ROOF_BODY_LIMIT } from "~/lib/roofs-api.server";
+
+/** GET /api/v1/roofs: my saved roofs, newest first. */
+export async function loader({ request }: Route.LoaderArgs) {
+  const user = await requireApiPermission(request, "roofs:own");
+  return Response.json({ roofs: await listMyRoofs(user) });
+}
+
+/** POST /api/v1/roofs {name, spec} → 201 {id, version}. */
+export async function action({ request }: Route.ActionArgs) {
+  if (request.method !== "POST") return jsonError(405, "Use GET or POST here.", [], { Allow: "GET, POST" });
+  const user = await requireApiPermission(request, "roofs:own");
+  const body = await readJsonBody(request, ROOF_BODY_LIMIT);
+  if (!body.ok) return body.response;
+  const input = parseRoofWrite(body.value, "create");
+  if (!input.ok) return input.response;
+  const created = await createRoof(user, { name: input.name!, spec: input.spec });
+  return Response.json(created, { status: 201, headers: { Location: `/api/v1/roofs/${created.id}` } });
+}
