@@ -11,6 +11,8 @@ export const streamTimeout = 5_000;
 declare module "react-router" {
   interface AppLoadContext {
     cspNonce?: string;
+    /** The client's address as the Express host sees it (rate limits, audit log). */
+    clientIp?: string;
   }
 }
 

@@ -42,7 +42,8 @@ app.all(
   createRequestHandler({
     build,
     mode: production ? "production" : "development",
-    getLoadContext: (_req, res) => ({ cspNonce: res.locals.cspNonce as string }),
+    // clientIp feeds the rate limits; with TRUST_PROXY=1 it is the address the proxy saw.
+    getLoadContext: (req, res) => ({ cspNonce: res.locals.cspNonce as string, clientIp: req.ip ?? req.socket.remoteAddress ?? "unknown" }),
   }),
 );
 
