@@ -1,0 +1,133 @@
+/**
+ * Brute-force limits kept in PostgreSQL (table `rate_limits`), so every app process shares them.
+ * A sliding-window counter: the current fixed window's count plus the previous window's count
+ * weighted by how much of it still overlaps the last `windowSeconds`. That keeps a burst split
+ * across a window boundary from doubling the allowance.
+ */
+import type { AppLoadContext } from "react-router";
+import { db } from "~/lib/db.server";
+
+export interface Limit {
+  limit: number;
+  windowSeconds: number;
+}
+
+export interface HitResult {
+  ok: boolean;
+  /** Whole seconds until one more attempt would be allowed (0 when ok). */
+  retryAfter: number;
+}
+
+/** The figures QUALITY.md (Security) holds us to, plus the API's request budget. */
+export const LIMITS = {
+  signInAccount: { limit: 10, windowSeconds: 15 * 60 },
+  signInIp: { limit: 10, windowSeconds: 60 },
+  resetAccount: { limit: 10, windowSeconds: 15 * 60 },
+  resetIp: { limit: 10, windowSeconds: 60 },
+  tokenUse: { limit: 10, windowSeconds: 15 * 60 },
+  tokenIp: { limit: 10, windowSeconds: 60 },
+  signUpIp: { limit: 10, windowSeconds: 15 * 60 },
+  api: { limit: 600, windowSeconds: 60 },
+} as const satisfies Record<string, Limit>;
+
+/** Counts one attempt against `key`; a refused attempt is not counted, so waiting always helps. */
+export async function hit(key: string, { limit, windowSeconds }: Limit): Promise<HitResult> {
+  const { rows } = await db().raw<{ rows: { count: number; prev: number; elapsed: number }[] }>(
+    `with cur as (
+       insert into rate_limits (key, window_start, count)
+       values (?, to_timestamp(floor(extract(epoch from clock_timestamp()) / ?) * ?), 1)
+       on conflict (key, window_start) do update set count = rate_limits.count + 1
+       returning count, window_start
+     )
+     select cur.count,
+            coalesce((select p.count from rate_limits p
+                      where p.key = ? and p.window_start = cur.window_start - make_interval(secs => ?)), 0) as prev,
+            extract(epoch from clock_timestamp() - cur.window_start)::float8 as elapsed
+       from cur`,
+    [key, windowSeconds, windowSeconds, key, windowSeconds],
+  );
+  const { count, prev, elapsed } = rows[0];
+  if (Math.random() < 0.01) void sweep();
+  const weight = Math.max(0, 1 - elapsed / windowSeconds);
+  if (prev * weight + count <= limit) return { ok: true, retryAfter: 0 };
+  await undoHit(key, { windowSeconds });
+  return { ok: false, retryAfter: retryAfterSeconds(count - 1, prev, elapsed, limit, windowSeconds) };
+}
+
+/** Seconds until the weighted count leaves room for one more attempt. */
+function retryAfterSeconds(count: number, prev: number, elapsed: number, limit: number, w: number): number {
+  const room = limit - 1;
+  let wait: number;
+  if (count <= room && prev > 0) {
+    // Still in this window: wait for the previous window's weight to fall far enough.
+    wait = w * (1 - (room - count) / prev) - elapsed;
+  } else {
+    // Only the next window helps: this window becomes the weighted "previous" one.
+    wait = w - elapsed + (count > 0 ? Math.max(0, w * (1 - room / count)) : 0);
+  }
+  return Math.max(1, Math.ceil(wait));
+}
+
+/** Takes back one counted attempt (a refused one, or a sign-in that succeeded). */
+export async function undoHit(key: string, { windowSeconds }: Pick<Limit, "windowSeconds">): Promise<void> {
+  await db().raw(
+    `update rate_limits set count = greatest(count - 1, 0)
+      where key = ? and window_start = to_timestamp(floor(extract(epoch from clock_timestamp()) / ?) * ?)`,
+    [key, windowSeconds, windowSeconds],
+  );
+}
+
+/** Forgets every attempt counted against `key` (an account that just signed in successfully). */
+export async function clearHits(key: string): Promise<void> {
+  await db()("rate_limits").where({ key }).delete();
+}
+
+/**
+ * Counts one attempt against each key; when any is over its limit nothing is counted and the
+ * longest wait is returned.
+ */
+export async function hitAll(hits: (Limit & { key: string })[]): Promise<HitResult> {
+  const done: (Limit & { key: string })[] = [];
+  for (const h of hits) {
+    const r = await hit(h.key, h);
+    if (!r.ok) {
+      for (const d of done) await undoHit(d.key, d);
+      return r;
+    }
+    done.push(h);
+  }
+  return { ok: true, retryAfter: 0 };
+}
+
+async function sweep() {
+  try {
+    await db()("rate_limits").where("window_start", "<", db().raw("now() - interval '1 day'")).delete();
+  } catch {
+    // Housekeeping only: the next sweep will try again.
+  }
+}
+
+/** The client address the Express host put in the load context ("unknown" outside it). */
+export function clientIp(context: AppLoadContext | undefined | null): string {
+  return context?.clientIp || "unknown";
+}
+
+/** "2 minutes" / "40 seconds" for a Retry-After in a sentence. */
+export function waitPhrase(seconds: number): string {
+  if (seconds < 60) return `${seconds} second${seconds === 1 ? "" : "s"}`;
+  const minutes = Math.ceil(seconds / 60);
+  return `${minutes} minute${minutes === 1 ? "" : "s"}`;
+}
+
+/**
+ * Per-IP budget for the JSON API (600 requests a minute). Returns a 429 JSON response with
+ * Retry-After to send back, or null when the request may go ahead.
+ */
+export async function limitApiRequest(context: AppLoadContext | undefined | null): Promise<Response | null> {
+  const r = await hit(`api:${clientIp(context)}`, LIMITS.api);
+  if (r.ok) return null;
+  return Response.json(
+    { error: { message: `Too many requests from this address. Wait ${waitPhrase(r.retryAfter)} and try again.`, issues: [] } },
+    { status: 429, headers: { "Retry-After": String(r.retryAfter), "Cache-Control": "no-store" } },
+  );
+}
