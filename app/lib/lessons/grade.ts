@@ -1,0 +1,245 @@
+/**
+ * Grading, pure: quiz answers through mathjs units and tolerances; roof tasks by running the
+ * engine again on the submitted spec. The browser's own figures are never trusted.
+ */
+import { analyse, formatRatio, parseFall, parseSpec } from "../../engine";
+import type { Analysis, RoofSpec } from "../../engine/types";
+import { CRITERION_KINDS, formatLimit } from "./criteria";
+import { dimensionName, parseQuantity, parseRatio, quantityOf, sameDimension, valueIn } from "./quantity";
+import type { Criterion, FrontMatter, Question, Task } from "./schema";
+
+/** One graded item: a quiz question or a task criterion. `score` is the points earned (0..weight). */
+export interface ItemResult {
+  id: string;
+  section: "quiz" | "task";
+  label: string;
+  passed: boolean;
+  score: number;
+  weight: number;
+  feedback: string;
+  measured: string | null;
+  required?: boolean;
+}
+
+export interface GradeResult {
+  /** 0-100, rounded to one decimal. */
+  score: number;
+  passed: boolean;
+  passMark: number;
+  quiz: ItemResult[];
+  task: ItemResult[];
+  /** Headline figures of the graded roof, for the attempt view. */
+  roof: { highLevel: number; longestFallRatio: number | null; outlets: number } | null;
+}
+
+export type Answers = Record<string, string | string[]>;
+
+// Ratios and levels from the engine carry float noise: a roof exactly at the limit passes.
+const EPS = 1e-9;
+
+export function gradeNumeric(q: Extract<Question, { kind: "numeric" }>, given: string | undefined): Omit<ItemResult, "section" | "label"> {
+  const base = { id: q.id, weight: q.weight };
+  const fail = (feedback: string, measured: string | null = given ?? null) => ({ ...base, passed: false, score: 0, feedback, measured });
+  if (!given || !given.trim()) return fail("No answer given.", null);
+  const expected = parseQuantity(q.answer);
+  if (!expected.ok || expected.bare) return fail("This question cannot be marked (its answer is malformed); tell your trainer.");
+  const read = parseQuantity(given);
+  if (!read.ok) return fail(`"${given}" ${read.error}.`);
+  let unit = read.bare ? null : read.unit;
+  if (read.bare) {
+    if (!q.bareUnit) return fail(`"${given}" has no unit. Give ${dimensionName(expected.unit)}, for example ${q.answer}.`);
+    unit = quantityOf(read.number, q.bareUnit);
+  }
+  if (!unit || !sameDimension(unit, expected.unit)) {
+    return fail(`"${given}" is ${dimensionName(unit!)}, but the question asks for ${dimensionName(expected.unit)}.`);
+  }
+  const want = expected.unit.toNumber(expected.unit.formatUnits());
+  const got = valueIn(unit, expected.unit);
+  let tol: number;
+  if (q.tolerance) {
+    const t = parseQuantity(q.tolerance);
+    tol = t.ok && !t.bare ? Math.abs(valueIn(t.unit, expected.unit)) : 0;
+  } else {
+    tol = Math.abs(want) * (q.relativeTolerance ?? 0.01);
+  }
+  const ok = Math.abs(got - want) <= tol + EPS * Math.max(1, Math.abs(want));
+  const shown = `${Number(got.toPrecision(6))} ${expected.unit.formatUnits()}`.replace("cm / m", "%");
+  if (ok) return { ...base, passed: true, score: q.weight, feedback: `Right: ${q.answer}.${q.explanation ? ` ${q.explanation}` : ""}`, measured: shown };
+  return fail(`Not quite: you gave ${given.trim()} (${shown}); the answer is ${q.answer}.${q.explanation ? ` ${q.explanation}` : ""}`, shown);
+}
+
+export function gradeRatio(q: Extract<Question, { kind: "ratio" }>, given: string | undefined): Omit<ItemResult, "section" | "label"> {
+  const base = { id: q.id, weight: q.weight };
+  const expected = parseRatio(q.answer);
+  if (!given || !given.trim()) return { ...base, passed: false, score: 0, feedback: "No answer given.", measured: null };
+  const read = parseRatio(given);
+  if (!expected.ok) return { ...base, passed: false, score: 0, feedback: "This question cannot be marked; tell your trainer.", measured: given };
+  if (!read.ok) return { ...base, passed: false, score: 0, feedback: `"${given}" ${read.error}, written like ${q.answer}.`, measured: given };
+  const tol = q.tolerance ?? expected.ratio * 0.01;
+  const ok = Math.abs(read.ratio - expected.ratio) <= tol + EPS * expected.ratio;
+  const shown = formatRatio(read.ratio);
+  const why = q.explanation ? ` ${q.explanation}` : "";
+  return ok
+    ? { ...base, passed: true, score: q.weight, feedback: `Right: ${q.answer}.${why}`, measured: shown }
+    : { ...base, passed: false, score: 0, feedback: `Not quite: you gave ${shown}; the answer is ${q.answer}.${why}`, measured: shown };
+}
+
+export function gradeChoice(q: Extract<Question, { kind: "choice" }>, given: string | string[] | undefined): Omit<ItemResult, "section" | "label"> {
+  const base = { id: q.id, weight: q.weight };
+  const correct = new Set(Array.isArray(q.correct) ? q.correct : [q.correct]);
+  const picked = new Set((Array.isArray(given) ? given : given ? [given] : []).filter((g) => typeof g === "string"));
+  const textOf = (id: string) => q.options.find((o) => o.id === id)?.text ?? id;
+  const why = q.explanation ? ` ${q.explanation}` : "";
+  const measured = picked.size ? [...picked].map(textOf).join("; ") : null;
+  if (!picked.size) return { ...base, passed: false, score: 0, feedback: "No answer picked.", measured };
+  const ok = picked.size === correct.size && [...picked].every((p) => correct.has(p));
+  if (ok) return { ...base, passed: true, score: q.weight, feedback: `Right.${why}`, measured };
+  const right = [...correct].map(textOf).join("; ");
+  return { ...base, passed: false, score: 0, feedback: `Not quite: the answer is "${right}".${why}`, measured };
+}
+
+export function gradeQuestion(q: Question, given: string | string[] | undefined): ItemResult {
+  const label = q.prompt;
+  if (q.kind === "choice") return { section: "quiz", label, ...gradeChoice(q, given) };
+  const one = Array.isArray(given) ? given[0] : given;
+  if (q.kind === "ratio") return { section: "quiz", label, ...gradeRatio(q, one) };
+  return { section: "quiz", label, ...gradeNumeric(q, one) };
+}
+
+/** The label a criterion shows, generated from its kind and limit unless the author wrote one. */
+export function criterionLabel(c: Criterion): string {
+  const kind = CRITERION_KINDS[c.kind];
+  return c.label ?? kind.label(formatLimit(kind.limit, c.limit));
+}
+
+export function gradeCriterion(c: Criterion, analysis: Analysis, spec: RoofSpec): ItemResult {
+  const kind = CRITERION_KINDS[c.kind];
+  const measured = kind.measure(analysis, spec);
+  const label = criterionLabel(c);
+  const v = measured.value;
+  const slack = EPS * Math.max(1, Math.abs(c.limit));
+  const passed = v != null && (kind.compare === "atMost" ? v <= c.limit + slack : v >= c.limit - slack);
+  const feedback = passed
+    ? `Met: ${measured.text}.`
+    : `Not met: ${measured.text}; the goal is ${label.charAt(0).toLowerCase()}${label.slice(1)}.${c.hint ? ` ${c.hint}` : ""}`;
+  return { id: c.id, section: "task", label, passed, score: passed ? c.weight : 0, weight: c.weight, feedback, measured: measured.text, required: c.required || undefined };
+}
+
+const near = (a: number, b: number) => Math.abs(a - b) <= 1e-6 * Math.max(1, Math.abs(a), Math.abs(b));
+
+function samePoints(a: unknown, b: unknown): boolean {
+  if (!Array.isArray(a) || !Array.isArray(b)) return a === b;
+  const strip = (pts: unknown[]) => {
+    const p = pts as [number, number][];
+    // A repeated closing point is the same outline.
+    return p.length > 3 && near(p[0][0], p[p.length - 1][0]) && near(p[0][1], p[p.length - 1][1]) ? p.slice(0, -1) : p;
+  };
+  const x = strip(a);
+  const y = strip(b);
+  return x.length === y.length && x.every((p, i) => near(p[0], y[i][0]) && near(p[1], y[i][1]));
+}
+
+function fallRatio(v: string | number | undefined): number | null {
+  if (v === undefined) return null;
+  const r = parseFall(v);
+  return r.ok ? r.ratio : null;
+}
+
+/**
+ * Which fixed parts of the task's roof the trainee changed. Defaults count as given (an edge list
+ * of all parapets equals no edge list), so an editor that writes defaults out is not penalised.
+ */
+export function changedFixedKeys(task: Pick<Task, "editable">, start: RoofSpec, submitted: RoofSpec): string[] {
+  const editable = new Set<string>(task.editable);
+  const changed: string[] = [];
+  if (!editable.has("outline") && !samePoints(start.outline, submitted.outline)) changed.push("outline");
+  if (!editable.has("edges")) {
+    const n = start.outline.length;
+    const norm = (e: RoofSpec["edges"], count: number) => Array.from({ length: count }, (_, i) => e?.[i] ?? "parapet");
+    const count = Math.max(n, submitted.outline.length);
+    if (norm(start.edges, count).join() !== norm(submitted.edges, count).join()) changed.push("edges");
+  }
+  if (!editable.has("baseFall") && !near(fallRatio(start.baseFall) ?? 0, fallRatio(submitted.baseFall) ?? -1)) changed.push("baseFall");
+  if (!editable.has("highLevel") && (start.highLevel ?? null) !== (submitted.highLevel ?? null)) {
+    if (start.highLevel == null || submitted.highLevel == null || !near(start.highLevel, submitted.highLevel)) changed.push("highLevel");
+  }
+  if (!editable.has("joists")) {
+    const a = start.joists ?? {};
+    const b = submitted.joists ?? {};
+    const sameNum = (x: number | undefined, y: number | undefined, d: number) => near(x ?? d, y ?? d);
+    const dirA = a.direction;
+    const dirB = b.direction;
+    const dirSame = !dirA ? !dirB || dirB === dirA : !!dirB && near(dirA[0] / Math.hypot(...dirA), dirB[0] / Math.hypot(...dirB)) && near(dirA[1] / Math.hypot(...dirA), dirB[1] / Math.hypot(...dirB));
+    if (!sameNum(a.spacing, b.spacing, 0.4) || !sameNum(a.offset, b.offset, 0) || !dirSame) changed.push("joists");
+  }
+  if (!editable.has("outletLevels") && submitted.outlets.some((o) => o.level !== undefined && !near(o.level, 0))) {
+    const startLevels = new Set(start.outlets.map((o) => o.level ?? 0));
+    if (submitted.outlets.some((o) => !startLevels.has(o.level ?? 0))) changed.push("outlet levels");
+  }
+  if (!editable.has("outlets") && !samePoints(start.outlets.map((o) => o.at), submitted.outlets.map((o) => o.at))) changed.push("outlets");
+  const minA = fallRatio(start.minFall ?? "1:100");
+  const minB = fallRatio(submitted.minFall ?? "1:100");
+  if (minA !== minB && !(minA != null && minB != null && near(minA, minB))) changed.push("minimum fall");
+  if ((start.rainfall?.intensity ?? null) !== (submitted.rainfall?.intensity ?? null)) changed.push("rainfall");
+  if ((start.ruleSet ?? "common-practice") !== (submitted.ruleSet ?? "common-practice")) changed.push("rule set");
+  const g = (s: RoofSpec) => JSON.stringify([s.gutter?.width ?? null, s.gutter?.depth ?? null, s.gutter?.fall == null ? null : fallRatio(s.gutter.fall)]);
+  if (g(start) !== g(submitted)) changed.push("gutter");
+  return changed;
+}
+
+const KEY_WORDS: Record<string, string> = { baseFall: "base fall", highLevel: "high level", outline: "outline", edges: "edge kinds", joists: "joists", outlets: "outlets" };
+
+export type TaskGrade =
+  | { ok: true; items: ItemResult[]; analysis: Analysis; spec: RoofSpec }
+  | { ok: false; status: 400 | 422; message: string; issues: { path: string; message: string }[] };
+
+/** Re-runs the engine on the submitted roof and measures every criterion. */
+export function gradeTask(task: Task, submitted: unknown): TaskGrade {
+  const parsed = parseSpec(structuredClone(submitted));
+  if (!parsed.ok) return { ok: false, status: parsed.status, message: parsed.error.message, issues: parsed.error.issues };
+  const start = parseSpec(structuredClone(task.start));
+  if (!start.ok) return { ok: false, status: 422, message: "This task's starting roof is broken; tell your trainer.", issues: [] };
+  const spec = parsed.spec;
+  const analysis = analyse(structuredClone(spec));
+  const items = task.criteria.map((c) => gradeCriterion(c, analysis, spec));
+  const changed = changedFixedKeys(task, start.spec, spec);
+  if (changed.length) {
+    const words = changed.map((k) => KEY_WORDS[k] ?? k).join(", ");
+    items.unshift({
+      id: "fixed",
+      section: "task",
+      label: "Keep what the task fixes",
+      passed: false,
+      score: 0,
+      weight: 0,
+      required: true,
+      feedback: `You changed the ${words}, which this task keeps as given. Reset the roof, then change only what the goal asks for.`,
+      measured: words,
+    });
+  }
+  return { ok: true, items, analysis, spec };
+}
+
+/** Grades a whole lesson attempt: every question and the roof task. Total 0-100; pass by pass mark and required items. */
+export function gradeLesson(lesson: Pick<FrontMatter, "quiz" | "task" | "passMark">, answers: Answers, submitted: unknown): GradeResult | Extract<TaskGrade, { ok: false }> {
+  const task = gradeTask(lesson.task, submitted);
+  if (!task.ok) return task;
+  const quiz = lesson.quiz.map((q) => gradeQuestion(q, answers[q.id]));
+  const all = [...quiz, ...task.items];
+  const weight = all.reduce((s, i) => s + i.weight, 0);
+  const earned = all.reduce((s, i) => s + i.score, 0);
+  const score = weight > 0 ? Math.round((1000 * earned) / weight) / 10 : 0;
+  const requiredMet = all.every((i) => !i.required || i.passed);
+  return {
+    score,
+    passed: requiredMet && score >= lesson.passMark,
+    passMark: lesson.passMark,
+    quiz,
+    task: task.items,
+    roof: {
+      highLevel: task.analysis.shaped.highLevel,
+      longestFallRatio: task.analysis.shaped.longestFallLine?.ratio ?? null,
+      outlets: task.spec.outlets.length,
+    },
+  };
+}
