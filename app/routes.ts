@@ -6,7 +6,19 @@ export default [
   route("api/v1/roofs", "routes/api.v1.roofs.ts"),
   route("api/v1/roofs/:id", "routes/api.v1.roofs.$id.ts"),
   route("roofs/:id/underlay", "routes/roofs.$id.underlay.ts"),
+  route("logout", "routes/logout.ts"),
   layout("routes/_shell.tsx", [
     index("routes/_index.tsx"),
+    route("login", "routes/login.tsx"),
+    route("signup", "routes/signup.tsx"),
+    route("forgot-password", "routes/forgot-password.tsx"),
+    route("reset-password/:token", "routes/reset-password.$token.tsx"),
+    route("invite/:token", "routes/invite.$token.tsx"),
+    route("account", "routes/account.tsx"),
+    route("admin", "routes/admin.tsx", [
+      index("routes/admin._index.tsx"),
+      route("audit", "routes/admin.audit.tsx"),
+      route("outbox", "routes/admin.outbox.tsx"),
+    ]),
   ]),
 ] satisfies RouteConfig;

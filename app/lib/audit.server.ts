@@ -1,27 +1,9 @@
 /** The audit log: who did what to which account, from where. Read on /admin/audit. */
 import type { Knex } from "knex";
 import { db } from "~/lib/db.server";
+import type { AuditAction } from "~/lib/audit-actions";
 
-export const AUDIT_ACTIONS = {
-  sign_in: "Signed in",
-  sign_in_failed: "Failed sign-in",
-  sign_in_limited: "Sign-in refused (too many attempts)",
-  sign_out: "Signed out",
-  sign_out_everywhere: "Signed out everywhere",
-  password_changed: "Changed password",
-  password_reset_requested: "Asked for a password reset",
-  password_reset: "Reset password",
-  profile_changed: "Changed name",
-  role_changed: "Role changed",
-  user_deactivated: "Deactivated",
-  user_reactivated: "Reactivated",
-  invitation_sent: "Invitation sent",
-  invitation_accepted: "Invitation accepted",
-  signed_up: "Signed up",
-  signup_setting_changed: "Open designer sign-up changed",
-} as const;
-
-export type AuditAction = keyof typeof AUDIT_ACTIONS;
+export { AUDIT_ACTIONS, type AuditAction } from "~/lib/audit-actions";
 
 export interface AuditEntry {
   action: AuditAction;
