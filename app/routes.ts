@@ -6,9 +6,13 @@ export default [
   route("api/v1/roofs", "routes/api.v1.roofs.ts"),
   route("api/v1/roofs/:id", "routes/api.v1.roofs.$id.ts"),
   route("roofs/:id/underlay", "routes/roofs.$id.underlay.ts"),
+  route("roofs/new", "routes/roofs.new.ts"),
+  route("roofs/:id/export", "routes/roofs.$id.export.ts"),
   route("logout", "routes/logout.ts"),
   layout("routes/_shell.tsx", [
     index("routes/_index.tsx"),
+    route("roofs", "routes/roofs._index.tsx"),
+    route("roofs/:id", "routes/roofs.$id.tsx"),
     route("login", "routes/login.tsx"),
     route("signup", "routes/signup.tsx"),
     route("forgot-password", "routes/forgot-password.tsx"),

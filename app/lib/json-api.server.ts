@@ -69,3 +69,19 @@ export async function requireApiPermission(request: Request, permission: Permiss
 export function zodIssues(issues: readonly { path: readonly PropertyKey[]; message: string }[]): ApiIssue[] {
   return issues.map((i) => ({ path: i.path.length ? i.path.map(String).join(".") : "(body)", message: i.message }));
 }
+
+export type CappedForm = { ok: true; form: FormData } | { ok: false; status: 400 | 413 | 415 };
+
+/** request.formData(), but never reading more than `limit` bytes of body first. */
+export async function readFormCapped(request: Request, limit: number): Promise<CappedForm> {
+  const type = request.headers.get("content-type") ?? "";
+  if (!/^(multipart\/form-data|application\/x-www-form-urlencoded)/i.test(type)) return { ok: false, status: 415 };
+  const raw = await readBodyCapped(request, limit);
+  if (!raw) return { ok: false, status: 413 };
+  try {
+    const form = await new Request(request.url, { method: "POST", headers: { "Content-Type": type }, body: raw as Uint8Array<ArrayBuffer> }).formData();
+    return { ok: true, form };
+  } catch {
+    return { ok: false, status: 400 };
+  }
+}

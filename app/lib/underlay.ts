@@ -1,5 +1,8 @@
 /** Underlay helpers shared by the server and the calibration panel. */
+import { create, unitDependencies } from "mathjs";
 import type { UnderlaySettings } from "~/lib/roof-file";
+
+const math = create({ unitDependencies });
 
 /** The image URL, with the upload id so a new image is never served from an old cache entry. */
 export function underlayUrl(roofId: string, uploadId: string): string {
@@ -35,4 +38,62 @@ export function pixelToPlan(u: UnderlaySettings, px: number, py: number): [numbe
 
 export function planToPixel(u: UnderlaySettings, x: number, y: number): [number, number] {
   return [(x - u.originX) / u.metresPerPixel, (u.originY - y) / u.metresPerPixel];
+}
+
+export type LengthResult = { ok: true; metres: number } | { ok: false; message: string };
+
+/** A real distance as typed ("12 m", "12000 mm", "40 ft"); a bare number is metres. */
+export function parseLength(text: string): LengthResult {
+  const s = text.trim().replace(/,/g, ".");
+  if (!s) return { ok: false, message: "Type the real distance between the two points, such as 12 m or 12000 mm." };
+  if (s.length > 40) return { ok: false, message: "That is too long for a distance." };
+  let metres: number;
+  if (/^[+-]?(\d+(\.\d*)?|\.\d+)$/.test(s)) {
+    metres = Number(s);
+  } else {
+    try {
+      const u = math.unit(s);
+      if (!u.equalBase(math.unit("1 m"))) return { ok: false, message: `“${text.trim()}” is not a length. Use m, mm, cm or ft.` };
+      metres = u.toNumber("m");
+    } catch {
+      return { ok: false, message: `“${text.trim()}” is not a distance Fallwright can read. Try 12 m or 12000 mm.` };
+    }
+  }
+  if (!Number.isFinite(metres) || metres <= 0) return { ok: false, message: "The distance must be more than zero." };
+  if (metres > 10_000) return { ok: false, message: "That is over 10 km; check the unit." };
+  return { ok: true, metres };
+}
+
+/** New scale from two image points and the real distance between them; point A keeps its plan position. */
+export function calibrate(u: UnderlaySettings, a: [number, number], b: [number, number], metres: number): UnderlaySettings | null {
+  const px = Math.hypot(b[0] - a[0], b[1] - a[1]);
+  if (!(px > 0)) return null;
+  const metresPerPixel = metres / px;
+  const [ax, ay] = pixelToPlan(u, a[0], a[1]);
+  return { ...u, metresPerPixel, originX: ax - a[0] * metresPerPixel, originY: ay + a[1] * metresPerPixel };
+}
+
+export function formatMetres(m: number): string {
+  return `${m.toFixed(2)} m`;
+}
+
+const distanceToSegment = (p: [number, number], a: [number, number], b: [number, number]) => {
+  const dx = b[0] - a[0];
+  const dy = b[1] - a[1];
+  const len2 = dx * dx + dy * dy;
+  const t = len2 ? Math.max(0, Math.min(1, ((p[0] - a[0]) * dx + (p[1] - a[1]) * dy) / len2)) : 0;
+  return Math.hypot(p[0] - a[0] - t * dx, p[1] - a[1] - t * dy);
+};
+
+/**
+ * The spec with a traced outline: edge kinds start again as parapets (the count changed) and
+ * outlets that no longer sit on an edge (within 5 cm) are dropped rather than guessed.
+ */
+export function retraceSpec(spec: unknown, outline: [number, number][]): Record<string, unknown> {
+  const base = { ...(spec as Record<string, unknown>) };
+  const rounded = outline.map(([x, y]) => [Math.round(x * 1000) / 1000, Math.round(y * 1000) / 1000] as [number, number]);
+  const outlets = Array.isArray(base.outlets) ? (base.outlets as { at: [number, number] }[]) : [];
+  const onEdge = (p: [number, number]) => rounded.some((a, i) => distanceToSegment(p, a, rounded[(i + 1) % rounded.length]) <= 0.05);
+  delete base.edges;
+  return { ...base, outline: rounded, outlets: outlets.filter((o) => Array.isArray(o?.at) && onEdge(o.at)) };
 }

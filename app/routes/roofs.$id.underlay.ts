@@ -7,7 +7,7 @@ import type { Route } from "./+types/roofs.$id.underlay";
 import { getOptionalUser } from "~/lib/auth.server";
 import { db } from "~/lib/db.server";
 import { sniffUnderlay, UNDERLAY_MAX_BYTES, UNDERLAY_TYPES, type UnderlayType } from "~/lib/images.server";
-import { jsonError, readBodyCapped, requireApiPermission } from "~/lib/json-api.server";
+import { jsonError, readFormCapped, requireApiPermission } from "~/lib/json-api.server";
 import { defaultUnderlaySettings, underlayUrl } from "~/lib/underlay";
 import { getRoofFor, getUpload, recordUpload, setUnderlay } from "~/lib/roofs.server";
 import { deleteObject, getObjectStream, putObject } from "~/lib/storage.server";
@@ -15,6 +15,7 @@ import { deleteObject, getObjectStream, putObject } from "~/lib/storage.server";
 /** Room for the multipart boundaries and headers around a file of the maximum size. */
 const MULTIPART_SLACK = 64 * 1024;
 const NOT_FOUND = "No roof with that id in your library.";
+const TOO_LARGE = "The image is over 10 MB. Export the plan at a lower resolution and try again.";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await getOptionalUser(request);
@@ -49,19 +50,15 @@ export async function action({ request, params }: Route.ActionArgs) {
     return Response.json({ underlay: null });
   }
 
-  const type = (request.headers.get("content-type") ?? "").toLowerCase();
-  if (!type.startsWith("multipart/form-data")) return jsonError(415, "Send the image as multipart/form-data with the field \"file\".");
-  const raw = await readBodyCapped(request, UNDERLAY_MAX_BYTES + MULTIPART_SLACK);
-  if (!raw) return jsonError(413, "The image is over 10 MB. Export the plan at a lower resolution and try again.");
-  let file: FormDataEntryValue | null;
-  try {
-    const form = await new Request(request.url, { method: "POST", headers: { "Content-Type": type }, body: raw as Uint8Array<ArrayBuffer> }).formData();
-    file = form.get("file");
-  } catch {
+  const read = await readFormCapped(request, UNDERLAY_MAX_BYTES + MULTIPART_SLACK);
+  if (!read.ok) {
+    if (read.status === 413) return jsonError(413, TOO_LARGE);
+    if (read.status === 415) return jsonError(415, "Send the image as multipart/form-data with the field \"file\".");
     return jsonError(400, "The upload could not be read as a form.", [{ path: "file", message: "missing or malformed" }]);
   }
+  const file = read.form.get("file");
   if (!(file instanceof File) || file.size === 0) return jsonError(400, "Choose an image file to upload.", [{ path: "file", message: "is required" }]);
-  if (file.size > UNDERLAY_MAX_BYTES) return jsonError(413, "The image is over 10 MB. Export the plan at a lower resolution and try again.");
+  if (file.size > UNDERLAY_MAX_BYTES) return jsonError(413, TOO_LARGE);
   const bytes = new Uint8Array(await file.arrayBuffer());
   const sniffed = await sniffUnderlay(bytes);
   if (!sniffed.ok) return jsonError(sniffed.status, sniffed.message, [{ path: "file", message: sniffed.message }]);

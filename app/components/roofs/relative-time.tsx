@@ -1,0 +1,22 @@
+import { useEffect, useState } from "react";
+import { format, formatDistanceToNow } from "date-fns";
+
+/**
+ * "5 minutes ago", with the exact time as a tooltip. The server renders a UTC date so the first
+ * client render matches it; the relative wording follows once the page is live.
+ */
+export function RelativeTime({ iso }: { iso: string }) {
+  const [live, setLive] = useState(false);
+  const [, setTick] = useState(0);
+  useEffect(() => {
+    setLive(true);
+    const t = setInterval(() => setTick((n) => n + 1), 60_000);
+    return () => clearInterval(t);
+  }, []);
+  const date = new Date(iso);
+  return (
+    <time dateTime={iso} title={live ? format(date, "d MMM yyyy, HH:mm") : undefined}>
+      {live ? formatDistanceToNow(date, { addSuffix: true }) : `${iso.slice(0, 10)} ${iso.slice(11, 16)} UTC`}
+    </time>
+  );
+}

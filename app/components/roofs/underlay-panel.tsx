@@ -1,0 +1,294 @@
+import { useEffect, useId, useRef, useState, type KeyboardEvent, type MouseEvent } from "react";
+import { ImageUp, Ruler, Spline, Trash2 } from "lucide-react";
+import type { UnderlaySettings } from "~/lib/roof-file";
+import { calibrate, formatMetres, parseLength, pixelToPlan, planToPixel } from "~/lib/underlay";
+
+type Pt = [number, number];
+type Mode = "scale" | "trace" | null;
+
+const MAX_BYTES = 10 * 1024 * 1024;
+
+export interface UnderlayPanelProps {
+  roofId: string;
+  settings: UnderlaySettings | null;
+  imageUrl: string | null;
+  /** The roof's current outline in plan metres, drawn over the image. */
+  outline: Pt[];
+  canEdit: boolean;
+  onSettings: (settings: UnderlaySettings) => void;
+  onUploaded: (settings: UnderlaySettings | null, url: string | null) => void;
+  onTrace: (outline: Pt[]) => void;
+}
+
+const edgeLengths = (pts: Pt[], closed: boolean) =>
+  pts.slice(0, closed ? pts.length : pts.length - 1).map((p, i) => {
+    const q = pts[(i + 1) % pts.length];
+    return Math.hypot(q[0] - p[0], q[1] - p[1]);
+  });
+
+/**
+ * The plan image on its own: upload, set its scale from two points and a typed distance, trace
+ * the outline over it, move it and fade it. Points can be clicked or typed (keyboard users).
+ */
+export function UnderlayPanel({ roofId, settings, imageUrl, outline, canEdit, onSettings, onUploaded, onTrace }: UnderlayPanelProps) {
+  const [mode, setMode] = useState<Mode>(null);
+  const [points, setPoints] = useState<Pt[]>([]);
+  const [distance, setDistance] = useState("");
+  const [message, setMessage] = useState<{ tone: "ok" | "bad"; text: string } | null>(null);
+  const [uploading, setUploading] = useState(false);
+  const svg = useRef<SVGSVGElement>(null);
+  const id = useId();
+
+  useEffect(() => {
+    setPoints([]);
+  }, [mode]);
+
+  async function upload(file: File) {
+    setMessage(null);
+    if (file.size > MAX_BYTES) {
+      setMessage({ tone: "bad", text: `${file.name} is ${(file.size / 1024 / 1024).toFixed(1)} MB; the limit is 10 MB.` });
+      return;
+    }
+    setUploading(true);
+    try {
+      const form = new FormData();
+      form.set("file", file);
+      const res = await fetch(`/roofs/${roofId}/underlay`, { method: "POST", body: form });
+      const body = await res.json().catch(() => null);
+      if (!res.ok) {
+        setMessage({ tone: "bad", text: body?.error?.message ?? `The upload failed (${res.status}). Try again.` });
+        return;
+      }
+      onUploaded(body.underlay, body.url);
+      setMessage({
+        tone: "ok",
+        text: body.keptCalibration ? "Image replaced; its scale and position were kept." : "Image uploaded. Now set its scale: click two points a known distance apart.",
+      });
+      if (!body.keptCalibration) setMode("scale");
+    } catch {
+      setMessage({ tone: "bad", text: "The upload did not reach the server. Check the connection and try again." });
+    } finally {
+      setUploading(false);
+    }
+  }
+
+  async function remove() {
+    const res = await fetch(`/roofs/${roofId}/underlay`, { method: "DELETE" }).catch(() => null);
+    if (res?.ok) {
+      onUploaded(null, null);
+      setMode(null);
+      setMessage({ tone: "ok", text: "Underlay removed." });
+    } else {
+      setMessage({ tone: "bad", text: "The underlay could not be removed. Try again." });
+    }
+  }
+
+  function toImage(e: MouseEvent<SVGSVGElement>): Pt | null {
+    const el = svg.current;
+    const ctm = el?.getScreenCTM();
+    if (!el || !ctm) return null;
+    const p = new DOMPoint(e.clientX, e.clientY).matrixTransform(ctm.inverse());
+    return [Math.round(p.x * 10) / 10, Math.round(p.y * 10) / 10];
+  }
+
+  function click(e: MouseEvent<SVGSVGElement>) {
+    if (!mode) return;
+    const p = toImage(e);
+    if (!p) return;
+    setPoints((pts) => (mode === "scale" ? (pts.length >= 2 ? [p] : [...pts, p]) : [...pts, p]));
+  }
+
+  function applyScale() {
+    if (!settings || points.length < 2) return;
+    const len = parseLength(distance);
+    if (!len.ok) {
+      setMessage({ tone: "bad", text: len.message });
+      return;
+    }
+    const next = calibrate(settings, points[0], points[1], len.metres);
+    if (!next) {
+      setMessage({ tone: "bad", text: "The two points are the same; pick two points apart." });
+      return;
+    }
+    onSettings(next);
+    const px = Math.hypot(points[1][0] - points[0][0], points[1][1] - points[0][1]);
+    setMessage({ tone: "ok", text: `Scale set: ${px.toFixed(1)} px = ${formatMetres(len.metres)} (${(next.metresPerPixel * 1000).toFixed(2)} mm per pixel).` });
+    setMode(null);
+  }
+
+  function finishTrace() {
+    if (!settings || points.length < 3) return;
+    onTrace(points.map(([x, y]) => pixelToPlan(settings, x, y)));
+    setMessage({ tone: "ok", text: `Outline traced: ${points.length} corners.` });
+    setMode(null);
+  }
+
+  function keys(e: KeyboardEvent) {
+    if (e.key === "Escape") setMode(null);
+    if (mode === "trace" && e.key === "Enter" && points.length >= 3) finishTrace();
+    if (mode && e.key === "Backspace" && (e.target as HTMLElement).tagName !== "INPUT") setPoints((p) => p.slice(0, -1));
+  }
+
+  const lengthsPx = edgeLengths(points, false);
+  const tracedPlan = settings ? points.map(([x, y]) => pixelToPlan(settings, x, y)) : [];
+  const tracedLengths = edgeLengths(tracedPlan, false);
+  const outlineLengths = edgeLengths(outline, true);
+  const k = settings ? Math.max(settings.widthPx, settings.heightPx) / 600 : 1;
+  const outlinePx = settings ? outline.map(([x, y]) => planToPixel(settings, x, y)) : [];
+
+  return (
+    <section aria-labelledby={`${id}-title`} className="card space-y-3" onKeyDown={keys}>
+      <div className="flex flex-wrap items-center justify-between gap-2">
+        <h2 id={`${id}-title`} className="text-lg font-bold">Plan underlay</h2>
+        {canEdit ? (
+          <div className="flex flex-wrap gap-2">
+            <label className="btn cursor-pointer">
+              <ImageUp aria-hidden="true" className="h-4 w-4" />
+              {uploading ? "Uploading…" : settings && imageUrl ? "Replace image" : "Upload plan image"}
+              <input
+                type="file"
+                className="sr-only"
+                accept="image/png,image/jpeg,image/webp"
+                disabled={uploading}
+                aria-label="Upload a plan image (PNG, JPEG or WebP, up to 10 MB)"
+                onChange={(e) => {
+                  const f = e.target.files?.[0];
+                  e.target.value = "";
+                  if (f) void upload(f);
+                }}
+              />
+            </label>
+            {imageUrl ? (
+              <button type="button" className="btn" onClick={() => void remove()}>
+                <Trash2 aria-hidden="true" className="h-4 w-4" /> Remove
+              </button>
+            ) : null}
+          </div>
+        ) : null}
+      </div>
+      {message ? (
+        <p role={message.tone === "bad" ? "alert" : "status"} className={message.tone === "bad" ? "text-sm text-bad" : "text-sm text-ok"}>
+          {message.text}
+        </p>
+      ) : null}
+
+      {!settings || !imageUrl ? (
+        <p className="text-sm text-ink-soft">
+          {canEdit
+            ? "Upload a drawing or photo of the plan (PNG, JPEG or WebP, up to 10 MB) to trace over. Only you, and colleagues when the roof is shared, can see it."
+            : "No plan image on this roof."}
+        </p>
+      ) : (
+        <>
+          {canEdit ? (
+            <div className="flex flex-wrap gap-2" role="group" aria-label="Underlay tools">
+              <button type="button" className={mode === "scale" ? "btn-primary" : "btn"} aria-pressed={mode === "scale"} onClick={() => setMode(mode === "scale" ? null : "scale")}>
+                <Ruler aria-hidden="true" className="h-4 w-4" /> Set scale
+              </button>
+              <button type="button" className={mode === "trace" ? "btn-primary" : "btn"} aria-pressed={mode === "trace"} onClick={() => setMode(mode === "trace" ? null : "trace")}>
+                <Spline aria-hidden="true" className="h-4 w-4" /> Trace outline
+              </button>
+            </div>
+          ) : null}
+          {mode === "scale" ? (
+            <p className="text-sm">Click two points on the image whose real distance you know (a dimensioned wall, a grid line). {points.length}/2 picked.</p>
+          ) : mode === "trace" ? (
+            <p className="text-sm">Click the roof's corners in order. Enter or “Use as outline” finishes; Backspace removes the last corner; Escape cancels.</p>
+          ) : null}
+
+          <svg
+            ref={svg}
+            viewBox={`0 0 ${settings.widthPx} ${settings.heightPx}`}
+            className={`block h-auto w-full max-h-[32rem] border border-rule bg-sheet ${mode ? "cursor-crosshair" : ""}`}
+            onClick={click}
+            role="img"
+            aria-label={`Plan image, ${settings.widthPx} by ${settings.heightPx} pixels${mode ? `; ${mode === "scale" ? "setting the scale" : "tracing the outline"}` : ""}`}
+            data-testid="underlay-canvas"
+          >
+            <image href={imageUrl} x={0} y={0} width={settings.widthPx} height={settings.heightPx} opacity={Math.max(settings.opacity, 0.35)} />
+            {outlinePx.length > 2 ? (
+              <polygon points={outlinePx.map((p) => p.join(",")).join(" ")} fill="none" stroke="var(--color-ink)" strokeWidth={2 * k} strokeDasharray={`${6 * k} ${4 * k}`} />
+            ) : null}
+            {points.length > 1 ? (
+              <polyline points={points.map((p) => p.join(",")).join(" ")} fill="none" stroke="var(--color-accent)" strokeWidth={2.5 * k} />
+            ) : null}
+            {points.map((p, i) => (
+              <circle key={i} cx={p[0]} cy={p[1]} r={5 * k} fill="var(--color-accent)" stroke="var(--color-sheet)" strokeWidth={1.5 * k} />
+            ))}
+          </svg>
+
+          {mode === "scale" && points.length === 2 ? (
+            <form
+              className="flex flex-wrap items-end gap-2"
+              onSubmit={(e) => {
+                e.preventDefault();
+                applyScale();
+              }}
+            >
+              <p className="w-full text-sm text-ink-soft">Picked {lengthsPx[0].toFixed(1)} px apart.</p>
+              <div>
+                <label className="label" htmlFor={`${id}-distance`}>Real distance</label>
+                <input id={`${id}-distance`} className="field w-40" value={distance} onChange={(e) => setDistance(e.target.value)} placeholder="12 m or 12000 mm" autoFocus />
+              </div>
+              <button type="submit" className="btn-primary">Set scale</button>
+            </form>
+          ) : null}
+
+          {mode === "trace" ? (
+            <div className="space-y-2">
+              {tracedLengths.length ? (
+                <ol className="text-sm tabular-nums" aria-label="Traced edges">
+                  {tracedLengths.map((m, i) => (
+                    <li key={i}>Traced edge {i + 1}: {formatMetres(m)}</li>
+                  ))}
+                </ol>
+              ) : null}
+              <div className="flex gap-2">
+                <button type="button" className="btn-primary" disabled={points.length < 3} onClick={finishTrace}>Use as outline</button>
+                <button type="button" className="btn" disabled={!points.length} onClick={() => setPoints((p) => p.slice(0, -1))}>Remove last corner</button>
+              </div>
+            </div>
+          ) : null}
+
+          {canEdit ? <PlacementFields settings={settings} onSettings={onSettings} /> : null}
+
+          {outlineLengths.length ? (
+            <details open>
+              <summary className="cursor-pointer text-sm font-medium">Outline edges over the image (dashed)</summary>
+              <ol className="mt-1 grid grid-cols-2 gap-x-4 text-sm tabular-nums sm:grid-cols-3" aria-label="Outline edge lengths">
+                {outlineLengths.map((m, i) => (
+                  <li key={i}>Edge {i + 1}: {formatMetres(m)}</li>
+                ))}
+              </ol>
+            </details>
+          ) : null}
+        </>
+      )}
+    </section>
+  );
+}
+
+function PlacementFields({ settings, onSettings }: { settings: UnderlaySettings; onSettings: (s: UnderlaySettings) => void }) {
+  const id = useId();
+  const num = (v: string, fallback: number) => (Number.isFinite(Number(v)) && v.trim() !== "" ? Number(v) : fallback);
+  return (
+    <fieldset className="grid grid-cols-2 gap-3 sm:grid-cols-4">
+      <legend className="sr-only">Underlay placement</legend>
+      <div className="col-span-2">
+        <label className="label" htmlFor={`${id}-opacity`}>Opacity {Math.round(settings.opacity * 100)}%</label>
+        <input id={`${id}-opacity`} type="range" min={0} max={1} step={0.05} className="w-full accent-accent" value={settings.opacity} onChange={(e) => onSettings({ ...settings, opacity: Number(e.target.value) })} />
+      </div>
+      <div>
+        <label className="label" htmlFor={`${id}-x`}>Left edge at x (m)</label>
+        <input id={`${id}-x`} type="number" step={0.1} className="field" defaultValue={settings.originX.toFixed(2)} key={`x${settings.originX}`} onBlur={(e) => onSettings({ ...settings, originX: num(e.target.value, settings.originX) })} />
+      </div>
+      <div>
+        <label className="label" htmlFor={`${id}-y`}>Top edge at y (m)</label>
+        <input id={`${id}-y`} type="number" step={0.1} className="field" defaultValue={settings.originY.toFixed(2)} key={`y${settings.originY}`} onBlur={(e) => onSettings({ ...settings, originY: num(e.target.value, settings.originY) })} />
+      </div>
+      <p className="col-span-full text-xs text-ink-soft">
+        Scale: {(settings.metresPerPixel * 1000).toFixed(2)} mm per pixel · image {formatMetres(settings.widthPx * settings.metresPerPixel)} × {formatMetres(settings.heightPx * settings.metresPerPixel)}
+      </p>
+    </fieldset>
+  );
+}

@@ -1,0 +1,337 @@
+import { useCallback, useEffect, useRef, useState } from "react";
+import { data, Link, redirect, useFetcher, useNavigate, useRevalidator, useSearchParams } from "react-router";
+import { Download, History, Link2, Share2 } from "lucide-react";
+import { z } from "zod";
+import type { Route } from "./+types/roofs.$id";
+import { requirePermission } from "~/lib/auth.server";
+import { underlaySettingsSchema, type UnderlaySettings } from "~/lib/roof-file";
+import { duplicateRoof, getRoofFor, listVersions, restoreVersion, roofNameSchema, setShared, setUnderlay } from "~/lib/roofs.server";
+import { underlayUrl } from "~/lib/underlay";
+import { GeneralErrorBoundary } from "~/components/error-boundary";
+import { RelativeTime } from "~/components/roofs/relative-time";
+import { SaveStatus, ConflictBanner } from "~/components/roofs/save-status";
+import { UnderlayPanel } from "~/components/roofs/underlay-panel";
+import { useAutosave, type RoofSnapshot } from "~/components/roofs/use-autosave";
+import { RoofWorkspace, retraceSpec } from "~/components/roofs/roof-workspace";
+
+export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.roof.name ?? "Roof"} · Fallwright` }];
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const user = await requirePermission(request, "roofs:own");
+  const roof = await getRoofFor(user, params.id);
+  if (!roof) throw data("No roof with that id in your library.", { status: 404 });
+  return {
+    roof: { id: roof.id, name: roof.name, version: roof.version, shared: roof.shared, canEdit: roof.canEdit, ownerName: roof.ownerName, spec: roof.spec },
+    underlay: roof.underlay,
+    underlayUrl: roof.underlayId ? underlayUrl(roof.id, roof.underlayId) : null,
+    versions: roof.canEdit ? await listVersions(roof.id) : [],
+  };
+}
+
+const intentSchema = z.discriminatedUnion("intent", [
+  z.object({ intent: z.literal("share"), shared: z.enum(["true", "false"]) }),
+  z.object({ intent: z.literal("underlay"), settings: z.string().max(2000) }),
+  z.object({ intent: z.literal("restore-version"), version: z.coerce.number().int().min(1), expected: z.coerce.number().int().min(1) }),
+  z.object({ intent: z.literal("duplicate"), name: roofNameSchema.optional() }),
+]);
+
+export async function action({ request, params }: Route.ActionArgs) {
+  const user = await requirePermission(request, "roofs:own");
+  const parsed = intentSchema.safeParse(Object.fromEntries(await request.formData()));
+  if (!parsed.success) return data({ error: "That request was malformed." }, { status: 400 });
+  const input = parsed.data;
+  const notFound = () => data("No roof with that id in your library.", { status: 404 });
+  switch (input.intent) {
+    case "share": {
+      const result = await setShared(user, params.id, input.shared === "true");
+      if (result !== "ok") throw result === "forbidden" ? data("Only the owner can share this roof.", { status: 403 }) : notFound();
+      return { shared: input.shared === "true" };
+    }
+    case "underlay": {
+      let settings: UnderlaySettings;
+      try {
+        settings = underlaySettingsSchema.parse(JSON.parse(input.settings));
+      } catch {
+        return data({ error: "The underlay placement was not valid." }, { status: 400 });
+      }
+      const result = await setUnderlay(user, params.id, { settings });
+      if (result !== "ok") throw result === "forbidden" ? data("Only the owner can move the underlay.", { status: 403 }) : notFound();
+      return { underlay: settings };
+    }
+    case "restore-version": {
+      const result = await restoreVersion(user, params.id, input.version, input.expected);
+      if (result.status === "not-found") throw notFound();
+      if (result.status === "forbidden") throw data("Only the owner can restore versions.", { status: 403 });
+      if (result.status === "conflict") return data({ conflict: result.current }, { status: 409 });
+      const roof = await getRoofFor(user, params.id);
+      return { restored: { version: result.version, spec: roof!.spec, name: roof!.name, from: input.version } };
+    }
+    case "duplicate": {
+      const copy = await duplicateRoof(user, params.id, input.name);
+      if (!copy) throw notFound();
+      return redirect(`/roofs/${copy.id}?copied=1`);
+    }
+  }
+}
+
+type ActionData = { shared?: boolean; restored?: RoofSnapshot & { from: number }; conflict?: RoofSnapshot; error?: string };
+
+export default function RoofPage({ loaderData }: Route.ComponentProps) {
+  // A different roof is a different editor: never carry drafts across.
+  return <RoofEditor key={loaderData.roof.id} {...loaderData} />;
+}
+
+function RoofEditor({ roof, underlay: initialUnderlay, underlayUrl: initialUrl, versions }: Route.ComponentProps["loaderData"]) {
+  const navigate = useNavigate();
+  const [params] = useSearchParams();
+  const autosave = useAutosave(roof.id, roof.version, { enabled: roof.canEdit });
+  const [mounted, setMounted] = useState<{ spec: unknown; epoch: number }>({ spec: roof.spec, epoch: 0 });
+  const current = useRef<unknown>(roof.spec);
+  const [outline, setOutline] = useState<[number, number][]>(outlineOf(roof.spec));
+  const [name, setName] = useState(roof.name);
+  const [nameError, setNameError] = useState<string | null>(null);
+  const [underlay, setUnderlayState] = useState<UnderlaySettings | null>(initialUnderlay);
+  const [imageUrl, setImageUrl] = useState<string | null>(initialUrl);
+  const [copyError, setCopyError] = useState<string | null>(null);
+  const underlayFetcher = useFetcher<ActionData>();
+  const underlayTimer = useRef<ReturnType<typeof setTimeout> | null>(null);
+
+  const replaceSpec = useCallback((spec: unknown) => {
+    current.current = spec;
+    setOutline(outlineOf(spec));
+    setMounted((m) => ({ spec, epoch: m.epoch + 1 }));
+  }, []);
+
+  const onSpecChange = useCallback(
+    (spec: unknown) => {
+      if (JSON.stringify(spec) === JSON.stringify(current.current)) return;
+      current.current = spec;
+      setOutline(outlineOf(spec));
+      autosave.queue({ spec });
+    },
+    [autosave.queue],
+  );
+
+  function rename(value: string) {
+    setName(value);
+    const checked = z.string().trim().min(1, "The name must not be empty.").max(120, "The name must be at most 120 characters.").safeParse(value);
+    setNameError(checked.success ? null : checked.error.issues[0].message);
+    if (checked.success) autosave.queue({ name: checked.data });
+  }
+
+  function saveUnderlay(next: UnderlaySettings) {
+    setUnderlayState(next);
+    if (underlayTimer.current) clearTimeout(underlayTimer.current);
+    underlayTimer.current = setTimeout(() => {
+      underlayFetcher.submit({ intent: "underlay", settings: JSON.stringify(next) }, { method: "post" });
+    }, 400);
+  }
+
+  const conflict = autosave.state.kind === "conflict" ? autosave.state.current : null;
+  function reloadTheirs(theirs: RoofSnapshot) {
+    replaceSpec(theirs.spec);
+    setName(theirs.name);
+    autosave.adopt(theirs.version);
+  }
+  async function keepMineAsCopy() {
+    setCopyError(null);
+    const res = await fetch("/api/v1/roofs", {
+      method: "POST",
+      headers: { "Content-Type": "application/json" },
+      body: JSON.stringify({ name: `${name.trim() || roof.name} (my copy)`.slice(0, 120), spec: current.current }),
+    }).catch(() => null);
+    const body = await res?.json().catch(() => null);
+    if (res?.status === 201) navigate(`/roofs/${body.id}?copied=1`);
+    else setCopyError(body?.error?.message ?? "The copy could not be saved. Your changes are still here; try again.");
+  }
+
+  const notice = params.has("saved") ? "Saved to your roofs." : params.has("imported") ? "Imported into your roofs." : params.has("copied") ? "This is your copy." : null;
+  const underlayProp = underlay && imageUrl ? { url: imageUrl, ...underlay } : undefined;
+
+  return (
+    <div className="space-y-4">
+      <header className="flex flex-wrap items-end justify-between gap-3">
+        <div className="min-w-72 flex-1">
+          <p className="text-sm text-ink-soft"><Link className="underline" to="/roofs">My roofs</Link> /</p>
+          {roof.canEdit ? (
+            <div>
+              <label htmlFor="roof-name" className="sr-only">Roof name</label>
+              <input
+                id="roof-name"
+                value={name}
+                onChange={(e) => rename(e.target.value)}
+                maxLength={140}
+                aria-invalid={nameError ? true : undefined}
+                aria-describedby={nameError ? "roof-name-error" : undefined}
+                className="w-full max-w-2xl rounded border border-transparent bg-transparent px-1 text-3xl font-bold tracking-tight hover:border-rule focus:border-ink focus:bg-sheet"
+              />
+              {nameError ? <p id="roof-name-error" className="field-error">{nameError}</p> : null}
+            </div>
+          ) : (
+            <h1 className="text-3xl font-bold tracking-tight">{roof.name}</h1>
+          )}
+        </div>
+        <div className="flex flex-wrap items-center gap-2">
+          {roof.canEdit ? <SaveStatus state={autosave.state} /> : null}
+          {roof.canEdit ? <ShareControls shared={roof.shared} /> : null}
+          <a className="btn" href={`/roofs/${roof.id}/export`} download>
+            <Download aria-hidden="true" className="h-4 w-4" /> Export roof file
+          </a>
+        </div>
+      </header>
+      {roof.canEdit ? <h1 className="sr-only">{name}</h1> : null}
+
+      {notice ? <p role="status" className="rounded border border-ok/40 bg-sheet px-3 py-2 text-sm text-ok">{notice}</p> : null}
+      {!roof.canEdit ? <ReadOnlyBanner owner={roof.ownerName} name={roof.name} /> : null}
+      {conflict ? <ConflictBanner current={conflict} onReload={() => reloadTheirs(conflict)} onKeepMine={() => void keepMineAsCopy()} error={copyError} /> : null}
+
+      <RoofWorkspace key={mounted.epoch} initialSpec={mounted.spec} onSpecChange={onSpecChange} readOnly={!roof.canEdit} underlay={underlayProp} />
+
+      <div className="grid gap-4 lg:grid-cols-[3fr_2fr]">
+        <UnderlayPanel
+          roofId={roof.id}
+          settings={underlay}
+          imageUrl={imageUrl}
+          outline={outline}
+          canEdit={roof.canEdit}
+          onSettings={saveUnderlay}
+          onUploaded={(settings, url) => {
+            setUnderlayState(settings);
+            setImageUrl(url);
+          }}
+          onTrace={(traced) => {
+            const spec = retraceSpec(current.current, traced);
+            replaceSpec(spec);
+            autosave.queue({ spec });
+          }}
+        />
+        {roof.canEdit ? (
+          <VersionHistory
+            versions={versions}
+            busy={autosave.state.kind !== "saved"}
+            expected={autosave.currentVersion}
+            onRestored={(r) => {
+              replaceSpec(r.spec);
+              setName(r.name);
+              autosave.adopt(r.version);
+            }}
+          />
+        ) : null}
+      </div>
+    </div>
+  );
+}
+
+function outlineOf(spec: unknown): [number, number][] {
+  const o = (spec as { outline?: unknown })?.outline;
+  return Array.isArray(o) ? (o.filter((p) => Array.isArray(p) && p.length === 2) as [number, number][]) : [];
+}
+
+function ShareControls({ shared }: { shared: boolean }) {
+  const fetcher = useFetcher<ActionData>();
+  const [copied, setCopied] = useState<"yes" | "failed" | null>(null);
+  const pending = fetcher.formData?.get("shared");
+  const isShared = typeof pending === "string" ? pending === "true" : shared;
+  async function copyLink() {
+    try {
+      await navigator.clipboard.writeText(window.location.origin + window.location.pathname);
+      setCopied("yes");
+    } catch {
+      setCopied("failed");
+    }
+    setTimeout(() => setCopied(null), 4000);
+  }
+  return (
+    <div className="flex items-center gap-2">
+      <fetcher.Form method="post">
+        <input type="hidden" name="intent" value="share" />
+        <input type="hidden" name="shared" value={isShared ? "false" : "true"} />
+        <button type="submit" className={isShared ? "btn-primary" : "btn"} role="switch" aria-checked={isShared} title="Colleagues in your organisation can open it read-only at this page's address">
+          <Share2 aria-hidden="true" className="h-4 w-4" /> {isShared ? "Shared in organisation" : "Share in organisation"}
+        </button>
+      </fetcher.Form>
+      {isShared ? (
+        <button type="button" className="btn" onClick={() => void copyLink()}>
+          <Link2 aria-hidden="true" className="h-4 w-4" /> {copied === "yes" ? "Link copied" : "Copy link"}
+        </button>
+      ) : null}
+      {copied === "failed" ? <span role="alert" className="text-xs text-bad">Copy this address from the address bar.</span> : null}
+    </div>
+  );
+}
+
+function ReadOnlyBanner({ owner, name }: { owner: string; name: string }) {
+  const fetcher = useFetcher();
+  return (
+    <div className="flex flex-wrap items-center justify-between gap-3 rounded border border-rule bg-paper-deep px-4 py-3">
+      <p>
+        <strong>Read-only.</strong> {owner} shared this roof with your organisation. Changes you try here are not saved; make your own copy to work on it.
+      </p>
+      <fetcher.Form method="post">
+        <input type="hidden" name="intent" value="duplicate" />
+        <input type="hidden" name="name" value={`${name.slice(0, 112)} (copy)`} />
+        <button className="btn-primary" type="submit" disabled={fetcher.state !== "idle"}>{fetcher.state !== "idle" ? "Copying…" : "Copy to my roofs"}</button>
+      </fetcher.Form>
+    </div>
+  );
+}
+
+function VersionHistory({
+  versions,
+  busy,
+  expected,
+  onRestored,
+}: {
+  versions: Route.ComponentProps["loaderData"]["versions"];
+  busy: boolean;
+  expected: () => number;
+  onRestored: (r: RoofSnapshot) => void;
+}) {
+  const revalidator = useRevalidator();
+  const fetcher = useFetcher<ActionData>();
+  const handled = useRef<unknown>(null);
+  useEffect(() => {
+    if (fetcher.state === "idle" && fetcher.data?.restored && handled.current !== fetcher.data) {
+      handled.current = fetcher.data;
+      onRestored(fetcher.data.restored);
+      void revalidator.revalidate();
+    }
+  }, [fetcher.state, fetcher.data, onRestored, revalidator]);
+  const restoredFrom = fetcher.data?.restored?.from;
+  return (
+    <section aria-labelledby="history-title" className="card">
+      <div className="mb-2 flex items-center justify-between gap-2">
+        <h2 id="history-title" className="flex items-center gap-2 text-lg font-bold"><History aria-hidden="true" className="h-5 w-5" /> Version history</h2>
+        <button type="button" className="btn" onClick={() => void revalidator.revalidate()} disabled={revalidator.state !== "idle"}>
+          {revalidator.state !== "idle" ? "Refreshing…" : "Refresh"}
+        </button>
+      </div>
+      {restoredFrom ? <p role="status" className="mb-2 text-sm text-ok">Version {restoredFrom} restored as a new version.</p> : null}
+      {fetcher.data?.conflict ? <p role="alert" className="mb-2 text-sm text-bad">The roof changed elsewhere; refresh and try again.</p> : null}
+      <ol className="max-h-80 divide-y divide-rule overflow-y-auto text-sm">
+        {versions.map((v, i) => (
+          <li key={v.version} className="flex items-center justify-between gap-2 py-1.5">
+            <span>
+              <strong>v{v.version}</strong> · {v.name} <span className="text-ink-soft">· <RelativeTime iso={v.savedAt} />{v.savedBy ? ` · ${v.savedBy}` : ""}</span>
+            </span>
+            {i === 0 ? (
+              <span className="text-xs text-ink-soft">latest</span>
+            ) : (
+              <fetcher.Form method="post">
+                <input type="hidden" name="intent" value="restore-version" />
+                <input type="hidden" name="version" value={v.version} />
+                <input type="hidden" name="expected" value={expected()} />
+                <button className="btn py-0.5 text-xs" type="submit" disabled={busy || fetcher.state !== "idle"}>Restore<span className="sr-only"> version {v.version}</span></button>
+              </fetcher.Form>
+            )}
+          </li>
+        ))}
+      </ol>
+      <p className="mt-2 text-xs text-ink-soft">Every save is a version; restoring one makes it the newest, and nothing is overwritten.</p>
+    </section>
+  );
+}
+
+export function ErrorBoundary() {
+  return <GeneralErrorBoundary />;
+}
