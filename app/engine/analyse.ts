@@ -1,0 +1,250 @@
+import { bestExtraOutlet, minimumBaseFall } from "./advice";
+import { dropSchedule, joistPositions } from "./joists";
+import { edgeFalls } from "./edge-falls";
+import { formatRatio } from "./fall";
+import { fallLines } from "./fall-lines";
+import { DEFAULT_BAND_EDGES, fallMap, ratioOfSlope } from "./fall-map";
+import { faceData } from "./faces";
+import { routeWater } from "./flow";
+import { Geodesic } from "./geodesic";
+import { gutterLayout, openEdgeOption } from "./gutter";
+import { drainSpans, highLevelFor } from "./high-level";
+import { designFlow, DESIGN_HEAD, outletCapacity } from "./hydraulics";
+import { buildMesh, type SurfaceMesh } from "./mesh";
+import { perimeterLevels } from "./perimeter";
+import { prepareRoof } from "./prepare";
+import { toFrame, toPlan, type Roof } from "./roof";
+import { RULE_SETS, ruleValue } from "./rule-sets";
+import { levelAt } from "./surface";
+import { drainLabel, flowTraces } from "./traces";
+import { twistWarnings } from "./twist";
+import type { Analysis, Catchment, FallLine, Mesh, MeshBuffers, RoofSpec, Warning } from "./types";
+
+export interface AnalyseOptions {
+  /**
+   * The mesh for the 3D view: true (default) as plain arrays in `shaped.mesh`, which serialise
+   * to JSON; "typed" as typed arrays in `shaped.meshBuffers` (no copying, transferable); false: none.
+   */
+  mesh?: boolean | "typed";
+  /** Include flow traces for the plan view (default true). */
+  traces?: boolean;
+  /** Fall map band edges as ratios N (default 40, 60, 80, 100). */
+  bandEdges?: number[];
+  /** Work bound for the mesh; above it the mesh is coarsened and a warning says so. */
+  maxMeshVertices?: number;
+}
+
+export const MAX_MESH_VERTICES = 250_000;
+
+/**
+ * Shapes and checks a parapet roof (ROOF-METHOD.md): the level-rim boundary, the high level,
+ * the chord-rule surface, joists, mesh and fall map, water (catchments, ponding, fall lines),
+ * advice, and the gutter and open-edge layouts to compare with. Expects a spec that passed
+ * `parseSpec`; throws with the validation message otherwise.
+ */
+export function analyse(spec: RoofSpec, options: AnalyseOptions = {}): Analysis {
+  const prepared = prepareRoof(spec);
+  if (!prepared.ok) throw new Error(prepared.issues.map((i) => `${i.path}: ${i.message}`).join("; "));
+  return analyseRoof(prepared.roof, options);
+}
+
+export function analyseRoof(roof: Roof, options: AnalyseOptions = {}): Analysis {
+  const warnings: Warning[] = [];
+  const spans = drainSpans(roof);
+  const slope = 1 / roof.baseFall.ratio;
+  const derivedH = highLevelFor(spans, slope);
+  const H = roof.highLevelGiven ?? derivedH;
+  if (roof.highLevelGiven !== null && roof.highLevelGiven < derivedH - 1e-9) {
+    warnings.push({
+      code: "high-level-below-derived",
+      message: `The given high level ${mm(H)} is below the ${mm(derivedH)} the base fall ${formatRatio(roof.baseFall.ratio)} needs, so some joists fall less than the base fall.`,
+    });
+  }
+  const field = ruleValue(roof.ruleSet, "fieldFall");
+  if (field && roof.baseFall.ratio > field.value * (1 + 1e-9)) {
+    warnings.push({
+      code: "base-fall-below-rule",
+      message: `The base fall ${formatRatio(roof.baseFall.ratio)} is flatter than ${formatRatio(field.value)} (${cite(field)}).`,
+    });
+  }
+
+  const levels = perimeterLevels(roof, H);
+  const joistU = joistPositions(roof);
+  const joists = dropSchedule(roof, levels, joistU);
+  const mesh = buildMesh(roof, levels, joistU, { maxVertices: options.maxMeshVertices ?? MAX_MESH_VERTICES });
+  if (mesh.coarsened) {
+    warnings.push({
+      code: "mesh-coarsened",
+      message: `The roof is large for its joist spacing: the fall map uses every ${mesh.stride} joist line and ${mm(mesh.step)} stations.`,
+    });
+  }
+  const faces = faceData(mesh);
+  const routing = routeWater(roof, mesh, faces);
+  const geodesic = new Geodesic(roof);
+
+  const lines = fallLines(roof, levels, mesh, routing, geodesic);
+  let longest: FallLine | null = null;
+  let worst: FallLine | null = null;
+  for (const l of lines) {
+    if (!longest || l.length > longest.length) longest = l;
+    if (!worst || l.ratio > worst.ratio) worst = l;
+  }
+  if (worst && worst.ratio > roof.minFall.ratio * (1 + 1e-9)) {
+    warnings.push({
+      code: "fall-line-too-flat",
+      message: `The fall line from ${pt(worst.from)} to ${worst.drain} falls at ${formatRatio(worst.ratio)}, flatter than the minimum ${formatRatio(roof.minFall.ratio)}.`,
+      at: worst.from,
+    });
+  }
+
+  const catchments: Catchment[] = [];
+  const ponding: Analysis["shaped"]["ponding"] = [];
+  routing.drains.forEach((d, id) => {
+    const area = routing.drainArea[id];
+    if (d.kind === "pit") {
+      if (area > 0) ponding.push({ at: toPlan(roof, mesh.u[d.vertex], mesh.v[d.vertex]), area, level: d.level });
+      return;
+    }
+    const flow = designFlow(roof.rainfall.intensity, area);
+    const c: Catchment = {
+      drain: drainLabel(roof, routing, id),
+      kind: d.kind,
+      index: d.kind === "eaves" ? roof.userEdge[d.index] : d.index,
+      label: d.kind === "eaves" ? `Eaves edge ${roof.userEdge[d.index] + 1}` : `Outlet ${d.index + 1}`,
+      area,
+      flow,
+    };
+    if (d.kind === "outlet") {
+      const o = roof.outlets[d.index];
+      c.capacity = outletCapacity(o.size);
+      if (flow > c.capacity) {
+        warnings.push({
+          code: "outlet-capacity",
+          message: `Outlet ${d.index + 1} (${mm(o.size)}) takes ${flow.toFixed(1)} L/s, more than the ${c.capacity.toFixed(1)} L/s it passes at a ${mm(DESIGN_HEAD)} head (assumed). Use a larger outlet or add one.`,
+          at: toPlan(roof, o.u, o.v),
+        });
+      }
+    }
+    catchments.push(c);
+  });
+  if (ponding.length) {
+    const total = ponding.reduce((s, p) => s + p.area, 0);
+    warnings.push({
+      code: "ponding",
+      message: `${ponding.length} low point${ponding.length > 1 ? "s" : ""} away from any drain hold water (${total.toFixed(1)} m² drain to them).`,
+      at: ponding[0].at,
+    });
+  }
+  if (roof.rainfall.assumed) {
+    warnings.push({
+      code: "rainfall-assumed",
+      message: `No rainfall intensity given: flows use ${roof.rainfall.intensity} mm/h, an assumption. Give the site's design intensity.`,
+    });
+  }
+
+  const probes = roof.probes.map((p) => {
+    const [u, v] = toFrame(roof, p[0], p[1]);
+    const level = levelAt(roof, levels, u, v);
+    if (level === null) warnings.push({ code: "probe-outside", message: `Probe ${pt(p)} is outside the outline.`, at: p });
+    return { at: p, level };
+  });
+
+  warnings.push(...twistWarnings(roof, levels, joistU));
+
+  const gutter = gutterLayout(roof);
+  if (gutter.comparable && gutter.narrowGutterOutlets.length) {
+    warnings.push({
+      code: "narrow-gutter",
+      message: `In the gutter layout, a ${mm(gutter.width)} gutter is too narrow for a clamped outlet at outlet ${gutter.narrowGutterOutlets.map((i) => i + 1).join(", ")}.`,
+    });
+  }
+  const openEdge = openEdgeOption(roof);
+  const minBase = minimumBaseFall(spans, lines, roof.minFall.ratio);
+  const extra = bestExtraOutlet(roof, levels, spans, geodesic);
+
+  const fallMapResult = fallMap(faces, roof.minFall.ratio, options.bandEdges ?? DEFAULT_BAND_EDGES);
+  const shaped: Analysis["shaped"] = {
+    highLevel: H,
+    highLevelSource: roof.highLevelGiven === null ? "derived" : "given",
+    joistDirection: [roof.dx, roof.dy],
+    edgeFalls: edgeFalls(roof, levels),
+    longestFallLine: longest,
+    worstFallRatio: worst ? worst.ratio : null,
+    worstFallLine: worst,
+    fallLines: lines,
+    joists,
+    fallMap: fallMapResult,
+    catchments,
+    ponding,
+    probes,
+  };
+  if (options.mesh === "typed") shaped.meshBuffers = meshBuffers(roof, mesh, faces.slope, routing.faceDrain);
+  else if (options.mesh !== false) shaped.mesh = meshOut(roof, mesh, faces.slope, routing.faceDrain);
+  if (options.traces !== false) shaped.flowTraces = flowTraces(roof, mesh, routing);
+
+  return {
+    shaped,
+    gutter,
+    openEdge,
+    comparison: {
+      heightSaved: gutter.highLevel === null ? null : gutter.highLevel - H,
+      flattestFall: { gutter: gutter.comparable ? gutter.fall.ratio : null, shaped: worst ? worst.ratio : null },
+    },
+    advice: {
+      minimumBaseFall: minBase ? { ratio: minBase.ratio, degrees: minBase.degrees, percent: minBase.percent } : null,
+      ...(extra ? { extraOutlet: extra } : {}),
+    },
+    warnings,
+    baseFall: roof.baseFall,
+    minFall: roof.minFall,
+    rainfall: roof.rainfall,
+    ruleSet: { id: roof.ruleSet, name: RULE_SETS[roof.ruleSet].name, used: roof.used },
+    area: roof.area,
+  };
+}
+
+function meshOut(roof: Roof, mesh: SurfaceMesh, slope: Float64Array, faceDrain: Int32Array): Mesh {
+  const V = mesh.vertexCount;
+  const positions = new Array<number>(3 * V);
+  const { dx, dy, ox, oy } = roof;
+  for (let i = 0; i < V; i++) {
+    const u = mesh.u[i];
+    const v = mesh.v[i];
+    positions[3 * i] = ox + u * dy + v * dx;
+    positions[3 * i + 1] = oy - u * dx + v * dy;
+    positions[3 * i + 2] = mesh.z[i];
+  }
+  const F = mesh.faceCount;
+  const faceRatio = new Array<number | null>(F);
+  const indices = new Array<number>(3 * F);
+  const drains = new Array<number>(F);
+  const tri = mesh.tri;
+  for (let f = 0; f < F; f++) {
+    faceRatio[f] = slope[f] > 0 ? 1 / slope[f] : null;
+    drains[f] = faceDrain[f];
+    indices[3 * f] = tri[3 * f];
+    indices[3 * f + 1] = tri[3 * f + 1];
+    indices[3 * f + 2] = tri[3 * f + 2];
+  }
+  return { positions, indices, faceRatio, faceDrain: drains };
+}
+
+function meshBuffers(roof: Roof, mesh: SurfaceMesh, slope: Float64Array, faceDrain: Int32Array): MeshBuffers {
+  const V = mesh.vertexCount;
+  const positions = new Float64Array(3 * V);
+  const { dx, dy, ox, oy } = roof;
+  for (let i = 0; i < V; i++) {
+    const u = mesh.u[i];
+    const v = mesh.v[i];
+    positions[3 * i] = ox + u * dy + v * dx;
+    positions[3 * i + 1] = oy - u * dx + v * dy;
+    positions[3 * i + 2] = mesh.z[i];
+  }
+  const faceRatio = new Float64Array(mesh.faceCount);
+  for (let f = 0; f < mesh.faceCount; f++) faceRatio[f] = ratioOfSlope(slope[f]);
+  return { positions, indices: mesh.tri.slice(), faceRatio, faceDrain: faceDrain.slice() };
+}
+
+const mm = (m: number) => `${Math.round(m * 1000)} mm`;
+const pt = (p: [number, number]) => `(${p[0].toFixed(2)}, ${p[1].toFixed(2)})`;
+const cite = (r: { document: string; clause: string | null }) => (r.clause ? `${r.document}, ${r.clause}` : r.document);

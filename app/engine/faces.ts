@@ -1,0 +1,65 @@
+import type { SurfaceMesh } from "./mesh";
+
+/** Per-face plan area and plane gradient (frame components), from the three vertex levels. */
+export interface FaceData {
+  area: Float64Array;
+  /** ∂z/∂u, ∂z/∂v of each face's plane; |grad z| is its steepest fall. */
+  gu: Float64Array;
+  gv: Float64Array;
+  slope: Float64Array;
+}
+
+export function faceData(mesh: SurfaceMesh): FaceData {
+  const F = mesh.faceCount;
+  const { u, v, z, tri } = mesh;
+  const area = new Float64Array(F);
+  const gu = new Float64Array(F);
+  const gv = new Float64Array(F);
+  const slope = new Float64Array(F);
+  for (let f = 0; f < F; f++) {
+    const a = tri[3 * f], b = tri[3 * f + 1], c = tri[3 * f + 2];
+    const du1 = u[b] - u[a], dv1 = v[b] - v[a], dz1 = z[b] - z[a];
+    const du2 = u[c] - u[a], dv2 = v[c] - v[a], dz2 = z[c] - z[a];
+    const det = du1 * dv2 - du2 * dv1;
+    area[f] = det / 2;
+    if (det === 0) continue;
+    const x = (dz1 * dv2 - dz2 * dv1) / det;
+    const y = (du1 * dz2 - du2 * dz1) / det;
+    gu[f] = x;
+    gv[f] = y;
+    slope[f] = Math.sqrt(x * x + y * y);
+  }
+  return { area, gu, gv, slope };
+}
+
+/** Index of the mesh vertex nearest frame point (u, v): binary search on lines, then stations. */
+export function nearestVertex(mesh: SurfaceMesh, u: number, v: number): number {
+  const { lineU, lineStart } = mesh;
+  const L = lineU.length;
+  let lo = 0, hi = L - 1;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >>> 1;
+    if (lineU[mid] <= u) lo = mid;
+    else hi = mid;
+  }
+  let best = -1;
+  let bestD = Infinity;
+  for (let j = Math.max(0, lo - 1); j <= Math.min(L - 1, hi + 1); j++) {
+    const s0 = lineStart[j], s1 = lineStart[j + 1];
+    if (s1 <= s0) continue;
+    let a = s0, b = s1 - 1;
+    while (b - a > 1) {
+      const mid = (a + b) >>> 1;
+      if (mesh.v[mid] <= v) a = mid;
+      else b = mid;
+    }
+    for (const k of [a, b]) {
+      const d = (mesh.u[k] - u) ** 2 + (mesh.v[k] - v) ** 2;
+      if (d < bestD) {
+        bestD = d;
+        best = k;
+      }
+    }
+  }
+  return best;
+}

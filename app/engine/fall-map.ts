@@ -1,0 +1,40 @@
+import type { FaceData } from "./faces";
+import { formatRatio } from "./fall";
+import type { Band } from "./types";
+
+/** Band edges of the fall map as ratios N (ROOF-METHOD.md §6); a setting. */
+export const DEFAULT_BAND_EDGES: readonly number[] = [40, 60, 80, 100];
+
+/** Ratio N of a slope; a level face has no ratio (Infinity). */
+export const ratioOfSlope = (slope: number) => (slope > 0 ? 1 / slope : Infinity);
+
+/**
+ * Area of the faces in each fall band. A face exactly on a band edge counts with the steeper
+ * band; level faces are in the flattest band.
+ */
+export function fallMap(faces: FaceData, minFallRatio: number, edges: readonly number[] = DEFAULT_BAND_EDGES) {
+  const sorted = [...edges].filter((e) => e > 0 && Number.isFinite(e)).sort((a, b) => a - b);
+  const areas = new Float64Array(sorted.length + 1);
+  let flatter = 0;
+  let total = 0;
+  const F = faces.area.length;
+  const limit = minFallRatio * (1 + 1e-9);
+  for (let f = 0; f < F; f++) {
+    const r = ratioOfSlope(faces.slope[f]);
+    const a = faces.area[f];
+    total += a;
+    let band = 0;
+    while (band < sorted.length && r > sorted[band] * (1 + 1e-9)) band++;
+    areas[band] += a;
+    if (r > limit) flatter += a;
+  }
+  const bands: Band[] = [];
+  for (let b = 0; b <= sorted.length; b++) {
+    const lo = b === 0 ? 0 : sorted[b - 1];
+    const hi = b < sorted.length ? sorted[b] : null;
+    const label =
+      b === 0 ? `steeper than ${formatRatio(hi!)}` : hi === null ? `flatter than ${formatRatio(lo)}` : `${formatRatio(lo)}-${formatRatio(hi)}`;
+    bands.push({ label, minRatio: lo, maxRatio: hi, area: areas[b] });
+  }
+  return { faces: F, areaByBand: bands, flatterThanMinimumArea: flatter, area: total };
+}

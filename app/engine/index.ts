@@ -1,0 +1,35 @@
+/** The roof engine: pure TypeScript, shared by the browser, a Web Worker and the server. */
+export { analyse, analyseRoof, type AnalyseOptions, MAX_MESH_VERTICES } from "./analyse";
+export { parseSpec, type ParseSpecResult } from "./parse-spec";
+export { parseFall, formatRatio, fallFromRatio, fallFromSlope, type Fall, type FallResult } from "./fall";
+export {
+  RULE_SETS,
+  RULE_SET_IDS,
+  DEFAULT_RULE_SET,
+  ruleValue,
+  type RuleSet,
+  type RuleSetId,
+  type RuleValues,
+  type CitedValue,
+  type UsedRule,
+  type Confidence,
+} from "./rule-sets";
+export { LIMITS, DEFAULTS } from "./prepare";
+export { DEFAULT_BAND_EDGES } from "./fall-map";
+export { designFlow, designFlowGpm, outletCapacity } from "./hydraulics";
+export type {
+  RoofSpec,
+  Analysis,
+  Point,
+  EdgeKind,
+  Warning,
+  EdgeFall,
+  Joist,
+  JoistSpan,
+  FallLine,
+  Band,
+  Catchment,
+  Mesh,
+  MeshBuffers,
+  FlowTraces,
+} from "./types";

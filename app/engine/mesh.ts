@@ -1,0 +1,424 @@
+import { Growable } from "./growable";
+import { levelOnEdge, type PerimeterLevels } from "./perimeter";
+import type { Roof } from "./roof";
+
+/** The structured surface mesh in the joist frame (u across joists, v along them). */
+export interface SurfaceMesh {
+  vertexCount: number;
+  faceCount: number;
+  u: Float64Array;
+  v: Float64Array;
+  z: Float64Array;
+  /** Internal perimeter edge a vertex lies on, or -1 inside; and its distance along that edge. */
+  edge: Int32Array;
+  t: Float64Array;
+  /** Three vertex indices per face, counter-clockwise. */
+  tri: Uint32Array;
+  /** Mesh lines (u positions) and where each line's stations start in the vertex arrays. */
+  lineU: Float64Array;
+  lineStart: Int32Array;
+  /** Station step along the lines and how many joist spacings apart the mesh lines are. */
+  step: number;
+  stride: number;
+  coarsened: boolean;
+}
+
+export interface MeshOptions {
+  /** Work bound: the mesh is coarsened (every k-th joist, longer station step) above this. */
+  maxVertices: number;
+}
+
+/** Sorted unique breakpoints: every vertex u exactly, outlet and half-way knots, then mesh joist lines. */
+function meshLines(roof: Roof, levels: PerimeterLevels, joists: Float64Array, stride: number, gap: number): Float64Array {
+  const hard = Array.from(roof.us).sort((a, b) => a - b);
+  const snap = 1e-6 * Math.max(1, roof.umax - roof.umin);
+  const knots: number[] = [];
+  for (let j = 0; j < roof.n; j++) {
+    const q = (j + 1) % roof.n;
+    const kt = levels.t[j];
+    for (let k = 0; k < kt.length; k++) {
+      if (levels.kind[j][k] === 0) continue;
+      knots.push(roof.us[j] + ((roof.us[q] - roof.us[j]) * kt[k]) / roof.len[j]);
+    }
+  }
+  const soft: number[] = [];
+  for (let k = 0; k < joists.length; k += stride) soft.push(joists[k]);
+  if ((joists.length - 1) % stride !== 0) soft.push(joists[joists.length - 1]);
+  const accepted = mergeAway(hard, knots, snap);
+  return Float64Array.from(mergeAway(accepted, soft, gap));
+}
+
+/** Adds candidates to a sorted list unless one lies within `gap` of an accepted value. */
+function mergeAway(accepted: number[], candidates: number[], gap: number): number[] {
+  const base = [...new Set(accepted)].sort((a, b) => a - b);
+  const cand = [...candidates].sort((a, b) => a - b);
+  const out: number[] = [];
+  let i = 0;
+  let lastKept = -Infinity;
+  for (const c of cand) {
+    while (i < base.length && base[i] <= c) out.push(base[i++]);
+    const prev = out.length ? out[out.length - 1] : -Infinity;
+    const next = i < base.length ? base[i] : Infinity;
+    if (c - prev > gap && next - c > gap && c - lastKept > gap && c > base[0] && c < base[base.length - 1]) {
+      out.push(c);
+      lastKept = c;
+    }
+  }
+  while (i < base.length) out.push(base[i++]);
+  return out;
+}
+
+/**
+ * Meshes the outline on the joist structure (ROOF-METHOD.md §6): vertical slabs between mesh
+ * lines (joist lines, vertex and knot positions) hold trapezoids; stations every `step` along each
+ * line; each trapezoid is zipped between its two sides, so triangle areas sum exactly to the
+ * outline's area. Levels: perimeter level on the outline, the chord rule inside.
+ */
+export function buildMesh(roof: Roof, levels: PerimeterLevels, joists: Float64Array, options: MeshOptions): SurfaceMesh {
+  const { n, us, vs, len, spacing } = roof;
+  const factor = Math.max(1, Math.sqrt(roof.area / (spacing * spacing * options.maxVertices)));
+  const stride = Math.ceil(factor - 1e-9);
+  const step = spacing * factor;
+  const U = meshLines(roof, levels, joists, stride, 0.25 * spacing * stride);
+  const L = U.length;
+  const extent = Math.max(roof.umax - roof.umin, roof.vmax - roof.vmin, 1);
+  const tolV = 1e-9 * extent;
+  const minGap = 0.25 * step;
+
+  const edgeV = (e: number, u: number): number => {
+    const q = e + 1 === n ? 0 : e + 1;
+    const ua = us[e];
+    const ub = us[q];
+    if (u === ua) return vs[e];
+    if (u === ub) return vs[q];
+    let s = (u - ua) / (ub - ua);
+    s = s < 0 ? 0 : s > 1 ? 1 : s;
+    return vs[e] + s * (vs[q] - vs[e]);
+  };
+  const edgeT = (e: number, u: number): number => {
+    const q = e + 1 === n ? 0 : e + 1;
+    const ua = us[e];
+    const ub = us[q];
+    if (u === ua) return 0;
+    if (u === ub) return len[e];
+    let s = (u - ua) / (ub - ua);
+    s = s < 0 ? 0 : s > 1 ? 1 : s;
+    return s * len[e];
+  };
+
+  // Trapezoids of each slab: pairs of edges spanning it, sorted along v at the slab's middle.
+  const slabStart = new Int32Array(L);
+  const trapBot = new Growable(Int32Array, 4 * L);
+  const trapTop = new Growable(Int32Array, 4 * L);
+  const crossing: number[] = [];
+  const crossingV: number[] = [];
+  for (let j = 0; j + 1 < L; j++) {
+    slabStart[j] = trapBot.length;
+    const a = U[j];
+    const b = U[j + 1];
+    const mid = (a + b) / 2;
+    crossing.length = 0;
+    for (let e = 0; e < n; e++) {
+      const q = e + 1 === n ? 0 : e + 1;
+      const lo = us[e] < us[q] ? us[e] : us[q];
+      const hi = us[e] < us[q] ? us[q] : us[e];
+      if (lo <= a && hi >= b) crossing.push(e);
+    }
+    crossingV.length = 0;
+    for (const e of crossing) crossingV[e] = edgeV(e, mid);
+    crossing.sort((p, q) => crossingV[p] - crossingV[q]);
+    for (let k = 0; k + 1 < crossing.length; k += 2) {
+      trapBot.push(crossing[k]);
+      trapTop.push(crossing[k + 1]);
+    }
+  }
+  slabStart[L - 1] = trapBot.length;
+  const bots = trapBot.view();
+  const tops = trapTop.view();
+
+  const out = new Stations(Math.ceil((roof.area / (spacing * stride * step)) * 1.1 + 4 * L + 64));
+  const lineStart = new Int32Array(L + 1);
+  // Per-line scratch, sized for the worst line.
+  const maxSides = 2 * (bots.length > 0 ? n : 1) + 2;
+  const sides = new Float64Array(4 * maxSides);
+  const maxMarks = 2 * maxSides + levels.t.reduce((sum, kt) => sum + kt.length, 0) + 8;
+  const markV = new Float64Array(maxMarks), markZ = new Float64Array(maxMarks), markT = new Float64Array(maxMarks);
+  const markE = new Int32Array(maxMarks);
+  const coveredLo = new Float64Array(maxSides), coveredHi = new Float64Array(maxSides);
+  const kV: number[] = [], kE: number[] = [], kT: number[] = [];
+  const sideList: number[][] = [];
+  const along: number[] = [];
+
+  for (let j = 0; j < L; j++) {
+    const u = U[j];
+    lineStart[j] = out.count;
+    kV.length = kE.length = kT.length = 0;
+    sideList.length = 0;
+    let rightSides = 0;
+    for (const [from, to] of [[j, j + 1], [j - 1, j]]) {
+      if (from < 0 || to >= L) continue;
+      for (let k = slabStart[from]; k < slabStart[to]; k++) {
+        const eB = bots[k], eT = tops[k];
+        const tB = edgeT(eB, u), tT = edgeT(eT, u);
+        const vB = edgeV(eB, u), vT = edgeV(eT, u);
+        sideList.push([vB, vT, levelOnEdge(levels, eB, tB), levelOnEdge(levels, eT, tT)]);
+        kV.push(vB, vT);
+        kE.push(eB, eT);
+        kT.push(tB, tT);
+      }
+      if (from === j) rightSides = sideList.length;
+    }
+    along.length = 0;
+    for (let e = 0; e < n; e++) {
+      const q = e + 1 === n ? 0 : e + 1;
+      if (us[e] !== u || us[q] !== u) continue;
+      along.push(e);
+      const kt = levels.t[e];
+      const dir = vs[q] >= vs[e] ? 1 : -1;
+      for (let k = 0; k < kt.length; k++) {
+        kV.push(vs[e] + dir * kt[k]);
+        kE.push(e);
+        kT.push(kt[k]);
+      }
+    }
+    const order = kV.map((_, k) => k).sort((a, b) => kV[a] - kV[b]);
+    for (let k = 0; k < order.length; k++) {
+      const o = order[k];
+      markV[k] = kV[o];
+      markE[k] = kE[o];
+      markT[k] = kT[o];
+      markZ[k] = levelOnEdge(levels, kE[o], kT[o]);
+    }
+    for (let k = 0; k < sideList.length; k++) sides.set(sideList[k], 4 * k);
+    // Union of the sides along v.
+    const byStart = sideList.map((_, k) => k).sort((a, b) => sideList[a][0] - sideList[b][0]);
+    let nCovered = 0;
+    let covered = 0;
+    for (const k of byStart) {
+      const [vB, vT] = sideList[k];
+      if (nCovered > 0 && vB <= coveredHi[nCovered - 1] + tolV) coveredHi[nCovered - 1] = Math.max(coveredHi[nCovered - 1], vT);
+      else {
+        coveredLo[nCovered] = vB;
+        coveredHi[nCovered++] = vT;
+      }
+    }
+    for (let c = 0; c < nCovered; c++) covered += coveredHi[c] - coveredLo[c];
+    out.ensure(out.count + Math.ceil(covered / step) + order.length + 2 * nCovered + 4);
+    emitLine(out, u, coveredLo, coveredHi, nCovered, markV, markZ, markE, markT, order.length,
+      sides, rightSides, sideList.length, roof.vmin, step, minGap, tolV);
+    if (along.length) fixAlong(out, lineStart[j], along, vs, n, levels, tolV);
+  }
+  lineStart[L] = out.count;
+  const vc = out.count;
+  const V = out.v;
+
+  // Zip each trapezoid between its left side (line j) and right side (line j+1).
+  const T = bots.length;
+  const ends = new Float64Array(4 * T);
+  for (let j = 0; j + 1 < L; j++) {
+    for (let k = slabStart[j]; k < slabStart[j + 1]; k++) {
+      ends[4 * k] = edgeV(bots[k], U[j]);
+      ends[4 * k + 1] = edgeV(tops[k], U[j]);
+      ends[4 * k + 2] = edgeV(bots[k], U[j + 1]);
+      ends[4 * k + 3] = edgeV(tops[k], U[j + 1]);
+    }
+  }
+  const tri = zipSlabs(V, lineStart, slabStart, ends, tolV, vc);
+  const tc = tri.length;
+
+  return {
+    vertexCount: vc,
+    faceCount: tc / 3,
+    u: out.u.subarray(0, vc),
+    v: out.v.subarray(0, vc),
+    z: out.z.subarray(0, vc),
+    edge: out.e.subarray(0, vc),
+    t: out.t.subarray(0, vc),
+    tri,
+    lineU: U,
+    lineStart,
+    step,
+    stride,
+    coarsened: factor > 1,
+  };
+}
+
+/** Growable per-vertex arrays of the mesh. */
+class Stations {
+  u: Float64Array;
+  v: Float64Array;
+  z: Float64Array;
+  e: Int32Array;
+  t: Float64Array;
+  count = 0;
+  constructor(private cap: number) {
+    this.u = new Float64Array(cap);
+    this.v = new Float64Array(cap);
+    this.z = new Float64Array(cap);
+    this.e = new Int32Array(cap);
+    this.t = new Float64Array(cap);
+  }
+  ensure(needed: number): void {
+    if (needed <= this.cap) return;
+    this.cap = Math.max(needed, 2 * this.cap);
+    const c = this.count;
+    const f = (a: Float64Array) => {
+      const b = new Float64Array(this.cap);
+      b.set(a.subarray(0, c));
+      return b;
+    };
+    this.u = f(this.u);
+    this.v = f(this.v);
+    this.z = f(this.z);
+    this.t = f(this.t);
+    const e = new Int32Array(this.cap);
+    e.set(this.e.subarray(0, c));
+    this.e = e;
+  }
+}
+
+/**
+ * Stations along one mesh line: every mark (side ends, knots) and grid points every `step`,
+ * aligned across lines and kept clear of marks. Interior levels by the chord rule, reading the
+ * side from the larger-u slab first (sides [0, nRight)), as the probes do.
+ */
+function emitLine(
+  out: Stations, u: number,
+  coveredLo: Float64Array, coveredHi: Float64Array, nCovered: number,
+  markV: Float64Array, markZ: Float64Array, markE: Int32Array, markT: Float64Array, nMarks: number,
+  sides: Float64Array, nRight: number, nSides: number,
+  vGrid0: number, step: number, minGap: number, tolV: number,
+): void {
+  const U = out.u, V = out.v, Z = out.z, E = out.e, T = out.t;
+  let vc = out.count;
+  let m = 0;
+  let lastV = -Infinity;
+  for (let c = 0; c < nCovered; c++) {
+    const lo = coveredLo[c];
+    const hi = coveredHi[c];
+    while (m < nMarks && markV[m] < lo - tolV) m++;
+    let g = Math.ceil((lo - vGrid0) / step);
+    for (;;) {
+      const mv = m < nMarks && markV[m] <= hi + tolV ? markV[m] : Infinity;
+      const gv = vGrid0 + g * step;
+      const gridV = gv < hi - minGap ? gv : Infinity;
+      if (mv === Infinity && gridV === Infinity) break;
+      if (mv <= gridV) {
+        if (mv - lastV > tolV) {
+          U[vc] = u;
+          V[vc] = mv;
+          Z[vc] = markZ[m];
+          E[vc] = markE[m];
+          T[vc] = markT[m];
+          vc++;
+          lastV = mv;
+        }
+        m++;
+        continue;
+      }
+      g++;
+      // Grid stations keep clear of marks so no sliver triangles appear.
+      if (gridV - lastV < minGap || gridV - lo < minGap || mv - gridV < minGap) continue;
+      let z = NaN;
+      for (let pass = 0; pass < 2 && z !== z; pass++) {
+        const from = pass === 0 ? 0 : nRight;
+        const to = pass === 0 ? nRight : nSides;
+        for (let k = from; k < to; k++) {
+          const vB = sides[4 * k], vT = sides[4 * k + 1];
+          if (gridV < vB - tolV || gridV > vT + tolV) continue;
+          const span = vT - vB;
+          z = span > 0 ? sides[4 * k + 2] + ((sides[4 * k + 3] - sides[4 * k + 2]) * (gridV - vB)) / span : sides[4 * k + 2];
+          break;
+        }
+      }
+      U[vc] = u;
+      V[vc] = gridV;
+      Z[vc] = z;
+      E[vc] = -1;
+      T[vc] = 0;
+      vc++;
+      lastV = gridV;
+    }
+  }
+  out.count = vc;
+}
+
+/** Grid stations that fall on an outline edge lying along the line take that edge's level. */
+function fixAlong(out: Stations, start: number, along: number[], vs: Float64Array, n: number, levels: PerimeterLevels, tol: number): void {
+  for (let i = start; i < out.count; i++) {
+    if (out.e[i] >= 0) continue;
+    for (const e of along) {
+      const q = e + 1 === n ? 0 : e + 1;
+      const v = out.v[i];
+      if (v < Math.min(vs[e], vs[q]) - tol || v > Math.max(vs[e], vs[q]) + tol) continue;
+      out.e[i] = e;
+      out.t[i] = Math.abs(v - vs[e]);
+      out.z[i] = levelOnEdge(levels, e, out.t[i]);
+      break;
+    }
+  }
+}
+
+/**
+ * Triangulates each trapezoid between the stations of its two sides, advancing along whichever
+ * side is behind (by fraction of its length). Triangles are counter-clockwise in (u, v).
+ */
+function zipSlabs(
+  V: Float64Array,
+  lineStart: Int32Array,
+  slabStart: Int32Array,
+  ends: Float64Array,
+  tolV: number,
+  vertexCount: number,
+): Uint32Array {
+  let tri = new Uint32Array(Math.ceil(2.2 * vertexCount) * 3 + 48);
+  let tc = 0;
+  const L = lineStart.length - 1;
+  for (let j = 0; j + 1 < L; j++) {
+    for (let k = slabStart[j]; k < slabStart[j + 1]; k++) {
+      const vBl = ends[4 * k], vTl = ends[4 * k + 1], vBr = ends[4 * k + 2], vTr = ends[4 * k + 3];
+      const l0 = lowerBound(V, lineStart[j], lineStart[j + 1], vBl - tolV);
+      const l1 = upperBound(V, lineStart[j], lineStart[j + 1], vTl + tolV) - 1;
+      const r0 = lowerBound(V, lineStart[j + 1], lineStart[j + 2], vBr - tolV);
+      const r1 = upperBound(V, lineStart[j + 1], lineStart[j + 2], vTr + tolV) - 1;
+      if (l1 < l0 || r1 < r0) continue;
+      const need = tc + 3 * (l1 - l0 + r1 - r0);
+      if (need > tri.length) {
+        const bigger = new Uint32Array(Math.max(need, 2 * tri.length));
+        bigger.set(tri.subarray(0, tc));
+        tri = bigger;
+      }
+      const invL = vTl - vBl > tolV ? 1 / (vTl - vBl) : 1;
+      const invR = vTr - vBr > tolV ? 1 / (vTr - vBr) : 1;
+      let i = l0;
+      let r = r0;
+      while (i < l1 || r < r1) {
+        const advanceLeft = i === l1 ? false : r === r1 ? true : (V[i + 1] - vBl) * invL < (V[r + 1] - vBr) * invR;
+        tri[tc] = i;
+        tri[tc + 1] = r;
+        if (advanceLeft) tri[tc + 2] = ++i;
+        else tri[tc + 2] = ++r;
+        tc += 3;
+      }
+    }
+  }
+  return tri.subarray(0, tc);
+}
+
+function lowerBound(a: Float64Array, lo: number, hi: number, x: number): number {
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if (a[mid] < x) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
+}
+
+function upperBound(a: Float64Array, lo: number, hi: number, x: number): number {
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if (a[mid] <= x) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
+}

@@ -1,0 +1,285 @@
+import { fallFromRatio, parseFall, type Fall } from "./fall";
+import { signedArea } from "./geometry/area";
+import { nearestOnSegment, orient, segmentsTouch } from "./geometry/segments";
+import type { Outlet, Roof } from "./roof";
+import { DEFAULT_RULE_SET, RULE_SETS, ruleValue, type RuleSetId, type UsedRule } from "./rule-sets";
+import type { EdgeKind, Point, RoofSpec } from "./types";
+
+export interface SpecIssue {
+  path: string;
+  message: string;
+}
+
+export type Prepared = { ok: true; roof: Roof } | { ok: false; status: 400 | 422; issues: SpecIssue[] };
+
+/** Limits from ROOF-METHOD.md §1 and issue 4. */
+export const LIMITS = {
+  maxVertices: 200,
+  maxArea: 100_000,
+  maxJoists: 5_000,
+  maxProbes: 1_000,
+  /** An outlet must sit within this distance of a parapet edge (metres). */
+  outletSnap: 0.001,
+  /** Edges shorter than this are treated as zero-length (metres). */
+  minEdge: 0.001,
+} as const;
+
+/** Defaults that no code gives (CHECK-VALUES.md, "common practice, no source"). */
+export const DEFAULTS = {
+  joistSpacing: 0.4,
+  outletSize: 0.1,
+  /** Design rainfall when none is given: an assumption, reported as a warning. */
+  rainfallIntensity: 75,
+} as const;
+
+const fail = (status: 400 | 422, path: string, message: string): Prepared => ({
+  ok: false,
+  status,
+  issues: [{ path, message }],
+});
+
+function fallOr(input: string | number | undefined, fallback: number): Fall {
+  if (input === undefined) return fallFromRatio(fallback);
+  const parsed = parseFall(input);
+  return parsed.ok ? fallFromRatio(parsed.ratio) : fallFromRatio(fallback);
+}
+
+/**
+ * Normalises a shape-checked spec (drops a repeated closing point, fixes winding) and checks the
+ * geometry: self-crossing, zero-length edges, area, outlets on parapet edges, a drain at all,
+ * joist count. Never throws for a shape-valid spec.
+ */
+export function prepareRoof(spec: RoofSpec): Prepared {
+  let pts: Point[] = spec.outline.map((p) => [p[0], p[1]]);
+  let kinds: EdgeKind[] | undefined = spec.edges ? [...spec.edges] : undefined;
+  const first = pts[0];
+  const last = pts[pts.length - 1];
+  if (pts.length > 3 && Math.hypot(first[0] - last[0], first[1] - last[1]) <= LIMITS.minEdge) {
+    pts = pts.slice(0, -1);
+    if (kinds && kinds.length === pts.length + 1) kinds = kinds.slice(0, -1);
+  }
+  const n = pts.length;
+  if (n > LIMITS.maxVertices) return fail(400, "outline", `allows at most ${LIMITS.maxVertices} vertices (got ${n})`);
+  if (kinds && kinds.length !== n) return fail(400, "edges", `needs one kind per edge: ${n} (got ${kinds.length})`);
+
+  for (let i = 0; i < n; i++) {
+    const a = pts[i];
+    const b = pts[(i + 1) % n];
+    if (Math.hypot(b[0] - a[0], b[1] - a[1]) < LIMITS.minEdge)
+      return fail(422, `outline.${i}`, `edge ${i} from vertex ${i} to vertex ${(i + 1) % n} has zero length`);
+  }
+  const crossing = findCrossing(pts);
+  if (crossing) return fail(422, "outline", crossing);
+
+  const ox = pts.reduce((s, p) => s + p[0], 0) / n;
+  const oy = pts.reduce((s, p) => s + p[1], 0) / n;
+  let xs = Float64Array.from(pts, (p) => p[0] - ox);
+  let ys = Float64Array.from(pts, (p) => p[1] - oy);
+  let area = signedArea(xs, ys);
+  const absArea = Math.abs(area);
+  if (absArea < 1e-6) return fail(422, "outline", "encloses no area");
+  if (absArea > LIMITS.maxArea)
+    return fail(422, "outline", `encloses ${Math.round(absArea)} m², over the limit of ${LIMITS.maxArea} m²`);
+
+  const userVertex = new Int32Array(n);
+  const userEdge = new Int32Array(n);
+  for (let i = 0; i < n; i++) userVertex[i] = userEdge[i] = i;
+  if (area < 0) {
+    // Reverse to counter-clockwise. Internal edge j joins reversed vertices j, j+1, which is request edge n-2-j.
+    xs = xs.reverse();
+    ys = ys.reverse();
+    for (let j = 0; j < n; j++) {
+      userVertex[j] = n - 1 - j;
+      userEdge[j] = (((n - 2 - j) % n) + n) % n;
+    }
+    area = -area;
+  }
+  const eaves = new Uint8Array(n);
+  const len = new Float64Array(n);
+  let perimeter = 0;
+  for (let j = 0; j < n; j++) {
+    eaves[j] = kinds?.[userEdge[j]] === "eaves" ? 1 : 0;
+    const k = (j + 1) % n;
+    len[j] = Math.hypot(xs[k] - xs[j], ys[k] - ys[j]);
+    perimeter += len[j];
+  }
+  const reflex = new Uint8Array(n);
+  let convex = true;
+  for (let j = 0; j < n; j++) {
+    const p = (j + n - 1) % n;
+    const q = (j + 1) % n;
+    if (orient(xs[p], ys[p], xs[j], ys[j], xs[q], ys[q]) < 0) {
+      reflex[j] = 1;
+      convex = false;
+    }
+  }
+  let extent = 0;
+  for (let j = 0; j < n; j++) extent = Math.max(extent, Math.abs(xs[j]), Math.abs(ys[j]));
+  const tol = 1e-9 * Math.max(1, extent);
+
+  // Outlets: snap each onto the nearest parapet edge, or onto a vertex when within the snap distance.
+  const outlets: Outlet[] = [];
+  const specOutlets = spec.outlets ?? [];
+  for (let k = 0; k < specOutlets.length; k++) {
+    const o = specOutlets[k];
+    const px = o.at[0] - ox;
+    const py = o.at[1] - oy;
+    let best = -1;
+    let bestDistance = Infinity;
+    let nearestEaves = Infinity;
+    for (let j = 0; j < n; j++) {
+      const q = (j + 1) % n;
+      const d = nearestOnSegment(xs[j], ys[j], xs[q], ys[q], px, py).distance;
+      if (eaves[j]) {
+        nearestEaves = Math.min(nearestEaves, d);
+        continue;
+      }
+      // Equal distances happen at corners: prefer the longer edge, so joists span the short way.
+      if (d < bestDistance - tol || (Math.abs(d - bestDistance) <= tol && best >= 0 && len[j] > len[best])) {
+        best = j;
+        bestDistance = d;
+      }
+    }
+    if (best < 0 || bestDistance > LIMITS.outletSnap) {
+      const why =
+        nearestEaves <= LIMITS.outletSnap
+          ? "sits on an eaves edge: outlets go on parapet edges (an eaves edge drains by itself)"
+          : `is ${formatDistance(Math.min(bestDistance, nearestEaves))} from the nearest parapet edge; an outlet must be within 1 mm of one`;
+      return fail(422, `outlets.${k}.at`, `outlet ${k + 1} ${why}`);
+    }
+    const q = (best + 1) % n;
+    const snap = nearestOnSegment(xs[best], ys[best], xs[q], ys[q], px, py);
+    let x = snap.x;
+    let y = snap.y;
+    let t = snap.s * len[best];
+    let vertex = -1;
+    if (t <= LIMITS.outletSnap) {
+      vertex = best;
+      t = 0;
+    } else if (len[best] - t <= LIMITS.outletSnap) {
+      vertex = q;
+      t = len[best];
+    }
+    if (vertex >= 0) {
+      x = xs[vertex];
+      y = ys[vertex];
+    }
+    const size = o.size ?? DEFAULTS.outletSize;
+    outlets.push({ index: k, x, y, u: 0, v: 0, edge: best, t, vertex, level: o.level ?? 0, size, radius: size / 2 });
+  }
+  const anyEaves = eaves.some((e) => e === 1);
+  if (outlets.length === 0 && !anyEaves)
+    return fail(422, "outlets", "no outlet and no eaves edge: the water has nowhere to go");
+
+  // Joist direction: given, or the inward normal of the first outlet's edge, else of the first eaves edge.
+  let dx: number;
+  let dy: number;
+  if (spec.joists?.direction) {
+    const [gx, gy] = spec.joists.direction;
+    const m = Math.hypot(gx, gy);
+    dx = gx / m;
+    dy = gy / m;
+  } else {
+    let edge = outlets.length ? outlets[0].edge : -1;
+    if (edge < 0) {
+      const firstUserEaves = [...Array(n).keys()].filter((j) => eaves[j]).sort((a, b) => userEdge[a] - userEdge[b])[0];
+      edge = firstUserEaves;
+    }
+    const q = (edge + 1) % n;
+    // For a counter-clockwise outline the inward normal is the edge direction turned left.
+    dx = -(ys[q] - ys[edge]) / len[edge];
+    dy = (xs[q] - xs[edge]) / len[edge];
+  }
+  const us = new Float64Array(n);
+  const vs = new Float64Array(n);
+  let umin = Infinity, umax = -Infinity, vmin = Infinity, vmax = -Infinity;
+  for (let j = 0; j < n; j++) {
+    us[j] = xs[j] * dy - ys[j] * dx;
+    vs[j] = xs[j] * dx + ys[j] * dy;
+    umin = Math.min(umin, us[j]);
+    umax = Math.max(umax, us[j]);
+    vmin = Math.min(vmin, vs[j]);
+    vmax = Math.max(vmax, vs[j]);
+  }
+  for (const o of outlets) {
+    if (o.vertex >= 0) {
+      o.u = us[o.vertex];
+      o.v = vs[o.vertex];
+    } else {
+      o.u = o.x * dy - o.y * dx;
+      o.v = o.x * dx + o.y * dy;
+    }
+  }
+
+  const spacing = spec.joists?.spacing ?? DEFAULTS.joistSpacing;
+  const offset = spec.joists?.offset ?? 0;
+  const joistCount = Math.floor(Math.max(0, umax - umin - offset) / spacing) + 2;
+  if (joistCount > LIMITS.maxJoists)
+    return fail(
+      422,
+      "joists.spacing",
+      `${spacing} m spacing across ${formatDistance(umax - umin)} gives ${joistCount} joists, over the limit of ${LIMITS.maxJoists}`,
+    );
+
+  const drainTop = Math.max(anyEaves ? 0 : -Infinity, ...outlets.map((o) => o.level));
+  const highLevelGiven = spec.highLevel ?? null;
+  if (highLevelGiven !== null && highLevelGiven <= drainTop)
+    return fail(422, "highLevel", `must be above every drain (the highest drain is at ${drainTop} m)`);
+
+  const ruleSet = (spec.ruleSet ?? DEFAULT_RULE_SET) as RuleSetId;
+  const used: UsedRule[] = [];
+  const rule = (key: Parameters<typeof ruleValue>[1]) => {
+    const r = ruleValue(ruleSet, key);
+    if (r) used.push(r);
+    return r;
+  };
+  const baseFall = fallOr(spec.baseFall, 40);
+  rule("fieldFall");
+  const minFall = spec.minFall !== undefined ? fallOr(spec.minFall, 100) : fallFromRatio(rule("fallLine")!.value);
+  const gutterWidth = spec.gutter?.width ?? rule("gutterWidth")!.value;
+  const gutterDepth = spec.gutter?.depth ?? rule("gutterDepth")!.value;
+  const gutterFall = spec.gutter?.fall !== undefined ? fallOr(spec.gutter.fall, 100) : fallFromRatio(rule("gutterFall")!.value);
+  for (const key of ["pondingCheckBelow", "overflowOpening", "sumpDepth", "gutterRainfallFactor"] as const) {
+    if (RULE_SETS[ruleSet].values[key]) rule(key);
+  }
+
+  const roof: Roof = {
+    n, xs, ys, ox, oy, userEdge, userVertex, eaves, len, area, perimeter, convex, reflex,
+    dx, dy, us, vs, umin, umax, vmin, vmax, outlets, baseFall, minFall,
+    gutter: { width: gutterWidth, depth: gutterDepth, fall: gutterFall },
+    rainfall: spec.rainfall
+      ? { intensity: spec.rainfall.intensity, assumed: false }
+      : { intensity: DEFAULTS.rainfallIntensity, assumed: true },
+    ruleSet, used, spacing, offset, highLevelGiven,
+    probes: (spec.probes ?? []).map((p) => [p[0], p[1]]),
+    tol,
+  };
+  return { ok: true, roof };
+}
+
+function formatDistance(m: number): string {
+  return m < 1 ? `${Math.round(m * 1000)} mm` : `${m.toFixed(2)} m`;
+}
+
+/** First self-crossing found, as a message naming the edges (request numbering), or null. */
+export function findCrossing(pts: Point[]): string | null {
+  const n = pts.length;
+  for (let i = 0; i < n; i++) {
+    const a = pts[i];
+    const b = pts[(i + 1) % n];
+    // Adjacent edges may only share their common vertex: a fold back along the same line overlaps.
+    const c = pts[(i + 2) % n];
+    if (orient(a[0], a[1], b[0], b[1], c[0], c[1]) === 0) {
+      const dot = (b[0] - a[0]) * (c[0] - b[0]) + (b[1] - a[1]) * (c[1] - b[1]);
+      if (dot < 0) return `edges ${i} and ${(i + 1) % n} fold back over each other at vertex ${(i + 1) % n}`;
+    }
+    for (let j = i + 2; j < n; j++) {
+      if (i === 0 && j === n - 1) continue;
+      const p = pts[j];
+      const q = pts[(j + 1) % n];
+      if (segmentsTouch(a[0], a[1], b[0], b[1], p[0], p[1], q[0], q[1]))
+        return `edges ${i} and ${j} cross or touch: the outline must be a simple polygon`;
+    }
+  }
+  return null;
+}

@@ -1,0 +1,36 @@
+import { chordThrough, type Chord } from "./chords";
+import { nearestOnSegment } from "./geometry/segments";
+import { levelOnEdge, type PerimeterLevels } from "./perimeter";
+import type { Roof } from "./roof";
+
+/** Level along a chord at v: linear between its end levels (the chord rule, ROOF-METHOD.md §4). */
+export function chordLevel(levels: PerimeterLevels, c: Chord, v: number): number {
+  const zA = levelOnEdge(levels, c.edgeA, c.tA);
+  const zB = levelOnEdge(levels, c.edgeB, c.tB);
+  const L = c.vB - c.vA;
+  if (L <= 0) return Math.min(zA, zB);
+  const s = Math.min(1, Math.max(0, (v - c.vA) / L));
+  return zA + (zB - zA) * s;
+}
+
+/** Perimeter level at (u, v) when the point lies on the outline (within tol), else null. */
+export function perimeterLevelAt(roof: Roof, levels: PerimeterLevels, u: number, v: number, tol: number): number | null {
+  const { n, us, vs, len } = roof;
+  for (let j = 0; j < n; j++) {
+    const q = j + 1 === n ? 0 : j + 1;
+    const near = nearestOnSegment(us[j], vs[j], us[q], vs[q], u, v);
+    if (near.distance <= tol) return levelOnEdge(levels, j, near.s * len[j]);
+  }
+  return null;
+}
+
+/**
+ * Level of the shaped surface at frame point (u, v): the perimeter level on the outline, else
+ * linear along the joist-direction chord through the point; null outside the outline.
+ */
+export function levelAt(roof: Roof, levels: PerimeterLevels, u: number, v: number): number | null {
+  const onRim = perimeterLevelAt(roof, levels, u, v, roof.tol * 1000);
+  if (onRim !== null) return onRim;
+  const c = chordThrough(roof, u, v);
+  return c ? chordLevel(levels, c, v) : null;
+}

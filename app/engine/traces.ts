@@ -1,0 +1,67 @@
+import { nearestVertex } from "./faces";
+import type { Routing } from "./flow";
+import { insidePolygon } from "./geometry/inside";
+import type { SurfaceMesh } from "./mesh";
+import type { Roof } from "./roof";
+import type { FlowTraces } from "./types";
+
+/** Traces drawn for the plan view: about 0.5 m apart, finer on small roofs, at most this many. */
+export const MAX_TRACES = 600;
+
+export function seedSpacing(area: number): number {
+  const base = area < 40 ? 0.25 : 0.5;
+  return Math.max(base, Math.sqrt(area / MAX_TRACES));
+}
+
+/** Labels drains in reports and traces: "outlet-0", "eaves-3" (request edge), "pit-1". */
+export function drainLabel(roof: Roof, routing: Routing, id: number): string {
+  const d = routing.drains[id];
+  if (!d) return "none";
+  if (d.kind === "eaves") return `eaves-${roof.userEdge[d.index]}`;
+  return `${d.kind}-${d.index}`;
+}
+
+/** Total points kept across all traces; long traces keep every k-th vertex. */
+export const MAX_TRACE_POINTS = 20_000;
+
+/**
+ * Flow traces by steepest descent on the mesh (ROOF-METHOD.md §7) from a seed grid: each follows
+ * the downhill neighbour chain, which runs along a parapet when it meets one, to an outlet,
+ * an eaves edge or a pit.
+ */
+export function flowTraces(roof: Roof, mesh: SurfaceMesh, routing: Routing): FlowTraces {
+  const gap = seedSpacing(roof.area);
+  const { receiver, vertexDrain } = routing;
+  const seeds: number[] = [];
+  let total = 0;
+  for (let u = roof.umin + gap / 2; u < roof.umax; u += gap) {
+    for (let v = roof.vmin + gap / 2; v < roof.vmax; v += gap) {
+      if (!insidePolygon(roof.us, roof.vs, u, v)) continue;
+      const x = nearestVertex(mesh, u, v);
+      if (x < 0) continue;
+      seeds.push(x);
+      for (let y = x, guard = 0; y >= 0 && guard < mesh.vertexCount; y = receiver[y], guard++) total++;
+    }
+  }
+  const every = Math.max(1, Math.ceil(total / MAX_TRACE_POINTS));
+  const points: number[] = [];
+  const starts: number[] = [];
+  const ends: string[] = [];
+  const { dx, dy, ox, oy } = roof;
+  const emit = (y: number) => {
+    const u = mesh.u[y], v = mesh.v[y];
+    points.push(ox + u * dy + v * dx, oy - u * dx + v * dy, mesh.z[y]);
+  };
+  for (const x of seeds) {
+    starts.push(points.length / 3);
+    let y = x;
+    for (let k = 0, guard = 0; guard < mesh.vertexCount; guard++, k++) {
+      if (k % every === 0 || receiver[y] < 0) emit(y);
+      if (receiver[y] < 0) break;
+      y = receiver[y];
+    }
+    ends.push(drainLabel(roof, routing, vertexDrain[y]));
+  }
+  starts.push(points.length / 3);
+  return { points, starts, ends };
+}

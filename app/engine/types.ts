@@ -1,0 +1,195 @@
+import type { Fall } from "./fall";
+import type { RuleSetId, UsedRule } from "./rule-sets";
+
+/** A plan point in metres. */
+export type Point = [number, number];
+export type EdgeKind = "parapet" | "eaves";
+
+/** The roof spec: the request body of POST /api/v1/analyses (ROOF-METHOD.md §1, §9). */
+export interface RoofSpec {
+  outline: Point[];
+  /** One kind per edge, edge i running from vertex i to vertex i+1. Default: all parapet. */
+  edges?: EdgeKind[];
+  outlets: { at: Point; level?: number; size?: number }[];
+  /** `1:40`, `2°`, `2.5%`, `25 mm/m`, or a number N meaning 1:N. */
+  baseFall: string | number;
+  highLevel?: number;
+  joists?: { spacing?: number; direction?: Point; offset?: number };
+  minFall?: string | number;
+  gutter?: { width?: number; depth?: number; fall?: string | number };
+  rainfall?: { intensity: number };
+  probes?: Point[];
+  ruleSet?: RuleSetId;
+}
+
+export interface Warning {
+  code:
+    | "twist"
+    | "fall-line-too-flat"
+    | "base-fall-below-rule"
+    | "high-level-below-derived"
+    | "ponding"
+    | "probe-outside"
+    | "mesh-coarsened"
+    | "outlet-capacity"
+    | "narrow-gutter"
+    | "rainfall-assumed";
+  message: string;
+  at?: Point;
+  /** Size of the problem in metres where it has one (twist: level difference). */
+  size?: number;
+}
+
+export interface EdgeFall {
+  /** Edge index in the request's numbering. */
+  edge: number;
+  /** Low end of the rising piece. */
+  from: Point;
+  /** High end. */
+  to: Point;
+  ratio: number;
+  fall: Fall;
+}
+
+export interface JoistSpan {
+  start: Point;
+  end: Point;
+  length: number;
+  startLevel: number;
+  endLevel: number;
+  /** Drop below the high level at each end: what a builder sets at the bearing. */
+  startDrop: number;
+  endDrop: number;
+  /** null when the span is level. */
+  ratio: number | null;
+  fall: Fall | null;
+}
+
+export interface Joist {
+  index: number;
+  /** Across the roof from its extreme edge, metres. */
+  offset: number;
+  spans: JoistSpan[];
+}
+
+export interface FallLine {
+  from: Point;
+  to: Point;
+  length: number;
+  drop: number;
+  drainLevel: number;
+  ratio: number;
+  fall: Fall;
+  /** The path inside the outline, including both ends. */
+  path: Point[];
+  drain: string;
+}
+
+export interface Band {
+  label: string;
+  minRatio: number;
+  /** null: open-ended (flatter than the last band edge, including level faces). */
+  maxRatio: number | null;
+  area: number;
+}
+
+export interface Catchment {
+  /** "outlet-0", "eaves-3" (edge number in the request's numbering). */
+  drain: string;
+  kind: "outlet" | "eaves";
+  index: number;
+  label: string;
+  area: number;
+  /** Design flow in L/s: Q = i·A/3600 (ASCE 7-05 Commentary C8; rational method, C = 1). */
+  flow: number;
+  /** Outlets only: rough capacity in L/s at the assumed head (weir or orifice, the smaller). */
+  capacity?: number;
+}
+
+export interface Mesh {
+  /** x, y, z per vertex (plan metres, level metres). */
+  positions: number[];
+  /** Three vertex indices per face, counter-clockwise in plan. */
+  indices: number[];
+  /** Ratio N of each face's steepest fall; null for a level face. */
+  faceRatio: (number | null)[];
+  /** Index into `catchments` (or `catchments.length + k` for ponding pit k) per face. */
+  faceDrain: number[];
+}
+
+/** The same mesh as typed arrays, for a Web Worker to transfer and a 3D view to upload as is. */
+export interface MeshBuffers {
+  positions: Float64Array;
+  indices: Uint32Array;
+  /** Ratio N per face; Infinity for a level face. */
+  faceRatio: Float64Array;
+  faceDrain: Int32Array;
+}
+
+export interface FlowTraces {
+  /** x, y, z of every trace point, traces one after another. */
+  points: number[];
+  /** Start of each trace in points (as a point index), plus one final entry. */
+  starts: number[];
+  /** Drain label each trace ends in ("pit-k" for ponding). */
+  ends: string[];
+}
+
+export interface Analysis {
+  shaped: {
+    highLevel: number;
+    /** How the high level was found. */
+    highLevelSource: "given" | "derived";
+    joistDirection: Point;
+    edgeFalls: EdgeFall[];
+    longestFallLine: FallLine | null;
+    worstFallRatio: number | null;
+    worstFallLine: FallLine | null;
+    fallLines: FallLine[];
+    joists: Joist[];
+    fallMap: {
+      faces: number;
+      areaByBand: Band[];
+      flatterThanMinimumArea: number;
+      area: number;
+    };
+    catchments: Catchment[];
+    ponding: { at: Point; area: number; level: number }[];
+    probes: { at: Point; level: number | null }[];
+    /** Present unless options.mesh is false or "typed". */
+    mesh?: Mesh;
+    /** Present when options.mesh is "typed". */
+    meshBuffers?: MeshBuffers;
+    flowTraces?: FlowTraces;
+  };
+  gutter: {
+    comparable: boolean;
+    reason?: string;
+    highLevel: number | null;
+    lipLevel: number | null;
+    gutterLength: number;
+    soleArea: number;
+    detailLength: number;
+    width: number;
+    depth: number;
+    fall: Fall;
+    /** Outlets in a gutter narrower than the rule set's minimum (room for a clamped outlet). */
+    narrowGutterOutlets: number[];
+  };
+  openEdge: { highLevel: number; edge: number; span: number };
+  comparison: {
+    heightSaved: number | null;
+    /** Flattest fall on the water's path: gutter sole against the shaped roof's worst fall line. */
+    flattestFall: { gutter: number | null; shaped: number | null };
+  };
+  advice: {
+    minimumBaseFall: { ratio: number; degrees: number; percent: number } | null;
+    extraOutlet?: { at: Point; edge: number; longestFallRatio: number; currentLongestFallRatio: number };
+  };
+  warnings: Warning[];
+  baseFall: Fall;
+  minFall: Fall;
+  rainfall: { intensity: number; assumed: boolean };
+  ruleSet: { id: RuleSetId; name: string; used: UsedRule[] };
+  area: number;
+}
