@@ -177,8 +177,8 @@ export function prepareRoof(spec: RoofSpec): Prepared {
   if (spec.joists?.direction) {
     const [gx, gy] = spec.joists.direction;
     const m = Math.hypot(gx, gy);
-    dx = gx / m;
-    dy = gy / m;
+    dx = gx / m + 0;
+    dy = gy / m + 0;
   } else {
     let edge = outlets.length ? outlets[0].edge : -1;
     if (edge < 0) {
@@ -187,8 +187,9 @@ export function prepareRoof(spec: RoofSpec): Prepared {
     }
     const q = (edge + 1) % n;
     // For a counter-clockwise outline the inward normal is the edge direction turned left.
-    dx = -(ys[q] - ys[edge]) / len[edge];
-    dy = (xs[q] - xs[edge]) / len[edge];
+    // "+ 0" turns -0 into 0, which reads better in JSON and in tests.
+    dx = -(ys[q] - ys[edge]) / len[edge] + 0;
+    dy = (xs[q] - xs[edge]) / len[edge] + 0;
   }
   const us = new Float64Array(n);
   const vs = new Float64Array(n);

@@ -71,13 +71,15 @@ export const RULE_SETS: Readonly<Record<RuleSetId, RuleSet>> = {
     jurisdiction: "none",
     commonPractice: true,
     values: {
-      fieldFall: cp(ratioOfDegrees(2), "ratio", "membrane roof field fall 2° (1:28.6), usual trade advice"),
       fallLine: cp(100, "ratio", "longest fall line no flatter than 1:100, usual trade advice"),
       gutterFall: cp(100, "ratio", "internal gutter sole fall 1:100"),
       gutterWidth: cp(0.3, "m", "internal gutter at least 300 mm wide, room for a clamped outlet"),
       gutterDepth: cp(0.05, "m", "internal gutter 50 mm deep at its high end"),
     },
-    notes: ["Trade habits, not a code. Pick a jurisdiction for cited minimums."],
+    notes: [
+      "Trade habits, not a code. Pick a jurisdiction for cited minimums.",
+      "Usual advice for the field of a membrane roof is 2° (1:28.6); it is advice, not a minimum, so it raises no warning.",
+    ],
   },
   "us-ibc-2018": {
     id: "us-ibc-2018",
