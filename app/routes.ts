@@ -9,8 +9,11 @@ export default [
   route("roofs/new", "routes/roofs.new.ts"),
   route("roofs/:id/export", "routes/roofs.$id.export.ts"),
   route("logout", "routes/logout.ts"),
+  route("sandbox/schedule.csv", "routes/sandbox.schedule-csv.ts"),
   layout("routes/_shell.tsx", [
     index("routes/_index.tsx"),
+    route("sandbox", "routes/sandbox.tsx"),
+    route("sandbox/sheet", "routes/sandbox.sheet.tsx"),
     route("roofs", "routes/roofs._index.tsx"),
     route("roofs/:id", "routes/roofs.$id.tsx"),
     route("login", "routes/login.tsx"),

@@ -1,0 +1,88 @@
+import { Plus, Trash2 } from "lucide-react";
+import type { EdgeKind } from "~/engine";
+import { NumberField } from "./number-field";
+import { addOutlet, deleteVertex, edgeKindsOf, edgeLength, insertVertex, moveVertex, outletsOnEdge, setEdgeKind } from "./spec-edit";
+import { useSandbox, useSandboxStore } from "./store";
+
+/** The outline as numbers: each vertex's x and y, and the edge that leaves it (kind, length, outlet, split). */
+export function OutlineTable() {
+  const store = useSandboxStore();
+  const spec = useSandbox((s) => s.spec);
+  const readOnly = useSandbox((s) => s.readOnly);
+  const selection = useSandbox((s) => s.selection);
+  const kinds = edgeKindsOf(spec);
+  const n = spec.outline.length;
+  const edit = store.getState().edit;
+
+  function changeKind(edge: number, kind: EdgeKind) {
+    const lost = kind === "eaves" ? outletsOnEdge(spec, edge) : 0;
+    edit((s) => setEdgeKind(s, edge, kind));
+    store.getState().setNotice(`Edge ${edge + 1} is now ${kind}${lost ? `; ${lost} outlet${lost > 1 ? "s" : ""} on it removed (undo brings ${lost > 1 ? "them" : "it"} back)` : ""}.`);
+  }
+
+  return (
+    <div className="overflow-x-auto">
+      <table className="data-table w-full" data-testid="vertex-table">
+        <caption className="sr-only">Outline vertices and the edge from each to the next</caption>
+        <thead>
+          <tr>
+            <th scope="col">#</th>
+            <th scope="col">x (m)</th>
+            <th scope="col">y (m)</th>
+            <th scope="col">edge to next</th>
+            <th scope="col">length</th>
+            <th scope="col"><span className="sr-only">actions</span></th>
+          </tr>
+        </thead>
+        <tbody>
+          {spec.outline.map((p, i) => {
+            const selected =
+              (selection?.kind === "vertex" && selection.index === i) || (selection?.kind === "edge" && selection.index === i);
+            return (
+              <tr key={i} className={selected ? "bg-accent-wash" : undefined}>
+                <th scope="row" className="w-8 text-sm font-medium">{i + 1}</th>
+                <td className="w-24">
+                  <NumberField compact label={`Vertex ${i + 1} x`} value={p[0]} min={-1e6} max={1e6} disabled={readOnly}
+                    onCommit={(v) => v != null && edit((s) => moveVertex(s, i, [v, s.outline[i][1]]))} testId={`vertex-${i}-x`} />
+                </td>
+                <td className="w-24">
+                  <NumberField compact label={`Vertex ${i + 1} y`} value={p[1]} min={-1e6} max={1e6} disabled={readOnly}
+                    onCommit={(v) => v != null && edit((s) => moveVertex(s, i, [s.outline[i][0], v]))} testId={`vertex-${i}-y`} />
+                </td>
+                <td>
+                  <label className="sr-only" htmlFor={`edge-kind-${i}`}>Edge {i + 1} to {((i + 1) % n) + 1} kind</label>
+                  <select id={`edge-kind-${i}`} className="field px-1.5 py-1" value={kinds[i]} disabled={readOnly}
+                    onChange={(e) => changeKind(i, e.target.value as EdgeKind)}>
+                    <option value="parapet">parapet</option>
+                    <option value="eaves">eaves (open)</option>
+                  </select>
+                </td>
+                <td className="whitespace-nowrap text-ink-soft">{edgeLength(spec.outline, i).toFixed(2)} m</td>
+                <td className="whitespace-nowrap text-right">
+                  {!readOnly && (
+                    <span className="inline-flex gap-1">
+                      <button type="button" className="btn px-1.5 py-0.5 text-xs" disabled={kinds[i] === "eaves"}
+                        title={kinds[i] === "eaves" ? "Outlets go on parapet edges" : undefined}
+                        aria-label={`Add an outlet half-way along edge ${i + 1}`}
+                        onClick={() => edit((s) => addOutlet(s, i, 0.5))}>
+                        + outlet
+                      </button>
+                      <button type="button" className="btn px-1.5 py-0.5 text-xs" aria-label={`Add a vertex half-way along edge ${i + 1}`}
+                        onClick={() => edit((s) => insertVertex(s, i))} disabled={n >= 200}>
+                        <Plus size={14} aria-hidden="true" /> vertex
+                      </button>
+                      <button type="button" className="btn px-1.5 py-0.5 text-xs" aria-label={`Delete vertex ${i + 1}`} disabled={n <= 3}
+                        onClick={() => edit((s) => deleteVertex(s, i))}>
+                        <Trash2 size={14} aria-hidden="true" />
+                      </button>
+                    </span>
+                  )}
+                </td>
+              </tr>
+            );
+          })}
+        </tbody>
+      </table>
+    </div>
+  );
+}

@@ -1,0 +1,439 @@
+import { useEffect, useId, useRef, useState, type KeyboardEvent, type PointerEvent } from "react";
+import type { Point } from "~/engine";
+import { PlanGrid } from "./plan-grid";
+import { PlanOverlays } from "./plan-overlays";
+import { usePlanFrame } from "./plan-frame";
+import { snapAlong, snapVertex } from "./snap";
+import {
+  addOutlet,
+  deleteOutlet,
+  deleteVertex,
+  edgeEnds,
+  edgeKindsOf,
+  edgeLength,
+  insertVertex,
+  moveVertex,
+  nudgeOutlet,
+  placeOutlet,
+  projectOnSegment,
+  setEdgeKind,
+} from "./spec-edit";
+import { useSandbox, useSandboxStore } from "./store";
+import type { Underlay } from "./underlay";
+
+type Drag = { kind: "vertex" | "outlet"; index: number };
+type Focus = { kind: "vertex" | "outlet" | "edge"; index: number };
+
+const ARROWS: Record<string, Point> = { ArrowLeft: [-1, 0], ArrowRight: [1, 0], ArrowUp: [0, 1], ArrowDown: [0, -1] };
+
+/**
+ * The plan: draw and edit the outline over a drafting grid. Drag vertices (snapping to the grid and
+ * to right angles), double-click an edge to add a vertex, click an edge to place an outlet and drag
+ * it along. Every handle takes focus and the same edits from the keyboard.
+ */
+export function PlanEditor({ underlay }: { underlay?: Underlay }) {
+  const store = useSandboxStore();
+  const spec = useSandbox((s) => s.spec);
+  const selection = useSandbox((s) => s.selection);
+  const readOnly = useSandbox((s) => s.readOnly);
+  const view = useSandbox((s) => s.view);
+  const hasError = useSandbox((s) => s.engineError !== null);
+  const dragging = useSandbox((s) => s.gesture !== null);
+  const helpId = useId();
+  const svgRef = useRef<SVGSVGElement>(null);
+  const drag = useRef<Drag | null>(null);
+  const clickTimer = useRef<number | undefined>(undefined);
+  const pendingFocus = useRef<Focus | null>(null);
+  const [size, setSize] = useState({ w: 640, h: 440 });
+  const [fit, setFit] = useState(0);
+  const [cursor, setCursor] = useState<Point | null>(null);
+
+  useEffect(() => {
+    const svg = svgRef.current;
+    if (!svg || typeof ResizeObserver === "undefined") return;
+    const observer = new ResizeObserver(([entry]) => setSize({ w: entry.contentRect.width || 1, h: entry.contentRect.height || 1 }));
+    observer.observe(svg);
+    return () => observer.disconnect();
+  }, []);
+
+  useEffect(() => {
+    const want = pendingFocus.current;
+    if (!want || !svgRef.current) return;
+    pendingFocus.current = null;
+    const el = svgRef.current.querySelector<SVGElement>(`[data-handle="${want.kind}-${want.index}"]`);
+    el?.focus();
+  });
+
+  useEffect(() => () => window.clearTimeout(clickTimer.current), []);
+
+  const frame = usePlanFrame(spec.outline, underlay, dragging, fit);
+  const width = frame.maxX - frame.minX;
+  const height = frame.maxY - frame.minY;
+  // Metres per screen pixel (the SVG keeps its aspect ratio and fits the larger side).
+  const px = Math.max(width / size.w, height / size.h);
+  const kinds = edgeKindsOf(spec);
+  const n = spec.outline.length;
+  const ccw = signedArea(spec.outline) > 0;
+  const snap = { grid: view.snapToGrid, step: view.gridStep, rightAngles: view.snapRightAngles, tolerance: 10 * px };
+
+  function toPlan(clientX: number, clientY: number): Point {
+    const svg = svgRef.current!;
+    const m = svg.getScreenCTM();
+    if (!m) return [0, 0];
+    const p = new DOMPoint(clientX, clientY).matrixTransform(m.inverse());
+    return [p.x, -p.y];
+  }
+
+  function announce(text: string) {
+    store.getState().setNotice(text);
+  }
+
+  // ── pointer: vertices and outlets ────────────────────────────────────────────
+  function startDrag(e: PointerEvent<SVGElement>, target: Drag) {
+    e.stopPropagation();
+    store.getState().select(target);
+    if (readOnly || e.button !== 0) return;
+    e.currentTarget.setPointerCapture(e.pointerId);
+    drag.current = target;
+  }
+
+  function moveDrag(e: PointerEvent<SVGElement>) {
+    const d = drag.current;
+    if (!d) return;
+    const p = toPlan(e.clientX, e.clientY);
+    if (d.kind === "vertex") {
+      store.getState().edit((s) => moveVertex(s, d.index, snapVertex(p, s.outline, d.index, snap)), { gesture: `vertex-${d.index}` });
+    } else {
+      store.getState().edit((s) => {
+        // The outlet follows the pointer along the nearest parapet edge, so it can turn a corner.
+        const edge = nearestParapetEdge(s.outline, edgeKindsOf(s), p);
+        if (edge < 0) return s;
+        const [a, b] = edgeEnds(s.outline, edge);
+        const len = edgeLength(s.outline, edge);
+        const along = snapAlong(projectOnSegment(p, a, b).t * len, len, snap);
+        return placeOutlet(s, d.index, edge, len > 0 ? along / len : 0);
+      }, { gesture: `outlet-${d.index}` });
+    }
+  }
+
+  function endDrag(e: PointerEvent<SVGElement>) {
+    if (!drag.current) return;
+    if (e.currentTarget.hasPointerCapture(e.pointerId)) e.currentTarget.releasePointerCapture(e.pointerId);
+    drag.current = null;
+    store.getState().endGesture();
+  }
+
+  // ── pointer: edges ──────────────────────────────────────────────────────────
+  function placeOutletOnEdge(edge: number, p: Point) {
+    const s = store.getState().spec;
+    if (edgeKindsOf(s)[edge] === "eaves") {
+      store.getState().select({ kind: "edge", index: edge });
+      announce(`Edge ${edge + 1} is an eaves edge: water leaves along all of it. Set it to parapet to put an outlet there.`);
+      return;
+    }
+    const [a, b] = edgeEnds(s.outline, edge);
+    const len = edgeLength(s.outline, edge);
+    const along = snapAlong(projectOnSegment(p, a, b).t * len, len, snap);
+    store.getState().edit((x) => addOutlet(x, edge, len > 0 ? along / len : 0.5));
+    const index = store.getState().spec.outlets.length - 1;
+    store.getState().select({ kind: "outlet", index });
+    announce(`Outlet ${index + 1} placed on edge ${edge + 1}.`);
+  }
+
+  function clickEdge(e: React.MouseEvent<SVGElement>, edge: number) {
+    e.stopPropagation();
+    if (readOnly) {
+      store.getState().select({ kind: "edge", index: edge });
+      return;
+    }
+    const p = toPlan(e.clientX, e.clientY);
+    window.clearTimeout(clickTimer.current);
+    // Wait a moment: a double-click inserts a vertex instead.
+    clickTimer.current = window.setTimeout(() => placeOutletOnEdge(edge, p), 230);
+  }
+
+  function doubleClickEdge(e: React.MouseEvent<SVGElement>, edge: number) {
+    e.stopPropagation();
+    window.clearTimeout(clickTimer.current);
+    if (readOnly) return;
+    const raw = toPlan(e.clientX, e.clientY);
+    store.getState().edit((s) => {
+      const [a, b] = edgeEnds(s.outline, edge);
+      const len = edgeLength(s.outline, edge);
+      const along = snapAlong(projectOnSegment(raw, a, b).t * len, len, snap);
+      const t = len > 0 ? along / len : 0.5;
+      if (t <= 0 || t >= 1) return s;
+      return insertVertex(s, edge, [a[0] + t * (b[0] - a[0]), a[1] + t * (b[1] - a[1])]);
+    });
+    store.getState().select({ kind: "vertex", index: edge + 1 });
+    announce(`Vertex ${edge + 2} added on edge ${edge + 1}.`);
+  }
+
+  // ── keyboard ────────────────────────────────────────────────────────────────
+  function keyStep(e: KeyboardEvent) {
+    return e.altKey ? 0.01 : e.shiftKey ? view.gridStep * 4 : view.gridStep;
+  }
+
+  function vertexKey(e: KeyboardEvent<SVGElement>, i: number) {
+    if (readOnly) return;
+    const dir = ARROWS[e.key];
+    if (dir) {
+      e.preventDefault();
+      const step = keyStep(e);
+      store.getState().edit((s) => moveVertex(s, i, [s.outline[i][0] + dir[0] * step, s.outline[i][1] + dir[1] * step]), { gesture: `key-vertex-${i}` });
+    } else if (e.key === "Delete" || e.key === "Backspace") {
+      e.preventDefault();
+      if (store.getState().spec.outline.length <= 3) return announce("A roof needs at least 3 vertices.");
+      store.getState().edit((s) => deleteVertex(s, i));
+      const left = store.getState().spec.outline.length;
+      const next = Math.min(i, left - 1);
+      store.getState().select({ kind: "vertex", index: next });
+      pendingFocus.current = { kind: "vertex", index: next };
+      announce(`Vertex ${i + 1} deleted.`);
+    } else if (e.key === "Insert" || e.key === "+" || e.key === "=") {
+      e.preventDefault();
+      store.getState().edit((s) => insertVertex(s, i));
+      store.getState().select({ kind: "vertex", index: i + 1 });
+      pendingFocus.current = { kind: "vertex", index: i + 1 };
+      announce(`Vertex ${i + 2} added half-way along edge ${i + 1}.`);
+    }
+  }
+
+  function outletKey(e: KeyboardEvent<SVGElement>, k: number) {
+    if (readOnly) return;
+    const dir = ARROWS[e.key];
+    if (dir) {
+      e.preventDefault();
+      const sign = dir[0] + dir[1];
+      const step = keyStep(e);
+      store.getState().edit((s) => nudgeOutlet(s, k, sign * step), { gesture: `key-outlet-${k}` });
+    } else if (e.key === "Delete" || e.key === "Backspace") {
+      e.preventDefault();
+      store.getState().edit((s) => deleteOutlet(s, k));
+      store.getState().select(null);
+      announce(`Outlet ${k + 1} deleted.`);
+    }
+  }
+
+  function edgeKey(e: KeyboardEvent<SVGElement>, edge: number) {
+    if (readOnly) return;
+    if (e.key === "Enter" || e.key === " ") {
+      e.preventDefault();
+      const [a, b] = edgeEnds(store.getState().spec.outline, edge);
+      placeOutletOnEdge(edge, [(a[0] + b[0]) / 2, (a[1] + b[1]) / 2]);
+    } else if (e.key === "e" || e.key === "E") {
+      e.preventDefault();
+      const kind = edgeKindsOf(store.getState().spec)[edge] === "eaves" ? "parapet" : "eaves";
+      store.getState().edit((s) => setEdgeKind(s, edge, kind));
+      announce(`Edge ${edge + 1} is now ${kind}.`);
+    } else if (e.key === "Insert" || e.key === "+" || e.key === "=") {
+      e.preventDefault();
+      store.getState().edit((s) => insertVertex(s, edge));
+      pendingFocus.current = { kind: "vertex", index: edge + 1 };
+      announce(`Vertex ${edge + 2} added half-way along edge ${edge + 1}.`);
+    }
+  }
+
+  const keyUp = () => store.getState().endGesture();
+
+  const isSelected = (kind: Focus["kind"], index: number) => selection?.kind === kind && selection.index === index;
+  const handle = 6 * px;
+  const outletR = 7 * px;
+  const font = 11 * px;
+  const sp = (p: Point) => [p[0], -p[1]] as const;
+  const poly = spec.outline.map((p) => `${p[0]},${-p[1]}`).join(" ");
+
+  return (
+    <div className="relative">
+      <svg
+        ref={svgRef}
+        role="group"
+        aria-label="Roof plan editor"
+        aria-describedby={helpId}
+        viewBox={`${frame.minX} ${-frame.maxY} ${width} ${height}`}
+        className="block aspect-[4/3] w-full touch-none select-none rounded border border-rule bg-sheet"
+        onPointerDown={() => store.getState().select(null)}
+        onPointerMove={(e) => setCursor(toPlan(e.clientX, e.clientY))}
+        onPointerLeave={() => setCursor(null)}
+        data-testid="plan"
+      >
+        <PlanGrid frame={{ x: frame.minX, y: -frame.maxY, width, height }} step={view.gridStep} />
+        {underlay && (
+          <image
+            href={underlay.url}
+            x={underlay.originX}
+            y={-underlay.originY}
+            width={underlay.widthPx * underlay.metresPerPixel}
+            height={underlay.heightPx * underlay.metresPerPixel}
+            opacity={underlay.opacity}
+            preserveAspectRatio="none"
+            pointerEvents="none"
+          />
+        )}
+        <polygon points={poly} fill="var(--color-paper)" fillOpacity={underlay ? 0.35 : 0.75} stroke="none" />
+        <PlanOverlays px={px} />
+
+        {spec.outline.map((a, i) => {
+          const b = spec.outline[(i + 1) % n];
+          const eaves = kinds[i] === "eaves";
+          const len = Math.hypot(b[0] - a[0], b[1] - a[1]);
+          const [mx, my] = [(a[0] + b[0]) / 2, (a[1] + b[1]) / 2];
+          const nx = len ? ((ccw ? 1 : -1) * (b[1] - a[1])) / len : 0;
+          const ny = len ? ((ccw ? -1 : 1) * (b[0] - a[0])) / len : 0;
+          const d = `M${a[0]} ${-a[1]}L${b[0]} ${-b[1]}`;
+          const selected = isSelected("edge", i);
+          return (
+            <g key={`e${i}`}>
+              <path
+                d={d}
+                stroke={hasError ? "var(--color-bad)" : "var(--color-ink)"}
+                strokeWidth={eaves ? 1.5 : 3.5}
+                strokeDasharray={eaves ? "7 4" : undefined}
+                vectorEffect="non-scaling-stroke"
+                strokeLinecap="square"
+                pointerEvents="none"
+              />
+              {selected && <path d={d} stroke="var(--color-accent)" strokeWidth={7} strokeOpacity={0.45} vectorEffect="non-scaling-stroke" pointerEvents="none" />}
+              <text
+                x={mx + nx * font * 1.6}
+                y={-(my + ny * font * 1.6)}
+                fontSize={font}
+                textAnchor="middle"
+                dominantBaseline="middle"
+                fill="var(--color-ink-soft)"
+                pointerEvents="none"
+              >
+                {len.toFixed(2)} m{eaves ? " · eaves" : ""}
+              </text>
+              <path
+                d={d}
+                data-handle={`edge-${i}`}
+                stroke="transparent"
+                strokeWidth={16}
+                vectorEffect="non-scaling-stroke"
+                className={`${readOnly ? "" : "cursor-copy"} outline-none focus-visible:stroke-accent/30`}
+                tabIndex={0}
+                role="button"
+                aria-label={`Edge ${i + 1} to ${((i + 1) % n) + 1}, ${kinds[i]}, ${len.toFixed(2)} m`}
+                aria-describedby={helpId}
+                onPointerDown={(e) => e.stopPropagation()}
+                onClick={(e) => clickEdge(e, i)}
+                onDoubleClick={(e) => doubleClickEdge(e, i)}
+                onFocus={() => store.getState().select({ kind: "edge", index: i })}
+                onKeyDown={(e) => edgeKey(e, i)}
+                data-testid={`edge-${i}`}
+              />
+            </g>
+          );
+        })}
+
+        {spec.outlets.map((o, k) => {
+          const [x, y] = sp(o.at);
+          const selected = isSelected("outlet", k);
+          return (
+            <g
+              key={`o${k}`}
+              data-handle={`outlet-${k}`}
+              tabIndex={0}
+              role="button"
+              aria-label={`Outlet ${k + 1} at x ${o.at[0].toFixed(2)} m, y ${o.at[1].toFixed(2)} m`}
+              aria-describedby={helpId}
+              className={`${readOnly ? "" : "cursor-grab"} outline-none`}
+              onPointerDown={(e) => startDrag(e, { kind: "outlet", index: k })}
+              onPointerMove={moveDrag}
+              onPointerUp={endDrag}
+              onPointerCancel={endDrag}
+              onFocus={() => store.getState().select({ kind: "outlet", index: k })}
+              onKeyDown={(e) => outletKey(e, k)}
+              onKeyUp={keyUp}
+              data-testid={`outlet-${k}`}
+            >
+              {selected && <circle cx={x} cy={y} r={outletR * 1.8} fill="var(--color-accent)" fillOpacity={0.25} />}
+              <circle cx={x} cy={y} r={outletR} fill="var(--color-accent)" stroke="var(--color-ink)" strokeWidth={2} vectorEffect="non-scaling-stroke" />
+              <circle cx={x} cy={y} r={outletR * 0.35} fill="var(--color-ink)" />
+              <text x={x + outletR * 1.4} y={y - outletR * 1.2} fontSize={font} fill="var(--color-accent-deep)" fontWeight={700} pointerEvents="none">
+                O{k + 1}
+              </text>
+            </g>
+          );
+        })}
+
+        {spec.outline.map((p, i) => {
+          const [x, y] = sp(p);
+          const selected = isSelected("vertex", i);
+          return (
+            <g
+              key={`v${i}`}
+              data-handle={`vertex-${i}`}
+              tabIndex={0}
+              role="button"
+              aria-label={`Vertex ${i + 1} at x ${p[0].toFixed(2)} m, y ${p[1].toFixed(2)} m`}
+              aria-describedby={helpId}
+              className={`${readOnly ? "" : "cursor-move"} outline-none`}
+              onPointerDown={(e) => startDrag(e, { kind: "vertex", index: i })}
+              onPointerMove={moveDrag}
+              onPointerUp={endDrag}
+              onPointerCancel={endDrag}
+              onFocus={() => store.getState().select({ kind: "vertex", index: i })}
+              onKeyDown={(e) => vertexKey(e, i)}
+              onKeyUp={keyUp}
+              data-testid={`vertex-${i}`}
+            >
+              <rect x={x - handle * 1.6} y={y - handle * 1.6} width={handle * 3.2} height={handle * 3.2} fill="transparent" />
+              <rect
+                x={x - handle}
+                y={y - handle}
+                width={handle * 2}
+                height={handle * 2}
+                fill={selected ? "var(--color-accent)" : "var(--color-sheet)"}
+                stroke="var(--color-ink)"
+                strokeWidth={2}
+                vectorEffect="non-scaling-stroke"
+              />
+              <text x={x - handle * 1.4} y={y - handle * 1.4} fontSize={font} textAnchor="end" fill="var(--color-ink)" pointerEvents="none">
+                {i + 1}
+              </text>
+            </g>
+          );
+        })}
+      </svg>
+      <div className="pointer-events-none absolute bottom-1 left-2 text-[11px] tabular-nums text-ink-soft" aria-hidden="true">
+        {cursor ? `x ${cursor[0].toFixed(2)} m · y ${cursor[1].toFixed(2)} m` : `grid ${Math.round(view.gridStep * 1000)} mm`}
+      </div>
+      <button type="button" className="btn absolute right-2 top-2 px-2 py-0.5 text-xs" onClick={() => setFit((f) => f + 1)}>
+        Fit
+      </button>
+      <p id={helpId} className="sr-only">
+        Tab moves between vertices, edges and outlets. Arrow keys move a vertex or slide an outlet by the grid step (Shift: four
+        steps, Alt: 10 mm). Delete removes it. On an edge: Enter places an outlet at its middle, E switches parapet and eaves,
+        plus adds a vertex. Ctrl+Z undoes, Ctrl+Shift+Z redoes.
+      </p>
+    </div>
+  );
+}
+
+function signedArea(outline: Point[]) {
+  let a = 0;
+  for (let i = 0; i < outline.length; i++) {
+    const p = outline[i];
+    const q = outline[(i + 1) % outline.length];
+    a += p[0] * q[1] - q[0] * p[1];
+  }
+  return a / 2;
+}
+
+function nearestParapetEdge(outline: Point[], kinds: string[], p: Point): number {
+  let best = -1;
+  let bestDistance = Infinity;
+  for (let e = 0; e < outline.length; e++) {
+    if (kinds[e] === "eaves") continue;
+    const [a, b] = edgeEnds(outline, e);
+    const { distance } = projectOnSegment(p, a, b);
+    if (distance < bestDistance) {
+      bestDistance = distance;
+      best = e;
+    }
+  }
+  return best;
+}
+

@@ -1,0 +1,150 @@
+import type { EdgeKind, Point, RoofSpec } from "~/engine";
+
+/** Pure edits of a roof spec. Outlets ride on their edge: moving a vertex keeps each outlet's place along it. */
+
+export function edgeKindsOf(spec: RoofSpec): EdgeKind[] {
+  return spec.outline.map((_, i) => spec.edges?.[i] ?? "parapet");
+}
+
+export function edgeEnds(outline: Point[], edge: number): [Point, Point] {
+  return [outline[edge], outline[(edge + 1) % outline.length]];
+}
+
+export function edgeLength(outline: Point[], edge: number): number {
+  const [a, b] = edgeEnds(outline, edge);
+  return Math.hypot(b[0] - a[0], b[1] - a[1]);
+}
+
+/** Closest point of segment ab to p: its fraction t along ab (0..1), the point, and the distance. */
+export function projectOnSegment(p: Point, a: Point, b: Point) {
+  const dx = b[0] - a[0];
+  const dy = b[1] - a[1];
+  const len2 = dx * dx + dy * dy;
+  const t = len2 === 0 ? 0 : Math.min(1, Math.max(0, ((p[0] - a[0]) * dx + (p[1] - a[1]) * dy) / len2));
+  const point: Point = [a[0] + t * dx, a[1] + t * dy];
+  return { t, point, distance: Math.hypot(p[0] - point[0], p[1] - point[1]) };
+}
+
+export function pointOnEdge(outline: Point[], edge: number, t: number): Point {
+  const [a, b] = edgeEnds(outline, edge);
+  return [a[0] + t * (b[0] - a[0]), a[1] + t * (b[1] - a[1])];
+}
+
+/** The edge an outlet sits on (the nearest, preferring parapet edges) and its fraction along it. */
+export function attachOutlet(spec: RoofSpec, at: Point): { edge: number; t: number; distance: number } {
+  const kinds = edgeKindsOf(spec);
+  let best = { edge: 0, t: 0, distance: Infinity };
+  for (let e = 0; e < spec.outline.length; e++) {
+    const [a, b] = edgeEnds(spec.outline, e);
+    const { t, distance } = projectOnSegment(at, a, b);
+    // An eaves edge only wins when no parapet edge is close: outlets belong on parapets.
+    const score = distance + (kinds[e] === "eaves" ? 1e-6 : 0);
+    if (score < best.distance - 1e-12) best = { edge: e, t, distance: score };
+  }
+  return best;
+}
+
+function withOutlets(spec: RoofSpec, outline: Point[], attachments: { edge: number; t: number }[], edgeMap: (e: number) => number) {
+  return spec.outlets.map((o, k) => {
+    const a = attachments[k];
+    return { ...o, at: pointOnEdge(outline, edgeMap(a.edge), a.t) };
+  });
+}
+
+const round = (v: number) => Math.round(v * 1e6) / 1e6;
+const roundPoint = (p: Point): Point => [round(p[0]), round(p[1])];
+
+export function moveVertex(spec: RoofSpec, index: number, to: Point): RoofSpec {
+  const attachments = spec.outlets.map((o) => attachOutlet(spec, o.at));
+  const outline = spec.outline.map((p, i) => (i === index ? roundPoint(to) : p));
+  return { ...spec, outline, outlets: withOutlets(spec, outline, attachments, (e) => e) };
+}
+
+/** Insert a vertex on an edge, at a point on it (default: its midpoint). The new edge keeps the old kind. */
+export function insertVertex(spec: RoofSpec, edge: number, at?: Point): RoofSpec {
+  if (spec.outline.length >= 200) return spec;
+  const [a, b] = edgeEnds(spec.outline, edge);
+  const p = at ? projectOnSegment(at, a, b).point : ([(a[0] + b[0]) / 2, (a[1] + b[1]) / 2] as Point);
+  const outline = [...spec.outline];
+  outline.splice(edge + 1, 0, roundPoint(p));
+  const edges = edgeKindsOf(spec);
+  edges.splice(edge + 1, 0, edges[edge]);
+  return { ...spec, outline, edges };
+}
+
+/** Remove a vertex; its two edges merge (taking the first one's kind). A roof keeps at least 3 vertices. */
+export function deleteVertex(spec: RoofSpec, index: number): RoofSpec {
+  const n = spec.outline.length;
+  if (n <= 3) return spec;
+  const kinds = edgeKindsOf(spec);
+  const prevEdge = (index - 1 + n) % n;
+  const outline = spec.outline.filter((_, i) => i !== index);
+  const edges = kinds.filter((_, i) => i !== index);
+  const mergedEdge = index === 0 ? n - 2 : index - 1;
+  const outlets = spec.outlets.map((o) => {
+    const { edge } = attachOutlet(spec, o.at);
+    if (edge !== prevEdge && edge !== index) return o;
+    const [a, b] = edgeEnds(outline, mergedEdge);
+    return { ...o, at: roundPoint(projectOnSegment(o.at, a, b).point) };
+  });
+  edges[mergedEdge] = kinds[prevEdge];
+  return { ...spec, outline, edges, outlets };
+}
+
+/** Set an edge's kind. Outlets on an edge turned to eaves are removed: water leaves an eaves edge all along it. */
+export function setEdgeKind(spec: RoofSpec, edge: number, kind: EdgeKind): RoofSpec {
+  const edges = edgeKindsOf(spec);
+  edges[edge] = kind;
+  const outlets = kind === "eaves" ? spec.outlets.filter((o) => attachOutlet(spec, o.at).edge !== edge) : spec.outlets;
+  return { ...spec, edges, outlets };
+}
+
+export function outletsOnEdge(spec: RoofSpec, edge: number): number {
+  return spec.outlets.filter((o) => attachOutlet(spec, o.at).edge === edge).length;
+}
+
+export function addOutlet(spec: RoofSpec, edge: number, t = 0.5): RoofSpec {
+  if (spec.outlets.length >= 100) return spec;
+  return { ...spec, outlets: [...spec.outlets, { at: roundPoint(pointOnEdge(spec.outline, edge, t)) }] };
+}
+
+export function addOutletAt(spec: RoofSpec, at: Point): RoofSpec {
+  if (spec.outlets.length >= 100) return spec;
+  return { ...spec, outlets: [...spec.outlets, { at: roundPoint(at) }] };
+}
+
+export function placeOutlet(spec: RoofSpec, index: number, edge: number, t: number): RoofSpec {
+  const at = roundPoint(pointOnEdge(spec.outline, edge, t));
+  return { ...spec, outlets: spec.outlets.map((o, k) => (k === index ? { ...o, at } : o)) };
+}
+
+/** Slide an outlet along its edge by a distance in metres, stopping at the edge's ends. */
+export function nudgeOutlet(spec: RoofSpec, index: number, distance: number): RoofSpec {
+  const { edge, t } = attachOutlet(spec, spec.outlets[index].at);
+  const length = edgeLength(spec.outline, edge);
+  if (length === 0) return spec;
+  const next = Math.min(1, Math.max(0, t + distance / length));
+  return placeOutlet(spec, index, edge, next);
+}
+
+export function deleteOutlet(spec: RoofSpec, index: number): RoofSpec {
+  return { ...spec, outlets: spec.outlets.filter((_, k) => k !== index) };
+}
+
+export function setOutlet(spec: RoofSpec, index: number, patch: Partial<RoofSpec["outlets"][number]>): RoofSpec {
+  return { ...spec, outlets: spec.outlets.map((o, k) => (k === index ? { ...o, ...patch } : o)) };
+}
+
+export function bounds(points: Point[]) {
+  let minX = Infinity;
+  let minY = Infinity;
+  let maxX = -Infinity;
+  let maxY = -Infinity;
+  for (const [x, y] of points) {
+    if (x < minX) minX = x;
+    if (y < minY) minY = y;
+    if (x > maxX) maxX = x;
+    if (y > maxY) maxY = y;
+  }
+  return { minX, minY, maxX, maxY };
+}

@@ -1,0 +1,177 @@
+import { createContext, useContext } from "react";
+import { createStore, useStore, type StoreApi } from "zustand";
+import type { Analysis, RoofSpec } from "~/engine";
+import { runAnalysis, type EngineOutcome } from "./run-analysis";
+
+export type Selection =
+  | { kind: "vertex"; index: number }
+  | { kind: "edge"; index: number }
+  | { kind: "outlet"; index: number }
+  | null;
+
+export type CameraPreset = "orbit" | "plan" | "section";
+
+export interface ViewSettings {
+  snapToGrid: boolean;
+  /** Grid and keyboard step, metres. */
+  gridStep: number;
+  snapRightAngles: boolean;
+  showJoists: boolean;
+  showWater: boolean;
+  showContours: boolean;
+  /** Contour interval, metres. */
+  contourInterval: number;
+  exaggeration: number;
+  camera: CameraPreset;
+  sectionJoist: number;
+  mode: "single" | "side-by-side";
+  highlightFallLine: boolean;
+}
+
+export interface EngineError {
+  status: number;
+  message: string;
+  issues: { path: string; message: string }[];
+}
+
+export interface SandboxState {
+  spec: RoofSpec;
+  past: RoofSpec[];
+  future: RoofSpec[];
+  /** Key of the gesture (a drag) whose edits fold into one undo step. */
+  gesture: string | null;
+  selection: Selection;
+  view: ViewSettings;
+  /** Last good analysis; kept while a later spec fails so the views do not go blank. */
+  analysis: Analysis | null;
+  /** The spec that `analysis` belongs to. */
+  analysedSpec: RoofSpec | null;
+  engineError: EngineError | null;
+  computing: boolean;
+  readOnly: boolean;
+  /** A short message for the status line (aria-live). */
+  notice: string | null;
+  edit: (recipe: (spec: RoofSpec) => RoofSpec, options?: { gesture?: string }) => void;
+  endGesture: () => void;
+  replaceSpec: (spec: RoofSpec, options?: { resetHistory?: boolean }) => void;
+  undo: () => void;
+  redo: () => void;
+  select: (selection: Selection) => void;
+  setView: (patch: Partial<ViewSettings>) => void;
+  setOutcome: (spec: RoofSpec, outcome: EngineOutcome) => void;
+  setComputing: (computing: boolean) => void;
+  setNotice: (notice: string | null) => void;
+}
+
+export const DEFAULT_VIEW: ViewSettings = {
+  snapToGrid: true,
+  gridStep: 0.25,
+  snapRightAngles: true,
+  showJoists: true,
+  showWater: true,
+  showContours: false,
+  contourInterval: 0.02,
+  exaggeration: 10,
+  camera: "orbit",
+  sectionJoist: 0,
+  mode: "single",
+  highlightFallLine: true,
+};
+
+const HISTORY_LIMIT = 200;
+
+export type SandboxStore = StoreApi<SandboxState>;
+
+/**
+ * One store per page (zustand's "initialize state with props" guide): the spec, its undo history,
+ * the selection, view settings and the engine's latest answer. The first analysis runs here,
+ * synchronously, so the server-rendered page already shows the figures.
+ */
+export function createSandboxStore(initialSpec: RoofSpec, options: { readOnly?: boolean; view?: Partial<ViewSettings> } = {}) {
+  const first = runAnalysis(initialSpec);
+  return createStore<SandboxState>()((set, get) => ({
+    spec: initialSpec,
+    past: [],
+    future: [],
+    gesture: null,
+    selection: null,
+    view: { ...DEFAULT_VIEW, ...options.view },
+    analysis: first.ok ? first.analysis : null,
+    analysedSpec: first.ok ? initialSpec : null,
+    engineError: first.ok ? null : first.error,
+    computing: false,
+    readOnly: options.readOnly ?? false,
+    notice: null,
+    edit(recipe, { gesture } = {}) {
+      const { spec, past, readOnly } = get();
+      if (readOnly) return;
+      const next = recipe(spec);
+      if (next === spec) return;
+      const continuing = gesture != null && gesture === get().gesture;
+      set({
+        spec: next,
+        past: continuing ? past : [...past.slice(-(HISTORY_LIMIT - 1)), spec],
+        future: [],
+        gesture: gesture ?? null,
+      });
+    },
+    endGesture() {
+      if (get().gesture) set({ gesture: null });
+    },
+    replaceSpec(spec, { resetHistory = false } = {}) {
+      const { spec: current, past } = get();
+      set({
+        spec,
+        past: resetHistory ? [] : [...past.slice(-(HISTORY_LIMIT - 1)), current],
+        future: [],
+        gesture: null,
+        selection: null,
+      });
+    },
+    undo() {
+      const { past, spec, future, readOnly } = get();
+      if (readOnly || past.length === 0) return;
+      set({ spec: past[past.length - 1], past: past.slice(0, -1), future: [spec, ...future], gesture: null, selection: clampSelection(get().selection, past[past.length - 1]) });
+    },
+    redo() {
+      const { past, spec, future, readOnly } = get();
+      if (readOnly || future.length === 0) return;
+      set({ spec: future[0], past: [...past, spec], future: future.slice(1), gesture: null, selection: clampSelection(get().selection, future[0]) });
+    },
+    select(selection) {
+      set({ selection });
+    },
+    setView(patch) {
+      set({ view: { ...get().view, ...patch } });
+    },
+    setOutcome(spec, outcome) {
+      if (outcome.ok) set({ analysis: outcome.analysis, analysedSpec: spec, engineError: null });
+      else set({ engineError: outcome.error });
+    },
+    setComputing(computing) {
+      if (get().computing !== computing) set({ computing });
+    },
+    setNotice(notice) {
+      set({ notice });
+    },
+  }));
+}
+
+function clampSelection(selection: Selection, spec: RoofSpec): Selection {
+  if (!selection) return null;
+  const count = selection.kind === "outlet" ? spec.outlets.length : spec.outline.length;
+  return selection.index < count ? selection : null;
+}
+
+export const SandboxStoreContext = createContext<SandboxStore | null>(null);
+
+export function useSandboxStore(): SandboxStore {
+  const store = useContext(SandboxStoreContext);
+  if (!store) throw new Error("useSandbox needs a <SandboxStoreContext.Provider>");
+  return store;
+}
+
+/** Read the store with a selector; return primitives or stable references (or wrap in useShallow). */
+export function useSandbox<T>(selector: (state: SandboxState) => T): T {
+  return useStore(useSandboxStore(), selector);
+}

@@ -1,0 +1,63 @@
+import { Canvas, useThree } from "@react-three/fiber";
+import { useEffect, useMemo, useRef } from "react";
+import { useSandbox } from "../store";
+import { CameraRig } from "./camera-rig";
+import { drainCentre, frameKey, useStableFrame } from "./scene-frame";
+import { sectionPose, ShapedScene } from "./shaped-scene";
+import { useAnimationAllowed } from "./use-animation-allowed";
+
+function Kick({ on }: { on: boolean }) {
+  const invalidate = useThree((s) => s.invalidate);
+  useEffect(() => {
+    if (on) invalidate();
+  }, [on, invalidate]);
+  return null;
+}
+
+/**
+ * The 3D fall map of the shaped roof. Loaded lazily: three.js only reaches the pages that draw.
+ * Renders on demand; the water animation asks for frames only while it runs.
+ */
+export default function RoofView3D({ className = "", resetKey = 0 }: { className?: string; resetKey?: number }) {
+  const analysis = useSandbox((s) => s.analysis);
+  const spec = useSandbox((s) => s.analysedSpec);
+  const view = useSandbox((s) => s.view);
+  const wrapper = useRef<HTMLDivElement>(null);
+  const allowed = useAnimationAllowed(wrapper);
+  const frame = useStableFrame(spec?.outline);
+  const section = useMemo(
+    () => (analysis && view.camera === "section" ? sectionPose(analysis, view.sectionJoist, frame, view.exaggeration) : null),
+    [analysis, view.camera, view.sectionJoist, frame, view.exaggeration],
+  );
+  const height = (analysis?.shaped.highLevel ?? 0) * view.exaggeration;
+  const drains = useMemo(() => drainCentre(spec), [spec]);
+  const animate = view.showWater && allowed && view.camera !== "section";
+
+  return (
+    <div ref={wrapper} className={`relative h-full w-full ${className}`} data-testid="view-3d">
+      <Canvas
+        frameloop="demand"
+        dpr={[1, 2]}
+        gl={{ preserveDrawingBuffer: true, antialias: true }}
+        camera={{ fov: 35, near: 0.05, far: 20000, position: [10, 10, 10] }}
+        onCreated={({ gl }) => {
+          gl.localClippingEnabled = true;
+        }}
+        aria-label="3D fall map of the shaped roof"
+        role="img"
+      >
+        <color attach="background" args={["#f1eadb"]} />
+        {analysis && spec && <ShapedScene analysis={analysis} spec={spec} frame={frame} view={view} animate={animate} section={section} />}
+        <CameraRig
+          preset={view.camera}
+          frame={frame}
+          height={height}
+          section={section?.pose ?? null}
+          drains={drains}
+          resetKey={`${frameKey(frame)}|${view.camera === "section" ? view.sectionJoist : ""}|${resetKey}`}
+        />
+        <Kick on={animate} />
+      </Canvas>
+    </div>
+  );
+}

@@ -1,0 +1,187 @@
+import { lazy, Suspense, useEffect, useState } from "react";
+import type { RoofSpec } from "~/engine";
+import { ComparisonFigures } from "./comparison-figures";
+import { DropSchedule } from "./drop-schedule";
+import { EngineErrorNote } from "./engine-error";
+import { FallLegend } from "./fall-legend";
+import { KeyFigures } from "./key-figures";
+import { OutletTable } from "./outlet-table";
+import { OutlineTable } from "./outline-table";
+import { PlanEditor } from "./plan-editor";
+import { ResultsPanel } from "./results-panel";
+import { SceneSummary } from "./scene-summary";
+import { SettingsPanel } from "./settings-panel";
+import { createSandboxStore, SandboxStoreContext, useSandbox, type SandboxStore, type ViewSettings } from "./store";
+import { Toolbar } from "./toolbar";
+import type { Underlay } from "./underlay";
+import { useEngine } from "./use-engine";
+import { useSessionSpec } from "./use-session-spec";
+import { useUndoShortcuts } from "./use-shortcuts";
+import { ViewBoundary } from "./view-boundary";
+import { ViewControls } from "./view-controls";
+
+const RoofView3D = lazy(() => import("./view-3d/roof-view-3d"));
+const SideBySide = lazy(() => import("./view-3d/side-by-side"));
+
+export interface SandboxWorkspaceProps {
+  /** The roof to open with (read once, when the workspace mounts). */
+  initialSpec: RoofSpec;
+  /** Called after every change of the spec (edits, undo/redo, replaceSpec). */
+  onSpecChange?: (spec: RoofSpec) => void;
+  /** View only: no handles, no inputs, no apply buttons. Can change while mounted. */
+  readOnly?: boolean;
+  /** A plan image drawn under the outline in the plan editor. */
+  underlay?: Underlay;
+  /** Rendered in the toolbar, inside the store's provider (so it may call useSandboxStore()). */
+  toolbarExtra?: React.ReactNode;
+  /** Keep the unsaved spec in sessionStorage under this key (/sandbox only)… */
+  restoreKey?: string;
+  /** …and open the one kept there instead of initialSpec (default true). */
+  restore?: boolean;
+  /** Opening view settings (e.g. a lesson that starts in side-by-side). */
+  initialView?: Partial<ViewSettings>;
+}
+
+function Card({ title, children, aside, className = "", testId }: { title: string; children: React.ReactNode; aside?: React.ReactNode; className?: string; testId?: string }) {
+  return (
+    <section className={`card min-w-0 ${className}`} aria-label={title} data-testid={testId}>
+      <div className="mb-2 flex flex-wrap items-baseline justify-between gap-2">
+        <h2 className="text-lg font-bold">{title}</h2>
+        {aside}
+      </div>
+      {children}
+    </section>
+  );
+}
+
+function useMounted() {
+  const [mounted, setMounted] = useState(false);
+  useEffect(() => setMounted(true), []);
+  return mounted;
+}
+
+const loading3d = <div className="flex h-full items-center justify-center text-sm text-ink-soft">Loading the 3D view…</div>;
+
+/**
+ * The sandbox: plan editor, 3D fall map (or side-by-side), key figures, inputs, results and the
+ * drop schedule around one per-page store. Used by /sandbox, and by saved roofs and lessons.
+ */
+export function SandboxWorkspace({ initialSpec, onSpecChange, readOnly = false, underlay, toolbarExtra, restoreKey, restore = true, initialView }: SandboxWorkspaceProps) {
+  const [store] = useState<SandboxStore>(() => createSandboxStore(initialSpec, { readOnly, view: initialView }));
+  useEngine(store);
+  useUndoShortcuts(store);
+  useSessionSpec(store, restoreKey, restore);
+
+  useEffect(() => {
+    if (store.getState().readOnly !== readOnly) store.setState({ readOnly, selection: null });
+  }, [store, readOnly]);
+
+  useEffect(() => {
+    if (!onSpecChange) return;
+    return store.subscribe((state, previous) => {
+      if (state.spec !== previous.spec) onSpecChange(state.spec);
+    });
+  }, [store, onSpecChange]);
+
+  return (
+    <SandboxStoreContext.Provider value={store}>
+      <Layout underlay={underlay} toolbarExtra={toolbarExtra} />
+    </SandboxStoreContext.Provider>
+  );
+}
+
+function Layout({ underlay, toolbarExtra }: { underlay?: Underlay; toolbarExtra?: React.ReactNode }) {
+  const mode = useSandbox((s) => s.view.mode);
+  const minRatio = useSandbox((s) => s.analysis?.minFall.ratio ?? 100);
+  const readOnly = useSandbox((s) => s.readOnly);
+  const mounted = useMounted();
+  const [cameraReset, setCameraReset] = useState(0);
+  const resetCamera = () => setCameraReset((n) => n + 1);
+
+  const plan = (
+    <Card title="Plan" testId="plan-card" aside={<span className="text-xs text-ink-soft">{readOnly ? "view only" : "drag corners · click an edge for an outlet · double-click to add a corner"}</span>}>
+      <PlanEditor underlay={underlay} />
+      <div className="mt-2">
+        <EngineErrorNote />
+      </div>
+      <h3 className="mb-1 mt-3 text-sm font-bold uppercase tracking-wide">Outline</h3>
+      <OutlineTable />
+      <h3 className="mb-1 mt-3 text-sm font-bold uppercase tracking-wide">Outlets</h3>
+      <OutletTable />
+    </Card>
+  );
+
+  return (
+    <div className="grid gap-4" data-testid="sandbox-workspace">
+      <Toolbar extra={toolbarExtra} />
+      <div className="card p-0">
+        <KeyFigures />
+      </div>
+
+      {mode === "single" ? (
+        <div className="grid gap-4 lg:grid-cols-2">
+          {plan}
+          <Card title="Fall map" testId="fall-map-card" aside={<span className="text-xs text-ink-soft">drag to turn · wheel to zoom</span>}>
+            <ViewControls onReset={resetCamera} />
+            <div className="mt-2 aspect-[4/3] w-full overflow-hidden rounded border border-rule bg-paper-deep">
+              <ViewBoundary>
+                {mounted ? (
+                  <Suspense fallback={loading3d}>
+                    <RoofView3D resetKey={cameraReset} />
+                  </Suspense>
+                ) : (
+                  loading3d
+                )}
+              </ViewBoundary>
+            </div>
+            <div className="mt-2">
+              <FallLegend minRatio={minRatio} />
+            </div>
+            <details className="mt-1 text-sm" open>
+              <summary className="cursor-pointer text-xs font-medium uppercase tracking-wide text-ink-soft">What the view shows</summary>
+              <SceneSummary />
+            </details>
+          </Card>
+        </div>
+      ) : (
+        <div className="grid gap-4">
+          <section className="card" aria-label="Side-by-side views">
+            <div className="mb-2 flex flex-wrap items-baseline justify-between gap-2">
+              <h2 className="text-lg font-bold">Side-by-side</h2>
+              <span className="text-xs text-ink-soft">the three views turn together</span>
+            </div>
+            <ViewControls onReset={resetCamera} />
+            <div className="mt-2">
+              <ViewBoundary>
+                {mounted ? (
+                  <Suspense fallback={<div className="h-64">{loading3d}</div>}>
+                    <SideBySide resetKey={cameraReset} />
+                  </Suspense>
+                ) : (
+                  <div className="h-64">{loading3d}</div>
+                )}
+              </ViewBoundary>
+            </div>
+            <div className="mt-2">
+              <FallLegend minRatio={minRatio} />
+            </div>
+          </section>
+          <div className="grid gap-4 lg:grid-cols-2">
+            <ComparisonFigures />
+            {plan}
+          </div>
+        </div>
+      )}
+
+      <div className="grid items-start gap-4 lg:grid-cols-2">
+        <Card title="Falls, joists and rules" testId="inputs-card">
+          <SettingsPanel />
+        </Card>
+        <Card title="Results" testId="results-card">
+          <ResultsPanel />
+        </Card>
+      </div>
+      <DropSchedule />
+    </div>
+  );
+}

@@ -1,0 +1,89 @@
+/**
+ * /sandbox: shape a roof without an account (nothing is saved on the server).
+ *
+ * Interface for other pages (saved roofs /roofs/:id, the lesson player, classroom follow):
+ *   import { SandboxWorkspace } from "~/components/sandbox/workspace";
+ *   <SandboxWorkspace
+ *     initialSpec={spec}          // RoofSpec, read once on mount (remount with a new `key` to load another roof)
+ *     onSpecChange={(spec) => …}  // after every change: edits, undo/redo, replaceSpec
+ *     readOnly={false}            // view only: no handles, inputs or apply buttons (may change while mounted)
+ *     underlay={{ url, opacity, originX, originY, metresPerPixel, widthPx, heightPx }}
+ *                                 // optional plan image under the outline; pixel (0,0) = image top-left at plan
+ *                                 // point (originX, originY) m; plan y points up (see components/sandbox/underlay.ts)
+ *     toolbarExtra={<MyButtons />}// rendered in the toolbar, inside the store's provider
+ *     initialView={{ mode: "side-by-side" }} // optional opening view settings
+ *   />
+ * Inside toolbarExtra (or any child of the provider), `useSandboxStore()` from
+ * ~/components/sandbox/store gives the store: `getState().spec`, `getState().replaceSpec(spec,
+ * { resetHistory? })` (undoable unless resetHistory), `getState().analysis`; `useSandbox(selector)`
+ * subscribes (select primitives or use useShallow).
+ *
+ * This page opens the demo roof, or the roof in `?spec=` (base64url JSON, as the classroom's
+ * "copy to my sandbox" link sends it), and keeps unsaved edits in this tab's sessionStorage.
+ */
+import { data, useLoaderData } from "react-router";
+import type { Route } from "./+types/sandbox";
+import { parseSpec, type RoofSpec } from "~/engine";
+import { GeneralErrorBoundary } from "~/components/error-boundary";
+import { DEMO_ROOF } from "~/components/sandbox/demo-roof";
+import { decodeSpec } from "~/components/sandbox/sheet-link";
+import { useSandboxStore } from "~/components/sandbox/store";
+import { SandboxWorkspace } from "~/components/sandbox/workspace";
+
+export const meta: Route.MetaFunction = () => [
+  { title: "Sandbox · Fallwright" },
+  { name: "description", content: "Draw a parapet roof, place its outlets and see the warped surface, its falls and its water in 3D." },
+];
+
+export async function loader({ request }: Route.LoaderArgs) {
+  const raw = new URL(request.url).searchParams.get("spec");
+  if (raw == null) return { linked: null as RoofSpec | null, linkError: null as string | null };
+  const decoded = decodeSpec(raw);
+  if (decoded == null) return data({ linked: null, linkError: "The roof in this link could not be read (it is not base64url JSON)." }, { status: 400 });
+  const parsed = parseSpec(decoded);
+  if (!parsed.ok) return data({ linked: null, linkError: parsed.error.message }, { status: parsed.status });
+  return { linked: parsed.spec, linkError: null };
+}
+
+function StartOver() {
+  const store = useSandboxStore();
+  return (
+    <button
+      type="button"
+      className="btn px-2"
+      onClick={() => {
+        store.getState().replaceSpec(structuredClone(DEMO_ROOF));
+        store.getState().setNotice("Back to the demo roof (Undo returns yours).");
+      }}
+    >
+      Start over
+    </button>
+  );
+}
+
+export default function Sandbox() {
+  const { linked, linkError } = useLoaderData<typeof loader>();
+  return (
+    <div className="grid gap-3">
+      <div className="flex flex-wrap items-baseline justify-between gap-2">
+        <h1 className="text-2xl font-bold tracking-tight">Sandbox</h1>
+        <p className="text-sm text-ink-soft">Nothing here is saved on the server. Sign in to keep roofs in your library.</p>
+      </div>
+      {linkError && (
+        <p role="alert" className="rounded border border-bad/50 bg-accent-wash px-3 py-2 text-sm">
+          {linkError} The demo roof is open instead.
+        </p>
+      )}
+      <SandboxWorkspace
+        initialSpec={linked ?? DEMO_ROOF}
+        restoreKey="fallwright:sandbox"
+        restore={!linked}
+        toolbarExtra={<StartOver />}
+      />
+    </div>
+  );
+}
+
+export function ErrorBoundary() {
+  return <GeneralErrorBoundary />;
+}
