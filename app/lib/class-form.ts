@@ -1,0 +1,48 @@
+import { format, parseISO } from "date-fns";
+import { z } from "zod";
+
+const isoDate = z
+  .string()
+  .trim()
+  .refine((v) => v === "" || (/^\d{4}-\d{2}-\d{2}$/.test(v) && !Number.isNaN(Date.parse(`${v}T00:00:00Z`))), "Use a date like 2027-03-01.")
+  .transform((v) => (v === "" ? null : v));
+
+const ClassDetails = z
+  .object({
+    name: z.string().trim().min(1, "Give the class a name.").max(120, "Keep the name under 120 characters."),
+    startsOn: isoDate,
+    endsOn: isoDate,
+    venue: z.string().trim().max(200, "Keep the venue under 200 characters."),
+  })
+  .refine((c) => !c.startsOn || !c.endsOn || c.endsOn >= c.startsOn, { path: ["endsOn"], message: "The class cannot end before it starts." });
+
+export type ClassDetailsField = "name" | "startsOn" | "endsOn" | "venue";
+export type ClassDetailsValues = Record<ClassDetailsField, string>;
+
+/** Name, dates and venue from a form; on failure the field errors and what was typed. */
+export function parseClassDetails(form: FormData) {
+  const values: ClassDetailsValues = {
+    name: String(form.get("name") ?? ""),
+    startsOn: String(form.get("startsOn") ?? ""),
+    endsOn: String(form.get("endsOn") ?? ""),
+    venue: String(form.get("venue") ?? ""),
+  };
+  const parsed = ClassDetails.safeParse(values);
+  if (parsed.success) return { ok: true as const, value: parsed.data };
+  const errors: Partial<Record<ClassDetailsField, string>> = {};
+  for (const issue of parsed.error.issues) errors[issue.path[0] as ClassDetailsField] ??= issue.message;
+  return { ok: false as const, errors, values };
+}
+
+/** Due dates and the like for people: "Mon 1 Mar 2027". */
+export function formatDay(iso: string | null | undefined): string {
+  if (!iso) return "";
+  return format(parseISO(iso.slice(0, 10)), "EEE d MMM yyyy");
+}
+
+export function formatDateRange(from: string | null, to: string | null): string {
+  if (from && to) return from === to ? formatDay(from) : `${formatDay(from)} – ${formatDay(to)}`;
+  if (from) return `from ${formatDay(from)}`;
+  if (to) return `until ${formatDay(to)}`;
+  return "Dates not set";
+}

@@ -1,0 +1,69 @@
+import { db } from "~/lib/db.server";
+import type { GradeCell } from "~/lib/gradebook";
+
+interface AttemptGradeRow {
+  id: string;
+  trainee_id: string;
+  lesson_slug: string;
+  score: number;
+  passed: boolean;
+  submitted_at: Date;
+  override_score: number | null;
+  override_passed: boolean | null;
+}
+
+/**
+ * Every attempt with its effective grade: the latest override a trainer recorded for it, or
+ * else the automatic grade. The attempt row itself is never changed by a review.
+ */
+export function attemptsWithEffectiveGrade() {
+  return db()
+    .from("attempts as a")
+    .joinRaw(
+      `left join lateral (
+         select r.override_score, r.override_passed from attempt_reviews r
+         where r.attempt_id = a.id and (r.override_score is not null or r.override_passed is not null)
+         order by r.at desc, r.id desc limit 1
+       ) o on true`,
+    )
+    .select("a.id", "a.trainee_id", "a.lesson_slug", "a.score", "a.passed", "a.submitted_at", "o.override_score", "o.override_passed");
+}
+
+function toCell(r: AttemptGradeRow): GradeCell {
+  const overridden = r.override_score !== null || r.override_passed !== null;
+  return {
+    attemptId: r.id,
+    score: r.override_score ?? r.score,
+    passed: r.override_passed ?? r.passed,
+    overridden,
+    attempts: 1,
+    submittedAt: new Date(r.submitted_at).toISOString(),
+  };
+}
+
+/** Best first: a pass beats a fail, then the higher score, then the later attempt. */
+function better(a: GradeCell, b: GradeCell): boolean {
+  if (a.passed !== b.passed) return a.passed;
+  if (a.score !== b.score) return a.score > b.score;
+  return a.submittedAt > b.submittedAt;
+}
+
+export const cellKey = (traineeId: string, slug: string) => `${traineeId}|${slug}`;
+
+/** The best effective grade for each (trainee, lesson) pair that has attempts. */
+export async function bestGrades(traineeIds: string[], slugs: string[]): Promise<Map<string, GradeCell>> {
+  const out = new Map<string, GradeCell>();
+  if (!traineeIds.length || !slugs.length) return out;
+  const rows: AttemptGradeRow[] = await attemptsWithEffectiveGrade()
+    .whereIn("a.trainee_id", traineeIds)
+    .whereIn("a.lesson_slug", slugs);
+  for (const r of rows) {
+    const key = cellKey(r.trainee_id, r.lesson_slug);
+    const cell = toCell(r);
+    const held = out.get(key);
+    if (!held) out.set(key, cell);
+    else if (better(cell, held)) out.set(key, { ...cell, attempts: held.attempts + 1 });
+    else held.attempts += 1;
+  }
+  return out;
+}

@@ -1,0 +1,162 @@
+import { data, Form, Link, useActionData, useLoaderData } from "react-router";
+import { useState } from "react";
+import type { Route } from "./+types/attempts.$id.review";
+import { requirePermission, requireUser } from "~/lib/auth.server";
+import { getClassFor } from "~/lib/classes.server";
+import { formatScore } from "~/lib/gradebook";
+import { formatWhen } from "~/lib/when";
+import { appOrigin } from "~/lib/mail.server";
+import { addReview, attemptFor, effectiveGrade, mayReview, parseReviewForm, reviewsForAttempt } from "~/lib/reviews.server";
+import { Caution } from "~/components/caution";
+import { GeneralErrorBoundary } from "~/components/error-boundary";
+import { AttemptReviews } from "~/components/classes/attempt-reviews";
+import { GradeMark } from "~/components/classes/grade-mark";
+import { GradingBreakdown } from "~/components/classes/grading-breakdown";
+import { ReadOnlyRoof } from "~/components/classes/live-roof";
+import { FormError, FormNotice, SubmitButton } from "~/components/form-field";
+
+export const meta: Route.MetaFunction = ({ data }) => [{ title: `Review: ${data?.attempt.lessonTitle ?? "attempt"} · Fallwright` }];
+
+const NOT_FOUND = "No attempt with that id that you may see.";
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const user = await requireUser(request);
+  const found = await attemptFor(user, params.id);
+  if (!found) throw data(NOT_FOUND, { status: 404 });
+  const { attempt, trainee } = found;
+  const reviews = await reviewsForAttempt(attempt.id);
+  const classId = new URL(request.url).searchParams.get("class");
+  const cls = classId ? await getClassFor(user, classId, "manage") : null;
+  return {
+    attempt: { ...attempt, answers: undefined },
+    trainee,
+    reviews,
+    grade: effectiveGrade(attempt, reviews),
+    canReview: mayReview(user, attempt.traineeId),
+    back: cls ? { id: cls.id, name: cls.name } : null,
+  };
+}
+
+export async function action({ request, params }: Route.ActionArgs) {
+  const user = await requirePermission(request, "attempts:review");
+  const found = await attemptFor(user, params.id);
+  if (!found) throw data(NOT_FOUND, { status: 404 });
+  if (!mayReview(user, found.attempt.traineeId)) throw data("You cannot review your own attempt.", { status: 403 });
+  const parsed = parseReviewForm(await request.formData());
+  if (!parsed.ok) return data({ errors: parsed.errors, values: parsed.values, notice: null }, { status: 400 });
+  const { emailSent } = await addReview({
+    attempt: { id: found.attempt.id, traineeEmail: found.trainee.email, lessonTitle: found.attempt.lessonTitle, score: found.attempt.score, passed: found.attempt.passed },
+    reviewer: user,
+    input: parsed.value,
+    origin: appOrigin(request),
+  });
+  const who = found.trainee.name || found.trainee.email;
+  return { errors: null, values: null, notice: emailSent ? `Saved. ${who} has been told by e-mail.` : `Saved, but the e-mail to ${who} could not be sent.` };
+}
+
+export default function AttemptReview() {
+  const { attempt, trainee, reviews, grade, canReview, back } = useLoaderData<typeof loader>();
+  const result = useActionData<typeof action>();
+  const auto = { score: attempt.score, passed: attempt.passed };
+  return (
+    <div className="grid gap-6">
+      <header>
+        <p className="text-sm">
+          {back ? (
+            <>
+              <Link className="underline" to={`/classes/${back.id}`}>{back.name}</Link> / <Link className="underline" to={`/classes/${back.id}/gradebook`}>Gradebook</Link>
+            </>
+          ) : (
+            <Link className="underline" to={canReview ? "/gradebook" : "/classes"}>{canReview ? "Gradebook" : "Classes"}</Link>
+          )}
+        </p>
+        <h1 className="text-display font-bold tracking-tight">{attempt.lessonTitle}</h1>
+        <p className="mt-2 flex flex-wrap items-center gap-x-5 gap-y-1">
+          <span><span className="text-ink-soft">Trainee:</span> <strong>{trainee.name || trainee.email}</strong></span>
+          <span className="text-ink-soft">Submitted {formatWhen(attempt.submittedAt)}</span>
+          <span className="inline-flex items-center gap-2">
+            <span className="text-ink-soft">Grade:</span>
+            <GradeMark cell={{ attemptId: attempt.id, score: grade.score, passed: grade.passed, overridden: !!grade.override, attempts: 1, submittedAt: attempt.submittedAt }} />
+          </span>
+          {grade.override ? <span className="text-sm text-ink-soft">(automatic: {formatScore(auto.score)}, {auto.passed ? "passed" : "not passed"})</span> : null}
+        </p>
+      </header>
+
+      <div className="grid gap-6 xl:grid-cols-[3fr_2fr]">
+        <section aria-labelledby="roof" className="grid content-start gap-2">
+          <h2 id="roof" className="text-lg font-bold">The submitted roof</h2>
+          {attempt.spec ? <ReadOnlyRoof spec={attempt.spec} /> : <p className="card text-ink-soft">This attempt has no roof (quiz only).</p>}
+        </section>
+        <section aria-labelledby="breakdown" className="card grid content-start gap-3">
+          <h2 id="breakdown" className="text-lg font-bold">Automatic grading</h2>
+          <p className="text-sm text-ink-soft">
+            {formatScore(attempt.score)}/100, {attempt.passed ? "passed" : "not passed"} (pass mark {attempt.results?.passMark ?? "—"}). Graded on the server on lesson version{" "}
+            <code className="text-xs">{attempt.lessonVersion.slice(0, 8)}</code>.
+          </p>
+          <GradingBreakdown results={attempt.results} />
+        </section>
+      </div>
+
+      <section aria-labelledby="reviews" className="card grid gap-4">
+        <h2 id="reviews" className="text-lg font-bold">Trainer's comments</h2>
+        <AttemptReviews reviews={reviews} automatic={auto} />
+        {canReview ? <ReviewForm result={result} auto={auto} /> : null}
+      </section>
+      <Caution />
+    </div>
+  );
+}
+
+type ActionResult = ReturnType<typeof useActionData<typeof action>>;
+
+function ReviewForm({ result, auto }: { result: ActionResult; auto: { score: number; passed: boolean } }) {
+  const values = result?.values;
+  const errors = result?.errors;
+  const [override, setOverride] = useState(values?.override === "on");
+  return (
+    <Form method="post" className="grid gap-3 border-t border-rule pt-4" noValidate key={result?.notice ?? "form"}>
+      <h3 className="font-bold">Add a comment or change the grade</h3>
+      <FormNotice message={result?.notice} />
+      <div>
+        <label className="label" htmlFor="comment">Comment to the trainee</label>
+        <textarea id="comment" name="comment" rows={3} maxLength={4000} className="field" defaultValue={values?.comment ?? ""} aria-invalid={errors?.comment ? true : undefined} aria-describedby={errors?.comment ? "comment-error" : undefined} />
+        {errors?.comment ? <p id="comment-error" className="field-error">{errors.comment}</p> : null}
+      </div>
+      <label className="inline-flex items-center gap-2 text-sm font-medium">
+        <input type="checkbox" name="override" checked={override} onChange={(e) => setOverride(e.target.checked)} className="h-4 w-4" />
+        Change the grade (the automatic grade, {formatScore(auto.score)}/100, stays on record)
+      </label>
+      {override ? (
+        <fieldset className="grid gap-3 rounded border border-rule p-3 sm:grid-cols-[10rem_1fr]">
+          <legend className="px-1 text-sm font-medium">New grade</legend>
+          <div>
+            <label className="label" htmlFor="score">Score (0-100)</label>
+            <input id="score" name="score" inputMode="decimal" className="field" defaultValue={values?.score ?? formatScore(auto.score)} aria-invalid={errors?.score ? true : undefined} />
+            {errors?.score ? <p className="field-error">{errors.score}</p> : null}
+          </div>
+          <div role="radiogroup" aria-labelledby="passed-label">
+            <p id="passed-label" className="label">Result</p>
+            <div className="flex gap-4 py-1.5 text-sm">
+              <label className="inline-flex items-center gap-1"><input type="radio" name="passed" value="yes" defaultChecked={values ? values.passed === "yes" : auto.passed} /> Passed</label>
+              <label className="inline-flex items-center gap-1"><input type="radio" name="passed" value="no" defaultChecked={values ? values.passed === "no" : !auto.passed} /> Not passed</label>
+            </div>
+            {errors?.passed ? <p className="field-error">{errors.passed}</p> : null}
+          </div>
+          <div className="sm:col-span-2">
+            <label className="label" htmlFor="reason">Reason for the change</label>
+            <input id="reason" name="reason" maxLength={1000} className="field" defaultValue={values?.reason ?? ""} aria-invalid={errors?.reason ? true : undefined} />
+            {errors?.reason ? <p className="field-error">{errors.reason}</p> : null}
+          </div>
+        </fieldset>
+      ) : null}
+      {errors ? <FormError message="Check the highlighted fields; nothing was saved." /> : null}
+      <div>
+        <SubmitButton pendingText="Saving…">{override ? "Save comment and grade" : "Save comment"}</SubmitButton>
+      </div>
+    </Form>
+  );
+}
+
+export function ErrorBoundary() {
+  return <GeneralErrorBoundary />;
+}

@@ -1,0 +1,109 @@
+import type { Route } from "./+types/classes.$id.live";
+import { getOptionalUser } from "~/lib/auth.server";
+import { getClassFor } from "~/lib/classes.server";
+import { jsonError, readJsonBody } from "~/lib/json-api.server";
+import { parseLiveUpdate } from "~/lib/live-update.server";
+import { liveHub, publishLiveState, readLiveState, type LiveSnapshot } from "~/lib/live.server";
+
+const HEARTBEAT_MS = 15_000;
+// An event (not a comment) so the page can tell a stalled stream from a quiet one.
+const HEARTBEAT = "event: ping\ndata: {}\n\n";
+const encoder = new TextEncoder();
+
+function frame(snap: LiveSnapshot): string {
+  return `id: ${snap.seq}\nevent: state\ndata: ${JSON.stringify({ seq: snap.seq, state: snap.state })}\n\n`;
+}
+
+/**
+ * GET: the class's live roof as server-sent events (`id: <seq>`, event `state`). The current
+ * state goes out at once unless the client's Last-Event-ID says it already has it; then every
+ * change; a ping event every 15 s keeps proxies from closing the stream.
+ */
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const user = await getOptionalUser(request);
+  if (!user) return new Response("Sign in first.", { status: 401 });
+  const cls = await getClassFor(user, params.id, "follow");
+  if (!cls) return new Response("No such class among yours.", { status: 404 });
+  // The header on EventSource's own reconnects; the query when the page opens a fresh EventSource.
+  const lastHeader = request.headers.get("last-event-id") ?? new URL(request.url).searchParams.get("lastEventId");
+  const last = lastHeader && /^\d{1,12}$/.test(lastHeader) ? Number(lastHeader) : -1;
+  const hub = liveHub();
+
+  let cleanup = () => {};
+  const stream = new ReadableStream<Uint8Array>({
+    async start(controller) {
+      let sent = last;
+      let open = true;
+      const write = (text: string) => {
+        if (!open) return;
+        try {
+          controller.enqueue(encoder.encode(text));
+        } catch {
+          cleanup();
+        }
+      };
+      const deliver = (snap: LiveSnapshot) => {
+        if (snap.seq <= sent) return;
+        sent = snap.seq;
+        write(frame(snap));
+      };
+      const sub = hub.subscribe(cls.id, deliver);
+      const heartbeat = setInterval(() => write(HEARTBEAT), HEARTBEAT_MS);
+      const untrack = hub.trackStream(() => cleanup());
+      cleanup = () => {
+        if (!open) return;
+        open = false;
+        clearInterval(heartbeat);
+        sub.unsubscribe();
+        untrack();
+        request.signal.removeEventListener("abort", cleanup);
+        try {
+          controller.close();
+        } catch {
+          /* already closed */
+        }
+      };
+      request.signal.addEventListener("abort", cleanup);
+      // Reconnect quickly after a drop (browsers wait about 3 s by default).
+      write("retry: 1000\n\n");
+      await sub.ready;
+      try {
+        const snap = await readLiveState(cls.id);
+        if (!snap) return cleanup();
+        // A Last-Event-ID from the future (the database was restored): start over from what is there.
+        if (snap.seq < last) sent = Math.min(sent, snap.seq - 1);
+        if (snap.seq > sent) deliver(snap);
+        else write(": up to date\n\n");
+      } catch {
+        // The database is away: end the stream; EventSource comes back and catches up.
+        cleanup();
+      }
+    },
+    cancel() {
+      cleanup();
+    },
+  });
+  return new Response(stream, {
+    headers: {
+      "Content-Type": "text/event-stream; charset=utf-8",
+      "Cache-Control": "no-cache, no-transform",
+      "X-Accel-Buffering": "no",
+    },
+  });
+}
+
+/** POST {spec, title, source, step}: the presenting trainer changes the live roof. */
+export async function action({ request, params }: Route.ActionArgs) {
+  if (request.method !== "POST") return jsonError(405, "Use POST here.", [], { Allow: "GET, POST" });
+  const user = await getOptionalUser(request);
+  if (!user) return jsonError(401, "Sign in first.");
+  const cls = await getClassFor(user, params.id, "manage");
+  if (!cls) return jsonError(404, "No such class among yours.");
+  const body = await readJsonBody(request, 512 * 1024);
+  if (!body.ok) return body.response;
+  const update = parseLiveUpdate(body.value);
+  if (!update.ok) return update.response;
+  const seq = await publishLiveState(cls.id, { ...update.value, presenter: user.name || user.email, at: new Date().toISOString() });
+  if (seq === null) return jsonError(404, "No such class among yours.");
+  return Response.json({ seq });
+}
