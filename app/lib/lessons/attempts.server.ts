@@ -77,7 +77,7 @@ const selectAttempts = (knex: Knex) => knex("attempts as a").leftJoin("lessons a
 
 export type CreateOutcome =
   | { status: 200 | 201; attempt: AttemptView }
-  | { status: 404 | 409 | 422; message: string; issues?: { path: string; message: string }[] };
+  | { status: 400 | 404 | 409 | 422; message: string; issues?: { path: string; message: string }[] };
 
 /**
  * Grades and stores one attempt. The same idempotency key from the same trainee returns the
@@ -100,7 +100,7 @@ export async function createAttempt(
     if (!lesson) return { status: 409, message: "This lesson has changed since the page was opened. Reload it; your answers are kept in the form." };
   }
   const graded = gradeLesson(lesson, sub.answers, sub.spec);
-  if ("ok" in graded) return { status: 422, message: graded.message, issues: graded.issues };
+  if ("ok" in graded) return { status: graded.status, message: graded.message, issues: graded.issues.map((i) => ({ ...i, path: `spec.${i.path}` })) };
 
   const inserted = await knex("attempts")
     .insert({

@@ -35,7 +35,7 @@ const numericQuestion = z
     kind: z.literal("numeric"),
     prompt: text("the question"),
     /** The right answer with its unit, as a person would write it: "250 mm", "2.5 %", "3.1 L/s". */
-    answer: text("the answer with its unit, such as 250 mm"),
+    answer: z.union([text("the answer with its unit, such as 250 mm"), z.number().transform(String)], { error: "must be the answer with its unit, such as 250 mm" }),
     /** Absolute tolerance in a unit of the same kind, e.g. "5 mm". */
     tolerance: z.string().optional(),
     /** Relative tolerance as a fraction, e.g. 0.02 for ±2 %. Default 0.01 when no tolerance is given. */
@@ -77,16 +77,22 @@ const ratioQuestion = z
     id,
     kind: z.literal("ratio"),
     prompt: text("the question"),
-    answer: text("the answer as a ratio such as 1:40"),
+    // A number here is YAML reading an unquoted 1:40 in base 60: refused below with a clear message.
+    answer: z.union([text("the answer as a ratio such as 1:40"), z.number()], { error: 'must be the answer as a ratio in quotes, such as "1:40"' }),
     /** Tolerance on N (1:N). Default: 1 % of N. */
     tolerance: z.number().min(0).optional(),
     weight: z.number().positive().max(100).default(1),
     explanation: z.string().default(""),
   })
   .superRefine((q, ctx) => {
+    if (typeof q.answer === "number") {
+      ctx.addIssue({ code: "custom", path: ["answer"], message: 'write the ratio in quotes, e.g. "1:40" (YAML reads 1:40 unquoted as the number 100)' });
+      return;
+    }
     const r = parseRatio(q.answer);
     if (!r.ok) ctx.addIssue({ code: "custom", path: ["answer"], message: `"${q.answer}" ${r.error}` });
-  });
+  })
+  .transform((q) => ({ ...q, answer: String(q.answer) }));
 
 const choiceQuestion = z
   .object({

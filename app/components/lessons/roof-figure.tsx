@@ -1,0 +1,165 @@
+import { useId, useState } from "react";
+import { Box } from "lucide-react";
+import type { FigureData } from "~/lib/lessons/types";
+import { FallLegend } from "~/components/sandbox/fall-legend";
+import { SandboxWorkspace } from "~/components/sandbox/workspace";
+
+/** The plan of a figure: fall map or catchments, flat faces hatched, outline, outlets, longest fall line. */
+function PlanSvg({ f }: { f: FigureData }) {
+  const hatch = useId().replace(/:/g, "");
+  const u = f.unit;
+  const label = f.view === "catchments" ? "Plan of the roof coloured by catchment, with its outlets" : "Plan of the roof coloured by fall, faces flatter than the minimum hatched, with outlets and the longest fall line";
+  return (
+    <svg viewBox={f.viewBox} className="h-auto max-h-[26rem] w-full" role="img" aria-label={label}>
+      <defs>
+        <pattern id={hatch} width={u * 1.2} height={u * 1.2} patternUnits="userSpaceOnUse" patternTransform="rotate(45)">
+          <line x1="0" y1="0" x2="0" y2={u * 1.2} stroke="#1f2933" strokeWidth={u * 0.18} strokeOpacity="0.55" />
+        </pattern>
+      </defs>
+      <polygon points={f.outline} fill="var(--color-sheet)" />
+      {f.fills.map((g) => (
+        <path key={g.fill} d={g.d} fill={g.fill} stroke={g.fill} strokeWidth={u * 0.04} />
+      ))}
+      {f.flat && <path d={f.flat} fill={`url(#${hatch})`} />}
+      {f.edges.map((e, i) => (
+        <path key={i} d={e.d} stroke="var(--color-ink)" strokeWidth={e.eaves ? u * 0.25 : u * 0.6} strokeDasharray={e.eaves ? `${u} ${u * 0.6}` : undefined} strokeLinecap="square" fill="none" />
+      ))}
+      {f.view !== "catchments" && f.longest && (
+        <path d={f.longest.d} stroke="var(--color-accent)" strokeWidth={u * 0.45} strokeDasharray={`${u * 1.4} ${u * 0.7}`} fill="none" strokeLinecap="round" />
+      )}
+      {f.outlets.map(([x, y], i) => (
+        <circle key={i} cx={x} cy={y} r={u * 1.1} fill="var(--color-accent)" stroke="var(--color-ink)" strokeWidth={u * 0.3} />
+      ))}
+    </svg>
+  );
+}
+
+function KeyTable({ f }: { f: FigureData }) {
+  return (
+    <table className="data-table w-full">
+      <tbody>
+        {f.key.map((k) => (
+          <tr key={k.label}>
+            <th scope="row" className="!normal-case !tracking-normal !text-sm !font-normal text-ink-soft">{k.label}</th>
+            <td className="font-medium">{k.value}</td>
+          </tr>
+        ))}
+      </tbody>
+    </table>
+  );
+}
+
+function CatchmentKey({ f }: { f: FigureData }) {
+  return (
+    <table className="data-table w-full">
+      <caption className="pb-1 text-left text-xs text-ink-soft">Design flow Q = i·A/3600 at {f.intensity} mm/h</caption>
+      <thead>
+        <tr><th scope="col">Drain</th><th scope="col" className="text-right">Area</th><th scope="col" className="text-right">Flow</th></tr>
+      </thead>
+      <tbody>
+        {f.catchments.map((c) => (
+          <tr key={c.label}>
+            <td><span className="mr-2 inline-block h-3 w-3 rounded-sm border border-ink/40 align-middle" style={{ background: c.fill }} aria-hidden="true" />{c.label}</td>
+            <td className="text-right">{c.area.toFixed(1)} m²</td>
+            <td className="text-right">{c.flow.toFixed(2)} L/s</td>
+          </tr>
+        ))}
+      </tbody>
+    </table>
+  );
+}
+
+function Schedule({ f }: { f: FigureData }) {
+  return (
+    <div className="max-h-72 overflow-auto rounded border border-rule">
+      <table className="data-table w-full">
+        <caption className="sr-only">Drop schedule: drop below the high level at each end of every joist span</caption>
+        <thead className="sticky top-0 bg-sheet">
+          <tr>
+            <th scope="col">Joist</th>
+            <th scope="col" className="text-right">Length</th>
+            <th scope="col" className="text-right">Drop at start</th>
+            <th scope="col" className="text-right">Drop at end</th>
+            <th scope="col" className="text-right">Fall</th>
+          </tr>
+        </thead>
+        <tbody>
+          {f.schedule.map((r, i) => (
+            <tr key={i}>
+              <td>{r.joist}</td>
+              <td className="text-right">{r.length.toFixed(2)} m</td>
+              <td className="text-right">{r.startDrop} mm</td>
+              <td className="text-right">{r.endDrop} mm</td>
+              <td className="text-right">{r.ratio}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </div>
+  );
+}
+
+function Compare({ f }: { f: FigureData }) {
+  const c = f.compare!;
+  const rows = [
+    { label: "Shaped (level rim)", h: c.shaped },
+    { label: "Internal gutter", h: c.gutter },
+    { label: "One plane to an open edge", h: c.openEdge },
+  ];
+  const max = Math.max(...rows.map((r) => r.h ?? 0), 0.001);
+  return (
+    <div className="grid gap-2">
+      <svg viewBox="0 0 320 110" className="h-auto w-full max-w-xl" role="img" aria-label="High level of each layout as a bar">
+        {rows.map((r, i) => (
+          <g key={r.label} transform={`translate(0 ${i * 36})`}>
+            <text x="0" y="14" fontSize="11" fill="var(--color-ink)">{r.label}</text>
+            {r.h != null ? (
+              <>
+                <rect x="0" y="18" height="10" width={(220 * r.h) / max} fill={i === 0 ? "var(--color-accent)" : "var(--color-ink-soft)"} />
+                <text x={(220 * r.h) / max + 6} y="27" fontSize="11" fill="var(--color-ink)">{Math.round(r.h * 1000)} mm</text>
+              </>
+            ) : (
+              <text x="0" y="28" fontSize="11" fill="var(--color-ink-soft)">not comparable: {c.reason}</text>
+            )}
+          </g>
+        ))}
+      </svg>
+      <p className="text-sm">
+        {c.saved != null ? <>Shaping saves <strong>{Math.round(c.saved * 1000)} mm</strong> of height against the gutter layout, and about {Math.round(c.detailLength)} m of membrane changes of plane along {c.gutterLength.toFixed(1)} m of gutter.</> : <>The gutter layout is not comparable here: {c.reason}.</>}
+      </p>
+    </div>
+  );
+}
+
+/** A lesson figure the app draws itself; 3D figures open the live, read-only roof on request. */
+export function RoofFigure({ f }: { f: FigureData }) {
+  const [live, setLive] = useState(false);
+  if (f.error) {
+    return <p role="alert" className="rounded border border-bad/40 px-3 py-2 text-sm text-bad">This figure could not be drawn: {f.error}</p>;
+  }
+  return (
+    <figure className="card my-4 grid gap-3" data-testid="roof-figure">
+      {f.view === "plan" || f.view === "catchments" || (f.view === "3d" && !live) ? (
+        <div className="grid gap-3 md:grid-cols-[3fr_2fr] md:items-start">
+          <div>
+            <PlanSvg f={f} />
+            {f.view !== "catchments" && <FallLegend minRatio={f.minRatio} />}
+          </div>
+          <div className="grid gap-2">
+            {f.view === "catchments" ? <CatchmentKey f={f} /> : <KeyTable f={f} />}
+            {f.view === "3d" && (
+              <button type="button" className="btn-primary justify-self-start" onClick={() => setLive(true)}>
+                <Box aria-hidden="true" className="h-4 w-4" /> Open the live roof in 3D
+              </button>
+            )}
+          </div>
+        </div>
+      ) : null}
+      {f.view === "3d" && live && <SandboxWorkspace initialSpec={f.spec} readOnly />}
+      {f.view === "figures" && <KeyTable f={f} />}
+      {f.view === "schedule" && <Schedule f={f} />}
+      {f.view === "compare" && <Compare f={f} />}
+      <figcaption className="text-sm text-ink-soft">{f.caption}</figcaption>
+    </figure>
+  );
+}

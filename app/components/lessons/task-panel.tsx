@@ -1,0 +1,97 @@
+import { RotateCcw } from "lucide-react";
+import type { RoofSpec } from "~/engine";
+import type { ItemResult } from "~/lib/lessons/grade";
+import type { LessonView } from "~/lib/lessons/types";
+import { useSandboxStore } from "~/components/sandbox/store";
+import { SandboxWorkspace } from "~/components/sandbox/workspace";
+import { ItemFeedback } from "./results";
+import { PROSE } from "./prose";
+
+const EDITABLE_WORDS: Record<string, string> = {
+  outlets: "the outlets (move, add, remove)",
+  outletLevels: "outlet levels",
+  baseFall: "the base fall",
+  edges: "the edge kinds (parapet or open)",
+  joists: "the joists (direction and spacing)",
+  highLevel: "the high level",
+  outline: "the outline",
+};
+
+function ResetRoof({ start }: { start: RoofSpec }) {
+  const store = useSandboxStore();
+  return (
+    <button
+      type="button"
+      className="btn px-2"
+      onClick={() => {
+        store.getState().replaceSpec(structuredClone(start));
+        store.getState().setNotice("Back to the task's starting roof (Undo returns yours).");
+      }}
+    >
+      <RotateCcw aria-hidden="true" className="h-4 w-4" /> Starting roof
+    </button>
+  );
+}
+
+/** The hands-on roof task: goal, what will be checked, hints, and the sandbox to do it in. */
+export function TaskPanel({
+  slug,
+  version,
+  task,
+  results,
+  onSpecChange,
+}: {
+  slug: string;
+  version: string;
+  task: LessonView["task"];
+  results: ItemResult[] | null;
+  onSpecChange: (spec: RoofSpec) => void;
+}) {
+  const byId = new Map((results ?? []).map((r) => [r.id, r]));
+  const fixed = byId.get("fixed");
+  return (
+    <section aria-labelledby="task-heading" className="grid gap-4">
+      <div>
+        <p className="text-xs font-medium uppercase tracking-widest text-accent">Roof task</p>
+        <h2 id="task-heading" className="text-2xl font-bold tracking-tight">{task.title}</h2>
+      </div>
+      <div className="grid gap-4 lg:grid-cols-[3fr_2fr]">
+        <div className={`card ${PROSE}`} dangerouslySetInnerHTML={{ __html: task.goalHtml }} />
+        <div className="card grid content-start gap-3">
+          <div>
+            <h3 className="font-bold">What will be checked</h3>
+            <ul className="mt-2 grid gap-2">
+              {task.criteria.map((c) => (
+                <li key={c.id} data-testid={`criterion-${c.id}`}>
+                  <span className="font-medium">{c.label}</span>
+                  <span className="ml-1 text-xs text-ink-soft">
+                    ({c.weight} {c.weight === 1 ? "point" : "points"}{c.required ? ", required" : ""})
+                  </span>
+                  {byId.get(c.id) && <ItemFeedback item={byId.get(c.id)!} />}
+                </li>
+              ))}
+            </ul>
+            {fixed && <ItemFeedback item={fixed} />}
+          </div>
+          <p className="text-sm text-ink-soft">
+            You may change {task.editable.map((e) => EDITABLE_WORDS[e] ?? e).join(", ")}. Everything else must stay as the task gives it.
+          </p>
+          <details className="text-sm">
+            <summary className="cursor-pointer font-medium">Hints ({task.hints.length})</summary>
+            <ol className="mt-2 list-decimal space-y-1 pl-5">
+              {task.hints.map((h, i) => (
+                <li key={i}>{h}</li>
+              ))}
+            </ol>
+          </details>
+        </div>
+      </div>
+      <SandboxWorkspace
+        initialSpec={task.start}
+        onSpecChange={onSpecChange}
+        restoreKey={`fallwright:lesson:${slug}:${version.slice(0, 12)}`}
+        toolbarExtra={<ResetRoof start={task.start} />}
+      />
+    </section>
+  );
+}

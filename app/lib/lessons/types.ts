@@ -1,0 +1,71 @@
+/** Shapes the lesson pages receive from their loaders (safe for the browser: no answers, no reference roofs). */
+import type { RoofSpec } from "../../engine";
+import type { Figure } from "./schema";
+
+/** A lesson figure, drawn from the engine's output on the server and sent as plain shapes. */
+export interface FigureData {
+  caption: string;
+  view: Figure["view"];
+  spec: RoofSpec;
+  /** SVG user space: plan metres with y flipped (y down). */
+  viewBox: string;
+  unit: number;
+  outline: string;
+  edges: { d: string; eaves: boolean }[];
+  outlets: [number, number][];
+  /** Faces grouped by colour (fall map) or by catchment. */
+  fills: { fill: string; d: string }[];
+  /** Faces flatter than the minimum fall (hatched). */
+  flat: string;
+  longest: { d: string; label: string } | null;
+  minRatio: number;
+  key: { label: string; value: string }[];
+  catchments: { label: string; area: number; flow: number; fill: string }[];
+  intensity: number;
+  schedule: { joist: number; length: number; startDrop: number; endDrop: number; ratio: string }[];
+  compare: { shaped: number; gutter: number | null; openEdge: number; saved: number | null; reason: string | null; gutterLength: number; detailLength: number } | null;
+  error: string | null;
+}
+
+/** What the browser may see of a lesson: no answers, no explanations, no reference roof. */
+export interface LessonView {
+  slug: string;
+  title: string;
+  summary: string;
+  minutes: number;
+  position: number;
+  version: string;
+  objectives: string[];
+  passMark: number;
+  blocks: ({ type: "html"; html: string } | { type: "caution"; html: string } | { type: "roof"; figure: FigureData })[];
+  quiz: {
+    id: string;
+    kind: "numeric" | "ratio" | "choice";
+    promptHtml: string;
+    weight: number;
+    options?: { id: string; html: string }[];
+    multiple?: boolean;
+    placeholder?: string;
+  }[];
+  task: {
+    title: string;
+    goalHtml: string;
+    start: RoofSpec;
+    editable: string[];
+    criteria: { id: string; label: string; weight: number; required: boolean }[];
+    hints: string[];
+  };
+}
+
+export interface LessonSummary {
+  slug: string;
+  title: string;
+  summary: string;
+  minutes: number;
+  position: number;
+  version: string;
+  questions: number;
+  criteria: number;
+  passMark: number;
+}
+

@@ -1,0 +1,18 @@
+import type { Route } from "./+types/api.v1.lessons.$slug";
+import { jsonError } from "~/lib/json-api.server";
+import { getLesson } from "~/lib/lessons/catalogue.server";
+import { lessonView } from "~/lib/lessons/view.server";
+
+/** GET /api/v1/lessons/:slug: one lesson as the player shows it (no answers, no reference roof). */
+export async function loader({ params }: Route.LoaderArgs) {
+  const lesson = getLesson(params.slug);
+  if (!lesson) return jsonError(404, `There is no lesson "${params.slug.slice(0, 100)}".`);
+  const view = lessonView(lesson);
+  return Response.json({
+    lesson: {
+      ...view,
+      // Figures as their specs: clients draw them with the analysis API.
+      blocks: view.blocks.map((b) => (b.type === "roof" ? { type: "roof", caption: b.figure.caption, view: b.figure.view, spec: b.figure.spec } : b)),
+    },
+  });
+}

@@ -1,0 +1,82 @@
+import { Link, useLoaderData } from "react-router";
+import type { Route } from "./+types/attempts._index";
+import { requirePermission } from "~/lib/auth.server";
+import { db } from "~/lib/db.server";
+import { listAttempts } from "~/lib/lessons/attempts.server";
+import { formatWhen } from "~/lib/when";
+import { GeneralErrorBoundary } from "~/components/error-boundary";
+import { PassMark } from "~/components/lessons/results";
+
+export const meta: Route.MetaFunction = () => [{ title: "My attempts · Fallwright" }];
+
+export async function loader({ request }: Route.LoaderArgs) {
+  const user = await requirePermission(request, "lessons:take");
+  const attempts = await listAttempts(db(), user.id);
+  return {
+    attempts: attempts.map((a) => ({
+      id: a.id,
+      lesson: a.lesson,
+      lessonTitle: a.lessonTitle,
+      submittedAt: a.submittedAt,
+      score: a.score,
+      passed: a.passed,
+      timeSpentSeconds: a.timeSpentSeconds,
+      failed: [...a.results.quiz, ...a.results.task].filter((i) => !i.passed).map((i) => i.label),
+    })),
+  };
+}
+
+const minutes = (s: number) => (s < 60 ? `${s} s` : `${Math.round(s / 60)} min`);
+
+export default function MyAttempts() {
+  const { attempts } = useLoaderData<typeof loader>();
+  return (
+    <div className="grid gap-6">
+      <header>
+        <p className="text-sm"><Link to="/lessons" className="underline">Lessons</Link></p>
+        <h1 className="text-display font-bold tracking-tight">My attempts</h1>
+        <p className="mt-2 max-w-prose text-ink-soft">Every attempt you submitted, newest first, graded on the server. Open one to see each answer and criterion and to turn your roof in 3D.</p>
+      </header>
+      {attempts.length === 0 ? (
+        <div className="card">
+          <p>No attempts yet. Pick a lesson, answer its questions, shape its roof and submit.</p>
+          <Link className="btn-primary mt-3" to="/lessons">Go to the lessons</Link>
+        </div>
+      ) : (
+        <div className="card overflow-x-auto p-0">
+          <table className="data-table w-full" data-testid="attempts-table">
+            <caption className="sr-only">My attempts</caption>
+            <thead>
+              <tr>
+                <th scope="col">Lesson</th>
+                <th scope="col">Submitted</th>
+                <th scope="col" className="text-right">Score</th>
+                <th scope="col">Result</th>
+                <th scope="col">Not met</th>
+                <th scope="col" className="text-right">Time</th>
+                <th scope="col"><span className="sr-only">Open</span></th>
+              </tr>
+            </thead>
+            <tbody>
+              {attempts.map((a) => (
+                <tr key={a.id} className="align-top">
+                  <td><Link className="font-medium underline" to={`/lessons/${a.lesson}`}>{a.lessonTitle}</Link></td>
+                  <td className="whitespace-nowrap">{formatWhen(a.submittedAt)}</td>
+                  <td className="text-right font-medium">{Math.round(a.score * 10) / 10}</td>
+                  <td className="whitespace-nowrap"><PassMark passed={a.passed} /></td>
+                  <td className="max-w-sm text-xs text-ink-soft">{a.failed.length ? a.failed.join("; ") : "nothing"}</td>
+                  <td className="whitespace-nowrap text-right" title="Measured in your browser; for information only">{minutes(a.timeSpentSeconds)}</td>
+                  <td><Link className="btn whitespace-nowrap" to={`/attempts/${a.id}`} aria-label={`Open the attempt at ${a.lessonTitle}, ${formatWhen(a.submittedAt)}`}>Open</Link></td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+    </div>
+  );
+}
+
+export function ErrorBoundary() {
+  return <GeneralErrorBoundary />;
+}

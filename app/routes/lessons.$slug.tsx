@@ -1,0 +1,183 @@
+import { useCallback, useEffect, useRef } from "react";
+import { data, Form, Link, useActionData, useLoaderData, useNavigation } from "react-router";
+import { Clock, Send } from "lucide-react";
+import type { Route } from "./+types/lessons.$slug";
+import type { RoofSpec } from "~/engine";
+import { getOptionalUser, requirePermission } from "~/lib/auth.server";
+import { db } from "~/lib/db.server";
+import { readFormCapped } from "~/lib/json-api.server";
+import { progressOf } from "~/lib/lessons/attempts.server";
+import { getLesson } from "~/lib/lessons/catalogue.server";
+import { submissionFromForm, submitAttempt } from "~/lib/lessons/submit.server";
+import { lessonView } from "~/lib/lessons/view.server";
+import { Caution } from "~/components/caution";
+import { GeneralErrorBoundary } from "~/components/error-boundary";
+import { FormError } from "~/components/form-field";
+import { PROSE } from "~/components/lessons/prose";
+import { QuizQuestion } from "~/components/lessons/quiz";
+import { ScoreSummary } from "~/components/lessons/results";
+import { RoofFigure } from "~/components/lessons/roof-figure";
+import { TaskPanel } from "~/components/lessons/task-panel";
+
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: `${data?.lesson.title ?? "Lesson"} · Fallwright` },
+  { name: "description", content: data?.lesson.summary ?? "" },
+];
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const lesson = getLesson(params.slug);
+  if (!lesson) throw data("No lesson with that name.", { status: 404 });
+  const user = await getOptionalUser(request);
+  const progress = user ? ((await progressOf(db(), user.id))[lesson.slug] ?? null) : null;
+  // A fresh key per page view: a double click or a retry of this submit makes one attempt.
+  return { lesson: lessonView(lesson), signedIn: !!user, progress, idempotencyKey: crypto.randomUUID() };
+}
+
+export async function action({ request, params }: Route.ActionArgs) {
+  const user = await requirePermission(request, "lessons:take");
+  if (!getLesson(params.slug)) throw data("No lesson with that name.", { status: 404 });
+  const read = await readFormCapped(request, 512 * 1024);
+  if (!read.ok) return data({ attempt: null, error: "The submission could not be read. Try again." }, { status: read.status });
+  const outcome = await submitAttempt(user, submissionFromForm(params.slug, read.form));
+  if ("attempt" in outcome) return { attempt: outcome.attempt, error: null };
+  const detail = "issues" in outcome && outcome.issues?.length ? ` (${outcome.issues.slice(0, 2).map((i) => `${i.path}: ${i.message}`).join("; ")})` : "";
+  const roofProblem = outcome.issues?.some((i) => i.path.startsWith("spec"));
+  const message = roofProblem
+    ? `Your roof could not be checked: ${outcome.message} Use "Starting roof" to go back to the task's roof.`
+    : outcome.status === 400
+      ? `The submission was incomplete${detail}. Reload the page and try again; your answers stay in the form.`
+      : outcome.message;
+  return data({ attempt: null, error: message }, { status: outcome.status });
+}
+
+function useTimeSpent() {
+  const started = useRef(0);
+  useEffect(() => {
+    started.current = Date.now();
+  }, []);
+  return () => (started.current ? Math.round((Date.now() - started.current) / 1000) : 0);
+}
+
+export default function LessonPlayer() {
+  const { lesson, signedIn, progress, idempotencyKey } = useLoaderData<typeof loader>();
+  const result = useActionData<typeof action>();
+  const navigation = useNavigation();
+  const submitting = navigation.state === "submitting";
+  const specInput = useRef<HTMLInputElement>(null);
+  const timeInput = useRef<HTMLInputElement>(null);
+  const timeSpent = useTimeSpent();
+  const onSpecChange = useCallback((spec: RoofSpec) => {
+    if (specInput.current) specInput.current.value = JSON.stringify(spec);
+  }, []);
+  const graded = result?.attempt?.results ?? null;
+  const quizResults = new Map((graded?.quiz ?? []).map((r) => [r.id, r]));
+  const summaryRef = useRef<HTMLDivElement>(null);
+  useEffect(() => {
+    if (result) summaryRef.current?.scrollIntoView({ behavior: "smooth", block: "center" });
+  }, [result]);
+
+  return (
+    <div className="grid gap-8">
+      <header className="grid gap-2">
+        <p className="text-sm">
+          <Link to="/lessons" className="underline">Lessons</Link> <span className="text-ink-soft">/ lesson {lesson.position}</span>
+        </p>
+        <h1 className="text-display font-bold tracking-tight">{lesson.title}</h1>
+        <p className="max-w-prose text-lg text-ink-soft">{lesson.summary}</p>
+        <p className="flex flex-wrap items-center gap-x-4 gap-y-1 text-sm text-ink-soft">
+          <span className="inline-flex items-center gap-1"><Clock aria-hidden="true" className="h-4 w-4" />about {lesson.minutes} min</span>
+          <span>{lesson.quiz.length} questions and a roof task</span>
+          <span>pass mark {lesson.passMark} of 100</span>
+          {progress && (
+            <span data-testid="lesson-progress">
+              your best {Math.round(progress.bestScore * 10) / 10} · {progress.passed ? "passed" : "not passed yet"} · {progress.attempts} {progress.attempts === 1 ? "attempt" : "attempts"}
+            </span>
+          )}
+        </p>
+      </header>
+
+      <section className="card" aria-labelledby="objectives-heading">
+        <h2 id="objectives-heading" className="font-bold">After this lesson you can</h2>
+        <ul className="mt-2 list-disc space-y-1 pl-6">
+          {lesson.objectives.map((o) => (
+            <li key={o}>{o}</li>
+          ))}
+        </ul>
+      </section>
+
+      <article className={PROSE}>
+        {lesson.blocks.map((b, i) =>
+          b.type === "roof" ? (
+            <RoofFigure key={i} f={b.figure} />
+          ) : b.type === "caution" ? (
+            <aside key={i} role="note" className="my-4 rounded border-l-4 border-warn bg-accent-wash px-4 py-3">
+              <p className="!mt-0 text-xs font-bold uppercase tracking-wide text-warn">Caution: this work can hurt people</p>
+              <div dangerouslySetInnerHTML={{ __html: b.html }} />
+            </aside>
+          ) : (
+            <div key={i} dangerouslySetInnerHTML={{ __html: b.html }} />
+          ),
+        )}
+      </article>
+
+      <Form
+        method="post"
+        className="grid gap-8"
+        onSubmit={() => {
+          if (timeInput.current) timeInput.current.value = String(timeSpent());
+        }}
+      >
+        <input type="hidden" name="idempotencyKey" value={idempotencyKey} />
+        <input type="hidden" name="version" value={lesson.version} />
+        <input type="hidden" name="timeSpentSeconds" ref={timeInput} defaultValue="0" />
+        <input type="hidden" name="spec" ref={specInput} defaultValue={JSON.stringify(lesson.task.start)} />
+
+        <section aria-labelledby="quiz-heading" className="grid gap-3">
+          <div>
+            <p className="text-xs font-medium uppercase tracking-widest text-accent">Quiz</p>
+            <h2 id="quiz-heading" className="text-2xl font-bold tracking-tight">Check your understanding</h2>
+            <p className="text-sm text-ink-soft">Give numbers with their unit (150 mm, 0.15 m and 15 cm all count); write ratios as 1:N.</p>
+          </div>
+          <ol className="grid gap-3">
+            {lesson.quiz.map((q, i) => (
+              <QuizQuestion key={q.id} q={q} index={i} result={quizResults.get(q.id)} />
+            ))}
+          </ol>
+        </section>
+
+        <TaskPanel slug={lesson.slug} version={lesson.version} task={lesson.task} results={graded?.task ?? null} onSpecChange={onSpecChange} />
+
+        <section className="card sticky bottom-2 z-10 grid gap-3 shadow-lg" aria-label="Submit">
+          <div ref={summaryRef}>
+            {graded && <ScoreSummary result={graded} heading={`Attempt graded on the server`} />}
+            <FormError message={result?.error} />
+          </div>
+          <div className="flex flex-wrap items-center gap-3">
+            {signedIn ? (
+              <button type="submit" className="btn-primary" disabled={submitting} aria-busy={submitting || undefined}>
+                <Send aria-hidden="true" className="h-4 w-4" />
+                {submitting ? "Checking your answers and roof…" : graded ? "Submit again" : "Submit answers and roof"}
+              </button>
+            ) : (
+              <Link className="btn-primary" to={`/login?${new URLSearchParams({ redirectTo: `/lessons/${lesson.slug}` })}`}>
+                Sign in to submit
+              </Link>
+            )}
+            {result?.attempt && (
+              <Link className="text-sm underline" to={`/attempts/${result.attempt.id}`}>
+                Open this attempt
+              </Link>
+            )}
+            <Link className="text-sm underline" to="/attempts">My attempts</Link>
+            <p className="text-xs text-ink-soft">The server checks your roof again with the roof engine and marks every answer; nothing is marked in the browser.</p>
+          </div>
+        </section>
+      </Form>
+      <Caution />
+    </div>
+  );
+}
+
+export function ErrorBoundary() {
+  return <GeneralErrorBoundary />;
+}
