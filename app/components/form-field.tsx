@@ -1,4 +1,4 @@
-import { useId, type InputHTMLAttributes, type ReactNode } from "react";
+import { useId, type ComponentProps, type ReactNode } from "react";
 import { useNavigation } from "react-router";
 
 /** A labelled input with its hint or error wired up for screen readers. */
@@ -8,7 +8,7 @@ export function Field({
   error,
   hint,
   ...input
-}: { label: string; name: string; error?: string; hint?: ReactNode } & InputHTMLAttributes<HTMLInputElement>) {
+}: { label: string; name: string; error?: string; hint?: ReactNode } & ComponentProps<"input">) {
   const id = useId();
   const describedBy = error ? `${id}-error` : hint ? `${id}-hint` : undefined;
   return (

@@ -1,3 +1,4 @@
+import { useEffect, useRef } from "react";
 import { data, Form, Link, redirect, useActionData, useLoaderData } from "react-router";
 import type { Route } from "./+types/login";
 import { requireAnonymous, safeRedirect, signIn } from "~/lib/auth.server";
@@ -37,6 +38,14 @@ export async function action({ request, context }: Route.ActionArgs) {
 export default function Login() {
   const { redirectTo, notice, signupOpen } = useLoaderData<typeof loader>();
   const result = useActionData<typeof action>();
+  const password = useRef<HTMLInputElement>(null);
+  // After a refused attempt the password is cleared and focused, ready to type again.
+  useEffect(() => {
+    if (result?.formError && password.current) {
+      password.current.value = "";
+      password.current.focus();
+    }
+  }, [result]);
   return (
     <AuthCard title="Sign in" lead="Use the e-mail address your invitation came to.">
       <Form method="post" className="grid gap-4" noValidate>
@@ -49,7 +58,7 @@ export default function Login() {
           type="email"
           autoComplete="username"
           required
-          autoFocus={!result?.email}
+          autoFocus
           defaultValue={result?.email ?? ""}
           error={result?.fieldErrors?.email}
         />
@@ -59,7 +68,7 @@ export default function Login() {
           type="password"
           autoComplete="current-password"
           required
-          autoFocus={!!result?.email}
+          ref={password}
           error={result?.fieldErrors?.password}
         />
         <div className="flex flex-wrap items-center justify-between gap-3">
