@@ -71,9 +71,10 @@ function markDrains(roof: Roof, mesh: SurfaceMesh, drains: Drain[]): Int32Array 
 }
 
 /**
- * Where the water goes (ROOF-METHOD.md §7): each vertex drains to its steepest downhill neighbour;
- * flat patches drain through the neighbour that already drains; what is left are pits. Each face
- * goes to the drain of its lowest vertex.
+ * Where the water goes (ROOF-METHOD.md §7): each vertex drains to its steepest downhill neighbour
+ * (lower by more than rounding); level patches drain through a neighbour at the same level
+ * whose water already reaches a drain; what is left are pits. Each face goes to the drain of its
+ * lowest vertex.
  */
 export function routeWater(roof: Roof, mesh: SurfaceMesh, faces: FaceData): Routing {
   const V = mesh.vertexCount;
@@ -88,9 +89,11 @@ export function routeWater(roof: Roof, mesh: SurfaceMesh, faces: FaceData): Rout
     for (let k = 0; k < 3; k++) {
       const a = tri[3 * f + k];
       const b = tri[3 * f + (k === 2 ? 0 : k + 1)];
+      const dz = z[a] - z[b];
+      if (dz <= FLAT && dz >= -FLAT) continue;
       const du = u[b] - u[a];
       const dv = v[b] - v[a];
-      const s = (z[a] - z[b]) / Math.sqrt(du * du + dv * dv);
+      const s = dz / Math.sqrt(du * du + dv * dv);
       if (s > best[a]) {
         best[a] = s;
         receiver[a] = b;
@@ -101,30 +104,33 @@ export function routeWater(roof: Roof, mesh: SurfaceMesh, faces: FaceData): Rout
     }
   }
   const vertexDrain = new Int32Array(V).fill(-1);
-  let unresolved = 0;
+  let open = 0;
   for (let i = 0; i < V; i++) {
     if (drainMark[i] >= 0) {
       receiver[i] = -1;
       vertexDrain[i] = drainMark[i];
-    } else if (receiver[i] < 0) unresolved++;
+    } else if (receiver[i] < 0) open++;
   }
 
-  if (unresolved > 0) unresolved = relaxFlats(mesh, receiver, vertexDrain, unresolved);
-  if (unresolved > 0) resolveFlats(mesh, receiver, vertexDrain, drains);
-
-  // Follow receivers to a drain, recording the answer along the way.
   const stack = new Int32Array(V);
-  for (let i = 0; i < V; i++) {
-    if (vertexDrain[i] >= 0) continue;
-    let top = 0;
-    let x = i;
-    while (vertexDrain[x] < 0 && receiver[x] >= 0 && top < V) {
-      stack[top++] = x;
-      x = receiver[x];
+  // Follow receivers to their ends, recording the drain reached (or -1) along the way.
+  const settleChains = () => {
+    for (let i = 0; i < V; i++) {
+      if (vertexDrain[i] >= 0) continue;
+      let top = 0;
+      let x = i;
+      while (vertexDrain[x] < 0 && receiver[x] >= 0 && top < V) {
+        stack[top++] = x;
+        x = receiver[x];
+      }
+      const d = vertexDrain[x];
+      if (d >= 0) while (top > 0) vertexDrain[stack[--top]] = d;
     }
-    const d = vertexDrain[x];
-    while (top > 0) vertexDrain[stack[--top]] = d;
-  }
+  };
+  settleChains();
+  if (open > 0) open = levelPatches(mesh, receiver, vertexDrain, settleChains);
+  if (open > 0) markPits(mesh, receiver, vertexDrain, drains);
+  settleChains();
 
   const faceDrain = new Int32Array(F);
   const drainArea = new Float64Array(drains.length);
@@ -141,45 +147,47 @@ export function routeWater(roof: Roof, mesh: SurfaceMesh, faces: FaceData): Rout
 }
 
 /**
- * Small flat patches (a corner vertex whose neighbours sit at the same level) drain through a
- * neighbour that already drains. A few passes over the faces settle them without building an
- * adjacency; large level areas are left for the breadth-first search.
+ * Level patches: a vertex with no lower neighbour drains through a neighbour at the same level
+ * whose water already reaches a drain. Sweeps over the faces until nothing changes (a wide level
+ * area takes one sweep per step across it, so the sweeps are bounded); returns how many such
+ * vertices are left without a way out.
  */
-function relaxFlats(mesh: SurfaceMesh, receiver: Int32Array, vertexDrain: Int32Array, unresolved: number): number {
+function levelPatches(mesh: SurfaceMesh, receiver: Int32Array, vertexDrain: Int32Array, settleChains: () => void): number {
   const { z, tri } = mesh;
   const F = mesh.faceCount;
-  const open = new Uint8Array(mesh.vertexCount);
-  for (let i = 0; i < mesh.vertexCount; i++) if (receiver[i] < 0 && vertexDrain[i] < 0) open[i] = 1;
-  const settle = (x: number, y: number) => {
-    if (open[x] && !open[y] && Math.abs(z[x] - z[y]) <= FLAT) {
-      receiver[x] = y;
-      open[x] = 0;
-      unresolved--;
-    }
-  };
-  for (let pass = 0; pass < 3 && unresolved > 0; pass++) {
-    const before = unresolved;
+  const V = mesh.vertexCount;
+  const MAX_SWEEPS = 64;
+  let left = 0;
+  for (let sweep = 0; sweep < MAX_SWEEPS; sweep++) {
+    let changed = 0;
     for (let f = 0; f < F; f++) {
       const a = tri[3 * f], b = tri[3 * f + 1], c = tri[3 * f + 2];
-      if (!(open[a] | open[b] | open[c])) continue;
-      settle(a, b);
-      settle(a, c);
-      settle(b, a);
-      settle(b, c);
-      settle(c, a);
-      settle(c, b);
+      const oa = receiver[a] < 0 && vertexDrain[a] < 0;
+      const ob = receiver[b] < 0 && vertexDrain[b] < 0;
+      const oc = receiver[c] < 0 && vertexDrain[c] < 0;
+      if (!(oa || ob || oc)) continue;
+      for (let k = 0; k < 6; k++) {
+        const x = k < 2 ? a : k < 4 ? b : c;
+        const y = k === 0 ? b : k === 1 ? c : k === 2 ? a : k === 3 ? c : k === 4 ? a : b;
+        if (receiver[x] >= 0 || vertexDrain[x] >= 0 || vertexDrain[y] < 0) continue;
+        if (Math.abs(z[x] - z[y]) > FLAT) continue;
+        receiver[x] = y;
+        vertexDrain[x] = vertexDrain[y];
+        changed++;
+      }
     }
-    if (unresolved === before) break;
+    if (changed === 0) break;
+    settleChains();
   }
-  return unresolved;
+  for (let i = 0; i < V; i++) if (receiver[i] < 0 && vertexDrain[i] < 0) left++;
+  return left;
 }
 
-/** Flat patches drain through a neighbour at the same level that already drains; the rest are pits. */
-function resolveFlats(mesh: SurfaceMesh, receiver: Int32Array, vertexDrain: Int32Array, drains: Drain[]): void {
+/** What is left: connected level patches with no way down, each a pit (ponding). */
+function markPits(mesh: SurfaceMesh, receiver: Int32Array, vertexDrain: Int32Array, drains: Drain[]): void {
   const V = mesh.vertexCount;
   const { z, tri } = mesh;
   const F = mesh.faceCount;
-  // Vertex adjacency (compressed rows) from the faces' edges.
   const degree = new Int32Array(V + 1);
   for (let k = 0; k < 3 * F; k++) degree[tri[k] + 1] += 2;
   for (let i = 0; i < V; i++) degree[i + 1] += degree[i];
@@ -193,43 +201,26 @@ function resolveFlats(mesh: SurfaceMesh, receiver: Int32Array, vertexDrain: Int3
       adj[fill[b]++] = a;
     }
   }
-  const done = new Uint8Array(V);
   const queue = new Int32Array(V);
-  let head = 0, tail = 0;
-  for (let i = 0; i < V; i++) {
-    if (receiver[i] >= 0 || vertexDrain[i] >= 0) {
-      done[i] = 1;
-      queue[tail++] = i;
-    }
-  }
-  while (head < tail) {
-    const x = queue[head++];
-    for (let k = degree[x]; k < degree[x + 1]; k++) {
-      const y = adj[k];
-      if (done[y] || Math.abs(z[y] - z[x]) > FLAT) continue;
-      done[y] = 1;
-      receiver[y] = x;
-      queue[tail++] = y;
-    }
-  }
-  // Pits: connected level patches with no way down.
   let pits = 0;
   for (let i = 0; i < V; i++) {
-    if (done[i]) continue;
+    if (receiver[i] >= 0 || vertexDrain[i] >= 0) continue;
     const id = drains.length;
     drains.push({ kind: "pit", index: pits++, level: z[i], vertex: i });
-    head = tail = 0;
+    let head = 0;
+    let tail = 0;
     queue[tail++] = i;
-    done[i] = 1;
+    vertexDrain[i] = id;
     while (head < tail) {
       const x = queue[head++];
-      vertexDrain[x] = id;
       for (let k = degree[x]; k < degree[x + 1]; k++) {
         const y = adj[k];
-        if (done[y] || Math.abs(z[y] - z[x]) > FLAT) continue;
-        done[y] = 1;
+        if (receiver[y] >= 0 || vertexDrain[y] >= 0 || Math.abs(z[y] - z[x]) > FLAT) continue;
+        vertexDrain[y] = id;
+        receiver[y] = x;
         queue[tail++] = y;
       }
     }
+    drains[id].vertex = i;
   }
 }

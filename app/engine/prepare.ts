@@ -193,10 +193,18 @@ export function prepareRoof(spec: RoofSpec): Prepared {
   }
   const us = new Float64Array(n);
   const vs = new Float64Array(n);
-  let umin = Infinity, umax = -Infinity, vmin = Infinity, vmax = -Infinity;
   for (let j = 0; j < n; j++) {
     us[j] = xs[j] * dy - ys[j] * dx;
     vs[j] = xs[j] * dx + ys[j] * dy;
+  }
+  // An edge that is along the joists up to rounding (after a rotation, say) is made exactly so:
+  // the chord rule reads lines through vertices by exact comparisons of u.
+  const byU = [...us.keys()].sort((a, b) => us[a] - us[b]);
+  for (let k = 1; k < n; k++) {
+    if (us[byU[k]] - us[byU[k - 1]] <= tol * 0.01) us[byU[k]] = us[byU[k - 1]];
+  }
+  let umin = Infinity, umax = -Infinity, vmin = Infinity, vmax = -Infinity;
+  for (let j = 0; j < n; j++) {
     umin = Math.min(umin, us[j]);
     umax = Math.max(umax, us[j]);
     vmin = Math.min(vmin, vs[j]);

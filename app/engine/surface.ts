@@ -16,12 +16,19 @@ export function chordLevel(levels: PerimeterLevels, c: Chord, v: number): number
 /** Perimeter level at (u, v) when the point lies on the outline (within tol), else null. */
 export function perimeterLevelAt(roof: Roof, levels: PerimeterLevels, u: number, v: number, tol: number): number | null {
   const { n, us, vs, len } = roof;
+  let best = -1;
+  let bestDistance = tol;
+  let bestS = 0;
   for (let j = 0; j < n; j++) {
     const q = j + 1 === n ? 0 : j + 1;
     const near = nearestOnSegment(us[j], vs[j], us[q], vs[q], u, v);
-    if (near.distance <= tol) return levelOnEdge(levels, j, near.s * len[j]);
+    if (near.distance <= bestDistance) {
+      best = j;
+      bestDistance = near.distance;
+      bestS = near.s;
+    }
   }
-  return null;
+  return best < 0 ? null : levelOnEdge(levels, best, bestS * len[best]);
 }
 
 /**

@@ -1,0 +1,249 @@
+import fc from "fast-check";
+import { describe, expect, it } from "vitest";
+import { analyse, parseSpec, type Analysis, type EdgeKind, type Point, type RoofSpec } from "~/engine";
+import { meshAreas, shoelace } from "./helpers";
+
+/*
+ * Invariants on random valid roofs (STYLE.md, "Tests check invariants"): rectangles, convex
+ * polygons and L-shapes, outlets on parapet edges (sometimes at a corner), sometimes an eaves
+ * edge, sometimes outlets above the datum.
+ */
+
+interface Case {
+  spec: RoofSpec;
+  perimeterProbes: { at: Point; edge: number; t: number }[];
+}
+
+const num = (min: number, max: number) => fc.double({ min, max, noNaN: true, noDefaultInfinity: true });
+
+const rectangle = fc.tuple(num(3, 40), num(3, 30)).map(([w, h]): Point[] => [[0, 0], [w, 0], [w, h], [0, h]]);
+const convex = fc
+  .tuple(fc.integer({ min: 3, max: 8 }), num(4, 25), num(4, 25), fc.double({ min: 0, max: 1, noNaN: true }))
+  .map(([k, rx, ry, phase]): Point[] =>
+    // Evenly spread angles with a small jitter keep the polygon convex and its edges long.
+    Array.from({ length: k }, (_, i) => {
+      const a = ((i + 0.3 * Math.sin(7 * i + phase * 6)) / k) * 2 * Math.PI;
+      return [rx * Math.cos(a), ry * Math.sin(a)];
+    }),
+  );
+const lShape = fc
+  .tuple(num(6, 30), num(6, 30), num(0.25, 0.75), num(0.25, 0.75))
+  .map(([w, h, fa, fb]): Point[] => [[0, 0], [w, 0], [w, fb * h], [fa * w, fb * h], [fa * w, h], [0, h]]);
+
+const pointOn = (outline: Point[], edge: number, t: number): Point => {
+  const a = outline[edge];
+  const b = outline[(edge + 1) % outline.length];
+  return [a[0] + t * (b[0] - a[0]), a[1] + t * (b[1] - a[1])];
+};
+
+const roofCase = fc
+  .tuple(
+    fc.oneof(rectangle, convex, lShape),
+    fc.array(fc.tuple(fc.nat(), fc.oneof(num(0.05, 0.95), fc.constant(0)), fc.oneof(fc.constant(0), num(0, 0.05))), { minLength: 1, maxLength: 3 }),
+    fc.option(fc.nat(), { nil: undefined }),
+    fc.constantFrom("1:40", "1:60", "2°", "1.5%", "1:80"),
+    fc.array(fc.tuple(num(-0.2, 1.2), num(-0.2, 1.2)), { maxLength: 6 }),
+    fc.array(fc.tuple(fc.nat(), num(0, 1)), { maxLength: 6 }),
+    fc.boolean(),
+  )
+  .map(([outline, outletPicks, eavesPick, baseFall, inner, onRim, skewJoists]): Case => {
+    const n = outline.length;
+    const outletEdges = new Set(outletPicks.map(([e]) => e % n));
+    let edges: EdgeKind[] | undefined;
+    if (eavesPick !== undefined) {
+      const e = eavesPick % n;
+      // Keep outlets off the eaves edge, including corner outlets at its ends.
+      const touches = outletPicks.some(([o, t]) => o % n === e || (t === 0 && (o % n === (e + 1) % n)));
+      if (!touches) edges = outline.map((_, i) => (i === e ? "eaves" : "parapet"));
+    }
+    void outletEdges;
+    const outlets = outletPicks.map(([e, t, level]) => ({ at: pointOn(outline, e % n, t), level }));
+    let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
+    for (const [x, y] of outline) {
+      minX = Math.min(minX, x);
+      maxX = Math.max(maxX, x);
+      minY = Math.min(minY, y);
+      maxY = Math.max(maxY, y);
+    }
+    const perimeterProbes = onRim.map(([e, t]) => ({ at: pointOn(outline, e % n, t), edge: e % n, t }));
+    const probes: Point[] = [
+      ...inner.map(([fx, fy]): Point => [minX + fx * (maxX - minX), minY + fy * (maxY - minY)]),
+      ...perimeterProbes.map((p) => p.at),
+    ];
+    const spec: RoofSpec = { outline, outlets, baseFall, probes, ...(edges ? { edges } : {}) };
+    if (skewJoists) spec.joists = { direction: [1, 0.3], spacing: 0.5 };
+    return { spec, perimeterProbes };
+  });
+
+/** Keeps cases the validator accepts (random outlets can land on a chosen eaves edge's corner etc.). */
+const validCase = roofCase.filter((c) => parseSpec(structuredClone(c.spec)).ok);
+
+function run(spec: RoofSpec, mesh = true): Analysis {
+  const parsed = parseSpec(structuredClone(spec));
+  if (!parsed.ok) throw new Error(parsed.error.message);
+  return analyse(parsed.spec, { mesh, traces: false });
+}
+
+/**
+ * The level-rim rule written out again from ROOF-METHOD.md §2, independently of the engine:
+ * level at distance t (0..1) along edge e.
+ */
+function rimRule(spec: RoofSpec, H: number, e: number, t: number): number {
+  const n = spec.outline.length;
+  const kinds = spec.edges ?? spec.outline.map(() => "parapet" as EdgeKind);
+  const tol = 0.001;
+  const at = (i: number) => spec.outline[((i % n) + n) % n];
+  const dist = (p: Point, q: Point) => Math.hypot(p[0] - q[0], p[1] - q[1]);
+  const vertexLevel = (i: number) => {
+    if (kinds[i % n] === "eaves" || kinds[(i + n - 1) % n] === "eaves") return 0;
+    const here = spec.outlets.filter((o) => dist(o.at, at(i)) <= tol);
+    return here.length ? Math.min(...here.map((o) => o.level ?? 0)) : H;
+  };
+  if (kinds[e] === "eaves") return 0;
+  const a = at(e);
+  const b = at(e + 1);
+  const L = dist(a, b);
+  const onEdge = spec.outlets
+    .map((o) => {
+      const s = ((o.at[0] - a[0]) * (b[0] - a[0]) + (o.at[1] - a[1]) * (b[1] - a[1])) / (L * L);
+      const c = Math.min(1, Math.max(0, s));
+      const foot: Point = [a[0] + c * (b[0] - a[0]), a[1] + c * (b[1] - a[1])];
+      return { s: c * L, level: o.level ?? 0, d: dist(foot, o.at) };
+    })
+    .filter((o) => o.d <= tol)
+    .sort((p, q) => p.s - q.s);
+  const knots: [number, number][] = [[0, vertexLevel(e)]];
+  onEdge.forEach((o, k) => {
+    if (k > 0) knots.push([(onEdge[k - 1].s + o.s) / 2, H]);
+    knots.push([o.s, o.level]);
+  });
+  knots.push([L, vertexLevel(e + 1)]);
+  const s = t * L;
+  for (let k = 1; k < knots.length; k++) {
+    const [t0, z0] = knots[k - 1];
+    const [t1, z1] = knots[k];
+    if (s <= t1 + 1e-12) return t1 - t0 > 1e-9 ? z0 + ((z1 - z0) * (s - t0)) / (t1 - t0) : z1;
+  }
+  return knots[knots.length - 1][1];
+}
+
+const rotate = (p: Point, c: number, s: number, tx: number, ty: number): Point => [c * p[0] - s * p[1] + tx, s * p[0] + c * p[1] + ty];
+
+function moved(spec: RoofSpec, angle: number, tx: number, ty: number): RoofSpec {
+  const c = Math.cos(angle);
+  const s = Math.sin(angle);
+  const out = structuredClone(spec);
+  out.outline = spec.outline.map((p) => rotate(p, c, s, tx, ty));
+  out.outlets = spec.outlets.map((o) => ({ ...o, at: rotate(o.at, c, s, tx, ty) }));
+  out.probes = spec.probes?.map((p) => rotate(p, c, s, tx, ty));
+  if (spec.joists?.direction) out.joists = { ...spec.joists, direction: rotate(spec.joists.direction, c, s, 0, 0) };
+  return out;
+}
+
+const RUNS = { numRuns: 60 };
+
+describe("invariants on random valid roofs", () => {
+  it("every level lies within [lowest drain, H]", () => {
+    fc.assert(
+      fc.property(validCase, ({ spec }) => {
+        const a = run(spec);
+        const H = a.shaped.highLevel;
+        const drains = [...spec.outlets.map((o) => o.level ?? 0), ...(spec.edges?.includes("eaves") ? [0] : [])];
+        const low = Math.min(...drains);
+        const z = a.shaped.mesh!.positions.filter((_, i) => i % 3 === 2);
+        for (const level of [...z, ...a.shaped.probes.map((p) => p.level).filter((l): l is number => l !== null)]) {
+          expect(level).toBeGreaterThanOrEqual(low - 1e-9);
+          expect(level).toBeLessThanOrEqual(H + 1e-9);
+        }
+        for (const j of a.shaped.joists) for (const s of j.spans) expect(s.startDrop).toBeGreaterThanOrEqual(-1e-9);
+      }),
+      RUNS,
+    );
+  });
+
+  it("perimeter levels follow the level-rim rule", () => {
+    fc.assert(
+      fc.property(validCase, ({ spec, perimeterProbes }) => {
+        const a = run(spec, false);
+        const first = a.shaped.probes.length - perimeterProbes.length;
+        perimeterProbes.forEach((p, k) => {
+          const level = a.shaped.probes[first + k].level;
+          expect(level).not.toBeNull();
+          expect(Math.abs((level as number) - rimRule(spec, a.shaped.highLevel, p.edge, p.t))).toBeLessThan(1e-7);
+        });
+      }),
+      RUNS,
+    );
+  });
+
+  it("mesh triangles are counter-clockwise and their areas sum to the outline's area", () => {
+    fc.assert(
+      fc.property(validCase, ({ spec }) => {
+        const a = run(spec);
+        const { total, smallest } = meshAreas(a.shaped.mesh!.positions, a.shaped.mesh!.indices);
+        const area = shoelace(spec.outline);
+        expect(Math.abs(total - area)).toBeLessThan(1e-9 * area + 1e-9);
+        expect(smallest).toBeGreaterThan(0);
+        expect(Math.abs(a.shaped.catchments.reduce((s, c) => s + c.area, 0) + a.shaped.ponding.reduce((s, p) => s + p.area, 0) - area)).toBeLessThan(1e-6 * area);
+      }),
+      RUNS,
+    );
+  });
+
+  it("results are unchanged by moving and turning the whole spec", () => {
+    fc.assert(
+      fc.property(validCase, num(-Math.PI, Math.PI), num(-500, 500), num(-500, 500), ({ spec }, angle, tx, ty) => {
+        const a = run(spec, false);
+        const b = run(moved(spec, angle, tx, ty), false);
+        const near = (x: number | null | undefined, y: number | null | undefined, tol = 1e-7) => {
+          if (x == null || y == null) return expect(x ?? null).toBe(y ?? null);
+          expect(Math.abs(x - y)).toBeLessThanOrEqual(tol * Math.max(1, Math.abs(x)));
+        };
+        near(a.shaped.highLevel, b.shaped.highLevel);
+        near(a.shaped.worstFallRatio, b.shaped.worstFallRatio);
+        near(a.shaped.longestFallLine?.length, b.shaped.longestFallLine?.length);
+        near(a.gutter.highLevel, b.gutter.highLevel);
+        near(a.openEdge.highLevel, b.openEdge.highLevel);
+        near(a.advice.minimumBaseFall?.ratio, b.advice.minimumBaseFall?.ratio, 1e-6);
+        expect(a.shaped.joists.length).toBe(b.shaped.joists.length);
+        a.shaped.joists.forEach((j, k) => {
+          expect(j.spans.length).toBe(b.shaped.joists[k].spans.length);
+          j.spans.forEach((s, i) => near(s.startLevel, b.shaped.joists[k].spans[i].startLevel));
+        });
+        const ratios = (x: Analysis) => x.shaped.edgeFalls.map((f) => f.ratio).sort((p, q) => p - q);
+        ratios(a).forEach((r, i) => near(r, ratios(b)[i]));
+        a.shaped.probes.forEach((p, i) => near(p.level, b.shaped.probes[i].level));
+        const area = a.area;
+        // A catchment boundary is found to within a mesh cell, so areas agree to about one joist
+        // spacing along the boundaries (at most the perimeter); water on level ground has no
+        // direction, so faces flatter than the minimum may go either way.
+        const spacing = spec.joists?.spacing ?? 0.4;
+        const perimeter = spec.outline.reduce((s, p, i) => s + Math.hypot(p[0] - spec.outline[(i + 1) % spec.outline.length][0], p[1] - spec.outline[(i + 1) % spec.outline.length][1]), 0);
+        const slack = 0.005 * area + (spacing * perimeter) / 2 + a.shaped.fallMap.flatterThanMinimumArea;
+        const catchment = (x: Analysis) => Object.fromEntries(x.shaped.catchments.map((c) => [c.drain, c.area]));
+        for (const [drain, value] of Object.entries(catchment(a))) {
+          expect(Math.abs(value - (catchment(b)[drain] ?? 0))).toBeLessThanOrEqual(slack);
+        }
+        a.shaped.fallMap.areaByBand.forEach((band, i) => {
+          expect(Math.abs(band.area - b.shaped.fallMap.areaByBand[i].area)).toBeLessThanOrEqual(0.01 * area);
+        });
+      }),
+      RUNS,
+    );
+  });
+
+  it("does not change its inputs", () => {
+    fc.assert(
+      fc.property(validCase, ({ spec }) => {
+        const before = structuredClone(spec);
+        const parsed = parseSpec(spec);
+        if (!parsed.ok) throw new Error(parsed.error.message);
+        const parsedCopy = structuredClone(parsed.spec);
+        analyse(parsed.spec, { mesh: true, traces: true });
+        expect(spec).toEqual(before);
+        expect(parsed.spec).toEqual(parsedCopy);
+      }),
+      { numRuns: 30 },
+    );
+  });
+});
