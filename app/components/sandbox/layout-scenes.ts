@@ -17,7 +17,7 @@ export interface LayoutSurface {
   /** x, y, level per vertex. */
   positions: number[];
   indices: number[];
-  /** Fall ratio N per face; null for a level face; 1 for the gutter's vertical sides. */
+  /** Fall ratio N per face; null for a level face; WALL_FACE for the gutter's vertical sides. */
   faceRatio: (number | null)[];
   /** Level at plan points (for labels), null outside. */
   levelAt: (x: number, y: number) => number | null;
@@ -26,6 +26,9 @@ export interface LayoutSurface {
 }
 
 type Line = { nx: number; ny: number; c: number };
+
+/** Marks a vertical face (a gutter side): it has no fall and is drawn in a neutral colour. */
+export const WALL_FACE = -1;
 type Poly = Point[];
 
 function signedArea(poly: Poly) {
@@ -89,7 +92,7 @@ class Builder {
     const base = this.positions.length / 3;
     this.positions.push(p[0], p[1], bottom(p), q[0], q[1], bottom(q), q[0], q[1], top, p[0], p[1], top);
     this.indices.push(base, base + 1, base + 2, base, base + 2, base + 3);
-    this.faceRatio.push(1, 1);
+    this.faceRatio.push(WALL_FACE, WALL_FACE);
   }
 
   private face(a: number, b: number, c: number) {

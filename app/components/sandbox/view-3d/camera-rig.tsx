@@ -52,7 +52,9 @@ export function CameraRig({
     const { frame, height, section, drains } = latest.current;
     const c = controls.current;
     if (!c) return;
-    const R = frame.radius;
+    // Narrow views need the camera further back to keep the whole roof in the picture.
+    const aspect = (camera as THREE.PerspectiveCamera).aspect || 4 / 3;
+    const R = frame.radius * Math.max(1, (4 / 3 / aspect) ** 0.85);
     const target = new THREE.Vector3(0, height * 0.35, 0);
     const position = new THREE.Vector3();
     if (preset === "plan") {

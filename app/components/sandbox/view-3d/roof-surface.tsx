@@ -3,6 +3,8 @@ import * as THREE from "three";
 import { fallColour } from "../fall-colour";
 import type { SceneFrame } from "./scene-frame";
 
+const WALL_RGB: [number, number, number] = [120, 112, 98];
+
 export interface SurfaceMesh {
   positions: ArrayLike<number>;
   indices: ArrayLike<number>;
@@ -81,8 +83,10 @@ export function RoofSurface({
     const p = mesh.positions;
     for (let f = 0; f < faces; f++) {
       const ratio = mesh.faceRatio[f];
-      const [r, g, b] = fallColour(ratio);
-      const flatter = ratio == null || ratio > minRatio * (1 + 1e-9) ? 1 : 0;
+      // A negative ratio marks a vertical face (a gutter side): neutral ink, never hatched.
+      const wall = ratio != null && ratio < 0;
+      const [r, g, b] = wall ? WALL_RGB : fallColour(ratio);
+      const flatter = !wall && (ratio == null || ratio > minRatio * (1 + 1e-9)) ? 1 : 0;
       for (let k = 0; k < 3; k++) {
         const v = mesh.indices[3 * f + k] * 3;
         const o = (3 * f + k) * 3;

@@ -1,0 +1,73 @@
+import Papa from "papaparse";
+import { describe, expect, it } from "vitest";
+import { action, loader } from "~/routes/sandbox.schedule-csv";
+import { DEMO_ROOF } from "~/components/sandbox/demo-roof";
+import { decodeSpec, encodeSpec, sheetHref, SHEET_LINK_LIMIT } from "~/components/sandbox/sheet-link";
+
+type ActionArgs = Parameters<typeof action>[0];
+
+function post(body: BodyInit, type: string) {
+  const request = new Request("http://localhost/sandbox/schedule.csv", { method: "POST", body, headers: { "Content-Type": type } });
+  return action({ request, params: {}, context: {} } as unknown as ActionArgs);
+}
+
+const form = (spec: string) => post(new URLSearchParams({ spec }), "application/x-www-form-urlencoded");
+
+describe("POST /sandbox/schedule.csv", () => {
+  it("answers the drop schedule as a CSV attachment", async () => {
+    const res = await form(JSON.stringify(DEMO_ROOF));
+    expect(res.status).toBe(200);
+    expect(res.headers.get("content-type")).toMatch(/^text\/csv/);
+    expect(res.headers.get("content-disposition")).toMatch(/attachment; filename="drop-schedule.csv"/);
+    const parsed = Papa.parse<Record<string, string>>((await res.text()).replace(/^\uFEFF/, "").trim(), { header: true });
+    expect(parsed.errors).toEqual([]);
+    // Joists every 0.4 m across 12 m: 31 lines, one span each on a rectangle.
+    expect(parsed.data).toHaveLength(31);
+    const H = Math.round(8 * Math.tan((2 * Math.PI) / 180) * 1000);
+    // ROOF-METHOD.md §3: the joist through the outlet falls exactly at the base fall (2° = 1:28.6).
+    const through = parsed.data.find((r) => Number(r.offset_m) === 6)!;
+    expect(through).toMatchObject({ start_level_mm: "0", end_level_mm: String(H), start_drop_below_H_mm: String(H), end_drop_below_H_mm: "0", fall: "1:28.6" });
+    // The joist against the end wall lies on the level rim: level, no drop.
+    expect(parsed.data[0]).toMatchObject({ joist: "1", offset_m: "0", start_level_mm: String(H), end_level_mm: String(H), fall: "level" });
+  });
+
+  it("takes the spec as a JSON body too", async () => {
+    const res = await post(JSON.stringify(DEMO_ROOF), "application/json");
+    expect(res.status).toBe(200);
+  });
+
+  it("refuses bad input with 400/422 and a plain message, never 500", async () => {
+    expect((await form("{not json")).status).toBe(400);
+    expect((await form(JSON.stringify({ outline: "nope" }))).status).toBe(400);
+    expect((await post("spec=", "application/x-www-form-urlencoded")).status).toBe(400);
+    expect((await post("hello", "text/plain")).status).toBe(400);
+    const crossing = await form(JSON.stringify({ ...DEMO_ROOF, outline: [[0, 0], [10, 10], [10, 0], [0, 10]], outlets: [] }));
+    expect(crossing.status).toBe(422);
+    expect(await crossing.text()).toMatch(/cannot be built/i);
+    expect((await form("x".repeat(300 * 1024))).status).toBe(413);
+  });
+
+  it("answers GET with 405", async () => {
+    const res = (loader as () => Response)();
+    expect(res.status).toBe(405);
+    expect(res.headers.get("allow")).toBe("POST");
+  });
+});
+
+describe("check sheet hand-over", () => {
+  it("round-trips a spec through base64url, non-ASCII included", () => {
+    const spec = { ...DEMO_ROOF, baseFall: "2°" };
+    const encoded = encodeSpec(spec);
+    expect(encoded).toMatch(/^[A-Za-z0-9_-]+$/);
+    expect(decodeSpec(encoded)).toEqual(spec);
+    expect(sheetHref(spec)).toEqual({ href: `/sandbox/sheet?spec=${encoded}`, viaSession: false });
+  });
+
+  it("rejects text that is not base64url JSON, and sends long specs through sessionStorage", () => {
+    expect(decodeSpec("%%%")).toBeNull();
+    expect(decodeSpec(btoa("not json"))).toBeNull();
+    const big = { ...DEMO_ROOF, probes: Array.from({ length: 900 }, (_, i) => [i / 100, 1] as [number, number]) };
+    expect(encodeSpec(big).length).toBeGreaterThan(SHEET_LINK_LIMIT);
+    expect(sheetHref(big).viaSession).toBe(true);
+  });
+});
