@@ -34,7 +34,7 @@ export async function listUsers(o: { organisationId: string; q?: string; role?: 
   if (o.status === "active") base.andWhere("u.active", true).whereNotNull("u.password_hash");
   const [{ total }] = await base.clone().count<{ total: string }[]>({ total: "*" });
   const rows = await base
-    .orderByRaw("lower(u.name) nulls last, lower(u.email)")
+    .orderByRaw("lower(nullif(u.name, '')) nulls last, lower(u.email)")
     .limit(o.limit ?? 200)
     .select(
       "u.id",

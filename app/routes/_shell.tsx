@@ -57,7 +57,7 @@ export default function Shell() {
                 <span>
                   {user.name || user.email} <span className="text-ink-soft">· {ROLE_LABELS[user.role]}</span>
                 </span>
-                <NavLink to="/account" className={({ isActive }) => `rounded px-2 py-1 underline-offset-4 ${isActive ? "bg-ink text-sheet" : "underline hover:bg-paper-deep"}`}>
+                <NavLink to="/account" className={({ isActive }) => `rounded px-2 py-1 ${isActive ? "bg-ink text-sheet" : "hover:bg-paper-deep"}`}>
                   Account
                 </NavLink>
                 <Form method="post" action="/logout">

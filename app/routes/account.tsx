@@ -85,18 +85,53 @@ export default function Account() {
       </header>
       <FormNotice message={notice} />
       <FormError message={result && !result.intent ? result.formError : null} />
-      <div className="grid items-start gap-6 lg:grid-cols-2">
-        <section className="card grid gap-4" aria-labelledby="name-heading">
-          <h2 id="name-heading" className="text-lg font-bold">Name</h2>
-          <Form method="post" className="grid gap-3" noValidate>
-            <FormNotice message={nameResult?.message} />
-            <Field label="Shown to trainers and classmates" name="name" autoComplete="name" required maxLength={100} defaultValue={user.name} error={nameResult?.fieldErrors?.name} />
-            <div>
-              <SubmitButton intent="name" pendingText="Saving…" className="btn">Save name</SubmitButton>
+      <div className="grid items-start gap-6 lg:grid-cols-[3fr_2fr]">
+        <div className="grid gap-6">
+          <section className="card grid gap-4" aria-labelledby="name-heading">
+            <h2 id="name-heading" className="text-lg font-bold">Name</h2>
+            <Form method="post" className="grid gap-3" noValidate>
+              <FormNotice message={nameResult?.message} />
+              <Field label="Shown to trainers and classmates" name="name" autoComplete="name" required maxLength={100} defaultValue={user.name} error={nameResult?.fieldErrors?.name} />
+              <div>
+                <SubmitButton intent="name" pendingText="Saving…" className="btn">Save name</SubmitButton>
+              </div>
+            </Form>
+          </section>
+          <section className="card grid gap-4" aria-labelledby="sessions-heading">
+            <div className="flex flex-wrap items-baseline justify-between gap-3">
+              <h2 id="sessions-heading" className="text-lg font-bold">Where you are signed in</h2>
+              <Form method="post">
+                <SubmitButton intent="sign-out-everywhere" pendingText="Signing out…" className="btn">Sign out everywhere</SubmitButton>
+              </Form>
             </div>
-          </Form>
-        </section>
-
+            <div className="overflow-x-auto">
+              <table className="data-table w-full">
+                <thead>
+                  <tr>
+                    <th scope="col">Device</th>
+                    <th scope="col">Signed in</th>
+                    <th scope="col">Last active</th>
+                  </tr>
+                </thead>
+                <tbody>
+                  {sessions.map((s) => (
+                    <tr key={s.key}>
+                      <td>
+                        {s.device}
+                        {s.current ? <span className="ml-2 rounded bg-accent-wash px-1.5 py-0.5 text-xs font-medium text-accent-deep">this browser</span> : null}
+                      </td>
+                      <td>{formatWhen(s.signedInAt)}</td>
+                      <td>{formatWhen(s.lastSeenAt)}</td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            </div>
+            <p className="text-xs text-ink-soft">
+              A session ends after 2 hours without use and 7 days after signing in. "Sign out everywhere" ends all of them, this one included.
+            </p>
+          </section>
+        </div>
         <section className="card grid gap-4" aria-labelledby="password-heading">
           <h2 id="password-heading" className="text-lg font-bold">Password</h2>
           <Form method="post" className="grid gap-3" noValidate>
@@ -112,41 +147,6 @@ export default function Account() {
           </Form>
         </section>
       </div>
-
-      <section className="card grid gap-4" aria-labelledby="sessions-heading">
-        <div className="flex flex-wrap items-baseline justify-between gap-3">
-          <h2 id="sessions-heading" className="text-lg font-bold">Where you are signed in</h2>
-          <Form method="post">
-            <SubmitButton intent="sign-out-everywhere" pendingText="Signing out…" className="btn">Sign out everywhere</SubmitButton>
-          </Form>
-        </div>
-        <div className="overflow-x-auto">
-          <table className="data-table w-full">
-            <thead>
-              <tr>
-                <th scope="col">Device</th>
-                <th scope="col">Signed in</th>
-                <th scope="col">Last active</th>
-              </tr>
-            </thead>
-            <tbody>
-              {sessions.map((s) => (
-                <tr key={s.key}>
-                  <td>
-                    {s.device}
-                    {s.current ? <span className="ml-2 rounded bg-accent-wash px-1.5 py-0.5 text-xs font-medium text-accent-deep">this browser</span> : null}
-                  </td>
-                  <td>{formatWhen(s.signedInAt)}</td>
-                  <td>{formatWhen(s.lastSeenAt)}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
-        <p className="text-xs text-ink-soft">
-          A session ends after 2 hours without use and 7 days after signing in. "Sign out everywhere" ends all of them, this one included.
-        </p>
-      </section>
     </div>
   );
 }

@@ -22,9 +22,9 @@ export async function loader({ request }: Route.LoaderArgs) {
   return { rows, action: q.action, paged: !!q.before, older: rows.length === PAGE ? rows[rows.length - 1].id : null };
 }
 
-function describe(detail: Record<string, unknown>): string {
+function describe(detail: Record<string, unknown>, subjectEmail: string | null): string {
   const parts: string[] = [];
-  if (typeof detail.email === "string") parts.push(detail.email);
+  if (typeof detail.email === "string" && detail.email !== subjectEmail?.toLowerCase()) parts.push(detail.email);
   if (detail.from && detail.to) parts.push(`${detail.from} → ${detail.to}`);
   if (typeof detail.role === "string" && !detail.from) parts.push(`as ${detail.role}`);
   if (typeof detail.open === "boolean") parts.push(detail.open ? "opened" : "closed");
@@ -74,7 +74,7 @@ export default function AdminAudit() {
                   <td className={r.action === "sign_in_failed" || r.action === "sign_in_limited" ? "text-bad" : undefined}>{AUDIT_ACTIONS[r.action] ?? r.action}</td>
                   <td>{r.actorEmail ?? "—"}</td>
                   <td>{r.subjectEmail ?? "—"}</td>
-                  <td>{describe(r.detail)}</td>
+                  <td>{describe(r.detail, r.subjectEmail)}</td>
                   <td className="text-ink-soft">{r.ip ?? "—"}</td>
                 </tr>
               ))}
