@@ -62,6 +62,8 @@ async function shutdown(signal: string) {
   server.close();
   server.closeIdleConnections?.();
   const { closeDb } = await import("../lib/db.server.ts");
+  const { closeListeners } = await import("../lib/live.server.ts");
+  await closeListeners().catch(() => {});
   await closeDb();
   process.exit(0);
 }
