@@ -77,23 +77,32 @@ export function formatMetres(m: number): string {
   return `${m.toFixed(2)} m`;
 }
 
-const distanceToSegment = (p: [number, number], a: [number, number], b: [number, number]) => {
+function closestOnSegment(p: [number, number], a: [number, number], b: [number, number]): [number, number] {
   const dx = b[0] - a[0];
   const dy = b[1] - a[1];
   const len2 = dx * dx + dy * dy;
   const t = len2 ? Math.max(0, Math.min(1, ((p[0] - a[0]) * dx + (p[1] - a[1]) * dy) / len2)) : 0;
-  return Math.hypot(p[0] - a[0] - t * dx, p[1] - a[1] - t * dy);
-};
+  return [a[0] + t * dx, a[1] + t * dy];
+}
 
 /**
  * The spec with a traced outline: edge kinds start again as parapets (the count changed) and
- * outlets that no longer sit on an edge (within 5 cm) are dropped rather than guessed.
+ * each outlet moves to the nearest point of the new outline, so the roof still drains somewhere
+ * and the user can drag it where it belongs.
  */
 export function retraceSpec(spec: unknown, outline: [number, number][]): Record<string, unknown> {
   const base = { ...(spec as Record<string, unknown>) };
-  const rounded = outline.map(([x, y]) => [Math.round(x * 1000) / 1000, Math.round(y * 1000) / 1000] as [number, number]);
+  const round = (v: number) => Math.round(v * 1000) / 1000;
+  const pts = outline.map(([x, y]) => [round(x), round(y)] as [number, number]);
   const outlets = Array.isArray(base.outlets) ? (base.outlets as { at: [number, number] }[]) : [];
-  const onEdge = (p: [number, number]) => rounded.some((a, i) => distanceToSegment(p, a, rounded[(i + 1) % rounded.length]) <= 0.05);
+  const nearest = (p: [number, number]) => {
+    let best: [number, number] = pts[0];
+    for (let i = 0; i < pts.length; i++) {
+      const c = closestOnSegment(p, pts[i], pts[(i + 1) % pts.length]);
+      if (Math.hypot(c[0] - p[0], c[1] - p[1]) < Math.hypot(best[0] - p[0], best[1] - p[1])) best = c;
+    }
+    return [round(best[0]), round(best[1])] as [number, number];
+  };
   delete base.edges;
-  return { ...base, outline: rounded, outlets: outlets.filter((o) => Array.isArray(o?.at) && onEdge(o.at)) };
+  return { ...base, outline: pts, outlets: outlets.filter((o) => Array.isArray(o?.at)).map((o) => ({ ...o, at: nearest(o.at) })) };
 }

@@ -13,6 +13,8 @@ import { SaveStatus, ConflictBanner } from "~/components/roofs/save-status";
 import { UnderlayPanel } from "~/components/roofs/underlay-panel";
 import { useAutosave, type RoofSnapshot } from "~/components/roofs/use-autosave";
 import { RoofWorkspace, retraceSpec } from "~/components/roofs/roof-workspace";
+import type { SandboxStore } from "~/components/sandbox/store";
+import type { RoofSpec } from "~/engine";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.roof.name ?? "Roof"} · Fallwright` }];
 
@@ -94,6 +96,10 @@ function RoofEditor({ roof, underlay: initialUnderlay, underlayUrl: initialUrl, 
   const [imageUrl, setImageUrl] = useState<string | null>(initialUrl);
   const [copyError, setCopyError] = useState<string | null>(null);
   const underlayFetcher = useFetcher<ActionData>();
+  const store = useRef<SandboxStore | null>(null);
+  const onStore = useCallback((s: SandboxStore | null) => {
+    store.current = s;
+  }, []);
   const underlayTimer = useRef<ReturnType<typeof setTimeout> | null>(null);
 
   const replaceSpec = useCallback((spec: unknown) => {
@@ -185,9 +191,7 @@ function RoofEditor({ roof, underlay: initialUnderlay, underlayUrl: initialUrl, 
       {!roof.canEdit ? <ReadOnlyBanner owner={roof.ownerName} name={roof.name} /> : null}
       {conflict ? <ConflictBanner current={conflict} onReload={() => reloadTheirs(conflict)} onKeepMine={() => void keepMineAsCopy()} error={copyError} /> : null}
 
-      <RoofWorkspace key={mounted.epoch} initialSpec={mounted.spec} onSpecChange={onSpecChange} readOnly={!roof.canEdit} underlay={underlayProp} />
-
-      <div className="grid gap-4 lg:grid-cols-[3fr_2fr]">
+      <div className="grid items-start gap-4 lg:grid-cols-[3fr_2fr]">
         <UnderlayPanel
           roofId={roof.id}
           settings={underlay}
@@ -201,8 +205,12 @@ function RoofEditor({ roof, underlay: initialUnderlay, underlayUrl: initialUrl, 
           }}
           onTrace={(traced) => {
             const spec = retraceSpec(current.current, traced);
-            replaceSpec(spec);
-            autosave.queue({ spec });
+            // An undoable edit in the workspace when it is there; onSpecChange then saves it.
+            if (store.current) store.current.getState().replaceSpec(spec as unknown as RoofSpec);
+            else {
+              replaceSpec(spec);
+              autosave.queue({ spec });
+            }
           }}
         />
         {roof.canEdit ? (
@@ -218,6 +226,8 @@ function RoofEditor({ roof, underlay: initialUnderlay, underlayUrl: initialUrl, 
           />
         ) : null}
       </div>
+
+      <RoofWorkspace key={mounted.epoch} initialSpec={mounted.spec} onSpecChange={onSpecChange} readOnly={!roof.canEdit} underlay={underlayProp} onStore={onStore} />
     </div>
   );
 }
@@ -297,11 +307,23 @@ function VersionHistory({
       void revalidator.revalidate();
     }
   }, [fetcher.state, fetcher.data, onRestored, revalidator]);
+  // Each finished save is a new version: refresh the list quietly.
+  const wasBusy = useRef(busy);
+  useEffect(() => {
+    if (wasBusy.current && !busy) void revalidator.revalidate();
+    wasBusy.current = busy;
+  }, [busy, revalidator]);
   const restoredFrom = fetcher.data?.restored?.from;
   return (
-    <section aria-labelledby="history-title" className="card">
-      <div className="mb-2 flex items-center justify-between gap-2">
-        <h2 id="history-title" className="flex items-center gap-2 text-lg font-bold"><History aria-hidden="true" className="h-5 w-5" /> Version history</h2>
+    <details className="card group">
+      <summary className="flex cursor-pointer list-none items-center justify-between gap-2">
+        <h2 id="history-title" className="flex items-center gap-2 text-lg font-bold">
+          <span aria-hidden="true" className="inline-block transition-transform group-open:rotate-90">▸</span>
+          <History aria-hidden="true" className="h-5 w-5" /> Version history
+        </h2>
+        <span className="text-sm text-ink-soft">{versions.length} {versions.length === 1 ? "version" : "versions"}{versions.length >= 30 ? " (latest 30)" : ""}</span>
+      </summary>
+      <div className="my-2 flex justify-end">
         <button type="button" className="btn" onClick={() => void revalidator.revalidate()} disabled={revalidator.state !== "idle"}>
           {revalidator.state !== "idle" ? "Refreshing…" : "Refresh"}
         </button>
@@ -328,7 +350,7 @@ function VersionHistory({
         ))}
       </ol>
       <p className="mt-2 text-xs text-ink-soft">Every save is a version; restoring one makes it the newest, and nothing is overwritten.</p>
-    </section>
+    </details>
   );
 }
 

@@ -1,6 +1,8 @@
 /**
  * The roof's plan image. POST (multipart, field `file`) stores a new one; GET streams it to the
  * owner and, when the roof is shared, to colleagues in the organisation; DELETE removes it.
+ * (X-Content-Type-Options: nosniff comes from the host on every response; setting it here too
+ * would send it twice.)
  */
 import { randomUUID } from "node:crypto";
 import type { Route } from "./+types/roofs.$id.underlay";
@@ -15,6 +17,7 @@ import { deleteObject, getObjectStream, putObject } from "~/lib/storage.server";
 /** Room for the multipart boundaries and headers around a file of the maximum size. */
 const MULTIPART_SLACK = 64 * 1024;
 const NOT_FOUND = "No roof with that id in your library.";
+const STORE_DOWN = "The file store is not answering. The roof itself is safe; try again in a minute.";
 const TOO_LARGE = "The image is over 10 MB. Export the plan at a lower resolution and try again.";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
@@ -22,14 +25,17 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const roof = user ? await getRoofFor(user, params.id) : null;
   const upload = roof?.underlayId ? await getUpload(roof.underlayId) : null;
   if (!roof || !upload) return new Response("Not found", { status: 404, headers: { "Content-Type": "text/plain; charset=utf-8" } });
-  const object = await getObjectStream(upload.storageKey);
+  const object = await getObjectStream(upload.storageKey).catch((error: Error) => {
+    console.warn("[underlay] object store unavailable:", error.message);
+    return "down" as const;
+  });
+  if (object === "down") return new Response(STORE_DOWN, { status: 503, headers: { "Content-Type": "text/plain; charset=utf-8", "Retry-After": "30" } });
   if (!object) return new Response("Not found", { status: 404, headers: { "Content-Type": "text/plain; charset=utf-8" } });
   const ext = UNDERLAY_TYPES[upload.contentType as UnderlayType] ?? "bin";
   return new Response(object.body, {
     headers: {
       "Content-Type": upload.contentType,
       "Content-Length": String(object.length ?? upload.size),
-      "X-Content-Type-Options": "nosniff",
       "Content-Disposition": `inline; filename="underlay.${ext}"`,
       "Cache-Control": "private, max-age=300",
     },
@@ -65,7 +71,12 @@ export async function action({ request, params }: Route.ActionArgs) {
 
   // The key is ours alone: the user's file name never reaches the object store.
   const key = `underlays/${randomUUID()}.${sniffed.ext}`;
-  await putObject(key, bytes, sniffed.mime);
+  try {
+    await putObject(key, bytes, sniffed.mime);
+  } catch (error) {
+    console.warn("[underlay] object store unavailable:", (error as Error).message);
+    return jsonError(503, STORE_DOWN, [], { "Retry-After": "30" });
+  }
   const keep = roof.underlay && roof.underlay.widthPx === sniffed.widthPx && roof.underlay.heightPx === sniffed.heightPx;
   const settings = keep ? roof.underlay! : defaultUnderlaySettings(roof.spec, sniffed.widthPx, sniffed.heightPx);
   let uploadId: string;

@@ -2,7 +2,10 @@
  * The saved roof's editor: the sandbox workspace (app/components/sandbox, another module) fed
  * with the saved spec. This is the one place the roofs pages touch the sandbox's interface.
  */
-import { useState } from "react";
+import { useEffect } from "react";
+import type { RoofSpec } from "~/engine";
+import { SandboxWorkspace } from "~/components/sandbox/workspace";
+import { useSandboxStore, type SandboxStore } from "~/components/sandbox/store";
 import type { Underlay } from "~/components/sandbox/underlay";
 export { retraceSpec } from "~/lib/underlay";
 
@@ -11,31 +14,27 @@ export interface RoofWorkspaceProps {
   onSpecChange: (spec: unknown) => void;
   readOnly: boolean;
   underlay?: Underlay;
+  /** Receives the workspace's store so the page can replace the spec as an undoable edit. */
+  onStore?: (store: SandboxStore | null) => void;
 }
 
-// TEMPORARY until <SandboxWorkspace> is exported by the sandbox module: a JSON editor of the spec.
-export function RoofWorkspace({ initialSpec, onSpecChange, readOnly }: RoofWorkspaceProps) {
-  const [text, setText] = useState(() => JSON.stringify(initialSpec, null, 2));
-  const [error, setError] = useState<string | null>(null);
+function StoreBridge({ onStore }: { onStore: (store: SandboxStore | null) => void }) {
+  const store = useSandboxStore();
+  useEffect(() => {
+    onStore(store);
+    return () => onStore(null);
+  }, [store, onStore]);
+  return null;
+}
+
+export function RoofWorkspace({ initialSpec, onSpecChange, readOnly, underlay, onStore }: RoofWorkspaceProps) {
   return (
-    <section className="card" aria-label="Roof spec">
-      <label className="label" htmlFor="spec-json">Roof spec (JSON)</label>
-      <textarea
-        id="spec-json"
-        className="field h-64 font-mono text-xs"
-        value={text}
-        readOnly={readOnly}
-        onChange={(e) => {
-          setText(e.target.value);
-          try {
-            onSpecChange(JSON.parse(e.target.value));
-            setError(null);
-          } catch {
-            setError("Not valid JSON yet.");
-          }
-        }}
-      />
-      {error ? <p className="field-error">{error}</p> : null}
-    </section>
+    <SandboxWorkspace
+      initialSpec={initialSpec as RoofSpec}
+      onSpecChange={onSpecChange}
+      readOnly={readOnly}
+      underlay={underlay}
+      toolbarExtra={onStore ? <StoreBridge onStore={onStore} /> : undefined}
+    />
   );
 }

@@ -36,6 +36,7 @@ export function UnderlayPanel({ roofId, settings, imageUrl, outline, canEdit, on
   const [distance, setDistance] = useState("");
   const [message, setMessage] = useState<{ tone: "ok" | "bad"; text: string } | null>(null);
   const [uploading, setUploading] = useState(false);
+  const [open, setOpen] = useState(false);
   const svg = useRef<SVGSVGElement>(null);
   const id = useId();
 
@@ -119,7 +120,7 @@ export function UnderlayPanel({ roofId, settings, imageUrl, outline, canEdit, on
   function finishTrace() {
     if (!settings || points.length < 3) return;
     onTrace(points.map(([x, y]) => pixelToPlan(settings, x, y)));
-    setMessage({ tone: "ok", text: `Outline traced: ${points.length} corners.` });
+    setMessage({ tone: "ok", text: `Outline traced: ${points.length} corners. Outlets moved to the nearest edge; drag them where they belong.` });
     setMode(null);
   }
 
@@ -137,9 +138,18 @@ export function UnderlayPanel({ roofId, settings, imageUrl, outline, canEdit, on
   const outlinePx = settings ? outline.map(([x, y]) => planToPixel(settings, x, y)) : [];
 
   return (
-    <section aria-labelledby={`${id}-title`} className="card space-y-3" onKeyDown={keys}>
+    <details className="card group" open={open} onToggle={(e) => setOpen(e.currentTarget.open)} onKeyDown={keys}>
+      <summary className="flex cursor-pointer list-none items-center justify-between gap-2">
+        <h2 id={`${id}-title`} className="text-lg font-bold">
+          <span aria-hidden="true" className="mr-1 inline-block transition-transform group-open:rotate-90">▸</span>Plan underlay
+        </h2>
+        <span className="text-sm text-ink-soft">
+          {settings && imageUrl ? `${settings.widthPx} × ${settings.heightPx} px · ${(settings.metresPerPixel * 1000).toFixed(1)} mm per pixel` : "no image"}
+        </span>
+      </summary>
+      <div className="mt-3 space-y-3">
       <div className="flex flex-wrap items-center justify-between gap-2">
-        <h2 id={`${id}-title`} className="text-lg font-bold">Plan underlay</h2>
+        <p className="text-sm text-ink-soft">Trace over a drawing of the plan: set its scale, then click its corners.</p>
         {canEdit ? (
           <div className="flex flex-wrap gap-2">
             <label className="btn cursor-pointer">
@@ -264,7 +274,8 @@ export function UnderlayPanel({ roofId, settings, imageUrl, outline, canEdit, on
           ) : null}
         </>
       )}
-    </section>
+      </div>
+    </details>
   );
 }
 
