@@ -44,7 +44,8 @@ export type LengthResult = { ok: true; metres: number } | { ok: false; message: 
 
 /** A real distance as typed ("12 m", "12000 mm", "40 ft"); a bare number is metres. */
 export function parseLength(text: string): LengthResult {
-  const s = text.trim().replace(/,/g, ".");
+  // "12,000 mm" groups thousands; "7,5 m" is a decimal comma.
+  const s = text.trim().replace(/,(?=\d{3}\b)/g, "").replace(/,/g, ".");
   if (!s) return { ok: false, message: "Type the real distance between the two points, such as 12 m or 12000 mm." };
   if (s.length > 40) return { ok: false, message: "That is too long for a distance." };
   let metres: number;

@@ -21,16 +21,17 @@ type RouteFn = (args: never) => unknown;
 
 /** Runs a loader or action as React Router would; a thrown Response (redirect, 401, 404) is returned. */
 export async function call(fn: RouteFn, request: Request, params: Record<string, string> = {}): Promise<Response> {
+  let out: unknown;
   try {
-    const out = await fn({ request, params, context: {} } as never);
-    if (out instanceof Response) return out;
-    return Response.json(out);
+    out = await fn({ request, params, context: {} } as never);
   } catch (e) {
-    if (e instanceof Response) return e;
-    const d = e as { type?: string; data?: unknown; init?: { status?: number } };
-    if (d?.type === "DataWithResponseInit") return Response.json(d.data, { status: d.init?.status ?? 200 });
-    throw e;
+    if (!(e instanceof Response) && (e as { type?: string })?.type !== "DataWithResponseInit") throw e;
+    out = e;
   }
+  if (out instanceof Response) return out;
+  const d = out as { type?: string; data?: unknown; init?: ResponseInit | null };
+  if (d?.type === "DataWithResponseInit") return Response.json(d.data, { status: d.init?.status ?? 200, headers: d.init?.headers });
+  return Response.json(out);
 }
 
 export function jsonRequest(method: string, path: string, body: unknown, cookie?: string, headers: Record<string, string> = {}): Request {
