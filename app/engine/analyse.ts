@@ -71,6 +71,15 @@ export function analyseRoof(roof: Roof, options: AnalyseOptions = {}): Analysis 
   const levels = perimeterLevels(roof, H);
   const joistU = joistPositions(roof);
   const joists = dropSchedule(roof, levels, joistU);
+  const sunk = joists.flatMap((j) => j.spans.filter((s) => s.ratio === null && Math.max(s.startDrop, s.endDrop) > 1e-9));
+  if (sunk.length) {
+    const s = sunk[Math.floor(sunk.length / 2)];
+    warnings.push({
+      code: "level-joist",
+      message: `${sunk.length} joist span${sunk.length > 1 ? "s lie" : " lies"} level below the high level (${mm(s.startLevel)}), between two drains or low points: water stands along ${sunk.length > 1 ? "them" : "it"}. Stagger facing outlets or change the joist direction.`,
+      at: [(s.start[0] + s.end[0]) / 2, (s.start[1] + s.end[1]) / 2],
+    });
+  }
   const mesh = buildMesh(roof, levels, joistU, { maxVertices: options.maxMeshVertices ?? MAX_MESH_VERTICES });
   if (mesh.coarsened) {
     warnings.push({
@@ -215,12 +224,13 @@ function meshOut(roof: Roof, mesh: SurfaceMesh, slope: Float64Array, faceDrain: 
     positions[3 * i + 2] = mesh.z[i];
   }
   const F = mesh.faceCount;
-  const faceRatio = new Array<number | null>(F);
+  // Infinity (not null) keeps the array unboxed; JSON writes it as null.
+  const faceRatio = new Array<number>(F);
   const indices = new Array<number>(3 * F);
   const drains = new Array<number>(F);
   const tri = mesh.tri;
   for (let f = 0; f < F; f++) {
-    faceRatio[f] = slope[f] > 0 ? 1 / slope[f] : null;
+    faceRatio[f] = slope[f] > 0 ? 1 / slope[f] : Infinity;
     drains[f] = faceDrain[f];
     indices[3 * f] = tri[3 * f];
     indices[3 * f + 1] = tri[3 * f + 1];

@@ -1,11 +1,8 @@
 import type { SurfaceMesh } from "./mesh";
 
-/** Per-face plan area and plane gradient (frame components), from the three vertex levels. */
+/** Per-face plan area and steepest fall |grad z| of the face's plane, from its three vertex levels. */
 export interface FaceData {
   area: Float64Array;
-  /** ∂z/∂u, ∂z/∂v of each face's plane; |grad z| is its steepest fall. */
-  gu: Float64Array;
-  gv: Float64Array;
   slope: Float64Array;
 }
 
@@ -13,8 +10,6 @@ export function faceData(mesh: SurfaceMesh): FaceData {
   const F = mesh.faceCount;
   const { u, v, z, tri } = mesh;
   const area = new Float64Array(F);
-  const gu = new Float64Array(F);
-  const gv = new Float64Array(F);
   const slope = new Float64Array(F);
   for (let f = 0; f < F; f++) {
     const a = tri[3 * f], b = tri[3 * f + 1], c = tri[3 * f + 2];
@@ -25,11 +20,9 @@ export function faceData(mesh: SurfaceMesh): FaceData {
     if (det === 0) continue;
     const x = (dz1 * dv2 - dz2 * dv1) / det;
     const y = (du1 * dz2 - du2 * dz1) / det;
-    gu[f] = x;
-    gv[f] = y;
     slope[f] = Math.sqrt(x * x + y * y);
   }
-  return { area, gu, gv, slope };
+  return { area, slope };
 }
 
 /** Index of the mesh vertex nearest frame point (u, v): binary search on lines, then stations. */

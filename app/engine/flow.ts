@@ -113,19 +113,24 @@ export function routeWater(roof: Roof, mesh: SurfaceMesh, faces: FaceData): Rout
   }
 
   const stack = new Int32Array(V);
-  // Follow receivers to their ends, recording the drain reached (or -1) along the way.
+  const end = new Int32Array(V);
+  // Follow receivers to their ends (path-compressed, so linear in V), and give every vertex the
+  // drain its chain ends in (-1 while that end is a level patch not yet settled).
   const settleChains = () => {
+    end.fill(-1);
     for (let i = 0; i < V; i++) {
-      if (vertexDrain[i] >= 0) continue;
+      if (end[i] >= 0) continue;
       let top = 0;
       let x = i;
-      while (vertexDrain[x] < 0 && receiver[x] >= 0 && top < V) {
+      while (end[x] < 0 && receiver[x] >= 0 && top < V) {
         stack[top++] = x;
         x = receiver[x];
       }
-      const d = vertexDrain[x];
-      if (d >= 0) while (top > 0) vertexDrain[stack[--top]] = d;
+      const e = end[x] >= 0 ? end[x] : x;
+      end[x] = e;
+      while (top > 0) end[stack[--top]] = e;
     }
+    for (let i = 0; i < V; i++) vertexDrain[i] = vertexDrain[end[i]];
   };
   settleChains();
   if (open > 0) open = levelPatches(mesh, receiver, vertexDrain, settleChains);

@@ -25,6 +25,7 @@ export interface RoofSpec {
 export interface Warning {
   code:
     | "twist"
+    | "level-joist"
     | "fall-line-too-flat"
     | "base-fall-below-rule"
     | "high-level-below-derived"
@@ -111,7 +112,7 @@ export interface Mesh {
   positions: number[];
   /** Three vertex indices per face, counter-clockwise in plan. */
   indices: number[];
-  /** Ratio N of each face's steepest fall; null for a level face. */
+  /** Ratio N of each face's steepest fall; a level face has Infinity, which JSON writes as null. */
   faceRatio: (number | null)[];
   /** Index into `catchments` (or `catchments.length + k` for ponding pit k) per face. */
   faceDrain: number[];

@@ -111,11 +111,13 @@ function rimRule(spec: RoofSpec, H: number, e: number, t: number): number {
       return { s: c * L, level: o.level ?? 0, d: dist(foot, o.at) };
     })
     .filter((o) => o.d <= tol)
-    .sort((p, q) => p.s - q.s);
+    .sort((p, q) => p.s - q.s || p.level - q.level)
+    // Outlets at one spot act as one (the lowest); an outlet at a corner is the corner's level.
+    .filter((o, k, all) => k === 0 || o.s - all[k - 1].s > 1e-9);
   const knots: [number, number][] = [[0, vertexLevel(e)]];
   onEdge.forEach((o, k) => {
     if (k > 0) knots.push([(onEdge[k - 1].s + o.s) / 2, H]);
-    knots.push([o.s, o.level]);
+    if (o.s > 1e-9 && o.s < L - 1e-9) knots.push([o.s, o.level]);
   });
   knots.push([L, vertexLevel(e + 1)]);
   const s = t * L;

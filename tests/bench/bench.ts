@@ -1,0 +1,134 @@
+/**
+ * `npm run bench`: performance figures as shares of one 16.7 ms frame (QUALITY.md, Performance).
+ * Sections run in order and each prints its own table; a section is a function returning rows,
+ * so more sections (the API's requests/s) append to SECTIONS below.
+ */
+import { performance } from "node:perf_hooks";
+import { analyse, parseSpec, type RoofSpec } from "../../app/engine/index.ts";
+
+export const FRAME_MS = 16.7;
+
+export interface BenchRow {
+  name: string;
+  /** What was measured, in its unit. */
+  value: number;
+  unit: string;
+  /** The figure compared with the target (frames for the engine). */
+  score: number;
+  target: string;
+  pass: boolean;
+  note?: string;
+}
+
+export type Section = { title: string; run: () => Promise<BenchRow[]> | BenchRow[] };
+
+/** Invented roofs of about 150, 1,500 and 10,000 m² with 0.4 m joists. */
+export const BENCH_ROOFS: { name: string; area: number; frames: number; spec: RoofSpec }[] = [
+  {
+    name: "small (15 × 10 m, 150 m²)",
+    area: 150,
+    frames: 0.1,
+    spec: { outline: [[0, 0], [15, 0], [15, 10], [0, 10]], outlets: [{ at: [7.5, 0] }], baseFall: "1:60", joists: { spacing: 0.4 } },
+  },
+  {
+    name: "medium (L-shape, 1,500 m²)",
+    area: 1500,
+    frames: 0.5,
+    spec: {
+      outline: [[0, 0], [50, 0], [50, 21], [30, 21], [30, 36], [0, 36]],
+      outlets: [{ at: [12.5, 0] }, { at: [37.5, 0] }],
+      baseFall: "1:50",
+      joists: { spacing: 0.4 },
+    },
+  },
+  {
+    name: "large (100 × 100 m, 10,000 m²)",
+    area: 10_000,
+    frames: 3,
+    // Outlets on facing edges are staggered: facing ones would leave a level joist between them.
+    spec: {
+      outline: [[0, 0], [100, 0], [100, 100], [0, 100]],
+      outlets: [{ at: [25, 0] }, { at: [75, 0] }, { at: [50, 100] }],
+      baseFall: "1:60",
+      joists: { spacing: 0.4 },
+    },
+  },
+];
+
+export function median(values: number[]): number {
+  const s = [...values].sort((a, b) => a - b);
+  const m = s.length >> 1;
+  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
+}
+
+/** Median wall time of `fn` over a fixed time budget, after a warm-up. */
+export function timeIt(fn: () => unknown, budgetMs = 1500, minRuns = 15): { median: number; runs: number } {
+  const warmEnd = performance.now() + budgetMs / 4;
+  while (performance.now() < warmEnd) fn();
+  const times: number[] = [];
+  const end = performance.now() + budgetMs;
+  while (performance.now() < end || times.length < minRuns) {
+    const t0 = performance.now();
+    fn();
+    times.push(performance.now() - t0);
+  }
+  return { median: median(times), runs: times.length };
+}
+
+/** Build and analyse: validation, surface, mesh, water, advice, comparison; mesh and traces included. */
+export const engineSection: Section = {
+  title: "Engine: build and analyse a roof (median, share of a 16.7 ms frame)",
+  run() {
+    return BENCH_ROOFS.map((roof) => {
+      const { median: ms, runs } = timeIt(() => {
+        const parsed = parseSpec(roof.spec);
+        if (!parsed.ok) throw new Error(parsed.error.message);
+        return analyse(parsed.spec);
+      });
+      const frames = ms / FRAME_MS;
+      return {
+        name: roof.name,
+        value: ms,
+        unit: "ms",
+        score: frames,
+        target: `≤ ${roof.frames} frame${roof.frames === 1 ? "" : "s"}`,
+        pass: frames <= roof.frames,
+        note: `${runs} runs`,
+      };
+    });
+  },
+};
+
+/** Sections in order; the API section is appended here. */
+export const SECTIONS: Section[] = [engineSection];
+
+function printRows(title: string, rows: BenchRow[]): void {
+  console.log(`\n${title}`);
+  for (const r of rows) {
+    const verdict = r.pass ? "PASS" : "FAIL";
+    console.log(
+      `  ${verdict}  ${r.name.padEnd(34)} ${r.value.toFixed(2).padStart(9)} ${r.unit.padEnd(5)} ${r.score.toFixed(3).padStart(7)}  target ${r.target}${r.note ? `  (${r.note})` : ""}`,
+    );
+  }
+}
+
+export async function main(sections: Section[] = SECTIONS): Promise<boolean> {
+  let ok = true;
+  for (const section of sections) {
+    const rows = await section.run();
+    printRows(section.title, rows);
+    ok &&= rows.every((r) => r.pass);
+  }
+  console.log(`\n${ok ? "All targets met." : "Some targets missed."}`);
+  return ok;
+}
+
+if (import.meta.url === `file://${process.argv[1]}`) {
+  main().then(
+    (ok) => process.exit(ok ? 0 : 1),
+    (error) => {
+      console.error(error);
+      process.exit(2);
+    },
+  );
+}
