@@ -3,6 +3,7 @@ import { type RouteConfig, index, layout, route } from "@react-router/dev/routes
 export default [
   route("healthz", "routes/healthz.ts"),
   route("api/v1", "routes/api.v1._index.ts"),
+  route("api/v1/analyses", "routes/api.v1.analyses.ts"),
   route("api/v1/roofs", "routes/api.v1.roofs.ts"),
   route("api/v1/roofs/:id", "routes/api.v1.roofs.$id.ts"),
   route("api/v1/lessons", "routes/api.v1.lessons.ts"),

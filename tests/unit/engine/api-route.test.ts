@@ -1,0 +1,92 @@
+import { beforeEach, describe, expect, it, vi } from "vitest";
+
+// The per-address limiter lives in PostgreSQL; here it is replaced so the route runs alone.
+const limiter = vi.hoisted(() => ({ next: null as Response | null | "throw" }));
+vi.mock("~/lib/rate-limit.server", () => ({
+  limitApiRequest: async () => {
+    if (limiter.next === "throw") throw new Error("database unavailable");
+    return limiter.next;
+  },
+}));
+
+const { action, loader, ANALYSIS_BODY_LIMIT } = await import("~/routes/api.v1.analyses");
+
+const URL_ = "http://localhost/api/v1/analyses";
+const spec = { outline: [[0, 0], [20, 0], [20, 10], [0, 10]], outlets: [{ at: [10, 0] }], baseFall: "1:40" };
+
+function post(body: BodyInit | null, headers: Record<string, string> = { "Content-Type": "application/json" }, url = URL_) {
+  return new Request(url, { method: "POST", body, headers, duplex: "half" } as RequestInit);
+}
+const call = (request: Request) => action({ request, context: {}, params: {} } as never) as Promise<Response>;
+
+beforeEach(() => {
+  limiter.next = null;
+});
+
+describe("POST /api/v1/analyses", () => {
+  it("answers 200 with the contract's keys", async () => {
+    const res = await call(post(JSON.stringify(spec)));
+    expect(res.status).toBe(200);
+    const a = await res.json();
+    expect(a.shaped.highLevel).toBeCloseTo(0.25, 12);
+    for (const key of ["joistDirection", "edgeFalls", "longestFallLine", "worstFallRatio", "joists", "fallMap", "catchments", "ponding", "probes", "mesh"]) {
+      expect(a.shaped).toHaveProperty(key);
+    }
+    for (const key of ["gutter", "openEdge", "comparison", "advice", "warnings"]) expect(a).toHaveProperty(key);
+    expect(Array.isArray(a.shaped.mesh.positions)).toBe(true);
+  });
+
+  it("leaves out the mesh and traces on request", async () => {
+    const a = await (await call(post(JSON.stringify(spec), undefined, `${URL_}?mesh=false&traces=false`))).json();
+    expect(a.shaped.mesh).toBeUndefined();
+    expect(a.shaped.flowTraces).toBeUndefined();
+  });
+
+  it("415 unless the body is declared JSON", async () => {
+    expect((await call(post(JSON.stringify(spec), { "Content-Type": "text/plain" }))).status).toBe(415);
+    expect((await call(post(JSON.stringify(spec), {}))).status).toBe(415);
+  });
+
+  it("413 over 256 kB, even when the body is streamed without a length", async () => {
+    const big = JSON.stringify({ ...spec, padding: "x".repeat(ANALYSIS_BODY_LIMIT) });
+    expect((await call(post(big))).status).toBe(413);
+    const stream = new ReadableStream<Uint8Array>({
+      start(controller) {
+        const chunk = new TextEncoder().encode("x".repeat(64 * 1024));
+        for (let i = 0; i < 5; i++) controller.enqueue(chunk);
+        controller.close();
+      },
+    });
+    expect((await call(post(stream))).status).toBe(413);
+  });
+
+  it("400 for broken JSON and for a malformed spec, with issue paths", async () => {
+    const broken = await call(post("{\"outline\": [[0,0],"));
+    expect(broken.status).toBe(400);
+    const malformed = await call(post(JSON.stringify({ ...spec, baseFall: "steep" })));
+    expect(malformed.status).toBe(400);
+    const body = await malformed.json();
+    expect(body.error.issues.map((i: { path: string }) => i.path)).toContain("baseFall");
+  });
+
+  it("422 for a spec that cannot be built", async () => {
+    const res = await call(post(JSON.stringify({ ...spec, outline: [[0, 0], [10, 10], [10, 0], [0, 10]] })));
+    expect(res.status).toBe(422);
+    expect((await res.json()).error.message).toMatch(/cannot be built/);
+  });
+
+  it("passes on the limiter's 429, and still answers when the limiter's database is down", async () => {
+    limiter.next = Response.json({ error: { message: "Too many", issues: [] } }, { status: 429, headers: { "Retry-After": "7" } });
+    const limited = await call(post(JSON.stringify(spec)));
+    expect(limited.status).toBe(429);
+    expect(limited.headers.get("Retry-After")).toBe("7");
+    limiter.next = "throw";
+    expect((await call(post(JSON.stringify(spec)))).status).toBe(200);
+  });
+
+  it("405 for GET", async () => {
+    const res = loader() as Response;
+    expect(res.status).toBe(405);
+    expect(res.headers.get("Allow")).toBe("POST");
+  });
+});
