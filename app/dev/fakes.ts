@@ -40,6 +40,8 @@ export async function startFakes(o: FakeOptions) {
             text: mail.text ?? "",
             html: typeof mail.html === "string" ? mail.html : "",
           };
+          // Again per message: a test run starting beside this one may have emptied the spool folder.
+          fs.mkdirSync(o.spoolDir, { recursive: true });
           fs.writeFileSync(path.join(o.spoolDir, `${id}.json`), JSON.stringify(record, null, 2));
           callback();
         })
