@@ -1,5 +1,7 @@
 /** The "choose a password" part shared by invitation, reset, sign-up and account forms. */
+import { data } from "react-router";
 import { passwordProblem } from "~/lib/password.server";
+import { retryAfterHeaders } from "~/lib/rate-limit.server";
 
 export type FieldErrors = Partial<Record<string, string>>;
 
@@ -38,4 +40,12 @@ export function newPasswordFields(
   else if (password !== confirm) fieldErrors.confirm = "The two passwords are not the same.";
   if (Object.keys(fieldErrors).length) return { ok: false, result: { ok: false, status: 400, fieldErrors, values } };
   return { ok: true, name, password, values };
+}
+
+/** What a page's action returns for a refused form: the errors, what was typed, the status (and Retry-After). */
+export function formFailure(r: PasswordFormFailure) {
+  return data(
+    { formError: r.formError ?? null, fieldErrors: r.fieldErrors ?? {}, values: r.values },
+    { status: r.status, headers: retryAfterHeaders(r.retryAfter) },
+  );
 }

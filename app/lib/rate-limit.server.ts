@@ -112,6 +112,11 @@ export function clientIp(context: AppLoadContext | undefined | null): string {
   return context?.clientIp || "unknown";
 }
 
+/** The Retry-After header for a refused attempt, or nothing. */
+export function retryAfterHeaders(seconds: number | undefined | null): Record<string, string> | undefined {
+  return seconds ? { "Retry-After": String(seconds) } : undefined;
+}
+
 /** "2 minutes" / "40 seconds" for a Retry-After in a sentence. */
 export function waitPhrase(seconds: number): string {
   if (seconds < 60) return `${seconds} second${seconds === 1 ? "" : "s"}`;

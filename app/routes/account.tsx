@@ -4,7 +4,7 @@ import { z } from "zod";
 import { audit } from "~/lib/audit.server";
 import { getLiveSession, requireUser } from "~/lib/auth.server";
 import { ROLE_LABELS } from "~/lib/permissions";
-import { clientIp } from "~/lib/rate-limit.server";
+import { clientIp, retryAfterHeaders } from "~/lib/rate-limit.server";
 import { clearSessionCookie, destroyAllSessions, listSessions } from "~/lib/session.server";
 import { changeName, changePassword } from "~/lib/users.server";
 import { describeDevice, formatWhen } from "~/lib/when";
@@ -59,7 +59,7 @@ export async function action({ request, context }: Route.ActionArgs) {
       }
       return data<AccountResult>(
         { intent: "password", message: null, formError: r.formError ?? null, fieldErrors: r.fieldErrors ?? {} },
-        { status: r.status, headers: r.retryAfter ? { "Retry-After": String(r.retryAfter) } : undefined },
+        { status: r.status, headers: retryAfterHeaders(r.retryAfter) },
       );
     }
     case "sign-out-everywhere": {

@@ -1,5 +1,6 @@
 import { data, Form, Link, useActionData } from "react-router";
 import type { Route } from "./+types/forgot-password";
+import { retryAfterHeaders } from "~/lib/rate-limit.server";
 import { requestPasswordReset } from "~/lib/password-reset.server";
 import { AuthCard, Field, FormError, FormNotice, SubmitButton } from "~/components/form-field";
 
@@ -9,7 +10,7 @@ export async function action({ request, context }: Route.ActionArgs) {
   const r = await requestPasswordReset(request, context);
   return data(
     { email: r.email, message: r.ok ? r.message : null, formError: r.ok ? null : r.formError },
-    { status: r.status, headers: !r.ok && r.retryAfter ? { "Retry-After": String(r.retryAfter) } : undefined },
+    { status: r.status, headers: retryAfterHeaders(r.ok ? null : r.retryAfter) },
   );
 }
 

@@ -1,5 +1,6 @@
 import { data, Form, redirect, useActionData, useLoaderData } from "react-router";
 import type { Route } from "./+types/invite.$token";
+import { formFailure } from "~/lib/password-form.server";
 import { acceptInvitation, findInvitation } from "~/lib/invitations.server";
 import { ROLE_LABELS } from "~/lib/permissions";
 import { AuthCard, Field, FormError, SubmitButton } from "~/components/form-field";
@@ -17,10 +18,7 @@ export async function loader({ params }: Route.LoaderArgs) {
 export async function action({ request, params, context }: Route.ActionArgs) {
   const r = await acceptInvitation(request, params.token, context);
   if (r.ok) throw redirect("/", { headers: { "Set-Cookie": r.setCookie } });
-  return data(
-    { formError: r.formError ?? null, fieldErrors: r.fieldErrors ?? {}, values: r.values },
-    { status: r.status, headers: r.retryAfter ? { "Retry-After": String(r.retryAfter) } : undefined },
-  );
+  return formFailure(r);
 }
 
 export default function AcceptInvitation() {

@@ -1,6 +1,7 @@
 import { useEffect, useRef } from "react";
 import { data, Form, Link, redirect, useActionData, useLoaderData } from "react-router";
 import type { Route } from "./+types/login";
+import { retryAfterHeaders } from "~/lib/rate-limit.server";
 import { requireAnonymous, safeRedirect, signIn } from "~/lib/auth.server";
 import { primaryOrganisation } from "~/lib/users.server";
 import { AuthCard, Field, FormError, FormNotice, SubmitButton } from "~/components/form-field";
@@ -31,7 +32,7 @@ export async function action({ request, context }: Route.ActionArgs) {
   if (result.ok) throw redirect(redirectTo, { headers: { "Set-Cookie": result.setCookie } });
   return data(
     { email: result.email, formError: result.formError ?? null, fieldErrors: result.fieldErrors ?? {} },
-    { status: result.status, headers: result.retryAfter ? { "Retry-After": String(result.retryAfter) } : undefined },
+    { status: result.status, headers: retryAfterHeaders(result.retryAfter) },
   );
 }
 

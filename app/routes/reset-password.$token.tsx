@@ -1,5 +1,6 @@
 import { data, Form, redirect, useActionData, useLoaderData } from "react-router";
 import type { Route } from "./+types/reset-password.$token";
+import { formFailure } from "~/lib/password-form.server";
 import { findResetToken, resetPassword } from "~/lib/password-reset.server";
 import { AuthCard, FormError, SubmitButton } from "~/components/form-field";
 import { LINK_STATUS, LinkProblem } from "~/components/link-problem";
@@ -16,10 +17,7 @@ export async function loader({ params }: Route.LoaderArgs) {
 export async function action({ request, params, context }: Route.ActionArgs) {
   const r = await resetPassword(request, params.token, context);
   if (r.ok) throw redirect("/account?notice=password-reset", { headers: { "Set-Cookie": r.setCookie } });
-  return data(
-    { formError: r.formError ?? null, fieldErrors: r.fieldErrors ?? {} },
-    { status: r.status, headers: r.retryAfter ? { "Retry-After": String(r.retryAfter) } : undefined },
-  );
+  return formFailure(r);
 }
 
 export default function ResetPassword() {

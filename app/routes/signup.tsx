@@ -1,5 +1,6 @@
 import { data, Form, Link, redirect, useActionData, useLoaderData } from "react-router";
 import type { Route } from "./+types/signup";
+import { formFailure } from "~/lib/password-form.server";
 import { requireAnonymous } from "~/lib/auth.server";
 import { primaryOrganisation, signUpDesigner } from "~/lib/users.server";
 import { AuthCard, Field, FormError, SubmitButton } from "~/components/form-field";
@@ -18,10 +19,7 @@ export async function action({ request, context }: Route.ActionArgs) {
   await requireAnonymous(request);
   const r = await signUpDesigner(request, await request.formData(), context);
   if (r.ok) throw redirect("/", { headers: { "Set-Cookie": r.setCookie } });
-  return data(
-    { formError: r.formError ?? null, fieldErrors: r.fieldErrors ?? {}, values: r.values },
-    { status: r.status, headers: r.retryAfter ? { "Retry-After": String(r.retryAfter) } : undefined },
-  );
+  return formFailure(r);
 }
 
 export default function SignUp() {
