@@ -192,6 +192,7 @@ function RoofEditor({ roof, underlay: initialUnderlay, underlayUrl: initialUrl, 
       {conflict ? <ConflictBanner current={conflict} onReload={() => reloadTheirs(conflict)} onKeepMine={() => void keepMineAsCopy()} error={copyError} /> : null}
 
       <div className="grid items-start gap-4 lg:grid-cols-[3fr_2fr]">
+        {roof.canEdit || imageUrl ? (
         <UnderlayPanel
           roofId={roof.id}
           settings={underlay}
@@ -213,6 +214,7 @@ function RoofEditor({ roof, underlay: initialUnderlay, underlayUrl: initialUrl, 
             }
           }}
         />
+        ) : null}
         {roof.canEdit ? (
           <VersionHistory
             versions={versions}
@@ -275,7 +277,7 @@ function ReadOnlyBanner({ owner, name }: { owner: string; name: string }) {
   return (
     <div className="flex flex-wrap items-center justify-between gap-3 rounded border border-rule bg-paper-deep px-4 py-3">
       <p>
-        <strong>Read-only.</strong> {owner} shared this roof with your organisation. Changes you try here are not saved; make your own copy to work on it.
+        <strong>Read-only.</strong> {owner} shared this roof with your organisation. You can look around; make your own copy to change it.
       </p>
       <fetcher.Form method="post">
         <input type="hidden" name="intent" value="duplicate" />

@@ -227,6 +227,8 @@ export function UnderlayPanel({ roofId, settings, imageUrl, outline, canEdit, on
             ))}
           </svg>
 
+          {mode ? <TypedPoint onAdd={(p) => setPoints((pts) => (mode === "scale" ? (pts.length >= 2 ? [p] : [...pts, p]) : [...pts, p]))} settings={settings} /> : null}
+
           {mode === "scale" && points.length === 2 ? (
             <form
               className="flex flex-wrap items-end gap-2"
@@ -301,5 +303,31 @@ function PlacementFields({ settings, onSettings }: { settings: UnderlaySettings;
         Scale: {(settings.metresPerPixel * 1000).toFixed(2)} mm per pixel · image {formatMetres(settings.widthPx * settings.metresPerPixel)} × {formatMetres(settings.heightPx * settings.metresPerPixel)}
       </p>
     </fieldset>
+  );
+}
+
+/** Keyboard route to the same points: type an image pixel position instead of clicking. */
+function TypedPoint({ onAdd, settings }: { onAdd: (p: Pt) => void; settings: UnderlaySettings }) {
+  const id = useId();
+  const [x, setX] = useState("");
+  const [y, setY] = useState("");
+  const nx = Number(x);
+  const ny = Number(y);
+  const valid = x.trim() !== "" && y.trim() !== "" && nx >= 0 && ny >= 0 && nx <= settings.widthPx && ny <= settings.heightPx;
+  return (
+    <details className="text-sm">
+      <summary className="cursor-pointer text-ink-soft">Type a point instead of clicking</summary>
+      <div className="mt-2 flex flex-wrap items-end gap-2">
+        <div>
+          <label className="label" htmlFor={`${id}-x`}>Pixel x (0-{settings.widthPx})</label>
+          <input id={`${id}-x`} className="field w-28" inputMode="decimal" value={x} onChange={(e) => setX(e.target.value)} />
+        </div>
+        <div>
+          <label className="label" htmlFor={`${id}-y`}>Pixel y (0-{settings.heightPx}, down)</label>
+          <input id={`${id}-y`} className="field w-28" inputMode="decimal" value={y} onChange={(e) => setY(e.target.value)} />
+        </div>
+        <button type="button" className="btn" disabled={!valid} onClick={() => onAdd([nx, ny])}>Add point</button>
+      </div>
+    </details>
   );
 }
