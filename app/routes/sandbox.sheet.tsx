@@ -3,6 +3,7 @@ import { data, Link, useLoaderData } from "react-router";
 import { Printer } from "lucide-react";
 import type { Route } from "./+types/sandbox.sheet";
 import { parseSpec, RULE_SETS, type Analysis, type RoofSpec } from "~/engine";
+import { readLinkedSpec } from "~/components/sandbox/linked-spec.server";
 import { Caution } from "~/components/caution";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
 import { FallRatio } from "~/components/sandbox/fall-ratio";
@@ -10,22 +11,16 @@ import { area, fallDetail, flow, formatRatio, metres, mm, point } from "~/compon
 import { PlanDrawing } from "~/components/sandbox/plan-drawing";
 import { runAnalysis } from "~/components/sandbox/run-analysis";
 import { scheduleRows } from "~/components/sandbox/schedule-rows";
-import { decodeSpec, SHEET_SESSION_KEY } from "~/components/sandbox/sheet-link";
+import { SHEET_SESSION_KEY } from "~/components/sandbox/sheet-link";
 
 export const meta: Route.MetaFunction = () => [{ title: "Check sheet · Fallwright" }];
 
 /** The roof comes in the link (`spec`, base64url JSON) or, for long ones, from the sandbox's sessionStorage. */
 export async function loader({ request }: Route.LoaderArgs) {
   const url = new URL(request.url);
-  const raw = url.searchParams.get("spec");
-  if (raw != null) {
-    const decoded = decodeSpec(raw);
-    if (decoded == null) throw data("The roof in this link could not be read (it is not base64url JSON).", { status: 400 });
-    const parsed = parseSpec(decoded);
-    if (!parsed.ok) throw data(parsed.error.message, { status: parsed.status });
-    return { spec: parsed.spec as RoofSpec | null, fromSession: false };
-  }
-  return { spec: null, fromSession: url.searchParams.get("from") === "session" };
+  const linked = readLinkedSpec(url);
+  if (linked.error) throw data(linked.error.message, { status: linked.error.status });
+  return { spec: linked.spec, fromSession: !linked.spec && url.searchParams.get("from") === "session" };
 }
 
 const PRINT_CSS = `

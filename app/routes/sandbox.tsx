@@ -23,10 +23,9 @@
  */
 import { data, useLoaderData } from "react-router";
 import type { Route } from "./+types/sandbox";
-import { parseSpec, type RoofSpec } from "~/engine";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
 import { DEMO_ROOF } from "~/components/sandbox/demo-roof";
-import { decodeSpec } from "~/components/sandbox/sheet-link";
+import { readLinkedSpec } from "~/components/sandbox/linked-spec.server";
 import { useSandboxStore } from "~/components/sandbox/store";
 import { SandboxWorkspace } from "~/components/sandbox/workspace";
 
@@ -36,13 +35,9 @@ export const meta: Route.MetaFunction = () => [
 ];
 
 export async function loader({ request }: Route.LoaderArgs) {
-  const raw = new URL(request.url).searchParams.get("spec");
-  if (raw == null) return { linked: null as RoofSpec | null, linkError: null as string | null };
-  const decoded = decodeSpec(raw);
-  if (decoded == null) return data({ linked: null, linkError: "The roof in this link could not be read (it is not base64url JSON)." }, { status: 400 });
-  const parsed = parseSpec(decoded);
-  if (!parsed.ok) return data({ linked: null, linkError: parsed.error.message }, { status: parsed.status });
-  return { linked: parsed.spec, linkError: null };
+  const linked = readLinkedSpec(new URL(request.url));
+  if (linked.error) return data({ linked: null, linkError: linked.error.message }, { status: linked.error.status });
+  return { linked: linked.spec, linkError: null };
 }
 
 function StartOver() {

@@ -9,7 +9,8 @@ async function openSandbox(page: Page) {
   await page.goto("/sandbox");
   await page.evaluate(() => sessionStorage.clear());
   await page.reload();
-  await expect(page.getByTestId("high-level-figure")).toHaveText(H_DEMO);
+  // The engine starts in a worker after hydration; on a busy machine that can take a while.
+  await expect(page.getByTestId("high-level-figure")).toHaveText(H_DEMO, { timeout: 30_000 });
   // Hydrated: the engine status line exists only after React took over the toolbar.
   await expect(page.getByTestId("engine-status")).toHaveAttribute("data-computing", "false");
 }

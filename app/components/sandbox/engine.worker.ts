@@ -1,10 +1,14 @@
-import { runAnalysis } from "./run-analysis";
-import type { RoofSpec } from "~/engine";
+import { handleEngineRequest } from "./engine-handlers";
+import type { EngineRequest } from "./engine-protocol";
 
-/** Runs the roof engine off the main thread: one request in, one outcome out, tagged with its id. */
-self.onmessage = (event: MessageEvent<{ id: number; spec: RoofSpec }>) => {
-  const { id, spec } = event.data;
-  const started = performance.now();
-  const outcome = runAnalysis(spec);
-  (self as unknown as Worker).postMessage({ id, outcome, ms: performance.now() - started });
+/** The roof engine off the main thread: one request in, one answer out, tagged with its id. */
+self.onmessage = (event: MessageEvent<{ id: number; request: EngineRequest }>) => {
+  const { id, request } = event.data;
+  let answer: unknown;
+  try {
+    answer = handleEngineRequest(request);
+  } catch (error) {
+    answer = { ok: false, error: { status: 500, message: String((error as Error)?.message ?? error), issues: [] } };
+  }
+  (self as unknown as Worker).postMessage({ id, answer });
 };

@@ -1,6 +1,6 @@
-import { useEffect, useId, useState } from "react";
-import { parseFall } from "~/engine";
+import { useEffect, useId, useRef, useState } from "react";
 import { fallDetail, formatRatio } from "./format";
+import { useSandbox } from "./store";
 
 interface Props {
   label: string;
@@ -12,38 +12,47 @@ interface Props {
   testId?: string;
 }
 
+const EXAMPLES = "such as 1:40, 2°, 2.5% or 25 mm/m";
+
 /**
- * A fall typed the way people say it: 1:40, 1 in 40, 2°, 2.5%, 25 mm/m. The text itself goes into
- * the spec, so the roof keeps the user's notation; the parsed forms show underneath.
+ * A fall typed the way people say it: 1:40, 1 in 40, 2°, 2.5%, 25 mm/m. The engine (in its worker)
+ * reads it; a good reading goes into the spec as typed, so the roof keeps the user's notation, and
+ * a bad one stays in the box with the reason, the roof keeping its last good fall.
  */
 export function FallField({ label, value, onCommit, optional, placeholder, disabled, testId }: Props) {
   const id = useId();
+  const engine = useSandbox((s) => s.engine);
   const [text, setText] = useState(value == null ? "" : String(value));
-  const [error, setError] = useState<string | null>(null);
+  const [reading, setReading] = useState<{ error: string | null; detail: string | null }>({ error: null, detail: null });
+  const ask = useRef(0);
+  const current = useRef({ value, onCommit });
+  current.current = { value, onCommit };
 
   useEffect(() => {
-    if (String(value ?? "") !== text) {
-      setText(value == null ? "" : String(value));
-      setError(null);
-    }
+    if (String(value ?? "") !== text.trim()) setText(value == null ? "" : String(value));
+    // Only an outside change of the value (undo, apply) rewrites the box.
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [value]);
 
-  const parsed = text.trim() ? parseFall(text) : null;
+  useEffect(() => {
+    const typed = text.trim();
+    const n = ++ask.current;
+    if (!typed) {
+      setReading({ error: optional ? null : `needs a fall, ${EXAMPLES}`, detail: null });
+      return;
+    }
+    if (!engine) return;
+    void engine.parseFall(typed).then((r) => {
+      if (n !== ask.current) return;
+      if (!r.ok) return setReading({ error: `${typed} ${r.error}`, detail: null });
+      setReading({ error: null, detail: `${formatRatio(r.ratio)} · ${fallDetail(r.ratio)}` });
+      if (typed !== String(current.current.value ?? "")) current.current.onCommit(typed);
+    });
+  }, [text, engine, optional]);
 
   function change(next: string) {
     setText(next);
-    if (next.trim() === "") {
-      if (optional) {
-        setError(null);
-        onCommit(undefined);
-      } else setError("needs a fall, such as 1:40, 2°, 2.5% or 25 mm/m");
-      return;
-    }
-    const result = parseFall(next);
-    if (!result.ok) return setError(`${next.trim()} ${result.error}`);
-    setError(null);
-    onCommit(next.trim());
+    if (next.trim() === "" && optional) onCommit(undefined);
   }
 
   return (
@@ -53,24 +62,24 @@ export function FallField({ label, value, onCommit, optional, placeholder, disab
       </label>
       <input
         id={id}
-        className={`field ${error ? "border-bad" : ""}`}
+        className={`field ${reading.error ? "border-bad" : ""}`}
         value={text}
         placeholder={placeholder}
         disabled={disabled}
         spellCheck={false}
         autoComplete="off"
-        aria-invalid={error ? true : undefined}
+        aria-invalid={reading.error ? true : undefined}
         aria-describedby={`${id}-note`}
         onChange={(e) => change(e.target.value)}
         data-testid={testId}
       />
-      {error ? (
+      {reading.error ? (
         <p id={`${id}-note`} className="field-error text-xs" role="alert">
-          {error}
+          {reading.error}
         </p>
       ) : (
         <p id={`${id}-note`} className="mt-1 text-xs tabular-nums text-ink-soft">
-          {parsed?.ok ? `${formatRatio(parsed.ratio)} · ${fallDetail(parsed.ratio)}` : optional ? "rule set default" : " "}
+          {text.trim() ? (reading.detail ?? " ") : optional ? "rule set default" : " "}
         </p>
       )}
     </div>

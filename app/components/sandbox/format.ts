@@ -1,5 +1,3 @@
-import { formatRatio } from "~/engine";
-
 /** Display helpers. The engine works in metres; people read levels and drops in millimetres. */
 
 export const mm = (metres: number | null | undefined) => (metres == null || !Number.isFinite(metres) ? "–" : `${Math.round(metres * 1000)} mm`);
@@ -20,4 +18,13 @@ export function fallDetail(ratio: number | null | undefined): string {
   return `${degrees.toFixed(2)}° · ${(100 / ratio).toFixed(2)} %`;
 }
 
-export { formatRatio };
+/**
+ * "1:40"; one decimal when not whole ("1:28.6"); "level" for no fall. The same rule as the
+ * engine's formatRatio (a test holds them together), kept here so pages need not load the engine.
+ */
+export function formatRatio(ratio: number | null | undefined): string {
+  if (ratio == null || !Number.isFinite(ratio)) return "level";
+  const whole = Math.round(ratio);
+  if (Math.abs(ratio - whole) < 0.05) return `1:${whole}`;
+  return `1:${ratio.toFixed(1)}`;
+}

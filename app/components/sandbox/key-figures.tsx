@@ -17,7 +17,14 @@ function Figure({ label, children, testId, tone }: { label: string; children: Re
 export function KeyFigures() {
   const analysis = useSandbox((s) => s.analysis);
   const stale = useSandbox((s) => s.analysedSpec !== s.spec);
-  if (!analysis) return <p className="px-3 py-2 text-sm text-ink-soft">No figures yet.</p>;
+  const failed = useSandbox((s) => s.engineError !== null);
+  if (!analysis) {
+    return (
+      <p className="px-3 py-4 text-sm text-ink-soft" data-testid="key-figures-empty">
+        {failed ? "No figures: the roof cannot be built yet (see the plan)." : "Working out the figures…"}
+      </p>
+    );
+  }
   const { shaped, minFall } = analysis;
   const worst = shaped.worstFallRatio;
   const tooFlat = worst != null && worst > minFall.ratio * (1 + 1e-9);

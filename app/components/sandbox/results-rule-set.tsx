@@ -1,7 +1,7 @@
 import type { Analysis } from "~/engine";
-import { RULE_SETS } from "~/engine";
 import { FallRatio } from "./fall-ratio";
 import { ResultsSection } from "./results-section";
+import { useSandbox } from "./store";
 
 const KEY_NAMES: Record<string, string> = {
   fieldFall: "field fall, at least",
@@ -18,7 +18,7 @@ const KEY_NAMES: Record<string, string> = {
 /** The rule set the results used, value by value, each with its document and clause. */
 export function RuleSetSources({ analysis }: { analysis: Analysis }) {
   const { ruleSet } = analysis;
-  const notes = RULE_SETS[ruleSet.id]?.notes ?? [];
+  const notes = useSandbox((s) => s.ruleSets.find((r) => r.id === analysis.ruleSet.id)?.notes) ?? [];
   return (
     <ResultsSection title="Rule set and sources" id="rule-set">
       <p className="mb-2 text-sm font-medium">{ruleSet.name}</p>

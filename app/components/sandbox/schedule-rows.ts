@@ -1,4 +1,5 @@
-import { formatRatio, type Analysis } from "~/engine";
+import type { Analysis } from "~/engine";
+import { formatRatio } from "./format";
 
 /** One span of one joist, as the builder reads it. Levels and drops in millimetres. */
 export interface ScheduleRow {

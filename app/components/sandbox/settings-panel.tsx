@@ -1,4 +1,4 @@
-import { RULE_SETS, type RoofSpec, type RuleSetId } from "~/engine";
+import type { RoofSpec, RuleSetId } from "~/engine";
 import { FallField } from "./fall-field";
 import { formatRatio } from "./format";
 import { NumberField } from "./number-field";
@@ -21,6 +21,8 @@ export function SettingsPanel() {
   const spec = useSandbox((s) => s.spec);
   const readOnly = useSandbox((s) => s.readOnly);
   const analysis = useSandbox((s) => s.analysis);
+  const ruleSets = useSandbox((s) => s.ruleSets);
+  const ruleSet = spec.ruleSet ?? "common-practice";
   const edit = (patch: (s: RoofSpec) => RoofSpec) => store.getState().edit(patch);
   const joists = spec.joists ?? {};
   const gutter = spec.gutter ?? {};
@@ -75,9 +77,10 @@ export function SettingsPanel() {
           onCommit={(v) => edit((s) => ({ ...s, rainfall: v == null ? undefined : { intensity: v } }))} />
         <div className="col-span-2">
           <label className="label" htmlFor="rule-set">Rule set</label>
-          <select id="rule-set" className="field" value={spec.ruleSet ?? "common-practice"} disabled={readOnly} data-testid="rule-set"
+          <select id="rule-set" className="field" value={ruleSet} disabled={readOnly} data-testid="rule-set"
             onChange={(e) => edit((s) => ({ ...s, ruleSet: e.target.value as RuleSetId }))}>
-            {Object.values(RULE_SETS).map((r) => (
+            {ruleSets.length === 0 && <option value={ruleSet}>{analysis?.ruleSet.name ?? ruleSet}</option>}
+            {ruleSets.map((r) => (
               <option key={r.id} value={r.id}>{r.name}</option>
             ))}
           </select>

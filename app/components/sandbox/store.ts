@@ -1,7 +1,9 @@
 import { createContext, useContext } from "react";
 import { createStore, useStore, type StoreApi } from "zustand";
 import type { Analysis, RoofSpec } from "~/engine";
-import { runAnalysis, type EngineOutcome } from "./run-analysis";
+import type { EngineClient } from "./engine-client";
+import type { RuleSetInfo } from "./engine-protocol";
+import type { EngineOutcome } from "./run-analysis";
 
 export type Selection =
   | { kind: "vertex"; index: number }
@@ -49,6 +51,10 @@ export interface SandboxState {
   engineError: EngineError | null;
   computing: boolean;
   readOnly: boolean;
+  /** The page's engine (a worker); null until the page runs in a browser. */
+  engine: EngineClient | null;
+  /** Rule sets the engine knows, for the picker (empty until the engine answers). */
+  ruleSets: RuleSetInfo[];
   /** A short message for the status line (aria-live). */
   notice: string | null;
   edit: (recipe: (spec: RoofSpec) => RoofSpec, options?: { gesture?: string }) => void;
@@ -84,11 +90,10 @@ export type SandboxStore = StoreApi<SandboxState>;
 
 /**
  * One store per page (zustand's "initialize state with props" guide): the spec, its undo history,
- * the selection, view settings and the engine's latest answer. The first analysis runs here,
- * synchronously, so the server-rendered page already shows the figures.
+ * the selection, view settings and the engine's latest answer. The engine runs in the browser
+ * only (a worker), so the first render, on the server and in the browser alike, has no analysis yet.
  */
 export function createSandboxStore(initialSpec: RoofSpec, options: { readOnly?: boolean; view?: Partial<ViewSettings> } = {}) {
-  const first = runAnalysis(initialSpec);
   return createStore<SandboxState>()((set, get) => ({
     spec: initialSpec,
     past: [],
@@ -96,11 +101,13 @@ export function createSandboxStore(initialSpec: RoofSpec, options: { readOnly?: 
     gesture: null,
     selection: null,
     view: { ...DEFAULT_VIEW, ...options.view },
-    analysis: first.ok ? first.analysis : null,
-    analysedSpec: first.ok ? initialSpec : null,
-    engineError: first.ok ? null : first.error,
-    computing: false,
+    analysis: null,
+    analysedSpec: null,
+    engineError: null,
+    computing: true,
     readOnly: options.readOnly ?? false,
+    engine: null,
+    ruleSets: [],
     notice: null,
     edit(recipe, { gesture } = {}) {
       const { spec, past, readOnly } = get();

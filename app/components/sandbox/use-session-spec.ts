@@ -1,5 +1,4 @@
 import { useEffect } from "react";
-import { parseSpec } from "~/engine";
 import type { SandboxStore } from "./store";
 
 /**
@@ -9,14 +8,28 @@ import type { SandboxStore } from "./store";
 export function useSessionSpec(store: SandboxStore, key: string | undefined, restore = true) {
   useEffect(() => {
     if (!key) return;
+    let saved: unknown = null;
     try {
-      const saved = restore ? sessionStorage.getItem(key) : null;
-      if (saved) {
-        const parsed = parseSpec(JSON.parse(saved));
-        if (parsed.ok) store.getState().replaceSpec(parsed.spec, { resetHistory: true });
-      }
+      saved = restore ? JSON.parse(sessionStorage.getItem(key) ?? "null") : null;
     } catch {
       // Storage blocked or a stale, unreadable entry: start from the given roof.
+    }
+    // The engine checks the kept roof before it replaces the one on screen (and only if nobody edited meanwhile).
+    const opening = store.getState().spec;
+    const check = (engine: NonNullable<ReturnType<SandboxStore["getState"]>["engine"]>) =>
+      void engine.parseSpec(saved).then((parsed) => {
+        if (parsed.ok && store.getState().spec === opening) store.getState().replaceSpec(parsed.spec, { resetHistory: true });
+      });
+    let stopWaiting = () => {};
+    if (saved != null) {
+      const engine = store.getState().engine;
+      if (engine) check(engine);
+      else
+        stopWaiting = store.subscribe((state) => {
+          if (!state.engine) return;
+          stopWaiting();
+          check(state.engine);
+        });
     }
     let timer: ReturnType<typeof setTimeout> | undefined;
     const unsubscribe = store.subscribe((state, previous) => {
@@ -33,6 +46,7 @@ export function useSessionSpec(store: SandboxStore, key: string | undefined, res
     return () => {
       clearTimeout(timer);
       unsubscribe();
+      stopWaiting();
     };
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [store, key]);

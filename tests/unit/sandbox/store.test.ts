@@ -1,16 +1,42 @@
 import { describe, expect, it } from "vitest";
 import { DEMO_ROOF } from "~/components/sandbox/demo-roof";
 import { moveVertex } from "~/components/sandbox/spec-edit";
+import { EngineClient } from "~/components/sandbox/engine-client";
+import { formatRatio as localFormatRatio } from "~/components/sandbox/format";
+import { runAnalysis } from "~/components/sandbox/run-analysis";
 import { createSandboxStore } from "~/components/sandbox/store";
+import { formatRatio } from "~/engine";
+
+describe("engine client", () => {
+  it("answers without a Worker (here: node) by loading the engine on the main thread", async () => {
+    const engine = new EngineClient();
+    expect(engine.offMainThread).toBe(false);
+    const outcome = await engine.analyse(DEMO_ROOF);
+    expect(outcome.ok).toBe(true);
+    // ROOF-METHOD.md §4 rectangle: H = base fall × the chord through the outlet (8 m at 2°).
+    if (outcome.ok) expect(outcome.analysis.shaped.highLevel).toBeCloseTo(8 * Math.tan((2 * Math.PI) / 180), 9);
+    // 2.5 % = 1:40 (CHECK-VALUES.md, trigonometry).
+    expect(await engine.parseFall("2.5%")).toMatchObject({ ok: true, ratio: 40 });
+    expect((await engine.parseFall("1:abc")).ok).toBe(false);
+    expect((await engine.parseSpec({ outline: [] })).ok).toBe(false);
+    expect((await engine.ruleSets()).map((r) => r.id)).toContain("common-practice");
+  });
+
+  it("the page's 1:N formatting is the engine's", () => {
+    for (const r of [null, Infinity, 1, 10, 28.636, 39.97, 40, 40.04, 40.06, 57.29, 99.5, 100, 1234.5]) {
+      expect(localFormatRatio(r)).toBe(formatRatio(r));
+    }
+  });
+});
 
 describe("sandbox store", () => {
-  it("analyses the opening roof at once, so the server-rendered page has figures", () => {
+  it("starts without an analysis on server and browser alike, then takes the engine's outcome", () => {
     const store = createSandboxStore(DEMO_ROOF);
-    const { analysis, engineError, analysedSpec } = store.getState();
-    expect(engineError).toBeNull();
-    expect(analysedSpec).toBe(DEMO_ROOF);
-    // ROOF-METHOD.md §4 rectangle: H = base fall × the chord through the outlet (8 m at 2°).
-    expect(analysis!.shaped.highLevel).toBeCloseTo(8 * Math.tan((2 * Math.PI) / 180), 9);
+    expect(store.getState().analysis).toBeNull();
+    expect(store.getState().computing).toBe(true);
+    store.getState().setOutcome(DEMO_ROOF, runAnalysis(DEMO_ROOF));
+    expect(store.getState().analysedSpec).toBe(DEMO_ROOF);
+    expect(store.getState().analysis!.shaped.highLevel).toBeGreaterThan(0);
   });
 
   it("undoes and redoes edits, and a drag (one gesture) is one undo step", () => {
@@ -55,8 +81,13 @@ describe("sandbox store", () => {
   });
 
   it("keeps the last good analysis when a spec cannot be built, and says why", () => {
-    const store = createSandboxStore({ ...DEMO_ROOF, outline: [[0, 0], [10, 10], [10, 0], [0, 10]] });
-    expect(store.getState().analysis).toBeNull();
+    const store = createSandboxStore(DEMO_ROOF);
+    store.getState().setOutcome(DEMO_ROOF, runAnalysis(DEMO_ROOF));
+    const good = store.getState().analysis;
+    const crossing = { ...DEMO_ROOF, outline: [[0, 0], [10, 10], [10, 0], [0, 10]] as typeof DEMO_ROOF.outline };
+    store.getState().setOutcome(crossing, runAnalysis(crossing));
+    expect(store.getState().analysis).toBe(good);
+    expect(store.getState().analysedSpec).toBe(DEMO_ROOF);
     expect(store.getState().engineError).toMatchObject({ status: 422 });
   });
 });

@@ -1,0 +1,23 @@
+import type { FallResult, ParseSpecResult, RoofSpec, RuleSetId } from "~/engine";
+import type { EngineOutcome } from "./run-analysis";
+
+/** A rule set as the picker and the sources list need it. */
+export interface RuleSetInfo {
+  id: RuleSetId;
+  name: string;
+  notes: string[];
+}
+
+/** Messages to the engine worker (or its main-thread stand-in) and what each answers. */
+export type EngineRequest =
+  | { kind: "analyse"; spec: RoofSpec }
+  | { kind: "parseFall"; text: string }
+  | { kind: "parseSpec"; input: unknown }
+  | { kind: "ruleSets" };
+
+export interface EngineAnswers {
+  analyse: EngineOutcome;
+  parseFall: FallResult;
+  parseSpec: ParseSpecResult;
+  ruleSets: RuleSetInfo[];
+}
