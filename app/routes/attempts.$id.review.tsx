@@ -79,14 +79,11 @@ export default function AttemptReview() {
             <GradeMark cell={{ attemptId: attempt.id, score: grade.score, passed: grade.passed, overridden: !!grade.override, attempts: 1, submittedAt: attempt.submittedAt }} />
           </span>
           {grade.override ? <span className="text-sm text-ink-soft">(automatic: {formatScore(auto.score)}, {auto.passed ? "passed" : "not passed"})</span> : null}
+          {attempt.spec ? <a className="text-sm underline" href="#roof">See the roof in 3D</a> : null}
         </p>
       </header>
 
-      <div className="grid gap-6 xl:grid-cols-[3fr_2fr]">
-        <section aria-labelledby="roof" className="grid content-start gap-2">
-          <h2 id="roof" className="text-lg font-bold">The submitted roof</h2>
-          {attempt.spec ? <ReadOnlyRoof spec={attempt.spec} /> : <p className="card text-ink-soft">This attempt has no roof (quiz only).</p>}
-        </section>
+      <div className="grid items-start gap-6 lg:grid-cols-2">
         <section aria-labelledby="breakdown" className="card grid content-start gap-3">
           <h2 id="breakdown" className="text-lg font-bold">Automatic grading</h2>
           <p className="text-sm text-ink-soft">
@@ -95,12 +92,16 @@ export default function AttemptReview() {
           </p>
           <GradingBreakdown results={attempt.results} />
         </section>
+        <section aria-labelledby="reviews" className="card grid content-start gap-4">
+          <h2 id="reviews" className="text-lg font-bold">Trainer's comments</h2>
+          <AttemptReviews reviews={reviews} automatic={auto} />
+          {canReview ? <ReviewForm result={result} auto={auto} /> : null}
+        </section>
       </div>
 
-      <section aria-labelledby="reviews" className="card grid gap-4">
-        <h2 id="reviews" className="text-lg font-bold">Trainer's comments</h2>
-        <AttemptReviews reviews={reviews} automatic={auto} />
-        {canReview ? <ReviewForm result={result} auto={auto} /> : null}
+      <section id="roof" aria-labelledby="roof-heading" className="grid gap-2">
+        <h2 id="roof-heading" className="text-lg font-bold">The submitted roof</h2>
+        {attempt.spec ? <ReadOnlyRoof spec={attempt.spec} /> : <p className="card text-ink-soft">This attempt has no roof (quiz only).</p>}
       </section>
       <Caution />
     </div>

@@ -40,7 +40,7 @@ export default function Present() {
   // The roof on screen: the step's original until the trainer edits it (or what was live before a reload).
   const [spec, setSpec] = useState<unknown>(resumed ? resumed.spec : deck?.roofs[index]?.spec);
   const [version, setVersion] = useState(0);
-  const { publish, status } = useLivePublisher(cls.id);
+  const { publish, status } = useLivePublisher(cls.id, resumed ? live!.seq : null);
   // A step puts its roof in the workspace, which reports it back as a change: that one is already sent.
   const stepSpec = useRef<unknown>(null);
   const roof = deck?.roofs[index];
@@ -101,12 +101,12 @@ export default function Present() {
 
   return (
     <div className="flex min-h-screen flex-col bg-sheet text-ink">
-      <header className="flex flex-wrap items-center gap-x-6 gap-y-3 bg-ink px-6 py-3 text-sheet">
-        <div className="min-w-0">
+      <header className="flex items-center gap-6 bg-ink px-6 py-3 text-sheet">
+        <div className="min-w-0 flex-1">
           <p className="text-sm uppercase tracking-widest text-sheet/80">Presenting · {cls.name}</p>
-          <h1 className="truncate text-3xl font-bold" aria-live="polite">{roof?.caption ?? "No roofs to present"}</h1>
+          <h1 className="line-clamp-2 text-2xl font-bold leading-tight xl:text-3xl" aria-live="polite" title={roof?.caption}>{roof?.caption ?? "No roofs to present"}</h1>
         </div>
-        <nav aria-label="Steps" className="ml-auto flex items-center gap-3">
+        <nav aria-label="Steps" className="flex shrink-0 items-center gap-3">
           <button type="button" className={BIG_BUTTON} onClick={() => goTo(deck, index - 1)} disabled={index <= 0} aria-label="Previous roof (left arrow)">
             <ChevronLeft aria-hidden="true" className="h-7 w-7" /> Back
           </button>
@@ -117,7 +117,7 @@ export default function Present() {
             Next <ChevronRight aria-hidden="true" className="h-7 w-7" />
           </button>
         </nav>
-        <div className="flex items-center gap-2">
+        <div className="flex shrink-0 items-center gap-2">
           <button type="button" className={BIG_BUTTON} onClick={() => void document.documentElement.requestFullscreen?.().catch(() => {})} aria-label="Full screen">
             <Maximize aria-hidden="true" className="h-6 w-6" />
           </button>

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { useTestDatabase } from "../support/db";
 import { callRoute, formPost, get, linkIn, ORIGIN, sessionCookie, uniqueAddress, userIdOf, waitForMail } from "../support/accounts";
-import { demoClassId, ensureLesson, insertAttempt, SPEC } from "../support/classes";
+import { demoClassId, ensureSpool, ensureLesson, insertAttempt, SPEC } from "../support/classes";
 import * as classesIndex from "~/routes/classes._index";
 import * as classPage from "~/routes/classes.$id";
 import * as classGradebook from "~/routes/classes.$id.gradebook";
@@ -21,6 +21,7 @@ let cookies: Record<"admin" | "trainer" | "trainer2" | "trainee" | "trainee2" | 
 let demoClass: string;
 
 beforeAll(async () => {
+  ensureSpool();
   demoClass = await demoClassId();
   cookies = {
     admin: await sessionCookie("admin@tidemark.example"),

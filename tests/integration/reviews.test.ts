@@ -2,7 +2,7 @@ import Papa from "papaparse";
 import { beforeAll, describe, expect, it } from "vitest";
 import { useTestDatabase } from "../support/db";
 import { callRoute, formPost, get, sessionCookie, uniqueAddress, userIdOf, waitForMail } from "../support/accounts";
-import { demoClassId, ensureLesson, insertAttempt, makeTrainee } from "../support/classes";
+import { demoClassId, ensureSpool, ensureLesson, insertAttempt, makeTrainee } from "../support/classes";
 import * as review from "~/routes/attempts.$id.review";
 import * as classGradebook from "~/routes/classes.$id.gradebook";
 import * as gradebookCsv from "~/routes/classes.$id.gradebook-csv";
@@ -20,6 +20,7 @@ let traineeEmail: string;
 let traineeId: string;
 
 beforeAll(async () => {
+  ensureSpool();
   trainer = await sessionCookie("trainer@tidemark.example");
   admin = await sessionCookie("admin@tidemark.example");
   classId = await demoClassId();

@@ -1,8 +1,14 @@
 /** Fixtures for the class, gradebook, review and live tests. */
 import { randomUUID } from "node:crypto";
+import fs from "node:fs";
 import { db } from "~/lib/db.server";
 
 export const DEMO_CLASS = "Parapet roofs, spring cohort";
+
+/** Another test run starting on this machine empties the shared spool folder, which the SMTP fake makes only at start. */
+export function ensureSpool() {
+  if (process.env.MAIL_SPOOL_DIR) fs.mkdirSync(process.env.MAIL_SPOOL_DIR, { recursive: true });
+}
 
 export async function demoClassId(): Promise<string> {
   const row = await db()("classes").where({ name: DEMO_CLASS }).first("id");

@@ -12,7 +12,7 @@ import {
   type SortingState,
 } from "@tanstack/react-table";
 import { ArrowDown, ArrowUp, ArrowUpDown, Search } from "lucide-react";
-import { cellStatus, STATUS_LABELS, type CellStatus, type Gradebook, type GradebookRow } from "~/lib/gradebook";
+import { cellStatus, formatScore, STATUS_LABELS, type CellStatus, type Gradebook, type GradebookRow } from "~/lib/gradebook";
 import { formatDay } from "~/lib/class-form";
 import { GradeMark } from "~/components/classes/grade-mark";
 
@@ -83,7 +83,7 @@ export function GradebookTable({ book, classId }: { book: Gradebook; classId: st
               <Link
                 to={`/attempts/${cell.attemptId}/review?class=${classId}`}
                 className="-m-1 inline-block rounded p-1 hover:bg-paper-deep"
-                aria-label={`${who}, ${l.title}: ${cell.score} ${STATUS_LABELS[cellStatus(cell)]}${cell.overridden ? " (override)" : ""}. Open the review`}
+                aria-label={`${who}, ${l.title}: ${formatScore(cell.score)} ${STATUS_LABELS[cellStatus(cell)]}${cell.overridden ? " (override)" : ""}. Open the review`}
               >
                 <GradeMark cell={cell} />
                 <span className="block text-[11px] text-ink-soft">{cell.attempts} attempt{cell.attempts === 1 ? "" : "s"}</span>
@@ -171,7 +171,7 @@ export function GradebookTable({ book, classId }: { book: Gradebook; classId: st
               <tr key={row.id} className="hover:bg-paper/60">
                 {row.getVisibleCells().map((cell, i) =>
                   i === 0 ? (
-                    <th key={cell.id} scope="row" className="sticky left-0 z-[1] border-b border-rule bg-sheet px-2 py-1 text-left font-normal">
+                    <th key={cell.id} scope="row" className="sticky left-0 z-[1] border-b border-rule bg-sheet px-2 py-1 text-left text-sm font-normal normal-case tracking-normal">
                       {flexRender(cell.column.columnDef.cell, cell.getContext())}
                     </th>
                   ) : (

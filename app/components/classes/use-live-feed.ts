@@ -76,8 +76,23 @@ export function useLiveFeed(classId: string): LiveFeed {
         setFeed((f) => ({ ...f, status: "connected", seq: msg.seq, state: msg.state }));
       });
     }
+    // The browser knows the network went away before the stream notices: say so at once, and come
+    // back (with the last id, so the server catches us up) as soon as it returns.
+    const offline = () => {
+      if (stall) clearTimeout(stall);
+      restart();
+    };
+    const online = () => {
+      if (reopen) clearTimeout(reopen);
+      source?.close();
+      open();
+    };
+    window.addEventListener("offline", offline);
+    window.addEventListener("online", online);
     open();
     return () => {
+      window.removeEventListener("offline", offline);
+      window.removeEventListener("online", online);
       stopped = true;
       if (reopen) clearTimeout(reopen);
       if (stall) clearTimeout(stall);

@@ -20,9 +20,10 @@ const MIN_INTERVAL_MS = 100;
 /**
  * Sends the presenter's roof to /classes/:id/live. One request at a time; while one is on the
  * way only the newest update waits, so followers never see an older roof after a newer one.
+ * `liveSeq`: what is already live when the page opens (a presenter who reloaded).
  */
-export function useLivePublisher(classId: string) {
-  const [status, setStatus] = useState<PublishStatus>({ state: "idle", seq: null, message: null });
+export function useLivePublisher(classId: string, liveSeq: number | null = null) {
+  const [status, setStatus] = useState<PublishStatus>({ state: liveSeq === null ? "idle" : "sent", seq: liveSeq, message: null });
   const pending = useRef<LiveUpdateBody | null>(null);
   const busy = useRef(false);
   const lastSent = useRef(0);
