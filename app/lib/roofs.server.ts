@@ -121,10 +121,17 @@ export async function getRoofFor(user: SessionUser, id: string, trx: Knex = db()
   };
 }
 
+export const idempotencyKeySchema = z.string().trim().min(8).max(100).regex(/^[A-Za-z0-9_.:-]+$/);
+
+/**
+ * A new roof with its first version. With an idempotency key, a repeat of the same save (double
+ * click, retried request) returns the roof the first one made instead of a second roof.
+ */
 export async function createRoof(
   user: SessionUser,
-  input: { name: string; spec: unknown; underlay?: UnderlaySettings | null },
-): Promise<{ id: string; version: number }> {
+  input: { name: string; spec: unknown; underlay?: UnderlaySettings | null; idempotencyKey?: string | null },
+): Promise<{ id: string; version: number; repeated?: boolean }> {
+  const key = input.idempotencyKey ?? null;
   return db().transaction(async (trx) => {
     const [roof] = await trx("roofs")
       .insert({
@@ -132,8 +139,15 @@ export async function createRoof(
         name: input.name,
         spec: JSON.stringify(input.spec),
         underlay: JSON.stringify(input.underlay ?? {}),
+        idempotency_key: key,
       })
+      .onConflict(trx.raw("(owner_id, idempotency_key) where idempotency_key is not null"))
+      .ignore()
       .returning(["id", "version"]);
+    if (!roof) {
+      const first = await trx("roofs").where({ owner_id: user.id, idempotency_key: key }).first("id", "version");
+      return { id: first.id as string, version: first.version as number, repeated: true };
+    }
     await trx("roof_versions").insert({ roof_id: roof.id, version: roof.version, name: input.name, spec: JSON.stringify(input.spec), saved_by: user.id });
     return { id: roof.id as string, version: roof.version as number };
   });

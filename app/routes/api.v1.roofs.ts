@@ -1,6 +1,6 @@
 import type { Route } from "./+types/api.v1.roofs";
 import { jsonError, readJsonBody, requireApiPermission } from "~/lib/json-api.server";
-import { createRoof, listMyRoofs } from "~/lib/roofs.server";
+import { createRoof, idempotencyKeySchema, listMyRoofs } from "~/lib/roofs.server";
 import { parseRoofWrite, ROOF_BODY_LIMIT } from "~/lib/roofs-api.server";
 
 /** GET /api/v1/roofs: my saved roofs, newest first. */
@@ -9,7 +9,7 @@ export async function loader({ request }: Route.LoaderArgs) {
   return Response.json({ roofs: await listMyRoofs(user) });
 }
 
-/** POST /api/v1/roofs {name, spec} → 201 {id, version}. */
+/** POST /api/v1/roofs {name, spec} → 201 {id, version}; an Idempotency-Key header makes repeats harmless. */
 export async function action({ request }: Route.ActionArgs) {
   if (request.method !== "POST") return jsonError(405, "Use GET or POST here.", [], { Allow: "GET, POST" });
   const user = await requireApiPermission(request, "roofs:own");
@@ -17,6 +17,11 @@ export async function action({ request }: Route.ActionArgs) {
   if (!body.ok) return body.response;
   const input = parseRoofWrite(body.value, "create");
   if (!input.ok) return input.response;
-  const created = await createRoof(user, { name: input.name!, spec: input.spec });
-  return Response.json(created, { status: 201, headers: { Location: `/api/v1/roofs/${created.id}` } });
+  const rawKey = request.headers.get("idempotency-key");
+  const key = rawKey === null ? null : idempotencyKeySchema.safeParse(rawKey);
+  if (key && !key.success) return jsonError(400, "The Idempotency-Key header must be 8-100 letters, digits or -_.:", [{ path: "(header) Idempotency-Key", message: "is malformed" }]);
+  const { repeated, ...created } = await createRoof(user, { name: input.name!, spec: input.spec, idempotencyKey: key?.data });
+  const headers: Record<string, string> = { Location: `/api/v1/roofs/${created.id}` };
+  if (repeated) headers["Idempotent-Replayed"] = "true";
+  return Response.json(created, { status: 201, headers });
 }

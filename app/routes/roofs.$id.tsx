@@ -95,6 +95,8 @@ function RoofEditor({ roof, underlay: initialUnderlay, underlayUrl: initialUrl, 
   const [underlay, setUnderlayState] = useState<UnderlaySettings | null>(initialUnderlay);
   const [imageUrl, setImageUrl] = useState<string | null>(initialUrl);
   const [copyError, setCopyError] = useState<string | null>(null);
+  /** One key per "keep mine as a copy": a double click or a retry makes one copy. */
+  const copyKey = useRef<string | null>(null);
   const underlayFetcher = useFetcher<ActionData>();
   const store = useRef<SandboxStore | null>(null);
   const onStore = useCallback((s: SandboxStore | null) => {
@@ -141,9 +143,11 @@ function RoofEditor({ roof, underlay: initialUnderlay, underlayUrl: initialUrl, 
   }
   async function keepMineAsCopy() {
     setCopyError(null);
+    // getRandomValues works on plain-http hosts too, where randomUUID does not exist.
+    copyKey.current ??= Array.from(crypto.getRandomValues(new Uint8Array(16)), (b) => b.toString(16).padStart(2, "0")).join("");
     const res = await fetch("/api/v1/roofs", {
       method: "POST",
-      headers: { "Content-Type": "application/json" },
+      headers: { "Content-Type": "application/json", "Idempotency-Key": copyKey.current },
       body: JSON.stringify({ name: `${name.trim() || roof.name} (my copy)`.slice(0, 120), spec: current.current }),
     }).catch(() => null);
     const body = await res?.json().catch(() => null);

@@ -7,7 +7,7 @@ import { requirePermission } from "~/lib/auth.server";
 import { readFormCapped } from "~/lib/json-api.server";
 import { readRoofFile, ROOF_FILE_MAX_BYTES } from "~/lib/roof-file";
 import { parseRoofWrite } from "~/lib/roofs-api.server";
-import { createRoof, duplicateRoof, listMyRoofs, listSharedWithMe, restoreRoof, roofNameSchema, softDeleteRoof, updateRoof } from "~/lib/roofs.server";
+import { createRoof, duplicateRoof, idempotencyKeySchema, listMyRoofs, listSharedWithMe, restoreRoof, roofNameSchema, softDeleteRoof, updateRoof } from "~/lib/roofs.server";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
 import { RelativeTime } from "~/components/roofs/relative-time";
 
@@ -16,7 +16,7 @@ export const meta: Route.MetaFunction = () => [{ title: "My roofs · Fallwright"
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requirePermission(request, "roofs:own");
   const [mine, shared] = await Promise.all([listMyRoofs(user), listSharedWithMe(user)]);
-  return { mine, shared };
+  return { mine, shared, importKey: crypto.randomUUID() };
 }
 
 const intentSchema = z.discriminatedUnion("intent", [
@@ -67,11 +67,11 @@ export async function action({ request }: Route.ActionArgs) {
       return data<ActionResult>({ intent: "rename", id: input.id, ok: true });
     }
     case "import":
-      return importRoof(user, form.get("file"));
+      return importRoof(user, form.get("file"), form.get("idempotencyKey"));
   }
 }
 
-async function importRoof(user: Awaited<ReturnType<typeof requirePermission>>, file: FormDataEntryValue | null) {
+async function importRoof(user: Awaited<ReturnType<typeof requirePermission>>, file: FormDataEntryValue | null, idempotencyKey: FormDataEntryValue | null) {
   if (!(file instanceof File) || file.size === 0) return data<ActionResult>({ intent: "import", error: "Choose a roof file (.json) to import." }, { status: 400 });
   const envelope = readRoofFile(await file.text());
   if (!envelope.ok) return data<ActionResult>({ intent: "import", error: `${file.name}: ${envelope.message}` }, { status: 422 });
@@ -80,7 +80,8 @@ async function importRoof(user: Awaited<ReturnType<typeof requirePermission>>, f
     const body = (await checked.response.json()) as { error: { message: string } };
     return data<ActionResult>({ intent: "import", error: `${file.name}: ${body.error.message}` }, { status: 422 });
   }
-  const created = await createRoof(user, { name: checked.name!, spec: checked.spec, underlay: envelope.file.underlay ?? null });
+  const key = idempotencyKeySchema.safeParse(idempotencyKey);
+  const created = await createRoof(user, { name: checked.name!, spec: checked.spec, underlay: envelope.file.underlay ?? null, idempotencyKey: key.success ? key.data : null });
   return redirect(`/roofs/${created.id}?imported=1`);
 }
 
@@ -128,7 +129,7 @@ export default function RoofsPage({ loaderData }: Route.ComponentProps) {
         </div>
         <div className="flex flex-wrap items-start gap-3">
           <Link className="btn-primary" to="/sandbox">Draw a new roof</Link>
-          <ImportForm />
+          <ImportForm idempotencyKey={loaderData.importKey} />
         </div>
       </header>
 
@@ -294,7 +295,7 @@ function DuplicateButton({ id, name, label }: { id: string; name: string; label:
   );
 }
 
-function ImportForm() {
+function ImportForm({ idempotencyKey }: { idempotencyKey: string }) {
   const result = useActionData<ActionResult>();
   const navigation = useNavigation();
   const busy = navigation.state !== "idle" && navigation.formData?.get("intent") === "import";
@@ -302,6 +303,7 @@ function ImportForm() {
   return (
     <Form method="post" encType="multipart/form-data" className="max-w-sm">
       <input type="hidden" name="intent" value="import" />
+      <input type="hidden" name="idempotencyKey" value={idempotencyKey} />
       <label className="label" htmlFor="import-file">Import a roof file</label>
       <div className="flex gap-2">
         <input

@@ -1,5 +1,6 @@
 /**
- * POST /roofs/new (form fields `name`, `spec` as JSON text): saves the sandbox's roof to my library
+ * POST /roofs/new (form fields `name`, `spec` as JSON text, optional `idempotencyKey` so a double
+ * click saves once): saves the sandbox's roof to my library
  * and goes to it. Failures answer 400/422 with {error: {message, issues}} and what was typed, so
  * a fetcher on the sandbox can show them. A GET here just goes back to the sandbox.
  */
@@ -8,7 +9,7 @@ import type { Route } from "./+types/roofs.new";
 import { requirePermission } from "~/lib/auth.server";
 import { readFormCapped } from "~/lib/json-api.server";
 import { ROOF_BODY_LIMIT, parseRoofWrite } from "~/lib/roofs-api.server";
-import { createRoof } from "~/lib/roofs.server";
+import { createRoof, idempotencyKeySchema } from "~/lib/roofs.server";
 
 export function loader() {
   return redirect("/sandbox");
@@ -33,6 +34,7 @@ export async function action({ request }: Route.ActionArgs) {
     const body = (await input.response.json()) as { error: { message: string; issues: { path: string; message: string }[] } };
     return data({ ...body, name }, { status: input.response.status });
   }
-  const created = await createRoof(user, { name: input.name!, spec: input.spec });
+  const key = idempotencyKeySchema.safeParse(read.form.get("idempotencyKey"));
+  const created = await createRoof(user, { name: input.name!, spec: input.spec, idempotencyKey: key.success ? key.data : null });
   return redirect(`/roofs/${created.id}?saved=1`);
 }

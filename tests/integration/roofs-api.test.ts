@@ -109,6 +109,23 @@ describe("roofs JSON API: statuses", () => {
     expect((await get(id, cookie)).status).toBe(200);
   });
 
+  it("makes one roof for repeats of a save with the same Idempotency-Key", async () => {
+    const cookie = await cookieFor("designer@tidemark.example");
+    const key = { "Idempotency-Key": "copy-5b7e2c1d-0000-4000-8000-000000000001" };
+    const [first, second] = await Promise.all([post({ name: "Clicked twice", spec: SMALL_SPEC }, cookie, key), post({ name: "Clicked twice", spec: SMALL_SPEC }, cookie, key)]);
+    expect([first.status, second.status]).toEqual([201, 201]);
+    const [a, b] = [await first.json(), await second.json()];
+    expect(a.id).toBe(b.id);
+    expect([first.headers.get("idempotent-replayed"), second.headers.get("idempotent-replayed")].sort()).toEqual(["true", null].sort());
+    expect(await db()("roofs").where({ name: "Clicked twice" })).toHaveLength(1);
+    expect(await db()("roof_versions").where({ roof_id: a.id })).toHaveLength(1);
+    // The same key from another user is another user's business.
+    const other = await post({ name: "Clicked twice", spec: SMALL_SPEC }, await cookieFor("trainer@tidemark.example"), key);
+    expect((await other.json()).id).not.toBe(a.id);
+    const bad = await post({ name: "x", spec: SMALL_SPEC }, cookie, { "Idempotency-Key": "no spaces allowed" });
+    expect(bad.status).toBe(400);
+  });
+
   it("answers 405 for methods it does not serve", async () => {
     const cookie = await cookieFor("designer@tidemark.example");
     const res = await call(list.action, jsonRequest("PATCH", "/api/v1/roofs", {}, cookie));

@@ -32,6 +32,11 @@ describe("/roofs/new (the sandbox's save)", () => {
     const id = /\/roofs\/([0-9a-f-]{36})\?saved=1$/.exec(ok.headers.get("location")!)![1];
     expect(await db()("roofs").where({ id }).first()).toMatchObject({ name: "From the sandbox", version: 1 });
 
+    const twice = { name: "Double click", spec: JSON.stringify(SMALL_SPEC), idempotencyKey: "sandbox-save-0001" };
+    const [one, two] = [await call(newRoof.action, form("/roofs/new", twice, cookie)), await call(newRoof.action, form("/roofs/new", twice, cookie))];
+    expect(one.headers.get("location")).toBe(two.headers.get("location"));
+    expect(await db()("roofs").where({ name: "Double click" })).toHaveLength(1);
+
     const notJson = await call(newRoof.action, form("/roofs/new", { name: "Kept name", spec: "{oops" }, cookie));
     expect(notJson.status).toBe(400);
     expect(await notJson.json()).toMatchObject({ name: "Kept name", error: { issues: [{ path: "spec" }] } });
@@ -54,7 +59,8 @@ describe("/roofs/:id and its actions", () => {
     expect((await mine.json()).roof).toMatchObject({ id, canEdit: true, version: 1 });
 
     expect((await call(editor.loader, getRequest(`/roofs/${id}`, other), { id })).status).toBe(404);
-    for (const fields of [{ intent: "share", shared: "true" }, { intent: "restore-version", version: "1", expected: "1" }, { intent: "duplicate" }]) {
+    const attempts: Record<string, string>[] = [{ intent: "share", shared: "true" }, { intent: "restore-version", version: "1", expected: "1" }, { intent: "duplicate" }];
+    for (const fields of attempts) {
       const res = await call(editor.action, form(`/roofs/${id}`, fields, other), { id });
       expect(res.status, fields.intent).toBe(404);
     }
