@@ -58,6 +58,7 @@ const MATRIX: Record<string, Case[]> = {
     { path: "/api/v1/roofs/{uuid}", expect: s(401, 404, 404, 404, 404) },
     { path: "/api/v1/roofs/{designerRoof}", expect: s(401, 200, 200, 200, 200), why: "demo roofs are shared" },
   ],
+  "/api/v1/analyses": [{ path: "/api/v1/analyses", expect: ALL(405), why: "roofs are POSTed to be analysed; anyone may, within the per-address limit" }],
   "/api/v1/lessons": [{ path: "/api/v1/lessons", expect: ALL(200) }],
   "/api/v1/lessons/:slug": [
     { path: "/api/v1/lessons/{uuid}", expect: ALL(404) },
