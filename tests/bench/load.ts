@@ -11,7 +11,7 @@ import { benchServer, signIn, SMALL_ROOF } from "./harness.ts";
 const seconds = Number(process.env.LOAD_SECONDS ?? 60);
 const connections = Number(process.env.LOAD_CONNECTIONS ?? 50);
 
-const { server, stop } = await benchServer("fallwright_load", { ANALYSES_PER_MINUTE: "10000000" });
+const { server, stop } = await benchServer("fallwright_load", { API_RATE_LIMIT_PER_MINUTE: "10000000" });
 const base = server.url;
 try {
   const trainer = await signIn(base, "trainer@tidemark.example");

@@ -50,7 +50,6 @@ async function main() {
     TEST_TEMPLATE_URL: templateUrl,
     FALLWRIGHT_TEST: "1",
   };
-  fs.rmSync(env.MAIL_SPOOL_DIR, { recursive: true, force: true });
   const fakes = await startFakes(profile, env);
   if (fakes) children.push(fakes);
 
