@@ -154,3 +154,18 @@ test("two tabs edit one roof: one saves, the other gets the 409 banner and keeps
   await a.context.close();
   await b.context.close();
 });
+
+test("a save that cannot reach the server says so, keeps the edit and retries on its own", async ({ page }) => {
+  await signIn(page);
+  const base = `Offline ${unique()}`;
+  const id = await newRoof(page, base, RECT(8, 5));
+  await page.goto(`/roofs/${id}`);
+  await expect(page.getByTestId("save-status")).toHaveText("Saved · v1");
+  await page.route(`**/api/v1/roofs/${id}`, (route) => (route.request().method() === "PUT" ? route.abort("internetdisconnected") : route.continue()));
+  await page.getByLabel("Roof name").fill(`${base} renamed offline`);
+  await expect(page.getByTestId("save-status")).toHaveText("Offline, will retry");
+  expect((await roofJson(page, id)).name).toBe(base);
+  await page.unroute(`**/api/v1/roofs/${id}`);
+  await expect(page.getByTestId("save-status")).toHaveText("Saved · v2", { timeout: 20_000 });
+  expect((await roofJson(page, id)).name).toBe(`${base} renamed offline`);
+});
