@@ -47,3 +47,14 @@ export function formatScore(score: number): string {
   const r = Math.round(score * 10) / 10;
   return Number.isInteger(r) ? String(r) : r.toFixed(1);
 }
+
+/** A trainer's review of an attempt, as reviewsForAttempt() gives it (newest first). */
+export interface AttemptReview {
+  id: string;
+  reviewerName: string;
+  comment: string;
+  overrideScore: number | null;
+  overridePassed: boolean | null;
+  reason: string | null;
+  at: string;
+}

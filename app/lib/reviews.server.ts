@@ -6,20 +6,13 @@
 import { z } from "zod";
 import type { SessionUser } from "~/lib/auth.server";
 import { db } from "~/lib/db.server";
-import { formatScore } from "~/lib/gradebook";
+import { formatScore, type AttemptReview } from "~/lib/gradebook";
 import { getAttempt, maySeeTraineeAttempts } from "~/lib/lessons/attempts.server";
 import { sendNotice } from "~/lib/mail.server";
 import { can } from "~/lib/permissions";
 
-export interface ReviewView {
-  id: string;
-  reviewerName: string;
-  comment: string;
-  overrideScore: number | null;
-  overridePassed: boolean | null;
-  reason: string | null;
-  at: string;
-}
+/** See AttemptReview in ~/lib/gradebook (shared with the pages that show reviews). */
+export type ReviewView = AttemptReview;
 
 /** Every review of an attempt, newest first. The lessons pages show these to the trainee. */
 export async function reviewsForAttempt(attemptId: string): Promise<ReviewView[]> {

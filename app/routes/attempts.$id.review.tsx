@@ -11,7 +11,7 @@ import { Caution } from "~/components/caution";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
 import { AttemptReviews } from "~/components/classes/attempt-reviews";
 import { GradeMark } from "~/components/classes/grade-mark";
-import { GradingBreakdown } from "~/components/classes/grading-breakdown";
+import { ResultsTable, ScoreSummary } from "~/components/lessons/results";
 import { ReadOnlyRoof } from "~/components/classes/live-roof";
 import { FormError, FormNotice, SubmitButton } from "~/components/form-field";
 
@@ -86,11 +86,11 @@ export default function AttemptReview() {
       <div className="grid items-start gap-6 lg:grid-cols-2">
         <section aria-labelledby="breakdown" className="card grid content-start gap-3">
           <h2 id="breakdown" className="text-lg font-bold">Automatic grading</h2>
+          <ScoreSummary result={attempt.results} heading={grade.override ? "Automatic grade (overridden below)" : "Automatic grade"} />
           <p className="text-sm text-ink-soft">
-            {formatScore(attempt.score)}/100, {attempt.passed ? "passed" : "not passed"} (pass mark {attempt.results?.passMark ?? "—"}). Graded on the server on lesson version{" "}
-            <code className="text-xs">{attempt.lessonVersion.slice(0, 8)}</code>.
+            Graded on the server on lesson version <code className="text-xs">{attempt.lessonVersion.slice(0, 8)}</code>.
           </p>
-          <GradingBreakdown results={attempt.results} />
+          <ResultsTable result={attempt.results} />
         </section>
         <section aria-labelledby="reviews" className="card grid content-start gap-4">
           <h2 id="reviews" className="text-lg font-bold">Trainer's comments</h2>

@@ -10,7 +10,6 @@ import { Caution } from "~/components/caution";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
 import { LiveRoof } from "~/components/classes/live-roof";
 import { PublishState } from "~/components/classes/publish-state";
-import { RoofSummary } from "~/components/classes/roof-summary";
 import { useLivePublisher } from "~/components/classes/use-live-publisher";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `Present · ${data?.cls.name ?? "Class"} · Fallwright` }];
@@ -147,10 +146,7 @@ export default function Present() {
       </div>
       <main id="main" className="flex flex-1 flex-col gap-3 px-6 py-4">
         {spec ? (
-          <>
-            <RoofSummary spec={spec} className="text-lg" />
-            <LiveRoof spec={spec} version={version} onSpecChange={onSpecChange} />
-          </>
+          <LiveRoof spec={spec} version={version} onSpecChange={onSpecChange} />
         ) : (
           <p className="text-2xl">
             There are no roofs to present yet: lessons appear here once synced, and your saved roofs under <Link className="underline" to="/roofs">Roofs</Link>.

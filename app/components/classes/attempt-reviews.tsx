@@ -1,17 +1,6 @@
 import { MessageSquareText, PenLine } from "lucide-react";
-import { formatScore } from "~/lib/gradebook";
+import { formatScore, type AttemptReview } from "~/lib/gradebook";
 import { formatWhen } from "~/lib/when";
-
-/** The shape reviewsForAttempt() returns (app/lib/reviews.server.ts). */
-export interface AttemptReview {
-  id: string;
-  reviewerName: string;
-  comment: string;
-  overrideScore: number | null;
-  overridePassed: boolean | null;
-  reason: string | null;
-  at: string;
-}
 
 /**
  * Trainers' comments and grade changes on one attempt, newest first. The lessons pages can
