@@ -169,3 +169,35 @@ test("a save that cannot reach the server says so, keeps the edit and retries on
   await expect(page.getByTestId("save-status")).toHaveText("Saved · v2", { timeout: 20_000 });
   expect((await roofJson(page, id)).name).toBe(`${base} renamed offline`);
 });
+
+test("the library: search, rename inline, duplicate, delete and undo", async ({ page }) => {
+  await signIn(page, "trainee3@tidemark.example");
+  const tag = unique();
+  await newRoof(page, `Porch ${tag}`, RECT(6, 4));
+  await page.goto("/roofs");
+  await page.getByPlaceholder("Search by name").fill(tag);
+  const rows = page.locator("table").first().locator("tbody tr");
+  await expect(rows).toHaveCount(1);
+
+  await rows.first().getByRole("button", { name: /Rename/ }).click();
+  const field = page.getByLabel(`New name for Porch ${tag}`);
+  await field.fill("");
+  await field.press("Enter");
+  await expect(page.getByText("The name must not be empty.")).toBeVisible();
+  await field.fill(`Porch ${tag} renamed`);
+  await field.press("Enter");
+  await expect(page.getByRole("link", { name: `Porch ${tag} renamed` })).toBeVisible();
+
+  await rows.first().getByRole("button", { name: /Duplicate/ }).click();
+  await expect(page.getByRole("link", { name: `Porch ${tag} renamed (copy)` })).toBeVisible();
+
+  await page.getByRole("button", { name: `Delete Porch ${tag} renamed (copy)` }).click();
+  const toast = page.getByRole("status").filter({ hasText: "Deleted" });
+  await expect(toast).toContainText(`Deleted “Porch ${tag} renamed (copy)”.`);
+  await expect(page.getByRole("link", { name: `Porch ${tag} renamed (copy)` })).toHaveCount(0);
+  await toast.getByRole("button", { name: "Undo" }).click();
+  await expect(page.getByRole("link", { name: `Porch ${tag} renamed (copy)` })).toBeVisible();
+  await page.reload();
+  await page.getByPlaceholder("Search by name").fill(tag);
+  await expect(rows).toHaveCount(2);
+});
