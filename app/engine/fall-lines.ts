@@ -1,7 +1,7 @@
 import { fallFromRatio } from "./fall";
 import { nearestVertex } from "./faces";
 import type { Routing } from "./flow";
-import type { Geodesic } from "./geodesic";
+import type { Destination, Geodesic } from "./geodesic";
 import type { SurfaceMesh } from "./mesh";
 import type { PerimeterLevels } from "./perimeter";
 import type { Roof } from "./roof";
@@ -38,6 +38,7 @@ export function fallLines(
   geodesic: Geodesic,
 ): FallLine[] {
   const lines: FallLine[] = [];
+  const destinations = new Map<number, Destination>();
   for (const [sx, sy] of fallLineStarts(roof, levels)) {
     const u = sx * roof.dy - sy * roof.dx;
     const v = sx * roof.dx + sy * roof.dy;
@@ -45,14 +46,13 @@ export function fallLines(
     const id = vertex >= 0 ? routing.vertexDrain[vertex] : -1;
     const drain = routing.drains[id];
     if (!drain || drain.kind === "pit") continue;
-    const from = geodesic.fromStart(sx, sy);
-    let path;
-    if (drain.kind === "outlet") {
-      const o = roof.outlets[drain.index];
-      path = geodesic.path(sx, sy, o.x, o.y, from);
-    } else {
-      path = geodesic.pathToEdge(sx, sy, drain.index, from);
+    let to = destinations.get(id);
+    if (!to) {
+      const o = drain.kind === "outlet" ? roof.outlets[drain.index] : null;
+      to = o ? geodesic.toPoint(o.x, o.y) : geodesic.toEdge(drain.index);
+      destinations.set(id, to);
     }
+    const path = geodesic.path(sx, sy, to);
     const drop = levels.H - drain.level;
     if (!(path.length > 0) || !Number.isFinite(path.length) || drop <= 0) continue;
     const ratio = path.length / drop;

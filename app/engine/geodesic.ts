@@ -1,5 +1,3 @@
-import { locatePoint } from "./geometry/contains";
-import { nearestOnSegment, segmentsCrossProperly } from "./geometry/segments";
 import type { Roof } from "./roof";
 
 export interface GeodesicPath {
@@ -8,17 +6,31 @@ export interface GeodesicPath {
   path: [number, number][];
 }
 
+/** A drain as a destination: shortest distances to it from every reflex vertex, found once. */
+export interface Destination {
+  /** Distance from each reflex vertex to the destination inside the outline (Infinity: none). */
+  dist: Float64Array;
+  /** Next reflex vertex on the way (-1: straight to the destination's point `endX/endY`). */
+  next: Int32Array;
+  endX: Float64Array;
+  endY: Float64Array;
+  /** Where a start that sees the destination goes: the point itself, or the nearest point of the edge. */
+  reach(sx: number, sy: number): [number, number][];
+}
+
 /**
  * Shortest paths inside the outline. A shortest path in a simple polygon bends only at reflex
- * vertices, so Dijkstra over the visibility graph of {start, reflex vertices, end} finds it
- * (Lozano-Pérez & Wesley 1979). Convex outlines need no search: the straight line is inside.
+ * vertices (Lozano-Pérez & Wesley 1979), so each destination runs Dijkstra once over the
+ * visibility graph of the reflex vertices; a start then takes the reflex vertex it can see that
+ * minimises |start − vertex| + distance onwards, trying them in that order. Convex outlines need
+ * no search: the straight line is inside.
  */
 export class Geodesic {
   private readonly xs: Float64Array;
   private readonly ys: Float64Array;
   private readonly n: number;
   private readonly tol: number;
-  private readonly reflex: number[];
+  readonly reflex: number[];
   private reflexVisible: Uint8Array | null = null;
 
   constructor(private readonly roof: Roof) {
@@ -30,26 +42,59 @@ export class Geodesic {
     for (let i = 0; i < roof.n; i++) if (roof.reflex[i]) this.reflex.push(i);
   }
 
-  /** True when the segment a→b stays inside the closed outline. */
+  /** True when the segment a→b stays inside the closed outline (touching the boundary is inside). */
   visible(ax: number, ay: number, bx: number, by: number): boolean {
     if (this.roof.convex) return true;
     const { xs, ys, n, tol } = this;
-    const L = Math.hypot(bx - ax, by - ay);
+    const ex = bx - ax;
+    const ey = by - ay;
+    const L = Math.sqrt(ex * ex + ey * ey);
     if (L <= tol) return true;
-    const params = [0, 1];
+    const eps = tol * L;
+    const loX = Math.min(ax, bx) - tol, hiX = Math.max(ax, bx) + tol;
+    const loY = Math.min(ay, by) - tol, hiY = Math.max(ay, by) + tol;
+    let touches: number[] | null = null;
     for (let i = 0; i < n; i++) {
       const q = i + 1 === n ? 0 : i + 1;
-      if (segmentsCrossProperly(ax, ay, bx, by, xs[i], ys[i], xs[q], ys[q], tol * L)) return false;
-      const near = nearestOnSegment(ax, ay, bx, by, xs[i], ys[i]);
-      if (near.distance <= tol) params.push(near.s);
+      const px = xs[i], py = ys[i], qx = xs[q], qy = ys[q];
+      if ((px < loX && qx < loX) || (px > hiX && qx > hiX) || (py < loY && qy < loY) || (py > hiY && qy > hiY)) continue;
+      const o1 = ex * (py - ay) - ey * (px - ax);
+      const o2 = ex * (qy - ay) - ey * (qx - ax);
+      const fx = qx - px, fy = qy - py;
+      const o3 = fx * (ay - py) - fy * (ax - px);
+      const o4 = fx * (by - py) - fy * (bx - px);
+      const eps2 = tol * Math.sqrt(fx * fx + fy * fy);
+      if (((o1 > eps && o2 < -eps) || (o1 < -eps && o2 > eps)) && ((o3 > eps2 && o4 < -eps2) || (o3 < -eps2 && o4 > eps2))) return false;
+      // A vertex on the segment splits it: each piece is then checked on its own.
+      if (o1 <= eps && o1 >= -eps) {
+        const s = ((px - ax) * ex + (py - ay) * ey) / (L * L);
+        if (s > 0 && s < 1) (touches ??= []).push(s);
+      }
     }
-    params.sort((a, b) => a - b);
-    for (let k = 1; k < params.length; k++) {
-      if (params[k] - params[k - 1] <= 1e-9) continue;
-      const s = (params[k] + params[k - 1]) / 2;
-      if (locatePoint(xs, ys, ax + s * (bx - ax), ay + s * (by - ay), tol) < 0) return false;
+    const cuts = touches ? [0, ...touches.sort((p, q) => p - q), 1] : [0, 1];
+    for (let k = 1; k < cuts.length; k++) {
+      if (cuts[k] - cuts[k - 1] <= 1e-9) continue;
+      const s = (cuts[k] + cuts[k - 1]) / 2;
+      if (!this.insideOrOn(ax + s * ex, ay + s * ey)) return false;
     }
     return true;
+  }
+
+  /** Crossing-number test with the boundary counted inside (within tol). */
+  private insideOrOn(x: number, y: number): boolean {
+    const { xs, ys, n, tol } = this;
+    let inside = false;
+    for (let i = 0, j = n - 1; i < n; j = i++) {
+      const xi = xs[i], yi = ys[i], xj = xs[j], yj = ys[j];
+      const dx = xi - xj, dy = yi - yj;
+      const len2 = dx * dx + dy * dy;
+      let s = len2 > 0 ? ((x - xj) * dx + (y - yj) * dy) / len2 : 0;
+      s = s < 0 ? 0 : s > 1 ? 1 : s;
+      const cx = xj + s * dx - x, cy = yj + s * dy - y;
+      if (cx * cx + cy * cy <= tol * tol) return true;
+      if (yi > y !== yj > y && x < ((xj - xi) * (y - yi)) / (yj - yi) + xi) inside = !inside;
+    }
+    return inside;
   }
 
   private matrix(): Uint8Array {
@@ -67,85 +112,102 @@ export class Geodesic {
     return m;
   }
 
-  /**
-   * Distances from a start to every reflex vertex (Dijkstra), reused for many targets.
-   * Returns [distance, previous] per reflex vertex; previous -1 means straight from the start.
-   */
-  fromStart(sx: number, sy: number): { dist: Float64Array; prev: Int32Array } {
+  /** Dijkstra from a destination over the reflex vertices, given each vertex's direct leg. */
+  private destination(direct: (x: number, y: number) => [number, number] | null, reach: Destination["reach"]): Destination {
     const r = this.reflex.length;
     const dist = new Float64Array(r).fill(Infinity);
-    const prev = new Int32Array(r).fill(-1);
-    if (r === 0) return { dist, prev };
-    const m = this.matrix();
-    const done = new Uint8Array(r);
+    const next = new Int32Array(r).fill(-1);
+    const endX = new Float64Array(r);
+    const endY = new Float64Array(r);
     for (let a = 0; a < r; a++) {
       const i = this.reflex[a];
-      if (this.visible(sx, sy, this.xs[i], this.ys[i])) dist[a] = Math.hypot(this.xs[i] - sx, this.ys[i] - sy);
+      const end = direct(this.xs[i], this.ys[i]);
+      if (!end) continue;
+      dist[a] = Math.hypot(end[0] - this.xs[i], end[1] - this.ys[i]);
+      endX[a] = end[0];
+      endY[a] = end[1];
     }
-    for (let step = 0; step < r; step++) {
-      let a = -1;
-      for (let k = 0; k < r; k++) if (!done[k] && dist[k] < Infinity && (a < 0 || dist[k] < dist[a])) a = k;
-      if (a < 0) break;
-      done[a] = 1;
-      const i = this.reflex[a];
-      for (let b = 0; b < r; b++) {
-        if (done[b] || !m[a * r + b]) continue;
-        const j = this.reflex[b];
-        const d = dist[a] + Math.hypot(this.xs[j] - this.xs[i], this.ys[j] - this.ys[i]);
-        if (d < dist[b]) {
-          dist[b] = d;
-          prev[b] = a;
+    if (r > 0) {
+      const m = this.matrix();
+      const done = new Uint8Array(r);
+      for (let step = 0; step < r; step++) {
+        let a = -1;
+        for (let k = 0; k < r; k++) if (!done[k] && dist[k] < Infinity && (a < 0 || dist[k] < dist[a])) a = k;
+        if (a < 0) break;
+        done[a] = 1;
+        const i = this.reflex[a];
+        for (let b = 0; b < r; b++) {
+          if (done[b] || !m[a * r + b]) continue;
+          const j = this.reflex[b];
+          const d = dist[a] + Math.hypot(this.xs[j] - this.xs[i], this.ys[j] - this.ys[i]);
+          if (d < dist[b]) {
+            dist[b] = d;
+            next[b] = a;
+          }
         }
       }
     }
-    return { dist, prev };
+    return { dist, next, endX, endY, reach };
   }
 
-  /** Shortest path from s to t, using a start's precomputed reflex distances when given. */
-  path(sx: number, sy: number, tx: number, ty: number, from = this.fromStart(sx, sy)): GeodesicPath {
-    if (this.visible(sx, sy, tx, ty)) return { length: Math.hypot(tx - sx, ty - sy), path: [[sx, sy], [tx, ty]] };
-    let bestLen = Infinity;
-    let bestVia = -1;
-    for (let a = 0; a < this.reflex.length; a++) {
-      if (from.dist[a] === Infinity) continue;
-      const i = this.reflex[a];
-      const d = from.dist[a] + Math.hypot(tx - this.xs[i], ty - this.ys[i]);
-      if (d < bestLen && this.visible(this.xs[i], this.ys[i], tx, ty)) {
-        bestLen = d;
-        bestVia = a;
-      }
-    }
-    if (bestVia < 0) return { length: Infinity, path: [] };
-    const chain: [number, number][] = [[tx, ty]];
-    for (let a = bestVia; a >= 0; a = from.prev[a]) chain.push([this.xs[this.reflex[a]], this.ys[this.reflex[a]]]);
-    chain.push([sx, sy]);
-    return { length: bestLen, path: chain.reverse() };
+  /** A point destination (an outlet). */
+  toPoint(tx: number, ty: number): Destination {
+    return this.destination(
+      (x, y) => (this.visible(x, y, tx, ty) ? [tx, ty] : null),
+      (sx, sy) => (this.visible(sx, sy, tx, ty) ? [[sx, sy], [tx, ty]] : []),
+    );
   }
 
-  /** Shortest path from s to the nearest reachable point of internal edge e. */
-  pathToEdge(sx: number, sy: number, e: number, from = this.fromStart(sx, sy)): GeodesicPath {
+  /** An edge destination (an eaves edge): its nearest visible point, or else an end of it. */
+  toEdge(e: number): Destination {
     const q = (e + 1) % this.n;
     const ax = this.xs[e], ay = this.ys[e], bx = this.xs[q], by = this.ys[q];
-    const direct = nearestOnSegment(ax, ay, bx, by, sx, sy);
-    if (this.visible(sx, sy, direct.x, direct.y)) return { length: direct.distance, path: [[sx, sy], [direct.x, direct.y]] };
-    let best: GeodesicPath = { length: Infinity, path: [] };
-    for (let a = 0; a < this.reflex.length; a++) {
-      if (from.dist[a] === Infinity) continue;
+    const leg = (x: number, y: number): [number, number] | null => {
+      const dx = bx - ax, dy = by - ay;
+      let s = ((x - ax) * dx + (y - ay) * dy) / (dx * dx + dy * dy);
+      s = s < 0 ? 0 : s > 1 ? 1 : s;
+      const cx = ax + s * dx, cy = ay + s * dy;
+      if (this.visible(x, y, cx, cy)) return [cx, cy];
+      const da = Math.hypot(ax - x, ay - y), db = Math.hypot(bx - x, by - y);
+      const ends: [number, number][] = da <= db ? [[ax, ay], [bx, by]] : [[bx, by], [ax, ay]];
+      for (const [px, py] of ends) if (this.visible(x, y, px, py)) return [px, py];
+      return null;
+    };
+    return this.destination(leg, (sx, sy) => {
+      const end = leg(sx, sy);
+      return end ? [[sx, sy], end] : [];
+    });
+  }
+
+  /** Shortest path from s to a destination inside the outline; length Infinity when there is none. */
+  path(sx: number, sy: number, to: Destination): GeodesicPath {
+    const direct = to.reach(sx, sy);
+    if (direct.length) {
+      const [[x0, y0], [x1, y1]] = direct;
+      return { length: Math.hypot(x1 - x0, y1 - y0), path: direct };
+    }
+    const r = this.reflex.length;
+    const order: number[] = [];
+    const key = new Float64Array(r);
+    for (let a = 0; a < r; a++) {
+      if (to.dist[a] === Infinity) continue;
       const i = this.reflex[a];
-      const near = nearestOnSegment(ax, ay, bx, by, this.xs[i], this.ys[i]);
-      const d = from.dist[a] + near.distance;
-      if (d < best.length && this.visible(this.xs[i], this.ys[i], near.x, near.y)) {
-        const chain: [number, number][] = [[near.x, near.y]];
-        for (let k = a; k >= 0; k = from.prev[k]) chain.push([this.xs[this.reflex[k]], this.ys[this.reflex[k]]]);
-        chain.push([sx, sy]);
-        best = { length: d, path: chain.reverse() };
+      key[a] = Math.hypot(this.xs[i] - sx, this.ys[i] - sy) + to.dist[a];
+      order.push(a);
+    }
+    order.sort((p, q) => key[p] - key[q]);
+    for (const a of order) {
+      const i = this.reflex[a];
+      if (!this.visible(sx, sy, this.xs[i], this.ys[i])) continue;
+      const path: [number, number][] = [[sx, sy]];
+      let b = a;
+      for (let guard = 0; guard <= r && b >= 0; guard++) {
+        path.push([this.xs[this.reflex[b]], this.ys[this.reflex[b]]]);
+        if (to.next[b] < 0) path.push([to.endX[b], to.endY[b]]);
+        b = to.next[b];
       }
+      return { length: key[a], path };
     }
-    // The edge's ends, in case the nearest point hides behind a corner.
-    for (const [px, py] of [[ax, ay], [bx, by]] as const) {
-      const p = this.path(sx, sy, px, py, from);
-      if (p.length < best.length) best = p;
-    }
-    return best;
+    return { length: Infinity, path: [] };
   }
 }

@@ -1,4 +1,4 @@
-import { chordsAt } from "./chords";
+import { chordsAt, type Chord } from "./chords";
 import { perimeterLevelAt, chordLevel } from "./surface";
 import type { PerimeterLevels } from "./perimeter";
 import { toPlan, type Roof } from "./roof";
@@ -8,8 +8,8 @@ import type { Warning } from "./types";
 export const TWIST_THRESHOLD = 0.001;
 
 /** The surface as seen from one side of the line u: its chord there, else the parapet on the line. */
-function levelOnSide(roof: Roof, levels: PerimeterLevels, u: number, v: number, side: 1 | -1): number | null {
-  for (const c of chordsAt(roof, u, side)) if (v >= c.vA && v <= c.vB) return chordLevel(levels, c, v);
+function levelOnSide(roof: Roof, levels: PerimeterLevels, chords: Chord[], u: number, v: number): number | null {
+  for (const c of chords) if (v >= c.vA && v <= c.vB) return chordLevel(levels, c, v);
   return perimeterLevelAt(roof, levels, u, v, roof.tol * 1000);
 }
 
@@ -34,12 +34,14 @@ export function twistWarnings(roof: Roof, levels: PerimeterLevels, joists: Float
     const uRight = k + 1 < joists.length && joists[k + 1] > ur ? joists[k + 1] : ur + roof.spacing / 2;
     let worst = 0;
     let worstV = roof.vs[i];
+    const left = chordsAt(roof, ur, -1);
+    const right = chordsAt(roof, ur, 1);
     const samples: number[] = [roof.vs[i]];
     for (let s = 0; s <= 64; s++) samples.push(roof.vmin + ((roof.vmax - roof.vmin) * s) / 64);
-    for (const side of [1, -1] as const) for (const c of chordsAt(roof, ur, side)) samples.push(c.vA, c.vB);
+    for (const c of [...left, ...right]) samples.push(c.vA, c.vB);
     for (const v of samples) {
-      const a = levelOnSide(roof, levels, ur, v, -1);
-      const b = levelOnSide(roof, levels, ur, v, 1);
+      const a = levelOnSide(roof, levels, left, ur, v);
+      const b = levelOnSide(roof, levels, right, ur, v);
       if (a === null || b === null) continue;
       const jump = Math.abs(a - b);
       if (jump > worst) {
@@ -48,8 +50,10 @@ export function twistWarnings(roof: Roof, levels: PerimeterLevels, joists: Float
       }
     }
     if (worst <= TWIST_THRESHOLD) continue;
-    const zl = levelOnSide(roof, levels, Math.max(uLeft, roof.umin), worstV, 1);
-    const zr = levelOnSide(roof, levels, Math.min(uRight, roof.umax), worstV, -1);
+    const ul = Math.max(uLeft, roof.umin);
+    const ur2 = Math.min(uRight, roof.umax);
+    const zl = levelOnSide(roof, levels, chordsAt(roof, ul, 1), ul, worstV);
+    const zr = levelOnSide(roof, levels, chordsAt(roof, ur2, -1), ur2, worstV);
     const size = zl !== null && zr !== null ? Math.max(Math.abs(zl - zr), worst) : worst;
     warnings.push({
       code: "twist",
