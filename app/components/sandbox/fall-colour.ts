@@ -38,7 +38,7 @@ export function fallColourCss(ratio: number | null | undefined): string {
 }
 
 /** Legend ticks in 1:N: the ratios people quote, spread along the log scale. */
-export const LEGEND_TICKS = [20, 30, 40, 60, 100, 200];
+export const LEGEND_TICKS = [20, 40, 60, 100, 200];
 
 /** A CSS gradient for the legend bar, sampled finely enough to look continuous. */
 export function legendGradient(): string {

@@ -6,12 +6,12 @@ export function FallLegend({ minRatio }: { minRatio: number }) {
   const minAt = fallPosition(minRatio) * 100;
   return (
     <div className="text-xs" data-testid="fall-legend">
-      <div className="flex items-end gap-3">
-        <div className="min-w-0 flex-1">
+      <div className="flex flex-wrap items-end gap-x-3 gap-y-1">
+        <div className="min-w-48 flex-1">
           <div className="flex justify-between text-ink-soft">
-            <span>steeper</span>
-            <span>fall 1:N (log scale)</span>
-            <span>flatter</span>
+            <span>← steeper</span>
+            <span>fall 1:N</span>
+            <span>flatter →</span>
           </div>
           <div className="relative mt-0.5 h-3 rounded-sm border border-ink/40" style={{ background: legendGradient() }} aria-hidden="true">
             <div className="absolute inset-y-0 right-0 opacity-80" style={{ left: `${minAt}%`, background: "repeating-linear-gradient(135deg, #1f2933 0 2px, transparent 2px 6px)" }} />

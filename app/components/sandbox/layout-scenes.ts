@@ -21,6 +21,8 @@ export interface LayoutSurface {
   faceRatio: (number | null)[];
   /** Level at plan points (for labels), null outside. */
   levelAt: (x: number, y: number) => number | null;
+  /** Edges worth drawing as lines (the gutter's lip), x, y, level at each end. */
+  lines: [[number, number, number], [number, number, number]][];
   high: number;
   low: number;
 }
@@ -77,6 +79,7 @@ class Builder {
   positions: number[] = [];
   indices: number[] = [];
   faceRatio: (number | null)[] = [];
+  lines: LayoutSurface["lines"] = [];
 
   /** A flat-in-plan polygon with levels from z(p), triangulated by ear clipping. */
   polygon(poly: Poly, z: (p: Point) => number) {
@@ -93,6 +96,7 @@ class Builder {
     this.positions.push(p[0], p[1], bottom(p), q[0], q[1], bottom(q), q[0], q[1], top, p[0], p[1], top);
     this.indices.push(base, base + 1, base + 2, base, base + 2, base + 3);
     this.faceRatio.push(WALL_FACE, WALL_FACE);
+    this.lines.push([[p[0], p[1], top], [q[0], q[1], top]]);
   }
 
   private face(a: number, b: number, c: number) {
@@ -212,7 +216,7 @@ export function gutterSurface(spec: RoofSpec, analysis: Analysis): LayoutSurface
     low = Math.min(low, b.positions[i]);
     high = Math.max(high, b.positions[i]);
   }
-  return { positions: b.positions, indices: b.indices, faceRatio: b.faceRatio, levelAt, high, low };
+  return { positions: b.positions, indices: b.indices, faceRatio: b.faceRatio, levelAt, high, low, lines: b.lines };
 }
 
 /** The open-edge option: one plane rising at the base fall from the engine's chosen edge. */
@@ -223,7 +227,7 @@ export function openEdgeSurface(spec: RoofSpec, analysis: Analysis): LayoutSurfa
   const levelAt = (x: number, y: number) => Math.max(0, dist(line, [x, y])) * slope;
   const b = new Builder();
   b.polygon(outline, (p) => levelAt(p[0], p[1]));
-  return { positions: b.positions, indices: b.indices, faceRatio: b.faceRatio, levelAt, high: analysis.openEdge.highLevel, low: 0 };
+  return { positions: b.positions, indices: b.indices, faceRatio: b.faceRatio, levelAt, high: analysis.openEdge.highLevel, low: 0, lines: [] };
 }
 
 /** The edges of the outline, turned to eaves where the open-edge option lets water off. */

@@ -295,10 +295,10 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
               />
               {selected && <path d={d} stroke="var(--color-accent)" strokeWidth={7} strokeOpacity={0.45} vectorEffect="non-scaling-stroke" pointerEvents="none" />}
               <text
-                x={mx + nx * font * 1.6}
-                y={-(my + ny * font * 1.6)}
+                x={mx + nx * font * 1.2}
+                y={-(my + ny * font * 1.2)}
                 fontSize={font}
-                textAnchor="middle"
+                textAnchor={Math.abs(nx) < 0.5 ? "middle" : nx > 0 ? "start" : "end"}
                 dominantBaseline="middle"
                 fill="var(--color-ink-soft)"
                 pointerEvents="none"

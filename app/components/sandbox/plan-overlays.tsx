@@ -1,5 +1,6 @@
 import { memo } from "react";
 import type { Analysis } from "~/engine";
+import { sectionJoistIndex } from "./section-joist";
 import { useSandbox } from "./store";
 
 /** What the engine found, drawn on the plan: joist lines, the section joist, the longest fall line. */
@@ -8,7 +9,7 @@ export const PlanOverlays = memo(function PlanOverlays({ px }: { px: number }) {
   const stale = useSandbox((s) => s.analysedSpec !== s.spec);
   const showJoists = useSandbox((s) => s.view.showJoists);
   const highlight = useSandbox((s) => s.view.highlightFallLine);
-  const section = useSandbox((s) => (s.view.camera === "section" ? s.view.sectionJoist : -1));
+  const section = useSandbox((s) => (s.view.camera === "section" && s.analysis ? sectionJoistIndex(s.analysis.shaped.joists, s.view.sectionJoist) : -1));
   if (!analysis) return null;
   return (
     <g pointerEvents="none" opacity={stale ? 0.55 : 1}>

@@ -25,6 +25,7 @@ export interface ViewSettings {
   contourInterval: number;
   exaggeration: number;
   camera: CameraPreset;
+  /** 0-based; -1 lets the view pick the joist that drops most. */
   sectionJoist: number;
   mode: "single" | "side-by-side";
   highlightFallLine: boolean;
@@ -79,7 +80,7 @@ export const DEFAULT_VIEW: ViewSettings = {
   contourInterval: 0.02,
   exaggeration: 10,
   camera: "orbit",
-  sectionJoist: 0,
+  sectionJoist: -1,
   mode: "single",
   highlightFallLine: true,
 };

@@ -1,4 +1,5 @@
 import { RotateCcw } from "lucide-react";
+import { sectionJoistIndex } from "./section-joist";
 import { useSandbox, useSandboxStore, type CameraPreset } from "./store";
 
 const PRESETS: { id: CameraPreset; label: string }[] = [
@@ -12,6 +13,7 @@ export function ViewControls({ onReset }: { onReset: () => void }) {
   const store = useSandboxStore();
   const view = useSandbox((s) => s.view);
   const joistCount = useSandbox((s) => s.analysis?.shaped.joists.length ?? 0);
+  const joist = useSandbox((s) => (s.analysis ? sectionJoistIndex(s.analysis.shaped.joists, s.view.sectionJoist) : 0)) + 1;
   const set = store.getState().setView;
   const sideBySide = view.mode === "side-by-side";
   return (
@@ -35,9 +37,9 @@ export function ViewControls({ onReset }: { onReset: () => void }) {
       {view.camera === "section" && !sideBySide && joistCount > 0 && (
         <label className="flex items-center gap-2">
           <span>Joist</span>
-          <input type="range" min={1} max={joistCount} value={Math.min(view.sectionJoist + 1, joistCount)}
-            onChange={(e) => set({ sectionJoist: Number(e.target.value) - 1 })} aria-valuetext={`joist ${Math.min(view.sectionJoist + 1, joistCount)} of ${joistCount}`} />
-          <span className="w-14 tabular-nums">{Math.min(view.sectionJoist + 1, joistCount)} / {joistCount}</span>
+          <input type="range" min={1} max={joistCount} value={joist}
+            onChange={(e) => set({ sectionJoist: Number(e.target.value) - 1 })} aria-valuetext={`joist ${joist} of ${joistCount}`} data-testid="section-joist" />
+          <span className="w-14 tabular-nums">{joist} / {joistCount}</span>
         </label>
       )}
       <label className="flex items-center gap-2">

@@ -104,10 +104,6 @@ function Layout({ underlay, toolbarExtra }: { underlay?: Underlay; toolbarExtra?
       <div className="mt-2">
         <EngineErrorNote />
       </div>
-      <h3 className="mb-1 mt-3 text-sm font-bold uppercase tracking-wide">Outline</h3>
-      <OutlineTable />
-      <h3 className="mb-1 mt-3 text-sm font-bold uppercase tracking-wide">Outlets</h3>
-      <OutletTable />
     </Card>
   );
 
@@ -119,7 +115,7 @@ function Layout({ underlay, toolbarExtra }: { underlay?: Underlay; toolbarExtra?
       </div>
 
       {mode === "single" ? (
-        <div className="grid gap-4 lg:grid-cols-2">
+        <div className="grid gap-4 md:grid-cols-2">
           {plan}
           <Card title="Fall map" testId="fall-map-card" aside={<span className="text-xs text-ink-soft">drag to turn · wheel to zoom</span>}>
             <ViewControls onReset={resetCamera} />
@@ -174,9 +170,16 @@ function Layout({ underlay, toolbarExtra }: { underlay?: Underlay; toolbarExtra?
       )}
 
       <div className="grid items-start gap-4 lg:grid-cols-2">
-        <Card title="Falls, joists and rules" testId="inputs-card">
-          <SettingsPanel />
-        </Card>
+        <div className="grid gap-4">
+          <Card title="Outline and outlets" testId="outline-card">
+            <OutlineTable />
+            <h3 className="mb-1 mt-3 text-sm font-bold uppercase tracking-wide">Outlets</h3>
+            <OutletTable />
+          </Card>
+          <Card title="Falls, joists and rules" testId="inputs-card">
+            <SettingsPanel />
+          </Card>
+        </div>
         <Card title="Results" testId="results-card">
           <ResultsPanel />
         </Card>

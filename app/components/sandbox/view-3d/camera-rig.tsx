@@ -45,11 +45,11 @@ export function CameraRig({
   const controls = useRef<OrbitControlsImpl>(null);
   const applying = useRef(false);
   const id = useRef({});
-  const latest = useRef({ frame, height, section, drains });
-  latest.current = { frame, height, section, drains };
+  const latest = useRef({ frame, height, section, drains, link });
+  latest.current = { frame, height, section, drains, link };
 
   useEffect(() => {
-    const { frame, height, section, drains } = latest.current;
+    const { frame, height, section, drains, link } = latest.current;
     const c = controls.current;
     if (!c) return;
     // Narrow views need the camera further back to keep the whole roof in the picture.
@@ -81,7 +81,9 @@ export function CameraRig({
         }
       }
       const across = Math.hypot(ax, az);
-      position.set((ax / across) * R * 2.2, R * 1.55 + height, (az / across) * R * 2.2);
+      // Linked (side-by-side) views look down more steeply, so a narrow internal gutter is seen into.
+      const [out, up] = link ? [1.75, 2.55] : [2.35, 1.7];
+      position.set((ax / across) * R * out, R * up + height, (az / across) * R * out);
     }
     applying.current = true;
     camera.position.copy(position);

@@ -1,6 +1,7 @@
 import { useMemo } from "react";
 import type { EdgeKind, RoofSpec } from "~/engine";
 import type { LayoutSurface } from "../layout-scenes";
+import { SurfaceLine } from "./fall-line-3d";
 import { LevelLabels, type LevelLabel } from "./level-labels";
 import { OutletMarkers } from "./outlet-markers";
 import { Parapets } from "./parapets";
@@ -17,6 +18,7 @@ export function LayoutScene({
   exaggeration,
   minRatio,
   showOutlets = true,
+  note,
 }: {
   surface: LayoutSurface;
   spec: RoofSpec;
@@ -25,6 +27,8 @@ export function LayoutScene({
   exaggeration: number;
   minRatio: number;
   showOutlets?: boolean;
+  /** Text for a label on the first highlighted line (e.g. what the gutter is). */
+  note?: string;
 }) {
   const labels = useMemo(() => {
     const out: LevelLabel[] = [];
@@ -35,14 +39,22 @@ export function LayoutScene({
       });
     }
     if (showOutlets) spec.outlets.forEach((o, k) => out.push({ at: o.at, level: o.level ?? 0, kind: "outlet", name: `Outlet ${k + 1}` }));
+    const longest = [...surface.lines].sort((a, b) => Math.hypot(b[1][0] - b[0][0], b[1][1] - b[0][1]) - Math.hypot(a[1][0] - a[0][0], a[1][1] - a[0][1]))[0];
+    if (note && longest) {
+      const [p, q] = longest;
+      out.push({ at: [(p[0] + q[0]) / 2, (p[1] + q[1]) / 2], level: p[2], kind: "note", name: note, text: note });
+    }
     return out;
-  }, [surface, spec, showOutlets]);
+  }, [surface, spec, showOutlets, note]);
   return (
     <group>
       <SceneLights />
       <RoofSurface mesh={surface} frame={frame} minRatio={minRatio} exaggeration={exaggeration} />
       <Parapets outline={spec.outline} kinds={kinds} frame={frame} low={Math.min(0, surface.low)} high={surface.high} exaggeration={exaggeration} />
       {showOutlets && <OutletMarkers outlets={spec.outlets} frame={frame} exaggeration={exaggeration} />}
+      {surface.lines.map(([p, q], i) => (
+        <SurfaceLine key={i} points={[p, q]} frame={frame} exaggeration={exaggeration} color="#1f2933" width={2.5} />
+      ))}
       <LevelLabels labels={labels} frame={frame} exaggeration={exaggeration} />
     </group>
   );

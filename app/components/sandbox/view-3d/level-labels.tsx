@@ -4,8 +4,10 @@ import type { SceneFrame } from "./scene-frame";
 export interface LevelLabel {
   at: [number, number];
   level: number;
-  kind: "corner" | "outlet" | "joist";
+  kind: "corner" | "outlet" | "joist" | "note";
   name: string;
+  /** Shown instead of the level in mm (notes). */
+  text?: string;
 }
 
 /** Levels in millimetres at corners and outlets, as HTML labels (no font files fetched). */
@@ -22,11 +24,15 @@ export function LevelLabels({ labels, frame, exaggeration }: { labels: LevelLabe
         >
           <span
             className={`whitespace-nowrap rounded-sm border px-1 text-[11px] leading-4 tabular-nums shadow-sm ${
-              l.kind === "outlet" ? "border-accent-deep bg-accent text-sheet" : l.kind === "joist" ? "border-ink bg-ink text-sheet" : "border-ink/40 bg-sheet/90 text-ink"
+              l.kind === "outlet"
+                ? "border-accent-deep bg-accent text-sheet"
+                : l.kind === "joist" || l.kind === "note"
+                  ? "border-ink bg-ink text-sheet"
+                  : "border-ink/40 bg-sheet/90 text-ink"
             }`}
             title={l.name}
           >
-            {Math.round(l.level * 1000)}
+            {l.text ?? Math.round(l.level * 1000)}
           </span>
         </Html>
       ))}

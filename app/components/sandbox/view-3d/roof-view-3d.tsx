@@ -3,6 +3,7 @@ import { useEffect, useMemo, useRef } from "react";
 import { useSandbox } from "../store";
 import { CameraRig } from "./camera-rig";
 import { drainCentre, frameKey, useStableFrame } from "./scene-frame";
+import { sectionJoistIndex } from "../section-joist";
 import { sectionPose, ShapedScene } from "./shaped-scene";
 import { useAnimationAllowed } from "./use-animation-allowed";
 
@@ -25,9 +26,10 @@ export default function RoofView3D({ className = "", resetKey = 0 }: { className
   const wrapper = useRef<HTMLDivElement>(null);
   const allowed = useAnimationAllowed(wrapper);
   const frame = useStableFrame(spec?.outline);
+  const joist = analysis ? sectionJoistIndex(analysis.shaped.joists, view.sectionJoist) : -1;
   const section = useMemo(
-    () => (analysis && view.camera === "section" ? sectionPose(analysis, view.sectionJoist, frame, view.exaggeration) : null),
-    [analysis, view.camera, view.sectionJoist, frame, view.exaggeration],
+    () => (analysis && view.camera === "section" ? sectionPose(analysis, joist, frame, view.exaggeration) : null),
+    [analysis, view.camera, joist, frame, view.exaggeration],
   );
   const height = (analysis?.shaped.highLevel ?? 0) * view.exaggeration;
   const drains = useMemo(() => drainCentre(spec), [spec]);
@@ -54,7 +56,7 @@ export default function RoofView3D({ className = "", resetKey = 0 }: { className
           height={height}
           section={section?.pose ?? null}
           drains={drains}
-          resetKey={`${frameKey(frame)}|${view.camera === "section" ? view.sectionJoist : ""}|${resetKey}`}
+          resetKey={`${frameKey(frame)}|${view.camera === "section" ? joist : ""}|${resetKey}`}
         />
         <Kick on={animate} />
       </Canvas>

@@ -2,6 +2,7 @@ import { useMemo } from "react";
 import * as THREE from "three";
 import type { Analysis, RoofSpec } from "~/engine";
 import { MeshSampler } from "../mesh-sample";
+import { sectionJoistIndex } from "../section-joist";
 import { edgeKindsOf } from "../spec-edit";
 import type { ViewSettings } from "../store";
 import type { SectionPose } from "./camera-rig";
@@ -95,7 +96,7 @@ export function ShapedScene({
     return sampler.drape(line.path.length >= 2 ? line.path : [line.from, line.to], Math.max(0.1, frame.radius / 60));
   }, [analysis, sampler, frame]);
 
-  const sectionJoist = view.camera === "section" ? Math.min(view.sectionJoist, analysis.shaped.joists.length - 1) : -1;
+  const sectionJoist = view.camera === "section" ? sectionJoistIndex(analysis.shaped.joists, view.sectionJoist) : -1;
   const sectionLabels = useMemo(() => {
     const j = analysis.shaped.joists[sectionJoist];
     if (!j) return [];

@@ -99,7 +99,8 @@ function GutterPanel({ analysis, spec, exaggeration, ...rest }: LayoutPanelProps
     <Panel title="Gutter layout" figure={analysis.gutter.comparable ? `H ${mm(analysis.gutter.highLevel)}` : "not comparable"} testId="panel-gutter">
       {surface ? (
         <View label="Gutter layout in 3D" {...rest}>
-          <LayoutScene surface={surface} spec={spec} kinds={kinds} frame={rest.frame} exaggeration={exaggeration} minRatio={analysis.minFall.ratio} />
+          <LayoutScene surface={surface} spec={spec} kinds={kinds} frame={rest.frame} exaggeration={exaggeration} minRatio={analysis.minFall.ratio}
+            note={`gutter lip ${Math.round(analysis.gutter.lipLevel! * 1000)} · ${Math.round(analysis.gutter.width * 1000)} mm wide`} />
         </View>
       ) : (
         <p className="p-4 text-sm text-ink-soft">{analysis.gutter.reason ?? "No gutter layout for this roof."}</p>
