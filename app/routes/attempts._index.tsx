@@ -21,7 +21,8 @@ export async function loader({ request }: Route.LoaderArgs) {
       score: a.score,
       passed: a.passed,
       timeSpentSeconds: a.timeSpentSeconds,
-      failed: [...a.results.quiz, ...a.results.task].filter((i) => !i.passed).map((i) => i.label),
+      missedQuestions: a.results.quiz.flatMap((q, i) => (q.passed ? [] : [i + 1])),
+      missedCriteria: a.results.task.filter((i) => !i.passed).map((i) => i.label),
     })),
   };
 }
@@ -64,7 +65,13 @@ export default function MyAttempts() {
                   <td className="whitespace-nowrap">{formatWhen(a.submittedAt)}</td>
                   <td className="text-right font-medium">{Math.round(a.score * 10) / 10}</td>
                   <td className="whitespace-nowrap"><PassMark passed={a.passed} /></td>
-                  <td className="max-w-sm text-xs text-ink-soft">{a.failed.length ? a.failed.join("; ") : "nothing"}</td>
+                  <td className="max-w-sm text-xs text-ink-soft">
+                    {!a.missedQuestions.length && !a.missedCriteria.length ? "nothing" : null}
+                    {a.missedQuestions.length > 0 && <div>{a.missedQuestions.length === 1 ? "question" : "questions"} {a.missedQuestions.join(", ")}</div>}
+                    {a.missedCriteria.map((c) => (
+                      <div key={c}>{c}</div>
+                    ))}
+                  </td>
                   <td className="whitespace-nowrap text-right" title="Measured in your browser; for information only">{minutes(a.timeSpentSeconds)}</td>
                   <td><Link className="btn whitespace-nowrap" to={`/attempts/${a.id}`} aria-label={`Open the attempt at ${a.lessonTitle}, ${formatWhen(a.submittedAt)}`}>Open</Link></td>
                 </tr>

@@ -50,6 +50,8 @@ export async function action({ request, params }: Route.ActionArgs) {
   return data({ attempt: null, error: message }, { status: outcome.status });
 }
 
+const FORM_ID = "attempt-form";
+
 function useTimeSpent() {
   const started = useRef(0);
   useEffect(() => {
@@ -120,7 +122,9 @@ export default function LessonPlayer() {
         )}
       </article>
 
+      {/* The sandbox holds forms of its own, so it sits outside this one; the submit button joins it by id. */}
       <Form
+        id={FORM_ID}
         method="post"
         className="grid gap-8"
         onSubmit={() => {
@@ -144,35 +148,42 @@ export default function LessonPlayer() {
             ))}
           </ol>
         </section>
-
-        <TaskPanel slug={lesson.slug} version={lesson.version} task={lesson.task} results={graded?.task ?? null} onSpecChange={onSpecChange} />
-
-        <section className="card sticky bottom-2 z-10 grid gap-3 shadow-lg" aria-label="Submit">
-          <div ref={summaryRef}>
-            {graded && <ScoreSummary result={graded} heading={`Attempt graded on the server`} />}
-            <FormError message={result?.error} />
-          </div>
-          <div className="flex flex-wrap items-center gap-3">
-            {signedIn ? (
-              <button type="submit" className="btn-primary" disabled={submitting} aria-busy={submitting || undefined}>
-                <Send aria-hidden="true" className="h-4 w-4" />
-                {submitting ? "Checking your answers and roof…" : graded ? "Submit again" : "Submit answers and roof"}
-              </button>
-            ) : (
-              <Link className="btn-primary" to={`/login?${new URLSearchParams({ redirectTo: `/lessons/${lesson.slug}` })}`}>
-                Sign in to submit
-              </Link>
-            )}
-            {result?.attempt && (
-              <Link className="text-sm underline" to={`/attempts/${result.attempt.id}`}>
-                Open this attempt
-              </Link>
-            )}
-            <Link className="text-sm underline" to="/attempts">My attempts</Link>
-            <p className="text-xs text-ink-soft">The server checks your roof again with the roof engine and marks every answer; nothing is marked in the browser.</p>
-          </div>
-        </section>
       </Form>
+
+      <TaskPanel
+        slug={lesson.slug}
+        version={lesson.version}
+        task={lesson.task}
+        results={graded?.task ?? null}
+        onSpecChange={onSpecChange}
+        submitBar={
+          <section className="card grid gap-3 border-2 border-ink" aria-label="Submit">
+            <div ref={summaryRef}>
+              {graded && <ScoreSummary result={graded} heading="Attempt graded on the server" />}
+              <FormError message={result?.error} />
+            </div>
+            <div className="flex flex-wrap items-center gap-3">
+              {signedIn ? (
+                <button type="submit" form={FORM_ID} className="btn-primary" disabled={submitting} aria-busy={submitting || undefined}>
+                  <Send aria-hidden="true" className="h-4 w-4" />
+                  {submitting ? "Checking your answers and roof…" : graded ? "Submit again" : "Submit answers and roof"}
+                </button>
+              ) : (
+                <Link className="btn-primary" to={`/login?${new URLSearchParams({ redirectTo: `/lessons/${lesson.slug}` })}`}>
+                  Sign in to submit
+                </Link>
+              )}
+              {result?.attempt && (
+                <Link className="text-sm underline" to={`/attempts/${result.attempt.id}`}>
+                  Open this attempt
+                </Link>
+              )}
+              <Link className="text-sm underline" to="/attempts">My attempts</Link>
+              <p className="text-xs text-ink-soft">Sends your quiz answers above and the roof below. The server runs the roof engine again and marks everything; nothing is marked in the browser.</p>
+            </div>
+          </section>
+        }
+      />
       <Caution />
     </div>
   );

@@ -6,21 +6,33 @@ import { SandboxWorkspace } from "~/components/sandbox/workspace";
 
 /** The plan of a figure: fall map or catchments, flat faces hatched, outline, outlets, longest fall line. */
 function PlanSvg({ f }: { f: FigureData }) {
-  const hatch = useId().replace(/:/g, "");
+  const id = useId().replace(/[^a-zA-Z0-9_-]/g, "");
+  const hatch = `hatch${id}`;
+  const clip = `clip${id}`;
   const u = f.unit;
+  // The fall grid is drawn in cell units, so its hatch is sized in cells too.
+  const hatchSize = f.grid ? (u * 1.2) / f.grid.cell : u * 1.2;
+  const gridTransform = f.grid ? `translate(${f.grid.x} ${f.grid.y}) scale(${f.grid.cell})` : undefined;
   const label = f.view === "catchments" ? "Plan of the roof coloured by catchment, with its outlets" : "Plan of the roof coloured by fall, faces flatter than the minimum hatched, with outlets and the longest fall line";
   return (
     <svg viewBox={f.viewBox} className="h-auto max-h-[26rem] w-full" role="img" aria-label={label}>
       <defs>
-        <pattern id={hatch} width={u * 1.2} height={u * 1.2} patternUnits="userSpaceOnUse" patternTransform="rotate(45)">
-          <line x1="0" y1="0" x2="0" y2={u * 1.2} stroke="#1f2933" strokeWidth={u * 0.18} strokeOpacity="0.55" />
+        <pattern id={hatch} width={hatchSize} height={hatchSize} patternUnits="userSpaceOnUse" patternTransform="rotate(45)">
+          <line x1="0" y1="0" x2="0" y2={hatchSize} stroke="#1f2933" strokeWidth={hatchSize * 0.15} strokeOpacity="0.55" />
         </pattern>
+        <clipPath id={clip}>
+          <polygon points={f.outline} />
+        </clipPath>
       </defs>
       <polygon points={f.outline} fill="var(--color-sheet)" />
-      {f.fills.map((g) => (
-        <path key={g.fill} d={g.d} fill={g.fill} stroke={g.fill} strokeWidth={u * 0.04} />
-      ))}
-      {f.flat && <path d={f.flat} fill={`url(#${hatch})`} />}
+      <g clipPath={`url(#${clip})`}>
+        <g transform={gridTransform}>
+          {f.fills.map((g) => (
+            <path key={g.fill} d={g.d} fill={g.fill} stroke={g.fill} strokeWidth={f.grid ? 0.04 : u * 0.04} />
+          ))}
+        </g>
+        {f.flat && <path d={f.flat} fill={`url(#${hatch})`} transform={gridTransform} />}
+      </g>
       {f.edges.map((e, i) => (
         <path key={i} d={e.d} stroke="var(--color-ink)" strokeWidth={e.eaves ? u * 0.25 : u * 0.6} strokeDasharray={e.eaves ? `${u} ${u * 0.6}` : undefined} strokeLinecap="square" fill="none" />
       ))}
@@ -36,16 +48,14 @@ function PlanSvg({ f }: { f: FigureData }) {
 
 function KeyTable({ f }: { f: FigureData }) {
   return (
-    <table className="data-table w-full">
-      <tbody>
-        {f.key.map((k) => (
-          <tr key={k.label}>
-            <th scope="row" className="!normal-case !tracking-normal !text-sm !font-normal text-ink-soft">{k.label}</th>
-            <td className="font-medium">{k.value}</td>
-          </tr>
-        ))}
-      </tbody>
-    </table>
+    <dl className="grid grid-cols-[auto_1fr] gap-x-4 text-sm">
+      {f.key.map((k) => (
+        <div key={k.label} className="col-span-2 grid grid-cols-subgrid border-b border-rule py-1 last:border-b-0">
+          <dt className="text-ink-soft">{k.label}</dt>
+          <dd className="font-medium tabular-nums">{k.value}</dd>
+        </div>
+      ))}
+    </dl>
   );
 }
 

@@ -40,12 +40,15 @@ export function TaskPanel({
   task,
   results,
   onSpecChange,
+  submitBar,
 }: {
   slug: string;
   version: string;
   task: LessonView["task"];
   results: ItemResult[] | null;
   onSpecChange: (spec: RoofSpec) => void;
+  /** Shown between the goal and the sandbox, so the submit button is near the roof being shaped. */
+  submitBar: React.ReactNode;
 }) {
   const byId = new Map((results ?? []).map((r) => [r.id, r]));
   const fixed = byId.get("fixed");
@@ -55,7 +58,7 @@ export function TaskPanel({
         <p className="text-xs font-medium uppercase tracking-widest text-accent">Roof task</p>
         <h2 id="task-heading" className="text-2xl font-bold tracking-tight">{task.title}</h2>
       </div>
-      <div className="grid gap-4 lg:grid-cols-[3fr_2fr]">
+      <div className="grid items-start gap-4 lg:grid-cols-[3fr_2fr]">
         <div className={`card ${PROSE}`} dangerouslySetInnerHTML={{ __html: task.goalHtml }} />
         <div className="card grid content-start gap-3">
           <div>
@@ -86,6 +89,7 @@ export function TaskPanel({
           </details>
         </div>
       </div>
+      {submitBar}
       <SandboxWorkspace
         initialSpec={task.start}
         onSpecChange={onSpecChange}

@@ -8,9 +8,9 @@ export type { FigureData };
 // Colour-blind-safe, distinct in grey too (Okabe & Ito 2008 palette, softened for fills).
 const CATCHMENT_FILLS = ["#e69f00", "#56b4e9", "#009e73", "#f0e442", "#0072b2", "#d55e00", "#cc79a7", "#999999"];
 
-/** The fall map's own scale (shared with the sandbox), in 24 steps so faces group into few paths. */
+/** The fall map's own scale (shared with the sandbox), in 40 steps so cells group into few paths. */
 function bucketColour(ratio: number | null): string {
-  const [r, g, b] = cividis(Math.round(fallPosition(ratio) * 24) / 24);
+  const [r, g, b] = cividis(Math.round(fallPosition(ratio) * 40) / 40);
   return `rgb(${r} ${g} ${b})`;
 }
 
@@ -36,7 +36,97 @@ function keyFigures(a: Analysis, spec: RoofSpec): FigureData["key"] {
   return out;
 }
 
-/** Draws one figure. Plan views run the engine at a spacing that keeps the drawing light (the surface does not depend on it). */
+/**
+ * The fall map as a raster of small cells: the level at each cell centre comes from the engine's
+ * probes (the chord-rule surface itself), the fall from differences between neighbours. Cells
+ * just outside the outline borrow a neighbour's value; the drawing is clipped to the outline.
+ */
+function fallGrid(spec: RoofSpec, b: { minX: number; minY: number; span: number; w: number; h: number }, minRatio: number) {
+  const cell = b.span / 44;
+  const nx = Math.max(1, Math.ceil(b.w / cell));
+  const ny = Math.max(1, Math.ceil(b.h / cell));
+  const probes: [number, number][] = [];
+  for (let j = 0; j < ny; j++) for (let i = 0; i < nx; i++) probes.push([b.minX + (i + 0.5) * cell, b.minY + (j + 0.5) * cell]);
+  const levels = analyse(structuredClone({ ...spec, probes }), { traces: false, mesh: false }).shaped.probes.map((q) => q.level);
+  const z = (i: number, j: number) => (i < 0 || j < 0 || i >= nx || j >= ny ? null : levels[j * nx + i]);
+  const slope = (i: number, j: number, di: number, dj: number) => {
+    const a = z(i - di, j - dj);
+    const c = z(i + di, j + dj);
+    const m = z(i, j)!;
+    if (a != null && c != null) return (c - a) / (2 * cell);
+    if (c != null) return (c - m) / cell;
+    if (a != null) return (m - a) / cell;
+    return 0;
+  };
+  const ratio: (number | null | undefined)[] = levels.map((l, k) => {
+    if (l == null) return undefined;
+    const i = k % nx;
+    const j = Math.floor(k / nx);
+    const g = Math.hypot(slope(i, j, 1, 0), slope(i, j, 0, 1));
+    return g > 1e-9 ? 1 / g : null;
+  });
+  // One ring of cells outside the outline takes a neighbour's fall, so the clipped edge is filled.
+  const filled = ratio.map((r, k) => {
+    if (r !== undefined) return r;
+    const i = k % nx;
+    const j = Math.floor(k / nx);
+    for (const [di, dj] of [[1, 0], [-1, 0], [0, 1], [0, -1], [1, 1], [-1, -1], [1, -1], [-1, 1]]) {
+      const ii = i + di;
+      const jj = j + dj;
+      if (ii >= 0 && jj >= 0 && ii < nx && jj < ny && ratio[jj * nx + ii] !== undefined) return ratio[jj * nx + ii];
+    }
+    return undefined;
+  });
+  // Paths in cell units (the figure scales them), runs of one colour merged along each row.
+  const groups = new Map<string, string[]>();
+  const flatRuns: string[] = [];
+  const run = (i0: number, i1: number, j: number) => `M${i0} ${ny - 1 - j}h${i1 - i0}v1h${i0 - i1}z`;
+  const isFlat = (r: number | null | undefined) => r === null || (r !== undefined && r > minRatio);
+  for (let j = 0; j < ny; j++) {
+    const row = filled.slice(j * nx, (j + 1) * nx);
+    for (let i = 0; i < nx; ) {
+      if (row[i] === undefined) {
+        i++;
+        continue;
+      }
+      const fill = bucketColour(row[i]!);
+      let k = i + 1;
+      while (k < nx && row[k] !== undefined && bucketColour(row[k]!) === fill) k++;
+      (groups.get(fill) ?? groups.set(fill, []).get(fill)!).push(run(i, k, j));
+      i = k;
+    }
+    for (let i = 0; i < nx; ) {
+      if (!isFlat(row[i])) {
+        i++;
+        continue;
+      }
+      let k = i + 1;
+      while (k < nx && isFlat(row[k])) k++;
+      flatRuns.push(run(i, k, j));
+      i = k;
+    }
+  }
+  return {
+    fills: [...groups].map(([fill, ds]) => ({ fill, d: ds.join("") })),
+    flat: flatRuns.join(""),
+    grid: { x: r2(b.minX), y: r2(-(b.minY + ny * cell)), cell },
+  };
+}
+
+/** Catchments from the engine's mesh (coarsened: the surface does not depend on joist spacing). */
+function catchmentFaces(spec: RoofSpec, area: number): FigureData["fills"] {
+  const coarse: RoofSpec = { ...spec, joists: { ...spec.joists, spacing: Math.max(spec.joists?.spacing ?? 0.4, Math.sqrt(area / 300)) } };
+  const mesh = analyse(structuredClone(coarse), { traces: false }).shaped.mesh;
+  if (!mesh) return [];
+  const groups = new Map<string, string[]>();
+  for (let f = 0; f < mesh.indices.length / 3; f++) {
+    const fill = CATCHMENT_FILLS[mesh.faceDrain[f] % CATCHMENT_FILLS.length];
+    (groups.get(fill) ?? groups.set(fill, []).get(fill)!).push(tri(mesh.positions, mesh.indices[f * 3], mesh.indices[f * 3 + 1], mesh.indices[f * 3 + 2]));
+  }
+  return [...groups].map(([fill, ds]) => ({ fill, d: ds.join("") }));
+}
+
+/** Draws one figure from the engine's output; key figures come from the roof exactly as specified. */
 export function buildFigure(figure: Figure): FigureData {
   const base = { caption: figure.caption, view: figure.view, spec: figure.spec as RoofSpec };
   const parsed = parseSpec(structuredClone(figure.spec));
@@ -47,33 +137,14 @@ export function buildFigure(figure: Figure): FigureData {
   const [minX, maxX, minY, maxY] = [Math.min(...xs), Math.max(...xs), Math.min(...ys), Math.max(...ys)];
   const span = Math.max(maxX - minX, maxY - minY, 1);
   const pad = span * 0.06;
-  const planView = figure.view === "plan" || figure.view === "catchments" || figure.view === "3d";
-  const area = Math.abs(spec.outline.reduce((s, p, i) => {
-    const q = spec.outline[(i + 1) % spec.outline.length];
-    return s + p[0] * q[1] - q[0] * p[1];
-  }, 0)) / 2;
-  const drawSpec: RoofSpec = planView ? { ...spec, joists: { ...spec.joists, spacing: Math.max(spec.joists?.spacing ?? 0.4, Math.sqrt(area / 300)) } } : spec;
-  const a = analyse(structuredClone(drawSpec), { traces: false, mesh: planView });
+  const a = analyse(structuredClone(spec), { traces: false, mesh: false });
   const n = spec.outline.length;
   const kinds = spec.edges ?? [];
-
-  const fills: FigureData["fills"] = [];
+  let fills: FigureData["fills"] = [];
   let flat = "";
-  if (planView && a.shaped.mesh) {
-    const { positions: p, indices, faceRatio, faceDrain } = a.shaped.mesh;
-    const groups = new Map<string, string[]>();
-    for (let f = 0; f < indices.length / 3; f++) {
-      const d = tri(p, indices[f * 3], indices[f * 3 + 1], indices[f * 3 + 2]);
-      const ratio = faceRatio[f];
-      const fill =
-        figure.view === "catchments"
-          ? CATCHMENT_FILLS[faceDrain[f] % CATCHMENT_FILLS.length]
-          : bucketColour(ratio);
-      (groups.get(fill) ?? groups.set(fill, []).get(fill)!).push(d);
-      if (figure.view !== "catchments" && (ratio == null || ratio > a.minFall.ratio)) flat += d;
-    }
-    for (const [fill, ds] of groups) fills.push({ fill, d: ds.join("") });
-  }
+  let grid: FigureData["grid"] = null;
+  if (figure.view === "catchments") fills = catchmentFaces(spec, a.area);
+  else if (figure.view === "plan" || figure.view === "3d") ({ fills, flat, grid } = fallGrid(spec, { minX, minY, span, w: maxX - minX, h: maxY - minY }, a.minFall.ratio));
   const line = a.shaped.longestFallLine;
   return {
     ...base,
@@ -87,6 +158,7 @@ export function buildFigure(figure: Figure): FigureData {
     outlets: spec.outlets.map((o) => [r2(o.at[0]), r2(-o.at[1])]),
     fills,
     flat,
+    grid,
     longest: line ? { d: (line.path.length >= 2 ? line.path : [line.from, line.to]).map((q, i) => `${i ? "L" : "M"}${r2(q[0])} ${r2(-q[1])}`).join(""), label: `${formatRatio(line.ratio)} over ${line.length.toFixed(1)} m` } : null,
     minRatio: a.minFall.ratio,
     key: keyFigures(a, spec),
@@ -113,7 +185,7 @@ export function buildFigure(figure: Figure): FigureData {
 }
 
 function empty(base: Pick<FigureData, "caption" | "view" | "spec">): FigureData {
-  return { ...base, viewBox: "0 0 1 1", unit: 1, outline: "", edges: [], outlets: [], fills: [], flat: "", longest: null, minRatio: 100, key: [], catchments: [], intensity: 0, schedule: [], compare: null, error: null };
+  return { ...base, viewBox: "0 0 1 1", unit: 1, outline: "", edges: [], outlets: [], fills: [], flat: "", grid: null, longest: null, minRatio: 100, key: [], catchments: [], intensity: 0, schedule: [], compare: null, error: null };
 }
 
 const cache = new Map<string, FigureData>();

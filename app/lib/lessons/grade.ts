@@ -37,6 +37,9 @@ export type Answers = Record<string, string | string[]>;
 // Ratios and levels from the engine carry float noise: a roof exactly at the limit passes.
 const EPS = 1e-9;
 
+/** "0.49 kN/m^2" as people write it: "0.49 kN/m²". */
+const pretty = (text: string) => text.replace(/\^2\b/g, "²").replace(/\^3\b/g, "³");
+
 export function gradeNumeric(q: Extract<Question, { kind: "numeric" }>, given: string | undefined): Omit<ItemResult, "section" | "label"> {
   const base = { id: q.id, weight: q.weight };
   const fail = (feedback: string, measured: string | null = given ?? null) => ({ ...base, passed: false, score: 0, feedback, measured });
@@ -64,8 +67,9 @@ export function gradeNumeric(q: Extract<Question, { kind: "numeric" }>, given: s
   }
   const ok = Math.abs(got - want) <= tol + EPS * Math.max(1, Math.abs(want));
   const shown = `${Number(got.toPrecision(6))} ${expected.unit.formatUnits()}`.replace("cm / m", "%");
-  if (ok) return { ...base, passed: true, score: q.weight, feedback: `Right: ${q.answer}.${q.explanation ? ` ${q.explanation}` : ""}`, measured: shown };
-  return fail(`Not quite: you gave ${given.trim()} (${shown}); the answer is ${q.answer}.${q.explanation ? ` ${q.explanation}` : ""}`, shown);
+  const answer = pretty(q.answer);
+  if (ok) return { ...base, passed: true, score: q.weight, feedback: `Right: ${answer}.${q.explanation ? ` ${q.explanation}` : ""}`, measured: pretty(shown) };
+  return fail(`Not quite: you gave ${given.trim()}; the answer is ${answer}.${q.explanation ? ` ${q.explanation}` : ""}`, pretty(shown));
 }
 
 export function gradeRatio(q: Extract<Question, { kind: "ratio" }>, given: string | undefined): Omit<ItemResult, "section" | "label"> {
@@ -120,8 +124,8 @@ export function gradeCriterion(c: Criterion, analysis: Analysis, spec: RoofSpec)
   const slack = EPS * Math.max(1, Math.abs(c.limit));
   const passed = v != null && (kind.compare === "atMost" ? v <= c.limit + slack : v >= c.limit - slack);
   const feedback = passed
-    ? `Met: ${measured.text}.`
-    : `Not met: ${measured.text}; the goal is ${label.charAt(0).toLowerCase()}${label.slice(1)}.${c.hint ? ` ${c.hint}` : ""}`;
+    ? `Measured: ${measured.text}.`
+    : `Measured: ${measured.text}. Needed: ${label.charAt(0).toLowerCase()}${label.slice(1)}.${c.hint ? ` ${c.hint}` : ""}`;
   return { id: c.id, section: "task", label, passed, score: passed ? c.weight : 0, weight: c.weight, feedback, measured: measured.text, required: c.required || undefined };
 }
 

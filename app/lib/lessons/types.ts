@@ -17,6 +17,8 @@ export interface FigureData {
   fills: { fill: string; d: string }[];
   /** Faces flatter than the minimum fall (hatched). */
   flat: string;
+  /** When set, `fills` and `flat` are in grid cells: x, y of the grid's top-left in SVG space, cell size in metres. */
+  grid: { x: number; y: number; cell: number } | null;
   longest: { d: string; label: string } | null;
   minRatio: number;
   key: { label: string; value: string }[];

@@ -178,7 +178,7 @@ describe("criteria over the engine's outputs (each kind, boundaries at the limit
     }
     const r = grade({ kind: "highLevelAtMost", value: "90 mm" }, fakeAnalysis({ highLevel: 0.12 }));
     expect(r.measured).toBe("120 mm");
-    expect(r.feedback).toMatch(/Not met: 120 mm/);
+    expect(r.feedback).toMatch(/^Measured: 120 mm\. Needed: high level \(height budget\) at most 90 mm\./);
   });
 
   it("heightSavedAtLeast: at least the limit; no comparison fails with the reason", () => {
