@@ -12,7 +12,8 @@ import type { FallLine, Point } from "./types";
  * with H above the drains), so each step costs one pass over the drains, not a re-analysis.
  */
 export function minimumBaseFall(spans: DrainSpan[], lines: FallLine[], minFallRatio: number) {
-  if (spans.length === 0) return null;
+  // No fall lines, no constraint to meet: there is nothing to advise.
+  if (spans.length === 0 || lines.length === 0) return null;
   const needed = (slope: number) => {
     const H = highLevelFor(spans, slope);
     for (const l of lines) if ((H - l.drainLevel) * minFallRatio < l.length) return false;

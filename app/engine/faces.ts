@@ -46,12 +46,15 @@ export function nearestVertex(mesh: SurfaceMesh, u: number, v: number): number {
       if (mesh.v[mid] <= v) a = mid;
       else b = mid;
     }
-    for (const k of [a, b]) {
-      const d = (mesh.u[k] - u) ** 2 + (mesh.v[k] - v) ** 2;
-      if (d < bestD) {
-        bestD = d;
-        best = k;
-      }
+    const da = (mesh.u[a] - u) ** 2 + (mesh.v[a] - v) ** 2;
+    const db = (mesh.u[b] - u) ** 2 + (mesh.v[b] - v) ** 2;
+    if (da < bestD) {
+      bestD = da;
+      best = a;
+    }
+    if (db < bestD) {
+      bestD = db;
+      best = b;
     }
   }
   return best;

@@ -22,7 +22,7 @@ export function drainLabel(roof: Roof, routing: Routing, id: number): string {
 }
 
 /** Total points kept across all traces; long traces keep every k-th vertex. */
-export const MAX_TRACE_POINTS = 20_000;
+export const MAX_TRACE_POINTS = 8_000;
 
 /**
  * Flow traces by steepest descent on the mesh (ROOF-METHOD.md §7) from a seed grid: each follows
@@ -52,6 +52,7 @@ export function flowTraces(roof: Roof, mesh: SurfaceMesh, routing: Routing): Flo
     const u = mesh.u[y], v = mesh.v[y];
     points.push(ox + u * dy + v * dx, oy - u * dx + v * dy, mesh.z[y]);
   };
+  const labels = routing.drains.map((_, id) => drainLabel(roof, routing, id));
   for (const x of seeds) {
     starts.push(points.length / 3);
     let y = x;
@@ -60,7 +61,7 @@ export function flowTraces(roof: Roof, mesh: SurfaceMesh, routing: Routing): Flo
       if (receiver[y] < 0) break;
       y = receiver[y];
     }
-    ends.push(drainLabel(roof, routing, vertexDrain[y]));
+    ends.push(labels[vertexDrain[y]] ?? "none");
   }
   starts.push(points.length / 3);
   return { points, starts, ends };
