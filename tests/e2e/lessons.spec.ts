@@ -1,0 +1,80 @@
+import { expect, test, type Page } from "@playwright/test";
+
+// Issue 6, "What it must show": a trainee signs in, passes one quiz, fails then passes a roof task
+// by moving an outlet, and sees both attempts with their feedback.
+const LESSON = { slug: "outlets-and-overflows", title: "Outlets, overflows and scuppers" };
+
+async function signIn(page: Page, email: string) {
+  await page.goto(`/login?redirectTo=${encodeURIComponent(`/lessons/${LESSON.slug}`)}`);
+  await page.getByLabel("E-mail").fill(email);
+  await page.getByLabel("Password").fill("fallwright-demo");
+  await page.getByRole("button", { name: "Sign in" }).click();
+  await expect(page).toHaveURL(new RegExp(`/lessons/${LESSON.slug}$`));
+}
+
+test("a trainee passes the quiz, fails the roof task, moves the outlet and passes; both attempts are kept with their feedback", async ({ page }) => {
+  test.setTimeout(120_000);
+  await signIn(page, "trainee@tidemark.example");
+  await expect(page.getByRole("heading", { level: 1, name: LESSON.title })).toBeVisible();
+  // The lesson's figures are drawn by the app from the engine's output.
+  await expect(page.getByTestId("roof-figure").first().getByRole("img")).toBeVisible();
+
+  // The quiz, answered right in mixed units: 4 inches is within 1 mm of 102 mm.
+  await page.getByTestId("question-scupper-min").getByRole("textbox").fill("4 in");
+  await page.getByTestId("question-weir-flow").getByRole("textbox").fill("0.0039 m^3/s");
+  await page.getByLabel("At least the design flow of the outlet it backs up.").check();
+  for (const option of ["Its membrane laps and corners sit in water for long periods.", "Leaves and grit settle in it and block the outlet.", "The water it holds is an extra load on the structure."]) {
+    await page.getByLabel(option).check();
+  }
+
+  // First submit with the roof as given: the outlet sits in the corner.
+  await expect(page.getByTestId("sandbox-workspace")).toBeVisible();
+  await page.getByRole("button", { name: "Submit answers and roof" }).click();
+  const summary = page.getByTestId("score-summary");
+  await expect(summary).toContainText("Not passed");
+  await expect(summary).toContainText("Quiz: 4 of 4 right");
+  for (const id of ["scupper-min", "weir-flow", "overflow-size", "sump-risks"]) {
+    await expect(page.getByTestId(`feedback-quiz-${id}`)).toContainText("Right");
+  }
+  const fallLine = page.getByTestId("feedback-task-fall-line");
+  await expect(fallLine).toContainText("Not met");
+  // Hand check (ROOF-METHOD.md §3, §7): H = 9 m / 60 = 150 mm; the far corner is 20.12 m away → 1:134.2.
+  await expect(fallLine).toContainText("1:134.2 over 20.1 m");
+  // 4 quiz points + 0 of 3 + 1 + 1 task points = 6 of 9.
+  await expect(summary).toContainText("66.7");
+
+  // Move the outlet to the middle of the front parapet with the outlet table, and submit again.
+  const x = page.getByLabel("Outlet 1 x");
+  await x.fill("9");
+  await x.press("Tab");
+  await expect(page.getByTestId("sandbox-workspace")).toContainText("1:84.9");
+  await page.getByRole("button", { name: "Submit again" }).click();
+  await expect(summary).toContainText("Passed");
+  await expect(summary).toContainText("100");
+  await expect(fallLine).toContainText("Met");
+  await expect(fallLine).toContainText("1:84.9 over 12.7 m");
+
+  // Both attempts are listed, newest first, with what was not met.
+  await page.getByRole("link", { name: "My attempts" }).first().click();
+  await expect(page).toHaveURL(/\/attempts$/);
+  const rows = page.getByTestId("attempts-table").getByRole("row").filter({ hasText: LESSON.title });
+  await expect(rows).toHaveCount(2);
+  await expect(rows.nth(0)).toContainText("Passed");
+  await expect(rows.nth(0)).toContainText("nothing");
+  await expect(rows.nth(1)).toContainText("Not passed");
+  await expect(rows.nth(1)).toContainText("Longest fall line no flatter than 1:100");
+
+  // The failed attempt reopens with its feedback and its roof in the read-only sandbox.
+  await rows.nth(1).getByRole("link", { name: /^Open the attempt/ }).click();
+  await expect(page).toHaveURL(/\/attempts\/[0-9a-f-]{36}$/);
+  await expect(page.getByTestId("score-summary")).toContainText("Not passed");
+  await expect(page.getByRole("row", { name: /Longest fall line no flatter than 1:100/ })).toContainText("Measured: 1:134.2 over 20.1 m");
+  await expect(page.getByTestId("sandbox-workspace")).toContainText("view only");
+});
+
+test("anonymous visitors can read a lesson but are sent to sign in to submit", async ({ page }) => {
+  await page.goto(`/lessons/${LESSON.slug}`);
+  await expect(page.getByRole("heading", { level: 1, name: LESSON.title })).toBeVisible();
+  await page.getByRole("link", { name: "Sign in to submit" }).click();
+  await expect(page).toHaveURL(new RegExp(`/login\\?redirectTo=%2Flessons%2F${LESSON.slug}`));
+});
