@@ -9,6 +9,7 @@ import { GeneralErrorBoundary } from "~/components/error-boundary";
 import { FallRatio } from "~/components/sandbox/fall-ratio";
 import { area, fallDetail, flow, formatRatio, metres, mm, point } from "~/components/sandbox/format";
 import { PlanDrawing } from "~/components/sandbox/plan-drawing";
+import { citation, RULE_KEY_NAMES } from "~/components/sandbox/rule-keys";
 import { runAnalysis } from "~/components/sandbox/run-analysis";
 import { scheduleRows } from "~/components/sandbox/schedule-rows";
 import { SHEET_SESSION_KEY } from "~/components/sandbox/sheet-link";
@@ -107,7 +108,7 @@ function SheetBody({ spec, analysis }: { spec: RoofSpec; analysis: Analysis }) {
     ["Open edge (edge " + (openEdge.edge + 1) + ") high level", mm(openEdge.highLevel)],
   ];
   return (
-    <article className="mx-auto max-w-4xl bg-sheet p-6 shadow-[2px_2px_0_0_var(--color-rule)] print:max-w-none print:p-0 print:shadow-none" data-testid="check-sheet">
+    <article className="mx-auto max-w-4xl bg-sheet p-6 shadow-[2px_2px_0_0_var(--color-rule)] print:max-w-none print:bg-white print:p-0 print:shadow-none" data-testid="check-sheet">
       <style>{PRINT_CSS}</style>
       <header className="flex flex-wrap items-start justify-between gap-3 border-b-2 border-ink pb-2">
         <div>
@@ -206,9 +207,7 @@ function SheetBody({ spec, analysis }: { spec: RoofSpec; analysis: Analysis }) {
         <ul className="mt-1 list-disc pl-5 text-sm">
           {analysis.ruleSet.used.map((u) => (
             <li key={u.key}>
-              {u.key}: {u.unit === "ratio" ? `${formatRatio(u.value)} (${fallDetail(u.value)})` : u.unit === "m" ? `${Math.round(u.value * 1000)} mm` : `× ${u.value}`}, {u.document}
-              {u.clause ? `, ${u.clause}` : ""}
-              {u.confidence === "common practice" ? " (common practice, no source)" : ""}
+              {RULE_KEY_NAMES[u.key] ?? u.key}: {u.unit === "ratio" ? `${formatRatio(u.value)} (${fallDetail(u.value)})` : u.unit === "m" ? `${Math.round(u.value * 1000)} mm` : `× ${u.value}`}, {citation(u)}
             </li>
           ))}
         </ul>

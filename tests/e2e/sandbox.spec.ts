@@ -93,6 +93,25 @@ test("sandbox: edit by keyboard and table, place an outlet on an edge, the 3D vi
   await drawnShare(page, "view-3d");
 });
 
+test("sandbox: dragging a corner snaps to the grid, carries the outlet on its edge, and undoes in one step", async ({ page }) => {
+  await openSandbox(page);
+  const edge = (await page.getByTestId("edge-0").boundingBox())!;
+  const perMetre = edge.width / 12;
+  const corner = (await page.getByTestId("vertex-1").boundingBox())!;
+  const [x, y] = [corner.x + corner.width / 2, corner.y + corner.height / 2];
+  await page.mouse.move(x, y);
+  await page.mouse.down();
+  for (let i = 1; i <= 8; i++) await page.mouse.move(x + (2.07 * perMetre * i) / 8, y + 0.04 * perMetre);
+  await page.mouse.up();
+  // 2.07 m right and a hair down lands on the 250 mm grid at (14, 0); the outlet stays half-way along.
+  await expect(page.getByTestId("vertex-1-x")).toHaveValue("14");
+  await expect(page.getByTestId("vertex-1-y")).toHaveValue("0");
+  await expect(page.getByTestId("outlet-table").locator("tbody tr").first().locator("input").first()).toHaveValue("7");
+  await page.getByTestId("undo").click();
+  await expect(page.getByTestId("vertex-1-x")).toHaveValue("12");
+  await expect(page.getByTestId("undo")).toBeDisabled();
+});
+
 test("sandbox: the drop schedule downloads as CSV with the levels of the demo roof", async ({ page }) => {
   await openSandbox(page);
   const [download] = await Promise.all([page.waitForEvent("download"), page.getByTestId("download-csv").click()]);

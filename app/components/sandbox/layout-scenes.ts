@@ -1,6 +1,6 @@
 import { ShapeUtils, Vector2 } from "three";
 import type { Analysis, Point, RoofSpec } from "~/engine";
-import { attachOutlet, edgeEnds, edgeKindsOf, edgeLength } from "./spec-edit";
+import { attachOutlet, edgeEnds, edgeKindsOf, edgeLength, signedArea } from "./spec-edit";
 
 /**
  * Surfaces for the two layouts the side-by-side compares with the shaped roof. The engine gives
@@ -32,16 +32,6 @@ type Line = { nx: number; ny: number; c: number };
 /** Marks a vertical face (a gutter side): it has no fall and is drawn in a neutral colour. */
 export const WALL_FACE = -1;
 type Poly = Point[];
-
-function signedArea(poly: Poly) {
-  let a = 0;
-  for (let i = 0; i < poly.length; i++) {
-    const p = poly[i];
-    const q = poly[(i + 1) % poly.length];
-    a += p[0] * q[1] - q[0] * p[1];
-  }
-  return a / 2;
-}
 
 /** Sutherland–Hodgman: the part of a polygon where f(p) >= 0, f linear in the plane. */
 export function clipPolygon(poly: Poly, f: (p: Point) => number): Poly {

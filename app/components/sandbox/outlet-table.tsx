@@ -36,7 +36,7 @@ export function OutletTable() {
         <tbody>
           {spec.outlets.map((o, k) => (
             <tr key={k} className={selection?.kind === "outlet" && selection.index === k ? "bg-accent-wash" : undefined}>
-              <th scope="row" className="text-sm font-medium">O{k + 1}</th>
+              <th scope="row" className="border-b border-rule text-sm font-medium normal-case">O{k + 1}</th>
               <td className="w-24">
                 <NumberField compact label={`Outlet ${k + 1} x`} value={o.at[0]} disabled={readOnly} min={-1e6} max={1e6}
                   onCommit={(v) => v != null && edit((s) => setOutlet(s, k, { at: [v, s.outlets[k].at[1]] }))} />

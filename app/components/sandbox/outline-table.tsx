@@ -40,7 +40,7 @@ export function OutlineTable() {
               (selection?.kind === "vertex" && selection.index === i) || (selection?.kind === "edge" && selection.index === i);
             return (
               <tr key={i} className={selected ? "bg-accent-wash" : undefined}>
-                <th scope="row" className="w-8 text-sm font-medium">{i + 1}</th>
+                <th scope="row" className="w-8 border-b border-rule text-sm font-medium normal-case">{i + 1}</th>
                 <td className="w-24">
                   <NumberField compact label={`Vertex ${i + 1} x`} value={p[0]} min={-1e6} max={1e6} disabled={readOnly}
                     onCommit={(v) => v != null && edit((s) => moveVertex(s, i, [v, s.outline[i][1]]))} testId={`vertex-${i}-x`} />
@@ -54,7 +54,7 @@ export function OutlineTable() {
                   <select id={`edge-kind-${i}`} className="field px-1.5 py-1" value={kinds[i]} disabled={readOnly}
                     onChange={(e) => changeKind(i, e.target.value as EdgeKind)}>
                     <option value="parapet">parapet</option>
-                    <option value="eaves">eaves (open)</option>
+                    <option value="eaves">eaves</option>
                   </select>
                 </td>
                 <td className="whitespace-nowrap text-ink-soft">{edgeLength(spec.outline, i).toFixed(2)} m</td>

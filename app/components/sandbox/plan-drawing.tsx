@@ -1,7 +1,7 @@
 import { useMemo } from "react";
 import type { Analysis, RoofSpec } from "~/engine";
 import { MeshSampler } from "./mesh-sample";
-import { bounds, edgeKindsOf } from "./spec-edit";
+import { bounds, edgeKindsOf, signedArea } from "./spec-edit";
 
 /**
  * A still plan of the roof for print: outline (parapets solid, eaves dashed), joist lines, the
@@ -16,12 +16,7 @@ export function PlanDrawing({ spec, analysis, className = "" }: { spec: RoofSpec
   const kinds = edgeKindsOf(spec);
   const sampler = useMemo(() => (analysis.shaped.mesh ? new MeshSampler(analysis.shaped.mesh) : null), [analysis]);
   const n = spec.outline.length;
-  let area2 = 0;
-  spec.outline.forEach((p, i) => {
-    const q = spec.outline[(i + 1) % n];
-    area2 += p[0] * q[1] - q[0] * p[1];
-  });
-  const out = area2 > 0 ? 1 : -1;
+  const out = signedArea(spec.outline) > 0 ? 1 : -1;
   const joists = analysis.shaped.joists.flatMap((j) => j.spans.map((s) => `M${s.start[0]} ${-s.start[1]}L${s.end[0]} ${-s.end[1]}`)).join("");
   const line = analysis.shaped.longestFallLine;
   const linePath = line ? (line.path.length >= 2 ? line.path : [line.from, line.to]).map((p, i) => `${i ? "L" : "M"}${p[0]} ${-p[1]}`).join("") : "";

@@ -17,6 +17,7 @@ import {
   placeOutlet,
   projectOnSegment,
   setEdgeKind,
+  signedArea,
 } from "./spec-edit";
 import { useSandbox, useSandboxStore } from "./store";
 import type { Underlay } from "./underlay";
@@ -410,16 +411,6 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
       </p>
     </div>
   );
-}
-
-function signedArea(outline: Point[]) {
-  let a = 0;
-  for (let i = 0; i < outline.length; i++) {
-    const p = outline[i];
-    const q = outline[(i + 1) % outline.length];
-    a += p[0] * q[1] - q[0] * p[1];
-  }
-  return a / 2;
 }
 
 function nearestParapetEdge(outline: Point[], kinds: string[], p: Point): number {

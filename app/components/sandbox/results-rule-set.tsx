@@ -2,18 +2,8 @@ import type { Analysis } from "~/engine";
 import { FallRatio } from "./fall-ratio";
 import { ResultsSection } from "./results-section";
 import { useSandbox } from "./store";
+import { citation, RULE_KEY_NAMES } from "./rule-keys";
 
-const KEY_NAMES: Record<string, string> = {
-  fieldFall: "field fall, at least",
-  fallLine: "fall lines, at least",
-  gutterFall: "gutter sole fall",
-  gutterWidth: "gutter width",
-  gutterDepth: "gutter depth at high end",
-  sumpDepth: "sump depth",
-  overflowOpening: "overflow opening",
-  pondingCheckBelow: "ponding check below",
-  gutterRainfallFactor: "gutter rainfall factor",
-};
 
 /** The rule set the results used, value by value, each with its document and clause. */
 export function RuleSetSources({ analysis }: { analysis: Analysis }) {
@@ -33,12 +23,12 @@ export function RuleSetSources({ analysis }: { analysis: Analysis }) {
         <tbody>
           {ruleSet.used.map((u) => (
             <tr key={u.key}>
-              <td>{KEY_NAMES[u.key] ?? u.key}</td>
+              <td>{RULE_KEY_NAMES[u.key] ?? u.key}</td>
               <td className="whitespace-nowrap">
                 {u.unit === "ratio" ? <FallRatio ratio={u.value} /> : u.unit === "m" ? `${Math.round(u.value * 1000)} mm` : `× ${u.value}`}
               </td>
               <td className="text-xs">
-                {u.confidence === "common practice" ? "Common practice, no source" : `${u.document}${u.clause ? `, ${u.clause}` : ""}`}
+                {citation(u)}
                 {u.ruleSet !== ruleSet.id ? " (not in this set: common practice used)" : ""}
                 {u.note && <span className="block text-ink-soft">{u.note}</span>}
               </td>

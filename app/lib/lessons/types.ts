@@ -30,15 +30,8 @@ export interface FigureData {
 }
 
 /** What the browser may see of a lesson: no answers, no explanations, no reference roof. */
-export interface LessonView {
-  slug: string;
-  title: string;
-  summary: string;
-  minutes: number;
-  position: number;
-  version: string;
+export interface LessonView extends LessonSummary {
   objectives: string[];
-  passMark: number;
   blocks: ({ type: "html"; html: string } | { type: "caution"; html: string } | { type: "roof"; figure: FigureData })[];
   quiz: {
     id: string;
@@ -59,6 +52,7 @@ export interface LessonView {
   };
 }
 
+/** A lesson's line in the course list. */
 export interface LessonSummary {
   slug: string;
   title: string;

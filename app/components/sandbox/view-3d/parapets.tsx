@@ -1,6 +1,7 @@
 import { useEffect, useMemo } from "react";
 import * as THREE from "three";
 import type { EdgeKind, Point } from "~/engine";
+import { signedArea } from "../spec-edit";
 import type { SceneFrame } from "./scene-frame";
 
 type V3 = [number, number, number];
@@ -32,13 +33,7 @@ export function Parapets({
 }) {
   const { walls, spouting } = useMemo(() => {
     const n = outline.length;
-    let area = 0;
-    for (let i = 0; i < n; i++) {
-      const p = outline[i];
-      const q = outline[(i + 1) % n];
-      area += p[0] * q[1] - q[0] * p[1];
-    }
-    const sign = area > 0 ? 1 : -1;
+    const sign = signedArea(outline) > 0 ? 1 : -1;
     const t = Math.max(0.08, frame.radius * 0.018);
     const top = high * exaggeration + Math.max(0.12, frame.radius * 0.045);
     const bottom = low * exaggeration - Math.max(0.05, frame.radius * 0.02);

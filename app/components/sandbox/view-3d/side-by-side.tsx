@@ -15,11 +15,11 @@ import { useAnimationAllowed } from "./use-animation-allowed";
 function Panel({ title, figure, children, testId }: { title: string; figure: string; children: React.ReactNode; testId: string }) {
   return (
     <figure className="flex min-w-0 flex-col overflow-hidden rounded border border-rule bg-sheet" data-testid={testId}>
-      <figcaption className="flex items-baseline justify-between gap-2 border-b border-rule px-3 py-1.5">
+      <figcaption className="flex flex-wrap items-baseline justify-between gap-x-2 border-b border-rule px-3 py-1.5">
         <span className="text-sm font-bold">{title}</span>
         <span className="text-sm tabular-nums text-ink-soft">{figure}</span>
       </figcaption>
-      <div className="h-64 lg:h-80">{children}</div>
+      <div className="h-64 md:h-56 lg:h-80">{children}</div>
     </figure>
   );
 }
@@ -68,7 +68,7 @@ export default function SideBySide({ resetKey = 0 }: { resetKey?: number }) {
   const key = `${frameKey(frame)}|${resetKey}`;
   const drains = drainCentre(spec);
   return (
-    <div ref={wrapper} className="grid gap-3 lg:grid-cols-3" data-testid="side-by-side">
+    <div ref={wrapper} className="grid gap-3 md:grid-cols-3" data-testid="side-by-side">
       <Panel title="Shaped roof" figure={`H ${mm(analysis.shaped.highLevel)}`} testId="panel-shaped">
         <View label="Shaped roof in 3D" frame={frame} height={height} link={link} preset={preset} resetKey={key} drains={drains}>
           <ShapedScene analysis={analysis} spec={spec} frame={frame} view={{ ...view, camera: "orbit" }} animate={view.showWater && allowed} section={null} />
