@@ -3,22 +3,23 @@ import { dropSchedule, joistPositions } from "./joists";
 import { edgeFalls } from "./edge-falls";
 import { formatRatio } from "./fall";
 import { fallLines } from "./fall-lines";
-import { DEFAULT_BAND_EDGES, fallMap, ratioOfSlope } from "./fall-map";
+import { DEFAULT_BAND_EDGES, fallMap } from "./fall-map";
 import { faceData } from "./faces";
 import { routeWater } from "./flow";
 import { Geodesic } from "./geodesic";
 import { gutterLayout, openEdgeOption } from "./gutter";
 import { drainSpans, highLevelFor } from "./high-level";
-import { designFlow, DESIGN_HEAD, outletCapacity } from "./hydraulics";
-import { buildMesh, type SurfaceMesh } from "./mesh";
+import { catchmentsOf } from "./catchments";
+import { buildMesh } from "./mesh";
+import { meshArrays, meshBuffers } from "./mesh-out";
 import { perimeterLevels } from "./perimeter";
 import { prepareRoof } from "./prepare";
-import { toFrame, toPlan, type Roof } from "./roof";
+import { toFrame, type Roof } from "./roof";
 import { RULE_SETS, ruleValue } from "./rule-sets";
 import { levelAt } from "./surface";
-import { drainLabel, flowTraces } from "./traces";
+import { flowTraces } from "./traces";
 import { twistWarnings } from "./twist";
-import type { Analysis, Catchment, FallLine, Mesh, MeshBuffers, RoofSpec, Warning } from "./types";
+import type { Analysis, FallLine, RoofSpec, Warning } from "./types";
 
 export interface AnalyseOptions {
   /**
@@ -106,36 +107,7 @@ export function analyseRoof(roof: Roof, options: AnalyseOptions = {}): Analysis 
     });
   }
 
-  const catchments: Catchment[] = [];
-  const ponding: Analysis["shaped"]["ponding"] = [];
-  routing.drains.forEach((d, id) => {
-    const area = routing.drainArea[id];
-    if (d.kind === "pit") {
-      if (area > 0) ponding.push({ at: toPlan(roof, mesh.u[d.vertex], mesh.v[d.vertex]), area, level: d.level });
-      return;
-    }
-    const flow = designFlow(roof.rainfall.intensity, area);
-    const c: Catchment = {
-      drain: drainLabel(roof, routing, id),
-      kind: d.kind,
-      index: d.kind === "eaves" ? roof.userEdge[d.index] : d.index,
-      label: d.kind === "eaves" ? `Eaves edge ${roof.userEdge[d.index] + 1}` : `Outlet ${d.index + 1}`,
-      area,
-      flow,
-    };
-    if (d.kind === "outlet") {
-      const o = roof.outlets[d.index];
-      c.capacity = outletCapacity(o.size);
-      if (flow > c.capacity) {
-        warnings.push({
-          code: "outlet-capacity",
-          message: `Outlet ${d.index + 1} (${mm(o.size)}) takes ${flow.toFixed(1)} L/s, more than the ${c.capacity.toFixed(1)} L/s it passes at a ${mm(DESIGN_HEAD)} head (assumed). Use a larger outlet or add one.`,
-          at: toPlan(roof, o.u, o.v),
-        });
-      }
-    }
-    catchments.push(c);
-  });
+  const { catchments, ponding } = catchmentsOf(roof, mesh, routing, warnings);
   if (ponding.length) {
     const total = ponding.reduce((s, p) => s + p.area, 0);
     warnings.push({
@@ -188,7 +160,7 @@ export function analyseRoof(roof: Roof, options: AnalyseOptions = {}): Analysis 
     probes,
   };
   if (options.mesh === "typed") shaped.meshBuffers = meshBuffers(roof, mesh, faces.slope, routing.faceDrain);
-  else if (options.mesh !== false) shaped.mesh = meshOut(roof, mesh, faces.slope, routing.faceDrain);
+  else if (options.mesh !== false) shaped.mesh = meshArrays(roof, mesh, faces.slope, routing.faceDrain);
   if (options.traces !== false) shaped.flowTraces = flowTraces(roof, mesh, routing);
 
   return {
@@ -210,49 +182,6 @@ export function analyseRoof(roof: Roof, options: AnalyseOptions = {}): Analysis 
     ruleSet: { id: roof.ruleSet, name: RULE_SETS[roof.ruleSet].name, used: roof.used },
     area: roof.area,
   };
-}
-
-function meshOut(roof: Roof, mesh: SurfaceMesh, slope: Float64Array, faceDrain: Int32Array): Mesh {
-  const V = mesh.vertexCount;
-  const positions = new Array<number>(3 * V);
-  const { dx, dy, ox, oy } = roof;
-  for (let i = 0; i < V; i++) {
-    const u = mesh.u[i];
-    const v = mesh.v[i];
-    positions[3 * i] = ox + u * dy + v * dx;
-    positions[3 * i + 1] = oy - u * dx + v * dy;
-    positions[3 * i + 2] = mesh.z[i];
-  }
-  const F = mesh.faceCount;
-  // Infinity (not null) keeps the array unboxed; JSON writes it as null.
-  const faceRatio = new Array<number>(F);
-  const indices = new Array<number>(3 * F);
-  const drains = new Array<number>(F);
-  const tri = mesh.tri;
-  for (let f = 0; f < F; f++) {
-    faceRatio[f] = slope[f] > 0 ? 1 / slope[f] : Infinity;
-    drains[f] = faceDrain[f];
-    indices[3 * f] = tri[3 * f];
-    indices[3 * f + 1] = tri[3 * f + 1];
-    indices[3 * f + 2] = tri[3 * f + 2];
-  }
-  return { positions, indices, faceRatio, faceDrain: drains };
-}
-
-function meshBuffers(roof: Roof, mesh: SurfaceMesh, slope: Float64Array, faceDrain: Int32Array): MeshBuffers {
-  const V = mesh.vertexCount;
-  const positions = new Float64Array(3 * V);
-  const { dx, dy, ox, oy } = roof;
-  for (let i = 0; i < V; i++) {
-    const u = mesh.u[i];
-    const v = mesh.v[i];
-    positions[3 * i] = ox + u * dy + v * dx;
-    positions[3 * i + 1] = oy - u * dx + v * dy;
-    positions[3 * i + 2] = mesh.z[i];
-  }
-  const faceRatio = new Float64Array(mesh.faceCount);
-  for (let f = 0; f < mesh.faceCount; f++) faceRatio[f] = ratioOfSlope(slope[f]);
-  return { positions, indices: mesh.tri.slice(), faceRatio, faceDrain: faceDrain.slice() };
 }
 
 const mm = (m: number) => `${Math.round(m * 1000)} mm`;

@@ -70,11 +70,6 @@ export function toPlan(roof: Roof, u: number, v: number): Point {
   return [roof.ox + u * roof.dy + v * roof.dx, roof.oy - u * roof.dx + v * roof.dy];
 }
 
-/** Local (u, v) → local plan coordinates (origin at the roof's vertex mean). */
-export function toLocal(roof: Roof, u: number, v: number): [number, number] {
-  return [u * roof.dy + v * roof.dx, -u * roof.dx + v * roof.dy];
-}
-
 /** Request plan coordinates → local (u, v). */
 export function toFrame(roof: Roof, x: number, y: number): [number, number] {
   const lx = x - roof.ox;

@@ -1,5 +1,3 @@
-import { fallFromRatio } from "./fall";
-
 /** How sure we are of a value: read on a published page, recalled, derived, or trade habit. */
 export type Confidence = "page" | "memory" | "derived" | "common practice";
 
@@ -289,7 +287,3 @@ export function ruleValue(id: RuleSetId, key: keyof RuleValues): UsedRule | null
   return fallback ? { ...fallback, key, ruleSet: "common-practice" } : null;
 }
 
-/** Display form of a cited ratio. */
-export function citedFall(v: CitedValue) {
-  return fallFromRatio(v.value);
-}

@@ -6,7 +6,3 @@ export function signedArea(xs: ArrayLike<number>, ys: ArrayLike<number>): number
   return sum / 2;
 }
 
-/** Signed area of triangle abc; positive when counter-clockwise. */
-export function triangleArea(ax: number, ay: number, bx: number, by: number, cx: number, cy: number): number {
-  return ((bx - ax) * (cy - ay) - (by - ay) * (cx - ax)) / 2;
-}

@@ -24,19 +24,6 @@ export function segmentsTouch(
   return false;
 }
 
-/** True when ab and cd cross at a single point interior to both (no touching, no overlap). */
-export function segmentsCrossProperly(
-  ax: number, ay: number, bx: number, by: number,
-  cx: number, cy: number, dx: number, dy: number,
-  eps = 0,
-): boolean {
-  const o1 = orient(ax, ay, bx, by, cx, cy);
-  const o2 = orient(ax, ay, bx, by, dx, dy);
-  const o3 = orient(cx, cy, dx, dy, ax, ay);
-  const o4 = orient(cx, cy, dx, dy, bx, by);
-  return ((o1 > eps && o2 < -eps) || (o1 < -eps && o2 > eps)) && ((o3 > eps && o4 < -eps) || (o3 < -eps && o4 > eps));
-}
-
 /** Distance from p to segment ab and the parameter (0..1) of the nearest point. */
 export function nearestOnSegment(
   ax: number, ay: number, bx: number, by: number, px: number, py: number,
