@@ -5,7 +5,8 @@ import { expect, test, type Browser, type Page } from "@playwright/test";
 const PASSWORD = "fallwright-demo";
 
 async function signedIn(browser: Browser, email: string) {
-  const context = await browser.newContext({ viewport: { width: 1440, height: 900 } });
+  // A modest window: the 3D view is drawn on the CPU here, and two of them share the machine.
+  const context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
   const page = await context.newPage();
   await page.goto("/login");
   await page.getByLabel("E-mail").fill(email);
@@ -40,12 +41,22 @@ test("a follower sees the presenter's outlet move within a second, and catches u
   const startX = await outletX(trainer.page).inputValue();
   await expect(outletX(follower)).toHaveValue(startX);
 
-  // Move the outlet: the follower's workspace shows it within a second.
+  // Move the outlet: within a second the follower's workspace has the new roof; its 3D scene is
+  // then redrawn for it (the scene's text summary belongs to the analysis the scene draws). The
+  // analysis runs in the sandbox's worker once per animation frame, which a CPU-drawn WebGL page
+  // on a loaded machine can delay, so the scene is held to "changes", the transport to a second.
+  const scene = follower.getByTestId("scene-summary");
+  await expect(scene).toContainText("longest fall line");
+  const sceneBefore = await scene.textContent();
   const newX = startX === "3" ? "4" : "3";
   const t0 = Date.now();
   await outletX(trainer.page).fill(newX);
-  await expect(outletX(follower)).toHaveValue(newX, { timeout: 1000 });
-  expect(Date.now() - t0).toBeLessThan(1000);
+  await expect(outletX(follower)).toHaveValue(newX, { timeout: 5000 });
+  const inStore = Date.now() - t0;
+  await expect(scene).not.toHaveText(sceneBefore!, { timeout: 5000 });
+  const inScene = Date.now() - t0;
+  test.info().annotations.push({ type: "live latency ms (store, scene)", description: `${inStore}, ${inScene}` });
+  expect(inStore).toBeLessThan(1000);
   await expect(follower.getByTestId("roof-summary")).toContainText(`at (${newX}, 0)`);
 
   // Next roof: the step changes for the follower too.
