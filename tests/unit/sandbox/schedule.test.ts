@@ -3,6 +3,7 @@ import { describe, expect, it } from "vitest";
 import { action, loader } from "~/routes/sandbox.schedule-csv";
 import { DEMO_ROOF } from "~/components/sandbox/demo-roof";
 import { decodeSpec, encodeSpec, sheetHref, SHEET_LINK_LIMIT } from "~/components/sandbox/sheet-link";
+import { readLinkedSpec } from "~/components/sandbox/linked-spec.server";
 
 type ActionArgs = Parameters<typeof action>[0];
 
@@ -69,5 +70,18 @@ describe("check sheet hand-over", () => {
     const big = { ...DEMO_ROOF, probes: Array.from({ length: 900 }, (_, i) => [i / 100, 1] as [number, number]) };
     expect(encodeSpec(big).length).toBeGreaterThan(SHEET_LINK_LIMIT);
     expect(sheetHref(big).viaSession).toBe(true);
+  });
+});
+
+describe("a roof carried in a link (?spec=, as the classroom's copy link and the check sheet send it)", () => {
+  const url = (spec: string | null) => new URL(`http://localhost/sandbox${spec == null ? "" : `?spec=${spec}`}`);
+
+  it("opens a valid roof, says why for a broken or impossible one", () => {
+    expect(readLinkedSpec(url(null))).toEqual({ spec: null, error: null });
+    expect(readLinkedSpec(url(encodeSpec(DEMO_ROOF))).spec?.outline).toEqual(DEMO_ROOF.outline);
+    expect(readLinkedSpec(url("not*base64"))).toMatchObject({ spec: null, error: { status: 400 } });
+    expect(readLinkedSpec(url(encodeSpec({ ...DEMO_ROOF, baseFall: "steep" })))).toMatchObject({ error: { status: 400 } });
+    const crossing = { ...DEMO_ROOF, outline: [[0, 0], [10, 10], [10, 0], [0, 10]] as typeof DEMO_ROOF.outline, outlets: [] };
+    expect(readLinkedSpec(url(encodeSpec(crossing)))).toMatchObject({ error: { status: 422 } });
   });
 });
