@@ -151,6 +151,16 @@ describe("rectangle with an off-centre outlet at (5, 0)", () => {
   it("advice: 18.028/100 = 0.18028 m needed → base fall 10/0.18028 = 1:55.5", () => {
     close(a.advice.minimumBaseFall!.ratio, 10 / (Math.sqrt(325) / 100), 1e-6);
   });
+
+  it("advice: one more outlet on the long side brings the worst fall line from 1:72.1 to 1:44.7", () => {
+    // Candidates sit at (k + 0.5)/12 of the edge. The first one within √125 = 11.18 m of (20, 10)
+    // is x = 15.83 (√(4.17² + 10²) = 10.83 m); then (0, 10) → (5, 0), 11.18 m over 0.25, governs.
+    const extra = a.advice.extraOutlet!;
+    close(extra.at[0], (9.5 / 12) * 20, 1e-9);
+    close(extra.at[1], 0, 1e-9);
+    close(extra.currentLongestFallRatio, Math.sqrt(325) / 0.25, 1e-9);
+    close(extra.longestFallRatio, Math.sqrt(125) / 0.25, 1e-9);
+  });
 });
 
 describe("two outlets on one edge, at (5, 0) and (15, 0)", () => {
@@ -297,5 +307,19 @@ describe("L-shape: the fall line bends round the re-entrant corner", () => {
     close(twist.size!, 0.1 - (0.1 * 5 / 9 + (0.1 - 0.1 * 5 / 9) * 0.4), 1e-9);
     close(twist.at![0], 4);
     close(twist.at![1], 4, 1e-6);
+  });
+});
+
+describe("outlets facing each other across the joists", () => {
+  // Outlets at (10, 0) and (10, 10): the joist between them has both ends at 0, so it lies level.
+  const a = analyseSpec({ outline: RECT_20_10, outlets: [{ at: [10, 0] }, { at: [10, 10] }], baseFall: "1:40" });
+
+  it("warns that a joist lies level between two drains", () => {
+    const w = a.warnings.find((x) => x.code === "level-joist")!;
+    expect(w).toBeDefined();
+    expect(w.at).toEqual([10, 5]);
+    const s = joistAt(a, 10).spans[0];
+    expect(s.ratio).toBeNull();
+    close(s.startDrop, 0.25);
   });
 });

@@ -234,6 +234,25 @@ describe("invariants on random valid roofs", () => {
     );
   });
 
+  it("warns of twists only on non-convex outlines", () => {
+    fc.assert(
+      fc.property(validCase, ({ spec }) => {
+        const a = run(spec, false);
+        const twists = a.warnings.filter((w) => w.code === "twist");
+        const o = spec.outline;
+        const turns = o.map((p, i) => {
+          const q = o[(i + 1) % o.length];
+          const r = o[(i + 2) % o.length];
+          return Math.sign((q[0] - p[0]) * (r[1] - q[1]) - (q[1] - p[1]) * (r[0] - q[0]));
+        });
+        const convex = turns.every((t) => t >= 0) || turns.every((t) => t <= 0);
+        if (convex) expect(twists).toEqual([]);
+        for (const t of twists) expect(t.size).toBeGreaterThan(0.001);
+      }),
+      RUNS,
+    );
+  });
+
   it("does not change its inputs", () => {
     fc.assert(
       fc.property(validCase, ({ spec }) => {
