@@ -3,13 +3,11 @@ import { data } from "react-router";
 import type { SessionUser } from "~/lib/auth.server";
 import { inviteToClass } from "~/lib/class-invites.server";
 import type { InviteReport } from "~/lib/roster";
-import { parseClassDetails, type ClassDetailsField, type ClassDetailsValues } from "~/lib/class-form";
+import { isIsoDay, parseClassDetails, type ClassDetailsField, type ClassDetailsValues } from "~/lib/class-form";
 import { isUuid, listLessons, removeMember, saveAssignments, updateClass, withdrawInvitation, type ClassRow } from "~/lib/classes.server";
 import { clientIp } from "~/lib/rate-limit.server";
 import { appOrigin } from "~/lib/mail.server";
 import type { AppLoadContext } from "react-router";
-
-const DAY = /^\d{4}-\d{2}-\d{2}$/;
 
 export interface ClassActionResult {
   intent: string;
@@ -67,7 +65,7 @@ export async function handleClassAction(o: { request: Request; context: AppLoadC
       const errors: Record<string, string> = {};
       const items = chosen.map((slug) => {
         const due = String(form.get(`due:${slug}`) ?? "").trim();
-        if (due && (!DAY.test(due) || Number.isNaN(Date.parse(due)))) errors[slug] = "Use a date like 2027-03-01.";
+        if (due && !isIsoDay(due)) errors[slug] = "Use a date like 2027-03-01.";
         return { slug, dueOn: due || null };
       });
       if (Object.keys(errors).length) return reply({ intent, assignmentErrors: errors }, 400);

@@ -1,10 +1,19 @@
 import { format, parseISO } from "date-fns";
 import { z } from "zod";
 
+/** A real calendar day written yyyy-mm-dd (JavaScript alone would take 2027-02-30 as 2 March). */
+export function isIsoDay(v: string): boolean {
+  const m = /^(\d{4})-(\d{2})-(\d{2})$/.exec(v);
+  if (!m) return false;
+  const [y, mo, d] = [Number(m[1]), Number(m[2]), Number(m[3])];
+  const t = new Date(Date.UTC(y, mo - 1, d));
+  return y >= 1900 && y <= 9999 && t.getUTCFullYear() === y && t.getUTCMonth() === mo - 1 && t.getUTCDate() === d;
+}
+
 const isoDate = z
   .string()
   .trim()
-  .refine((v) => v === "" || (/^\d{4}-\d{2}-\d{2}$/.test(v) && !Number.isNaN(Date.parse(`${v}T00:00:00Z`))), "Use a date like 2027-03-01.")
+  .refine((v) => v === "" || isIsoDay(v), "Use a date like 2027-03-01.")
   .transform((v) => (v === "" ? null : v));
 
 const ClassDetails = z

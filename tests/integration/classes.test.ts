@@ -148,6 +148,8 @@ describe("assignments", () => {
     const bad = await post(new URLSearchParams([["intent", "assignments"], ["assign", LESSON], [`due:${LESSON}`, "June"]]));
     expect(bad.status).toBe(400);
     expect(bad.data.assignmentErrors[LESSON]).toMatch(/date/);
+    // A day that does not exist is a 400 too, not a database error.
+    expect((await post(new URLSearchParams([["intent", "assignments"], ["assign", LESSON], [`due:${LESSON}`, "2027-02-30"]]))).status).toBe(400);
     expect((await post(new URLSearchParams([["intent", "assignments"], ["assign", "zz-classes-test-2"]]))).status).toBe(200);
     expect(await database.db()("assignments").where({ class_id: id }).pluck("lesson_slug")).toEqual(["zz-classes-test-2"]);
   });

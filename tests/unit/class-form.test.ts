@@ -1,0 +1,39 @@
+import { describe, expect, it } from "vitest";
+import { formatDateRange, isIsoDay, parseClassDetails } from "~/lib/class-form";
+
+const form = (fields: Record<string, string>) => {
+  const f = new FormData();
+  for (const [k, v] of Object.entries(fields)) f.set(k, v);
+  return f;
+};
+
+describe("class details form", () => {
+  it("takes only real calendar days", () => {
+    expect(isIsoDay("2027-03-01")).toBe(true);
+    expect(isIsoDay("2028-02-29")).toBe(true); // leap year
+    expect(isIsoDay("2027-02-29")).toBe(false);
+    expect(isIsoDay("2027-02-30")).toBe(false);
+    expect(isIsoDay("2027-13-01")).toBe(false);
+    expect(isIsoDay("1 March 2027")).toBe(false);
+    expect(isIsoDay("0001-01-01")).toBe(false);
+  });
+
+  it("trims, turns empty dates into null, and refuses an end before the start", () => {
+    const ok = parseClassDetails(form({ name: "  Spring  ", startsOn: "2027-03-01", endsOn: "", venue: " Bay 2 " }));
+    expect(ok).toEqual({ ok: true, value: { name: "Spring", startsOn: "2027-03-01", endsOn: null, venue: "Bay 2" } });
+    const bad = parseClassDetails(form({ name: "", startsOn: "2027-03-05", endsOn: "2027-03-01", venue: "" }));
+    expect(bad.ok).toBe(false);
+    if (!bad.ok) {
+      expect(Object.keys(bad.errors).sort()).toEqual(["endsOn", "name"]);
+      expect(bad.values.startsOn).toBe("2027-03-05");
+    }
+    const feb30 = parseClassDetails(form({ name: "x", startsOn: "2027-02-30", endsOn: "", venue: "" }));
+    expect(feb30.ok).toBe(false);
+  });
+
+  it("says the dates as people read them", () => {
+    expect(formatDateRange("2027-03-01", "2027-03-05")).toBe("Mon 1 Mar 2027 – Fri 5 Mar 2027");
+    expect(formatDateRange("2027-03-01", null)).toBe("from Mon 1 Mar 2027");
+    expect(formatDateRange(null, null)).toBe("Dates not set");
+  });
+});
