@@ -31,6 +31,7 @@ function Status({ p }: { p: Progress | null }) {
 export default function Lessons() {
   const { lessons, signedIn } = useLoaderData<typeof loader>();
   const passed = lessons.filter((l) => l.progress?.passed).length;
+  const next = lessons.find((l) => !l.progress?.passed);
   return (
     <div className="grid gap-6">
       <header className="flex flex-wrap items-end justify-between gap-4">
@@ -45,7 +46,10 @@ export default function Lessons() {
           <div className="text-right">
             <p className="text-sm text-ink-soft">Your progress</p>
             <p className="text-2xl font-bold tabular-nums" data-testid="course-progress">{passed} of {lessons.length} passed</p>
-            <Link to="/attempts" className="text-sm underline">My attempts</Link>
+            <p className="mt-1 flex flex-wrap justify-end gap-3 text-sm">
+              {next && <Link to={`/lessons/${next.slug}`} className="btn-primary">Next: lesson {next.position}</Link>}
+              <Link to="/attempts" className="btn">My attempts</Link>
+            </p>
           </div>
         ) : (
           <p className="card max-w-sm text-sm">

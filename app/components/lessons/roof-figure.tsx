@@ -28,7 +28,7 @@ function PlanSvg({ f }: { f: FigureData }) {
       <g clipPath={`url(#${clip})`}>
         <g transform={gridTransform}>
           {f.fills.map((g) => (
-            <path key={g.fill} d={g.d} fill={g.fill} stroke={g.fill} strokeWidth={f.grid ? 0.04 : u * 0.04} />
+            <path key={g.fill} d={g.d} fill={g.fill} stroke={g.fill} strokeWidth={f.grid ? 0.1 : u * 0.04} />
           ))}
         </g>
         {f.flat && <path d={f.flat} fill={`url(#${hatch})`} transform={gridTransform} />}
