@@ -1,3 +1,4 @@
+import fc from "fast-check";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { useTestDatabase } from "../support/db";
 import { callRoute, ORIGIN, sessionCookie } from "../support/accounts";
@@ -172,5 +173,27 @@ describe("GET /classes/:id/live (server-sent events)", () => {
     expect((await readLiveState(classId))!.seq).toBe(seq);
     const get = await callRoute(live.action, new Request(`${ORIGIN}/classes/${classId}/live`, { method: "PUT", headers: { cookie: trainer } }), { params: { id: classId } });
     expect(get.status).toBe(405);
+  });
+
+  it("never answers 500 to random or hostile bodies (QUALITY.md, Reliability → Bad input)", async () => {
+    const num = fc.oneof(fc.constantFrom(0, -0, 1e308, -1e308, 5e-324, -1), fc.double({ noNaN: true, noDefaultInfinity: true }));
+    const specLike = fc.record(
+      { outline: fc.oneof(fc.array(fc.tuple(num, num), { maxLength: 8 }), fc.anything()), outlets: fc.anything(), baseFall: fc.oneof(fc.string(), num), joists: fc.anything() },
+      { requiredKeys: [] },
+    );
+    const body = fc.oneof(
+      fc.anything().map((v) => JSON.stringify(v) ?? "null"),
+      fc.record({ spec: specLike, title: fc.anything(), source: fc.anything(), deck: fc.anything(), step: fc.anything() }, { requiredKeys: [] }).map((v) => JSON.stringify(v)),
+      fc.string(),
+    );
+    const allowed = new Set([200, 400, 413, 415, 422]);
+    await fc.assert(
+      fc.asyncProperty(body, async (payload) => {
+        const request = new Request(`${ORIGIN}/classes/${classId}/live`, { method: "POST", headers: { cookie: trainer, "Content-Type": "application/json" }, body: payload });
+        const res = await callRoute(live.action, request, { params: { id: classId } });
+        expect(allowed.has(res.status), `${res.status} for ${payload.slice(0, 200)}`).toBe(true);
+      }),
+      { numRuns: 150 },
+    );
   });
 });
