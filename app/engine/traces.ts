@@ -48,9 +48,15 @@ export function flowTraces(roof: Roof, mesh: SurfaceMesh, routing: Routing): Flo
   const starts: number[] = [];
   const ends: string[] = [];
   const { dx, dy, ox, oy } = roof;
+  // Traces are drawn, not measured: plan to the millimetre and levels to a tenth of one keep
+  // the JSON small.
   const emit = (y: number) => {
     const u = mesh.u[y], v = mesh.v[y];
-    points.push(ox + u * dy + v * dx, oy - u * dx + v * dy, mesh.z[y]);
+    points.push(
+      Math.round((ox + u * dy + v * dx) * 1e3) / 1e3,
+      Math.round((oy - u * dx + v * dy) * 1e3) / 1e3,
+      Math.round(mesh.z[y] * 1e4) / 1e4,
+    );
   };
   const labels = routing.drains.map((_, id) => drainLabel(roof, routing, id));
   for (const x of seeds) {

@@ -128,7 +128,7 @@ export interface MeshBuffers {
 }
 
 export interface FlowTraces {
-  /** x, y, z of every trace point, traces one after another. */
+  /** x, y, z of every trace point, traces one after another (plan to 1 mm, level to 0.1 mm). */
   points: number[];
   /** Start of each trace in points (as a point index), plus one final entry. */
   starts: number[];
