@@ -88,7 +88,7 @@ function ClassTable({ classes, showTrainer }: { classes: ClassSummary[]; showTra
         <tbody>
           {classes.map((c) => (
             <tr key={c.id}>
-              <th scope="row" className="px-2 py-1 text-left font-medium">
+              <th scope="row" className="border-b border-rule px-2 py-1 text-left text-sm font-medium normal-case tracking-normal">
                 <Link className="underline" to={`/classes/${c.id}`}>{c.name}</Link>
               </th>
               {showTrainer ? <td>{c.trainer_name}</td> : null}
