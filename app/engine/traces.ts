@@ -6,7 +6,7 @@ import type { Roof } from "./roof";
 import type { FlowTraces } from "./types";
 
 /** Traces drawn for the plan view: about 0.5 m apart, finer on small roofs, at most this many. */
-export const MAX_TRACES = 600;
+export const MAX_TRACES = 400;
 
 export function seedSpacing(area: number): number {
   const base = area < 40 ? 0.25 : 0.5;
@@ -22,7 +22,7 @@ export function drainLabel(roof: Roof, routing: Routing, id: number): string {
 }
 
 /** Total points kept across all traces; long traces keep every k-th vertex. */
-export const MAX_TRACE_POINTS = 8_000;
+export const MAX_TRACE_POINTS = 4_000;
 
 /**
  * Flow traces by steepest descent on the mesh (ROOF-METHOD.md §7) from a seed grid: each follows
