@@ -85,22 +85,21 @@ export function routeWater(roof: Roof, mesh: SurfaceMesh, faces: FaceData): Rout
 
   const receiver = new Int32Array(V).fill(-1);
   const best = new Float64Array(V);
-  for (let f = 0; f < F; f++) {
-    for (let k = 0; k < 3; k++) {
-      const a = tri[3 * f + k];
-      const b = tri[3 * f + (k === 2 ? 0 : k + 1)];
-      const dz = z[a] - z[b];
-      if (dz <= FLAT && dz >= -FLAT) continue;
-      const du = u[b] - u[a];
-      const dv = v[b] - v[a];
-      const s = dz / Math.sqrt(du * du + dv * dv);
-      if (s > best[a]) {
-        best[a] = s;
-        receiver[a] = b;
-      } else if (-s > best[b]) {
-        best[b] = -s;
-        receiver[b] = a;
-      }
+  const edges = mesh.edges;
+  for (let k = 0; k < edges.length; k += 2) {
+    const a = edges[k];
+    const b = edges[k + 1];
+    const dz = z[a] - z[b];
+    if (dz <= FLAT && dz >= -FLAT) continue;
+    const du = u[b] - u[a];
+    const dv = v[b] - v[a];
+    const s = dz / Math.sqrt(du * du + dv * dv);
+    if (s > best[a]) {
+      best[a] = s;
+      receiver[a] = b;
+    } else if (-s > best[b]) {
+      best[b] = -s;
+      receiver[b] = a;
     }
   }
   const vertexDrain = new Int32Array(V).fill(-1);
@@ -158,32 +157,27 @@ export function routeWater(roof: Roof, mesh: SurfaceMesh, faces: FaceData): Rout
  * vertices are left without a way out.
  */
 function levelPatches(mesh: SurfaceMesh, receiver: Int32Array, vertexDrain: Int32Array, settleChains: () => void): number {
-  const { z, tri } = mesh;
-  const F = mesh.faceCount;
+  const { z, edges } = mesh;
   const V = mesh.vertexCount;
   const MAX_SWEEPS = 64;
-  let left = 0;
+  const settle = (x: number, y: number) => {
+    if (receiver[x] >= 0 || vertexDrain[x] >= 0 || vertexDrain[y] < 0 || Math.abs(z[x] - z[y]) > FLAT) return 0;
+    receiver[x] = y;
+    vertexDrain[x] = vertexDrain[y];
+    return 1;
+  };
   for (let sweep = 0; sweep < MAX_SWEEPS; sweep++) {
     let changed = 0;
-    for (let f = 0; f < F; f++) {
-      const a = tri[3 * f], b = tri[3 * f + 1], c = tri[3 * f + 2];
-      const oa = receiver[a] < 0 && vertexDrain[a] < 0;
-      const ob = receiver[b] < 0 && vertexDrain[b] < 0;
-      const oc = receiver[c] < 0 && vertexDrain[c] < 0;
-      if (!(oa || ob || oc)) continue;
-      for (let k = 0; k < 6; k++) {
-        const x = k < 2 ? a : k < 4 ? b : c;
-        const y = k === 0 ? b : k === 1 ? c : k === 2 ? a : k === 3 ? c : k === 4 ? a : b;
-        if (receiver[x] >= 0 || vertexDrain[x] >= 0 || vertexDrain[y] < 0) continue;
-        if (Math.abs(z[x] - z[y]) > FLAT) continue;
-        receiver[x] = y;
-        vertexDrain[x] = vertexDrain[y];
-        changed++;
-      }
+    for (let k = 0; k < edges.length; k += 2) {
+      const a = edges[k];
+      const b = edges[k + 1];
+      if (receiver[a] >= 0 && receiver[b] >= 0) continue;
+      changed += settle(a, b) + settle(b, a);
     }
     if (changed === 0) break;
     settleChains();
   }
+  let left = 0;
   for (let i = 0; i < V; i++) if (receiver[i] < 0 && vertexDrain[i] < 0) left++;
   return left;
 }
@@ -191,20 +185,17 @@ function levelPatches(mesh: SurfaceMesh, receiver: Int32Array, vertexDrain: Int3
 /** What is left: connected level patches with no way down, each a pit (ponding). */
 function markPits(mesh: SurfaceMesh, receiver: Int32Array, vertexDrain: Int32Array, drains: Drain[]): void {
   const V = mesh.vertexCount;
-  const { z, tri } = mesh;
-  const F = mesh.faceCount;
+  const { z, edges } = mesh;
   const degree = new Int32Array(V + 1);
-  for (let k = 0; k < 3 * F; k++) degree[tri[k] + 1] += 2;
+  for (let k = 0; k < edges.length; k++) degree[edges[k] + 1]++;
   for (let i = 0; i < V; i++) degree[i + 1] += degree[i];
   const fill = degree.slice(0, V);
   const adj = new Int32Array(degree[V]);
-  for (let f = 0; f < F; f++) {
-    for (let k = 0; k < 3; k++) {
-      const a = tri[3 * f + k];
-      const b = tri[3 * f + (k === 2 ? 0 : k + 1)];
-      adj[fill[a]++] = b;
-      adj[fill[b]++] = a;
-    }
+  for (let k = 0; k < edges.length; k += 2) {
+    const a = edges[k];
+    const b = edges[k + 1];
+    adj[fill[a]++] = b;
+    adj[fill[b]++] = a;
   }
   const queue = new Int32Array(V);
   let pits = 0;

@@ -14,6 +14,8 @@ export interface SurfaceMesh {
   t: Float64Array;
   /** Three vertex indices per face, counter-clockwise. */
   tri: Uint32Array;
+  /** Every edge of the mesh once, as pairs of vertex indices. */
+  edges: Uint32Array;
   /** Mesh lines (u positions) and where each line's stations start in the vertex arrays. */
   lineU: Float64Array;
   lineStart: Int32Array;
@@ -223,8 +225,18 @@ export function buildMesh(roof: Roof, levels: PerimeterLevels, joists: Float64Ar
       ends[4 * k + 3] = edgeV(tops[k], U[j + 1]);
     }
   }
-  const tri = zipSlabs(V, lineStart, slabStart, ends, tolV, vc);
+  const { tri, rungs } = zipSlabs(V, lineStart, slabStart, ends, tolV, vc);
   const tc = tri.length;
+  // Every mesh edge once: rungs across slabs, then joined neighbours along each line.
+  let joined = 0;
+  for (let i = 0; i < vc; i++) joined += out.link[i];
+  const edges = new Uint32Array(rungs.length + 2 * joined);
+  edges.set(rungs);
+  for (let i = 0, k = rungs.length; i < vc; i++) {
+    if (!out.link[i]) continue;
+    edges[k++] = i - 1;
+    edges[k++] = i;
+  }
 
   return {
     vertexCount: vc,
@@ -235,6 +247,7 @@ export function buildMesh(roof: Roof, levels: PerimeterLevels, joists: Float64Ar
     edge: out.e.subarray(0, vc),
     t: out.t.subarray(0, vc),
     tri,
+    edges,
     lineU: U,
     lineStart,
     step,
@@ -250,6 +263,8 @@ class Stations {
   z: Float64Array;
   e: Int32Array;
   t: Float64Array;
+  /** 1 when a station and the one before it on the same line are joined inside the outline. */
+  link: Uint8Array;
   count = 0;
   constructor(private cap: number) {
     this.u = new Float64Array(cap);
@@ -257,6 +272,7 @@ class Stations {
     this.z = new Float64Array(cap);
     this.e = new Int32Array(cap);
     this.t = new Float64Array(cap);
+    this.link = new Uint8Array(cap);
   }
   ensure(needed: number): void {
     if (needed <= this.cap) return;
@@ -274,6 +290,9 @@ class Stations {
     const e = new Int32Array(this.cap);
     e.set(this.e.subarray(0, c));
     this.e = e;
+    const link = new Uint8Array(this.cap);
+    link.set(this.link.subarray(0, c));
+    this.link = link;
   }
 }
 
@@ -289,7 +308,7 @@ function emitLine(
   sides: Float64Array, nRight: number, nSides: number,
   vGrid0: number, step: number, minGap: number, tolV: number,
 ): void {
-  const U = out.u, V = out.v, Z = out.z, E = out.e, T = out.t;
+  const U = out.u, V = out.v, Z = out.z, E = out.e, T = out.t, K = out.link;
   let vc = out.count;
   let m = 0;
   let lastV = -Infinity;
@@ -297,6 +316,7 @@ function emitLine(
     const lo = coveredLo[c];
     const hi = coveredHi[c];
     while (m < nMarks && markV[m] < lo - tolV) m++;
+    const firstOfPiece = vc;
     let g = Math.ceil((lo - vGrid0) / step);
     for (;;) {
       const mv = m < nMarks && markV[m] <= hi + tolV ? markV[m] : Infinity;
@@ -310,6 +330,7 @@ function emitLine(
           Z[vc] = markZ[m];
           E[vc] = markE[m];
           T[vc] = markT[m];
+          K[vc] = vc > firstOfPiece ? 1 : 0;
           vc++;
           lastV = mv;
         }
@@ -336,6 +357,7 @@ function emitLine(
       Z[vc] = z;
       E[vc] = -1;
       T[vc] = 0;
+      K[vc] = vc > firstOfPiece ? 1 : 0;
       vc++;
       lastV = gridV;
     }
@@ -370,9 +392,11 @@ function zipSlabs(
   ends: Float64Array,
   tolV: number,
   vertexCount: number,
-): Uint32Array {
+): { tri: Uint32Array; rungs: Uint32Array } {
   let tri = new Uint32Array(Math.ceil(2.2 * vertexCount) * 3 + 48);
   let tc = 0;
+  let rungs = new Uint32Array(Math.ceil(2.4 * vertexCount) + 48);
+  let rc = 0;
   const L = lineStart.length - 1;
   for (let j = 0; j + 1 < L; j++) {
     for (let k = slabStart[j]; k < slabStart[j + 1]; k++) {
@@ -388,10 +412,18 @@ function zipSlabs(
         bigger.set(tri.subarray(0, tc));
         tri = bigger;
       }
+      const needRungs = rc + 2 * (l1 - l0 + r1 - r0 + 1);
+      if (needRungs > rungs.length) {
+        const bigger = new Uint32Array(Math.max(needRungs, 2 * rungs.length));
+        bigger.set(rungs.subarray(0, rc));
+        rungs = bigger;
+      }
       const invL = vTl - vBl > tolV ? 1 / (vTl - vBl) : 1;
       const invR = vTr - vBr > tolV ? 1 / (vTr - vBr) : 1;
       let i = l0;
       let r = r0;
+      rungs[rc++] = i;
+      rungs[rc++] = r;
       while (i < l1 || r < r1) {
         const advanceLeft = i === l1 ? false : r === r1 ? true : (V[i + 1] - vBl) * invL < (V[r + 1] - vBr) * invR;
         tri[tc] = i;
@@ -399,10 +431,13 @@ function zipSlabs(
         if (advanceLeft) tri[tc + 2] = ++i;
         else tri[tc + 2] = ++r;
         tc += 3;
+        // Each triangle adds one new rung across the slab; chain edges come from the lines.
+        rungs[rc++] = i;
+        rungs[rc++] = r;
       }
     }
   }
-  return tri.subarray(0, tc);
+  return { tri: tri.subarray(0, tc), rungs: rungs.subarray(0, rc) };
 }
 
 function lowerBound(a: Float64Array, lo: number, hi: number, x: number): number {

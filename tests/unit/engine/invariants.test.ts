@@ -1,7 +1,12 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { analyse, parseSpec, type Analysis, type EdgeKind, type Point, type RoofSpec } from "~/engine";
-import { meshAreas, shoelace } from "./helpers";
+import { buildMesh } from "~/engine/mesh";
+import { drainSpans, highLevelFor } from "~/engine/high-level";
+import { joistPositions } from "~/engine/joists";
+import { perimeterLevels } from "~/engine/perimeter";
+import { prepareRoof } from "~/engine/prepare";
+import { meshAreas, parsedSpec, shoelace } from "./helpers";
 
 /*
  * Invariants on random valid roofs (STYLE.md, "Tests check invariants"): rectangles, convex
@@ -248,6 +253,28 @@ describe("invariants on random valid roofs", () => {
         const convex = turns.every((t) => t >= 0) || turns.every((t) => t <= 0);
         if (convex) expect(twists).toEqual([]);
         for (const t of twists) expect(t.size).toBeGreaterThan(0.001);
+      }),
+      RUNS,
+    );
+  });
+
+  it("the mesh's edge list holds every triangle edge exactly once", () => {
+    fc.assert(
+      fc.property(validCase, ({ spec }) => {
+        const prepared = prepareRoof(parsedSpec(spec));
+        if (!prepared.ok) throw new Error("refused");
+        const roof = prepared.roof;
+        const levels = perimeterLevels(roof, highLevelFor(drainSpans(roof), 1 / roof.baseFall.ratio));
+        const mesh = buildMesh(roof, levels, joistPositions(roof), { maxVertices: 250_000 });
+        const key = (a: number, b: number) => (a < b ? a * 1e7 + b : b * 1e7 + a);
+        const fromFaces = new Set<number>();
+        for (let f = 0; f < mesh.faceCount; f++) {
+          for (let k = 0; k < 3; k++) fromFaces.add(key(mesh.tri[3 * f + k], mesh.tri[3 * f + ((k + 1) % 3)]));
+        }
+        const listed: number[] = [];
+        for (let k = 0; k < mesh.edges.length; k += 2) listed.push(key(mesh.edges[k], mesh.edges[k + 1]));
+        expect(new Set(listed).size).toBe(listed.length);
+        expect(new Set(listed)).toEqual(fromFaces);
       }),
       RUNS,
     );
