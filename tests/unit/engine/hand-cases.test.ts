@@ -273,6 +273,24 @@ describe("open edge: eaves along the bottom, no outlets", () => {
     close(a.shaped.catchments[0].area, 200, 1e-6);
   });
 
+  it("fall map: every face of the plane falls at 1:40, so all 200 m² sit in the first band", () => {
+    const bands = a.shaped.fallMap.areaByBand;
+    expect(bands.map((b) => b.label)).toEqual(["steeper than 1:40", "1:40-1:60", "1:60-1:80", "1:80-1:100", "flatter than 1:100"]);
+    close(bands[0].area, 200, 1e-6);
+    close(a.shaped.fallMap.flatterThanMinimumArea, 0, 1e-9);
+  });
+
+  it.each([
+    // A face exactly on a band edge counts with the steeper band: 1:80 is in "1:60-1:80".
+    ["1:80", 2, 0],
+    // Flatter than the 1:100 minimum: the last band, and all of it flatter than the minimum.
+    ["1:120", 4, 200],
+  ] as const)("fall map of a %s plane: all 200 m² in band %i", (fall, band, flatter) => {
+    const p = analyseSpec({ outline: RECT_20_10, edges: ["eaves", "parapet", "parapet", "parapet"], outlets: [], baseFall: fall });
+    p.shaped.fallMap.areaByBand.forEach((b, i) => close(b.area, i === band ? 200 : 0, 1e-6));
+    close(p.shaped.fallMap.flatterThanMinimumArea, flatter, 1e-6);
+  });
+
   it("has no gutter to compare and the same high level as the open-edge option", () => {
     expect(a.gutter.comparable).toBe(false);
     expect(a.gutter.reason).toMatch(/no outlets/i);
