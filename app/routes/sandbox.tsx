@@ -3,6 +3,7 @@
  *
  * Interface for other pages (saved roofs /roofs/:id, the lesson player, classroom follow):
  *   import { SandboxWorkspace } from "~/components/sandbox/workspace";
+import { SaveToLibrary } from "~/components/roofs/save-to-library";
  *   <SandboxWorkspace
  *     initialSpec={spec}          // RoofSpec, read once on mount (remount with a new `key` to load another roof)
  *     onSpecChange={(spec) => …}  // after every change: edits, undo/redo, replaceSpec
@@ -28,6 +29,7 @@ import { DEMO_ROOF } from "~/components/sandbox/demo-roof";
 import { readLinkedSpec } from "~/components/sandbox/linked-spec.server";
 import { useSandboxStore } from "~/components/sandbox/store";
 import { SandboxWorkspace } from "~/components/sandbox/workspace";
+import { SaveToLibrary } from "~/components/roofs/save-to-library";
 
 export const meta: Route.MetaFunction = () => [
   { title: "Sandbox · Fallwright" },
@@ -73,7 +75,12 @@ export default function Sandbox() {
         initialSpec={linked ?? DEMO_ROOF}
         restoreKey="fallwright:sandbox"
         restore={!linked}
-        toolbarExtra={<StartOver />}
+        toolbarExtra={
+          <>
+            <StartOver />
+            <SaveToLibrary />
+          </>
+        }
       />
     </div>
   );
