@@ -78,7 +78,15 @@ function mergeAway(accepted: number[], candidates: number[], gap: number): numbe
  */
 export function buildMesh(roof: Roof, levels: PerimeterLevels, joists: Float64Array, options: MeshOptions): SurfaceMesh {
   const { n, us, vs, len, spacing } = roof;
-  const factor = Math.max(1, Math.sqrt(roof.area / (spacing * spacing * options.maxVertices)));
+  // Work bound: estimate stations as lines × stations per line over the bounding box (a thin
+  // diagonal roof has few lines, each very long), then thin out the joist lines and lengthen the
+  // station step together until the estimate fits.
+  const extentU = roof.umax - roof.umin;
+  const extentV = roof.vmax - roof.vmin;
+  const knots = levels.t.reduce((sum, kt) => sum + kt.length, 0);
+  const estimate = (stride: number, step: number) => (extentU / (spacing * stride) + 1 + n + knots) * (extentV / step + 2);
+  let factor = Math.max(1, Math.sqrt(estimate(1, spacing) / options.maxVertices));
+  while (estimate(Math.ceil(factor - 1e-9), spacing * factor) > options.maxVertices) factor *= 1.25;
   const stride = Math.ceil(factor - 1e-9);
   const step = spacing * factor;
   const U = meshLines(roof, levels, joists, stride, 0.25 * spacing * stride);

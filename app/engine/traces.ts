@@ -30,7 +30,9 @@ export const MAX_TRACE_POINTS = 4_000;
  * an eaves edge or a pit.
  */
 export function flowTraces(roof: Roof, mesh: SurfaceMesh, routing: Routing): FlowTraces {
-  const gap = seedSpacing(roof.area);
+  // Seeds are laid on the bounding box: keep that grid bounded too (a thin diagonal roof).
+  const box = (roof.umax - roof.umin) * (roof.vmax - roof.vmin);
+  const gap = Math.max(seedSpacing(roof.area), Math.sqrt(box / (50 * MAX_TRACES)));
   const { receiver, vertexDrain } = routing;
   const seeds: number[] = [];
   let total = 0;

@@ -42,6 +42,18 @@ describe("work is bounded at the limits (issue 4: never a hang)", () => {
     expect(a.shaped.joists).toHaveLength(751);
   });
 
+  it("a 990 km sliver laid diagonally (99,000 m²) keeps its mesh and traces bounded", () => {
+    const c = Math.SQRT1_2;
+    const outline = ([[0, 0], [990_000, 0], [990_000, 0.1], [0, 0.1]] as [number, number][]).map(([x, y]): [number, number] => [c * x - c * y, c * x + c * y]);
+    const outlet: [number, number] = [(outline[3][0] + outline[0][0]) / 2, (outline[3][1] + outline[0][1]) / 2];
+    const started = Date.now();
+    const a = run({ outline, outlets: [{ at: outlet }], baseFall: "1:40" });
+    expect(Date.now() - started).toBeLessThan(10_000);
+    expect(a.shaped.mesh!.positions.length / 3).toBeLessThanOrEqual(MAX_MESH_VERTICES);
+    expect(a.shaped.flowTraces!.starts.length).toBeLessThan(1000);
+    expect(Math.abs(a.shaped.fallMap.area - 99_000)).toBeLessThan(1e-3);
+  });
+
   it("an analysis survives JSON: no NaN or Infinity outside level-face ratios", () => {
     const a = run(
       {
