@@ -35,6 +35,7 @@ export interface AnalyseOptions {
   maxMeshVertices?: number;
 }
 
+/** Default work bound on mesh vertices (a 10,000 m² roof at 0.4 m joists needs about 63,000). */
 export const MAX_MESH_VERTICES = 250_000;
 
 /**
@@ -49,6 +50,7 @@ export function analyse(spec: RoofSpec, options: AnalyseOptions = {}): Analysis 
   return analyseRoof(prepared.roof, options);
 }
 
+/** The analysis of a roof already normalised and checked by `prepareRoof`. */
 export function analyseRoof(roof: Roof, options: AnalyseOptions = {}): Analysis {
   const warnings: Warning[] = [];
   const spans = drainSpans(roof);

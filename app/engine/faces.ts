@@ -6,6 +6,7 @@ export interface FaceData {
   slope: Float64Array;
 }
 
+/** Plan area and steepest fall of every face: the fall map and catchments read these. */
 export function faceData(mesh: SurfaceMesh): FaceData {
   const F = mesh.faceCount;
   const { u, v, z, tri } = mesh;

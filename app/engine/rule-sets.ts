@@ -270,6 +270,7 @@ export const RULE_SETS: Readonly<Record<RuleSetId, RuleSet>> = {
   },
 };
 
+/** Rule-set ids in display order; the first is the default. */
 export const RULE_SET_IDS = Object.keys(RULE_SETS) as RuleSetId[];
 export const DEFAULT_RULE_SET: RuleSetId = "common-practice";
 

@@ -8,6 +8,7 @@ import type { FlowTraces } from "./types";
 /** Traces drawn for the plan view: about 0.5 m apart, finer on small roofs, at most this many. */
 export const MAX_TRACES = 400;
 
+/** Seed grid spacing: about 0.5 m (0.25 m under 40 m²), wider when that would exceed MAX_TRACES seeds. */
 export function seedSpacing(area: number): number {
   const base = area < 40 ? 0.25 : 0.5;
   return Math.max(base, Math.sqrt(area / MAX_TRACES));
