@@ -132,7 +132,7 @@ export function routeWater(roof: Roof, mesh: SurfaceMesh, faces: FaceData): Rout
     for (let i = 0; i < V; i++) vertexDrain[i] = vertexDrain[end[i]];
   };
   settleChains();
-  if (open > 0) open = levelPatches(mesh, receiver, vertexDrain, settleChains);
+  if (open > 0) open = levelPatches(mesh, receiver, vertexDrain, open, settleChains);
   if (open > 0) markPits(mesh, receiver, vertexDrain, drains);
   settleChains();
 
@@ -156,9 +156,8 @@ export function routeWater(roof: Roof, mesh: SurfaceMesh, faces: FaceData): Rout
  * area takes one sweep per step across it, so the sweeps are bounded); returns how many such
  * vertices are left without a way out.
  */
-function levelPatches(mesh: SurfaceMesh, receiver: Int32Array, vertexDrain: Int32Array, settleChains: () => void): number {
+function levelPatches(mesh: SurfaceMesh, receiver: Int32Array, vertexDrain: Int32Array, open: number, settleChains: () => void): number {
   const { z, edges } = mesh;
-  const V = mesh.vertexCount;
   const MAX_SWEEPS = 64;
   const settle = (x: number, y: number) => {
     if (receiver[x] >= 0 || vertexDrain[x] >= 0 || vertexDrain[y] < 0 || Math.abs(z[x] - z[y]) > FLAT) return 0;
@@ -166,7 +165,7 @@ function levelPatches(mesh: SurfaceMesh, receiver: Int32Array, vertexDrain: Int3
     vertexDrain[x] = vertexDrain[y];
     return 1;
   };
-  for (let sweep = 0; sweep < MAX_SWEEPS; sweep++) {
+  for (let sweep = 0; sweep < MAX_SWEEPS && open > 0; sweep++) {
     let changed = 0;
     for (let k = 0; k < edges.length; k += 2) {
       const a = edges[k];
@@ -174,12 +173,11 @@ function levelPatches(mesh: SurfaceMesh, receiver: Int32Array, vertexDrain: Int3
       if (receiver[a] >= 0 && receiver[b] >= 0) continue;
       changed += settle(a, b) + settle(b, a);
     }
+    open -= changed;
     if (changed === 0) break;
-    settleChains();
+    if (open > 0) settleChains();
   }
-  let left = 0;
-  for (let i = 0; i < V; i++) if (receiver[i] < 0 && vertexDrain[i] < 0) left++;
-  return left;
+  return open;
 }
 
 /** What is left: connected level patches with no way down, each a pit (ponding). */

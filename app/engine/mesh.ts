@@ -155,29 +155,44 @@ export function buildMesh(roof: Roof, levels: PerimeterLevels, joists: Float64Ar
   const markV = new Float64Array(maxMarks), markZ = new Float64Array(maxMarks), markT = new Float64Array(maxMarks);
   const markE = new Int32Array(maxMarks);
   const coveredLo = new Float64Array(maxSides), coveredHi = new Float64Array(maxSides);
-  const kV: number[] = [], kE: number[] = [], kT: number[] = [];
-  const sideList: number[][] = [];
   const along: number[] = [];
 
+  const byStart = new Int32Array(maxSides);
   for (let j = 0; j < L; j++) {
     const u = U[j];
     lineStart[j] = out.count;
-    kV.length = kE.length = kT.length = 0;
-    sideList.length = 0;
-    let rightSides = 0;
-    for (const [from, to] of [[j, j + 1], [j - 1, j]]) {
-      if (from < 0 || to >= L) continue;
-      for (let k = slabStart[from]; k < slabStart[to]; k++) {
-        const eB = bots[k], eT = tops[k];
-        const tB = edgeT(eB, u), tT = edgeT(eT, u);
-        const vB = edgeV(eB, u), vT = edgeV(eT, u);
-        sideList.push([vB, vT, levelOnEdge(levels, eB, tB), levelOnEdge(levels, eT, tT)]);
-        kV.push(vB, vT);
-        kE.push(eB, eT);
-        kT.push(tB, tT);
+    let nSides = 0;
+    let nMarks = 0;
+    const mark = (v: number, e: number, t: number) => {
+      // Insertion keeps the marks sorted along v; lines hold only a handful.
+      let k = nMarks++;
+      while (k > 0 && markV[k - 1] > v) {
+        markV[k] = markV[k - 1];
+        markE[k] = markE[k - 1];
+        markT[k] = markT[k - 1];
+        markZ[k] = markZ[k - 1];
+        k--;
       }
-      if (from === j) rightSides = sideList.length;
-    }
+      markV[k] = v;
+      markE[k] = e;
+      markT[k] = t;
+      markZ[k] = levelOnEdge(levels, e, t);
+    };
+    const side = (k: number) => {
+      const eB = bots[k], eT = tops[k];
+      const tB = edgeT(eB, u), tT = edgeT(eT, u);
+      const vB = edgeV(eB, u), vT = edgeV(eT, u);
+      sides[4 * nSides] = vB;
+      sides[4 * nSides + 1] = vT;
+      sides[4 * nSides + 2] = levelOnEdge(levels, eB, tB);
+      sides[4 * nSides + 3] = levelOnEdge(levels, eT, tT);
+      nSides++;
+      mark(vB, eB, tB);
+      mark(vT, eT, tT);
+    };
+    if (j + 1 < L) for (let k = slabStart[j]; k < slabStart[j + 1]; k++) side(k);
+    const rightSides = nSides;
+    if (j > 0) for (let k = slabStart[j - 1]; k < slabStart[j]; k++) side(k);
     along.length = 0;
     for (let e = 0; e < n; e++) {
       const q = e + 1 === n ? 0 : e + 1;
@@ -185,27 +200,22 @@ export function buildMesh(roof: Roof, levels: PerimeterLevels, joists: Float64Ar
       along.push(e);
       const kt = levels.t[e];
       const dir = vs[q] >= vs[e] ? 1 : -1;
-      for (let k = 0; k < kt.length; k++) {
-        kV.push(vs[e] + dir * kt[k]);
-        kE.push(e);
-        kT.push(kt[k]);
-      }
+      for (let k = 0; k < kt.length; k++) mark(vs[e] + dir * kt[k], e, kt[k]);
     }
-    const order = kV.map((_, k) => k).sort((a, b) => kV[a] - kV[b]);
-    for (let k = 0; k < order.length; k++) {
-      const o = order[k];
-      markV[k] = kV[o];
-      markE[k] = kE[o];
-      markT[k] = kT[o];
-      markZ[k] = levelOnEdge(levels, kE[o], kT[o]);
-    }
-    for (let k = 0; k < sideList.length; k++) sides.set(sideList[k], 4 * k);
     // Union of the sides along v.
-    const byStart = sideList.map((_, k) => k).sort((a, b) => sideList[a][0] - sideList[b][0]);
+    for (let k = 0; k < nSides; k++) {
+      let i = k;
+      while (i > 0 && sides[4 * byStart[i - 1]] > sides[4 * k]) {
+        byStart[i] = byStart[i - 1];
+        i--;
+      }
+      byStart[i] = k;
+    }
     let nCovered = 0;
     let covered = 0;
-    for (const k of byStart) {
-      const [vB, vT] = sideList[k];
+    for (let i = 0; i < nSides; i++) {
+      const vB = sides[4 * byStart[i]];
+      const vT = sides[4 * byStart[i] + 1];
       if (nCovered > 0 && vB <= coveredHi[nCovered - 1] + tolV) coveredHi[nCovered - 1] = Math.max(coveredHi[nCovered - 1], vT);
       else {
         coveredLo[nCovered] = vB;
@@ -213,9 +223,9 @@ export function buildMesh(roof: Roof, levels: PerimeterLevels, joists: Float64Ar
       }
     }
     for (let c = 0; c < nCovered; c++) covered += coveredHi[c] - coveredLo[c];
-    out.ensure(out.count + Math.ceil(covered / step) + order.length + 2 * nCovered + 4);
-    emitLine(out, u, coveredLo, coveredHi, nCovered, markV, markZ, markE, markT, order.length,
-      sides, rightSides, sideList.length, roof.vmin, step, minGap, tolV);
+    out.ensure(out.count + Math.ceil(covered / step) + nMarks + 2 * nCovered + 4);
+    emitLine(out, u, coveredLo, coveredHi, nCovered, markV, markZ, markE, markT, nMarks,
+      sides, rightSides, nSides, roof.vmin, step, minGap, tolV);
     if (along.length) fixAlong(out, lineStart[j], along, vs, n, levels, tolV);
   }
   lineStart[L] = out.count;

@@ -35,6 +35,20 @@ export function flowTraces(roof: Roof, mesh: SurfaceMesh, routing: Routing): Flo
   const box = (roof.umax - roof.umin) * (roof.vmax - roof.vmin);
   const gap = Math.max(seedSpacing(roof.area), Math.sqrt(box / (50 * MAX_TRACES)));
   const { receiver, vertexDrain } = routing;
+  // Steps from each vertex to the end of its chain, each chain walked once.
+  const V = mesh.vertexCount;
+  const depth = new Int32Array(V).fill(-1);
+  const stack = new Int32Array(V);
+  for (let i = 0; i < V; i++) {
+    let top = 0;
+    let x = i;
+    while (depth[x] < 0 && receiver[x] >= 0 && top < V) {
+      stack[top++] = x;
+      x = receiver[x];
+    }
+    let d = depth[x] >= 0 ? depth[x] : (depth[x] = 0);
+    while (top > 0) depth[stack[--top]] = ++d;
+  }
   const seeds: number[] = [];
   let total = 0;
   for (let u = roof.umin + gap / 2; u < roof.umax; u += gap) {
@@ -43,35 +57,37 @@ export function flowTraces(roof: Roof, mesh: SurfaceMesh, routing: Routing): Flo
       const x = nearestVertex(mesh, u, v);
       if (x < 0) continue;
       seeds.push(x);
-      for (let y = x, guard = 0; y >= 0 && guard < mesh.vertexCount; y = receiver[y], guard++) total++;
+      total += depth[x] + 1;
     }
   }
   const every = Math.max(1, Math.ceil(total / MAX_TRACE_POINTS));
-  const points: number[] = [];
-  const starts: number[] = [];
-  const ends: string[] = [];
+  let count = 0;
+  for (const x of seeds) count += Math.floor(depth[x] / every) + 1 + (depth[x] % every ? 1 : 0);
+  const points = new Array<number>(3 * count);
+  const starts = new Array<number>(seeds.length + 1);
+  const ends = new Array<string>(seeds.length);
   const { dx, dy, ox, oy } = roof;
-  // Traces are drawn, not measured: plan to the millimetre and levels to a tenth of one keep
-  // the JSON small.
-  const emit = (y: number) => {
-    const u = mesh.u[y], v = mesh.v[y];
-    points.push(
-      Math.round((ox + u * dy + v * dx) * 1e3) / 1e3,
-      Math.round((oy - u * dx + v * dy) * 1e3) / 1e3,
-      Math.round(mesh.z[y] * 1e4) / 1e4,
-    );
-  };
   const labels = routing.drains.map((_, id) => drainLabel(roof, routing, id));
-  for (const x of seeds) {
-    starts.push(points.length / 3);
-    let y = x;
-    for (let k = 0, guard = 0; guard < mesh.vertexCount; guard++, k++) {
-      if (k % every === 0 || receiver[y] < 0) emit(y);
-      if (receiver[y] < 0) break;
+  let p = 0;
+  for (let t = 0; t < seeds.length; t++) {
+    starts[t] = p / 3;
+    let y = seeds[t];
+    const steps = depth[y];
+    for (let k = 0; k <= steps; k++) {
+      const last = receiver[y] < 0 || k === steps;
+      if (k % every === 0 || last) {
+        // Traces are drawn, not measured: plan to the millimetre and levels to a tenth of one
+        // keep the JSON small.
+        const u = mesh.u[y], v = mesh.v[y];
+        points[p++] = Math.round((ox + u * dy + v * dx) * 1e3) / 1e3;
+        points[p++] = Math.round((oy - u * dx + v * dy) * 1e3) / 1e3;
+        points[p++] = Math.round(mesh.z[y] * 1e4) / 1e4;
+      }
+      if (last) break;
       y = receiver[y];
     }
-    ends.push(labels[vertexDrain[y]] ?? "none");
+    ends[t] = labels[vertexDrain[y]] ?? "none";
   }
-  starts.push(points.length / 3);
+  starts[seeds.length] = p / 3;
   return { points, starts, ends };
 }
