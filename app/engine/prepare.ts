@@ -135,7 +135,9 @@ export function prepareRoof(spec: RoofSpec): Prepared {
         continue;
       }
       // Equal distances happen at corners: prefer the longer edge, so joists span the short way.
-      if (d < bestDistance - tol || (Math.abs(d - bestDistance) <= tol && best >= 0 && len[j] > len[best])) {
+      // Lengths equal to rounding (a square, or a turned copy of one) keep the earlier edge, so
+      // moving or turning the whole spec never flips the choice.
+      if (d < bestDistance - tol || (Math.abs(d - bestDistance) <= tol && best >= 0 && len[j] > len[best] + tol)) {
         best = j;
         bestDistance = d;
       }

@@ -16,6 +16,8 @@ export function jsonError(status: number, message: string, issues: ApiIssue[] = 
 }
 
 /** Reads at most `limit` bytes of the body; null when there were more. */
+const DRAIN_LIMIT = 16 * 1024 * 1024;
+
 export async function readBodyCapped(request: Request, limit: number): Promise<Uint8Array | null> {
   const declared = Number(request.headers.get("content-length") ?? "0");
   if (declared > limit) return null;
@@ -28,6 +30,12 @@ export async function readBodyCapped(request: Request, limit: number): Promise<U
     if (done) break;
     total += value.byteLength;
     if (total > limit) {
+      // Drain (and drop) a little more so the client can read our 413; past that, cut it off.
+      while (total < DRAIN_LIMIT) {
+        const next = await reader.read().catch(() => ({ done: true as const, value: undefined }));
+        if (next.done) return null;
+        total += next.value.byteLength;
+      }
       await reader.cancel().catch(() => {});
       return null;
     }

@@ -59,12 +59,18 @@ export function refuseCrossSite() {
   };
 }
 
-/** Refuse bodies that announce more than the largest thing we accept (uploads). */
-export function capBodySize(limit: number) {
+/**
+ * Refuse bodies that announce more than the route accepts (JSON API: 256 kB; elsewhere the
+ * largest upload), before anything reads them. Answered here, the unread body is drained by
+ * Node; refused deeper, a half-read stream can leave the client waiting.
+ */
+export function capBodySize(limit: number, apiLimit = 256 * 1024) {
   return (req: Request, res: Response, next: NextFunction) => {
     const length = Number(req.get("content-length") ?? 0);
-    if (length > limit) {
-      res.status(413).json({ error: { message: `Request body is over ${Math.round(limit / 1024 / 1024)} MB.`, issues: [] } });
+    const max = req.path.startsWith("/api/") ? apiLimit : limit;
+    if (length > max) {
+      res.set("Connection", "close");
+      res.status(413).json({ error: { message: `The request body is over ${max >= 1024 * 1024 ? `${Math.round(max / 1024 / 1024)} MB` : `${Math.round(max / 1024)} kB`}.`, issues: [] } });
       return;
     }
     next();

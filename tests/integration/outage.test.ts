@@ -1,10 +1,10 @@
 import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
-import knex from "knex";
+import { spawnSync } from "node:child_process";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { clusterUrl, ensureCluster, ensureDatabase, startCluster, stopCluster, type ClusterInfo } from "../../app/dev/cluster";
-import { migrationConfig } from "../../db/config";
+import { ROOT } from "../support/build";
 import { freePort, startServer, type RunningServer } from "../support/server";
 
 // QUALITY.md, Reliability → Database down: 503 with Retry-After, then recovery without a restart.
@@ -18,10 +18,13 @@ beforeAll(async () => {
   fs.chmodSync(dir, 0o755);
   info = ensureCluster("outage", await freePort(), { fast: true, dataDir: path.join(dir, "pg") });
   await ensureDatabase(info, "fallwright");
-  const k = knex({ client: "pg", connection: clusterUrl(info, "fallwright"), ...migrationConfig });
-  await k.migrate.latest();
-  await k.seed.run();
-  await k.destroy();
+  // Knex imports .ts migrations natively, which vitest's workers cannot: migrate in a tsx child.
+  const r = spawnSync(process.execPath, ["--import", "tsx", path.join(ROOT, "app/dev/migrate.ts")], {
+    cwd: ROOT,
+    encoding: "utf8",
+    env: { ...process.env, DATABASE_URL: clusterUrl(info, "fallwright") },
+  });
+  if (r.status !== 0) throw new Error(`migrate failed: ${r.stderr}`);
   server = await startServer(clusterUrl(info, "fallwright"));
 }, 180_000);
 

@@ -74,7 +74,9 @@ async function main() {
     if (fs.existsSync(file)) {
       const r = JSON.parse(fs.readFileSync(file, "utf8"));
       passed += r.numPassedTests;
-      failed += r.numFailedTests + (r.numRuntimeErrorTestSuites ?? 0) + (r.success || r.numFailedTests ? 0 : 1);
+      // A skipped test counts as failed: here it only happens when a file's set-up broke.
+      failed += r.numFailedTests + r.numPendingTests + (r.numRuntimeErrorTestSuites ?? 0);
+      if (!r.success && r.numFailedTests + r.numPendingTests === 0) failed++;
     } else {
       failed++;
     }
@@ -104,7 +106,7 @@ async function main() {
     if (fs.existsSync(file)) {
       const r = JSON.parse(fs.readFileSync(file, "utf8"));
       passed += r.stats.expected + (r.stats.flaky ?? 0);
-      failed += r.stats.unexpected;
+      failed += r.stats.unexpected + (r.stats.skipped ?? 0);
       if (r.errors?.length) failed += r.errors.length;
     } else {
       failed++;

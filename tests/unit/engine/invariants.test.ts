@@ -231,8 +231,20 @@ describe("invariants on random valid roofs", () => {
         for (const [drain, value] of Object.entries(catchment(a))) {
           expect(Math.abs(value - (catchment(b)[drain] ?? 0))).toBeLessThanOrEqual(slack);
         }
+        // A face whose fall sits within 5 % of a band edge may land on either side after the
+        // rounding of a move; the bands must agree but for those faces.
+        const m = run(spec, true).shaped.mesh!;
+        const edges = a.shaped.fallMap.areaByBand.flatMap((band) => [band.minRatio, band.maxRatio]).filter((r): r is number => r != null && Number.isFinite(r));
+        let onEdge = 0;
+        for (let f = 0; f < m.faceRatio.length; f++) {
+          const r = m.faceRatio[f];
+          if (r == null || !edges.some((e) => Math.abs(Math.log(r / e)) < 0.05)) continue;
+          const [i, j, k] = [m.indices[3 * f], m.indices[3 * f + 1], m.indices[3 * f + 2]];
+          const [ax, ay, bx, by, cx, cy] = [m.positions[3 * i], m.positions[3 * i + 1], m.positions[3 * j], m.positions[3 * j + 1], m.positions[3 * k], m.positions[3 * k + 1]];
+          onEdge += Math.abs((bx - ax) * (cy - ay) - (cx - ax) * (by - ay)) / 2;
+        }
         a.shaped.fallMap.areaByBand.forEach((band, i) => {
-          expect(Math.abs(band.area - b.shaped.fallMap.areaByBand[i].area)).toBeLessThanOrEqual(0.01 * area);
+          expect(Math.abs(band.area - b.shaped.fallMap.areaByBand[i].area)).toBeLessThanOrEqual(0.01 * area + onEdge);
         });
       }),
       RUNS,
