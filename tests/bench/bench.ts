@@ -111,7 +111,7 @@ export const engineSection: Section = {
   },
 };
 
-/** Sections in order; the API section is appended here. */
+/** Sections in order. */
 export const SECTIONS: Section[] = [engineSection];
 
 function printRows(title: string, rows: BenchRow[]): void {
@@ -138,7 +138,9 @@ export async function main(sections: Section[] = SECTIONS): Promise<boolean> {
 }
 
 if (import.meta.url === `file://${process.argv[1]}`) {
-  main().then(
+  const { apiSection } = await import("./api-section.ts");
+  const chosen = process.argv.includes("--engine-only") ? SECTIONS : [...SECTIONS, apiSection];
+  main(chosen).then(
     (ok) => process.exit(ok ? 0 : 1),
     (error) => {
       console.error(error);

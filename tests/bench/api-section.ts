@@ -1,0 +1,43 @@
+/**
+ * API throughput: POST /api/v1/analyses on a small roof against GET /api/v1 (a trivial JSON
+ * answer) on the same production server in the same run. The server is pinned to one core and
+ * the load generator to the other where `taskset` allows (QUALITY.md: ratio ≥ 0.5).
+ */
+import { spawnSync } from "node:child_process";
+import autocannon from "autocannon";
+import type { BenchRow, Section } from "./bench.ts";
+import { benchServer, SMALL_ROOF } from "./harness.ts";
+
+const SECONDS = Number(process.env.BENCH_API_SECONDS ?? 10);
+
+function pin(pid: number, core: number): boolean {
+  return spawnSync("taskset", ["-a", "-p", "-c", String(core), String(pid)], { stdio: "ignore" }).status === 0;
+}
+
+async function rps(url: string, init: { method: string; headers?: Record<string, string>; body?: string }) {
+  const r = await autocannon({ url, connections: 10, duration: SECONDS, ...init });
+  if (r.errors || r.timeouts || r.non2xx) throw new Error(`${init.method} ${url}: ${r.errors} errors, ${r.timeouts} timeouts, ${r.non2xx} non-2xx`);
+  return { rps: r.requests.average, p99: r.latency.p99 };
+}
+
+export const apiSection: Section = {
+  title: "API: analyses on a small roof vs a trivial JSON route (requests/s, same server, same run)",
+  async run(): Promise<BenchRow[]> {
+    const { server, stop } = await benchServer("fallwright_bench", { API_RATE_LIMIT_PER_MINUTE: "100000000" });
+    try {
+      const pinned = pin(server.proc.pid!, 0) && pin(process.pid, 1);
+      const json = { "Content-Type": "application/json" };
+      const trivial = await rps(`${server.url}/api/v1`, { method: "GET" });
+      const full = await rps(`${server.url}/api/v1/analyses`, { method: "POST", headers: json, body: JSON.stringify(SMALL_ROOF) });
+      const lean = await rps(`${server.url}/api/v1/analyses?mesh=false&traces=false`, { method: "POST", headers: json, body: JSON.stringify(SMALL_ROOF) });
+      const note = pinned ? "server on core 0, load on core 1" : "not pinned (taskset unavailable)";
+      return [
+        { name: "GET /api/v1 (trivial JSON)", value: trivial.rps, unit: "req/s", score: 1, target: "baseline", pass: true, note: `p99 ${trivial.p99} ms; ${note}` },
+        { name: "POST /api/v1/analyses (full)", value: full.rps, unit: "req/s", score: full.rps / trivial.rps, target: "≥ 0.5 of baseline", pass: full.rps / trivial.rps >= 0.5, note: `p99 ${full.p99} ms; mesh and traces included` },
+        { name: "POST /api/v1/analyses (figures)", value: lean.rps, unit: "req/s", score: lean.rps / trivial.rps, target: "≥ 0.5 of baseline", pass: lean.rps / trivial.rps >= 0.5, note: `p99 ${lean.p99} ms; ?mesh=false&traces=false` },
+      ];
+    } finally {
+      await stop();
+    }
+  },
+};
