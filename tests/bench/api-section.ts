@@ -14,7 +14,7 @@ function pin(pid: number, core: number): boolean {
   return spawnSync("taskset", ["-a", "-p", "-c", String(core), String(pid)], { stdio: "ignore" }).status === 0;
 }
 
-async function rps(url: string, init: { method: string; headers?: Record<string, string>; body?: string }) {
+async function rps(url: string, init: { method: "GET" | "POST"; headers?: Record<string, string>; body?: string }) {
   const r = await autocannon({ url, connections: 10, duration: SECONDS, ...init });
   if (r.errors || r.timeouts || r.non2xx) throw new Error(`${init.method} ${url}: ${r.errors} errors, ${r.timeouts} timeouts, ${r.non2xx} non-2xx`);
   return { rps: r.requests.average, p99: r.latency.p99 };
