@@ -11,6 +11,8 @@ export const streamTimeout = 5_000;
 declare module "react-router" {
   interface AppLoadContext {
     cspNonce?: string;
+    /** Set by handleError when a loader found the database down (production hides the error itself). */
+    dbUnavailable?: boolean;
     /** The client's address as the Express host sees it (rate limits, audit log). */
     clientIp?: string;
   }
@@ -33,7 +35,7 @@ export default function handleRequest(
   routerContext: EntryContext,
   loadContext: AppLoadContext,
 ) {
-  responseStatusCode = statusFor(responseStatusCode, routerContext);
+  responseStatusCode = loadContext?.dbUnavailable ? 503 : statusFor(responseStatusCode, routerContext);
   if (responseStatusCode === 503) responseHeaders.set("Retry-After", "5");
   if (request.method.toUpperCase() === "HEAD") {
     return new Response(null, { status: responseStatusCode, headers: responseHeaders });
@@ -76,9 +78,10 @@ export default function handleRequest(
   });
 }
 
-export const handleError: HandleErrorFunction = (error, { request }) => {
+export const handleError: HandleErrorFunction = (error, { request, context }) => {
   if (request.signal.aborted) return;
   if (isDbUnavailable(error)) {
+    if (context && typeof context === "object") (context as { dbUnavailable?: boolean }).dbUnavailable = true;
     console.warn(`[db] unavailable while serving ${new URL(request.url).pathname}`);
     return;
   }

@@ -8,7 +8,7 @@ import { Authenticator } from "remix-auth";
 import { FormStrategy } from "remix-auth-form";
 import { z } from "zod";
 import { audit } from "~/lib/audit.server";
-import { db } from "~/lib/db.server";
+import { db, isDbUnavailable } from "~/lib/db.server";
 import { hashPassword, needsRehash, verifyPassword } from "~/lib/password.server";
 import { can, type Permission, type Role } from "~/lib/permissions";
 import { clearHits, clientIp, hitAll, LIMITS, undoHit, waitPhrase } from "~/lib/rate-limit.server";
@@ -131,7 +131,13 @@ export function getLiveSession(request: Request): Promise<LiveSession | null> {
 }
 
 export async function getOptionalUser(request: Request): Promise<SessionUser | null> {
-  return (await getLiveSession(request))?.user ?? null;
+  try {
+    return (await getLiveSession(request))?.user ?? null;
+  } catch (error) {
+    // Every page asks this first: a database that is down becomes the friendly 503 page.
+    if (isDbUnavailable(error)) throw data("The database is not answering.", { status: 503, headers: { "Retry-After": "5" } });
+    throw error;
+  }
 }
 
 /** Only a same-site path may be a redirect target (never "//host" or an absolute URL). */

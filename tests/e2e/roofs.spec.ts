@@ -124,6 +124,7 @@ async function openAs(browser: Browser, url?: string) {
 }
 
 test("two tabs edit one roof: one saves, the other gets the 409 banner and keeps its work as a copy", async ({ browser }) => {
+  test.slow(); // three signed-in 3D pages at once, drawn by software WebGL
   const setup = await openAs(browser);
   const base = `Two tabs ${unique()}`;
   const id = await newRoof(setup.page, base, RECT(10, 6));
