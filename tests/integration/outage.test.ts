@@ -8,7 +8,8 @@ import { ROOT } from "../support/build";
 import { freePort, startServer, type RunningServer } from "../support/server";
 
 // QUALITY.md, Reliability → Database down: 503 with Retry-After, then recovery without a restart.
-// This file stops PostgreSQL, so it gets a cluster of its own and never touches the shared one.
+// This file stops PostgreSQL, so it gets a cluster of its own and never touches the shared one;
+// that cluster keeps fsync on, since an immediate stop is a crash and must not lose commits.
 let info: ClusterInfo;
 let server: RunningServer;
 let dir: string;
@@ -16,7 +17,7 @@ let dir: string;
 beforeAll(async () => {
   dir = fs.mkdtempSync(path.join(os.tmpdir(), "fw-outage-"));
   fs.chmodSync(dir, 0o755);
-  info = ensureCluster("outage", await freePort(), { fast: true, dataDir: path.join(dir, "pg") });
+  info = ensureCluster("outage", await freePort(), { fast: false, dataDir: path.join(dir, "pg") });
   await ensureDatabase(info, "fallwright");
   // Knex imports .ts migrations natively, which vitest's workers cannot: migrate in a tsx child.
   const r = spawnSync(process.execPath, ["--import", "tsx", path.join(ROOT, "app/dev/migrate.ts")], {
@@ -68,7 +69,7 @@ describe("PostgreSQL stops and comes back", () => {
     expect(html).toContain("Back in a moment");
     expect(html).not.toMatch(/at .+\.(js|ts):\d+/); // no stack trace
 
-    startCluster(info, true);
+    startCluster(info, false);
     let status = 0;
     const end = Date.now() + 20_000;
     while (Date.now() < end) {
