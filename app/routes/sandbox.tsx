@@ -3,7 +3,6 @@
  *
  * Interface for other pages (saved roofs /roofs/:id, the lesson player, classroom follow):
  *   import { SandboxWorkspace } from "~/components/sandbox/workspace";
-import { SaveToLibrary } from "~/components/roofs/save-to-library";
  *   <SandboxWorkspace
  *     initialSpec={spec}          // RoofSpec, read once on mount (remount with a new `key` to load another roof)
  *     onSpecChange={(spec) => …}  // after every change: edits, undo/redo, replaceSpec
@@ -27,7 +26,7 @@ import type { Route } from "./+types/sandbox";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
 import { DEMO_ROOF } from "~/components/sandbox/demo-roof";
 import { readLinkedSpec } from "~/components/sandbox/linked-spec.server";
-import { useSandboxStore } from "~/components/sandbox/store";
+import { ResetRoofButton } from "~/components/sandbox/reset-roof-button";
 import { SandboxWorkspace } from "~/components/sandbox/workspace";
 import { SaveToLibrary } from "~/components/roofs/save-to-library";
 
@@ -43,18 +42,10 @@ export async function loader({ request }: Route.LoaderArgs) {
 }
 
 function StartOver() {
-  const store = useSandboxStore();
   return (
-    <button
-      type="button"
-      className="btn px-2"
-      onClick={() => {
-        store.getState().replaceSpec(structuredClone(DEMO_ROOF));
-        store.getState().setNotice("Back to the demo roof (Undo returns yours).");
-      }}
-    >
+    <ResetRoofButton spec={DEMO_ROOF} notice="Back to the demo roof (Undo returns yours).">
       Start over
-    </button>
+    </ResetRoofButton>
   );
 }
 

@@ -2,7 +2,7 @@ import { RotateCcw } from "lucide-react";
 import type { RoofSpec } from "~/engine";
 import type { ItemResult } from "~/lib/lessons/grade";
 import type { LessonView } from "~/lib/lessons/types";
-import { useSandboxStore } from "~/components/sandbox/store";
+import { ResetRoofButton } from "~/components/sandbox/reset-roof-button";
 import { SandboxWorkspace } from "~/components/sandbox/workspace";
 import { ItemFeedback } from "./results";
 import { PROSE } from "./prose";
@@ -18,18 +18,10 @@ const EDITABLE_WORDS: Record<string, string> = {
 };
 
 function ResetRoof({ start }: { start: RoofSpec }) {
-  const store = useSandboxStore();
   return (
-    <button
-      type="button"
-      className="btn px-2"
-      onClick={() => {
-        store.getState().replaceSpec(structuredClone(start));
-        store.getState().setNotice("Back to the task's starting roof (Undo returns yours).");
-      }}
-    >
+    <ResetRoofButton spec={start} notice="Back to the task's starting roof (Undo returns yours).">
       <RotateCcw aria-hidden="true" className="h-4 w-4" /> Starting roof
-    </button>
+    </ResetRoofButton>
   );
 }
 
