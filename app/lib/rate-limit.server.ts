@@ -126,14 +126,34 @@ export function waitPhrase(seconds: number): string {
 }
 
 /**
- * Per-IP budget for the JSON API (600 requests a minute). Returns a 429 JSON response with
- * Retry-After to send back, or null when the request may go ahead.
+ * Per-IP budget for the open analysis API (600 requests a minute). Unlike sign-in, this cap is
+ * kept in each process's memory: it guards against a runaway script, it is generous, and a
+ * database round trip per analysis would halve the API's throughput. With several processes
+ * behind a load balancer the cap applies per process. Returns a 429 JSON response with
+ * Retry-After, or null when the request may go ahead.
  */
 export async function limitApiRequest(context: AppLoadContext | undefined | null): Promise<Response | null> {
-  const r = await hit(`api:${clientIp(context)}`, LIMITS.api);
+  const r = hitInMemory(`api:${clientIp(context)}`, LIMITS.api);
   if (r.ok) return null;
   return Response.json(
     { error: { message: `Too many requests from this address. Wait ${waitPhrase(r.retryAfter)} and try again.`, issues: [] } },
     { status: 429, headers: { "Retry-After": String(r.retryAfter), "Cache-Control": "no-store" } },
   );
+}
+
+const windows = new Map<string, { start: number; count: number }>();
+
+/** Fixed-window counter in this process's memory (see limitApiRequest for why). */
+export function hitInMemory(key: string, { limit, windowSeconds }: Limit, now = Date.now()): HitResult {
+  const size = windowSeconds * 1000;
+  const start = Math.floor(now / size) * size;
+  let w = windows.get(key);
+  if (!w || w.start !== start) {
+    if (windows.size > 50_000) for (const [k, v] of windows) if (v.start !== start) windows.delete(k);
+    w = { start, count: 0 };
+    windows.set(key, w);
+  }
+  if (w.count >= limit) return { ok: false, retryAfter: Math.max(1, Math.ceil((start + size - now) / 1000)) };
+  w.count++;
+  return { ok: true, retryAfter: 0 };
 }

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { useTestDatabase } from "../support/db";
-import { clearHits, hit, limitApiRequest, undoHit } from "~/lib/rate-limit.server";
+import { clearHits, hit, hitInMemory, limitApiRequest, undoHit } from "~/lib/rate-limit.server";
 
 // Counters live in PostgreSQL so that several app processes share them (QUALITY.md, Security → Brute force).
 const database = useTestDatabase();
@@ -52,16 +52,20 @@ describe("hit()", () => {
 
   it("limitApiRequest answers 429 JSON with Retry-After after 600 requests a minute from one address", async () => {
     const context = { clientIp: `198.18.0.${Math.floor(Math.random() * 250)}` };
-    await database.db()("rate_limits").insert({
-      key: `api:${context.clientIp}`,
-      window_start: database.db().raw("to_timestamp(floor(extract(epoch from clock_timestamp()) / 60) * 60)"),
-      count: 599,
-    });
-    expect(await limitApiRequest(context)).toBeNull();
+    for (let i = 0; i < 600; i++) expect(await limitApiRequest(context)).toBeNull();
     const refused = await limitApiRequest(context);
     expect(refused?.status).toBe(429);
     expect(Number(refused?.headers.get("retry-after"))).toBeGreaterThan(0);
     expect((await refused!.json()).error.message).toMatch(/Too many requests/);
     expect(await limitApiRequest({ clientIp: "198.18.1.1" })).toBeNull();
+  });
+
+  it("the in-memory API window starts afresh each minute", () => {
+    const limit = { limit: 3, windowSeconds: 60 };
+    const t0 = Date.UTC(2026, 11, 1, 12, 0, 10);
+    for (let i = 0; i < 3; i++) expect(hitInMemory("k", limit, t0).ok).toBe(true);
+    const refused = hitInMemory("k", limit, t0);
+    expect(refused).toEqual({ ok: false, retryAfter: 50 });
+    expect(hitInMemory("k", limit, t0 + 50_000).ok).toBe(true);
   });
 });

@@ -29,17 +29,20 @@ describe("POST /api/v1/analyses", () => {
     expect(res.status).toBe(200);
     const a = await res.json();
     expect(a.shaped.highLevel).toBeCloseTo(0.25, 12);
-    for (const key of ["joistDirection", "edgeFalls", "longestFallLine", "worstFallRatio", "joists", "fallMap", "catchments", "ponding", "probes", "mesh"]) {
+    for (const key of ["joistDirection", "edgeFalls", "longestFallLine", "worstFallRatio", "joists", "fallMap", "catchments", "ponding", "probes"]) {
       expect(a.shaped).toHaveProperty(key);
     }
     for (const key of ["gutter", "openEdge", "comparison", "advice", "warnings"]) expect(a).toHaveProperty(key);
-    expect(Array.isArray(a.shaped.mesh.positions)).toBe(true);
-  });
-
-  it("leaves out the mesh and traces on request", async () => {
-    const a = await (await call(post(JSON.stringify(spec), undefined, `${URL_}?mesh=false&traces=false`))).json();
+    // The bulky 3D parts come only on request.
     expect(a.shaped.mesh).toBeUndefined();
     expect(a.shaped.flowTraces).toBeUndefined();
+  });
+
+  it("adds the mesh and traces on request", async () => {
+    const a = await (await call(post(JSON.stringify(spec), undefined, `${URL_}?mesh=true&traces=true`))).json();
+    expect(Array.isArray(a.shaped.mesh.positions)).toBe(true);
+    expect(a.shaped.mesh.indices.length % 3).toBe(0);
+    expect(Array.isArray(a.shaped.flowTraces)).toBe(true);
   });
 
   it("415 unless the body is declared JSON", async () => {
