@@ -11,7 +11,7 @@ import { audit } from "~/lib/audit.server";
 import { db, isDbUnavailable } from "~/lib/db.server";
 import { hashPassword, needsRehash, verifyPassword } from "~/lib/password.server";
 import { can, type Permission, type Role } from "~/lib/permissions";
-import { clearHits, clientIp, hitAll, LIMITS, undoHit, waitPhrase } from "~/lib/rate-limit.server";
+import { clearHits, clientIp, hit, LIMITS, peekAll, waitPhrase } from "~/lib/rate-limit.server";
 import { clearSessionCookie, createSession, destroySession, findLiveSession, type LiveSession, type SessionUser } from "~/lib/session.server";
 
 export type { SessionUser } from "~/lib/session.server";
@@ -81,7 +81,8 @@ export async function signIn(request: Request, context?: AppLoadContext | null):
   const ip = clientIp(context);
   const accountKey = { key: `signin:account:${email}`, ...LIMITS.signInAccount };
   const ipKey = { key: `signin:ip:${ip}`, ...LIMITS.signInIp };
-  const limited = await hitAll([accountKey, ipKey]);
+  // Checked before bcrypt runs; only failures are counted (below).
+  const limited = await peekAll([accountKey, ipKey]);
   if (!limited.ok) {
     await audit({ action: "sign_in_limited", detail: { email }, ip });
     return {
@@ -97,12 +98,13 @@ export async function signIn(request: Request, context?: AppLoadContext | null):
     user = await authenticator.authenticate("form", request);
   } catch (error) {
     if (!(error instanceof InvalidCredentials)) throw error;
+    await hit(accountKey.key, accountKey);
+    await hit(ipKey.key, ipKey);
     await audit({ action: "sign_in_failed", subjectId: error.userId, detail: { email }, ip });
     return { ok: false, status: 400, email: typed, formError: SIGN_IN_FAILED };
   }
-  // Only failures count: a good sign-in gives back its attempt.
+  // A good sign-in forgets the account's earlier failures.
   await clearHits(accountKey.key);
-  await undoHit(ipKey.key, ipKey);
   const setCookie = await createSession(request, user.id);
   await audit({ action: "sign_in", actorId: user.id, subjectId: user.id, ip });
   return { ok: true, user, setCookie };

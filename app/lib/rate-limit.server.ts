@@ -55,6 +55,35 @@ export async function hit(key: string, { limit, windowSeconds }: Limit): Promise
   return { ok: false, retryAfter: retryAfterSeconds(count - 1, prev, elapsed, limit, windowSeconds) };
 }
 
+/**
+ * Whether one more attempt against `key` would be within its limit, without counting it. Sign-in
+ * asks this first and counts only failures, so a class signing in together from one address is
+ * not refused for the moments its good attempts are in flight.
+ */
+export async function peek(key: string, { limit, windowSeconds }: Limit): Promise<HitResult> {
+  const { rows } = await db().raw<{ rows: { count: number; prev: number; elapsed: number }[] }>(
+    `with w as (select to_timestamp(floor(extract(epoch from clock_timestamp()) / ?) * ?) as start)
+     select coalesce((select r.count from rate_limits r, w where r.key = ? and r.window_start = w.start), 0) as count,
+            coalesce((select r.count from rate_limits r, w where r.key = ? and r.window_start = w.start - make_interval(secs => ?)), 0) as prev,
+            extract(epoch from clock_timestamp() - (select start from w))::float8 as elapsed`,
+    [windowSeconds, windowSeconds, key, key, windowSeconds],
+  );
+  const { count, prev, elapsed } = rows[0];
+  const weight = Math.max(0, 1 - elapsed / windowSeconds);
+  if (prev * weight + count + 1 <= limit) return { ok: true, retryAfter: 0 };
+  return { ok: false, retryAfter: retryAfterSeconds(count, prev, elapsed, limit, windowSeconds) };
+}
+
+/** peek() for several keys: refused when any is full, with the longest wait. */
+export async function peekAll(keys: (Limit & { key: string })[]): Promise<HitResult> {
+  let worst: HitResult = { ok: true, retryAfter: 0 };
+  for (const k of keys) {
+    const r = await peek(k.key, k);
+    if (!r.ok && (worst.ok || r.retryAfter > worst.retryAfter)) worst = r;
+  }
+  return worst;
+}
+
 /** Seconds until the weighted count leaves room for one more attempt. */
 function retryAfterSeconds(count: number, prev: number, elapsed: number, limit: number, w: number): number {
   const room = limit - 1;
