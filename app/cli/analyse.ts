@@ -53,7 +53,8 @@ export function report(a: Analysis, name: string): string {
   add(`  Joist direction       (${s.joistDirection.map((d) => d.toFixed(3)).join(", ")}), ${s.joists.length} joists`);
   for (const f of s.edgeFalls) add(`  Edge ${f.edge + 1} fall           ${formatRatio(f.ratio)} from ${pt(f.from)} to ${pt(f.to)}`);
   const l = s.longestFallLine;
-  if (l) add(`  Longest fall line     ${metres(l.length)} from ${pt(l.from)} to ${l.drain}, drop ${mm(l.drop)}, ${formatRatio(l.ratio)}`);
+  const drainLabel = (id: string) => s.catchments.find((c) => c.drain === id)?.label ?? id;
+  if (l) add(`  Longest fall line     ${metres(l.length)} from ${pt(l.from)} to ${drainLabel(l.drain)}, drop ${mm(l.drop)}, ${formatRatio(l.ratio)}`);
   if (s.worstFallRatio !== null) add(`  Worst fall line       ${formatRatio(s.worstFallRatio)}`);
   add(`  Flatter than minimum  ${m2(s.fallMap.flatterThanMinimumArea)}`);
   for (const b of s.fallMap.areaByBand) add(`    ${b.label.padEnd(20)} ${m2(b.area)}`);
@@ -84,6 +85,10 @@ export function report(a: Analysis, name: string): string {
   add();
   add(a.warnings.length ? `Warnings (${a.warnings.length})` : "No warnings");
   for (const w of a.warnings) add(`  [${w.code}] ${w.message}`);
+  add();
+  add("Caution: a teaching and early-design aid. Falls, outlets and overflows, structure and fixing");
+  add("must be confirmed by the designer of record against the local building code and by licensed");
+  add("practitioners.");
   return lines.join("\n");
 }
 
