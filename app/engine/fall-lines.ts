@@ -8,20 +8,35 @@ import type { Roof } from "./roof";
 import { drainLabel } from "./traces";
 import type { FallLine, Point } from "./types";
 
-/** Start points of fall lines: perimeter vertices at H and the high points half-way between outlets. */
-export function fallLineStarts(roof: Roof, levels: PerimeterLevels): [number, number][] {
-  const starts: [number, number][] = [];
+/**
+ * Start points of fall lines: perimeter vertices at H and the high points half-way between
+ * outlets. A half-way point is a ridge, where water could turn either way: it is given the
+ * outlet before it on its edge (both are equally far along the parapet), so rounding in the
+ * mesh never decides. The third number is that outlet's index, or -1.
+ */
+export function fallLineStarts(roof: Roof, levels: PerimeterLevels): [number, number, number][] {
+  const starts: [number, number, number][] = [];
   const H = levels.H;
-  for (let i = 0; i < roof.n; i++) if (Math.abs(levels.vertex[i] - H) <= 1e-12) starts.push([roof.xs[i], roof.ys[i]]);
+  for (let i = 0; i < roof.n; i++) if (Math.abs(levels.vertex[i] - H) <= 1e-12) starts.push([roof.xs[i], roof.ys[i], -1]);
   for (let j = 0; j < roof.n; j++) {
     const q = (j + 1) % roof.n;
     for (let k = 0; k < levels.t[j].length; k++) {
       if (levels.kind[j][k] !== 2) continue;
       const s = levels.t[j][k] / roof.len[j];
-      starts.push([roof.xs[j] + s * (roof.xs[q] - roof.xs[j]), roof.ys[j] + s * (roof.ys[q] - roof.ys[j])]);
+      starts.push([roof.xs[j] + s * (roof.xs[q] - roof.xs[j]), roof.ys[j] + s * (roof.ys[q] - roof.ys[j]), outletAt(roof, j, levels.t[j][k - 1])]);
     }
   }
   return starts;
+}
+
+/** The outlet at distance t along internal edge j (corner outlets included), or -1. */
+function outletAt(roof: Roof, j: number, t: number | undefined): number {
+  if (t === undefined) return -1;
+  const q = (j + 1) % roof.n;
+  const tol = 1e-9 * Math.max(1, roof.len[j]);
+  return roof.outlets.findIndex((o) =>
+    o.vertex === j ? t <= tol : o.vertex === q ? Math.abs(t - roof.len[j]) <= tol : o.vertex < 0 && o.edge === j && Math.abs(o.t - t) <= tol,
+  );
 }
 
 const plan = (roof: Roof, x: number, y: number): Point => [roof.ox + x, roof.oy + y];
@@ -39,22 +54,47 @@ export function fallLines(
 ): FallLine[] {
   const lines: FallLine[] = [];
   const destinations = new Map<number, Destination>();
-  for (const [sx, sy] of fallLineStarts(roof, levels)) {
-    const u = sx * roof.dy - sy * roof.dx;
-    const v = sx * roof.dx + sy * roof.dy;
-    const vertex = nearestVertex(mesh, u, v);
-    const id = vertex >= 0 ? routing.vertexDrain[vertex] : -1;
-    const drain = routing.drains[id];
-    if (!drain || drain.kind === "pit") continue;
+  const destinationOf = (id: number): Destination => {
     let to = destinations.get(id);
     if (!to) {
+      const drain = routing.drains[id];
       const o = drain.kind === "outlet" ? roof.outlets[drain.index] : null;
       to = o ? geodesic.toPoint(o.x, o.y) : geodesic.toEdge(drain.index);
       destinations.set(id, to);
     }
-    const path = geodesic.path(sx, sy, to);
+    return to;
+  };
+  // Starts sit at H, often on a ridge where water may turn either way; which mesh vertex is
+  // nearest must not decide (it flips with rounding). Look a little around the start and take
+  // the drain reached by the shortest path, as the water would.
+  const reach = 0.75 * Math.max(mesh.step, mesh.lineU.length > 1 ? Math.abs(mesh.lineU[1] - mesh.lineU[0]) : mesh.step);
+  for (const [sx, sy, outlet] of fallLineStarts(roof, levels)) {
+    const candidates = new Set<number>();
+    if (outlet >= 0) candidates.add(routing.drains.findIndex((d) => d.kind === "outlet" && d.index === outlet));
+    else {
+      for (let k = -1; k < 8; k++) {
+        const px = k < 0 ? sx : sx + reach * Math.cos((k * Math.PI) / 4);
+        const py = k < 0 ? sy : sy + reach * Math.sin((k * Math.PI) / 4);
+        const vertex = nearestVertex(mesh, px * roof.dy - py * roof.dx, px * roof.dx + py * roof.dy);
+        if (vertex >= 0) candidates.add(routing.vertexDrain[vertex]);
+      }
+    }
+    let id = -1;
+    let path: ReturnType<Geodesic["path"]> | null = null;
+    for (const c of candidates) {
+      const d = routing.drains[c];
+      if (!d || d.kind === "pit") continue;
+      const p = geodesic.path(sx, sy, destinationOf(c));
+      if (!(p.length > 0) || !Number.isFinite(p.length)) continue;
+      if (!path || p.length < path.length - 1e-9 || (Math.abs(p.length - path.length) <= 1e-9 && c < id)) {
+        path = p;
+        id = c;
+      }
+    }
+    const drain = routing.drains[id];
+    if (!drain || !path) continue;
     const drop = levels.H - drain.level;
-    if (!(path.length > 0) || !Number.isFinite(path.length) || drop <= 0) continue;
+    if (drop <= 0) continue;
     const ratio = path.length / drop;
     lines.push({
       from: plan(roof, sx, sy),

@@ -1,6 +1,6 @@
 /** Validation of roof writes for the JSON API (and the pages that post the same thing). */
 import { z } from "zod";
-import { parseSpec } from "~/engine/parse-spec";
+import { parseSpec } from "~/engine";
 import { jsonError, zodIssues } from "~/lib/json-api.server";
 import { roofNameSchema, type RoofDetail } from "~/lib/roofs.server";
 import { ROOF_FILE_MAX_BYTES } from "~/lib/roof-file";
