@@ -30,3 +30,12 @@ export function GeneralErrorBoundary() {
     </section>
   );
 }
+
+/** A route's ErrorBoundary for pages that draw their own frame (the shell, the present view). */
+export function PageErrorBoundary() {
+  return (
+    <div className="mx-auto max-w-2xl p-8">
+      <GeneralErrorBoundary />
+    </div>
+  );
+}

@@ -2,7 +2,7 @@ import { Form, Link, NavLink, Outlet, useLoaderData } from "react-router";
 import type { Route } from "./+types/_shell";
 import { getOptionalUser } from "~/lib/auth.server";
 import { can, ROLE_LABELS, type Permission } from "~/lib/permissions";
-import { GeneralErrorBoundary } from "~/components/error-boundary";
+import { PageErrorBoundary } from "~/components/error-boundary";
 import { Caution } from "~/components/caution";
 
 export async function loader({ request }: Route.LoaderArgs) {
@@ -82,10 +82,4 @@ export default function Shell() {
   );
 }
 
-export function ErrorBoundary() {
-  return (
-    <div className="mx-auto max-w-2xl p-8">
-      <GeneralErrorBoundary />
-    </div>
-  );
-}
+export { PageErrorBoundary as ErrorBoundary };

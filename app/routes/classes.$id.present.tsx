@@ -7,7 +7,7 @@ import { findClassFor } from "~/lib/classes.server";
 import { readLiveState } from "~/lib/live.server";
 import { presenterDecks } from "~/lib/present.server";
 import { Caution } from "~/components/caution";
-import { GeneralErrorBoundary } from "~/components/error-boundary";
+import { PageErrorBoundary } from "~/components/error-boundary";
 import { LiveRoof } from "~/components/classes/live-roof";
 import { PublishState } from "~/components/classes/publish-state";
 import { useLivePublisher } from "~/components/classes/use-live-publisher";
@@ -158,10 +158,4 @@ export default function Present() {
   );
 }
 
-export function ErrorBoundary() {
-  return (
-    <div className="mx-auto max-w-2xl p-8">
-      <GeneralErrorBoundary />
-    </div>
-  );
-}
+export { PageErrorBoundary as ErrorBoundary };
