@@ -4,7 +4,7 @@
  */
 import { readFileSync, writeFileSync } from "node:fs";
 import { parseArgs } from "node:util";
-import Papa from "papaparse";
+import { scheduleCsv as joistScheduleCsv } from "../components/sandbox/schedule-rows.ts";
 import { analyse, formatRatio, parseSpec, type Analysis } from "../engine/index.ts";
 
 const HELP = `Usage: npm run analyse -- <roof.json> [--csv <schedule.csv>]
@@ -19,25 +19,9 @@ const metres = (m: number) => `${m.toFixed(2)} m`;
 const pt = (p: [number, number]) => `(${p[0].toFixed(2)}, ${p[1].toFixed(2)})`;
 
 /** Rows of the drop schedule: one per joist span; levels and drops in millimetres. */
+/** The drop schedule as CSV, in the same columns as the sandbox's download. */
 export function scheduleCsv(a: Analysis): string {
-  const rows = a.shaped.joists.flatMap((j) =>
-    j.spans.map((s, k) => ({
-      joist: j.index + 1,
-      offset_m: +j.offset.toFixed(3),
-      span: k + 1,
-      start_x_m: +s.start[0].toFixed(3),
-      start_y_m: +s.start[1].toFixed(3),
-      end_x_m: +s.end[0].toFixed(3),
-      end_y_m: +s.end[1].toFixed(3),
-      length_m: +s.length.toFixed(3),
-      start_level_mm: Math.round(s.startLevel * 1000),
-      end_level_mm: Math.round(s.endLevel * 1000),
-      start_drop_mm: Math.round(s.startDrop * 1000),
-      end_drop_mm: Math.round(s.endDrop * 1000),
-      fall: formatRatio(s.ratio),
-    })),
-  );
-  return Papa.unparse(rows);
+  return joistScheduleCsv(a.shaped.joists);
 }
 
 /** The printed report. */

@@ -1,7 +1,6 @@
-import Papa from "papaparse";
 import type { Route } from "./+types/sandbox.schedule-csv";
 import { analyse, parseSpec } from "~/engine";
-import { CSV_COLUMNS, scheduleRows } from "~/components/sandbox/schedule-rows";
+import { scheduleCsv } from "~/components/sandbox/schedule-rows";
 
 /** Longest spec text accepted; 200 vertices and 100 outlets fit many times over. */
 const MAX_SPEC_CHARS = 256 * 1024;
@@ -45,16 +44,12 @@ export async function action({ request }: Route.ActionArgs) {
   }
   const parsed = parseSpec(input);
   if (!parsed.ok) return text(parsed.error.message, parsed.status);
-  let rows;
+  let csv: string;
   try {
-    rows = scheduleRows(analyse(parsed.spec, { mesh: false, traces: false }).shaped.joists);
+    csv = scheduleCsv(analyse(parsed.spec, { mesh: false, traces: false }).shaped.joists);
   } catch {
     return text("This roof could not be analysed.", 422);
   }
-  const csv = Papa.unparse({
-    fields: CSV_COLUMNS.map(([name]) => name),
-    data: rows.map((r) => CSV_COLUMNS.map(([, get]) => get(r))),
-  });
   return new Response(`\uFEFF${csv}\r\n`, {
     headers: {
       "Content-Type": "text/csv; charset=utf-8",

@@ -1,4 +1,5 @@
 import type { Analysis } from "~/engine";
+import Papa from "papaparse";
 import { formatRatio } from "./format";
 
 /** One span of one joist, as the builder reads it. Levels and drops in millimetres. */
@@ -63,3 +64,11 @@ export const CSV_COLUMNS: [string, (r: ScheduleRow) => string | number][] = [
   ["end_drop_below_H_mm", (r) => r.endDrop],
   ["fall", (r) => formatRatio(r.ratio)],
 ];
+
+/** The drop schedule as CSV text (one heading row, then a row per span): the sandbox's download and the CLI. */
+export function scheduleCsv(joists: Analysis["shaped"]["joists"]): string {
+  return Papa.unparse({
+    fields: CSV_COLUMNS.map(([name]) => name),
+    data: scheduleRows(joists).map((r) => CSV_COLUMNS.map(([, get]) => get(r))),
+  });
+}
