@@ -106,6 +106,7 @@ async function main() {
     if (fs.existsSync(file)) {
       const r = JSON.parse(fs.readFileSync(file, "utf8"));
       passed += r.stats.expected + (r.stats.flaky ?? 0);
+      if (r.stats.flaky) console.log(`[fallwright] ${r.stats.flaky} end-to-end test(s) passed only on retry (flaky): see the Playwright list above`);
       failed += r.stats.unexpected + (r.stats.skipped ?? 0);
       if (r.errors?.length) failed += r.errors.length;
     } else {
