@@ -1,4 +1,5 @@
-import { Canvas, useThree } from "@react-three/fiber";
+import { useThree } from "@react-three/fiber";
+import { SceneCanvas } from "./scene-canvas";
 import { useEffect, useMemo, useRef } from "react";
 import { useSandbox } from "../store";
 import { CameraRig } from "./camera-rig";
@@ -37,7 +38,7 @@ export default function RoofView3D({ className = "", resetKey = 0 }: { className
 
   return (
     <div ref={wrapper} className={`relative h-full w-full ${className}`} data-testid="view-3d">
-      <Canvas
+      <SceneCanvas
         frameloop="demand"
         dpr={[1, 2]}
         gl={{ preserveDrawingBuffer: true, antialias: true }}
@@ -59,7 +60,7 @@ export default function RoofView3D({ className = "", resetKey = 0 }: { className
           resetKey={`${frameKey(frame)}|${view.camera === "section" ? joist : ""}|${resetKey}`}
         />
         <Kick on={animate} />
-      </Canvas>
+      </SceneCanvas>
     </div>
   );
 }

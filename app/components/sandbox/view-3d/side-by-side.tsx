@@ -1,4 +1,4 @@
-import { Canvas } from "@react-three/fiber";
+import { SceneCanvas } from "./scene-canvas";
 import { useMemo, useRef } from "react";
 import type { Analysis, RoofSpec } from "~/engine";
 import { mm } from "../format";
@@ -35,7 +35,7 @@ function View({ label, children, frame, height, link, preset, resetKey, drains }
   resetKey: string;
 }) {
   return (
-    <Canvas
+    <SceneCanvas
       frameloop="demand"
       dpr={[1, 2]}
       gl={{ preserveDrawingBuffer: true, antialias: true }}
@@ -46,7 +46,7 @@ function View({ label, children, frame, height, link, preset, resetKey, drains }
       <color attach="background" args={["#f1eadb"]} />
       {children}
       <CameraRig preset={preset} frame={frame} height={height} section={null} drains={drains} link={link} resetKey={resetKey} />
-    </Canvas>
+    </SceneCanvas>
   );
 }
 
