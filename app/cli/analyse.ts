@@ -4,7 +4,7 @@
  */
 import { readFileSync, writeFileSync } from "node:fs";
 import { parseArgs } from "node:util";
-import { scheduleCsv as joistScheduleCsv } from "../components/sandbox/schedule-rows.ts";
+import { scheduleCsv as joistScheduleCsv } from "../components/sandbox/schedule-csv.ts";
 import { analyse, formatRatio, parseSpec, type Analysis } from "../engine/index.ts";
 
 const HELP = `Usage: npm run analyse -- <roof.json> [--csv <schedule.csv>]

@@ -1,6 +1,6 @@
 import type { Route } from "./+types/sandbox.schedule-csv";
 import { analyse, parseSpec } from "~/engine";
-import { scheduleCsv } from "~/components/sandbox/schedule-rows";
+import { scheduleCsv } from "~/components/sandbox/schedule-csv";
 
 /** Longest spec text accepted; 200 vertices and 100 outlets fit many times over. */
 const MAX_SPEC_CHARS = 256 * 1024;

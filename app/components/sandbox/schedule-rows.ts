@@ -1,6 +1,4 @@
 import type { Analysis } from "~/engine";
-import Papa from "papaparse";
-import { formatRatio } from "./format";
 
 /** One span of one joist, as the builder reads it. Levels and drops in millimetres. */
 export interface ScheduleRow {
@@ -46,29 +44,4 @@ export function scheduleRows(joists: Analysis["shaped"]["joists"]): ScheduleRow[
     });
   }
   return rows;
-}
-
-/** Column headings of the CSV file, in order, with how each row fills them. */
-export const CSV_COLUMNS: [string, (r: ScheduleRow) => string | number][] = [
-  ["joist", (r) => r.joist],
-  ["offset_m", (r) => r.offset],
-  ["span", (r) => r.span],
-  ["start_x_m", (r) => r.startX],
-  ["start_y_m", (r) => r.startY],
-  ["end_x_m", (r) => r.endX],
-  ["end_y_m", (r) => r.endY],
-  ["length_m", (r) => r.length],
-  ["start_level_mm", (r) => r.startLevel],
-  ["end_level_mm", (r) => r.endLevel],
-  ["start_drop_below_H_mm", (r) => r.startDrop],
-  ["end_drop_below_H_mm", (r) => r.endDrop],
-  ["fall", (r) => formatRatio(r.ratio)],
-];
-
-/** The drop schedule as CSV text (one heading row, then a row per span): the sandbox's download and the CLI. */
-export function scheduleCsv(joists: Analysis["shaped"]["joists"]): string {
-  return Papa.unparse({
-    fields: CSV_COLUMNS.map(([name]) => name),
-    data: scheduleRows(joists).map((r) => CSV_COLUMNS.map(([, get]) => get(r))),
-  });
 }
