@@ -1,106 +1,68 @@
-import {
-  createColumnHelper,
-  flexRender,
-  getCoreRowModel,
-  getSortedRowModel,
-  useReactTable,
-  type SortingState,
-} from "@tanstack/react-table";
-import { ArrowDown, ArrowUp, Download } from "lucide-react";
-import { useMemo, useState } from "react";
-import { FallRatio } from "./fall-ratio";
+import { Download } from "lucide-react";
+import { lazy, Suspense, useMemo } from "react";
 import { mm } from "./format";
-import { scheduleRows, type ScheduleRow } from "./schedule-rows";
+import { scheduleRows } from "./schedule-rows";
 import { useSandbox } from "./store";
+import { useNearViewport } from "./use-near-viewport";
 
-const column = createColumnHelper<ScheduleRow>();
-const num = (digits: number) => (v: number) => v.toFixed(digits);
+// The sortable table (and its table library) loads when the schedule scrolls near the screen:
+// the sandbox opens faster, and the heading and the CSV download are there at once.
+const ScheduleTable = lazy(() => import("./schedule-table"));
 
-const COLUMNS = [
-  column.accessor("joist", { header: "Joist" }),
-  column.accessor("offset", { header: "Offset (m)", cell: (c) => num(2)(c.getValue()) }),
-  column.accessor("span", { header: "Span" }),
-  column.accessor("length", { header: "Length (m)", cell: (c) => num(2)(c.getValue()) }),
-  column.accessor("startLevel", { header: "Start level (mm)" }),
-  column.accessor("endLevel", { header: "End level (mm)" }),
-  column.accessor("startDrop", { header: "Start drop below H (mm)" }),
-  column.accessor("endDrop", { header: "End drop below H (mm)" }),
-  column.accessor((r) => r.ratio ?? Infinity, {
-    id: "fall",
-    header: "Fall",
-    cell: (c) => <FallRatio ratio={c.row.original.ratio} />,
-  }),
-];
-
-const PAGE = 60;
+function Loading() {
+  return (
+    <p className="text-sm text-ink-soft" role="status">
+      Loading the schedule…
+    </p>
+  );
+}
 
 /** The drop schedule: every joist's spans with levels and drops below H, sortable, with a CSV download. */
 export function DropSchedule() {
   const analysis = useSandbox((s) => s.analysis);
   const spec = useSandbox((s) => s.analysedSpec);
-  const [sorting, setSorting] = useState<SortingState>([]);
-  const [all, setAll] = useState(false);
-  const rows = useMemo(() => (analysis ? scheduleRows(analysis.shaped.joists) : []), [analysis]);
-  const table = useReactTable({
-    data: rows,
-    columns: COLUMNS,
-    state: { sorting },
-    onSortingChange: setSorting,
-    getCoreRowModel: getCoreRowModel(),
-    getSortedRowModel: getSortedRowModel(),
-  });
+  const [anchor, near] = useNearViewport();
+  const rows = useMemo(
+    () => (analysis ? scheduleRows(analysis.shaped.joists) : []),
+    [analysis],
+  );
   if (!analysis) return null;
-  const shown = table.getRowModel().rows.slice(0, all ? undefined : PAGE);
   return (
-    <section aria-labelledby="drop-schedule-title" className="card" data-testid="drop-schedule">
+    <section
+      aria-labelledby="drop-schedule-title"
+      className="card"
+      data-testid="drop-schedule"
+    >
       <div className="mb-3 flex flex-wrap items-center gap-3">
-        <h2 id="drop-schedule-title" className="text-lg font-bold">Drop schedule</h2>
+        <h2 id="drop-schedule-title" className="text-lg font-bold">
+          Drop schedule
+        </h2>
         <p className="text-sm text-ink-soft">
-          {analysis.shaped.joists.length} joists, {rows.length} spans. High level H = {mm(analysis.shaped.highLevel)}; drops are
-          measured down from H at each bearing.
+          {analysis.shaped.joists.length} joists, {rows.length} spans. High
+          level H = {mm(analysis.shaped.highLevel)}; drops are measured down
+          from H at each bearing.
         </p>
-        <form method="post" action="/sandbox/schedule.csv" className="ml-auto" data-testid="csv-form">
+        <form
+          method="post"
+          action="/sandbox/schedule.csv"
+          className="ml-auto"
+          data-testid="csv-form"
+        >
           <input type="hidden" name="spec" value={JSON.stringify(spec)} />
           <button type="submit" className="btn" data-testid="download-csv">
             <Download size={16} aria-hidden="true" /> Download CSV
           </button>
         </form>
       </div>
-      <div className="max-h-[28rem] overflow-auto">
-        <table className="data-table w-full" data-testid="schedule-table">
-          <thead className="sticky top-0 bg-sheet">
-            {table.getHeaderGroups().map((g) => (
-              <tr key={g.id}>
-                {g.headers.map((h) => {
-                  const sorted = h.column.getIsSorted();
-                  return (
-                    <th key={h.id} scope="col" aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : "none"}>
-                      <button type="button" className="inline-flex items-center gap-1 uppercase" onClick={h.column.getToggleSortingHandler()}>
-                        {flexRender(h.column.columnDef.header, h.getContext())}
-                        {sorted === "asc" ? <ArrowUp size={12} aria-hidden="true" /> : sorted === "desc" ? <ArrowDown size={12} aria-hidden="true" /> : null}
-                      </button>
-                    </th>
-                  );
-                })}
-              </tr>
-            ))}
-          </thead>
-          <tbody>
-            {shown.map((row) => (
-              <tr key={row.id}>
-                {row.getVisibleCells().map((cell) => (
-                  <td key={cell.id}>{flexRender(cell.column.columnDef.cell, cell.getContext())}</td>
-                ))}
-              </tr>
-            ))}
-          </tbody>
-        </table>
+      <div ref={anchor}>
+        {near ? (
+          <Suspense fallback={<Loading />}>
+            <ScheduleTable rows={rows} />
+          </Suspense>
+        ) : (
+          <Loading />
+        )}
       </div>
-      {rows.length > PAGE && (
-        <button type="button" className="btn mt-2" onClick={() => setAll((a) => !a)}>
-          {all ? `Show the first ${PAGE}` : `Show all ${rows.length} spans`}
-        </button>
-      )}
     </section>
   );
 }

@@ -1,0 +1,117 @@
+import {
+  createColumnHelper,
+  flexRender,
+  getCoreRowModel,
+  getSortedRowModel,
+  useReactTable,
+  type SortingState,
+} from "@tanstack/react-table";
+import { ArrowDown, ArrowUp } from "lucide-react";
+import { useState } from "react";
+import { FallRatio } from "./fall-ratio";
+import type { ScheduleRow } from "./schedule-rows";
+
+const column = createColumnHelper<ScheduleRow>();
+const num = (digits: number) => (v: number) => v.toFixed(digits);
+
+const COLUMNS = [
+  column.accessor("joist", { header: "Joist" }),
+  column.accessor("offset", {
+    header: "Offset (m)",
+    cell: (c) => num(2)(c.getValue()),
+  }),
+  column.accessor("span", { header: "Span" }),
+  column.accessor("length", {
+    header: "Length (m)",
+    cell: (c) => num(2)(c.getValue()),
+  }),
+  column.accessor("startLevel", { header: "Start level (mm)" }),
+  column.accessor("endLevel", { header: "End level (mm)" }),
+  column.accessor("startDrop", { header: "Start drop below H (mm)" }),
+  column.accessor("endDrop", { header: "End drop below H (mm)" }),
+  column.accessor((r) => r.ratio ?? Infinity, {
+    id: "fall",
+    header: "Fall",
+    cell: (c) => <FallRatio ratio={c.row.original.ratio} />,
+  }),
+];
+
+const PAGE = 60;
+
+/** The drop schedule's rows as a sortable table (loaded when the schedule comes into view). */
+export default function ScheduleTable({ rows }: { rows: ScheduleRow[] }) {
+  const [sorting, setSorting] = useState<SortingState>([]);
+  const [all, setAll] = useState(false);
+  const table = useReactTable({
+    data: rows,
+    columns: COLUMNS,
+    state: { sorting },
+    onSortingChange: setSorting,
+    getCoreRowModel: getCoreRowModel(),
+    getSortedRowModel: getSortedRowModel(),
+  });
+  const shown = table.getRowModel().rows.slice(0, all ? undefined : PAGE);
+  return (
+    <>
+      <div className="max-h-[28rem] overflow-auto">
+        <table className="data-table w-full" data-testid="schedule-table">
+          <thead className="sticky top-0 bg-sheet">
+            {table.getHeaderGroups().map((g) => (
+              <tr key={g.id}>
+                {g.headers.map((h) => {
+                  const sorted = h.column.getIsSorted();
+                  return (
+                    <th
+                      key={h.id}
+                      scope="col"
+                      aria-sort={
+                        sorted === "asc"
+                          ? "ascending"
+                          : sorted === "desc"
+                            ? "descending"
+                            : "none"
+                      }
+                    >
+                      <button
+                        type="button"
+                        className="inline-flex items-center gap-1 uppercase"
+                        onClick={h.column.getToggleSortingHandler()}
+                      >
+                        {flexRender(h.column.columnDef.header, h.getContext())}
+                        {sorted === "asc" ? (
+                          <ArrowUp size={12} aria-hidden="true" />
+                        ) : sorted === "desc" ? (
+                          <ArrowDown size={12} aria-hidden="true" />
+                        ) : null}
+                      </button>
+                    </th>
+                  );
+                })}
+              </tr>
+            ))}
+          </thead>
+          <tbody>
+            {shown.map((row) => (
+              <tr key={row.id}>
+                {row.getVisibleCells().map((cell) => (
+                  <td key={cell.id}>
+                    {flexRender(cell.column.columnDef.cell, cell.getContext())}
+                  </td>
+                ))}
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+      {rows.length > PAGE && (
+        <button
+          type="button"
+          className="btn mt-2"
+          onClick={() => setAll((a) => !a)}
+        >
+          {all ? `Show the first ${PAGE}` : `Show all ${rows.length} spans`}
+        </button>
+      )}
+    </>
+  );
+}
