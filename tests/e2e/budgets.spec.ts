@@ -1,13 +1,13 @@
 import { gzipSync } from "node:zlib";
 import { expect, test, type Page } from "@playwright/test";
 
-// Budgets from QUALITY.md (Performance → Pages): gzip kB of JavaScript a page runs on its main
-// thread. The sandbox's engine runs in a Web Worker, off the main thread; its script is
-// measured and held to its own budget (and reported) rather than hidden.
-const BUDGETS: { path: string; kb: number; three: boolean; workerKb?: number }[] = [
+// Budgets from QUALITY.md (Performance → Pages): gzip kB of all the JavaScript a page loads to
+// open, its Web Workers' scripts included (the sandbox's engine runs in one). Code a page loads
+// later on demand (the drop schedule's table when it scrolls into view) is not counted.
+const BUDGETS: { path: string; kb: number; three: boolean }[] = [
   { path: "/", kb: 150, three: false },
   { path: "/login", kb: 150, three: false },
-  { path: "/sandbox", kb: 450, three: true, workerKb: 128 },
+  { path: "/sandbox", kb: 450, three: true },
 ];
 
 async function scriptsOf(page: Page, path: string) {
@@ -30,29 +30,39 @@ async function scriptsOf(page: Page, path: string) {
     await expect.poll(() => workers.size, { timeout: 30_000 }).toBeGreaterThan(0);
   }
   await page.waitForLoadState("networkidle");
+  // Scripts a worker imports count as the worker's.
+  for (const w of page.workers()) {
+    for (const url of await w.evaluate(() => performance.getEntriesByType("resource").map((e) => e.name))) workers.add(url);
+  }
   return { scripts, workers };
 }
 
 for (const b of BUDGETS) {
-  test(`JavaScript for ${b.path} stays within ${b.kb} kB gzip${b.three ? "" : " and has no three.js"}`, async ({ page }) => {
+  test(`JavaScript for ${b.path} stays within ${b.kb} kB gzip (workers included)${b.three ? "" : " and has no three.js"}`, async ({ page }) => {
     const { scripts, workers } = await scriptsOf(page, b.path);
     expect(scripts.size).toBeGreaterThan(0);
     let main = 0;
     let worker = 0;
     let hasThree = false;
+    const rows: string[] = [];
     for (const [url, body] of scripts) {
       const size = gzipSync(body).length;
+      rows.push(`${(size / 1024).toFixed(1).padStart(7)} kB ${workers.has(url) ? "worker" : "main  "} ${new URL(url).pathname}`);
       if (workers.has(url)) worker += size;
       else main += size;
       if (body.includes("WebGLRenderer")) hasThree = true;
     }
     test.info().annotations.push({ type: "gzip kB", description: `main ${(main / 1024).toFixed(1)}, worker ${(worker / 1024).toFixed(1)}` });
+    console.log(rows.sort().reverse().slice(0, 12).join("\n"));
     console.log(`${b.path}: main thread ${(main / 1024).toFixed(1)} kB gzip, worker ${(worker / 1024).toFixed(1)} kB gzip`);
-    expect(main / 1024).toBeLessThanOrEqual(b.kb);
-    if (b.workerKb !== undefined) {
-      expect(worker).toBeGreaterThan(0);
-      expect(worker / 1024).toBeLessThanOrEqual(b.workerKb);
-    }
+    if (b.path === "/sandbox") expect(worker).toBeGreaterThan(0);
+    expect((main + worker) / 1024).toBeLessThanOrEqual(b.kb);
     expect(hasThree).toBe(b.three);
+    if (b.path === "/sandbox") {
+      // The deferred part arrives when the reader gets there.
+      await expect(page.getByTestId("schedule-table")).toHaveCount(0);
+      await page.getByTestId("drop-schedule").scrollIntoViewIfNeeded();
+      await expect(page.getByTestId("schedule-table").locator("tbody tr").first()).toBeVisible();
+    }
   });
 }
