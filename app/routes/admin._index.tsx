@@ -1,3 +1,4 @@
+import { useState } from "react";
 import { data, Form, useActionData, useLoaderData, useSearchParams } from "react-router";
 import type { Route } from "./+types/admin._index";
 import { z } from "zod";
@@ -230,7 +231,7 @@ export default function AdminUsers() {
                               {u.status === "deactivated" ? (
                                 <button className="btn px-2 py-0.5 text-xs" type="submit" name="intent" value="reactivate">Reactivate</button>
                               ) : (
-                                <button className="btn px-2 py-0.5 text-xs" type="submit" name="intent" value="deactivate">Deactivate</button>
+                                <DeactivateButton name={u.name} />
                               )}
                             </Form>
                           ) : null}
@@ -245,5 +246,28 @@ export default function AdminUsers() {
         )}
       </section>
     </div>
+  );
+}
+
+/** Deactivating signs the person out at once, so it asks first (Escape or "Keep" backs out). */
+function DeactivateButton({ name }: { name: string }) {
+  const [asking, setAsking] = useState(false);
+  if (!asking) {
+    return (
+      <button className="btn px-2 py-0.5 text-xs" type="button" onClick={() => setAsking(true)}>
+        Deactivate
+      </button>
+    );
+  }
+  return (
+    <span className="flex items-center gap-1 text-xs" role="group" aria-label={`Deactivate ${name}?`} onKeyDown={(e) => e.key === "Escape" && setAsking(false)}>
+      <span>Sign {name} out and block?</span>
+      <button className="btn px-2 py-0.5 text-xs text-bad" type="submit" name="intent" value="deactivate" autoFocus>
+        Deactivate
+      </button>
+      <button className="btn px-2 py-0.5 text-xs" type="button" onClick={() => setAsking(false)}>
+        Keep
+      </button>
+    </span>
   );
 }

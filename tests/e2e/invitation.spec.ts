@@ -52,5 +52,19 @@ test("an admin invites a designer; the e-mailed link sets name and password and 
   // The link worked once.
   await p.goto(link);
   await expect(p.getByRole("heading", { name: "This invitation cannot be used" })).toBeVisible();
+
+  // The admin deactivates the new account: it asks first, and "Keep" backs out.
+  await page.reload();
+  const row = page.getByRole("row", { name: new RegExp(email) });
+  await row.getByRole("button", { name: "Deactivate" }).click();
+  await expect(row.getByRole("group", { name: "Deactivate Wren Castellane?" })).toBeVisible();
+  await row.getByRole("button", { name: "Keep" }).click();
+  await expect(row).toContainText("Active");
+  await row.getByRole("button", { name: "Deactivate" }).click();
+  await row.getByRole("group").getByRole("button", { name: "Deactivate" }).click();
+  await expect(page.getByRole("row", { name: new RegExp(email) })).toContainText("Deactivated");
+  // Their session ended with it.
+  await p.goto("/roofs");
+  await expect(p).toHaveURL(/\/login/);
   await invitee.close();
 });
