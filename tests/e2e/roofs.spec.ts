@@ -1,4 +1,5 @@
 import { expect, test, type Browser, type Page } from "@playwright/test";
+import { makePdf } from "../support/pdf";
 import { makePng } from "../support/png";
 
 // Saved roofs in the browser: save and reload, underlay scale by two clicks, two tabs and a 409.
@@ -110,6 +111,52 @@ test("upload a plan image, set its scale by two clicks and a typed distance, tra
   expect(image.headers()["content-type"]).toBe("image/png");
   expect(image.headers()["x-content-type-options"]).toBe("nosniff");
   expect(Buffer.from(await image.body()).equals(png)).toBe(true);
+});
+
+test("a page of a PDF drawing becomes the underlay, drawn in the browser at 3000 px on its long side", async ({ page }) => {
+  await signIn(page);
+  const id = await newRoof(page, `PDF underlay ${unique()}`, RECT(12, 6));
+  await page.goto(`/roofs/${id}`);
+  await page.getByText("Plan underlay").click();
+
+  // Page 1 is landscape 600 × 400 pt; page 2 portrait 300 × 600 pt with a rectangle stroked from
+  // (50, 100) to (250, 500) pt, 4 pt wide (PDF origin at the bottom left).
+  const pdf = makePdf([
+    { width: 600, height: 400, content: "0 G 2 w 100 100 400 200 re S" },
+    { width: 300, height: 600, content: "0 G 4 w 50 100 200 400 re S" },
+  ]);
+  await page.getByLabel(/Upload a plan image/).setInputFiles({ name: "annex-drawings.pdf", mimeType: "application/pdf", buffer: pdf });
+  const chooser = page.getByRole("group", { name: "Choose a page of the PDF" });
+  await expect(chooser).toContainText("annex-drawings.pdf has 2 pages");
+  await chooser.getByLabel("Page").fill("3");
+  await chooser.getByRole("button", { name: "Use this page" }).click();
+  await expect(page.getByRole("alert")).toHaveText("Pick a page from 1 to 2.");
+  await chooser.getByLabel("Page").fill("2");
+  await chooser.getByRole("button", { name: "Use this page" }).click();
+  await expect(page.getByText("Image uploaded. Now set its scale")).toBeVisible({ timeout: 30_000 });
+  // 3000 px / 600 pt = 5 px per point: 300 × 600 pt → 1500 × 3000 px.
+  await expect(page.getByText("1500 × 3000 px")).toBeVisible();
+
+  const image = await page.request.get(`/roofs/${id}/underlay`);
+  expect(image.headers()["content-type"]).toBe("image/png");
+  // The stroke lands where the page put it: x = 50 pt → 250 px; y = 600 − 300 pt → 1500 px.
+  const shades = await page.evaluate(async (url) => {
+    const bitmap = await createImageBitmap(await (await fetch(url)).blob());
+    const canvas = new OffscreenCanvas(bitmap.width, bitmap.height);
+    const ctx = canvas.getContext("2d")!;
+    ctx.drawImage(bitmap, 0, 0);
+    const at = (x: number, y: number) => ctx.getImageData(x, y, 1, 1).data[0];
+    return { size: [bitmap.width, bitmap.height], edge: at(250, 1500), inside: at(750, 1500), top: at(750, 500) };
+  }, `/roofs/${id}/underlay`);
+  expect(shades.size).toEqual([1500, 3000]);
+  expect(shades.edge).toBeLessThan(60);
+  expect(shades.top).toBeLessThan(60);
+  expect(shades.inside).toBeGreaterThan(200);
+
+  // Bytes that are not a PDF, whatever the name says, get a clear message and nothing uploads.
+  await page.getByLabel(/Upload a plan image/).setInputFiles({ name: "not-really.pdf", mimeType: "application/pdf", buffer: Buffer.from("hello, plan") });
+  await expect(page.getByRole("alert")).toContainText("not-really.pdf is not a PDF file");
+  await expect(page.getByText("1500 × 3000 px")).toBeVisible();
 });
 
 async function openAs(browser: Browser, url?: string) {

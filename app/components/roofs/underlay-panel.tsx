@@ -7,6 +7,13 @@ type Pt = [number, number];
 type Mode = "scale" | "trace" | null;
 
 const MAX_BYTES = 10 * 1024 * 1024;
+/** A PDF is read in the browser and only the chosen page is uploaded, as a PNG. */
+const MAX_PDF_BYTES = 50 * 1024 * 1024;
+
+type PdfModule = typeof import("./pdf-page");
+type PdfChoice = { pdfs: PdfModule; doc: Awaited<ReturnType<PdfModule["openPdf"]>>; name: string; pages: number; page: string };
+
+const isPdf = (file: File) => file.type === "application/pdf" || /\.pdf$/i.test(file.name);
 
 export interface UnderlayPanelProps {
   roofId: string;
@@ -36,6 +43,8 @@ export function UnderlayPanel({ roofId, settings, imageUrl, outline, canEdit, on
   const [distance, setDistance] = useState("");
   const [message, setMessage] = useState<{ tone: "ok" | "bad"; text: string } | null>(null);
   const [uploading, setUploading] = useState(false);
+  const [working, setWorking] = useState<string | null>(null);
+  const [pdf, setPdf] = useState<PdfChoice | null>(null);
   const [open, setOpen] = useState(false);
   const svg = useRef<SVGSVGElement>(null);
   const id = useId();
@@ -70,6 +79,57 @@ export function UnderlayPanel({ roofId, settings, imageUrl, outline, canEdit, on
       setMessage({ tone: "bad", text: "The upload did not reach the server. Check the connection and try again." });
     } finally {
       setUploading(false);
+    }
+  }
+
+  function closePdf() {
+    void pdf?.doc.destroy();
+    setPdf(null);
+  }
+
+  async function pick(file: File) {
+    setMessage(null);
+    closePdf();
+    if (!isPdf(file)) return upload(file);
+    if (file.size > MAX_PDF_BYTES) {
+      setMessage({ tone: "bad", text: `${file.name} is ${(file.size / 1024 / 1024).toFixed(1)} MB; PDFs up to 50 MB can be read.` });
+      return;
+    }
+    setWorking("Reading the PDF…");
+    try {
+      const pdfs = await import("./pdf-page");
+      if (!(await pdfs.looksLikePdf(file))) {
+        setMessage({ tone: "bad", text: `${file.name} is not a PDF file. Pick a PDF, or a PNG, JPEG or WebP image.` });
+        return;
+      }
+      const doc = await pdfs.openPdf(file);
+      if (doc.numPages === 1) await takePdfPage({ pdfs, doc, name: file.name, pages: 1, page: "1" });
+      else setPdf({ pdfs, doc, name: file.name, pages: doc.numPages, page: "1" });
+    } catch {
+      setMessage({ tone: "bad", text: `${file.name} could not be read as a PDF (it may be damaged or password-protected).` });
+    } finally {
+      setWorking(null);
+    }
+  }
+
+  async function takePdfPage(choice: PdfChoice) {
+    const n = Number(choice.page);
+    if (!Number.isInteger(n) || n < 1 || n > choice.pages) {
+      setMessage({ tone: "bad", text: `Pick a page from 1 to ${choice.pages}.` });
+      return;
+    }
+    setMessage(null);
+    setWorking(`Drawing page ${n} of ${choice.name}…`);
+    try {
+      const png = await choice.pdfs.pageAsPng(choice.doc, choice.name, n);
+      setWorking(null);
+      void choice.doc.destroy();
+      setPdf(null);
+      await upload(png);
+    } catch (error) {
+      setMessage({ tone: "bad", text: error instanceof Error && /10 MB/.test(error.message) ? error.message : `Page ${n} could not be drawn. Try another page or export it as an image.` });
+    } finally {
+      setWorking(null);
     }
   }
 
@@ -154,17 +214,17 @@ export function UnderlayPanel({ roofId, settings, imageUrl, outline, canEdit, on
           <div className="flex flex-wrap gap-2">
             <label className="btn cursor-pointer">
               <ImageUp aria-hidden="true" className="h-4 w-4" />
-              {uploading ? "Uploading…" : settings && imageUrl ? "Replace image" : "Upload plan image"}
+              {uploading ? "Uploading…" : settings && imageUrl ? "Replace image" : "Upload plan image or PDF"}
               <input
                 type="file"
                 className="sr-only"
-                accept="image/png,image/jpeg,image/webp"
-                disabled={uploading}
-                aria-label="Upload a plan image (PNG, JPEG or WebP, up to 10 MB)"
+                accept="image/png,image/jpeg,image/webp,application/pdf,.pdf"
+                disabled={uploading || working !== null}
+                aria-label="Upload a plan image (PNG, JPEG or WebP, up to 10 MB) or a PDF page"
                 onChange={(e) => {
                   const f = e.target.files?.[0];
                   e.target.value = "";
-                  if (f) void upload(f);
+                  if (f) void pick(f);
                 }}
               />
             </label>
@@ -176,6 +236,42 @@ export function UnderlayPanel({ roofId, settings, imageUrl, outline, canEdit, on
           </div>
         ) : null}
       </div>
+      {working ? (
+        <p role="status" className="text-sm text-ink-soft">
+          {working}
+        </p>
+      ) : null}
+      {pdf ? (
+        <div role="group" aria-label="Choose a page of the PDF" className="flex flex-wrap items-end gap-2 rounded border border-rule p-3">
+          <p className="w-full text-sm">
+            <strong>{pdf.name}</strong> has {pdf.pages} pages. Which one shows the roof plan?
+          </p>
+          <label className="grid gap-1 text-sm">
+            <span className="label">Page</span>
+            <input
+              className="field w-24"
+              type="number"
+              min={1}
+              max={pdf.pages}
+              value={pdf.page}
+              autoFocus
+              onChange={(e) => setPdf({ ...pdf, page: e.target.value })}
+              onKeyDown={(e) => {
+                if (e.key === "Enter") {
+                  e.preventDefault();
+                  void takePdfPage(pdf);
+                }
+              }}
+            />
+          </label>
+          <button type="button" className="btn-primary" disabled={working !== null} onClick={() => void takePdfPage(pdf)}>
+            Use this page
+          </button>
+          <button type="button" className="btn" onClick={closePdf}>
+            Cancel
+          </button>
+        </div>
+      ) : null}
       {message ? (
         <p role={message.tone === "bad" ? "alert" : "status"} className={message.tone === "bad" ? "text-sm text-bad" : "text-sm text-ok"}>
           {message.text}
@@ -185,7 +281,7 @@ export function UnderlayPanel({ roofId, settings, imageUrl, outline, canEdit, on
       {!settings || !imageUrl ? (
         <p className="text-sm text-ink-soft">
           {canEdit
-            ? "Upload a drawing or photo of the plan (PNG, JPEG or WebP, up to 10 MB) to trace over. Only you, and colleagues when the roof is shared, can see it."
+            ? "Upload a drawing or photo of the plan (PNG, JPEG or WebP, up to 10 MB, or a page of a PDF drawing) to trace over. Only you, and colleagues when the roof is shared, can see it."
             : "No plan image on this roof."}
         </p>
       ) : (
