@@ -1,10 +1,103 @@
-import { Link } from "react-router";
+import { Link, useLoaderData } from "react-router";
 import type { Route } from "./+types/_index";
+import { getOptionalUser } from "~/lib/auth.server";
+import { formatDateRange, formatDay } from "~/lib/class-form";
+import { deskFor, type Desk } from "~/lib/desk.server";
+import { formatWhen } from "~/lib/when";
 
 export const meta: Route.MetaFunction = () => [
   { title: "Fallwright · shape parapet roofs to their outlets" },
   { name: "description", content: "Teach and check how a flat membrane roof inside parapets sheds its water." },
 ];
+
+export async function loader({ request }: Route.LoaderArgs) {
+  const user = await getOptionalUser(request);
+  return { desk: user ? await deskFor(user) : null };
+}
+
+const WHO = [
+  ["Trainers", "present live roofs to a class, hand out lessons, keep a gradebook."],
+  ["Trainees", "move outlets, change falls, watch the water, submit graded tasks."],
+  ["Designers", "check build-up height, falls and outlet places before detailing."],
+  ["Admins", "run accounts, roles and invitations."],
+];
+
+/** Where a signed-in person left off: their classes, the lessons still to pass, recent roofs. */
+function YourDesk({ desk }: { desk: Desk }) {
+  const teaches = desk.role === "trainer" || desk.role === "admin";
+  return (
+    <section className="card mt-8" aria-labelledby="desk-title" data-testid="desk">
+      <h2 id="desk-title" className="text-lg font-bold">
+        Welcome back, {desk.name}
+      </h2>
+      {desk.role === "trainee" ? (
+        <div className="mt-3">
+          <h3 className="label">Still to pass</h3>
+          {desk.todo.length ? (
+            <ul className="mt-1 divide-y divide-rule">
+              {desk.todo.map((t) => (
+                <li key={`${t.className}-${t.slug}`} className="flex flex-wrap items-baseline justify-between gap-2 py-1.5">
+                  <Link className="underline" to={`/lessons/${t.slug}`}>
+                    {t.title}
+                  </Link>
+                  <span className="text-sm text-ink-soft">
+                    {t.className} · {t.dueOn ? `due ${formatDay(t.dueOn)}` : "no due date"}
+                    {t.tried ? " · tried, not passed yet" : ""}
+                  </span>
+                </li>
+              ))}
+            </ul>
+          ) : (
+            <p className="mt-1 text-sm text-ink-soft">Nothing assigned is waiting: every lesson your classes set is passed, or none is set yet.</p>
+          )}
+        </div>
+      ) : null}
+      {teaches || desk.classes.length ? (
+        <div className="mt-4">
+          <h3 className="label">{desk.role === "admin" ? "Classes" : "Your classes"}</h3>
+          {desk.classes.length ? (
+            <ul className="mt-1 divide-y divide-rule">
+              {desk.classes.map((c) => (
+                <li key={c.id} className="flex flex-wrap items-baseline justify-between gap-2 py-1.5">
+                  <Link className="underline" to={`/classes/${c.id}`}>
+                    {c.name}
+                  </Link>
+                  <span className="text-sm text-ink-soft">
+                    {formatDateRange(c.startsOn, c.endsOn)}
+                    {teaches ? ` · ${c.members} trainees${c.pending ? `, ${c.pending} invited` : ""}` : ""}
+                  </span>
+                </li>
+              ))}
+            </ul>
+          ) : (
+            <p className="mt-1 text-sm text-ink-soft">
+              No classes yet. <Link className="underline" to="/classes">Create one</Link> and invite trainees by e-mail.
+            </p>
+          )}
+        </div>
+      ) : null}
+      <div className="mt-4">
+        <h3 className="label">Recent roofs</h3>
+        {desk.roofs.length ? (
+          <ul className="mt-1 divide-y divide-rule">
+            {desk.roofs.map((r) => (
+              <li key={r.id} className="flex flex-wrap items-baseline justify-between gap-2 py-1.5">
+                <Link className="underline" to={`/roofs/${r.id}`}>
+                  {r.name}
+                </Link>
+                <span className="text-sm text-ink-soft">changed {formatWhen(r.updatedAt)}</span>
+              </li>
+            ))}
+          </ul>
+        ) : (
+          <p className="mt-1 text-sm text-ink-soft">
+            None saved yet. Shape one in the <Link className="underline" to="/sandbox">sandbox</Link> and save it to your library.
+          </p>
+        )}
+      </div>
+    </section>
+  );
+}
 
 /** A plan of a shaped roof: level rim, fall lines converging on one outlet. Drawn, not loaded. */
 function ShapedRoofSketch() {
@@ -41,6 +134,7 @@ function ShapedRoofSketch() {
 }
 
 export default function Home() {
+  const { desk } = useLoaderData<typeof loader>();
   return (
     <div className="grid gap-8 lg:grid-cols-[1.2fr_1fr]">
       <section>
@@ -58,19 +152,18 @@ export default function Home() {
           <Link className="btn-primary" to="/sandbox">Open the sandbox</Link>
           <Link className="btn" to="/lessons">Browse the lessons</Link>
         </div>
-        <ul className="mt-8 grid gap-3 sm:grid-cols-2">
-          {[
-            ["Trainers", "present live roofs to a class, hand out lessons, keep a gradebook."],
-            ["Trainees", "move outlets, change falls, watch the water, submit graded tasks."],
-            ["Designers", "check build-up height, falls and outlet places before detailing."],
-            ["Admins", "run accounts, roles and invitations."],
-          ].map(([who, what]) => (
-            <li key={who} className="card">
-              <p className="font-bold">{who}</p>
-              <p className="text-sm text-ink-soft">{what}</p>
-            </li>
-          ))}
-        </ul>
+        {desk ? (
+          <YourDesk desk={desk} />
+        ) : (
+          <ul className="mt-8 grid gap-3 sm:grid-cols-2">
+            {WHO.map(([who, what]) => (
+              <li key={who} className="card">
+                <p className="font-bold">{who}</p>
+                <p className="text-sm text-ink-soft">{what}</p>
+              </li>
+            ))}
+          </ul>
+        )}
       </section>
       <section className="card self-start">
         <ShapedRoofSketch />

@@ -30,3 +30,31 @@ test("the safety caution is on every page", async ({ page }) => {
   await page.goto("/");
   await expect(page.getByRole("note").filter({ hasText: "designer of record" })).toBeVisible();
 });
+
+test("signed in, the home page picks up where each person left off", async ({ browser }) => {
+  const open = async (email: string) => {
+    const context = await browser.newContext();
+    const page = await context.newPage();
+    await page.goto("/login");
+    await page.getByLabel("E-mail").fill(email);
+    await page.getByLabel("Password").fill("fallwright-demo");
+    await page.getByRole("button", { name: "Sign in" }).click();
+    await expect(page).not.toHaveURL(/\/login/);
+    await page.goto("/");
+    return { context, desk: page.getByTestId("desk") };
+  };
+
+  // The seeded trainee passed lesson 1 and has lesson 6 assigned, untried, due 5 March 2027.
+  const trainee = await open("trainee@tidemark.example");
+  await expect(trainee.desk.getByRole("heading", { name: "Welcome back, Tess Quinlan" })).toBeVisible();
+  const todo = trainee.desk.getByRole("listitem").filter({ hasText: "The longest fall line" });
+  await expect(todo).toContainText("Parapet roofs, spring cohort · due Fri 5 Mar 2027");
+  await expect(todo.getByRole("link")).toHaveAttribute("href", "/lessons/the-longest-fall-line");
+  await expect(trainee.desk).not.toContainText("Reading and converting falls");
+  await trainee.context.close();
+
+  const trainer = await open("trainer@tidemark.example");
+  await expect(trainer.desk.getByRole("link", { name: "Parapet roofs, spring cohort" })).toBeVisible();
+  await expect(trainer.desk).not.toContainText("Still to pass");
+  await trainer.context.close();
+});
