@@ -37,9 +37,12 @@ export async function readLiveState(classId: string): Promise<LiveSnapshot | nul
   return row ? { classId, seq: row.live_seq, state: row.live_state ?? null } : null;
 }
 
-/** Saves what the trainer presents and tells every listening process (on commit). */
+/**
+ * Saves what the trainer presents and tells every listening process (on commit). This process's
+ * own followers get it at once; the notification still comes back here, and streams skip what they sent.
+ */
 export async function publishLiveState(classId: string, content: LiveContent): Promise<number | null> {
-  return db().transaction(async (trx) => {
+  const seq = await db().transaction(async (trx) => {
     const { rows } = await trx.raw(`update classes set live_state = ?::jsonb, live_seq = live_seq + 1 where id = ? returning live_seq`, [
       JSON.stringify(content),
       classId,
@@ -49,6 +52,8 @@ export async function publishLiveState(classId: string, content: LiveContent): P
     await trx.raw(`select pg_notify(?, ?)`, [LIVE_CHANNEL, JSON.stringify({ classId, seq })]);
     return seq;
   });
+  if (seq !== null) globalThis.__fallwrightLiveHub?.deliver({ classId, seq, state: content });
+  return seq;
 }
 
 interface HubOptions {
@@ -190,6 +195,11 @@ export class LiveHub {
     this.retry.unref?.();
   }
 
+  /** Fans a snapshot out to this process's followers of its class. */
+  deliver(snapshot: LiveSnapshot) {
+    for (const l of this.subs.get(snapshot.classId) ?? []) l(snapshot);
+  }
+
   /** Reads a class's state once however many notifications arrive meanwhile, then fans it out. */
   private refresh(classId: string) {
     const busy = this.reading.get(classId);
@@ -204,7 +214,7 @@ export class LiveHub {
         do {
           mark.again = false;
           const snap = await this.options.read(classId);
-          if (snap) for (const l of this.subs.get(classId) ?? []) l(snap);
+          if (snap) this.deliver(snap);
         } while (mark.again && !this.closed);
       } catch (err) {
         console.warn(`[live] reading class ${classId} failed: ${(err as Error).message}`);

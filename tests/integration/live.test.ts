@@ -4,7 +4,7 @@ import { useTestDatabase } from "../support/db";
 import { callRoute, ORIGIN, sessionCookie } from "../support/accounts";
 import { demoClassId, SPEC, sseReader } from "../support/classes";
 import * as live from "~/routes/classes.$id.live";
-import { closeListeners, LiveHub, publishLiveState, readLiveState, type LiveContent, type LiveSnapshot } from "~/lib/live.server";
+import { closeListeners, LiveHub, liveHub, publishLiveState, readLiveState, type LiveContent, type LiveSnapshot } from "~/lib/live.server";
 
 // Classroom mode (PRODUCT.md capability 6): LISTEN/NOTIFY through PostgreSQL reaches every app process.
 const database = useTestDatabase();
@@ -80,6 +80,15 @@ describe("LISTEN/NOTIFY", () => {
     const row = await database.db()("classes").where({ id: classId }).first("live_seq", "live_state");
     expect(row.live_seq).toBe(seq);
     expect(row.live_state.title).toBe("two listeners");
+  });
+
+  it("this process's own followers get its change as it is committed, before the notification comes back", async () => {
+    const c = collector(liveHub(), classId);
+    await c.ready;
+    const seq = await publishLiveState(classId, content("at once", 4));
+    // No waiting here: the notification and the read it sets off have not come back yet.
+    expect(c.got.map((s) => s.seq)).toEqual([seq]);
+    expect(c.got[0].state).toMatchObject({ title: "at once", spec: { outlets: [{ at: [4, 0] }] } });
   });
 
   it("a class nobody follows is not read, and other classes' subscribers hear nothing", async () => {
