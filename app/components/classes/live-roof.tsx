@@ -16,14 +16,28 @@ export interface LiveRoofProps {
   onSpecChange?: (spec: unknown) => void;
 }
 
-/** Inside the workspace's store provider: puts a new outside spec on screen (no undo history across it). */
+/**
+ * Inside the workspace's store provider: puts a new outside spec on screen (no undo history across
+ * it). The roof and its analysis arrive in one store update: the engine's worker is asked at once,
+ * not on the next animation frame, and the views never draw the new roof with the old figures
+ * (on a slow machine each extra redraw of the 3D view is what makes a follower lag).
+ */
 function SpecSync({ spec, version }: { spec: unknown; version: number }) {
   const store = useSandboxStore();
   const shown = useRef(version);
   useEffect(() => {
     if (version === shown.current) return;
     shown.current = version;
-    store.getState().replaceSpec(spec as RoofSpec, { resetHistory: true });
+    const next = spec as RoofSpec;
+    const engine = store.getState().engine;
+    if (!engine) return store.getState().replaceSpec(next, { resetHistory: true });
+    void engine.analyse(next).then((outcome) => {
+      // A newer roof came while this one was analysed: that one goes on screen instead.
+      if (shown.current !== version) return;
+      const state = store.getState();
+      if (outcome.ok) state.setOutcome(next, outcome);
+      state.replaceSpec(next, { resetHistory: true });
+    });
   }, [store, spec, version]);
   return null;
 }

@@ -25,7 +25,9 @@ export function useEngine(store: SandboxStore) {
       void engine.analyse(spec).then((outcome) => {
         if (!alive) return;
         busy = false;
-        store.getState().setOutcome(spec, outcome);
+        const now = store.getState();
+        // The roof on screen came with its analysis meanwhile (a live roof): an older answer must not replace it.
+        if (!(now.analysedSpec === now.spec && spec !== now.spec)) now.setOutcome(spec, outcome);
         if (waiting) {
           const next = waiting;
           waiting = null;
