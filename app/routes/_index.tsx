@@ -1,3 +1,4 @@
+import type { ReactNode } from "react";
 import { Link, useLoaderData } from "react-router";
 import type { Route } from "./+types/_index";
 import { getOptionalUser } from "~/lib/auth.server";
@@ -22,6 +23,17 @@ const WHO = [
   ["Admins", "run accounts, roles and invitations."],
 ];
 
+function DeskItem({ to, label, children }: { to: string; label: string; children: ReactNode }) {
+  return (
+    <li className="flex flex-wrap items-baseline justify-between gap-2 py-1.5">
+      <Link className="underline" to={to}>
+        {label}
+      </Link>
+      <span className="text-sm text-ink-soft">{children}</span>
+    </li>
+  );
+}
+
 /** Where a signed-in person left off: their classes, the lessons still to pass, recent roofs. */
 function YourDesk({ desk }: { desk: Desk }) {
   const teaches = desk.role === "trainer" || desk.role === "admin";
@@ -36,15 +48,10 @@ function YourDesk({ desk }: { desk: Desk }) {
           {desk.todo.length ? (
             <ul className="mt-1 divide-y divide-rule">
               {desk.todo.map((t) => (
-                <li key={`${t.className}-${t.slug}`} className="flex flex-wrap items-baseline justify-between gap-2 py-1.5">
-                  <Link className="underline" to={`/lessons/${t.slug}`}>
-                    {t.title}
-                  </Link>
-                  <span className="text-sm text-ink-soft">
-                    {t.className} · {t.dueOn ? `due ${formatDay(t.dueOn)}` : "no due date"}
-                    {t.tried ? " · tried, not passed yet" : ""}
-                  </span>
-                </li>
+                <DeskItem key={`${t.className}-${t.slug}`} to={`/lessons/${t.slug}`} label={t.title}>
+                  {t.className} · {t.dueOn ? `due ${formatDay(t.dueOn)}` : "no due date"}
+                  {t.tried ? " · tried, not passed yet" : ""}
+                </DeskItem>
               ))}
             </ul>
           ) : (
@@ -58,15 +65,10 @@ function YourDesk({ desk }: { desk: Desk }) {
           {desk.classes.length ? (
             <ul className="mt-1 divide-y divide-rule">
               {desk.classes.map((c) => (
-                <li key={c.id} className="flex flex-wrap items-baseline justify-between gap-2 py-1.5">
-                  <Link className="underline" to={`/classes/${c.id}`}>
-                    {c.name}
-                  </Link>
-                  <span className="text-sm text-ink-soft">
-                    {formatDateRange(c.startsOn, c.endsOn)}
-                    {teaches ? ` · ${c.members} trainees${c.pending ? `, ${c.pending} invited` : ""}` : ""}
-                  </span>
-                </li>
+                <DeskItem key={c.id} to={`/classes/${c.id}`} label={c.name}>
+                  {formatDateRange(c.startsOn, c.endsOn)}
+                  {teaches ? ` · ${c.members} trainees${c.pending ? `, ${c.pending} invited` : ""}` : ""}
+                </DeskItem>
               ))}
             </ul>
           ) : (
@@ -81,12 +83,9 @@ function YourDesk({ desk }: { desk: Desk }) {
         {desk.roofs.length ? (
           <ul className="mt-1 divide-y divide-rule">
             {desk.roofs.map((r) => (
-              <li key={r.id} className="flex flex-wrap items-baseline justify-between gap-2 py-1.5">
-                <Link className="underline" to={`/roofs/${r.id}`}>
-                  {r.name}
-                </Link>
-                <span className="text-sm text-ink-soft">changed {formatWhen(r.updatedAt)}</span>
-              </li>
+              <DeskItem key={r.id} to={`/roofs/${r.id}`} label={r.name}>
+                changed {formatWhen(r.updatedAt)}
+              </DeskItem>
             ))}
           </ul>
         ) : (
