@@ -1,5 +1,4 @@
 import { fallFromRatio } from "./fall";
-import { nearestVertex } from "./faces";
 import type { Routing } from "./flow";
 import type { Destination, Geodesic } from "./geodesic";
 import type { SurfaceMesh } from "./mesh";
@@ -64,21 +63,16 @@ export function fallLines(
     }
     return to;
   };
-  // Starts sit at H, often on a ridge where water may turn either way; which mesh vertex is
-  // nearest must not decide (it flips with rounding). Look a little around the start and take
-  // the drain reached by the shortest path, as the water would.
-  const reach = 0.75 * Math.max(mesh.step, mesh.lineU.length > 1 ? Math.abs(mesh.lineU[1] - mesh.lineU[0]) : mesh.step);
+  // Starts sit at H, often on a ridge or a level patch where water may turn either way; which
+  // mesh vertex is nearest, or which way a cell's diagonal runs, must not decide (both flip with
+  // rounding when the spec is moved). Every drain reached from the mesh within a disc around the
+  // start is a candidate, and the start takes the one reached by the shortest path, as water would.
+  const cell = Math.max(mesh.step, roof.spacing * mesh.stride);
+  const radius = 1.6 * cell;
   for (const [sx, sy, outlet] of fallLineStarts(roof, levels)) {
     const candidates = new Set<number>();
     if (outlet >= 0) candidates.add(routing.drains.findIndex((d) => d.kind === "outlet" && d.index === outlet));
-    else {
-      for (let k = -1; k < 8; k++) {
-        const px = k < 0 ? sx : sx + reach * Math.cos((k * Math.PI) / 4);
-        const py = k < 0 ? sy : sy + reach * Math.sin((k * Math.PI) / 4);
-        const vertex = nearestVertex(mesh, px * roof.dy - py * roof.dx, px * roof.dx + py * roof.dy);
-        if (vertex >= 0) candidates.add(routing.vertexDrain[vertex]);
-      }
-    }
+    else drainsWithin(mesh, routing, sx * roof.dy - sy * roof.dx, sx * roof.dx + sy * roof.dy, radius, candidates);
     let id = -1;
     let path: ReturnType<Geodesic["path"]> | null = null;
     for (const c of candidates) {
@@ -109,4 +103,26 @@ export function fallLines(
     });
   }
   return lines;
+}
+
+/** Drains of the mesh vertices within `radius` of frame point (u, v), added to `out`. */
+function drainsWithin(mesh: SurfaceMesh, routing: Routing, u: number, v: number, radius: number, out: Set<number>): void {
+  const { lineU, lineStart } = mesh;
+  const r2 = radius * radius;
+  for (let j = 0; j < lineU.length; j++) {
+    const du = lineU[j] - u;
+    if (du < -radius || du > radius) continue;
+    let lo = lineStart[j];
+    let hi = lineStart[j + 1];
+    // First station at or above v - radius (stations run up v along each line).
+    while (lo < hi) {
+      const mid = (lo + hi) >>> 1;
+      if (mesh.v[mid] < v - radius) lo = mid + 1;
+      else hi = mid;
+    }
+    for (let s = lo; s < lineStart[j + 1] && mesh.v[s] <= v + radius; s++) {
+      const dv = mesh.v[s] - v;
+      if (du * du + dv * dv <= r2) out.add(routing.vertexDrain[s]);
+    }
+  }
 }

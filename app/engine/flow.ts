@@ -71,6 +71,19 @@ function markDrains(roof: Roof, mesh: SurfaceMesh, drains: Drain[]): Int32Array 
 }
 
 /**
+ * Whether a fall `s` towards vertex `to` beats the best so far (`best` towards `current`). Falls
+ * equal up to rounding are ties, settled by the frame position of the lower vertex (lower v, then
+ * lower u): on a ridge, water must not go one way or the other by the rounding of a move.
+ */
+function steeper(s: number, best: number, to: number, current: number, u: Float64Array, v: Float64Array): boolean {
+  if (current < 0 || s > best * (1 + 1e-9)) return true;
+  if (s < best * (1 - 1e-9)) return false;
+  const dv = v[to] - v[current];
+  if (dv < -1e-9 || dv > 1e-9) return dv < 0;
+  return u[to] < u[current];
+}
+
+/**
  * Where the water goes (ROOF-METHOD.md §7): each vertex drains to its steepest downhill neighbour
  * (lower by more than rounding); level patches drain through a neighbour at the same level
  * whose water already reaches a drain; what is left are pits. Each face goes to the drain of its
@@ -94,10 +107,12 @@ export function routeWater(roof: Roof, mesh: SurfaceMesh, faces: FaceData): Rout
     const du = u[b] - u[a];
     const dv = v[b] - v[a];
     const s = dz / Math.sqrt(du * du + dv * dv);
-    if (s > best[a]) {
-      best[a] = s;
-      receiver[a] = b;
-    } else if (-s > best[b]) {
+    if (s > 0) {
+      if (steeper(s, best[a], b, receiver[a], u, v)) {
+        best[a] = s;
+        receiver[a] = b;
+      }
+    } else if (steeper(-s, best[b], a, receiver[b], u, v)) {
       best[b] = -s;
       receiver[b] = a;
     }

@@ -443,7 +443,9 @@ function zipSlabs(
       rungs[rc++] = i;
       rungs[rc++] = r;
       while (i < l1 || r < r1) {
-        const advanceLeft = i === l1 ? false : r === r1 ? true : (V[i + 1] - vBl) * invL < (V[r + 1] - vBr) * invR;
+        // Near-ties (equal fractions up to rounding, common on regular outlines) advance the
+        // right side, as exact ties do, so a moved or turned spec meshes the same way.
+        const advanceLeft = i === l1 ? false : r === r1 ? true : (V[i + 1] - vBl) * invL < (V[r + 1] - vBr) * invR - 1e-9;
         tri[tc] = i;
         tri[tc + 1] = r;
         if (advanceLeft) tri[tc + 2] = ++i;

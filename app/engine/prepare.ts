@@ -217,8 +217,12 @@ export function prepareRoof(spec: RoofSpec): Prepared {
       o.u = us[o.vertex];
       o.v = vs[o.vertex];
     } else {
-      o.u = o.x * dy - o.y * dx;
-      o.v = o.x * dx + o.y * dy;
+      // Along its edge in the frame, so an outlet on an edge that runs along the joists shares
+      // that edge's (snapped) u exactly, however the spec is turned.
+      const q = (o.edge + 1) % n;
+      const s = o.t / len[o.edge];
+      o.u = us[o.edge] + s * (us[q] - us[o.edge]);
+      o.v = vs[o.edge] + s * (vs[q] - vs[o.edge]);
     }
   }
 
