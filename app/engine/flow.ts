@@ -35,7 +35,7 @@ function markDrains(roof: Roof, mesh: SurfaceMesh, drains: Drain[]): Int32Array 
     drains.push({ kind: "eaves", index: e, level: 0, vertex: -1 });
   }
   const tolT = roof.tol * 1000;
-  for (let i = 0; i < V; i++) {
+  for (let i = 0; i < (eavesOrder.length ? V : 0); i++) {
     const e = mesh.edge[i];
     if (e < 0) continue;
     let id = eavesIds[e];
@@ -53,11 +53,14 @@ function markDrains(roof: Roof, mesh: SurfaceMesh, drains: Drain[]): Int32Array 
     let nearest = -1;
     let nearestD = Infinity;
     const { lineU, lineStart } = mesh;
+    const r2 = r * r;
     for (let j = 0; j < lineU.length; j++) {
       if (Math.abs(lineU[j] - o.u) > Math.max(r, mesh.step)) continue;
       for (let s = lineStart[j]; s < lineStart[j + 1]; s++) {
-        const d = Math.hypot(mesh.u[s] - o.u, mesh.v[s] - o.v);
-        if (d <= r) mark[s] = k;
+        const du = mesh.u[s] - o.u;
+        const dv = mesh.v[s] - o.v;
+        const d = du * du + dv * dv;
+        if (d <= r2) mark[s] = k;
         if (d < nearestD) {
           nearestD = d;
           nearest = s;
@@ -97,7 +100,7 @@ export function routeWater(roof: Roof, mesh: SurfaceMesh, faces: FaceData): Rout
   const drainMark = markDrains(roof, mesh, drains);
 
   const receiver = new Int32Array(V).fill(-1);
-  const best = new Float64Array(V);
+  const best = scratchF64(V);
   const edges = mesh.edges;
   for (let k = 0; k < edges.length; k += 2) {
     const a = edges[k];
@@ -117,40 +120,19 @@ export function routeWater(roof: Roof, mesh: SurfaceMesh, faces: FaceData): Rout
       receiver[b] = a;
     }
   }
-  const vertexDrain = new Int32Array(V).fill(-1);
+  // rootDrain: the drain a chain's last vertex is (-1 for a level vertex not yet settled).
+  const rootDrain = drainMark;
   let open = 0;
   for (let i = 0; i < V; i++) {
-    if (drainMark[i] >= 0) {
-      receiver[i] = -1;
-      vertexDrain[i] = drainMark[i];
-    } else if (receiver[i] < 0) open++;
+    if (rootDrain[i] >= 0) receiver[i] = -1;
+    else if (receiver[i] < 0) open++;
   }
+  const chains = new Chains(receiver, V);
+  if (open > 0) open = levelPatches(mesh, receiver, rootDrain, chains, open);
+  if (open > 0) markPits(mesh, receiver, rootDrain, drains);
 
-  const stack = new Int32Array(V);
-  const end = new Int32Array(V);
-  // Follow receivers to their ends (path-compressed, so linear in V), and give every vertex the
-  // drain its chain ends in (-1 while that end is a level patch not yet settled).
-  const settleChains = () => {
-    end.fill(-1);
-    for (let i = 0; i < V; i++) {
-      if (end[i] >= 0) continue;
-      let top = 0;
-      let x = i;
-      while (end[x] < 0 && receiver[x] >= 0 && top < V) {
-        stack[top++] = x;
-        x = receiver[x];
-      }
-      const e = end[x] >= 0 ? end[x] : x;
-      end[x] = e;
-      while (top > 0) end[stack[--top]] = e;
-    }
-    for (let i = 0; i < V; i++) vertexDrain[i] = vertexDrain[end[i]];
-  };
-  settleChains();
-  if (open > 0) open = levelPatches(mesh, receiver, vertexDrain, open, settleChains);
-  if (open > 0) markPits(mesh, receiver, vertexDrain, drains);
-  settleChains();
-
+  const vertexDrain = new Int32Array(V);
+  for (let i = 0; i < V; i++) vertexDrain[i] = rootDrain[chains.end(i)];
   const faceDrain = new Int32Array(F);
   const drainArea = new Float64Array(drains.length);
   for (let f = 0; f < F; f++) {
@@ -166,18 +148,60 @@ export function routeWater(roof: Roof, mesh: SurfaceMesh, faces: FaceData): Rout
 }
 
 /**
+ * The last vertex of each vertex's receiver chain, found on demand with path compression, so
+ * every query is nearly constant time. A chain's last vertex may later gain a receiver (a level
+ * patch settling); a remembered jump then just continues from there.
+ */
+class Chains {
+  private readonly jump: Int32Array;
+  constructor(private readonly receiver: Int32Array, V: number) {
+    this.jump = scratchI32(V);
+    this.jump.fill(-1);
+  }
+  end(i: number): number {
+    const { jump, receiver } = this;
+    let x = i;
+    for (;;) {
+      const j = jump[x];
+      if (j >= 0) x = j;
+      else if (receiver[x] >= 0) x = receiver[x];
+      else break;
+    }
+    for (let y = i; y !== x; ) {
+      const next = jump[y] >= 0 ? jump[y] : receiver[y];
+      jump[y] = x;
+      y = next;
+    }
+    return x;
+  }
+}
+
+// Scratch arrays shared by calls (never handed out): a roof is analysed on one thread at a time.
+let f64 = new Float64Array(0);
+let i32 = new Int32Array(0);
+function scratchF64(n: number): Float64Array {
+  if (f64.length < n) f64 = new Float64Array(Math.max(n, 2 * f64.length));
+  const out = f64.subarray(0, n);
+  out.fill(0);
+  return out;
+}
+function scratchI32(n: number): Int32Array {
+  if (i32.length < n) i32 = new Int32Array(Math.max(n, 2 * i32.length));
+  return i32.subarray(0, n);
+}
+
+/**
  * Level patches: a vertex with no lower neighbour drains through a neighbour at the same level
- * whose water already reaches a drain. Sweeps over the faces until nothing changes (a wide level
+ * whose water already reaches a drain. Sweeps over the edges until nothing changes (a wide level
  * area takes one sweep per step across it, so the sweeps are bounded); returns how many such
  * vertices are left without a way out.
  */
-function levelPatches(mesh: SurfaceMesh, receiver: Int32Array, vertexDrain: Int32Array, open: number, settleChains: () => void): number {
+function levelPatches(mesh: SurfaceMesh, receiver: Int32Array, rootDrain: Int32Array, chains: Chains, open: number): number {
   const { z, edges } = mesh;
   const MAX_SWEEPS = 64;
   const settle = (x: number, y: number) => {
-    if (receiver[x] >= 0 || vertexDrain[x] >= 0 || vertexDrain[y] < 0 || Math.abs(z[x] - z[y]) > FLAT) return 0;
+    if (receiver[x] >= 0 || rootDrain[x] >= 0 || Math.abs(z[x] - z[y]) > FLAT || rootDrain[chains.end(y)] < 0) return 0;
     receiver[x] = y;
-    vertexDrain[x] = vertexDrain[y];
     return 1;
   };
   for (let sweep = 0; sweep < MAX_SWEEPS && open > 0; sweep++) {
@@ -190,13 +214,12 @@ function levelPatches(mesh: SurfaceMesh, receiver: Int32Array, vertexDrain: Int3
     }
     open -= changed;
     if (changed === 0) break;
-    if (open > 0) settleChains();
   }
   return open;
 }
 
 /** What is left: connected level patches with no way down, each a pit (ponding). */
-function markPits(mesh: SurfaceMesh, receiver: Int32Array, vertexDrain: Int32Array, drains: Drain[]): void {
+function markPits(mesh: SurfaceMesh, receiver: Int32Array, rootDrain: Int32Array, drains: Drain[]): void {
   const V = mesh.vertexCount;
   const { z, edges } = mesh;
   const degree = new Int32Array(V + 1);
@@ -213,19 +236,19 @@ function markPits(mesh: SurfaceMesh, receiver: Int32Array, vertexDrain: Int32Arr
   const queue = new Int32Array(V);
   let pits = 0;
   for (let i = 0; i < V; i++) {
-    if (receiver[i] >= 0 || vertexDrain[i] >= 0) continue;
+    if (receiver[i] >= 0 || rootDrain[i] >= 0) continue;
     const id = drains.length;
     drains.push({ kind: "pit", index: pits++, level: z[i], vertex: i });
     let head = 0;
     let tail = 0;
     queue[tail++] = i;
-    vertexDrain[i] = id;
+    rootDrain[i] = id;
     while (head < tail) {
       const x = queue[head++];
       for (let k = degree[x]; k < degree[x + 1]; k++) {
         const y = adj[k];
-        if (receiver[y] >= 0 || vertexDrain[y] >= 0 || Math.abs(z[y] - z[x]) > FLAT) continue;
-        vertexDrain[y] = id;
+        if (receiver[y] >= 0 || rootDrain[y] >= 0 || Math.abs(z[y] - z[x]) > FLAT) continue;
+        rootDrain[y] = id;
         receiver[y] = x;
         queue[tail++] = y;
       }

@@ -1,6 +1,6 @@
 /** The roof engine: pure TypeScript, shared by the browser, a Web Worker and the server. */
-export { analyse, type AnalyseOptions, MAX_MESH_VERTICES } from "./analyse";
-export { parseSpec, type ParseSpecResult } from "./parse-spec";
+export { analyse, analyseRoof, type AnalyseOptions, MAX_MESH_VERTICES } from "./analyse";
+export { parseSpec, parseRoofSpec, type ParseSpecResult, type ParseRoofResult } from "./parse-spec";
 export { parseFall, formatRatio, fallFromRatio, fallFromSlope, type Fall, type FallResult } from "./fall";
 export {
   RULE_SETS,

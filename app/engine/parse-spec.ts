@@ -1,4 +1,5 @@
 import { prepareRoof, type SpecIssue } from "./prepare";
+import type { Roof } from "./roof";
 import { roofSpecSchema } from "./schema";
 import type { RoofSpec } from "./types";
 
@@ -6,9 +7,12 @@ export type ParseSpecResult =
   | { ok: true; spec: RoofSpec }
   | { ok: false; status: 400 | 422; error: { message: string; issues: SpecIssue[] } };
 
+/** parseSpec's answer with the roof it prepared, for `analyseRoof` (no second preparation). */
+export type ParseRoofResult = Exclude<ParseSpecResult, { ok: true }> | { ok: true; spec: RoofSpec; roof: Roof };
+
 const pathOf = (path: readonly PropertyKey[]) => (path.length ? path.map(String).join(".") : "(spec)");
 
-function failure(status: 400 | 422, issues: SpecIssue[]): ParseSpecResult {
+function failure(status: 400 | 422, issues: SpecIssue[]): Exclude<ParseSpecResult, { ok: true }> {
   const head = status === 400 ? "The roof spec is malformed" : "The roof cannot be built";
   const detail = issues
     .slice(0, 3)
@@ -23,6 +27,12 @@ function failure(status: 400 | 422, issues: SpecIssue[]): ParseSpecResult {
  * self-crossing outline, zero-length edge, outlet off every parapet edge, too large). Never throws.
  */
 export function parseSpec(input: unknown): ParseSpecResult {
+  const parsed = parseRoofSpec(input);
+  return parsed.ok ? { ok: true, spec: parsed.spec } : parsed;
+}
+
+/** parseSpec, also handing back the prepared roof. */
+export function parseRoofSpec(input: unknown): ParseRoofResult {
   try {
     const shaped = roofSpecSchema.safeParse(input);
     if (!shaped.success) {
@@ -41,7 +51,7 @@ export function parseSpec(input: unknown): ParseSpecResult {
       spec.outline = spec.outline.slice(0, n);
       if (spec.edges && spec.edges.length !== n) spec.edges = spec.edges.slice(0, n);
     }
-    return { ok: true, spec };
+    return { ok: true, spec, roof: prepared.roof };
   } catch {
     return failure(400, [{ path: "(spec)", message: "could not be read as a roof spec" }]);
   }

@@ -1,5 +1,5 @@
 import type { Route } from "./+types/api.v1.analyses";
-import { analyse, parseSpec } from "~/engine";
+import { analyseRoof, parseRoofSpec } from "~/engine";
 import { jsonError, readJsonBody } from "~/lib/json-api.server";
 import { limitApiRequest } from "~/lib/rate-limit.server";
 
@@ -36,11 +36,12 @@ export async function action({ request, context }: Route.ActionArgs) {
     return jsonError(400, "The request body could not be read.", [{ path: "(body)", message: "could not be read" }], NO_STORE);
   }
   if (!body.ok) return body.response;
-  const parsed = parseSpec(body.value);
+  // The roof prepared while checking the spec is the one analysed: no second preparation.
+  const parsed = parseRoofSpec(body.value);
   if (!parsed.ok) return Response.json({ error: parsed.error }, { status: parsed.status, headers: NO_STORE });
   const query = new URL(request.url).searchParams;
   try {
-    const analysis = analyse(parsed.spec, {
+    const analysis = analyseRoof(parsed.roof, {
       mesh: query.get("mesh") === "true",
       traces: query.get("traces") === "true",
     });
