@@ -2,7 +2,8 @@
  * The classroom's one door into the sandbox workspace (another module): the presenter edits
  * through it, followers and reviewers see the same workspace read-only.
  */
-import { useEffect, useRef } from "react";
+import { memo, useEffect, useMemo, useState } from "react";
+import { createStore, type StoreApi } from "zustand/vanilla";
 import type { RoofSpec } from "~/engine";
 import { encodeSpec } from "~/components/sandbox/sheet-link";
 import { useSandboxStore } from "~/components/sandbox/store";
@@ -16,41 +17,51 @@ export interface LiveRoofProps {
   onSpecChange?: (spec: unknown) => void;
 }
 
+interface Outside {
+  spec: unknown;
+  version: number;
+}
+
 /**
  * Inside the workspace's store provider: puts a new outside spec on screen (no undo history across
  * it). The roof and its analysis arrive in one store update: the engine's worker is asked at once,
  * not on the next animation frame, and the views never draw the new roof with the old figures
  * (on a slow machine each extra redraw of the 3D view is what makes a follower lag).
  */
-function SpecSync({ spec, version }: { spec: unknown; version: number }) {
+function SpecSync({ outside }: { outside: StoreApi<Outside> }) {
   const store = useSandboxStore();
-  const shown = useRef(version);
   useEffect(() => {
-    if (version === shown.current) return;
-    shown.current = version;
-    const next = spec as RoofSpec;
-    const engine = store.getState().engine;
-    if (!engine) return store.getState().replaceSpec(next, { resetHistory: true });
-    void engine.analyse(next).then((outcome) => {
-      // A newer roof came while this one was analysed: that one goes on screen instead.
-      if (shown.current !== version) return;
-      const state = store.getState();
-      if (outcome.ok) state.setOutcome(next, outcome);
-      state.replaceSpec(next, { resetHistory: true });
+    let shown = outside.getState().version;
+    return outside.subscribe(({ spec, version }) => {
+      if (version === shown) return;
+      shown = version;
+      const next = spec as RoofSpec;
+      const engine = store.getState().engine;
+      if (!engine) return store.getState().replaceSpec(next, { resetHistory: true });
+      void engine.analyse(next).then((outcome) => {
+        // A newer roof came while this one was analysed: that one goes on screen instead.
+        if (shown !== version) return;
+        const state = store.getState();
+        if (outcome.ok) state.setOutcome(next, outcome);
+        state.replaceSpec(next, { resetHistory: true });
+      });
     });
-  }, [store, spec, version]);
+  }, [store, outside]);
   return null;
 }
 
+// The workspace reads its props once or keeps them stable, so a page that re-renders for every
+// live update (or every edit the presenter makes) does not redraw the workspace each time.
+const Workspace = memo(SandboxWorkspace);
+
 export function LiveRoof({ spec, version = 0, readOnly = false, onSpecChange }: LiveRoofProps) {
-  return (
-    <SandboxWorkspace
-      initialSpec={spec as RoofSpec}
-      readOnly={readOnly}
-      onSpecChange={onSpecChange}
-      toolbarExtra={<SpecSync spec={spec} version={version} />}
-    />
-  );
+  const [outside] = useState(() => createStore<Outside>(() => ({ spec, version })));
+  const [initialSpec] = useState(() => spec as RoofSpec);
+  useEffect(() => {
+    outside.setState({ spec, version });
+  }, [outside, spec, version]);
+  const sync = useMemo(() => <SpecSync outside={outside} />, [outside]);
+  return <Workspace initialSpec={initialSpec} readOnly={readOnly} onSpecChange={onSpecChange} toolbarExtra={sync} />;
 }
 
 export function ReadOnlyRoof({ spec }: { spec: unknown }) {
