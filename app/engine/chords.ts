@@ -35,7 +35,16 @@ export function chordsAt(roof: Roof, u0: number, side: 1 | -1): Chord[] {
     ct.push(s * len[i]);
     cs.push(((vs[q] - vs[i]) / (ub - ua)) * side);
   }
-  const order = cv.map((_, k) => k).sort((a, b) => cv[a] - cv[b] || cs[a] - cs[b]);
+  // Insertion sort by v, then by the edge's slope on that side: a line crosses few edges.
+  const order: number[] = [];
+  for (let k = 0; k < cv.length; k++) {
+    let i = k;
+    while (i > 0 && (cv[order[i - 1]] > cv[k] || (cv[order[i - 1]] === cv[k] && cs[order[i - 1]] > cs[k]))) {
+      order[i] = order[i - 1];
+      i--;
+    }
+    order[i] = k;
+  }
   const chords: Chord[] = [];
   for (let k = 0; k + 1 < order.length; k += 2) {
     const a = order[k];

@@ -32,7 +32,7 @@ export interface MeshOptions {
 
 /** Sorted unique breakpoints: every vertex u exactly, outlet and half-way knots, then mesh joist lines. */
 function meshLines(roof: Roof, levels: PerimeterLevels, joists: Float64Array, stride: number, gap: number): Float64Array {
-  const hard = Array.from(roof.us).sort((a, b) => a - b);
+  const hard = Float64Array.from(roof.us).sort();
   const snap = 1e-6 * Math.max(1, roof.umax - roof.umin);
   const knots: number[] = [];
   for (let j = 0; j < roof.n; j++) {
@@ -51,9 +51,12 @@ function meshLines(roof: Roof, levels: PerimeterLevels, joists: Float64Array, st
 }
 
 /** Adds candidates to a sorted list unless one lies within `gap` of an accepted value. */
-function mergeAway(accepted: number[], candidates: number[], gap: number): number[] {
-  const base = [...new Set(accepted)].sort((a, b) => a - b);
-  const cand = [...candidates].sort((a, b) => a - b);
+function mergeAway(accepted: ArrayLike<number>, candidates: ArrayLike<number>, gap: number): number[] {
+  // Typed arrays sort numerically without a comparator; repeats are skipped below.
+  const sorted = Float64Array.from(accepted).sort();
+  const base: number[] = [];
+  for (let k = 0; k < sorted.length; k++) if (k === 0 || sorted[k] !== sorted[k - 1]) base.push(sorted[k]);
+  const cand = Float64Array.from(candidates).sort();
   const out: number[] = [];
   let i = 0;
   let lastKept = -Infinity;
@@ -136,7 +139,16 @@ export function buildMesh(roof: Roof, levels: PerimeterLevels, joists: Float64Ar
     }
     crossingV.length = 0;
     for (const e of crossing) crossingV[e] = edgeV(e, mid);
-    crossing.sort((p, q) => crossingV[p] - crossingV[q]);
+    // Insertion sort along v: a slab is crossed by few edges, and no comparator is called.
+    for (let k = 1; k < crossing.length; k++) {
+      const e = crossing[k];
+      let i = k;
+      while (i > 0 && crossingV[crossing[i - 1]] > crossingV[e]) {
+        crossing[i] = crossing[i - 1];
+        i--;
+      }
+      crossing[i] = e;
+    }
     for (let k = 0; k + 1 < crossing.length; k += 2) {
       trapBot.push(crossing[k]);
       trapTop.push(crossing[k + 1]);
@@ -413,7 +425,8 @@ function zipSlabs(
 ): { tri: Uint32Array; rungs: Uint32Array } {
   let tri = new Uint32Array(Math.ceil(2.2 * vertexCount) * 3 + 48);
   let tc = 0;
-  let rungs = new Uint32Array(Math.ceil(2.4 * vertexCount) + 48);
+  // Two indices per rung, and about one rung per triangle.
+  let rungs = new Uint32Array(Math.ceil(4.6 * vertexCount) + 48);
   let rc = 0;
   const L = lineStart.length - 1;
   for (let j = 0; j + 1 < L; j++) {
