@@ -20,6 +20,10 @@ async function rps(url: string, init: { method: "GET" | "POST"; headers?: Record
   return { rps: r.requests.average, p99: r.latency.p99 };
 }
 
+async function warmUp(url: string, init: { method: "GET" | "POST"; headers?: Record<string, string>; body?: string }) {
+  await autocannon({ url, connections: 10, amount: 500, ...init });
+}
+
 export const apiSection: Section = {
   title: "API: analyses on a small roof vs a trivial JSON route (requests/s, same server, same run)",
   async run(): Promise<BenchRow[]> {
@@ -27,6 +31,10 @@ export const apiSection: Section = {
     try {
       const pinned = pin(server.proc.pid!, 0) && pin(process.pid, 1);
       const json = { "Content-Type": "application/json" };
+      // Warm up both routes first, as the engine section does, so neither figure includes the
+      // JIT compiling its code.
+      await warmUp(`${server.url}/api/v1`, { method: "GET" });
+      await warmUp(`${server.url}/api/v1/analyses`, { method: "POST", headers: json, body: JSON.stringify(SMALL_ROOF) });
       const trivial = await rps(`${server.url}/api/v1`, { method: "GET" });
       const lean = await rps(`${server.url}/api/v1/analyses`, { method: "POST", headers: json, body: JSON.stringify(SMALL_ROOF) });
       const full = await rps(`${server.url}/api/v1/analyses?mesh=true&traces=true`, { method: "POST", headers: json, body: JSON.stringify(SMALL_ROOF) });

@@ -15,7 +15,8 @@ export async function benchServer(dbName: string, env: Record<string, string> = 
   await ensureDatabase(info, dbName, profile.database);
   const services = serviceEnv(profile);
   const fakes = await startFakes(profile, services);
-  const buildDir = path.join(ROOT, ".data/build-bench");
+  // A build of its own (FALLWRIGHT_BUILD_DIR, else .data/build-bench), never the shared `build`.
+  const buildDir = path.resolve(ROOT, process.env.FALLWRIGHT_BUILD_DIR ?? ".data/build-bench");
   if (!fs.existsSync(path.join(buildDir, "server/index.js")) || process.env.REBUILD !== "0") {
     const r = spawnSync(process.execPath, [path.join(ROOT, "node_modules/@react-router/dev/bin.js"), "build"], {
       cwd: ROOT,
