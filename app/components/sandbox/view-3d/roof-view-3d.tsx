@@ -1,6 +1,7 @@
-import { useThree } from "@react-three/fiber";
+import { useFrame, useThree } from "@react-three/fiber";
 import { SceneCanvas } from "./scene-canvas";
-import { useEffect, useMemo, useRef } from "react";
+import { useEffect, useLayoutEffect, useMemo, useRef, type RefObject } from "react";
+import type { Analysis } from "~/engine";
 import { useSandbox } from "../store";
 import { CameraRig } from "./camera-rig";
 import { drainCentre, frameKey, useStableFrame } from "./scene-frame";
@@ -13,6 +14,24 @@ function Kick({ on }: { on: boolean }) {
   useEffect(() => {
     if (on) invalidate();
   }, [on, invalidate]);
+  return null;
+}
+
+/**
+ * Counts, on the view's wrapper (`data-drawn`), the frames that first showed a new analysis: a
+ * signal that the canvas itself has changed, for tests and for anyone timing the live view.
+ */
+function DrawnMark({ analysis, target }: { analysis: Analysis | null; target: RefObject<HTMLDivElement | null> }) {
+  const waiting = useRef(false);
+  const count = useRef(0);
+  useLayoutEffect(() => {
+    if (analysis) waiting.current = true;
+  }, [analysis]);
+  useFrame(() => {
+    if (!waiting.current || !target.current) return;
+    waiting.current = false;
+    target.current.dataset.drawn = String(++count.current);
+  });
   return null;
 }
 
@@ -60,6 +79,7 @@ export default function RoofView3D({ className = "", resetKey = 0 }: { className
           resetKey={`${frameKey(frame)}|${view.camera === "section" ? joist : ""}|${resetKey}`}
         />
         <Kick on={animate} />
+        <DrawnMark analysis={analysis} target={wrapper} />
       </SceneCanvas>
     </div>
   );
