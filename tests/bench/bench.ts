@@ -6,6 +6,7 @@
 import { loadavg } from "node:os";
 import { performance } from "node:perf_hooks";
 import { analyse, parseSpec, type RoofSpec } from "../../app/engine/index.ts";
+import { median } from "./stats.ts";
 
 export const FRAME_MS = 16.7;
 
@@ -56,11 +57,7 @@ export const BENCH_ROOFS: { name: string; area: number; frames: number; spec: Ro
   },
 ];
 
-export function median(values: number[]): number {
-  const s = [...values].sort((a, b) => a - b);
-  const m = s.length >> 1;
-  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
-}
+export { median };
 
 const cpuMs = () => {
   const c = process.cpuUsage();
