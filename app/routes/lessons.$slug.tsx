@@ -39,7 +39,9 @@ export async function action({ request, params }: Route.ActionArgs) {
   const read = await readFormCapped(request, 512 * 1024);
   if (!read.ok) return data({ attempt: null, error: "The submission could not be read. Try again." }, { status: read.status });
   const outcome = await submitAttempt(user, submissionFromForm(params.slug, read.form));
-  if ("attempt" in outcome) return { attempt: outcome.attempt, error: null };
+  // The next submit is a new attempt: its key comes with this answer, since the page's own data
+  // (and the key it carries) may reload only after the trainee has already changed the roof.
+  if ("attempt" in outcome) return { attempt: outcome.attempt, error: null, nextKey: crypto.randomUUID() };
   const detail = "issues" in outcome && outcome.issues?.length ? ` (${outcome.issues.slice(0, 2).map((i) => `${i.path}: ${i.message}`).join("; ")})` : "";
   const roofProblem = outcome.issues?.some((i) => i.path.startsWith("spec"));
   const message = roofProblem
@@ -68,8 +70,11 @@ export default function LessonPlayer() {
   const specInput = useRef<HTMLInputElement>(null);
   const timeInput = useRef<HTMLInputElement>(null);
   const timeSpent = useTimeSpent();
+  // The roof as edited, written into the form as it submits: React may set the hidden input
+  // back to its default whenever this page re-renders (a revalidation landing after an edit).
+  const latestSpec = useRef<RoofSpec | null>(null);
   const onSpecChange = useCallback((spec: RoofSpec) => {
-    if (specInput.current) specInput.current.value = JSON.stringify(spec);
+    latestSpec.current = spec;
   }, []);
   const graded = result?.attempt?.results ?? null;
   const quizResults = new Map((graded?.quiz ?? []).map((r) => [r.id, r]));
@@ -129,9 +134,10 @@ export default function LessonPlayer() {
         className="grid gap-8"
         onSubmit={() => {
           if (timeInput.current) timeInput.current.value = String(timeSpent());
+          if (specInput.current && latestSpec.current) specInput.current.value = JSON.stringify(latestSpec.current);
         }}
       >
-        <input type="hidden" name="idempotencyKey" value={idempotencyKey} />
+        <input type="hidden" name="idempotencyKey" value={(result && "nextKey" in result ? result.nextKey : null) ?? idempotencyKey} />
         <input type="hidden" name="version" value={lesson.version} />
         <input type="hidden" name="timeSpentSeconds" ref={timeInput} defaultValue="0" />
         <input type="hidden" name="spec" ref={specInput} defaultValue={JSON.stringify(lesson.task.start)} />

@@ -27,6 +27,13 @@ test("a trainee passes the quiz, fails the roof task, moves the outlet and passe
     await page.getByLabel(option).check();
   }
 
+  // The page's data reloads after each submit are held back 1.5 s, so one can land after the
+  // roof is edited below: the next submit must still carry the edited roof.
+  await page.route(/\/lessons\/[^/]+\.data/, async (route) => {
+    if (route.request().method() === "GET") await new Promise((r) => setTimeout(r, 1500));
+    await route.continue();
+  });
+
   // First submit with the roof as given: the outlet sits in the corner.
   await expect(page.getByTestId("sandbox-workspace")).toBeVisible();
   await page.getByRole("button", { name: "Submit answers and roof" }).click();
