@@ -15,6 +15,7 @@ import { useAutosave, type RoofSnapshot } from "~/components/roofs/use-autosave"
 import { RoofWorkspace, retraceSpec } from "~/components/roofs/roof-workspace";
 import type { SandboxStore } from "~/components/sandbox/store";
 import type { RoofSpec } from "~/engine";
+import { newRequestKey } from "~/lib/request-key";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.roof.name ?? "Roof"} · Fallwright` }];
 
@@ -143,8 +144,7 @@ function RoofEditor({ roof, underlay: initialUnderlay, underlayUrl: initialUrl, 
   }
   async function keepMineAsCopy() {
     setCopyError(null);
-    // getRandomValues works on plain-http hosts too, where randomUUID does not exist.
-    copyKey.current ??= Array.from(crypto.getRandomValues(new Uint8Array(16)), (b) => b.toString(16).padStart(2, "0")).join("");
+    copyKey.current ??= newRequestKey();
     const res = await fetch("/api/v1/roofs", {
       method: "POST",
       headers: { "Content-Type": "application/json", "Idempotency-Key": copyKey.current },

@@ -2,6 +2,7 @@ import { useId, useRef, useState } from "react";
 import { Link, useFetcher, useRouteLoaderData } from "react-router";
 import { useSandboxStore } from "~/components/sandbox/store";
 import type { loader as shellLoader } from "~/routes/_shell";
+import { newRequestKey } from "~/lib/request-key";
 
 interface SaveError {
   error?: { message: string; issues?: { path: string; message: string }[] };
@@ -39,7 +40,7 @@ export function SaveToLibrary() {
       className="flex flex-wrap items-center gap-2"
       onSubmit={(event) => {
         const form = event.currentTarget;
-        keyRef.current ||= crypto.randomUUID();
+        keyRef.current ||= newRequestKey();
         (form.elements.namedItem("spec") as HTMLInputElement).value = JSON.stringify(store.getState().spec);
         (form.elements.namedItem("idempotencyKey") as HTMLInputElement).value = keyRef.current;
       }}
