@@ -15,38 +15,11 @@ import {
   type HTMLAttributes,
   type ReactNode,
 } from "react";
-import {
-  AmbientLight,
-  Color,
-  CylinderGeometry,
-  DirectionalLight,
-  Group,
-  InstancedMesh,
-  LineBasicMaterial,
-  LineSegments,
-  Mesh,
-  MeshBasicMaterial,
-  MeshLambertMaterial,
-  RingGeometry,
-} from "three";
+import * as SCENE_ELEMENTS from "./scene-elements";
 
-// The three.js elements the scenes write as JSX, and only those: the library's own <Canvas>
-// registers the whole THREE namespace, which keeps every class of three.js in the sandbox's
-// bundle. A scene that needs another element adds it here.
-extend({
-  AmbientLight,
-  Color,
-  CylinderGeometry,
-  DirectionalLight,
-  Group,
-  InstancedMesh,
-  LineBasicMaterial,
-  LineSegments,
-  Mesh,
-  MeshBasicMaterial,
-  MeshLambertMaterial,
-  RingGeometry,
-});
+// Only the elements the scenes use: the library's own <Canvas> registers the whole THREE
+// namespace, which keeps every class of three.js in the sandbox's bundle.
+extend(SCENE_ELEMENTS);
 
 type SceneCanvasProps = Pick<
   RenderProps<HTMLCanvasElement>,
