@@ -29,7 +29,8 @@ test("sign-in keeps the typed e-mail on a wrong password, then signs in, and sig
 test("a page that needs an account sends you to sign in and back again", async ({ page }) => {
   await page.goto("/account");
   await expect(page).toHaveURL(/\/login\?redirectTo=%2Faccount$/);
-  await page.getByLabel("E-mail").fill("designer@tidemark.example");
+  // An account no other test signs in with: "sign out everywhere" ends every session it has.
+  await page.getByLabel("E-mail").fill("trainer2@tidemark.example");
   await page.getByLabel("Password").fill("fallwright-demo");
   await page.keyboard.press("Enter");
   await expect(page.getByRole("heading", { name: "Your account" })).toBeVisible();
