@@ -13,7 +13,7 @@ export interface Desk {
 
 /** What the home page puts in front of a signed-in person: where they left off. */
 export async function deskFor(user: SessionUser): Promise<Desk> {
-  const [classes, roofs] = await Promise.all([listClassesFor(user), listMyRoofs(user)]);
+  const [classes, roofs] = await Promise.all([listClassesFor(user), listMyRoofs(user, 3)]);
   let todo: Desk["todo"] = [];
   if (user.role === "trainee") {
     const byClass = await assignmentsForTrainee(user.id, classes.map((c) => c.id));
@@ -27,6 +27,6 @@ export async function deskFor(user: SessionUser): Promise<Desk> {
     role: user.role,
     classes: classes.slice(0, 4).map((c) => ({ id: c.id, name: c.name, startsOn: c.starts_on, endsOn: c.ends_on, members: c.members, pending: c.pending })),
     todo,
-    roofs: roofs.slice(0, 3).map((r) => ({ id: r.id, name: r.name, updatedAt: r.updatedAt })),
+    roofs: roofs.map((r) => ({ id: r.id, name: r.name, updatedAt: r.updatedAt })),
   };
 }

@@ -70,13 +70,15 @@ function readUnderlay(raw: unknown): UnderlaySettings | null {
   return parsed.success ? parsed.data : null;
 }
 
-export async function listMyRoofs(user: SessionUser): Promise<RoofSummary[]> {
-  const rows = await db()("roofs")
+/** My roofs, most recently changed first (the newest `limit` of them when given). */
+export async function listMyRoofs(user: SessionUser, limit?: number): Promise<RoofSummary[]> {
+  const q = db()("roofs")
     .where({ owner_id: user.id })
     .whereNull("deleted_at")
     .orderBy("updated_at", "desc")
     .select("id", "name", "version", "shared", "updated_at", "created_at");
-  return rows.map(summary);
+  if (limit !== undefined) q.limit(limit);
+  return (await q).map(summary);
 }
 
 /** Roofs colleagues in my organisation have shared (read-only for me). */
