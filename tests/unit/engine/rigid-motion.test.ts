@@ -7,7 +7,8 @@ import { analyseSpec, close } from "./helpers";
  * examples with their shortest paths worked by hand. A turn by θ and a shift by (tx, ty) maps
  * p = (x, y) to (x cos θ − y sin θ + tx, x sin θ + y cos θ + ty); distances are unchanged because
  * the rotation matrix R has RᵀR = I, so |Rp − Rq| = |p − q|. Every length below is therefore the
- * same before and after the move, and the engine must say so.
+ * same before and after the move, and the engine must say so. The straight-line lengths are
+ * Euclidean distances, √(Δx² + Δy²) (Pythagoras, Euclid's Elements I.47).
  */
 
 /** Where the move puts plan point p. */
