@@ -1,4 +1,5 @@
 import { bestExtraOutlet, minimumBaseFall } from "./advice";
+import { Arena } from "./arena";
 import { dropSchedule, joistPositions } from "./joists";
 import { edgeFalls } from "./edge-falls";
 import { formatRatio } from "./fall";
@@ -50,8 +51,21 @@ export function analyse(spec: RoofSpec, options: AnalyseOptions = {}): Analysis 
   return analyseRoof(prepared.roof, options);
 }
 
+// One analysis runs at a time on a thread; its mesh and routing arrays live here between runs.
+const arena = new Arena();
+
 /** The analysis of a roof already normalised and checked by `prepareRoof`. */
 export function analyseRoof(roof: Roof, options: AnalyseOptions = {}): Analysis {
+  if (arena.busy) return analyseWith(new Arena(), roof, options);
+  try {
+    return analyseWith(arena, roof, options);
+  } finally {
+    arena.release();
+  }
+}
+
+function analyseWith(memory: Arena, roof: Roof, options: AnalyseOptions): Analysis {
+  memory.reset();
   const warnings: Warning[] = [];
   const spans = drainSpans(roof);
   const slope = 1 / roof.baseFall.ratio;
@@ -83,15 +97,15 @@ export function analyseRoof(roof: Roof, options: AnalyseOptions = {}): Analysis 
       at: [(s.start[0] + s.end[0]) / 2, (s.start[1] + s.end[1]) / 2],
     });
   }
-  const mesh = buildMesh(roof, levels, joistU, { maxVertices: options.maxMeshVertices ?? MAX_MESH_VERTICES });
+  const mesh = buildMesh(roof, levels, joistU, { maxVertices: options.maxMeshVertices ?? MAX_MESH_VERTICES, memory });
   if (mesh.coarsened) {
     warnings.push({
       code: "mesh-coarsened",
       message: `The roof is large for its joist spacing: the fall map uses every ${mesh.stride} joist line and ${mm(mesh.step)} stations.`,
     });
   }
-  const faces = faceData(mesh);
-  const routing = routeWater(roof, mesh, faces);
+  const faces = faceData(mesh, memory);
+  const routing = routeWater(roof, mesh, faces, memory);
   const geodesic = new Geodesic(roof);
 
   const lines = fallLines(roof, levels, mesh, routing, geodesic);
@@ -161,8 +175,8 @@ export function analyseRoof(roof: Roof, options: AnalyseOptions = {}): Analysis 
     ponding,
     probes,
   };
-  if (options.mesh === "typed") shaped.meshBuffers = meshBuffers(roof, mesh, faces.slope, routing.faceDrain);
-  else if (options.mesh !== false) shaped.mesh = meshArrays(roof, mesh, faces.slope, routing.faceDrain);
+  if (options.mesh === "typed") shaped.meshBuffers = meshBuffers(roof, mesh, faces.slope2, routing.faceDrain);
+  else if (options.mesh !== false) shaped.mesh = meshArrays(roof, mesh, faces.slope2, routing.faceDrain);
   if (options.traces !== false) shaped.flowTraces = flowTraces(roof, mesh, routing);
 
   return {

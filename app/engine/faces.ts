@@ -1,17 +1,19 @@
+import { FRESH, type Memory } from "./arena";
 import type { SurfaceMesh } from "./mesh";
 
-/** Per-face plan area and steepest fall |grad z| of the face's plane, from its three vertex levels. */
+/** Per-face plan area and squared steepest fall |grad z|² of the face's plane, from its three vertex levels. */
 export interface FaceData {
   area: Float64Array;
-  slope: Float64Array;
+  /** Squared, so the fall map compares without a square root per face; the 3D mesh takes the root. */
+  slope2: Float64Array;
 }
 
 /** Plan area and steepest fall of every face: the fall map and catchments read these. */
-export function faceData(mesh: SurfaceMesh): FaceData {
+export function faceData(mesh: SurfaceMesh, memory: Memory = FRESH): FaceData {
   const F = mesh.faceCount;
   const { u, v, z, tri } = mesh;
-  const area = new Float64Array(F);
-  const slope = new Float64Array(F);
+  const area = memory.take(Float64Array, F);
+  const slope2 = memory.take(Float64Array, F);
   for (let f = 0; f < F; f++) {
     const a = tri[3 * f], b = tri[3 * f + 1], c = tri[3 * f + 2];
     const du1 = u[b] - u[a], dv1 = v[b] - v[a], dz1 = z[b] - z[a];
@@ -21,9 +23,9 @@ export function faceData(mesh: SurfaceMesh): FaceData {
     if (det === 0) continue;
     const x = (dz1 * dv2 - dz2 * dv1) / det;
     const y = (du1 * dz2 - du2 * dz1) / det;
-    slope[f] = Math.sqrt(x * x + y * y);
+    slope2[f] = x * x + y * y;
   }
-  return { area, slope };
+  return { area, slope2 };
 }
 
 /** Index of the mesh vertex nearest frame point (u, v): binary search on lines, then stations. */

@@ -15,21 +15,23 @@ export const ratioOfSlope = (slope: number) => (slope > 0 ? 1 / slope : Infinity
 export function fallMap(faces: FaceData, minFallRatio: number, edges: readonly number[] = DEFAULT_BAND_EDGES) {
   const sorted = [...edges].filter((e) => e > 0 && Number.isFinite(e)).sort((a, b) => a - b);
   const areas = new Float64Array(sorted.length + 1);
-  // Compare slopes, not ratios: a face is in band b when its slope is below 1/edge of every edge before b.
-  const below = sorted.map((e) => 1 / (e * (1 + 1e-9)));
-  const flatSlope = 1 / (minFallRatio * (1 + 1e-9));
+  // Compare squared slopes, not ratios: a face is in band b when its slope is below 1/edge of
+  // every edge before b.
+  const below = sorted.map((e) => 1 / (e * (1 + 1e-9)) ** 2);
+  const flatSlope2 = 1 / (minFallRatio * (1 + 1e-9)) ** 2;
   let flatter = 0;
   let total = 0;
   const F = faces.area.length;
-  const { area, slope } = faces;
+  const { area, slope2 } = faces;
+  const nb = below.length;
   for (let f = 0; f < F; f++) {
-    const s = slope[f];
+    const s = slope2[f];
     const a = area[f];
     total += a;
     let band = 0;
-    while (band < below.length && s < below[band]) band++;
+    while (band < nb && s < below[band]) band++;
     areas[band] += a;
-    if (s < flatSlope) flatter += a;
+    if (s < flatSlope2) flatter += a;
   }
   const bands: Band[] = [];
   for (let b = 0; b <= sorted.length; b++) {

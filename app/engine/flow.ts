@@ -1,3 +1,4 @@
+import { FRESH, type Memory } from "./arena";
 import type { FaceData } from "./faces";
 import type { SurfaceMesh } from "./mesh";
 import type { Roof } from "./roof";
@@ -24,9 +25,9 @@ export interface Routing {
 const FLAT = 1e-9;
 
 /** Drain ids for vertices that are outlets (within the outlet radius) or on an eaves edge. */
-function markDrains(roof: Roof, mesh: SurfaceMesh, drains: Drain[]): Int32Array {
+function markDrains(roof: Roof, mesh: SurfaceMesh, drains: Drain[], memory: Memory): Int32Array {
   const V = mesh.vertexCount;
-  const mark = new Int32Array(V).fill(-1);
+  const mark = memory.take(Int32Array, V).fill(-1);
   const { n, eaves, len } = roof;
   const eavesIds = new Int32Array(n).fill(-1);
   const eavesOrder = [...Array(n).keys()].filter((e) => eaves[e]).sort((a, b) => roof.userEdge[a] - roof.userEdge[b]);
@@ -74,17 +75,22 @@ function markDrains(roof: Roof, mesh: SurfaceMesh, drains: Drain[]): Int32Array 
 }
 
 /**
- * Whether a fall `s` towards vertex `to` beats the best so far (`best` towards `current`). Falls
- * equal up to rounding are ties, settled by the frame position of the lower vertex (lower v, then
- * lower u): on a ridge, water must not go one way or the other by the rounding of a move.
+ * Whether a fall towards vertex `to` beats the best so far (towards `current`). Falls are compared
+ * squared (`s2`, `best2`: no square root per edge). Falls equal up to rounding are ties, settled
+ * by the frame position of the lower vertex (lower v, then lower u): on a ridge, water must not
+ * go one way or the other by the rounding of a move.
  */
-function steeper(s: number, best: number, to: number, current: number, u: Float64Array, v: Float64Array): boolean {
-  if (current < 0 || s > best * (1 + 1e-9)) return true;
-  if (s < best * (1 - 1e-9)) return false;
+function steeper(s2: number, best2: number, to: number, current: number, u: Float64Array, v: Float64Array): boolean {
+  if (current < 0 || s2 > best2 * TIE_HIGH) return true;
+  if (s2 < best2 * TIE_LOW) return false;
   const dv = v[to] - v[current];
   if (dv < -1e-9 || dv > 1e-9) return dv < 0;
   return u[to] < u[current];
 }
+
+// A relative tie band of 1e-9 on a fall is (1 ± 1e-9)² on its square.
+const TIE_HIGH = (1 + 1e-9) ** 2;
+const TIE_LOW = (1 - 1e-9) ** 2;
 
 /**
  * Where the water goes (ROOF-METHOD.md §7): each vertex drains to its steepest downhill neighbour
@@ -92,14 +98,14 @@ function steeper(s: number, best: number, to: number, current: number, u: Float6
  * whose water already reaches a drain; what is left are pits. Each face goes to the drain of its
  * lowest vertex.
  */
-export function routeWater(roof: Roof, mesh: SurfaceMesh, faces: FaceData): Routing {
+export function routeWater(roof: Roof, mesh: SurfaceMesh, faces: FaceData, memory: Memory = FRESH): Routing {
   const V = mesh.vertexCount;
   const F = mesh.faceCount;
   const { u, v, z, tri } = mesh;
   const drains: Drain[] = roof.outlets.map((o) => ({ kind: "outlet", index: o.index, level: o.level, vertex: -1 }));
-  const drainMark = markDrains(roof, mesh, drains);
+  const drainMark = markDrains(roof, mesh, drains, memory);
 
-  const receiver = new Int32Array(V).fill(-1);
+  const receiver = memory.take(Int32Array, V).fill(-1);
   const best = scratchF64(V);
   const edges = mesh.edges;
   for (let k = 0; k < edges.length; k += 2) {
@@ -109,14 +115,14 @@ export function routeWater(roof: Roof, mesh: SurfaceMesh, faces: FaceData): Rout
     if (dz <= FLAT && dz >= -FLAT) continue;
     const du = u[b] - u[a];
     const dv = v[b] - v[a];
-    const s = dz / Math.sqrt(du * du + dv * dv);
-    if (s > 0) {
-      if (steeper(s, best[a], b, receiver[a], u, v)) {
-        best[a] = s;
+    const s2 = (dz * dz) / (du * du + dv * dv);
+    if (dz > 0) {
+      if (steeper(s2, best[a], b, receiver[a], u, v)) {
+        best[a] = s2;
         receiver[a] = b;
       }
-    } else if (steeper(-s, best[b], a, receiver[b], u, v)) {
-      best[b] = -s;
+    } else if (steeper(s2, best[b], a, receiver[b], u, v)) {
+      best[b] = s2;
       receiver[b] = a;
     }
   }
@@ -131,9 +137,9 @@ export function routeWater(roof: Roof, mesh: SurfaceMesh, faces: FaceData): Rout
   if (open > 0) open = levelPatches(mesh, receiver, rootDrain, chains, open);
   if (open > 0) markPits(mesh, receiver, rootDrain, drains);
 
-  const vertexDrain = new Int32Array(V);
+  const vertexDrain = memory.take(Int32Array, V);
   for (let i = 0; i < V; i++) vertexDrain[i] = rootDrain[chains.end(i)];
-  const faceDrain = new Int32Array(F);
+  const faceDrain = memory.take(Int32Array, F);
   const drainArea = new Float64Array(drains.length);
   for (let f = 0; f < F; f++) {
     const a = tri[3 * f], b = tri[3 * f + 1], c = tri[3 * f + 2];

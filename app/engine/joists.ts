@@ -1,5 +1,4 @@
 import { chordsAt } from "./chords";
-import { fallFromRatio } from "./fall";
 import { levelOnEdge, type PerimeterLevels } from "./perimeter";
 import { toPlan, type Roof } from "./roof";
 import type { Joist } from "./types";
@@ -44,7 +43,6 @@ export function dropSchedule(roof: Roof, levels: PerimeterLevels, positions: Flo
         startDrop: H - startLevel,
         endDrop: H - endLevel,
         ratio,
-        fall: ratio === null ? null : fallFromRatio(ratio),
       };
     });
     joists.push({ index: k, offset: u - roof.umin, spans });

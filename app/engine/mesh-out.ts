@@ -15,8 +15,8 @@ function planPositions<T extends number[] | Float64Array>(roof: Roof, mesh: Surf
   return out;
 }
 
-/** The mesh as plain arrays in request coordinates, ready for JSON. */
-export function meshArrays(roof: Roof, mesh: SurfaceMesh, slope: Float64Array, faceDrain: Int32Array): Mesh {
+/** The mesh as plain arrays (squared face falls in, ratios out) in request coordinates, ready for JSON. */
+export function meshArrays(roof: Roof, mesh: SurfaceMesh, slope2: Float64Array, faceDrain: Int32Array): Mesh {
   const positions = planPositions(roof, mesh, new Array<number>(3 * mesh.vertexCount));
   const F = mesh.faceCount;
   // Infinity (not null) keeps the array unboxed; JSON writes it as null.
@@ -25,7 +25,7 @@ export function meshArrays(roof: Roof, mesh: SurfaceMesh, slope: Float64Array, f
   const drains = new Array<number>(F);
   const tri = mesh.tri;
   for (let f = 0; f < F; f++) {
-    faceRatio[f] = slope[f] > 0 ? 1 / slope[f] : Infinity;
+    faceRatio[f] = ratioOfSlope(Math.sqrt(slope2[f]));
     drains[f] = faceDrain[f];
     indices[3 * f] = tri[3 * f];
     indices[3 * f + 1] = tri[3 * f + 1];
@@ -35,9 +35,9 @@ export function meshArrays(roof: Roof, mesh: SurfaceMesh, slope: Float64Array, f
 }
 
 /** The mesh as typed arrays, for a Web Worker to transfer. */
-export function meshBuffers(roof: Roof, mesh: SurfaceMesh, slope: Float64Array, faceDrain: Int32Array): MeshBuffers {
+export function meshBuffers(roof: Roof, mesh: SurfaceMesh, slope2: Float64Array, faceDrain: Int32Array): MeshBuffers {
   const positions = planPositions(roof, mesh, new Float64Array(3 * mesh.vertexCount));
   const faceRatio = new Float64Array(mesh.faceCount);
-  for (let f = 0; f < mesh.faceCount; f++) faceRatio[f] = ratioOfSlope(slope[f]);
+  for (let f = 0; f < mesh.faceCount; f++) faceRatio[f] = ratioOfSlope(Math.sqrt(slope2[f]));
   return { positions, indices: mesh.tri.slice(), faceRatio, faceDrain: faceDrain.slice() };
 }

@@ -1,3 +1,4 @@
+import { FRESH, type Memory } from "./arena";
 import { Growable } from "./growable";
 import { levelOnEdge, type PerimeterLevels } from "./perimeter";
 import type { Roof } from "./roof";
@@ -28,6 +29,8 @@ export interface SurfaceMesh {
 export interface MeshOptions {
   /** Work bound: the mesh is coarsened (every k-th joist, longer station step) above this. */
   maxVertices: number;
+  /** Where the mesh's arrays come from (default: fresh arrays the caller may keep). */
+  memory?: Memory;
 }
 
 /** Sorted unique breakpoints: every vertex u exactly, outlet and half-way knots, then mesh joist lines. */
@@ -81,6 +84,7 @@ function mergeAway(accepted: ArrayLike<number>, candidates: ArrayLike<number>, g
  */
 export function buildMesh(roof: Roof, levels: PerimeterLevels, joists: Float64Array, options: MeshOptions): SurfaceMesh {
   const { n, us, vs, len, spacing } = roof;
+  const memory = options.memory ?? FRESH;
   // Work bound: estimate stations as lines × stations per line over the bounding box (a thin
   // diagonal roof has few lines, each very long), then thin out the joist lines and lengthen the
   // station step together until the estimate fits.
@@ -158,8 +162,8 @@ export function buildMesh(roof: Roof, levels: PerimeterLevels, joists: Float64Ar
   const bots = trapBot.view();
   const tops = trapTop.view();
 
-  const out = new Stations(Math.ceil((roof.area / (spacing * stride * step)) * 1.1 + 4 * L + 64));
-  const lineStart = new Int32Array(L + 1);
+  const out = new Stations(memory, Math.ceil((roof.area / (spacing * stride * step)) * 1.1 + 4 * L + 64));
+  const lineStart = memory.take(Int32Array, L + 1);
   // Per-line scratch, sized for the worst line.
   const maxSides = 2 * (bots.length > 0 ? n : 1) + 2;
   const sides = new Float64Array(4 * maxSides);
@@ -246,7 +250,7 @@ export function buildMesh(roof: Roof, levels: PerimeterLevels, joists: Float64Ar
 
   // Zip each trapezoid between its left side (line j) and right side (line j+1).
   const T = bots.length;
-  const ends = new Float64Array(4 * T);
+  const ends = memory.take(Float64Array, 4 * T);
   for (let j = 0; j + 1 < L; j++) {
     for (let k = slabStart[j]; k < slabStart[j + 1]; k++) {
       ends[4 * k] = edgeV(bots[k], U[j]);
@@ -255,12 +259,12 @@ export function buildMesh(roof: Roof, levels: PerimeterLevels, joists: Float64Ar
       ends[4 * k + 3] = edgeV(tops[k], U[j + 1]);
     }
   }
-  const { tri, rungs } = zipSlabs(V, lineStart, slabStart, ends, tolV, vc);
+  const { tri, rungs } = zipSlabs(memory, V, lineStart, slabStart, ends, tolV, vc);
   const tc = tri.length;
   // Every mesh edge once: rungs across slabs, then joined neighbours along each line.
   let joined = 0;
   for (let i = 0; i < vc; i++) joined += out.link[i];
-  const edges = new Uint32Array(rungs.length + 2 * joined);
+  const edges = memory.take(Uint32Array, rungs.length + 2 * joined);
   edges.set(rungs);
   for (let i = 0, k = rungs.length; i < vc; i++) {
     if (!out.link[i]) continue;
@@ -296,13 +300,13 @@ class Stations {
   /** 1 when a station and the one before it on the same line are joined inside the outline. */
   link: Uint8Array;
   count = 0;
-  constructor(private cap: number) {
-    this.u = new Float64Array(cap);
-    this.v = new Float64Array(cap);
-    this.z = new Float64Array(cap);
-    this.e = new Int32Array(cap);
-    this.t = new Float64Array(cap);
-    this.link = new Uint8Array(cap);
+  constructor(memory: Memory, private cap: number) {
+    this.u = memory.take(Float64Array, cap);
+    this.v = memory.take(Float64Array, cap);
+    this.z = memory.take(Float64Array, cap);
+    this.e = memory.take(Int32Array, cap);
+    this.t = memory.take(Float64Array, cap);
+    this.link = memory.take(Uint8Array, cap);
   }
   ensure(needed: number): void {
     if (needed <= this.cap) return;
@@ -416,6 +420,7 @@ function fixAlong(out: Stations, start: number, along: number[], vs: Float64Arra
  * side is behind (by fraction of its length). Triangles are counter-clockwise in (u, v).
  */
 function zipSlabs(
+  memory: Memory,
   V: Float64Array,
   lineStart: Int32Array,
   slabStart: Int32Array,
@@ -423,10 +428,10 @@ function zipSlabs(
   tolV: number,
   vertexCount: number,
 ): { tri: Uint32Array; rungs: Uint32Array } {
-  let tri = new Uint32Array(Math.ceil(2.2 * vertexCount) * 3 + 48);
+  let tri = memory.take(Uint32Array, Math.ceil(2.2 * vertexCount) * 3 + 48);
   let tc = 0;
   // Two indices per rung, and about one rung per triangle.
-  let rungs = new Uint32Array(Math.ceil(4.6 * vertexCount) + 48);
+  let rungs = memory.take(Uint32Array, Math.ceil(4.6 * vertexCount) + 48);
   let rc = 0;
   const L = lineStart.length - 1;
   for (let j = 0; j + 1 < L; j++) {

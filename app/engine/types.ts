@@ -61,9 +61,8 @@ export interface JoistSpan {
   /** Drop below the high level at each end: what a builder sets at the bearing. */
   startDrop: number;
   endDrop: number;
-  /** null when the span is level. */
+  /** Its own fall as 1:N (ROOF-METHOD.md §5); null when the span is level. */
   ratio: number | null;
-  fall: Fall | null;
 }
 
 export interface Joist {
