@@ -18,10 +18,8 @@ export interface Chord {
  */
 export function chordsAt(roof: Roof, u0: number, side: 1 | -1): Chord[] {
   const { n, us, vs, len } = roof;
-  const cv: number[] = [];
-  const ce: number[] = [];
-  const ct: number[] = [];
-  const cs: number[] = [];
+  if (cv.length < n) grow(n);
+  let m = 0;
   for (let i = 0; i < n; i++) {
     const q = i + 1 === n ? 0 : i + 1;
     const ua = us[i];
@@ -30,14 +28,14 @@ export function chordsAt(roof: Roof, u0: number, side: 1 | -1): Chord[] {
     if (!crosses) continue;
     let s = (u0 - ua) / (ub - ua);
     s = s < 0 ? 0 : s > 1 ? 1 : s;
-    cv.push(s === 0 ? vs[i] : s === 1 ? vs[q] : vs[i] + s * (vs[q] - vs[i]));
-    ce.push(i);
-    ct.push(s * len[i]);
-    cs.push(((vs[q] - vs[i]) / (ub - ua)) * side);
+    cv[m] = s === 0 ? vs[i] : s === 1 ? vs[q] : vs[i] + s * (vs[q] - vs[i]);
+    ce[m] = i;
+    ct[m] = s * len[i];
+    cs[m] = ((vs[q] - vs[i]) / (ub - ua)) * side;
+    m++;
   }
   // Insertion sort by v, then by the edge's slope on that side: a line crosses few edges.
-  const order: number[] = [];
-  for (let k = 0; k < cv.length; k++) {
+  for (let k = 0; k < m; k++) {
     let i = k;
     while (i > 0 && (cv[order[i - 1]] > cv[k] || (cv[order[i - 1]] === cv[k] && cs[order[i - 1]] > cs[k]))) {
       order[i] = order[i - 1];
@@ -46,12 +44,26 @@ export function chordsAt(roof: Roof, u0: number, side: 1 | -1): Chord[] {
     order[i] = k;
   }
   const chords: Chord[] = [];
-  for (let k = 0; k + 1 < order.length; k += 2) {
+  for (let k = 0; k + 1 < m; k += 2) {
     const a = order[k];
     const b = order[k + 1];
     chords.push({ vA: cv[a], vB: cv[b], edgeA: ce[a], edgeB: ce[b], tA: ct[a], tB: ct[b] });
   }
   return chords;
+}
+
+// Crossings of the current line, reused by every call (chordsAt runs to completion, never nested).
+let cv = new Float64Array(0);
+let ct = new Float64Array(0);
+let cs = new Float64Array(0);
+let ce = new Int32Array(0);
+let order = new Int32Array(0);
+function grow(n: number): void {
+  cv = new Float64Array(n);
+  ct = new Float64Array(n);
+  cs = new Float64Array(n);
+  ce = new Int32Array(n);
+  order = new Int32Array(n);
 }
 
 /** The chord holding v (within tol) on the line u0, trying the limit from larger u first. */
