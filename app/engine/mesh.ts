@@ -127,24 +127,26 @@ export function buildMesh(roof: Roof, levels: PerimeterLevels, joists: Float64Ar
   const slabStart = new Int32Array(L);
   const trapBot = new Growable(Int32Array, 4 * L);
   const trapTop = new Growable(Int32Array, 4 * L);
-  const crossing: number[] = [];
-  const crossingV: number[] = [];
+  // Edges spanning the current slab, and each one's v at the slab's middle (indexed by edge).
+  const crossing = new Int32Array(n);
+  const crossingV = new Float64Array(n);
   for (let j = 0; j + 1 < L; j++) {
     slabStart[j] = trapBot.length;
     const a = U[j];
     const b = U[j + 1];
     const mid = (a + b) / 2;
-    crossing.length = 0;
+    let nc = 0;
     for (let e = 0; e < n; e++) {
       const q = e + 1 === n ? 0 : e + 1;
       const lo = us[e] < us[q] ? us[e] : us[q];
       const hi = us[e] < us[q] ? us[q] : us[e];
-      if (lo <= a && hi >= b) crossing.push(e);
+      if (lo <= a && hi >= b) {
+        crossing[nc++] = e;
+        crossingV[e] = edgeV(e, mid);
+      }
     }
-    crossingV.length = 0;
-    for (const e of crossing) crossingV[e] = edgeV(e, mid);
     // Insertion sort along v: a slab is crossed by few edges, and no comparator is called.
-    for (let k = 1; k < crossing.length; k++) {
+    for (let k = 1; k < nc; k++) {
       const e = crossing[k];
       let i = k;
       while (i > 0 && crossingV[crossing[i - 1]] > crossingV[e]) {
@@ -153,7 +155,7 @@ export function buildMesh(roof: Roof, levels: PerimeterLevels, joists: Float64Ar
       }
       crossing[i] = e;
     }
-    for (let k = 0; k + 1 < crossing.length; k += 2) {
+    for (let k = 0; k + 1 < nc; k += 2) {
       trapBot.push(crossing[k]);
       trapTop.push(crossing[k + 1]);
     }
