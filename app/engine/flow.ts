@@ -108,11 +108,18 @@ export function routeWater(roof: Roof, mesh: SurfaceMesh, faces: FaceData, memor
   const receiver = memory.take(Int32Array, V).fill(-1);
   const best = scratchF64(V);
   const edges = mesh.edges;
+  // Level edges (no fall either way), in mesh order: the only ones level patches and pits follow.
+  const level = memory.take(Int32Array, edges.length);
+  let nLevel = 0;
   for (let k = 0; k < edges.length; k += 2) {
     const a = edges[k];
     const b = edges[k + 1];
     const dz = z[a] - z[b];
-    if (dz <= FLAT && dz >= -FLAT) continue;
+    if (dz <= FLAT && dz >= -FLAT) {
+      level[nLevel++] = a;
+      level[nLevel++] = b;
+      continue;
+    }
     const du = u[b] - u[a];
     const dv = v[b] - v[a];
     const s2 = (dz * dz) / (du * du + dv * dv);
@@ -134,8 +141,9 @@ export function routeWater(roof: Roof, mesh: SurfaceMesh, faces: FaceData, memor
     else if (receiver[i] < 0) open++;
   }
   const chains = new Chains(receiver, V);
-  if (open > 0) open = levelPatches(mesh, receiver, rootDrain, chains, open);
-  if (open > 0) markPits(mesh, receiver, rootDrain, drains);
+  const levelEdges = level.subarray(0, nLevel);
+  if (open > 0) open = levelPatches(levelEdges, receiver, rootDrain, chains, open);
+  if (open > 0) markPits(V, z, levelEdges, receiver, rootDrain, drains);
 
   const vertexDrain = memory.take(Int32Array, V);
   for (let i = 0; i < V; i++) vertexDrain[i] = rootDrain[chains.end(i)];
@@ -198,15 +206,14 @@ function scratchI32(n: number): Int32Array {
 
 /**
  * Level patches: a vertex with no lower neighbour drains through a neighbour at the same level
- * whose water already reaches a drain. Sweeps over the edges until nothing changes (a wide level
- * area takes one sweep per step across it, so the sweeps are bounded); returns how many such
- * vertices are left without a way out.
+ * whose water already reaches a drain. Sweeps over the level edges (pairs of vertex indices, in
+ * mesh order) until nothing changes (a wide level area takes one sweep per step across it, so
+ * the sweeps are bounded); returns how many such vertices are left without a way out.
  */
-function levelPatches(mesh: SurfaceMesh, receiver: Int32Array, rootDrain: Int32Array, chains: Chains, open: number): number {
-  const { z, edges } = mesh;
+function levelPatches(edges: Int32Array, receiver: Int32Array, rootDrain: Int32Array, chains: Chains, open: number): number {
   const MAX_SWEEPS = 64;
   const settle = (x: number, y: number) => {
-    if (receiver[x] >= 0 || rootDrain[x] >= 0 || Math.abs(z[x] - z[y]) > FLAT || rootDrain[chains.end(y)] < 0) return 0;
+    if (receiver[x] >= 0 || rootDrain[x] >= 0 || rootDrain[chains.end(y)] < 0) return 0;
     receiver[x] = y;
     return 1;
   };
@@ -224,10 +231,8 @@ function levelPatches(mesh: SurfaceMesh, receiver: Int32Array, rootDrain: Int32A
   return open;
 }
 
-/** What is left: connected level patches with no way down, each a pit (ponding). */
-function markPits(mesh: SurfaceMesh, receiver: Int32Array, rootDrain: Int32Array, drains: Drain[]): void {
-  const V = mesh.vertexCount;
-  const { z, edges } = mesh;
+/** What is left: connected level patches (joined by level edges) with no way down, each a pit (ponding). */
+function markPits(V: number, z: Float64Array, edges: Int32Array, receiver: Int32Array, rootDrain: Int32Array, drains: Drain[]): void {
   const degree = new Int32Array(V + 1);
   for (let k = 0; k < edges.length; k++) degree[edges[k] + 1]++;
   for (let i = 0; i < V; i++) degree[i + 1] += degree[i];
@@ -253,7 +258,7 @@ function markPits(mesh: SurfaceMesh, receiver: Int32Array, rootDrain: Int32Array
       const x = queue[head++];
       for (let k = degree[x]; k < degree[x + 1]; k++) {
         const y = adj[k];
-        if (receiver[y] >= 0 || rootDrain[y] >= 0 || Math.abs(z[y] - z[x]) > FLAT) continue;
+        if (receiver[y] >= 0 || rootDrain[y] >= 0) continue;
         rootDrain[y] = id;
         receiver[y] = x;
         queue[tail++] = y;
