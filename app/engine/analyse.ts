@@ -104,8 +104,8 @@ function analyseWith(memory: Arena, roof: Roof, options: AnalyseOptions): Analys
       message: `The roof is large for its joist spacing: the fall map uses every ${mesh.stride} joist line and ${mm(mesh.step)} stations.`,
     });
   }
-  const faces = faceData(mesh, memory);
-  const routing = routeWater(roof, mesh, faces, memory);
+  const routing = routeWater(roof, mesh, memory);
+  const faces = faceData(mesh, routing.vertexDrain, routing.drains.length, memory);
   const geodesic = new Geodesic(roof);
 
   const lines = fallLines(roof, levels, mesh, routing, geodesic);
@@ -123,7 +123,7 @@ function analyseWith(memory: Arena, roof: Roof, options: AnalyseOptions): Analys
     });
   }
 
-  const { catchments, ponding } = catchmentsOf(roof, mesh, routing, warnings);
+  const { catchments, ponding } = catchmentsOf(roof, mesh, routing, faces, warnings);
   if (ponding.length) {
     const total = ponding.reduce((s, p) => s + p.area, 0);
     warnings.push({
@@ -175,8 +175,8 @@ function analyseWith(memory: Arena, roof: Roof, options: AnalyseOptions): Analys
     ponding,
     probes,
   };
-  if (options.mesh === "typed") shaped.meshBuffers = meshBuffers(roof, mesh, faces.slope2, routing.faceDrain);
-  else if (options.mesh !== false) shaped.mesh = meshArrays(roof, mesh, faces.slope2, routing.faceDrain);
+  if (options.mesh === "typed") shaped.meshBuffers = meshBuffers(roof, mesh, faces.slope2, faces.drain);
+  else if (options.mesh !== false) shaped.mesh = meshArrays(roof, mesh, faces.slope2, faces.drain);
   if (options.traces !== false) shaped.flowTraces = flowTraces(roof, mesh, routing);
 
   return {

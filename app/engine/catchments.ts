@@ -1,3 +1,4 @@
+import type { FaceData } from "./faces";
 import type { Routing } from "./flow";
 import { designFlow, DESIGN_HEAD, outletCapacity } from "./hydraulics";
 import type { SurfaceMesh } from "./mesh";
@@ -9,12 +10,12 @@ import type { Analysis, Catchment, Warning } from "./types";
  * The area draining to each outlet and eaves edge with its design flow (rational method, C = 1,
  * ASCE 7-05 Commentary C8), outlets' rough capacity, and the ponding pits (ROOF-METHOD.md §7).
  */
-export function catchmentsOf(roof: Roof, mesh: SurfaceMesh, routing: Routing, warnings: Warning[]) {
+export function catchmentsOf(roof: Roof, mesh: SurfaceMesh, routing: Routing, faces: FaceData, warnings: Warning[]) {
   const catchments: Catchment[] = [];
   const ponding: Analysis["shaped"]["ponding"] = [];
   const mm = (m: number) => `${Math.round(m * 1000)} mm`;
   routing.drains.forEach((d, id) => {
-    const area = routing.drainArea[id];
+    const area = faces.drainArea[id];
     if (d.kind === "pit") {
       if (area > 0) ponding.push({ at: toPlan(roof, mesh.u[d.vertex], mesh.v[d.vertex]), area, level: d.level });
       return;

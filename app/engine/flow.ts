@@ -1,5 +1,4 @@
 import { FRESH, type Memory } from "./arena";
-import type { FaceData } from "./faces";
 import type { SurfaceMesh } from "./mesh";
 import type { Roof } from "./roof";
 
@@ -17,9 +16,8 @@ export interface Routing {
   drains: Drain[];
   /** Steepest downhill neighbour of each vertex, -1 at drains and pits. */
   receiver: Int32Array;
+  /** The drain each vertex's water reaches (faces take their lowest vertex's: see faceData). */
   vertexDrain: Int32Array;
-  faceDrain: Int32Array;
-  drainArea: Float64Array;
 }
 
 const FLAT = 1e-9;
@@ -98,10 +96,9 @@ const TIE_LOW = (1 - 1e-9) ** 2;
  * whose water already reaches a drain; what is left are pits. Each face goes to the drain of its
  * lowest vertex.
  */
-export function routeWater(roof: Roof, mesh: SurfaceMesh, faces: FaceData, memory: Memory = FRESH): Routing {
+export function routeWater(roof: Roof, mesh: SurfaceMesh, memory: Memory = FRESH): Routing {
   const V = mesh.vertexCount;
-  const F = mesh.faceCount;
-  const { u, v, z, tri } = mesh;
+  const { u, v, z } = mesh;
   const drains: Drain[] = roof.outlets.map((o) => ({ kind: "outlet", index: o.index, level: o.level, vertex: -1 }));
   const drainMark = markDrains(roof, mesh, drains, memory);
 
@@ -147,18 +144,7 @@ export function routeWater(roof: Roof, mesh: SurfaceMesh, faces: FaceData, memor
 
   const vertexDrain = memory.take(Int32Array, V);
   for (let i = 0; i < V; i++) vertexDrain[i] = rootDrain[chains.end(i)];
-  const faceDrain = memory.take(Int32Array, F);
-  const drainArea = new Float64Array(drains.length);
-  for (let f = 0; f < F; f++) {
-    const a = tri[3 * f], b = tri[3 * f + 1], c = tri[3 * f + 2];
-    let low = a;
-    if (z[b] < z[low]) low = b;
-    if (z[c] < z[low]) low = c;
-    const d = vertexDrain[low];
-    faceDrain[f] = d;
-    if (d >= 0) drainArea[d] += faces.area[f];
-  }
-  return { drains, receiver, vertexDrain, faceDrain, drainArea };
+  return { drains, receiver, vertexDrain };
 }
 
 /**
