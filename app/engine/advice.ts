@@ -76,7 +76,7 @@ export function bestExtraOutlet(
   };
   const along = (sx: number, sy: number, t: Target) => {
     t.to ??= t.edge < 0 ? geodesic.toPoint(t.x, t.y) : geodesic.toEdge(t.edge);
-    return geodesic.path(sx, sy, t.to).length;
+    return geodesic.distance(sx, sy, t.to);
   };
   /** The drain a start reaches at the least ratio, trying drains in order of straight distance. */
   const nearest = (sx: number, sy: number, list: Target[], high: number): Reach | null => {

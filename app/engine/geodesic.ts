@@ -16,6 +16,8 @@ export interface Destination {
   endY: Float64Array;
   /** Where a start that sees the destination goes: the point itself, or the nearest point of the edge. */
   reach(sx: number, sy: number): [number, number][];
+  /** The straight distance there when the start sees the destination, else -1 (no arrays made). */
+  reachLength(sx: number, sy: number): number;
 }
 
 /**
@@ -113,7 +115,11 @@ export class Geodesic {
   }
 
   /** Dijkstra from a destination over the reflex vertices, given each vertex's direct leg. */
-  private destination(direct: (x: number, y: number) => [number, number] | null, reach: Destination["reach"]): Destination {
+  private destination(
+    direct: (x: number, y: number) => [number, number] | null,
+    reach: Destination["reach"],
+    reachLength: Destination["reachLength"],
+  ): Destination {
     const r = this.reflex.length;
     const dist = new Float64Array(r).fill(Infinity);
     const next = new Int32Array(r).fill(-1);
@@ -147,7 +153,7 @@ export class Geodesic {
         }
       }
     }
-    return { dist, next, endX, endY, reach };
+    return { dist, next, endX, endY, reach, reachLength };
   }
 
   /** A point destination (an outlet). */
@@ -155,6 +161,7 @@ export class Geodesic {
     return this.destination(
       (x, y) => (this.visible(x, y, tx, ty) ? [tx, ty] : null),
       (sx, sy) => (this.visible(sx, sy, tx, ty) ? [[sx, sy], [tx, ty]] : []),
+      (sx, sy) => (this.visible(sx, sy, tx, ty) ? Math.hypot(tx - sx, ty - sy) : -1),
     );
   }
 
@@ -173,10 +180,23 @@ export class Geodesic {
       for (const [px, py] of ends) if (this.visible(x, y, px, py)) return [px, py];
       return null;
     };
-    return this.destination(leg, (sx, sy) => {
-      const end = leg(sx, sy);
-      return end ? [[sx, sy], end] : [];
-    });
+    return this.destination(
+      leg,
+      (sx, sy) => {
+        const end = leg(sx, sy);
+        return end ? [[sx, sy], end] : [];
+      },
+      (sx, sy) => {
+        const end = leg(sx, sy);
+        return end ? Math.hypot(end[0] - sx, end[1] - sy) : -1;
+      },
+    );
+  }
+
+  /** The length of `path` without building the path (Infinity when there is none). */
+  distance(sx: number, sy: number, to: Destination): number {
+    const direct = to.reachLength(sx, sy);
+    return direct >= 0 ? direct : this.path(sx, sy, to).length;
   }
 
   /** Shortest path from s to a destination inside the outline; length Infinity when there is none. */
