@@ -50,6 +50,9 @@ export async function readBodyCapped(request: Request, limit: number): Promise<U
   return out;
 }
 
+// Decoding without the stream option keeps no state between calls, so one decoder serves all.
+const UTF8 = new TextDecoder("utf-8", { fatal: true });
+
 export type JsonBody = { ok: true; value: unknown } | { ok: false; response: Response };
 
 export async function readJsonBody(request: Request, limit: number): Promise<JsonBody> {
@@ -60,7 +63,7 @@ export async function readJsonBody(request: Request, limit: number): Promise<Jso
   const bytes = await readBodyCapped(request, limit);
   if (!bytes) return { ok: false, response: jsonError(413, `The body is over ${Math.round(limit / 1024)} kB.`) };
   try {
-    return { ok: true, value: JSON.parse(new TextDecoder("utf-8", { fatal: true }).decode(bytes)) };
+    return { ok: true, value: JSON.parse(UTF8.decode(bytes)) };
   } catch {
     return { ok: false, response: jsonError(400, "The body is not valid JSON.", [{ path: "(body)", message: "could not be parsed as JSON" }]) };
   }
