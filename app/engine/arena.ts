@@ -34,9 +34,10 @@ export class Arena {
   take<T extends Numeric>(ctor: Ctor<T>, n: number): T {
     const start = Math.ceil(this.used / 8) * 8;
     const end = start + n * ctor.BYTES_PER_ELEMENT;
+    // Past the end the cursor still advances, so `wanted` ends up as the whole analysis's need.
+    this.used = end;
     this.wanted = Math.max(this.wanted, end);
     if (end > this.buffer.byteLength) return new ctor(n);
-    this.used = end;
     const out = new ctor(this.buffer, start, n);
     out.fill(0);
     return out;
