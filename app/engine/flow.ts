@@ -86,6 +86,36 @@ function steeper(s2: number, best2: number, to: number, current: number, u: Floa
   return u[to] < u[current];
 }
 
+/**
+ * One mesh edge a-b: the lower end becomes the upper end's receiver when it is the steepest way
+ * down so far; a level edge is listed in `level` instead. Returns the new length of that list.
+ */
+function visit(
+  a: number, b: number,
+  u: Float64Array, v: Float64Array, z: Float64Array,
+  best: Float64Array, receiver: Int32Array, level: Int32Array, nLevel: number,
+): number {
+  const dz = z[a] - z[b];
+  if (dz <= FLAT && dz >= -FLAT) {
+    level[nLevel] = a;
+    level[nLevel + 1] = b;
+    return nLevel + 2;
+  }
+  const du = u[b] - u[a];
+  const dv = v[b] - v[a];
+  const s2 = (dz * dz) / (du * du + dv * dv);
+  if (dz > 0) {
+    if (steeper(s2, best[a], b, receiver[a], u, v)) {
+      best[a] = s2;
+      receiver[a] = b;
+    }
+  } else if (steeper(s2, best[b], a, receiver[b], u, v)) {
+    best[b] = s2;
+    receiver[b] = a;
+  }
+  return nLevel;
+}
+
 // A relative tie band of 1e-9 on a fall is (1 ± 1e-9)² on its square.
 const TIE_HIGH = (1 + 1e-9) ** 2;
 const TIE_LOW = (1 - 1e-9) ** 2;
@@ -104,32 +134,13 @@ export function routeWater(roof: Roof, mesh: SurfaceMesh, memory: Memory = FRESH
 
   const receiver = memory.take(Int32Array, V).fill(-1);
   const best = scratchF64(V);
-  const edges = mesh.edges;
+  const { rungs, link } = mesh;
   // Level edges (no fall either way), in mesh order: the only ones level patches and pits follow.
-  const level = memory.take(Int32Array, edges.length);
+  const level = memory.take(Int32Array, rungs.length + 2 * V);
   let nLevel = 0;
-  for (let k = 0; k < edges.length; k += 2) {
-    const a = edges[k];
-    const b = edges[k + 1];
-    const dz = z[a] - z[b];
-    if (dz <= FLAT && dz >= -FLAT) {
-      level[nLevel++] = a;
-      level[nLevel++] = b;
-      continue;
-    }
-    const du = u[b] - u[a];
-    const dv = v[b] - v[a];
-    const s2 = (dz * dz) / (du * du + dv * dv);
-    if (dz > 0) {
-      if (steeper(s2, best[a], b, receiver[a], u, v)) {
-        best[a] = s2;
-        receiver[a] = b;
-      }
-    } else if (steeper(s2, best[b], a, receiver[b], u, v)) {
-      best[b] = s2;
-      receiver[b] = a;
-    }
-  }
+  // Every mesh edge once, in `meshEdges` order: the rungs, then the links along the lines.
+  for (let k = 0; k < rungs.length; k += 2) nLevel = visit(rungs[k], rungs[k + 1], u, v, z, best, receiver, level, nLevel);
+  for (let i = 1; i < V; i++) if (link[i]) nLevel = visit(i - 1, i, u, v, z, best, receiver, level, nLevel);
   // rootDrain: the drain a chain's last vertex is (-1 for a level vertex not yet settled).
   const rootDrain = drainMark;
   let open = 0;

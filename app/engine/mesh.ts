@@ -15,8 +15,13 @@ export interface SurfaceMesh {
   t: Float64Array;
   /** Three vertex indices per face, counter-clockwise. */
   tri: Uint32Array;
-  /** Every edge of the mesh once, as pairs of vertex indices. */
-  edges: Uint32Array;
+  /**
+   * The mesh's edges, each once, in two parts: rungs across the slabs (pairs of vertex indices),
+   * and links along the lines (`link[i]` is 1 when vertex i is joined to vertex i - 1).
+   * `meshEdges` puts them in one list, in that order.
+   */
+  rungs: Uint32Array;
+  link: Uint8Array;
   /** Mesh lines (u positions) and where each line's stations start in the vertex arrays. */
   lineU: Float64Array;
   lineStart: Int32Array;
@@ -263,17 +268,6 @@ export function buildMesh(roof: Roof, levels: PerimeterLevels, joists: Float64Ar
   }
   const { tri, rungs } = zipSlabs(memory, V, lineStart, slabStart, ends, tolV, vc);
   const tc = tri.length;
-  // Every mesh edge once: rungs across slabs, then joined neighbours along each line.
-  let joined = 0;
-  for (let i = 0; i < vc; i++) joined += out.link[i];
-  const edges = memory.take(Uint32Array, rungs.length + 2 * joined);
-  edges.set(rungs);
-  for (let i = 0, k = rungs.length; i < vc; i++) {
-    if (!out.link[i]) continue;
-    edges[k++] = i - 1;
-    edges[k++] = i;
-  }
-
   return {
     vertexCount: vc,
     faceCount: tc / 3,
@@ -283,13 +277,29 @@ export function buildMesh(roof: Roof, levels: PerimeterLevels, joists: Float64Ar
     edge: out.e.subarray(0, vc),
     t: out.t.subarray(0, vc),
     tri,
-    edges,
+    rungs,
+    link: out.link.subarray(0, vc),
     lineU: U,
     lineStart,
     step,
     stride,
     coarsened: factor > 1,
   };
+}
+
+/** Every edge of the mesh once, as pairs of vertex indices: the rungs, then the links. */
+export function meshEdges(mesh: SurfaceMesh): Uint32Array {
+  const { rungs, link } = mesh;
+  let joined = 0;
+  for (let i = 0; i < link.length; i++) joined += link[i];
+  const edges = new Uint32Array(rungs.length + 2 * joined);
+  edges.set(rungs);
+  for (let i = 0, k = rungs.length; i < link.length; i++) {
+    if (!link[i]) continue;
+    edges[k++] = i - 1;
+    edges[k++] = i;
+  }
+  return edges;
 }
 
 /** Growable per-vertex arrays of the mesh. */

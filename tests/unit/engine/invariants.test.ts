@@ -1,7 +1,7 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { analyse, parseSpec, type Analysis, type EdgeKind, type Point, type RoofSpec } from "~/engine";
-import { buildMesh } from "~/engine/mesh";
+import { buildMesh, meshEdges } from "~/engine/mesh";
 import { drainSpans, highLevelFor } from "~/engine/high-level";
 import { joistPositions } from "~/engine/joists";
 import { perimeterLevels } from "~/engine/perimeter";
@@ -291,7 +291,8 @@ describe("invariants on random valid roofs", () => {
           for (let k = 0; k < 3; k++) fromFaces.add(key(mesh.tri[3 * f + k], mesh.tri[3 * f + ((k + 1) % 3)]));
         }
         const listed: number[] = [];
-        for (let k = 0; k < mesh.edges.length; k += 2) listed.push(key(mesh.edges[k], mesh.edges[k + 1]));
+        const edges = meshEdges(mesh);
+        for (let k = 0; k < edges.length; k += 2) listed.push(key(edges[k], edges[k + 1]));
         expect(new Set(listed).size).toBe(listed.length);
         expect(new Set(listed)).toEqual(fromFaces);
       }),
