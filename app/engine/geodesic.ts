@@ -20,6 +20,9 @@ export interface Destination {
   reachLength(sx: number, sy: number): number;
 }
 
+const NONE_F64 = new Float64Array(0);
+const NONE_I32 = new Int32Array(0);
+
 /**
  * Shortest paths inside the outline. A shortest path in a simple polygon bends only at reflex
  * vertices (Lozano-Pérez & Wesley 1979), so each destination runs Dijkstra once over the
@@ -121,6 +124,8 @@ export class Geodesic {
     reachLength: Destination["reachLength"],
   ): Destination {
     const r = this.reflex.length;
+    // A convex outline has no reflex vertex: its (empty, never written) tables are shared.
+    if (r === 0) return { dist: NONE_F64, next: NONE_I32, endX: NONE_F64, endY: NONE_F64, reach, reachLength };
     const dist = new Float64Array(r).fill(Infinity);
     const next = new Int32Array(r).fill(-1);
     const endX = new Float64Array(r);
