@@ -2,7 +2,7 @@
  * API throughput: POST /api/v1/analyses on a small roof against GET /api/v1 (a trivial JSON
  * answer) on the same production server in the same run. The server is pinned to one core and
  * the load generator to the other where `taskset` allows (QUALITY.md: ratio ≥ 0.5). The routes
- * take turns in one-second windows (BENCH_API_ROUNDS of them, BENCH_API_SECONDS in all), so
+ * take turns in half-second windows (BENCH_API_ROUNDS of them, BENCH_API_SECONDS in all), so
  * other work on a shared machine slows each about equally; the ratio reported is the median of
  * the rounds' ratios, with the middle half of them beside it to show the spread.
  */
@@ -13,7 +13,7 @@ import { median } from "./stats.ts";
 import { benchServer, SMALL_ROOF } from "./harness.ts";
 
 const SECONDS = Number(process.env.BENCH_API_SECONDS ?? 15);
-const ROUNDS = Math.max(1, Math.floor(Number(process.env.BENCH_API_ROUNDS ?? 15)));
+const ROUNDS = Math.max(1, Math.floor(Number(process.env.BENCH_API_ROUNDS ?? 30)));
 
 function pin(pid: number, core: number): boolean {
   return spawnSync("taskset", ["-a", "-p", "-c", String(core), String(pid)], { stdio: "ignore" }).status === 0;
