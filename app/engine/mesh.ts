@@ -107,26 +107,7 @@ export function buildMesh(roof: Roof, levels: PerimeterLevels, joists: Float64Ar
   const tolV = 1e-9 * extent;
   const minGap = 0.25 * step;
 
-  const edgeV = (e: number, u: number): number => {
-    const q = e + 1 === n ? 0 : e + 1;
-    const ua = us[e];
-    const ub = us[q];
-    if (u === ua) return vs[e];
-    if (u === ub) return vs[q];
-    let s = (u - ua) / (ub - ua);
-    s = s < 0 ? 0 : s > 1 ? 1 : s;
-    return vs[e] + s * (vs[q] - vs[e]);
-  };
-  const edgeT = (e: number, u: number): number => {
-    const q = e + 1 === n ? 0 : e + 1;
-    const ua = us[e];
-    const ub = us[q];
-    if (u === ua) return 0;
-    if (u === ub) return len[e];
-    let s = (u - ua) / (ub - ua);
-    s = s < 0 ? 0 : s > 1 ? 1 : s;
-    return s * len[e];
-  };
+  const edgeV = (e: number, u: number): number => vOnEdge(us, vs, n, e, u);
 
   // Trapezoids of each slab: pairs of edges spanning it, sorted along v at the slab's middle.
   const slabStart = new Int32Array(L);
@@ -175,8 +156,7 @@ export function buildMesh(roof: Roof, levels: PerimeterLevels, joists: Float64Ar
   const maxSides = 2 * (bots.length > 0 ? n : 1) + 2;
   const sides = new Float64Array(4 * maxSides);
   const maxMarks = 2 * maxSides + levels.t.reduce((sum, kt) => sum + kt.length, 0) + 8;
-  const markV = new Float64Array(maxMarks), markZ = new Float64Array(maxMarks), markT = new Float64Array(maxMarks);
-  const markE = new Int32Array(maxMarks);
+  const marks = new Marks(maxMarks);
   const coveredLo = new Float64Array(maxSides), coveredHi = new Float64Array(maxSides);
   const along: number[] = [];
 
@@ -185,37 +165,30 @@ export function buildMesh(roof: Roof, levels: PerimeterLevels, joists: Float64Ar
     const u = U[j];
     lineStart[j] = out.count;
     let nSides = 0;
-    let nMarks = 0;
-    const mark = (v: number, e: number, t: number) => {
-      // Insertion keeps the marks sorted along v; lines hold only a handful.
-      let k = nMarks++;
-      while (k > 0 && markV[k - 1] > v) {
-        markV[k] = markV[k - 1];
-        markE[k] = markE[k - 1];
-        markT[k] = markT[k - 1];
-        markZ[k] = markZ[k - 1];
-        k--;
+    marks.count = 0;
+    // Sides of the trapezoids right of the line (slab j) first, then left of it (slab j - 1).
+    const from = j > 0 ? slabStart[j - 1] : 0;
+    const rightFrom = j + 1 < L ? slabStart[j] : 0;
+    const rightTo = j + 1 < L ? slabStart[j + 1] : 0;
+    const leftTo = j > 0 ? slabStart[j] : 0;
+    for (let pass = 0; pass < 2; pass++) {
+      const k0 = pass === 0 ? rightFrom : from;
+      const k1 = pass === 0 ? rightTo : leftTo;
+      for (let k = k0; k < k1; k++) {
+        const eB = bots[k], eT = tops[k];
+        const tB = tOnEdge(us, len, n, eB, u), tT = tOnEdge(us, len, n, eT, u);
+        const vB = vOnEdge(us, vs, n, eB, u), vT = vOnEdge(us, vs, n, eT, u);
+        const zB = levelOnEdge(levels, eB, tB), zT = levelOnEdge(levels, eT, tT);
+        sides[4 * nSides] = vB;
+        sides[4 * nSides + 1] = vT;
+        sides[4 * nSides + 2] = zB;
+        sides[4 * nSides + 3] = zT;
+        nSides++;
+        marks.add(vB, eB, tB, zB);
+        marks.add(vT, eT, tT, zT);
       }
-      markV[k] = v;
-      markE[k] = e;
-      markT[k] = t;
-      markZ[k] = levelOnEdge(levels, e, t);
-    };
-    const side = (k: number) => {
-      const eB = bots[k], eT = tops[k];
-      const tB = edgeT(eB, u), tT = edgeT(eT, u);
-      const vB = edgeV(eB, u), vT = edgeV(eT, u);
-      sides[4 * nSides] = vB;
-      sides[4 * nSides + 1] = vT;
-      sides[4 * nSides + 2] = levelOnEdge(levels, eB, tB);
-      sides[4 * nSides + 3] = levelOnEdge(levels, eT, tT);
-      nSides++;
-      mark(vB, eB, tB);
-      mark(vT, eT, tT);
-    };
-    if (j + 1 < L) for (let k = slabStart[j]; k < slabStart[j + 1]; k++) side(k);
-    const rightSides = nSides;
-    if (j > 0) for (let k = slabStart[j - 1]; k < slabStart[j]; k++) side(k);
+    }
+    const rightSides = rightTo - rightFrom;
     along.length = 0;
     for (let e = 0; e < n; e++) {
       const q = e + 1 === n ? 0 : e + 1;
@@ -223,7 +196,7 @@ export function buildMesh(roof: Roof, levels: PerimeterLevels, joists: Float64Ar
       along.push(e);
       const kt = levels.t[e];
       const dir = vs[q] >= vs[e] ? 1 : -1;
-      for (let k = 0; k < kt.length; k++) mark(vs[e] + dir * kt[k], e, kt[k]);
+      for (let k = 0; k < kt.length; k++) marks.add(vs[e] + dir * kt[k], e, kt[k], levelOnEdge(levels, e, kt[k]));
     }
     // Union of the sides along v.
     for (let k = 0; k < nSides; k++) {
@@ -246,9 +219,8 @@ export function buildMesh(roof: Roof, levels: PerimeterLevels, joists: Float64Ar
       }
     }
     for (let c = 0; c < nCovered; c++) covered += coveredHi[c] - coveredLo[c];
-    out.ensure(out.count + Math.ceil(covered / step) + nMarks + 2 * nCovered + 4);
-    emitLine(out, u, coveredLo, coveredHi, nCovered, markV, markZ, markE, markT, nMarks,
-      sides, rightSides, nSides, roof.vmin, step, minGap, tolV);
+    out.ensure(out.count + Math.ceil(covered / step) + marks.count + 2 * nCovered + 4);
+    emitLine(out, u, coveredLo, coveredHi, nCovered, marks, sides, rightSides, nSides, roof.vmin, step, minGap, tolV);
     if (along.length) fixAlong(out, lineStart[j], along, vs, n, levels, tolV);
   }
   lineStart[L] = out.count;
@@ -302,6 +274,60 @@ export function meshEdges(mesh: SurfaceMesh): Uint32Array {
   return edges;
 }
 
+/** v where internal edge e (vertex e to e + 1) crosses the line at u, its end values exactly at its ends. */
+function vOnEdge(us: Float64Array, vs: Float64Array, n: number, e: number, u: number): number {
+  const q = e + 1 === n ? 0 : e + 1;
+  const ua = us[e];
+  const ub = us[q];
+  if (u === ua) return vs[e];
+  if (u === ub) return vs[q];
+  let s = (u - ua) / (ub - ua);
+  s = s < 0 ? 0 : s > 1 ? 1 : s;
+  return vs[e] + s * (vs[q] - vs[e]);
+}
+
+/** Distance along internal edge e to where it crosses the line at u. */
+function tOnEdge(us: Float64Array, len: Float64Array, n: number, e: number, u: number): number {
+  const q = e + 1 === n ? 0 : e + 1;
+  const ua = us[e];
+  const ub = us[q];
+  if (u === ua) return 0;
+  if (u === ub) return len[e];
+  let s = (u - ua) / (ub - ua);
+  s = s < 0 ? 0 : s > 1 ? 1 : s;
+  return s * len[e];
+}
+
+/** Per-line marks (side ends and knots), kept sorted along v by insertion: a line holds only a handful. */
+class Marks {
+  v: Float64Array;
+  z: Float64Array;
+  t: Float64Array;
+  e: Int32Array;
+  count = 0;
+  constructor(size: number) {
+    this.v = new Float64Array(size);
+    this.z = new Float64Array(size);
+    this.t = new Float64Array(size);
+    this.e = new Int32Array(size);
+  }
+  add(v: number, e: number, t: number, z: number): void {
+    const { v: V, z: Z, t: T, e: E } = this;
+    let k = this.count++;
+    while (k > 0 && V[k - 1] > v) {
+      V[k] = V[k - 1];
+      E[k] = E[k - 1];
+      T[k] = T[k - 1];
+      Z[k] = Z[k - 1];
+      k--;
+    }
+    V[k] = v;
+    E[k] = e;
+    T[k] = t;
+    Z[k] = z;
+  }
+}
+
 /** Growable per-vertex arrays of the mesh. */
 class Stations {
   u: Float64Array;
@@ -350,11 +376,12 @@ class Stations {
 function emitLine(
   out: Stations, u: number,
   coveredLo: Float64Array, coveredHi: Float64Array, nCovered: number,
-  markV: Float64Array, markZ: Float64Array, markE: Int32Array, markT: Float64Array, nMarks: number,
+  marks: Marks,
   sides: Float64Array, nRight: number, nSides: number,
   vGrid0: number, step: number, minGap: number, tolV: number,
 ): void {
   const U = out.u, V = out.v, Z = out.z, E = out.e, T = out.t, K = out.link;
+  const markV = marks.v, markZ = marks.z, markE = marks.e, markT = marks.t, nMarks = marks.count;
   let vc = out.count;
   let m = 0;
   let lastV = -Infinity;
