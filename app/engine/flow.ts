@@ -21,6 +21,9 @@ export interface Routing {
 }
 
 const FLAT = 1e-9;
+// A relative tie band of 1e-9 on a fall is (1 ± 1e-9)² on its square.
+const TIE_HIGH = (1 + 1e-9) ** 2;
+const TIE_LOW = (1 - 1e-9) ** 2;
 
 /** Drain ids for vertices that are outlets (within the outlet radius) or on an eaves edge. */
 function markDrains(roof: Roof, mesh: SurfaceMesh, drains: Drain[], memory: Memory): Int32Array {
@@ -116,15 +119,11 @@ function visit(
   return nLevel;
 }
 
-// A relative tie band of 1e-9 on a fall is (1 ± 1e-9)² on its square.
-const TIE_HIGH = (1 + 1e-9) ** 2;
-const TIE_LOW = (1 - 1e-9) ** 2;
-
 /**
  * Where the water goes (ROOF-METHOD.md §7): each vertex drains to its steepest downhill neighbour
  * (lower by more than rounding); level patches drain through a neighbour at the same level
- * whose water already reaches a drain; what is left are pits. Each face goes to the drain of its
- * lowest vertex.
+ * whose water already reaches a drain; what is left are pits. (Each face then takes the drain
+ * of its lowest vertex: see faceData.)
  */
 export function routeWater(roof: Roof, mesh: SurfaceMesh, memory: Memory = FRESH): Routing {
   const V = mesh.vertexCount;
