@@ -132,7 +132,7 @@ export function routeWater(roof: Roof, mesh: SurfaceMesh, memory: Memory = FRESH
   const drainMark = markDrains(roof, mesh, drains, memory);
 
   const receiver = memory.take(Int32Array, V).fill(-1);
-  const best = scratchF64(V);
+  const best = memory.take(Float64Array, V);
   const { rungs, link } = mesh;
   // Level edges (no fall either way), in mesh order: the only ones level patches and pits follow.
   const level = memory.take(Int32Array, rungs.length + 2 * V);
@@ -147,7 +147,7 @@ export function routeWater(roof: Roof, mesh: SurfaceMesh, memory: Memory = FRESH
     if (rootDrain[i] >= 0) receiver[i] = -1;
     else if (receiver[i] < 0) open++;
   }
-  const chains = new Chains(receiver, V);
+  const chains = new Chains(receiver, memory.take(Int32Array, V));
   const levelEdges = level.subarray(0, nLevel);
   if (open > 0) open = levelPatches(levelEdges, receiver, rootDrain, chains, open);
   if (open > 0) markPits(V, z, levelEdges, receiver, rootDrain, drains);
@@ -164,9 +164,9 @@ export function routeWater(roof: Roof, mesh: SurfaceMesh, memory: Memory = FRESH
  */
 class Chains {
   private readonly jump: Int32Array;
-  constructor(private readonly receiver: Int32Array, V: number) {
-    this.jump = scratchI32(V);
-    this.jump.fill(-1);
+  /** `jump`: one slot per vertex, any contents (it is reset here). */
+  constructor(private readonly receiver: Int32Array, jump: Int32Array) {
+    this.jump = jump.fill(-1);
   }
   end(i: number): number {
     const { jump, receiver } = this;
@@ -184,20 +184,6 @@ class Chains {
     }
     return x;
   }
-}
-
-// Scratch arrays shared by calls (never handed out): a roof is analysed on one thread at a time.
-let f64 = new Float64Array(0);
-let i32 = new Int32Array(0);
-function scratchF64(n: number): Float64Array {
-  if (f64.length < n) f64 = new Float64Array(Math.max(n, 2 * f64.length));
-  const out = f64.subarray(0, n);
-  out.fill(0);
-  return out;
-}
-function scratchI32(n: number): Int32Array {
-  if (i32.length < n) i32 = new Int32Array(Math.max(n, 2 * i32.length));
-  return i32.subarray(0, n);
 }
 
 /**
