@@ -2,10 +2,12 @@
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import fs from "node:fs";
 import path from "node:path";
-import { log, PROJECT_ROOT } from "./cluster.ts";
-import { PROFILES, prepareDatabase, serviceEnv, startFakes } from "./services.ts";
+import { log, PROJECT_ROOT, stopCluster } from "./cluster.ts";
+import { chooseFakePorts, PROFILES, prepareDatabaseCluster, serviceEnv, startFakes } from "./services.ts";
 
 const dev = process.argv.includes("--dev");
+// `npm start -- --keep-db` (or FALLWRIGHT_KEEP_DB=1) leaves the database running after Ctrl-C.
+const keepDb = process.argv.includes("--keep-db") || process.env.FALLWRIGHT_KEEP_DB === "1";
 const profile = PROFILES.dev;
 
 function newestMtime(dir: string): number {
@@ -32,9 +34,10 @@ function buildIfStale() {
   if (r.status !== 0) process.exit(r.status ?? 1);
 }
 
-const databaseUrl = await prepareDatabase(profile);
-const env = serviceEnv(profile);
-const fakes = await startFakes(profile, env);
+const { url: databaseUrl, started } = await prepareDatabaseCluster(profile);
+const ports = await chooseFakePorts(profile);
+const env = serviceEnv(profile, ports);
+const fakes = await startFakes(profile, env, ports);
 if (!dev) buildIfStale();
 
 const port = process.env.PORT ?? "3000";
@@ -57,5 +60,10 @@ process.on("SIGINT", () => stop("SIGINT"));
 process.on("SIGTERM", () => stop("SIGTERM"));
 server.on("exit", (code) => {
   fakes?.kill("SIGTERM");
+  // Stop the database this command started (not one that was already running, nor DATABASE_URL's).
+  if (started && !keepDb) {
+    log("stopping the project's PostgreSQL (npm start -- --keep-db leaves it running)");
+    stopCluster(started);
+  }
   process.exit(code ?? 0);
 });

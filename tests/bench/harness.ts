@@ -3,7 +3,7 @@ import { spawnSync } from "node:child_process";
 import fs from "node:fs";
 import path from "node:path";
 import { clusterUrl, dropDatabase, ensureDatabase, readClusterInfo } from "../../app/dev/cluster.ts";
-import { PROFILES, prepareDatabase, serviceEnv, startFakes } from "../../app/dev/services.ts";
+import { chooseFakePorts, PROFILES, prepareDatabase, serviceEnv, startFakes } from "../../app/dev/services.ts";
 import { ROOT } from "../support/build.ts";
 import { startServer, type RunningServer } from "../support/server.ts";
 
@@ -13,8 +13,9 @@ export async function benchServer(dbName: string, env: Record<string, string> = 
   const info = readClusterInfo("test")!;
   await dropDatabase(info, dbName);
   await ensureDatabase(info, dbName, profile.database);
-  const services = serviceEnv(profile);
-  const fakes = await startFakes(profile, services);
+  const ports = await chooseFakePorts(profile);
+  const services = serviceEnv(profile, ports);
+  const fakes = await startFakes(profile, services, ports);
   // A build of its own (FALLWRIGHT_BUILD_DIR, else .data/build-bench), never the shared `build`.
   const buildDir = path.resolve(ROOT, process.env.FALLWRIGHT_BUILD_DIR ?? ".data/build-bench");
   if (!fs.existsSync(path.join(buildDir, "server/index.js")) || process.env.REBUILD !== "0") {

@@ -17,7 +17,7 @@ let dir: string;
 beforeAll(async () => {
   dir = fs.mkdtempSync(path.join(os.tmpdir(), "fw-outage-"));
   fs.chmodSync(dir, 0o755);
-  info = ensureCluster("outage", await freePort(), { fast: false, dataDir: path.join(dir, "pg") });
+  info = await ensureCluster("outage", await freePort(), { fast: false, dataDir: path.join(dir, "pg") });
   await ensureDatabase(info, "fallwright");
   // Knex imports .ts migrations natively, which vitest's workers cannot: migrate in a tsx child.
   const r = spawnSync(process.execPath, ["--import", "tsx", path.join(ROOT, "app/dev/migrate.ts")], {

@@ -7,8 +7,8 @@
 import { execFileSync, spawn, spawnSync, type ChildProcess } from "node:child_process";
 import fs from "node:fs";
 import path from "node:path";
-import { log, PROJECT_ROOT, readClusterInfo, clusterUrl, ensureDatabase, dropDatabase } from "../../app/dev/cluster.ts";
-import { PROFILES, prepareDatabase, serviceEnv, startFakes, waitForPort } from "../../app/dev/services.ts";
+import { choosePort, log, PROJECT_ROOT, readClusterInfo, clusterUrl, ensureDatabase, dropDatabase } from "../../app/dev/cluster.ts";
+import { chooseFakePorts, PROFILES, prepareDatabase, serviceEnv, startFakes, waitForPort } from "../../app/dev/services.ts";
 
 const only = process.argv.find((a) => a.startsWith("--only="))?.split("=")[1];
 const profile = PROFILES.test;
@@ -44,13 +44,14 @@ function ensureChromium() {
 async function main() {
   const templateUrl = await prepareDatabase(profile);
   const info = readClusterInfo("test");
+  const ports = await chooseFakePorts(profile);
   const env: Record<string, string> = {
-    ...serviceEnv(profile),
+    ...serviceEnv(profile, ports),
     TEST_TEMPLATE_DB: profile.database,
     TEST_TEMPLATE_URL: templateUrl,
     FALLWRIGHT_TEST: "1",
   };
-  const fakes = await startFakes(profile, env);
+  const fakes = await startFakes(profile, env, ports);
   if (fakes) children.push(fakes);
 
   if (!only || only === "typecheck") {
@@ -85,7 +86,7 @@ async function main() {
   if (!only || only === "e2e") {
     ensureChromium();
     if (!info) throw new Error("test cluster info missing");
-    const port = Number(process.env.E2E_PORT ?? 3107);
+    const port = process.env.E2E_PORT ? Number(process.env.E2E_PORT) : await choosePort(3107);
     const e2eDb = `fallwright_e2e_${port}`;
     await dropDatabase(info, e2eDb);
     await ensureDatabase(info, e2eDb, profile.database);
