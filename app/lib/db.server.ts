@@ -5,7 +5,6 @@ import pg from "pg";
 pg.types.setTypeParser(1082, (v) => v); // date
 
 declare global {
-  // eslint-disable-next-line no-var
   var __fallwrightDb: Knex | undefined;
 }
 

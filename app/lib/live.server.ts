@@ -242,7 +242,6 @@ export class LiveHub {
 }
 
 declare global {
-  // eslint-disable-next-line no-var
   var __fallwrightLiveHub: LiveHub | undefined;
 }
 

@@ -5,7 +5,6 @@
 import { DeleteObjectCommand, GetObjectCommand, PutObjectCommand, S3Client } from "@aws-sdk/client-s3";
 
 declare global {
-  // eslint-disable-next-line no-var
   var __fallwrightS3: S3Client | undefined;
 }
 

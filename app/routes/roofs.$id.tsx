@@ -88,6 +88,7 @@ function RoofEditor({ roof, underlay: initialUnderlay, underlayUrl: initialUrl, 
   const navigate = useNavigate();
   const [params] = useSearchParams();
   const autosave = useAutosave(roof.id, roof.version, { enabled: roof.canEdit });
+  const queue = autosave.queue;
   const [mounted, setMounted] = useState<{ spec: unknown; epoch: number }>({ spec: roof.spec, epoch: 0 });
   const current = useRef<unknown>(roof.spec);
   const [outline, setOutline] = useState<[number, number][]>(outlineOf(roof.spec));
@@ -116,9 +117,9 @@ function RoofEditor({ roof, underlay: initialUnderlay, underlayUrl: initialUrl, 
       if (JSON.stringify(spec) === JSON.stringify(current.current)) return;
       current.current = spec;
       setOutline(outlineOf(spec));
-      autosave.queue({ spec });
+      queue({ spec });
     },
-    [autosave.queue],
+    [queue],
   );
 
   function rename(value: string) {

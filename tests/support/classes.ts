@@ -99,8 +99,13 @@ export function sseReader(body: ReadableStream<Uint8Array>) {
       for (const line of block.split("\n")) {
         if (line.startsWith(":")) comments.push(line.slice(1).trim());
         else if (line.startsWith("id: ")) ev.id = line.slice(4);
-        else if (line.startsWith("event: ")) ((ev.event = line.slice(7)), (isEvent = true));
-        else if (line.startsWith("data: ")) ((ev.data += line.slice(6)), (isEvent = true));
+        else if (line.startsWith("event: ")) {
+          ev.event = line.slice(7);
+          isEvent = true;
+        } else if (line.startsWith("data: ")) {
+          ev.data += line.slice(6);
+          isEvent = true;
+        }
       }
       if (isEvent) queue.push(ev);
     }

@@ -1,8 +1,9 @@
 /**
  * Runs the whole suite against the project's own test cluster and fakes:
- * typecheck → vitest (unit + integration) → production build → Playwright in Debian's chromium.
+ * lint (ESLint, then Prettier's check) → typecheck → vitest (unit + integration) → production build →
+ * Playwright in Debian's chromium.
  * Ends with `N passed, N failed` and a non-zero exit on any failure.
- * `npm test -- --only=vitest|e2e` runs one stage (the set-up still happens).
+ * `npm test -- --only=lint|typecheck|vitest|e2e` runs one stage (the set-up still happens, except for lint).
  */
 import { execFileSync, spawn, spawnSync, type ChildProcess } from "node:child_process";
 import fs from "node:fs";
@@ -42,6 +43,15 @@ function ensureChromium() {
 }
 
 async function main() {
+  if (!only || only === "lint") {
+    // One counted stage: both run, so one report shows every lint and format problem.
+    const a = stage("lint", bin("eslint"), ["."]);
+    const b = stage("format", bin("prettier"), ["--check", "."]);
+    if (a === 0 && b === 0) passed++;
+    else failed++;
+    if (only === "lint") return;
+  }
+
   const templateUrl = await prepareDatabase(profile);
   const info = readClusterInfo("test");
   const ports = await chooseFakePorts(profile);

@@ -1,7 +1,7 @@
 import { useId, useRef, useState } from "react";
 import { Link, useFetcher, useRouteLoaderData } from "react-router";
 import { useSandboxStore } from "~/components/sandbox/store";
-import type { loader as shellLoader } from "~/routes/_shell";
+import type { SessionUser } from "~/lib/session.server";
 import { newRequestKey } from "~/lib/request-key";
 
 interface SaveError {
@@ -11,7 +11,8 @@ interface SaveError {
 
 /** Sandbox toolbar: save the roof on screen to my library (POST /roofs/new), or sign in to do so. */
 export function SaveToLibrary() {
-  const shell = useRouteLoaderData<typeof shellLoader>("routes/_shell");
+  // The shell route (routes/_shell.tsx) loads `{ user }` for every page under it.
+  const shell = useRouteLoaderData("routes/_shell") as { user: SessionUser | null } | undefined;
   const store = useSandboxStore();
   const fetcher = useFetcher<SaveError>();
   const [open, setOpen] = useState(false);

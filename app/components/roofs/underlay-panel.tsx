@@ -2,6 +2,7 @@ import { useEffect, useId, useRef, useState, type KeyboardEvent, type MouseEvent
 import { ImageUp, Ruler, Spline, Trash2 } from "lucide-react";
 import type { UnderlaySettings } from "~/lib/roof-file";
 import { calibrate, formatMetres, parseLength, pixelToPlan, planToPixel } from "~/lib/underlay";
+import type * as PdfPage from "./pdf-page";
 
 type Pt = [number, number];
 type Mode = "scale" | "trace" | null;
@@ -10,7 +11,7 @@ const MAX_BYTES = 10 * 1024 * 1024;
 /** A PDF is read in the browser and only the chosen page is uploaded, as a PNG. */
 const MAX_PDF_BYTES = 50 * 1024 * 1024;
 
-type PdfModule = typeof import("./pdf-page");
+type PdfModule = typeof PdfPage;
 type PdfChoice = { pdfs: PdfModule; doc: Awaited<ReturnType<PdfModule["openPdf"]>>; name: string; pages: number; page: string };
 
 const isPdf = (file: File) => file.type === "application/pdf" || /\.pdf$/i.test(file.name);

@@ -1,6 +1,7 @@
 import type { FallResult, ParseSpecResult, RoofSpec } from "~/engine";
 import type { EngineAnswers, EngineRequest, RuleSetInfo } from "./engine-protocol";
 import type { EngineOutcome } from "./run-analysis";
+import type * as EngineHandlers from "./engine-handlers";
 
 type Kind = EngineRequest["kind"];
 
@@ -13,7 +14,7 @@ export class EngineClient {
   private worker: Worker | null = null;
   private sequence = 0;
   private readonly waiting = new Map<number, { request: EngineRequest; resolve: (answer: unknown) => void }>();
-  private local: Promise<typeof import("./engine-handlers")> | null = null;
+  private local: Promise<typeof EngineHandlers> | null = null;
   private disposed = false;
 
   constructor() {

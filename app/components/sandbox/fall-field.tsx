@@ -28,11 +28,13 @@ export function FallField({ label, value, onCommit, optional, placeholder, disab
   const current = useRef({ value, onCommit });
   current.current = { value, onCommit };
 
-  useEffect(() => {
+  // Only an outside change of the value (undo, apply) rewrites the box: the value is compared
+  // with the one last seen while rendering (React's "adjust state when a prop changes").
+  const [seen, setSeen] = useState(value);
+  if (seen !== value) {
+    setSeen(value);
     if (String(value ?? "") !== text.trim()) setText(value == null ? "" : String(value));
-    // Only an outside change of the value (undo, apply) rewrites the box.
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [value]);
+  }
 
   useEffect(() => {
     const typed = text.trim();

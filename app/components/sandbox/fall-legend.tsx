@@ -1,4 +1,4 @@
-import { fallPosition, legendGradient, LEGEND_TICKS, SCALE_FLAT, SCALE_STEEP } from "./fall-colour";
+import { fallPosition, legendGradient, LEGEND_TICKS, SCALE_FLAT, SCALE_STEEP } from "~/lib/fall-colour";
 import { fallDetail } from "./format";
 
 /** The fall map's key: the continuous scale in 1:N on a log axis, and the hatch for "flatter than the minimum". */

@@ -1,4 +1,4 @@
-import { useEffect, useId, useState } from "react";
+import { useId, useState } from "react";
 
 interface Props {
   label: string;
@@ -35,16 +35,18 @@ export function NumberField({ label, value, onCommit, unit, scale = 1, min, max,
   const [text, setText] = useState(() => show(value, scale, digits));
   const [error, setError] = useState<string | null>(null);
 
-  useEffect(() => {
+  // Only an outside change of the value (undo, drag, apply) rewrites the box: the value is
+  // compared with the one last seen while rendering (React's "adjust state when a prop changes").
+  const [seen, setSeen] = useState(value);
+  if (seen !== value) {
+    setSeen(value);
     const typed = text.trim() === "" ? undefined : Number(text.replace(",", ".")) / scale;
     const same = typed === value || (typed != null && value != null && Math.abs(typed - value) < 1e-9);
     if (!same) {
       setText(show(value, scale, digits));
       setError(null);
     }
-    // Only an outside change of the value (undo, drag, apply) rewrites the box.
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [value]);
+  }
 
   function change(next: string) {
     setText(next);

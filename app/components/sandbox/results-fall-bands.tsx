@@ -1,5 +1,5 @@
 import type { Analysis } from "~/engine";
-import { fallColourCss } from "./fall-colour";
+import { fallColourCss } from "~/lib/fall-colour";
 import { area } from "./format";
 import { ResultsSection } from "./results-section";
 

@@ -48,6 +48,5 @@ export function useSessionSpec(store: SandboxStore, key: string | undefined, res
       unsubscribe();
       stopWaiting();
     };
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [store, key]);
+  }, [store, key, restore]);
 }

@@ -1,5 +1,5 @@
 import { analyse, formatRatio, parseSpec, type Analysis, type RoofSpec } from "../../engine";
-import { cividis, fallPosition } from "../../components/sandbox/fall-colour";
+import { cividis, fallPosition } from "../fall-colour";
 import type { Figure } from "./schema";
 import type { FigureData } from "./types";
 

@@ -1,3 +1,4 @@
+import { createHash } from "node:crypto";
 import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
@@ -47,7 +48,6 @@ describe("the course in lessons/", () => {
   it("versions a lesson by the SHA-256 of its file", () => {
     const l = lessons[0];
     const source = fs.readFileSync(path.resolve("lessons", l.file), "utf8");
-    const { createHash } = require("node:crypto") as typeof import("node:crypto");
     expect(l.version).toBe(createHash("sha256").update(source).digest("hex"));
     const edited = parseLessonFile(l.file, source + "\n");
     expect(edited.lesson!.version).not.toBe(l.version);

@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { analyse, parseSpec, type RoofSpec } from "~/engine";
 import { contourSegments } from "~/components/sandbox/contours";
 import { DEMO_ROOF } from "~/components/sandbox/demo-roof";
-import { cividis, fallPosition, SCALE_FLAT, SCALE_STEEP } from "~/components/sandbox/fall-colour";
+import { cividis, fallPosition, SCALE_FLAT, SCALE_STEEP } from "~/lib/fall-colour";
 import { gutterSurface, openEdgeSurface, WALL_FACE } from "~/components/sandbox/layout-scenes";
 import { MeshSampler } from "~/components/sandbox/mesh-sample";
 

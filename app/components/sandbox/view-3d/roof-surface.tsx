@@ -1,6 +1,6 @@
 import { useEffect, useMemo } from "react";
 import * as THREE from "three";
-import { fallColour } from "../fall-colour";
+import { fallColour } from "~/lib/fall-colour";
 import type { SceneFrame } from "./scene-frame";
 
 const WALL_RGB: [number, number, number] = [120, 112, 98];

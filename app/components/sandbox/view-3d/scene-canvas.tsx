@@ -104,7 +104,8 @@ function CanvasRoot({
     } catch (failure) {
       setError(failure);
     }
-  });
+    // `children` is new on every render of the parent, so the scene re-renders with it, as the library's canvas does.
+  }, [Bridge, camera, children, dpr, frameloop, gl, onCreated, size]);
 
   // Insertion-effect cleanups run once, on real removal (not on StrictMode's effect replay).
   useInsertionEffect(

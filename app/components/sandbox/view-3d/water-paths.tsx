@@ -48,6 +48,31 @@ function buildTracks(traces: FlowTraces, frame: SceneFrame): Track[] {
   return tracks;
 }
 
+const LIFT = 0.006;
+
+/** Puts drop `i` at its distance along its track (the segment index only moves forward). */
+interface Drops {
+  track: Int32Array;
+  s: Float32Array;
+  segment: Int32Array;
+}
+
+function placeDrop(m: THREE.InstancedMesh, tracks: Track[], drops: Drops, i: number, exaggeration: number) {
+  const t = tracks[drops.track[i]];
+  let seg = drops.segment[i];
+  const s = drops.s[i];
+  while (seg < t.s.length - 2 && t.s[seg + 1] < s) seg++;
+  drops.segment[i] = seg;
+  const s0 = t.s[seg];
+  const s1 = t.s[seg + 1];
+  const f = s1 > s0 ? (s - s0) / (s1 - s0) : 0;
+  const e = m.instanceMatrix.array as Float32Array;
+  const o = i * 16;
+  e[o + 12] = t.xyz[3 * seg] + f * (t.xyz[3 * seg + 3] - t.xyz[3 * seg]);
+  e[o + 13] = (t.xyz[3 * seg + 1] + f * (t.xyz[3 * seg + 4] - t.xyz[3 * seg + 1]) + LIFT) * exaggeration + LIFT;
+  e[o + 14] = t.xyz[3 * seg + 2] + f * (t.xyz[3 * seg + 5] - t.xyz[3 * seg + 2]);
+}
+
 /**
  * Water paths: the engine's flow traces drawn as faint lines, and (when animating) instanced drops
  * running down them. Per-frame work writes straight into the instance matrix array, no allocation.
@@ -85,25 +110,6 @@ export function WaterPaths({ traces, frame, exaggeration, animate }: { traces: F
   const mesh = useRef<THREE.InstancedMesh>(null);
   const sphere = useMemo(() => new THREE.IcosahedronGeometry(Math.max(0.03, frame.radius * 0.007), 1), [frame]);
   useEffect(() => () => sphere.dispose(), [sphere]);
-  const lift = 0.006;
-
-  const place = (i: number) => {
-    const m = mesh.current!;
-    const t = tracks[drops.track[i]];
-    let seg = drops.segment[i];
-    const s = drops.s[i];
-    while (seg < t.s.length - 2 && t.s[seg + 1] < s) seg++;
-    drops.segment[i] = seg;
-    const s0 = t.s[seg];
-    const s1 = t.s[seg + 1];
-    const f = s1 > s0 ? (s - s0) / (s1 - s0) : 0;
-    const e = m.instanceMatrix.array as Float32Array;
-    const o = i * 16;
-    e[o + 12] = t.xyz[3 * seg] + f * (t.xyz[3 * seg + 3] - t.xyz[3 * seg]);
-    e[o + 13] = (t.xyz[3 * seg + 1] + f * (t.xyz[3 * seg + 4] - t.xyz[3 * seg + 1]) + lift) * exaggeration + lift;
-    e[o + 14] = t.xyz[3 * seg + 2] + f * (t.xyz[3 * seg + 5] - t.xyz[3 * seg + 2]);
-  };
-
   useEffect(() => {
     const m = mesh.current;
     if (!m) return;
@@ -111,12 +117,11 @@ export function WaterPaths({ traces, frame, exaggeration, animate }: { traces: F
     for (let i = 0; i < drops.track.length; i++) {
       m.setMatrixAt(i, identity);
       drops.segment[i] = 0;
-      place(i);
+      placeDrop(m, tracks, drops, i, exaggeration);
     }
     m.count = drops.track.length;
     m.instanceMatrix.needsUpdate = true;
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [drops, exaggeration]);
+  }, [drops, exaggeration, tracks]);
 
   useFrame((state, delta) => {
     const m = mesh.current;
@@ -130,7 +135,7 @@ export function WaterPaths({ traces, frame, exaggeration, animate }: { traces: F
         drops.s[i] = 0;
         drops.segment[i] = 0;
       }
-      place(i);
+      placeDrop(m, tracks, drops, i, exaggeration);
     }
     m.instanceMatrix.needsUpdate = true;
     state.invalidate();
@@ -138,7 +143,7 @@ export function WaterPaths({ traces, frame, exaggeration, animate }: { traces: F
 
   return (
     <group name="water">
-      <lineSegments geometry={lines} scale={[1, exaggeration, 1]} position={[0, lift * exaggeration, 0]}>
+      <lineSegments geometry={lines} scale={[1, exaggeration, 1]} position={[0, LIFT * exaggeration, 0]}>
         <lineBasicMaterial color="#ffffff" transparent opacity={0.35} />
       </lineSegments>
       <instancedMesh ref={mesh} args={[sphere, undefined, Math.max(1, drops.track.length)]} frustumCulled={false}>
