@@ -44,7 +44,8 @@ const port = process.env.PORT ?? "3000";
 const server: ChildProcess = spawn(process.execPath, ["--import", "tsx", path.join(PROJECT_ROOT, "app/server/index.ts")], {
   cwd: PROJECT_ROOT,
   stdio: "inherit",
-  env: { ...process.env, ...env, DATABASE_URL: databaseUrl, PORT: port, NODE_ENV: dev ? "development" : "production" },
+  // Links in e-mail need APP_URL; on this machine it is the address printed below (a deployment sets its own).
+  env: { ...process.env, ...env, DATABASE_URL: databaseUrl, PORT: port, APP_URL: process.env.APP_URL || `http://localhost:${port}`, NODE_ENV: dev ? "development" : "production" },
 });
 
 log(`open http://localhost:${port}`);

@@ -142,10 +142,27 @@ export async function getOptionalUser(request: Request): Promise<SessionUser | n
   }
 }
 
-/** Only a same-site path may be a redirect target (never "//host" or an absolute URL). */
+/** Stands in for the app's own origin while a target is parsed; it never appears in a redirect. */
+const HERE = "http://fallwright.invalid";
+
+/**
+ * Only a same-origin path may be a redirect target. The target is parsed the way a browser
+ * would parse a Location header (WHATWG URL parser, against the app's origin), which drops tabs
+ * and newlines and reads backslashes as slashes, so "/\t/evil.example" or "/\\evil.example"
+ * come out on another host and fall back. What is returned is the parsed path, query and
+ * fragment, re-serialised: nothing the parser would read differently from us.
+ */
 export function safeRedirect(to: FormDataEntryValue | string | null | undefined, fallback = "/"): string {
-  if (typeof to !== "string" || !to.startsWith("/") || to.startsWith("//") || to.startsWith("/\\")) return fallback;
-  return to;
+  if (typeof to !== "string" || !to.startsWith("/") || to.length > 2048) return fallback;
+  let url: URL;
+  try {
+    url = new URL(to, HERE);
+  } catch {
+    return fallback;
+  }
+  if (url.origin !== HERE) return fallback;
+  const target = url.pathname + url.search + url.hash;
+  return target.startsWith("/") && !target.startsWith("//") ? target : fallback;
 }
 
 /** The signed-in user, or a redirect to /login that comes back here afterwards. */

@@ -6,7 +6,7 @@ import type { InviteReport } from "~/lib/roster";
 import { isIsoDay, parseClassDetails, type ClassDetailsField, type ClassDetailsValues } from "~/lib/class-form";
 import { isUuid, listLessons, removeMember, saveAssignments, updateClass, withdrawInvitation, type ClassRow } from "~/lib/classes.server";
 import { clientIp } from "~/lib/rate-limit.server";
-import { appOrigin } from "~/lib/mail.server";
+import { appOrigin } from "~/lib/app-url";
 import type { AppLoadContext } from "react-router";
 
 export interface ClassActionResult {
@@ -41,7 +41,7 @@ export async function handleClassAction(o: { request: Request; context: AppLoadC
         classId: cls.id,
         text,
         inviter: o.user,
-        origin: appOrigin(o.request),
+        origin: appOrigin(),
         ip: clientIp(o.context),
       });
       const nothingValid = !report.invited.length && !report.added.length && !report.alreadyMember.length && !report.alreadyInvited.length && !report.refused.length;

@@ -10,8 +10,9 @@ import { db } from "~/lib/db.server";
 import type { GradeCell } from "~/lib/gradebook";
 import { bestGrades, cellKey } from "~/lib/grades.server";
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
-export const isUuid = (v: unknown): v is string => typeof v === "string" && UUID.test(v);
+import { isUuid } from "~/lib/input";
+
+export { isUuid };
 
 export function notFound(what = "Not found"): never {
   throw data(what, { status: 404 });

@@ -8,6 +8,17 @@ export const UNDERLAY_TYPES = { "image/png": "png", "image/jpeg": "jpg", "image/
 export type UnderlayType = keyof typeof UNDERLAY_TYPES;
 export const MAX_SIDE_PX = 20_000;
 export const UNDERLAY_MAX_BYTES = 10 * 1024 * 1024;
+/**
+ * Memory an underlay may take once decoded: every browser that opens the roof decodes it to
+ * 4 bytes a pixel (RGBA). A small file can declare a huge image (a decompression bomb), so the
+ * declared size is checked against this before the file is kept: 256 MiB is 67,108,864 px,
+ * e.g. 8192 × 8192, well above an A1 plan scanned at 200 dpi (about 4,700 × 6,600).
+ */
+export const DECODE_BUDGET_BYTES = 256 * 1024 * 1024;
+export const BYTES_PER_PIXEL = 4;
+export const MAX_PIXELS = DECODE_BUDGET_BYTES / BYTES_PER_PIXEL;
+
+const MB = (bytes: number) => `${Math.round(bytes / 1024 / 1024).toLocaleString("en-GB")} MB`;
 
 export type SniffResult =
   | { ok: true; mime: UnderlayType; ext: string; widthPx: number; heightPx: number }
@@ -23,6 +34,16 @@ export async function sniffUnderlay(bytes: Uint8Array): Promise<SniffResult> {
   if (!size) return { ok: false, status: 422, message: "The image header could not be read; the file may be damaged." };
   if (size.width > MAX_SIDE_PX || size.height > MAX_SIDE_PX) {
     return { ok: false, status: 422, message: `The image is ${size.width} × ${size.height} px; at most ${MAX_SIDE_PX} px a side.` };
+  }
+  const pixels = size.width * size.height;
+  if (pixels > MAX_PIXELS) {
+    return {
+      ok: false,
+      status: 422,
+      message:
+        `The image is ${size.width} × ${size.height} px: decoded, it would need about ${MB(pixels * BYTES_PER_PIXEL)} of memory, ` +
+        `over the ${MB(DECODE_BUDGET_BYTES)} budget for an underlay (at most ${MAX_PIXELS.toLocaleString("en-GB")} pixels, e.g. 8192 × 8192). Export the plan at a lower resolution.`,
+    };
   }
   return { ok: true, mime, ext: UNDERLAY_TYPES[mime], widthPx: size.width, heightPx: size.height };
 }

@@ -33,12 +33,6 @@ export async function sendMail(message: MailMessage): Promise<void> {
   });
 }
 
-/** Base of links in e-mails: APP_URL when set (behind a proxy), else the origin the request came to. */
-export function appOrigin(request: Request): string {
-  const configured = process.env.APP_URL?.replace(/\/+$/, "");
-  return configured || new URL(request.url).origin;
-}
-
 function escapeHtml(s: string): string {
   return s.replace(/[&<>"']/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" })[c]!);
 }

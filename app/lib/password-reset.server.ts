@@ -5,7 +5,8 @@
 import type { AppLoadContext } from "react-router";
 import { audit } from "~/lib/audit.server";
 import { db } from "~/lib/db.server";
-import { appOrigin, resetMessage, sendMail } from "~/lib/mail.server";
+import { appOrigin } from "~/lib/app-url";
+import { resetMessage, sendMail } from "~/lib/mail.server";
 import { hashPassword } from "~/lib/password.server";
 import { newPasswordFields, type PasswordFormResult } from "~/lib/password-form.server";
 import { clientIp, hitAll, LIMITS, waitPhrase } from "~/lib/rate-limit.server";
@@ -44,7 +45,7 @@ export async function requestPasswordReset(request: Request, context?: AppLoadCo
     const token = await issueToken({ kind: "reset", email: user.email, userId: user.id, ttlSeconds: RESET_TTL_MINUTES * 60 });
     await audit({ action: "password_reset_requested", subjectId: user.id, ip });
     // Not awaited: the answer must not take longer for a real account than for an unknown one.
-    sendMail(resetMessage({ to: user.email, link: `${appOrigin(request)}/reset-password/${token}`, expiresMinutes: RESET_TTL_MINUTES })).catch((error: unknown) =>
+    sendMail(resetMessage({ to: user.email, link: `${appOrigin()}/reset-password/${token}`, expiresMinutes: RESET_TTL_MINUTES })).catch((error: unknown) =>
       console.warn(`[mail] reset link not sent:`, error instanceof Error ? error.message : error),
     );
   }

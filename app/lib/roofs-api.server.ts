@@ -1,6 +1,7 @@
 /** Validation of roof writes for the JSON API (and the pages that post the same thing). */
 import { z } from "zod";
 import { parseSpec } from "~/engine";
+import { pgInt } from "~/lib/input";
 import { jsonError, zodIssues } from "~/lib/json-api.server";
 import { roofNameSchema, type RoofDetail } from "~/lib/roofs.server";
 import { ROOF_FILE_MAX_BYTES } from "~/lib/roof-file";
@@ -12,7 +13,7 @@ const updateSchema = z.object(
   {
     name: roofNameSchema.optional(),
     spec: z.unknown().optional(),
-    version: z.number({ error: "must be the version number you started from" }).int().min(1),
+    version: pgInt(),
   },
   { error: "must be an object {name?, spec?, version}" },
 );

@@ -8,6 +8,7 @@ import type { Knex } from "knex";
 import { z } from "zod";
 import { db } from "~/lib/db.server";
 import type { SessionUser } from "~/lib/auth.server";
+import { requestHash, sameRequest } from "~/lib/idempotency.server";
 import { underlaySettingsSchema, type UnderlaySettings } from "~/lib/roof-file";
 
 export const roofNameSchema = z
@@ -20,8 +21,9 @@ export const roofNameSchema = z
 export const RESTORE_WINDOW_HOURS = 24;
 export const HISTORY_LIMIT = 30;
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
-export const isUuid = (id: unknown): id is string => typeof id === "string" && UUID.test(id);
+import { isUuid } from "~/lib/input";
+
+export { isUuid };
 
 export interface RoofSummary {
   id: string;
@@ -125,15 +127,21 @@ export async function getRoofFor(user: SessionUser, id: string, trx: Knex = db()
 
 export const idempotencyKeySchema = z.string().trim().min(8).max(100).regex(/^[A-Za-z0-9_.:-]+$/);
 
+export type CreatedRoof = { id: string; version: number; repeated?: boolean };
+export type CreateRoofResult = CreatedRoof | { keyReused: string };
+type NewRoof = { name: string; spec: unknown; underlay?: UnderlaySettings | null };
+
 /**
  * A new roof with its first version. With an idempotency key, a repeat of the same save (double
- * click, retried request) returns the roof the first one made instead of a second roof.
+ * click, retried request) returns the roof the first one made instead of a second roof; the same
+ * key with a different name, spec or underlay is refused (`keyReused`), never answered with the
+ * first roof.
  */
-export async function createRoof(
-  user: SessionUser,
-  input: { name: string; spec: unknown; underlay?: UnderlaySettings | null; idempotencyKey?: string | null },
-): Promise<{ id: string; version: number; repeated?: boolean }> {
+export async function createRoof(user: SessionUser, input: NewRoof): Promise<CreatedRoof>;
+export async function createRoof(user: SessionUser, input: NewRoof & { idempotencyKey: string | null | undefined }): Promise<CreateRoofResult>;
+export async function createRoof(user: SessionUser, input: NewRoof & { idempotencyKey?: string | null }): Promise<CreateRoofResult> {
   const key = input.idempotencyKey ?? null;
+  const hash = key === null ? null : requestHash({ name: input.name, spec: input.spec, underlay: input.underlay ?? null });
   return db().transaction(async (trx) => {
     const [roof] = await trx("roofs")
       .insert({
@@ -142,12 +150,14 @@ export async function createRoof(
         spec: JSON.stringify(input.spec),
         underlay: JSON.stringify(input.underlay ?? {}),
         idempotency_key: key,
+        idempotency_hash: hash,
       })
       .onConflict(trx.raw("(owner_id, idempotency_key) where idempotency_key is not null"))
       .ignore()
       .returning(["id", "version"]);
     if (!roof) {
-      const first = await trx("roofs").where({ owner_id: user.id, idempotency_key: key }).first("id", "version");
+      const first = await trx("roofs").where({ owner_id: user.id, idempotency_key: key }).first("id", "version", "idempotency_hash");
+      if (!sameRequest(first.idempotency_hash, hash!)) return { keyReused: key! };
       return { id: first.id as string, version: first.version as number, repeated: true };
     }
     await trx("roof_versions").insert({ roof_id: roof.id, version: roof.version, name: input.name, spec: JSON.stringify(input.spec), saved_by: user.id });

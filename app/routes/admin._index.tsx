@@ -4,7 +4,7 @@ import type { Route } from "./+types/admin._index";
 import { z } from "zod";
 import { requirePermission } from "~/lib/auth.server";
 import { createInvitation, resendInvitation } from "~/lib/invitations.server";
-import { appOrigin } from "~/lib/mail.server";
+import { appOrigin } from "~/lib/app-url";
 import { ROLE_LABELS, ROLES, type Role } from "~/lib/permissions";
 import { clientIp } from "~/lib/rate-limit.server";
 import { changeRole, listUsers, primaryOrganisation, setActive, setOpenSignup, type UserStatus } from "~/lib/users.server";
@@ -50,7 +50,7 @@ export async function action({ request, context }: Route.ActionArgs) {
   if (!parsed.success) return data<ActionResult>({ intent: "unknown", ok: false, message: "That request was not understood." }, { status: 400 });
   const a = parsed.data;
   const ip = clientIp(context);
-  const origin = appOrigin(request);
+  const origin = appOrigin();
   let r: ActionResult;
   switch (a.intent) {
     case "invite": {

@@ -11,7 +11,8 @@ export const meta: Route.MetaFunction = () => [{ title: "Audit log · Admin · F
 const PAGE = 100;
 const Query = z.object({
   action: z.enum(Object.keys(AUDIT_ACTIONS) as [AuditAction, ...AuditAction[]]).nullable().catch(null),
-  before: z.coerce.number().int().positive().nullable().catch(null),
+  // audit_log.id is a bigint; past the safe-integer range the page falls back to the newest.
+  before: z.coerce.number().int().positive().max(Number.MAX_SAFE_INTEGER).nullable().catch(null),
 });
 
 export async function loader({ request }: Route.LoaderArgs) {

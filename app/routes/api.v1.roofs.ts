@@ -1,6 +1,7 @@
 import type { Route } from "./+types/api.v1.roofs";
 import { jsonError, readJsonBody, requireApiPermission } from "~/lib/json-api.server";
 import { createRoof, idempotencyKeySchema, listMyRoofs } from "~/lib/roofs.server";
+import { keyReusedMessage } from "~/lib/idempotency.server";
 import { parseRoofWrite, ROOF_BODY_LIMIT } from "~/lib/roofs-api.server";
 
 /** GET /api/v1/roofs: my saved roofs, newest first. */
@@ -20,7 +21,9 @@ export async function action({ request }: Route.ActionArgs) {
   const rawKey = request.headers.get("idempotency-key");
   const key = rawKey === null ? null : idempotencyKeySchema.safeParse(rawKey);
   if (key && !key.success) return jsonError(400, "The Idempotency-Key header must be 8-100 letters, digits or -_.:", [{ path: "(header) Idempotency-Key", message: "is malformed" }]);
-  const { repeated, ...created } = await createRoof(user, { name: input.name!, spec: input.spec, idempotencyKey: key?.data });
+  const result = await createRoof(user, { name: input.name!, spec: input.spec, idempotencyKey: key?.data });
+  if ("keyReused" in result) return jsonError(422, keyReusedMessage(result.keyReused), [{ path: "(header) Idempotency-Key", message: "was already used for a different request" }]);
+  const { repeated, ...created } = result;
   const headers: Record<string, string> = { Location: `/api/v1/roofs/${created.id}` };
   if (repeated) headers["Idempotent-Replayed"] = "true";
   return Response.json(created, { status: 201, headers });

@@ -5,7 +5,7 @@ import { requirePermission, requireUser } from "~/lib/auth.server";
 import { getClassFor } from "~/lib/classes.server";
 import { formatScore } from "~/lib/gradebook";
 import { formatWhen } from "~/lib/when";
-import { appOrigin } from "~/lib/mail.server";
+import { appOrigin } from "~/lib/app-url";
 import { addReview, attemptFor, effectiveGrade, mayReview, parseReviewForm, reviewsForAttempt } from "~/lib/reviews.server";
 import { Caution } from "~/components/caution";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
@@ -48,7 +48,7 @@ export async function action({ request, params }: Route.ActionArgs) {
     attempt: { id: found.attempt.id, traineeEmail: found.trainee.email, lessonTitle: found.attempt.lessonTitle, score: found.attempt.score, passed: found.attempt.passed },
     reviewer: user,
     input: parsed.value,
-    origin: appOrigin(request),
+    origin: appOrigin(),
   });
   const who = found.trainee.name || found.trainee.email;
   return { errors: null, values: null, notice: emailSent ? `Saved. ${who} has been told by e-mail.` : `Saved, but the e-mail to ${who} could not be sent.` };

@@ -4,6 +4,7 @@ import { Download, History, Link2, Share2 } from "lucide-react";
 import { z } from "zod";
 import type { Route } from "./+types/roofs.$id";
 import { requirePermission } from "~/lib/auth.server";
+import { pgInt } from "~/lib/input";
 import { underlaySettingsSchema, type UnderlaySettings } from "~/lib/roof-file";
 import { duplicateRoof, getRoofFor, listVersions, restoreVersion, roofNameSchema, setShared, setUnderlay } from "~/lib/roofs.server";
 import { underlayUrl } from "~/lib/underlay";
@@ -34,14 +35,17 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 const intentSchema = z.discriminatedUnion("intent", [
   z.object({ intent: z.literal("share"), shared: z.enum(["true", "false"]) }),
   z.object({ intent: z.literal("underlay"), settings: z.string().max(2000) }),
-  z.object({ intent: z.literal("restore-version"), version: z.coerce.number().int().min(1), expected: z.coerce.number().int().min(1) }),
+  z.object({ intent: z.literal("restore-version"), version: pgInt({ coerce: true }), expected: pgInt({ coerce: true }) }),
   z.object({ intent: z.literal("duplicate"), name: roofNameSchema.optional() }),
 ]);
 
 export async function action({ request, params }: Route.ActionArgs) {
   const user = await requirePermission(request, "roofs:own");
   const parsed = intentSchema.safeParse(Object.fromEntries(await request.formData()));
-  if (!parsed.success) return data({ error: "That request was malformed." }, { status: 400 });
+  if (!parsed.success) {
+    const issue = parsed.error.issues[0];
+    return data({ error: `That request was malformed: the field "${String(issue.path[0] ?? "intent")}" ${issue.message}.` }, { status: 400 });
+  }
   const input = parsed.data;
   const notFound = () => data("No roof with that id in your library.", { status: 404 });
   switch (input.intent) {

@@ -6,8 +6,10 @@ import type { Route } from "./+types/roofs._index";
 import { requirePermission } from "~/lib/auth.server";
 import { readFormCapped } from "~/lib/json-api.server";
 import { readRoofFile, ROOF_FILE_MAX_BYTES } from "~/lib/roof-file";
+import { pgInt, uuid } from "~/lib/input";
 import { parseRoofWrite } from "~/lib/roofs-api.server";
 import { createRoof, duplicateRoof, idempotencyKeySchema, listMyRoofs, listSharedWithMe, restoreRoof, roofNameSchema, softDeleteRoof, updateRoof } from "~/lib/roofs.server";
+import { keyReusedMessage } from "~/lib/idempotency.server";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
 import { RelativeTime } from "~/components/roofs/relative-time";
 
@@ -20,10 +22,10 @@ export async function loader({ request }: Route.LoaderArgs) {
 }
 
 const intentSchema = z.discriminatedUnion("intent", [
-  z.object({ intent: z.literal("duplicate"), id: z.string() }),
-  z.object({ intent: z.literal("delete"), id: z.string() }),
-  z.object({ intent: z.literal("restore"), id: z.string() }),
-  z.object({ intent: z.literal("rename"), id: z.string(), name: roofNameSchema, version: z.coerce.number().int().min(1) }),
+  z.object({ intent: z.literal("duplicate"), id: uuid("a roof id") }),
+  z.object({ intent: z.literal("delete"), id: uuid("a roof id") }),
+  z.object({ intent: z.literal("restore"), id: uuid("a roof id") }),
+  z.object({ intent: z.literal("rename"), id: uuid("a roof id"), name: roofNameSchema, version: pgInt({ coerce: true }) }),
   z.object({ intent: z.literal("import") }),
 ]);
 
@@ -40,8 +42,14 @@ export async function action({ request }: Route.ActionArgs) {
   const parsed = intentSchema.safeParse(Object.fromEntries([...form].filter(([, v]) => typeof v === "string")));
   if (!parsed.success) {
     const issue = parsed.error.issues[0];
+    const field = String(issue.path[0] ?? "intent");
     return data<ActionResult>(
-      { intent: String(form.get("intent") ?? ""), id: String(form.get("id") ?? ""), name: String(form.get("name") ?? ""), error: `The name ${issue.message}.` },
+      {
+        intent: String(form.get("intent") ?? ""),
+        id: String(form.get("id") ?? ""),
+        name: String(form.get("name") ?? ""),
+        error: field === "name" ? `The name ${issue.message}.` : `The field "${field}" ${issue.message}.`,
+      },
       { status: 400 },
     );
   }
@@ -82,6 +90,7 @@ async function importRoof(user: Awaited<ReturnType<typeof requirePermission>>, f
   }
   const key = idempotencyKeySchema.safeParse(idempotencyKey);
   const created = await createRoof(user, { name: checked.name!, spec: checked.spec, underlay: envelope.file.underlay ?? null, idempotencyKey: key.success ? key.data : null });
+  if ("keyReused" in created) return data<ActionResult>({ intent: "import", error: keyReusedMessage(created.keyReused) }, { status: 422 });
   return redirect(`/roofs/${created.id}?imported=1`);
 }
 

@@ -10,6 +10,7 @@ import { requirePermission } from "~/lib/auth.server";
 import { readFormCapped } from "~/lib/json-api.server";
 import { ROOF_BODY_LIMIT, parseRoofWrite } from "~/lib/roofs-api.server";
 import { createRoof, idempotencyKeySchema } from "~/lib/roofs.server";
+import { keyReusedMessage } from "~/lib/idempotency.server";
 
 export function loader() {
   return redirect("/sandbox");
@@ -36,5 +37,8 @@ export async function action({ request }: Route.ActionArgs) {
   }
   const key = idempotencyKeySchema.safeParse(read.form.get("idempotencyKey"));
   const created = await createRoof(user, { name: input.name!, spec: input.spec, idempotencyKey: key.success ? key.data : null });
+  if ("keyReused" in created) {
+    return data({ error: { message: keyReusedMessage(created.keyReused), issues: [{ path: "idempotencyKey", message: "was already used for a different roof" }] }, name }, { status: 422 });
+  }
   return redirect(`/roofs/${created.id}?saved=1`);
 }

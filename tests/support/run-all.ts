@@ -60,6 +60,8 @@ async function main() {
     TEST_TEMPLATE_DB: profile.database,
     TEST_TEMPLATE_URL: templateUrl,
     FALLWRIGHT_TEST: "1",
+    // Route modules called in-process build their e-mail links on this (tests/support/accounts.ts ORIGIN).
+    APP_URL: "http://localhost",
   };
   const fakes = await startFakes(profile, env, ports);
   if (fakes) children.push(fakes);
@@ -103,7 +105,7 @@ async function main() {
     const server = spawn(process.execPath, ["--import", "tsx", "app/server/index.ts"], {
       cwd: PROJECT_ROOT,
       stdio: ["ignore", fs.openSync(path.join(results, "e2e-server.log"), "w"), fs.openSync(path.join(results, "e2e-server.log"), "a")],
-      env: { ...process.env, ...env, NODE_ENV: "production", PORT: String(port), DATABASE_URL: clusterUrl(info, e2eDb) },
+      env: { ...process.env, ...env, NODE_ENV: "production", PORT: String(port), APP_URL: `http://127.0.0.1:${port}`, DATABASE_URL: clusterUrl(info, e2eDb) },
     });
     children.push(server);
     await waitForPort(port);

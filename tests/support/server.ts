@@ -29,7 +29,8 @@ export async function startServer(databaseUrl: string, env: Record<string, strin
   let out = "";
   const proc = spawn(process.execPath, ["--import", "tsx", path.join(ROOT, "app/server/index.ts")], {
     cwd: ROOT,
-    env: { ...process.env, NODE_ENV: "production", PORT: String(port), DATABASE_URL: databaseUrl, FALLWRIGHT_BUILD_DIR: buildDir, ...env },
+    // APP_URL: links in e-mail point at this server (a test may pass its own, or "" for none).
+    env: { ...process.env, NODE_ENV: "production", PORT: String(port), APP_URL: `http://127.0.0.1:${port}`, DATABASE_URL: databaseUrl, FALLWRIGHT_BUILD_DIR: buildDir, ...env },
     stdio: ["ignore", "pipe", "pipe"],
   });
   proc.stdout!.on("data", (d) => (out += d));

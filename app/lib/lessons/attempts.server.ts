@@ -1,5 +1,7 @@
 import type { Knex } from "knex";
 import { z } from "zod";
+import { isUuid } from "../input";
+import { keyReusedMessage, requestHash, sameRequest } from "../idempotency.server";
 import { gradeLesson, type GradeResult } from "./grade";
 import type { Lesson } from "./schema";
 import { lessonVersion } from "./sync.server";
@@ -90,8 +92,10 @@ export async function createAttempt(
   sub: Submission,
   current: (slug: string) => Lesson | null,
 ): Promise<CreateOutcome> {
+  // The key names the submission: a repeat must ask for the same grade of the same work.
+  const hash = requestHash({ lesson: sub.lesson, version: sub.version ?? null, answers: sub.answers, spec: sub.spec ?? null });
   const existing = await findByKey(knex, traineeId, sub.idempotencyKey);
-  if (existing) return { status: 200, attempt: existing };
+  if (existing) return repeatOf(existing, sub.idempotencyKey, hash);
 
   let lesson = current(sub.lesson);
   if (!lesson) return { status: 404, message: `There is no lesson "${sub.lesson}".` };
@@ -108,6 +112,7 @@ export async function createAttempt(
       lesson_slug: lesson.slug,
       lesson_version: lesson.version,
       idempotency_key: sub.idempotencyKey,
+      idempotency_hash: hash,
       spec: JSON.stringify(sub.spec),
       answers: JSON.stringify(sub.answers),
       results: JSON.stringify(graded),
@@ -118,14 +123,21 @@ export async function createAttempt(
     .onConflict(["trainee_id", "idempotency_key"])
     .ignore()
     .returning("id");
-  const attempt = await findByKey(knex, traineeId, sub.idempotencyKey);
-  if (!attempt) throw new Error("attempt vanished after insert");
-  return { status: inserted.length ? 201 : 200, attempt };
+  const found = await findByKey(knex, traineeId, sub.idempotencyKey);
+  if (!found) throw new Error("attempt vanished after insert");
+  return inserted.length ? { status: 201, attempt: found.attempt } : repeatOf(found, sub.idempotencyKey, hash);
 }
 
-async function findByKey(knex: Knex, traineeId: string, key: string): Promise<AttemptView | null> {
-  const row = await selectAttempts(knex).where({ "a.trainee_id": traineeId, "a.idempotency_key": key }).first();
-  return row ? view(row) : null;
+function repeatOf(found: { attempt: AttemptView; hash: string | null }, key: string, hash: string): CreateOutcome {
+  if (!sameRequest(found.hash, hash)) {
+    return { status: 422, message: keyReusedMessage(key), issues: [{ path: "idempotencyKey", message: "was already used for a different submission" }] };
+  }
+  return { status: 200, attempt: found.attempt };
+}
+
+async function findByKey(knex: Knex, traineeId: string, key: string): Promise<{ attempt: AttemptView; hash: string | null } | null> {
+  const row = await selectAttempts(knex).select("a.idempotency_hash").where({ "a.trainee_id": traineeId, "a.idempotency_key": key }).first();
+  return row ? { attempt: view(row), hash: row.idempotency_hash ?? null } : null;
 }
 
 export async function listAttempts(knex: Knex, traineeId: string, opts: { lesson?: string; limit?: number } = {}): Promise<AttemptView[]> {
@@ -135,7 +147,7 @@ export async function listAttempts(knex: Knex, traineeId: string, opts: { lesson
 }
 
 export async function getAttempt(knex: Knex, id: string): Promise<AttemptView | null> {
-  if (!/^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(id)) return null;
+  if (!isUuid(id)) return null;
   const row = await selectAttempts(knex).where("a.id", id).first();
   return row ? view(row) : null;
 }
