@@ -13,6 +13,7 @@ import { drainSpans, highLevelFor } from "./high-level";
 import { catchmentsOf } from "./catchments";
 import { buildMesh } from "./mesh";
 import { meshArrays, meshBuffers } from "./mesh-out";
+import { outletParallelWarnings } from "./outlet-reach";
 import { perimeterLevels } from "./perimeter";
 import { prepareRoof } from "./prepare";
 import { toFrame, type Roof } from "./roof";
@@ -124,6 +125,7 @@ function analyseWith(memory: Arena, roof: Roof, options: AnalyseOptions): Analys
   }
 
   const { catchments, ponding } = catchmentsOf(roof, mesh, routing, faces, warnings);
+  warnings.push(...outletParallelWarnings(roof, levels, catchments));
   if (ponding.length) {
     const total = ponding.reduce((s, p) => s + p.area, 0);
     warnings.push({

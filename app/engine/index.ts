@@ -23,6 +23,7 @@ export type {
   Point,
   EdgeKind,
   Warning,
+  WarningFix,
   EdgeFall,
   Joist,
   JoistSpan,

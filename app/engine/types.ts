@@ -34,12 +34,23 @@ export interface Warning {
     | "mesh-coarsened"
     | "outlet-capacity"
     | "narrow-gutter"
-    | "rainfall-assumed";
+    | "rainfall-assumed"
+    | "outlet-parallel-to-joists";
   message: string;
   at?: Point;
   /** Size of the problem in metres where it has one (twist: level difference). */
   size?: number;
+  /** outlet-parallel-to-joists: the outlet (request index) and the plan area it drains (m²). */
+  outlet?: number;
+  drainedArea?: number;
+  /** Ways out, the first the one a client can apply in one click where it has a value. */
+  fixes?: WarningFix[];
 }
+
+export type WarningFix =
+  | { kind: "turn-joists"; direction: Point }
+  | { kind: "move-outlet" }
+  | { kind: "divide-roof" };
 
 export interface EdgeFall {
   /** Edge index in the request's numbering. */
