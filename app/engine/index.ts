@@ -24,6 +24,7 @@ export type {
   EdgeKind,
   Warning,
   WarningFix,
+  JoistDirectionOption,
   EdgeFall,
   Joist,
   JoistSpan,
