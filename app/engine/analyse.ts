@@ -1,5 +1,6 @@
 import { bestExtraOutlet, minimumBaseFall } from "./advice";
 import { Arena } from "./arena";
+import { CANDIDATE_MESH_VERTICES, joistDirectionAdvice } from "./joist-directions";
 import { dropSchedule, joistPositions } from "./joists";
 import { edgeFalls } from "./edge-falls";
 import { formatRatio } from "./fall";
@@ -13,6 +14,7 @@ import { drainSpans, highLevelFor } from "./high-level";
 import { catchmentsOf } from "./catchments";
 import { buildMesh } from "./mesh";
 import { meshArrays, meshBuffers } from "./mesh-out";
+import { outletParallelWarnings } from "./outlet-reach";
 import { perimeterLevels } from "./perimeter";
 import { prepareRoof } from "./prepare";
 import { toFrame, type Roof } from "./roof";
@@ -56,15 +58,32 @@ const arena = new Arena();
 
 /** The analysis of a roof already normalised and checked by `prepareRoof`. */
 export function analyseRoof(roof: Roof, options: AnalyseOptions = {}): Analysis {
-  if (arena.busy) return analyseWith(new Arena(), roof, options);
+  if (arena.busy) return analyseWithAdvice(new Arena(), roof, options);
   try {
-    return analyseWith(arena, roof, options);
+    return analyseWithAdvice(arena, roof, options);
   } finally {
     arena.release();
   }
 }
 
-function analyseWith(memory: Arena, roof: Roof, options: AnalyseOptions): Analysis {
+/**
+ * The analysis, then the other joist directions analysed in turn on the same memory (the answer
+ * holds copies only, so the next reset cannot reach it), on a coarser mesh, without advice of
+ * their own.
+ */
+function analyseWithAdvice(memory: Arena, roof: Roof, options: AnalyseOptions): Analysis {
+  const analysis = analyseWith(memory, roof, options, false);
+  const light: AnalyseOptions = {
+    mesh: false,
+    traces: false,
+    bandEdges: options.bandEdges,
+    maxMeshVertices: Math.min(options.maxMeshVertices ?? MAX_MESH_VERTICES, CANDIDATE_MESH_VERTICES),
+  };
+  analysis.advice.joistDirections = joistDirectionAdvice(roof, analysis, (turned) => analyseWith(memory, turned, light, true));
+  return analysis;
+}
+
+function analyseWith(memory: Arena, roof: Roof, options: AnalyseOptions, candidate: boolean): Analysis {
   memory.reset();
   const warnings: Warning[] = [];
   const spans = drainSpans(roof);
@@ -124,6 +143,7 @@ function analyseWith(memory: Arena, roof: Roof, options: AnalyseOptions): Analys
   }
 
   const { catchments, ponding } = catchmentsOf(roof, mesh, routing, faces, warnings);
+  warnings.push(...outletParallelWarnings(roof, levels, catchments));
   if (ponding.length) {
     const total = ponding.reduce((s, p) => s + p.area, 0);
     warnings.push({
@@ -157,7 +177,7 @@ function analyseWith(memory: Arena, roof: Roof, options: AnalyseOptions): Analys
   }
   const openEdge = openEdgeOption(roof);
   const minBase = minimumBaseFall(spans, lines, roof.minFall.ratio);
-  const extra = bestExtraOutlet(roof, levels, spans, geodesic);
+  const extra = candidate ? undefined : bestExtraOutlet(roof, levels, spans, geodesic);
 
   const fallMapResult = fallMap(faces, roof.minFall.ratio, options.bandEdges ?? DEFAULT_BAND_EDGES);
   const shaped: Analysis["shaped"] = {
@@ -190,6 +210,7 @@ function analyseWith(memory: Arena, roof: Roof, options: AnalyseOptions): Analys
     advice: {
       minimumBaseFall: minBase ? { ratio: minBase.ratio, degrees: minBase.degrees, percent: minBase.percent } : null,
       ...(extra ? { extraOutlet: extra } : {}),
+      joistDirections: [],
     },
     warnings,
     baseFall: roof.baseFall,

@@ -23,6 +23,8 @@ export type {
   Point,
   EdgeKind,
   Warning,
+  WarningFix,
+  JoistDirectionOption,
   EdgeFall,
   Joist,
   JoistSpan,

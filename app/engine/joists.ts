@@ -1,7 +1,7 @@
-import { chordsAt } from "./chords";
+import { chordsAt, type Chord } from "./chords";
 import { levelOnEdge, type PerimeterLevels } from "./perimeter";
 import { toPlan, type Roof } from "./roof";
-import type { Joist } from "./types";
+import type { Joist, JoistSpan } from "./types";
 
 /**
  * Joist positions across the roof (frame u): first offset + k × spacing from the extreme edge,
@@ -18,34 +18,135 @@ export function joistPositions(roof: Roof): Float64Array {
   for (let k = 0; k < count; k++) out[k] = first + k * spacing;
   if (total > count) out[count] = umax;
   else out[count - 1] = Math.min(out[count - 1], umax);
+  // A joist within rounding of a vertex's line is put on it exactly: the surface there is read
+  // from the wall (the rim tolerance of `levelAt`), so the schedule must read the same wall.
+  const snap = roof.tol * 1000;
+  const vertexU = Float64Array.from(roof.us).sort();
+  for (let k = 0, i = 0; k < total; k++) {
+    while (i < vertexU.length && vertexU[i] < out[k] - snap) i++;
+    if (i < vertexU.length && Math.abs(vertexU[i] - out[k]) <= snap) out[k] = vertexU[i];
+  }
   return out;
 }
 
-/** The drop schedule: each joist's spans with end levels, drops below H and fall ratio. */
+/**
+ * The drop schedule: each joist's spans with end levels, drops below H and fall ratio.
+ *
+ * A span is a chord (docs/roof-method.md §5), except where the joist line meets the outline
+ * inside it (docs/roof-method-plans.md P6): along a wall lying on the joist line the surface is
+ * that wall's own level, which rises and falls through its knots (outlets, half-way points), so
+ * the joist is split at every knot of the wall, and at a corner the chord passes it is split at
+ * the corner's level. Every span end is then the surface's level at that point.
+ */
 export function dropSchedule(roof: Roof, levels: PerimeterLevels, positions: Float64Array): Joist[] {
   const joists: Joist[] = [];
   const H = levels.H;
+  const onVertexLine = new Set<number>(roof.us);
   for (let k = 0; k < positions.length; k++) {
     const u = positions[k];
     const side = u >= roof.umax - roof.tol ? -1 : 1;
-    const spans = chordsAt(roof, u, side).map((c) => {
-      const startLevel = levelOnEdge(levels, c.edgeA, c.tA);
-      const endLevel = levelOnEdge(levels, c.edgeB, c.tB);
-      const length = c.vB - c.vA;
-      const rise = Math.abs(endLevel - startLevel);
-      const ratio = rise > 1e-12 ? length / rise : null;
-      return {
-        start: toPlan(roof, u, c.vA),
-        end: toPlan(roof, u, c.vB),
-        length,
-        startLevel,
-        endLevel,
-        startDrop: H - startLevel,
-        endDrop: H - endLevel,
-        ratio,
-      };
-    });
+    const spans: JoistSpan[] = [];
+    const chords = chordsAt(roof, u, side);
+    const pieces: Break[][] = [];
+    for (const c of chords) {
+      const breaks: Break[] = [
+        { v: c.vA, z: levelOnEdge(levels, c.edgeA, c.tA) },
+        { v: c.vB, z: levelOnEdge(levels, c.edgeB, c.tB) },
+      ];
+      if (onVertexLine.has(u)) wallBreaks(roof, levels, u, c.vA, c.vB, breaks);
+      pieces.push(breaks);
+    }
+    // A wall on the line that no chord from this side covers still has a joist against it.
+    if (onVertexLine.has(u)) pieces.push(...uncoveredWalls(roof, levels, u, chords));
+    pieces.sort((a, b) => a[0].v - b[0].v);
+    for (const breaks of pieces) {
+      if (breaks.length > 2) breaks.sort((a, b) => a.v - b.v);
+      for (let b = 1; b < breaks.length; b++) {
+        const from = breaks[b - 1];
+        const to = breaks[b];
+        const length = to.v - from.v;
+        if (length <= roof.tol) continue;
+        const rise = Math.abs(to.z - from.z);
+        spans.push({
+          start: toPlan(roof, u, from.v),
+          end: toPlan(roof, u, to.v),
+          length,
+          startLevel: from.z,
+          endLevel: to.z,
+          startDrop: H - from.z,
+          endDrop: H - to.z,
+          ratio: rise > 1e-12 ? length / rise : null,
+        });
+      }
+    }
     joists.push({ index: k, offset: u - roof.umin, spans });
   }
   return joists;
+}
+
+interface Break {
+  v: number;
+  z: number;
+}
+
+/**
+ * The stretches of walls lying on the line u outside every chord of the side read: the wall a
+ * bay's last joist stands against when the roof on the other side of the line is shorter (an
+ * inner wall of an L). Each stretch comes with the wall's knots and levels.
+ */
+function uncoveredWalls(roof: Roof, levels: PerimeterLevels, u: number, chords: Chord[]): Break[][] {
+  const { n, us, vs } = roof;
+  const out: Break[][] = [];
+  for (let e = 0; e < n; e++) {
+    const q = e + 1 === n ? 0 : e + 1;
+    if (us[e] !== u || us[q] !== u) continue;
+    const dir = vs[q] >= vs[e] ? 1 : -1;
+    const lo = Math.min(vs[e], vs[q]);
+    const hi = Math.max(vs[e], vs[q]);
+    // The wall less the chords' ranges, as pieces [a, b].
+    let pieces: [number, number][] = [[lo, hi]];
+    for (const c of chords) {
+      const next: [number, number][] = [];
+      for (const [a, b] of pieces) {
+        if (c.vB <= a + roof.tol || c.vA >= b - roof.tol) next.push([a, b]);
+        else {
+          if (c.vA - a > roof.tol) next.push([a, c.vA]);
+          if (b - c.vB > roof.tol) next.push([c.vB, b]);
+        }
+      }
+      pieces = next;
+    }
+    const kt = levels.t[e];
+    for (const [a, b] of pieces) {
+      const at = (v: number) => levelOnEdge(levels, e, Math.abs(v - vs[e]));
+      const breaks: Break[] = [{ v: a, z: at(a) }, { v: b, z: at(b) }];
+      for (let k = 1; k + 1 < kt.length; k++) {
+        const v = vs[e] + dir * kt[k];
+        if (v > a + roof.tol && v < b - roof.tol) breaks.push({ v, z: levels.z[e][k] });
+      }
+      out.push(breaks);
+    }
+  }
+  return out;
+}
+
+/**
+ * Points strictly inside the chord (vA, vB) on the line u where the outline lies on the line:
+ * the knots and ends of every wall along it, and every corner on it.
+ */
+function wallBreaks(roof: Roof, levels: PerimeterLevels, u: number, vA: number, vB: number, out: Break[]): void {
+  const { n, us, vs } = roof;
+  const inside = (v: number) => v > vA + roof.tol && v < vB - roof.tol;
+  for (let e = 0; e < n; e++) {
+    const q = e + 1 === n ? 0 : e + 1;
+    if (us[e] === u && inside(vs[e])) out.push({ v: vs[e], z: levels.vertex[e] });
+    if (us[e] !== u || us[q] !== u) continue;
+    const kt = levels.t[e];
+    const kz = levels.z[e];
+    const dir = vs[q] >= vs[e] ? 1 : -1;
+    for (let k = 1; k + 1 < kt.length; k++) {
+      const v = vs[e] + dir * kt[k];
+      if (inside(v)) out.push({ v, z: kz[k] });
+    }
+  }
 }

@@ -193,38 +193,7 @@ export function prepareRoof(spec: RoofSpec): Prepared {
     dx = -(ys[q] - ys[edge]) / len[edge] + 0;
     dy = (xs[q] - xs[edge]) / len[edge] + 0;
   }
-  const us = new Float64Array(n);
-  const vs = new Float64Array(n);
-  for (let j = 0; j < n; j++) {
-    us[j] = xs[j] * dy - ys[j] * dx;
-    vs[j] = xs[j] * dx + ys[j] * dy;
-  }
-  // An edge that is along the joists up to rounding (after a rotation, say) is made exactly so:
-  // the chord rule reads lines through vertices by exact comparisons of u.
-  const byU = [...us.keys()].sort((a, b) => us[a] - us[b]);
-  for (let k = 1; k < n; k++) {
-    if (us[byU[k]] - us[byU[k - 1]] <= tol * 0.01) us[byU[k]] = us[byU[k - 1]];
-  }
-  let umin = Infinity, umax = -Infinity, vmin = Infinity, vmax = -Infinity;
-  for (let j = 0; j < n; j++) {
-    umin = Math.min(umin, us[j]);
-    umax = Math.max(umax, us[j]);
-    vmin = Math.min(vmin, vs[j]);
-    vmax = Math.max(vmax, vs[j]);
-  }
-  for (const o of outlets) {
-    if (o.vertex >= 0) {
-      o.u = us[o.vertex];
-      o.v = vs[o.vertex];
-    } else {
-      // Along its edge in the frame, so an outlet on an edge that runs along the joists shares
-      // that edge's (snapped) u exactly, however the spec is turned.
-      const q = (o.edge + 1) % n;
-      const s = o.t / len[o.edge];
-      o.u = us[o.edge] + s * (us[q] - us[o.edge]);
-      o.v = vs[o.edge] + s * (vs[q] - vs[o.edge]);
-    }
-  }
+  const { us, vs, umin, umax, vmin, vmax } = frameOf(xs, ys, len, outlets, dx, dy, tol);
 
   const spacing = spec.joists?.spacing ?? DEFAULTS.joistSpacing;
   const offset = spec.joists?.offset ?? 0;
@@ -270,6 +239,62 @@ export function prepareRoof(spec: RoofSpec): Prepared {
     tol,
   };
   return { ok: true, roof };
+}
+
+/**
+ * The joist frame of an outline (u across the joists, v along them) for the unit direction
+ * (dx, dy); sets each outlet's u and v. Shared by preparation and the joist direction advice.
+ */
+export function frameOf(
+  xs: Float64Array, ys: Float64Array, len: Float64Array, outlets: Outlet[], dx: number, dy: number, tol: number,
+): { us: Float64Array; vs: Float64Array; umin: number; umax: number; vmin: number; vmax: number } {
+  const n = xs.length;
+  const us = new Float64Array(n);
+  const vs = new Float64Array(n);
+  for (let j = 0; j < n; j++) {
+    us[j] = xs[j] * dy - ys[j] * dx;
+    vs[j] = xs[j] * dx + ys[j] * dy;
+  }
+  // An edge that is along the joists up to rounding (after a rotation, say) is made exactly so:
+  // the chord rule reads lines through vertices by exact comparisons of u.
+  const byU = [...us.keys()].sort((a, b) => us[a] - us[b]);
+  for (let k = 1; k < n; k++) {
+    if (us[byU[k]] - us[byU[k - 1]] <= tol * 0.01) us[byU[k]] = us[byU[k - 1]];
+  }
+  let umin = Infinity, umax = -Infinity, vmin = Infinity, vmax = -Infinity;
+  for (let j = 0; j < n; j++) {
+    umin = Math.min(umin, us[j]);
+    umax = Math.max(umax, us[j]);
+    vmin = Math.min(vmin, vs[j]);
+    vmax = Math.max(vmax, vs[j]);
+  }
+  for (const o of outlets) {
+    if (o.vertex >= 0) {
+      o.u = us[o.vertex];
+      o.v = vs[o.vertex];
+    } else {
+      // Along its edge in the frame, so an outlet on an edge that runs along the joists shares
+      // that edge's (snapped) u exactly, however the spec is turned.
+      const q = (o.edge + 1) % n;
+      const s = o.t / len[o.edge];
+      o.u = us[o.edge] + s * (us[q] - us[o.edge]);
+      o.v = vs[o.edge] + s * (vs[q] - vs[o.edge]);
+    }
+  }
+
+  return { us, vs, umin, umax, vmin, vmax };
+}
+
+/**
+ * The same roof with joists along another unit direction (spacing and offset kept), or null
+ * when that direction would need more joists than the limit.
+ */
+export function withJoistDirection(roof: Roof, dx: number, dy: number): Roof | null {
+  const outlets = roof.outlets.map((o) => ({ ...o }));
+  const frame = frameOf(roof.xs, roof.ys, roof.len, outlets, dx, dy, roof.tol);
+  const count = Math.floor(Math.max(0, frame.umax - frame.umin - roof.offset) / roof.spacing) + 2;
+  if (count > LIMITS.maxJoists) return null;
+  return { ...roof, dx: dx + 0, dy: dy + 0, outlets, ...frame, probes: [] };
 }
 
 function formatDistance(m: number): string {

@@ -34,12 +34,23 @@ export interface Warning {
     | "mesh-coarsened"
     | "outlet-capacity"
     | "narrow-gutter"
-    | "rainfall-assumed";
+    | "rainfall-assumed"
+    | "outlet-parallel-to-joists";
   message: string;
   at?: Point;
   /** Size of the problem in metres where it has one (twist: level difference). */
   size?: number;
+  /** outlet-parallel-to-joists: the outlet (request index) and the plan area it drains (m²). */
+  outlet?: number;
+  drainedArea?: number;
+  /** Ways out, the first the one a client can apply in one click where it has a value. */
+  fixes?: WarningFix[];
 }
+
+export type WarningFix =
+  | { kind: "turn-joists"; direction: Point }
+  | { kind: "move-outlet" }
+  | { kind: "divide-roof" };
 
 export interface EdgeFall {
   /** Edge index in the request's numbering. */
@@ -135,6 +146,25 @@ export interface FlowTraces {
   ends: string[];
 }
 
+/** One candidate joist direction with the figures it gives (docs/roof-method-plans.md P8). */
+export interface JoistDirectionOption {
+  /** Unit vector in plan, along the joists. */
+  direction: Point;
+  highLevel: number;
+  /** Ratio N of the longest fall line; null when there is none. */
+  longestFallRatio: number | null;
+  /** Ratio N of the flattest fall line; null when there is none. */
+  worstFallRatio: number | null;
+  flatterThanMinimumArea: number;
+  meetsMinimumFall: boolean;
+  /** Request edges whose inward normal this is (empty for a direction of the user's own). */
+  edges: number[];
+  /** The direction this analysis used. */
+  current: boolean;
+  /** The one to choose: meets the minimum fall, then the lowest high level, then the least flat area. */
+  best: boolean;
+}
+
 export interface Analysis {
   shaped: {
     highLevel: number;
@@ -185,6 +215,8 @@ export interface Analysis {
   advice: {
     minimumBaseFall: { ratio: number; degrees: number; percent: number } | null;
     extraOutlet?: { at: Point; edge: number; longestFallRatio: number; currentLongestFallRatio: number };
+    /** Each candidate joist direction analysed (docs/roof-method-plans.md P8), the current one first. */
+    joistDirections: JoistDirectionOption[];
   };
   warnings: Warning[];
   baseFall: Fall;

@@ -168,6 +168,28 @@ describe("invariants on random valid roofs", () => {
     );
   });
 
+  // docs/roof-method-plans.md P6: what the schedule says agrees with the surface shown.
+  it("every span end of the drop schedule equals the surface level there", () => {
+    fc.assert(
+      fc.property(validCase, ({ spec }) => {
+        const a = run(spec, false);
+        const ends: { at: Point; level: number }[] = [];
+        for (const j of a.shaped.joists) {
+          for (const s of j.spans) ends.push({ at: s.start, level: s.startLevel }, { at: s.end, level: s.endLevel });
+        }
+        // At most 1,000 probes: an even pick across the roof.
+        const step = Math.max(1, Math.ceil(ends.length / 1000));
+        const picked = ends.filter((_, i) => i % step === 0);
+        const b = run({ ...spec, probes: picked.map((e) => e.at) }, false);
+        b.shaped.probes.forEach((p, i) => {
+          expect(p.level).not.toBeNull();
+          expect(Math.abs((p.level as number) - picked[i].level)).toBeLessThan(1e-9);
+        });
+      }),
+      RUNS,
+    );
+  });
+
   it("perimeter levels follow the level-rim rule", () => {
     fc.assert(
       fc.property(validCase, ({ spec, perimeterProbes }) => {
