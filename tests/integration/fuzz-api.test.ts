@@ -4,7 +4,7 @@ import { createDatabaseFromTemplate, dropDatabase } from "../support/db";
 import { startServer, type RunningServer } from "../support/server";
 import { allRoutePaths } from "../support/routes";
 
-// QUALITY.md, Reliability → Bad input: every JSON route, random and hostile JSON, never 500.
+// docs/quality.md, Reliability → Bad input: every JSON route, random and hostile JSON, never 500.
 const ALLOWED = new Set([200, 201, 204, 400, 401, 403, 404, 405, 409, 413, 415, 422, 429]);
 const UUID = "00000000-0000-4000-8000-000000000000";
 

@@ -6,7 +6,7 @@ import { startServer, type RunningServer } from "../support/server";
 import { sessionCookie } from "../support/accounts";
 
 /**
- * Route × role matrix (QUALITY.md, Security → Authorisation): every route in app/routes.ts,
+ * Route × role matrix (docs/security.md, Permissions by role): every route in app/routes.ts,
  * requested with GET by an anonymous visitor and by each role, against the production server.
  *
  * ADDING A ROUTE? Add a row to MATRIX below with the status each role should get. Dynamic
