@@ -3,6 +3,8 @@ import { type RouteConfig, index, layout, route } from "@react-router/dev/routes
 export default [
   route("healthz", "routes/healthz.ts"),
   route("api/v1", "routes/api.v1._index.ts"),
+  route("api/v1/openapi.json", "routes/api.v1.openapi-json.ts"),
+  route("api/v1/docs", "routes/api.v1.docs.ts"),
   route("api/v1/analyses", "routes/api.v1.analyses.ts"),
   route("api/v1/roofs", "routes/api.v1.roofs.ts"),
   route("api/v1/roofs/:id", "routes/api.v1.roofs.$id.ts"),

@@ -1,4 +1,4 @@
-/** The safety caution every results view and printed sheet carries (PRODUCT.md, Cautions). */
+/** The safety caution every results view and printed sheet carries (docs/product.md, Cautions). */
 export function Caution({ compact = false }: { compact?: boolean }) {
   return (
     <p role="note" className={compact ? "text-xs text-ink-soft" : "rounded border border-warn/40 bg-accent-wash px-3 py-2 text-sm"}>

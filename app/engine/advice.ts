@@ -7,7 +7,7 @@ import { toPlan, type Roof } from "./roof";
 import type { FallLine, Point } from "./types";
 
 /**
- * The flattest base fall that keeps every fall line at the minimum fall (ROOF-METHOD.md §7),
+ * The flattest base fall that keeps every fall line at the minimum fall (docs/roof-method.md §7),
  * by bisection on the slope. The fall lines keep their paths as H changes (the surface scales
  * with H above the drains), so each step costs one pass over the drains, not a re-analysis.
  */

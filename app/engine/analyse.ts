@@ -42,7 +42,7 @@ export interface AnalyseOptions {
 export const MAX_MESH_VERTICES = 250_000;
 
 /**
- * Shapes and checks a parapet roof (ROOF-METHOD.md): the level-rim boundary, the high level,
+ * Shapes and checks a parapet roof (docs/roof-method.md): the level-rim boundary, the high level,
  * the chord-rule surface, joists, mesh and fall map, water (catchments, ponding, fall lines),
  * advice, and the gutter and open-edge layouts to compare with. Expects a spec that passed
  * `parseSpec`; throws with the validation message otherwise.

@@ -8,7 +8,7 @@ import type { Analysis, Catchment, Warning } from "./types";
 
 /**
  * The area draining to each outlet and eaves edge with its design flow (rational method, C = 1,
- * ASCE 7-05 Commentary C8), outlets' rough capacity, and the ponding pits (ROOF-METHOD.md §7).
+ * ASCE 7-05 Commentary C8), outlets' rough capacity, and the ponding pits (docs/roof-method.md §7).
  */
 export function catchmentsOf(roof: Roof, mesh: SurfaceMesh, routing: Routing, faces: FaceData, warnings: Warning[]) {
   const catchments: Catchment[] = [];

@@ -3,7 +3,7 @@ import { outletsOnEdge, type PerimeterLevels } from "./perimeter";
 import type { Roof } from "./roof";
 import type { EdgeFall, Point } from "./types";
 
-/** Each rising piece of an outlet edge with its own fall, length over rise (ROOF-METHOD.md §2). */
+/** Each rising piece of an outlet edge with its own fall, length over rise (docs/roof-method.md §2). */
 export function edgeFalls(roof: Roof, levels: PerimeterLevels): EdgeFall[] {
   const out: EdgeFall[] = [];
   for (let j = 0; j < roof.n; j++) {

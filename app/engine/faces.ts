@@ -9,7 +9,7 @@ export interface FaceData {
   area: Float64Array;
   /** Squared, so the fall map compares without a square root per face; the 3D mesh takes the root. */
   slope2: Float64Array;
-  /** The drain of the face's lowest vertex (ROOF-METHOD.md §7), -1 for none. */
+  /** The drain of the face's lowest vertex (docs/roof-method.md §7), -1 for none. */
   drain: Int32Array;
   /** Plan area draining to each drain, by drain id. */
   drainArea: Float64Array;

@@ -41,7 +41,7 @@ function outletAt(roof: Roof, j: number, t: number | undefined): number {
 const plan = (roof: Roof, x: number, y: number): Point => [roof.ox + x, roof.oy + y];
 
 /**
- * Fall lines (ROOF-METHOD.md §7): from each start, the shortest path inside the outline to the
+ * Fall lines (docs/roof-method.md §7): from each start, the shortest path inside the outline to the
  * drain its water reaches; length over drop is its ratio. Starts whose water ponds have none.
  */
 export function fallLines(

@@ -2,7 +2,7 @@ import type { FaceData } from "./faces";
 import { formatRatio } from "./fall";
 import type { Band } from "./types";
 
-/** Band edges of the fall map as ratios N (ROOF-METHOD.md §6); a setting. */
+/** Band edges of the fall map as ratios N (docs/roof-method.md §6); a setting. */
 export const DEFAULT_BAND_EDGES: readonly number[] = [40, 60, 80, 100];
 
 /** Ratio N of a slope; a level face has no ratio (Infinity). */

@@ -18,7 +18,7 @@ export const FALL_RATIO_LIMITS = { min: 1, max: 10_000 } as const;
 
 /**
  * A fall from its ratio N (1 in N). Trigonometry: slope = 1/N, angle = atan(1/N),
- * percent = 100/N (CHECK-VALUES.md "Trigonometry (derived)").
+ * percent = 100/N (docs/check-values.md "Trigonometry (derived)").
  */
 export function fallFromRatio(ratio: number): Fall {
   return {

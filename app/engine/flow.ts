@@ -120,7 +120,7 @@ function visit(
 }
 
 /**
- * Where the water goes (ROOF-METHOD.md §7): each vertex drains to its steepest downhill neighbour
+ * Where the water goes (docs/roof-method.md §7): each vertex drains to its steepest downhill neighbour
  * (lower by more than rounding); level patches drain through a neighbour at the same level
  * whose water already reaches a drain; what is left are pits. (Each face then takes the drain
  * of its lowest vertex: see faceData.)

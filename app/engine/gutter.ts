@@ -21,7 +21,7 @@ function depthFrom(roof: Roof, e: number): number {
 }
 
 /**
- * The gutter-based layout for comparison (ROOF-METHOD.md §8): an internal gutter along each
+ * The gutter-based layout for comparison (docs/roof-method.md §8): an internal gutter along each
  * outlet edge, its sole falling at the gutter fall to each outlet, a level lip at the highest
  * sole point plus the gutter depth, and a plane field falling at the base fall to the lip.
  * The field's span is the outline's depth from the gutter line less the gutter width (the chord
@@ -100,7 +100,7 @@ export function gutterLayout(roof: Roof): Analysis["gutter"] {
 }
 
 /**
- * The option to weigh first (ROOF-METHOD.md §8): the whole roof as one plane falling at the base
+ * The option to weigh first (docs/roof-method.md §8): the whole roof as one plane falling at the base
  * fall to an open edge, here the edge of the first outlet (else the first eaves edge).
  */
 export function openEdgeOption(roof: Roof): Analysis["openEdge"] {

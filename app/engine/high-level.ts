@@ -2,7 +2,7 @@ import { chordThrough, chordsAt } from "./chords";
 import { nearestOnSegment } from "./geometry/segments";
 import type { Roof } from "./roof";
 
-/** A drain with the span of its joist: H ≥ level + span / N (ROOF-METHOD.md §3). */
+/** A drain with the span of its joist: H ≥ level + span / N (docs/roof-method.md §3). */
 export interface DrainSpan {
   kind: "outlet" | "eaves";
   /** Outlet index (request order) or internal eaves edge. */

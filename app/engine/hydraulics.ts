@@ -15,7 +15,7 @@ const G = 9.81;
 /**
  * Rough capacity of a round outlet in L/s: the smaller of weir flow over its rim (Francis,
  * Q = 1.84 L h^1.5, m³/s) and orifice flow through it (Q = 0.61 A √(2 g h)), from engineering
- * handbooks (CHECK-VALUES.md, Hydraulics). A check, not a product rating.
+ * handbooks (docs/check-values.md, Hydraulics). A check, not a product rating.
  */
 export function outletCapacity(diameter: number, head = DESIGN_HEAD): number {
   const weir = 1.84 * Math.PI * diameter * head ** 1.5;

@@ -5,7 +5,7 @@ import type { Joist, JoistSpan } from "./types";
 
 /**
  * Joist positions across the roof (frame u): first offset + k × spacing from the extreme edge,
- * the last one against the far wall (ROOF-METHOD.md §5).
+ * the last one against the far wall (docs/roof-method.md §5).
  */
 export function joistPositions(roof: Roof): Float64Array {
   const { umin, umax, spacing, offset } = roof;

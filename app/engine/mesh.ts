@@ -82,7 +82,7 @@ function mergeAway(accepted: ArrayLike<number>, candidates: ArrayLike<number>, g
 }
 
 /**
- * Meshes the outline on the joist structure (ROOF-METHOD.md §6): vertical slabs between mesh
+ * Meshes the outline on the joist structure (docs/roof-method.md §6): vertical slabs between mesh
  * lines (joist lines, vertex and knot positions) hold trapezoids; stations every `step` along each
  * line; each trapezoid is zipped between its two sides, so triangle areas sum exactly to the
  * outline's area. Levels: perimeter level on the outline, the chord rule inside.

@@ -25,7 +25,7 @@ export function outletsOnEdge(roof: Roof, j: number): [number, number][] {
 }
 
 /**
- * The "level rim" rule (ROOF-METHOD.md §2): eaves vertices at 0, outlet vertices at the outlet
+ * The "level rim" rule (docs/roof-method.md §2): eaves vertices at 0, outlet vertices at the outlet
  * level, other vertices at H; eaves edges level; an outlet edge rises from each outlet to H at
  * its ends and half-way to the next outlet on the same edge.
  */

@@ -12,7 +12,7 @@ export interface SpecIssue {
 
 export type Prepared = { ok: true; roof: Roof } | { ok: false; status: 400 | 422; issues: SpecIssue[] };
 
-/** Limits from ROOF-METHOD.md §1 and issue 4. */
+/** Limits from docs/roof-method.md §1 and issue 4. */
 export const LIMITS = {
   maxVertices: 200,
   maxArea: 100_000,
@@ -24,7 +24,7 @@ export const LIMITS = {
   minEdge: 0.001,
 } as const;
 
-/** Defaults that no code gives (CHECK-VALUES.md, "common practice, no source"). */
+/** Defaults that no code gives (docs/check-values.md, "common practice, no source"). */
 export const DEFAULTS = {
   joistSpacing: 0.4,
   outletSize: 0.1,

@@ -61,7 +61,7 @@ const ratioOfDegrees = (deg: number) => 1 / Math.tan((deg * Math.PI) / 180);
 // 1/4 in per 12 in, as a ratio N.
 const QUARTER_INCH_PER_FOOT = 12 / 0.25;
 
-/** Sources: CHECK-VALUES.md, "Falls and gutters in published codes". */
+/** Sources: docs/check-values.md, "Falls and gutters in published codes". */
 export const RULE_SETS: Readonly<Record<RuleSetId, RuleSet>> = {
   "common-practice": {
     id: "common-practice",

@@ -20,7 +20,7 @@ const fall = z.union([z.string(), z.number()], { error: "must be a fall such as 
   }),
 );
 
-/** The request body of POST /api/v1/analyses, checked for shape and ranges (ROOF-METHOD.md §9). */
+/** The request body of POST /api/v1/analyses, checked for shape and ranges (docs/roof-method.md §9). */
 export const roofSpecSchema = z.object({
   // One extra vertex is allowed for a repeated closing point, dropped on normalising.
   outline: z

@@ -3,7 +3,7 @@ import { nearestOnSegment } from "./geometry/segments";
 import { levelOnEdge, type PerimeterLevels } from "./perimeter";
 import type { Roof } from "./roof";
 
-/** Level along a chord at v: linear between its end levels (the chord rule, ROOF-METHOD.md §4). */
+/** Level along a chord at v: linear between its end levels (the chord rule, docs/roof-method.md §4). */
 export function chordLevel(levels: PerimeterLevels, c: Chord, v: number): number {
   const zA = levelOnEdge(levels, c.edgeA, c.tA);
   const zB = levelOnEdge(levels, c.edgeB, c.tB);

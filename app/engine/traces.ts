@@ -26,7 +26,7 @@ export function drainLabel(roof: Roof, routing: Routing, id: number): string {
 export const MAX_TRACE_POINTS = 4_000;
 
 /**
- * Flow traces by steepest descent on the mesh (ROOF-METHOD.md §7) from a seed grid: each follows
+ * Flow traces by steepest descent on the mesh (docs/roof-method.md §7) from a seed grid: each follows
  * the downhill neighbour chain, which runs along a parapet when it meets one, to an outlet,
  * an eaves edge or a pit.
  */

@@ -16,7 +16,7 @@ function levelOnSide(roof: Roof, levels: PerimeterLevels, chords: Chord[], u: nu
 /**
  * On a non-convex outline, the chords either side of a line through a re-entrant corner differ
  * in length, so the surface jumps there and twists sharply between the two joists that straddle
- * it (ROOF-METHOD.md §4). Reports each such place with the level difference between those joists.
+ * it (docs/roof-method.md §4). Reports each such place with the level difference between those joists.
  */
 export function twistWarnings(roof: Roof, levels: PerimeterLevels, joists: Float64Array): Warning[] {
   if (roof.convex) return [];

@@ -5,7 +5,7 @@ import type { RuleSetId, UsedRule } from "./rule-sets";
 export type Point = [number, number];
 export type EdgeKind = "parapet" | "eaves";
 
-/** The roof spec: the request body of POST /api/v1/analyses (ROOF-METHOD.md §1, §9). */
+/** The roof spec: the request body of POST /api/v1/analyses (docs/roof-method.md §1, §9). */
 export interface RoofSpec {
   outline: Point[];
   /** One kind per edge, edge i running from vertex i to vertex i+1. Default: all parapet. */
@@ -72,7 +72,7 @@ export interface JoistSpan {
   /** Drop below the high level at each end: what a builder sets at the bearing. */
   startDrop: number;
   endDrop: number;
-  /** Its own fall as 1:N (ROOF-METHOD.md §5); null when the span is level. */
+  /** Its own fall as 1:N (docs/roof-method.md §5); null when the span is level. */
   ratio: number | null;
 }
 

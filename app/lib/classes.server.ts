@@ -1,6 +1,6 @@
 /**
  * Classes: who may see which class, its roster, pending invitations and assignments.
- * The rule (PRODUCT.md capability 5): trainers see their own classes and those classes'
+ * The rule (docs/product.md capability 5): trainers see their own classes and those classes'
  * trainees; trainees see the classes they belong to; admins see every class of their
  * organisation. Anything else answers 404, so ids of other classes reveal nothing.
  */

@@ -1,5 +1,5 @@
 /**
- * Shared habits of the JSON API (QUALITY.md, Security and Reliability): one error shape
+ * Shared habits of the JSON API (docs/security.md and docs/api.md, Conventions): one error shape
  * `{error: {message, issues: [{path, message}]}}`, writes only as application/json (415),
  * bodies capped before they are parsed (413), 401 rather than a redirect when signed out.
  */

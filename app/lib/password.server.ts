@@ -1,6 +1,6 @@
 import bcrypt from "bcryptjs";
 
-/** bcrypt work factor for new hashes (QUALITY.md asks for at least 10; ASVS 4.0.3 2.4.4). */
+/** bcrypt work factor for new hashes (docs/security.md, Passwords: at least 10; ASVS 4.0.3 2.4.4). */
 export const BCRYPT_COST = 12;
 export const PASSWORD_MIN_LENGTH = 8;
 /** bcrypt reads only the first 72 bytes: longer passwords would be silently truncated. */

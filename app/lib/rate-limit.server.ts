@@ -18,7 +18,7 @@ export interface HitResult {
   retryAfter: number;
 }
 
-/** The figures QUALITY.md (Security) holds us to, plus the API's request budget. */
+/** The figures docs/security.md holds us to, plus the API's request budget. */
 export const LIMITS = {
   signInAccount: { limit: 10, windowSeconds: 15 * 60 },
   signInIp: { limit: 10, windowSeconds: 60 },

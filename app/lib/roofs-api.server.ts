@@ -8,8 +8,10 @@ import { ROOF_FILE_MAX_BYTES } from "~/lib/roof-file";
 
 export const ROOF_BODY_LIMIT = ROOF_FILE_MAX_BYTES;
 
-const createSchema = z.object({ name: roofNameSchema, spec: z.unknown() }, { error: "must be an object {name, spec}" });
-const updateSchema = z.object(
+/** Body of POST /api/v1/roofs (the spec is then checked by the engine); also in the OpenAPI document. */
+export const roofCreateSchema = z.object({ name: roofNameSchema, spec: z.unknown() }, { error: "must be an object {name, spec}" });
+/** Body of PUT /api/v1/roofs/:id; also in the OpenAPI document. */
+export const roofUpdateSchema = z.object(
   {
     name: roofNameSchema.optional(),
     spec: z.unknown().optional(),
@@ -22,7 +24,7 @@ export type RoofWrite = { ok: true; name?: string; spec?: unknown; version?: num
 
 /** Shape first (400), then the spec through the engine's parseSpec (400 malformed / 422 cannot be built). */
 export function parseRoofWrite(body: unknown, mode: "create" | "update"): RoofWrite {
-  const shaped = (mode === "create" ? createSchema : updateSchema).safeParse(body);
+  const shaped = (mode === "create" ? roofCreateSchema : roofUpdateSchema).safeParse(body);
   if (!shaped.success) return { ok: false, response: jsonError(400, "The request body is malformed.", zodIssues(shaped.error.issues)) };
   const value = shaped.data as { name?: string; spec?: unknown; version?: number };
   if (mode === "create" && !("spec" in (body as object))) {

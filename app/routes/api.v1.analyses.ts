@@ -14,7 +14,7 @@ export function loader() {
 }
 
 /**
- * POST /api/v1/analyses: a roof spec in, its analysis out (ROOF-METHOD.md §9). Open to anonymous
+ * POST /api/v1/analyses: a roof spec in, its analysis out (docs/roof-method.md §9). Open to anonymous
  * visitors, limited per address. 415 unless JSON, 413 over 256 kB (counted as it is read), 400
  * malformed, 422 cannot be built, 429 too many; never 500. The bulky 3D mesh and flow traces
  * come only on request (`?mesh=true`, `?traces=true`): the sandbox builds its own in a worker,

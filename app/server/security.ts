@@ -1,7 +1,7 @@
 import { randomBytes } from "node:crypto";
 import type { NextFunction, Request, Response } from "express";
 
-/** Headers on every response (QUALITY.md, Security): CSP with a per-request nonce and friends. */
+/** Headers on every response (docs/security.md, Headers on every response): CSP with a per-request nonce and friends. */
 export function securityHeaders({ production }: { production: boolean }) {
   return (_req: Request, res: Response, next: NextFunction) => {
     const nonce = randomBytes(16).toString("base64");

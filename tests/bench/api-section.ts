@@ -1,7 +1,7 @@
 /**
  * API throughput: POST /api/v1/analyses on a small roof against GET /api/v1 (a trivial JSON
  * answer) on the same production server in the same run. The server is pinned to one core and
- * the load generator to the other where `taskset` allows (QUALITY.md: ratio ≥ 0.5). The routes
+ * the load generator to the other where `taskset` allows (docs/quality.md, Performance: ratio ≥ 0.5). The routes
  * take turns in half-second windows (BENCH_API_ROUNDS of them, BENCH_API_SECONDS in all), so
  * other work on a shared machine slows each about equally; the ratio reported is the median of
  * the rounds' ratios, with the middle half of them beside it to show the spread.

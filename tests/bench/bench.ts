@@ -1,5 +1,5 @@
 /**
- * `npm run bench`: performance figures as shares of one 16.7 ms frame (QUALITY.md, Performance).
+ * `npm run bench`: performance figures as shares of one 16.7 ms frame (docs/quality.md, Performance).
  * Sections run in order and each prints its own table; a section is a function returning rows,
  * so more sections (the API's requests/s) append to SECTIONS below.
  */

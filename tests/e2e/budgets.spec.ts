@@ -1,7 +1,7 @@
 import { gzipSync } from "node:zlib";
 import { expect, test, type Page } from "@playwright/test";
 
-// Budgets from QUALITY.md (Performance → Pages): gzip kB of all the JavaScript a page loads to
+// Budgets from docs/quality.md (Performance → Pages): gzip kB of all the JavaScript a page loads to
 // open, its Web Workers' scripts included (the sandbox's engine runs in one). Code a page loads
 // later on demand (the drop schedule's table when it scrolls into view) is not counted.
 const BUDGETS: { path: string; kb: number; three: boolean }[] = [

@@ -45,7 +45,7 @@ test("a trainee passes the quiz, fails the roof task, moves the outlet and passe
   }
   const fallLine = page.getByTestId("feedback-task-fall-line");
   await expect(fallLine).toContainText("Not met");
-  // Hand check (ROOF-METHOD.md §3, §7): H = 9 m / 60 = 150 mm; the far corner is 20.12 m away → 1:134.2.
+  // Hand check (docs/roof-method.md §3, §7): H = 9 m / 60 = 150 mm; the far corner is 20.12 m away → 1:134.2.
   await expect(fallLine).toContainText("1:134.2 over 20.1 m");
   // 4 quiz points + 0 of 3 + 1 + 1 task points = 6 of 9.
   await expect(summary).toContainText("66.7");

@@ -2,7 +2,7 @@ import fs from "node:fs";
 import { expect, test, type Page } from "@playwright/test";
 
 // Demo roof (components/sandbox/demo-roof.ts): 12 m × 8 m, one outlet at (6, 0), base fall 2°.
-// ROOF-METHOD.md §3/§4: H = base fall × the chord through the outlet, so 8 m × tan 2° = 279 mm.
+// docs/roof-method.md §3/§4: H = base fall × the chord through the outlet, so 8 m × tan 2° = 279 mm.
 const H_DEMO = "279 mm";
 
 async function openSandbox(page: Page) {
@@ -132,7 +132,7 @@ test("sandbox: side-by-side shows the three layouts and the comparison figures",
   await expect(page.getByTestId("panel-shaped")).toBeVisible();
   await expect(page.getByTestId("panel-gutter")).toContainText("H 379 mm");
   await expect(page.getByTestId("panel-open-edge")).toBeVisible();
-  // Gutter layout (ROOF-METHOD.md §8): lip = 60 mm sole + 50 mm depth, field 7.7 m at 2° → 379 mm; saves 100 mm.
+  // Gutter layout (docs/roof-method.md §8): lip = 60 mm sole + 50 mm depth, field 7.7 m at 2° → 379 mm; saves 100 mm.
   await expect(page.getByTestId("height-saved")).toHaveText("100 mm");
   await drawnShare(page, "panel-gutter");
   await drawnShare(page, "panel-shaped");

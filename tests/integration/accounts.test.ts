@@ -12,7 +12,7 @@ import { createInvitation } from "~/lib/invitations.server";
 import { hashCost } from "~/lib/password.server";
 import { RESET_REQUESTED } from "~/lib/password-reset.server";
 
-// QUALITY.md, Security; OWASP ASVS 4.0.3 2.1.x, 2.2.1, 2.5.x, 3.3.x and 5.0 6.3.8.
+// docs/security.md; OWASP ASVS 4.0.3 2.1.x, 2.2.1, 2.5.x, 3.3.x and 5.0 6.3.8.
 const database = useTestDatabase();
 
 async function signIn(email: string, password: string, ip = "192.0.2.10") {

@@ -13,7 +13,7 @@ import * as follow from "~/routes/classes.$id.follow";
 import * as review from "~/routes/attempts.$id.review";
 import { closeListeners } from "~/lib/live.server";
 
-// PRODUCT.md capability 5; QUALITY.md, Security → Authorisation (another user's record id answers 403/404).
+// docs/product.md capability 5; docs/security.md, Permissions by role (another user's record id answers 403/404).
 const database = useTestDatabase();
 const LESSON = "zz-classes-test";
 

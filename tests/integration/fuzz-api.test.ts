@@ -3,8 +3,9 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createDatabaseFromTemplate, dropDatabase } from "../support/db";
 import { startServer, type RunningServer } from "../support/server";
 import { allRoutePaths } from "../support/routes";
+import { checkApiResponse } from "../support/openapi";
 
-// QUALITY.md, Reliability → Bad input: every JSON route, random and hostile JSON, never 500.
+// docs/quality.md, Reliability → Bad input: every JSON route, random and hostile JSON, never 500.
 const ALLOWED = new Set([200, 201, 204, 400, 401, 403, 404, 405, 409, 413, 415, 422, 429]);
 const UUID = "00000000-0000-4000-8000-000000000000";
 
@@ -76,6 +77,8 @@ describe("JSON API fuzzing", () => {
           body: method === "GET" ? undefined : payload,
           redirect: "manual",
         });
+        // Hostile input too gets only answers the OpenAPI document describes.
+        await checkApiResponse(method, route, res);
         const text = await res.text();
         expect(ALLOWED.has(res.status) || (res.status >= 300 && res.status < 400), `${method} ${route} → ${res.status}: ${text.slice(0, 300)}`).toBe(true);
         expect(text).not.toMatch(/\bat [^\s]+ \(?[^\s]*\.(js|ts):\d+/);
@@ -90,8 +93,10 @@ describe("JSON API fuzzing", () => {
     const big = JSON.stringify({ outline: Array.from({ length: 40_000 }, (_, i) => [i, i]) });
     const r1 = await fetch(`${server.url}/api/v1/analyses`, { method: "POST", headers: { "Content-Type": "application/json" }, body: big });
     expect(r1.status).toBe(413);
+    await checkApiResponse("POST", "/api/v1/analyses", r1);
     const r2 = await fetch(`${server.url}/api/v1/analyses`, { method: "POST", headers: { "Content-Type": "text/plain" }, body: "{}" });
     expect(r2.status).toBe(415);
+    await checkApiResponse("POST", "/api/v1/analyses", r2);
     const alive = await fetch(`${server.url}/healthz`);
     expect(alive.status).toBe(200);
   });

@@ -3,7 +3,7 @@ import { createDatabaseFromTemplate, dropDatabase } from "../support/db";
 import { startServer, type RunningServer } from "../support/server";
 import { allRoutePaths } from "../support/routes";
 
-// QUALITY.md, Security → Headers on every response (OWASP ASVS 4.0.3 14.4.x).
+// docs/security.md, Headers on every response (OWASP ASVS 4.0.3 14.4.x).
 let server: RunningServer;
 let dbUrl: string;
 

@@ -114,7 +114,7 @@ describe("attempts API: grading on the server and statuses", () => {
     const failed = (await fail.json()).attempt;
     expect(failed.passed).toBe(false);
     const fallLine = failed.results.task.find((i: { id: string }) => i.id === "fall-line");
-    // CHECK: ROOF-METHOD.md §3 and §7 by hand - H = 9 m / 60 = 150 mm; corner outlet to the far corner 20.12 m → 1:134.2.
+    // CHECK: docs/roof-method.md §3 and §7 by hand - H = 9 m / 60 = 150 mm; corner outlet to the far corner 20.12 m → 1:134.2.
     expect(fallLine).toMatchObject({ passed: false, measured: expect.stringMatching(/^1:134\.2 over 20\.1 m, drop 150 mm$/) });
     expect(failed.results.quiz.every((q: { passed: boolean }) => q.passed)).toBe(true);
     // Quiz 4 of 4 + criteria 0 of 3, 1 of 1, 1 of 1: 6 of 9 points.

@@ -4,7 +4,7 @@ import { createDatabaseFromTemplate, dropDatabase } from "../support/db";
 import { startServer, type RunningServer } from "../support/server";
 import { DEMO_CLASS, SPEC, sseReader } from "../support/classes";
 
-// Classroom mode across app processes (PRODUCT.md capability 6): the trainer's change goes to
+// Classroom mode across app processes (docs/product.md capability 6): the trainer's change goes to
 // process A, a follower streams from process B; PostgreSQL NOTIFY carries it between them.
 let a: RunningServer;
 let b: RunningServer;

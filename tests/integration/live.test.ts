@@ -6,7 +6,7 @@ import { demoClassId, SPEC, sseReader } from "../support/classes";
 import * as live from "~/routes/classes.$id.live";
 import { closeListeners, LiveHub, liveHub, publishLiveState, readLiveState, type LiveContent, type LiveSnapshot } from "~/lib/live.server";
 
-// Classroom mode (PRODUCT.md capability 6): LISTEN/NOTIFY through PostgreSQL reaches every app process.
+// Classroom mode (docs/product.md capability 6): LISTEN/NOTIFY through PostgreSQL reaches every app process.
 const database = useTestDatabase();
 let classId: string;
 let trainer: string;
@@ -184,7 +184,7 @@ describe("GET /classes/:id/live (server-sent events)", () => {
     expect(get.status).toBe(405);
   });
 
-  it("never answers 500 to random or hostile bodies (QUALITY.md, Reliability → Bad input)", async () => {
+  it("never answers 500 to random or hostile bodies (docs/quality.md, Reliability → Bad input)", async () => {
     const num = fc.oneof(fc.constantFrom(0, -0, 1e308, -1e308, 5e-324, -1), fc.double({ noNaN: true, noDefaultInfinity: true }));
     const specLike = fc.record(
       { outline: fc.oneof(fc.array(fc.tuple(num, num), { maxLength: 8 }), fc.anything()), outlets: fc.anything(), baseFall: fc.oneof(fc.string(), num), joists: fc.anything() },

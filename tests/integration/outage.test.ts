@@ -7,7 +7,7 @@ import { clusterUrl, ensureCluster, ensureDatabase, startCluster, stopCluster, t
 import { ROOT } from "../support/build";
 import { freePort, startServer, type RunningServer } from "../support/server";
 
-// QUALITY.md, Reliability → Database down: 503 with Retry-After, then recovery without a restart.
+// docs/quality.md, Reliability → Database down: 503 with Retry-After, then recovery without a restart.
 // This file stops PostgreSQL, so it gets a cluster of its own and never touches the shared one;
 // that cluster keeps fsync on, since an immediate stop is a crash and must not lose commits.
 let info: ClusterInfo;

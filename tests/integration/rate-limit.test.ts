@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { useTestDatabase } from "../support/db";
 import { clearHits, hit, hitInMemory, limitApiRequest, undoHit } from "~/lib/rate-limit.server";
 
-// Counters live in PostgreSQL so that several app processes share them (QUALITY.md, Security → Brute force).
+// Counters live in PostgreSQL so that several app processes share them (docs/security.md, Sign-in and brute force).
 const database = useTestDatabase();
 
 describe("hit()", () => {

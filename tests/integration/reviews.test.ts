@@ -8,7 +8,7 @@ import * as classGradebook from "~/routes/classes.$id.gradebook";
 import * as gradebookCsv from "~/routes/classes.$id.gradebook-csv";
 import { reviewsForAttempt } from "~/lib/reviews.server";
 
-// PRODUCT.md capability 5: the trainer's comment and grade override, kept with who and when; the original kept.
+// docs/product.md capability 5: the trainer's comment and grade override, kept with who and when; the original kept.
 const database = useTestDatabase();
 const LESSON = "zz-review-test";
 const TITLE = "Review test lesson";

@@ -6,7 +6,7 @@ import * as one from "~/routes/api.v1.roofs.$id";
 import { createRoof, restoreRoof, updateRoof } from "~/lib/roofs.server";
 import type { SessionUser } from "~/lib/auth.server";
 
-// QUALITY.md Reliability (versions and 409, transactions) and Security (authorisation, 413/415).
+// docs/quality.md, Reliability (versions and 409, transactions); docs/security.md (permissions, body caps).
 const { db } = useTestDatabase();
 
 async function post(body: unknown, cookie?: string, headers?: Record<string, string>) {

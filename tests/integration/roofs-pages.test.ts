@@ -10,7 +10,7 @@ import * as one from "~/routes/api.v1.roofs.$id";
 import { jsonRequest } from "../support/roofs";
 import { ROOF_FILE_FORMAT } from "~/lib/roof-file";
 
-// Pages and form actions of the roof library: the same boundaries as the API (QUALITY.md, Authorisation).
+// Pages and form actions of the roof library: the same boundaries as the API (docs/security.md, Permissions by role).
 const { db } = useTestDatabase();
 
 function form(path: string, fields: Record<string, string | Blob>, cookie?: string) {

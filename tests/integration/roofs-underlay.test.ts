@@ -5,7 +5,7 @@ import { startServer } from "../support/server";
 import * as underlay from "~/routes/roofs.$id.underlay";
 import { createRoof } from "~/lib/roofs.server";
 
-// QUALITY.md Security → Uploads: 413, magic bytes, server keys, stored type + nosniff, access.
+// docs/security.md, Uploads: 413, magic bytes, server keys, stored type + nosniff, access.
 const { db } = useTestDatabase();
 
 async function roofOf(email: string, shared = false) {

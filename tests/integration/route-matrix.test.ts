@@ -4,9 +4,10 @@ import { useTestDatabase } from "../support/db";
 import { allRoutePaths } from "../support/routes";
 import { startServer, type RunningServer } from "../support/server";
 import { sessionCookie } from "../support/accounts";
+import { checkApiResponse } from "../support/openapi";
 
 /**
- * Route × role matrix (QUALITY.md, Security → Authorisation): every route in app/routes.ts,
+ * Route × role matrix (docs/security.md, Permissions by role): every route in app/routes.ts,
  * requested with GET by an anonymous visitor and by each role, against the production server.
  *
  * ADDING A ROUTE? Add a row to MATRIX below with the status each role should get. Dynamic
@@ -53,6 +54,8 @@ const MATRIX: Record<string, Case[]> = {
   // Home
   "/": [{ path: "/", expect: ALL(200) }],
   "/api/v1": [{ path: "/api/v1", expect: ALL(200), why: "the API index is public" }],
+  "/api/v1/openapi.json": [{ path: "/api/v1/openapi.json", expect: ALL(200), why: "the API description is public" }],
+  "/api/v1/docs": [{ path: "/api/v1/docs", expect: ALL(200), why: "the API description is public" }],
   "/api/v1/roofs": [{ path: "/api/v1/roofs", expect: s(401, 200, 200, 200, 200) }],
   "/api/v1/roofs/:id": [
     { path: "/api/v1/roofs/{uuid}", expect: s(401, 404, 404, 404, 404) },
@@ -157,6 +160,8 @@ async function statuses(path: string): Promise<Expect> {
   await Promise.all(
     WHO.map(async (who) => {
       const res = await fetch(server.url + path, { redirect: "manual", headers: cookies[who] ? { cookie: cookies[who]! } : {} });
+      // The JSON API's answers, whoever asks, are the ones its OpenAPI document describes.
+      if (path.startsWith("/api/v1")) await checkApiResponse("GET", path, res);
       await res.body?.cancel(); // event streams never end; the status is all we need
       out[who] = res.status;
     }),

@@ -11,7 +11,7 @@ import * as signup from "~/routes/signup";
 import { getOptionalUser, requirePermission, requireRole } from "~/lib/auth.server";
 import { sha256 } from "~/lib/tokens.server";
 
-// QUALITY.md, Security → Sessions (OWASP ASVS 4.0.3 3.2.1, 3.3.1, 3.3.2, 3.4.1-3.4.3).
+// docs/security.md, Sessions (OWASP ASVS 4.0.3 3.2.1, 3.3.1, 3.3.2, 3.4.1-3.4.3).
 const database = useTestDatabase();
 const k = () => database.db();
 

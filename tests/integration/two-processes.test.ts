@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createDatabaseFromTemplate, dropDatabase } from "../support/db";
 import { startServer, type RunningServer } from "../support/server";
 
-// Several app processes on one PostgreSQL (QUALITY.md; README "behind a load balancer"):
+// Several app processes on one PostgreSQL (docs/quality.md, Reliability → Several processes; README "behind a load balancer"):
 // sessions, rate limits and classroom mode live in the database, not in a process.
 let a: RunningServer;
 let b: RunningServer;

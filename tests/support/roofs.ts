@@ -2,6 +2,7 @@
 export { makePng } from "./png";
 import { db } from "~/lib/db.server";
 import { createSession } from "~/lib/session.server";
+import { checkApiResponse } from "./openapi";
 
 export const BASE = "http://localhost";
 
@@ -19,8 +20,17 @@ export async function cookieFor(email: string): Promise<string> {
 
 type RouteFn = (args: never) => unknown;
 
-/** Runs a loader or action as React Router would; a thrown Response (redirect, 401, 404) is returned. */
+/**
+ * Runs a loader or action as React Router would; a thrown Response (redirect, 401, 404) is
+ * returned. Every /api/v1 answer is checked against the OpenAPI document on the way.
+ */
 export async function call(fn: RouteFn, request: Request, params: Record<string, string> = {}): Promise<Response> {
+  const res = await run(fn, request, params);
+  await checkApiResponse(request.method, request.url, res);
+  return res;
+}
+
+async function run(fn: RouteFn, request: Request, params: Record<string, string>): Promise<Response> {
   let out: unknown;
   try {
     out = await fn({ request, params, context: {} } as never);

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { BCRYPT_COST, hashCost, hashPassword, passwordProblem, verifyPassword } from "~/lib/password.server";
 
-// QUALITY.md, Security → Passwords (OWASP ASVS 4.0.3 2.1.1, 2.1.7, 2.4.4; 5.0 6.2.x).
+// docs/security.md, Passwords (OWASP ASVS 4.0.3 2.1.1, 2.1.7, 2.4.4; 5.0 6.2.x).
 describe("password rules", () => {
   it("asks for 8 characters at least", () => {
     expect(passwordProblem("seven77")).toMatch(/at least 8/);

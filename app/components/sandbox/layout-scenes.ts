@@ -5,7 +5,7 @@ import { attachOutlet, edgeEnds, edgeKindsOf, edgeLength, signedArea } from "./s
 /**
  * Surfaces for the two layouts the side-by-side compares with the shaped roof. The engine gives
  * their figures, not their geometry, so the geometry is rebuilt here from the same rules
- * (ROOF-METHOD.md §8) and the engine's figures (lip level, high level, widths, falls):
+ * (docs/roof-method.md §8) and the engine's figures (lip level, high level, widths, falls):
  * - gutter layout: an internal gutter strip of the gutter width along each outlet edge, its sole
  *   rising from each outlet at the gutter fall; a level lip; the field a plane falling at the base
  *   fall to the lip (ridging half-way between two facing gutters);

@@ -21,7 +21,7 @@ export interface ScheduleRow {
 const r3 = (v: number) => Math.round(v * 1000) / 1000;
 const mm = (v: number) => Math.round(v * 1000);
 
-/** The drop schedule (ROOF-METHOD.md §5) flattened to rows, joists and spans numbered from 1. */
+/** The drop schedule (docs/roof-method.md §5) flattened to rows, joists and spans numbered from 1. */
 export function scheduleRows(joists: Analysis["shaped"]["joists"]): ScheduleRow[] {
   const rows: ScheduleRow[] = [];
   for (const j of joists) {

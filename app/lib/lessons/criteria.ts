@@ -50,7 +50,7 @@ const ratioOrLevel = (r: number | null | undefined): Measured =>
 const outletCatchments = (a: Analysis) => a.shaped.catchments.filter((c) => c.kind === "outlet");
 
 /**
- * Every criterion kind a task may use, measured on the engine's outputs (ROOF-METHOD.md §9 keys).
+ * Every criterion kind a task may use, measured on the engine's outputs (docs/roof-method.md §9 keys).
  * Ratios: a bigger N is a flatter fall, so "no flatter than 1:100" is ratio ≤ 100.
  */
 export const CRITERION_KINDS = {

@@ -10,6 +10,7 @@ vi.mock("~/lib/rate-limit.server", () => ({
 }));
 
 const { action, loader, ANALYSIS_BODY_LIMIT } = await import("~/routes/api.v1.analyses");
+const { checkApiResponse } = await import("../../support/openapi");
 
 const URL_ = "http://localhost/api/v1/analyses";
 const spec = { outline: [[0, 0], [20, 0], [20, 10], [0, 10]], outlets: [{ at: [10, 0] }], baseFall: "1:40" };
@@ -17,7 +18,12 @@ const spec = { outline: [[0, 0], [20, 0], [20, 10], [0, 10]], outlets: [{ at: [1
 function post(body: BodyInit | null, headers: Record<string, string> = { "Content-Type": "application/json" }, url = URL_) {
   return new Request(url, { method: "POST", body, headers, duplex: "half" } as RequestInit);
 }
-const call = (request: Request) => action({ request, context: {}, params: {} } as never) as Promise<Response>;
+// Every answer is also held to the OpenAPI document (tests/support/openapi.ts).
+async function call(request: Request): Promise<Response> {
+  const res = (await action({ request, context: {}, params: {} } as never)) as Response;
+  await checkApiResponse(request.method, request.url, res);
+  return res;
+}
 
 beforeEach(() => {
   limiter.next = null;
@@ -90,6 +96,7 @@ describe("POST /api/v1/analyses", () => {
   it("405 for GET", async () => {
     const res = loader() as Response;
     expect(res.status).toBe(405);
+    await checkApiResponse("GET", URL_, res);
     expect(res.headers.get("Allow")).toBe("POST");
   });
 });

@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { analyseSpec, close, RECT_20_10 } from "./helpers";
 
 /*
- * Exact cases worked by hand from ROOF-METHOD.md. Common to all: a 20 m × 10 m rectangle,
+ * Exact cases worked by hand from docs/roof-method.md. Common to all: a 20 m × 10 m rectangle,
  * outlets on the bottom edge (y = 0), base fall 1:40, joists 0.4 m apart along y (the inward
  * normal of the outlet edge), gutter defaults of the common-practice set: width 0.3 m,
  * depth 0.05 m, sole fall 1:100.

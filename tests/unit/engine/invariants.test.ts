@@ -9,7 +9,7 @@ import { prepareRoof } from "~/engine/prepare";
 import { meshAreas, parsedSpec, shoelace } from "./helpers";
 
 /*
- * Invariants on random valid roofs (STYLE.md, "Tests check invariants"): rectangles, convex
+ * Invariants on random valid roofs (docs/quality.md, Tests → Invariants): rectangles, convex
  * polygons and L-shapes, outlets on parapet edges (sometimes at a corner), sometimes an eaves
  * edge, sometimes outlets above the datum.
  */
@@ -90,7 +90,7 @@ function run(spec: RoofSpec, mesh = true): Analysis {
 }
 
 /**
- * The level-rim rule written out again from ROOF-METHOD.md §2, independently of the engine:
+ * The level-rim rule written out again from docs/roof-method.md §2, independently of the engine:
  * level at distance t (0..1) along edge e.
  */
 function rimRule(spec: RoofSpec, H: number, e: number, t: number): number {

@@ -6,7 +6,7 @@ import { analyseSpec, close, shoelace } from "./helpers";
 
 const math = create({ unitDependencies });
 
-describe("fall conversions (CHECK-VALUES.md, Trigonometry: derived)", () => {
+describe("fall conversions (docs/check-values.md, Trigonometry: derived)", () => {
   // ratio 1:N has slope 1/N, percent 100/N, angle atan(1/N).
   const table: [string, number, number, number][] = [
     ["1:40", 40, 2.5, 1.432],
@@ -74,11 +74,11 @@ describe("fall conversions (CHECK-VALUES.md, Trigonometry: derived)", () => {
   });
 });
 
-describe("warped bay (CHECK-VALUES.md, Warped bays: derived, bilinear z = a + bx + cy + dxy)", () => {
+describe("warped bay (docs/check-values.md, Warped bays: derived, bilinear z = a + bx + cy + dxy)", () => {
   // Joists 4 m long (along y) from a level wall at 0 mm to a beam dropping 50 mm at x = 0 and
   // 150 mm at x = 6. Built here as the bay x ∈ [0, 6] of a 9 m × 4 m roof: wall y = 0 at
   // H = 0.15 (given), corner outlet (6, 4) at 0, so the beam edge y = 4 falls 0.15 over 9 m and
-  // sits at 0.10 at x = 0. Levels relative to the wall are the CHECK-VALUES bay.
+  // sits at 0.10 at x = 0. Levels relative to the wall are the docs/check-values.md bay.
   const a = analyseSpec({
     outline: [[-3, 0], [6, 0], [6, 4], [-3, 4]],
     outlets: [{ at: [6, 4] }],
@@ -132,7 +132,7 @@ describe("warped bay (CHECK-VALUES.md, Warped bays: derived, bilinear z = a + bx
   });
 });
 
-describe("valley: two planes falling at right angles meet at s1·s2/√(s1² + s2²) (CHECK-VALUES.md, derived)", () => {
+describe("valley: two planes falling at right angles meet at s1·s2/√(s1² + s2²) (docs/check-values.md, derived)", () => {
   it("two 1:40 planes give a 1:56.6 valley", () => {
     const s = 1 / 40;
     close(1 / ((s * s) / Math.sqrt(2 * s * s)), 56.57, 0.005);
@@ -184,7 +184,7 @@ describe("design flow by the rational method (ASCE 7-05 Commentary C8, page)", (
   });
 });
 
-describe("rule sets against their cited clauses (CHECK-VALUES.md, Falls and gutters in published codes)", () => {
+describe("rule sets against their cited clauses (docs/check-values.md, Falls and gutters in published codes)", () => {
   it("IBC 1507.10.1-1507.15.1: 1/4 in per 12 in = 1:48 for membrane roofs (page)", () => {
     const v = RULE_SETS["us-ibc-2018"].values.fieldFall!;
     expect(v.value).toBe(48);

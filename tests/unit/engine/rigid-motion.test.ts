@@ -54,7 +54,7 @@ describe("an outlet on an edge that runs along the joists (collinear with its jo
       const a = analyseSpec(moved(spec, angle, tx, ty));
       // The joist line through (0, 5.7) is the edge x = 0, from y = 0 to y = 6: the span from the
       // outlet to its far end is 5.7 m (the near end is 0.3 m). Outlet 1's chord is x = 6 from
-      // y = 0 to 1.5: 1.5 m. H = max(5.7, 1.5) / 40 = 0.1425 m (ROOF-METHOD.md §3).
+      // y = 0 to 1.5: 1.5 m. H = max(5.7, 1.5) / 40 = 0.1425 m (docs/roof-method.md §3).
       close(a.shaped.highLevel, 5.7 / 40, 1e-9);
       // From the corner (0, 0) straight up the edge to (0, 5.7): 5.7 m, the longest.
       close(a.shaped.longestFallLine?.length, 5.7, 1e-9);

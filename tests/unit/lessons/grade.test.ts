@@ -246,7 +246,7 @@ describe("roof tasks graded by running the engine again", () => {
     hints: ["Middle of the front edge."],
   });
 
-  // Hand check (ROOF-METHOD.md §3, §7): H = 9 m / 60 = 150 mm; corner outlet → far corner 20.12 m → 1:134.2;
+  // Hand check (docs/roof-method.md §3, §7): H = 9 m / 60 = 150 mm; corner outlet → far corner 20.12 m → 1:134.2;
   // mid outlet → sqrt(9² + 9²) = 12.73 m → 1:84.9.
   it("fails the starting roof and passes the moved outlet, with measured figures", () => {
     const start = gradeTask(task, task.start);

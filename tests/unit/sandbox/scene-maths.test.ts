@@ -76,7 +76,7 @@ describe("contours", () => {
 });
 
 describe("levels read off the engine's mesh", () => {
-  it("match the engine's own probes (chord rule, ROOF-METHOD.md §4) within a millimetre", () => {
+  it("match the engine's own probes (chord rule, docs/roof-method.md §4) within a millimetre", () => {
     const points: [number, number][] = [[1, 1], [6, 4], [11.5, 7.5], [3.3, 0.2], [9.1, 6.6], [6, 0], [12, 8]];
     const { analysis } = analysed({ ...DEMO_ROOF, probes: points });
     const sampler = new MeshSampler(analysis.shaped.mesh!);
@@ -93,7 +93,7 @@ describe("comparison layouts rebuilt for drawing", () => {
   it("gutter layout: field rises from the engine's lip to the engine's high level; the sole starts at the outlet", () => {
     const g = gutterSurface(spec, analysis)!;
     expect(g).not.toBeNull();
-    // ROOF-METHOD.md §8 on this rectangle: H = lip + base fall × (8 m - gutter width).
+    // docs/roof-method.md §8 on this rectangle: H = lip + base fall × (8 m - gutter width).
     expect(g.high).toBeCloseTo(analysis.gutter.highLevel!, 9);
     expect(g.levelAt(6, 0)).toBeCloseTo(0, 12);
     expect(g.levelAt(6, 8)).toBeCloseTo(analysis.gutter.highLevel!, 9);

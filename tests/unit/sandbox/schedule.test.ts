@@ -25,7 +25,7 @@ describe("POST /sandbox/schedule.csv", () => {
     // Joists every 0.4 m across 12 m: 31 lines, one span each on a rectangle.
     expect(parsed.data).toHaveLength(31);
     const H = Math.round(8 * Math.tan((2 * Math.PI) / 180) * 1000);
-    // ROOF-METHOD.md §3: the joist through the outlet falls exactly at the base fall (2° = 1:28.6).
+    // docs/roof-method.md §3: the joist through the outlet falls exactly at the base fall (2° = 1:28.6).
     const through = parsed.data.find((r) => Number(r.offset_m) === 6)!;
     expect(through).toMatchObject({ start_level_mm: "0", end_level_mm: String(H), start_drop_below_H_mm: String(H), end_drop_below_H_mm: "0", fall: "1:28.6" });
     // The joist against the end wall lies on the level rim: level, no drop.

@@ -13,9 +13,9 @@ describe("engine client", () => {
     expect(engine.offMainThread).toBe(false);
     const outcome = await engine.analyse(DEMO_ROOF);
     expect(outcome.ok).toBe(true);
-    // ROOF-METHOD.md §4 rectangle: H = base fall × the chord through the outlet (8 m at 2°).
+    // docs/roof-method.md §4 rectangle: H = base fall × the chord through the outlet (8 m at 2°).
     if (outcome.ok) expect(outcome.analysis.shaped.highLevel).toBeCloseTo(8 * Math.tan((2 * Math.PI) / 180), 9);
-    // 2.5 % = 1:40 (CHECK-VALUES.md, trigonometry).
+    // 2.5 % = 1:40 (docs/check-values.md, trigonometry).
     expect(await engine.parseFall("2.5%")).toMatchObject({ ok: true, ratio: 40 });
     expect((await engine.parseFall("1:abc")).ok).toBe(false);
     expect((await engine.parseSpec({ outline: [] })).ok).toBe(false);
