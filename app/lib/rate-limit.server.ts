@@ -155,14 +155,17 @@ export function waitPhrase(seconds: number): string {
 }
 
 /**
- * Per-IP budget for the open analysis API (600 requests a minute). Unlike sign-in, this cap is
- * kept in each process's memory: it guards against a runaway script, it is generous, and a
- * database round trip per analysis would halve the API's throughput. With several processes
- * behind a load balancer the cap applies per process. Returns a 429 JSON response with
- * Retry-After, or null when the request may go ahead.
+ * Per-IP budget for the open analysis API, charged by work done: a request costs one unit up
+ * front and one more per 10 ms its analysis took in the worker (ANALYSIS_MS_PER_UNIT), against
+ * 600 units a minute (API_RATE_LIMIT_PER_MINUTE). Six hundred small roofs a minute fit, as a
+ * class behind one address needs; a two-second analysis costs 200 units, so three of them use up
+ * the address's minute. Unlike sign-in, this budget is kept in each process's memory: it guards
+ * against a runaway script, and a database round trip per analysis would halve the API's
+ * throughput. With several processes behind a load balancer the budget applies per process.
+ * Returns a 429 JSON response with Retry-After, or null when the request may go ahead.
  */
 export async function limitApiRequest(context: AppLoadContext | undefined | null): Promise<Response | null> {
-  const r = hitInMemory(`api:${clientIp(context)}`, LIMITS.api);
+  const r = hitInMemory(apiKey(context), LIMITS.api);
   if (r.ok) return null;
   return Response.json(
     { error: { message: `Too many requests from this address. Wait ${waitPhrase(r.retryAfter)} and try again.`, issues: [] } },
@@ -170,10 +173,23 @@ export async function limitApiRequest(context: AppLoadContext | undefined | null
   );
 }
 
+/** Milliseconds of worker time that cost one unit of the API budget. */
+export const ANALYSIS_MS_PER_UNIT = 10;
+
+/** Charges the work an analysis took, after the fact (the unit paid up front is not counted again). */
+export function chargeApiWork(context: AppLoadContext | undefined | null, workMs: number): number {
+  const units = Math.floor(Math.max(0, workMs) / ANALYSIS_MS_PER_UNIT);
+  if (units > 0) chargeInMemory(apiKey(context), LIMITS.api, units);
+  return units;
+}
+
+function apiKey(context: AppLoadContext | undefined | null) {
+  return `api:${clientIp(context)}`;
+}
+
 const windows = new Map<string, { start: number; count: number }>();
 
-/** Fixed-window counter in this process's memory (see limitApiRequest for why). */
-export function hitInMemory(key: string, { limit, windowSeconds }: Limit, now = Date.now()): HitResult {
+function windowFor(key: string, windowSeconds: number, now: number) {
   const size = windowSeconds * 1000;
   const start = Math.floor(now / size) * size;
   let w = windows.get(key);
@@ -182,7 +198,18 @@ export function hitInMemory(key: string, { limit, windowSeconds }: Limit, now = 
     w = { start, count: 0 };
     windows.set(key, w);
   }
+  return { w, start, size };
+}
+
+/** Fixed-window counter in this process's memory (see limitApiRequest for why). */
+export function hitInMemory(key: string, { limit, windowSeconds }: Limit, now = Date.now()): HitResult {
+  const { w, start, size } = windowFor(key, windowSeconds, now);
   if (w.count >= limit) return { ok: false, retryAfter: Math.max(1, Math.ceil((start + size - now) / 1000)) };
   w.count++;
   return { ok: true, retryAfter: 0 };
+}
+
+/** Adds `units` to the key's current window; the window may go over its limit (the next request waits). */
+export function chargeInMemory(key: string, { windowSeconds }: Limit, units: number, now = Date.now()): void {
+  windowFor(key, windowSeconds, now).w.count += units;
 }
