@@ -11,6 +11,7 @@ import { audit } from "~/lib/audit.server";
 import { db, isDbUnavailable } from "~/lib/db.server";
 import { hashPassword, needsRehash, verifyPassword } from "~/lib/password.server";
 import { can, type Permission, type Role } from "~/lib/permissions";
+import { noteUser } from "~/lib/request-context.server";
 import { clearHits, clientIp, hit, LIMITS, peekAll, waitPhrase } from "~/lib/rate-limit.server";
 import { clearSessionCookie, createSession, destroySession, findLiveSession, type LiveSession, type SessionUser } from "~/lib/session.server";
 
@@ -105,6 +106,7 @@ export async function signIn(request: Request, context?: AppLoadContext | null):
   }
   // A good sign-in forgets the account's earlier failures.
   await clearHits(accountKey.key);
+  noteUser(user.id);
   const setCookie = await createSession(request, user.id);
   await audit({ action: "sign_in", actorId: user.id, subjectId: user.id, ip });
   return { ok: true, user, setCookie };
@@ -126,7 +128,10 @@ const cache = new WeakMap<Request, Promise<LiveSession | null>>();
 export function getLiveSession(request: Request): Promise<LiveSession | null> {
   let found = cache.get(request);
   if (!found) {
-    found = findLiveSession(request);
+    found = findLiveSession(request).then((live) => {
+      noteUser(live?.user.id);
+      return live;
+    });
     cache.set(request, found);
   }
   return found;

@@ -27,10 +27,6 @@ const host = process.env.HOST ?? "127.0.0.1";
 const buildDir = path.resolve(root, process.env.FALLWRIGHT_BUILD_DIR ?? "build");
 const logger = log();
 
-// Start one thread in each pool now, so the first sign-in or analysis does not wait for it.
-pool("engine");
-pool("password");
-
 const app = express();
 app.disable("x-powered-by");
 app.set("trust proxy", process.env.TRUST_PROXY === "1" ? 1 : false);
@@ -113,6 +109,11 @@ app.use((error: unknown, req: Request, res: Response, _next: NextFunction) => {
 });
 
 const server = app.listen(port, host, () => {
+  // One thread in each pool, started once serving, so the first sign-in or analysis does not wait for it.
+  setTimeout(() => {
+    pool("engine");
+    pool("password");
+  }, 500).unref();
   logger.info({ url: `http://${host === "0.0.0.0" ? "localhost" : host}:${port}` }, `Fallwright is serving on http://${host === "0.0.0.0" ? "localhost" : host}:${port}`);
 });
 server.keepAliveTimeout = 65_000;

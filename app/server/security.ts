@@ -141,10 +141,10 @@ export function withCountedBody(req: Request, res: Response): Request {
     get(target, prop) {
       if (STREAM_KEYS.has(prop)) {
         const value = Reflect.get(body, prop) as unknown;
-        return typeof value === "function" ? (value as (...a: unknown[]) => unknown).bind(body) : value;
+        return typeof value === "function" ? Function.prototype.bind.call(value, body) : value;
       }
-      const value = Reflect.get(target, prop) as unknown;
-      return typeof value === "function" ? (value as (...a: unknown[]) => unknown).bind(target) : value;
+      // Getters run on the request itself; methods called through the proxy read through it.
+      return Reflect.get(target, prop) as unknown;
     },
   });
 }
