@@ -50,10 +50,14 @@ export function poolQueueLength(): Record<PoolName, number> {
   return { engine: pools.engine?.queueSize ?? 0, password: pools.password?.queueSize ?? 0 };
 }
 
+/** Tasks handed to the pools since start, by kind (tests check that sign-in ran exactly one compare). */
+export const tasksRun: Partial<Record<PoolTask["kind"], number>> = {};
+
 /** Runs a task; a full queue or a task past `timeoutMs` throws PoolBusy / PoolTimeout. */
 export async function runInPool(name: PoolName, task: PoolTask, timeoutMs?: number): Promise<PoolResult> {
   const p = pool(name);
   if (p.queueSize >= POOL_MAX_QUEUE) throw new PoolBusy();
+  tasksRun[task.kind] = (tasksRun[task.kind] ?? 0) + 1;
   try {
     return await p.run(task, timeoutMs ? { signal: AbortSignal.timeout(timeoutMs) } : undefined);
   } catch (error) {

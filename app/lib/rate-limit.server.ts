@@ -20,8 +20,11 @@ export interface HitResult {
 
 /** The figures QUALITY.md (Security) holds us to, plus the API's request budget. */
 export const LIMITS = {
+  // Guessing at one account: 10 failed sign-ins to it in 15 minutes, from anywhere.
   signInAccount: { limit: 10, windowSeconds: 15 * 60 },
-  signInIp: { limit: 10, windowSeconds: 60 },
+  // Spraying from one address: 30 failures in 15 minutes that were not followed by the same
+  // account's good sign-in from there (a typo put right is taken back), see auth.server signIn.
+  signInIp: { limit: 30, windowSeconds: 15 * 60 },
   resetAccount: { limit: 10, windowSeconds: 15 * 60 },
   resetIp: { limit: 10, windowSeconds: 60 },
   tokenUse: { limit: 10, windowSeconds: 15 * 60 },
@@ -105,6 +108,23 @@ export async function undoHit(key: string, { windowSeconds }: Pick<Limit, "windo
       where key = ? and window_start = to_timestamp(floor(extract(epoch from clock_timestamp()) / ?) * ?)`,
     [key, windowSeconds, windowSeconds],
   );
+}
+
+/**
+ * Takes back from `from` every attempt counted against `part` in the same windows, then forgets
+ * `part`: an account's failures from one address leave that address's count when the account
+ * signs in there successfully. Both keys must use the same window length.
+ */
+export async function takeBackHits(from: string, part: string): Promise<void> {
+  await db().transaction(async (trx) => {
+    await trx.raw(
+      `update rate_limits f set count = greatest(f.count - p.count, 0)
+         from rate_limits p
+        where p.key = ? and f.key = ? and f.window_start = p.window_start`,
+      [part, from],
+    );
+    await trx("rate_limits").where({ key: part }).delete();
+  });
 }
 
 /** Forgets every attempt counted against `key` (an account that just signed in successfully). */
