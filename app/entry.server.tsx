@@ -5,6 +5,8 @@ import { isRouteErrorResponse, ServerRouter } from "react-router";
 import { isbot } from "isbot";
 import { renderToPipeableStream, type RenderToPipeableStreamOptions } from "react-dom/server";
 import { isDbUnavailable } from "~/lib/db.server";
+import { log } from "~/lib/log.server";
+import { currentRequest } from "~/lib/request-context.server";
 
 export const streamTimeout = 5_000;
 
@@ -15,6 +17,8 @@ declare module "react-router" {
     dbUnavailable?: boolean;
     /** The client's address as the Express host sees it (rate limits, audit log). */
     clientIp?: string;
+    /** The id of this request in the logs (`X-Request-Id`), shown on error pages. */
+    requestId?: string;
   }
 }
 
@@ -71,7 +75,7 @@ export default function handleRequest(
         },
         onError(error: unknown) {
           responseStatusCode = 500;
-          if (shellRendered) console.error(error);
+          if (shellRendered) log().error({ reqId: currentRequest()?.id, err: error }, "render failed");
         },
       },
     );
@@ -82,8 +86,9 @@ export const handleError: HandleErrorFunction = (error, { request, context }) =>
   if (request.signal.aborted) return;
   if (isDbUnavailable(error)) {
     if (context && typeof context === "object") (context as { dbUnavailable?: boolean }).dbUnavailable = true;
-    console.warn(`[db] unavailable while serving ${new URL(request.url).pathname}`);
+    log().warn({ reqId: currentRequest()?.id }, "database unavailable");
     return;
   }
-  console.error(error);
+  // Logged once, here, with its stack and the request's id (the error page shows the same id).
+  log().error({ reqId: currentRequest()?.id, err: error }, "request failed");
 };

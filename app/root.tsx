@@ -1,9 +1,18 @@
 import { Links, Meta, Outlet, Scripts, ScrollRestoration } from "react-router";
 import type { Route } from "./+types/root";
-import { GeneralErrorBoundary } from "~/components/error-boundary";
+import { GeneralErrorBoundary, useMarkHydrated } from "~/components/error-boundary";
 import "./app.css";
 
 export const links: Route.LinksFunction = () => [{ rel: "icon", href: "/favicon.ico" }];
+
+/** The page load's request id, which the error page quotes; it names the load, so it is never revalidated. */
+export function loader({ context }: Route.LoaderArgs) {
+  return { requestId: context?.requestId ?? null };
+}
+
+export function shouldRevalidate() {
+  return false;
+}
 
 export function Layout({ children }: { children: React.ReactNode }) {
   return (
@@ -24,6 +33,7 @@ export function Layout({ children }: { children: React.ReactNode }) {
 }
 
 export default function App() {
+  useMarkHydrated();
   return <Outlet />;
 }
 

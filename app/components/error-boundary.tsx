@@ -1,4 +1,21 @@
-import { isRouteErrorResponse, Link, useRouteError } from "react-router";
+import { useEffect } from "react";
+import { isRouteErrorResponse, Link, useRouteError, useRouteLoaderData } from "react-router";
+
+let hydrated = false;
+
+/** Called by the root: after hydration an error comes from a later request, whose id this page does not know. */
+export function useMarkHydrated() {
+  useEffect(() => {
+    hydrated = true;
+  }, []);
+}
+
+/** What a user can quote: the failing page load's request id, or for a later request the time. */
+function useErrorReference(): string {
+  const root = useRouteLoaderData("root") as { requestId?: string | null } | undefined;
+  if (!hydrated && root?.requestId) return `reference ${root.requestId}`;
+  return `time ${new Date().toISOString().slice(0, 19).replace("T", " ")} UTC`;
+}
 
 const MESSAGES: Record<number, { title: string; body: string }> = {
   400: { title: "That request did not make sense", body: "Something in the request was malformed. Go back and try again." },
@@ -19,12 +36,18 @@ export function GeneralErrorBoundary() {
   } else if (import.meta.env.DEV && error instanceof Error) {
     detail = error.stack;
   }
+  const reference = useErrorReference();
   const msg = MESSAGES[status] ?? { title: "Something went wrong on our side", body: "The error has been logged. Try again, and tell your trainer or admin if it keeps happening." };
   return (
     <section className="card" role="alert">
       <p className="text-sm font-medium text-ink-soft">Error {status}</p>
       <h1 className="mt-1 text-2xl font-bold">{msg.title}</h1>
       <p className="mt-2">{msg.body}</p>
+      {status >= 500 ? (
+        <p className="mt-2 text-sm text-ink-soft">
+          If you report this, quote the <span data-testid="error-reference">{reference}</span>.
+        </p>
+      ) : null}
       {detail ? <pre className="mt-4 overflow-auto whitespace-pre-wrap text-xs text-ink-soft">{detail}</pre> : null}
       <p className="mt-4"><Link className="underline" to="/">Go to Home</Link></p>
     </section>

@@ -11,7 +11,8 @@ import { audit } from "~/lib/audit.server";
 import { db, isDbUnavailable } from "~/lib/db.server";
 import { hashPassword, needsRehash, verifyPassword } from "~/lib/password.server";
 import { can, type Permission, type Role } from "~/lib/permissions";
-import { clearHits, clientIp, hit, LIMITS, peekAll, waitPhrase } from "~/lib/rate-limit.server";
+import { noteUser } from "~/lib/request-context.server";
+import { clearHits, clientIp, hit, LIMITS, peek, takeBackHits, waitPhrase } from "~/lib/rate-limit.server";
 import { clearSessionCookie, createSession, destroySession, findLiveSession, type LiveSession, type SessionUser } from "~/lib/session.server";
 
 export type { SessionUser } from "~/lib/session.server";
@@ -81,8 +82,17 @@ export async function signIn(request: Request, context?: AppLoadContext | null):
   const ip = clientIp(context);
   const accountKey = { key: `signin:account:${email}`, ...LIMITS.signInAccount };
   const ipKey = { key: `signin:ip:${ip}`, ...LIMITS.signInIp };
-  // Checked before bcrypt runs; only failures are counted (below).
-  const limited = await peekAll([accountKey, ipKey]);
+  // This account's failures from this address, so its good sign-in here can take them back.
+  const pairKey = { key: `signin:ip-account:${ip}:${email}`, ...LIMITS.signInIp };
+  // Checked before bcrypt runs; only failures are counted (below). The account's limit always
+  // holds. The address's limit stops spraying, yet an account that has signed in from this
+  // address before is still let through to the password check: a class behind one address
+  // is not locked out by someone spraying, or by its own typos, from the same network.
+  let limited = await peek(accountKey.key, accountKey);
+  if (limited.ok) {
+    const fromIp = await peek(ipKey.key, ipKey);
+    if (!fromIp.ok && !(await signedInFromHereBefore(email, ip))) limited = fromIp;
+  }
   if (!limited.ok) {
     await audit({ action: "sign_in_limited", detail: { email }, ip });
     return {
@@ -100,14 +110,30 @@ export async function signIn(request: Request, context?: AppLoadContext | null):
     if (!(error instanceof InvalidCredentials)) throw error;
     await hit(accountKey.key, accountKey);
     await hit(ipKey.key, ipKey);
+    await hit(pairKey.key, pairKey);
     await audit({ action: "sign_in_failed", subjectId: error.userId, detail: { email }, ip });
     return { ok: false, status: 400, email: typed, formError: SIGN_IN_FAILED };
   }
-  // A good sign-in forgets the account's earlier failures.
+  // A good sign-in forgets the account's earlier failures, and takes its failures from this
+  // address back from the address's count (a typo put right is not spraying).
+  await takeBackHits(ipKey.key, pairKey.key);
   await clearHits(accountKey.key);
+  noteUser(user.id);
   const setCookie = await createSession(request, user.id);
   await audit({ action: "sign_in", actorId: user.id, subjectId: user.id, ip });
   return { ok: true, user, setCookie };
+}
+
+/** Whether this e-mail's account signed in successfully from this address in the last 30 days (audit log). */
+async function signedInFromHereBefore(email: string, ip: string): Promise<boolean> {
+  const row = await db()("audit_log as a")
+    .join("users as u", "u.id", "a.subject_id")
+    .whereRaw("lower(u.email) = ?", [email])
+    .andWhere("a.action", "sign_in")
+    .andWhere("a.ip", ip)
+    .andWhereRaw("a.at > now() - interval '30 days'")
+    .first("a.id");
+  return Boolean(row);
 }
 
 /** Ends the request's session; returns the Set-Cookie header that clears the cookie. */
@@ -126,7 +152,10 @@ const cache = new WeakMap<Request, Promise<LiveSession | null>>();
 export function getLiveSession(request: Request): Promise<LiveSession | null> {
   let found = cache.get(request);
   if (!found) {
-    found = findLiveSession(request);
+    found = findLiveSession(request).then((live) => {
+      noteUser(live?.user.id);
+      return live;
+    });
     cache.set(request, found);
   }
   return found;

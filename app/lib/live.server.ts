@@ -32,6 +32,22 @@ export interface LiveSnapshot {
 
 export type LiveListener = (snapshot: LiveSnapshot) => void;
 
+const encoder = new TextEncoder();
+const frames = new WeakMap<LiveSnapshot, Uint8Array>();
+
+/**
+ * The server-sent event for a snapshot, serialised and encoded once per update however many
+ * followers it goes to: the hub hands the same snapshot object to every listener.
+ */
+export function liveFrame(snap: LiveSnapshot): Uint8Array {
+  let bytes = frames.get(snap);
+  if (!bytes) {
+    bytes = encoder.encode(`id: ${snap.seq}\nevent: state\ndata: ${JSON.stringify({ seq: snap.seq, state: snap.state })}\n\n`);
+    frames.set(snap, bytes);
+  }
+  return bytes;
+}
+
 export async function readLiveState(classId: string): Promise<LiveSnapshot | null> {
   const row = await db()("classes").where({ id: classId }).first("live_seq", "live_state");
   return row ? { classId, seq: row.live_seq, state: row.live_state ?? null } : null;
@@ -81,6 +97,13 @@ export class LiveHub {
   connections = 0;
 
   constructor(private readonly options: HubOptions) {}
+
+  /** Followers (open event streams) of any class in this process, for /metrics. */
+  get subscriberCount(): number {
+    let n = 0;
+    for (const set of this.subs.values()) n += set.size;
+    return n;
+  }
 
   get listening(): boolean {
     return this.client !== null && this.connecting === null;

@@ -1,4 +1,4 @@
-import bcrypt from "bcryptjs";
+import { runInPool } from "~/lib/pool.server";
 
 /** bcrypt work factor for new hashes (docs/security.md, Passwords: at least 10; ASVS 4.0.3 2.4.4). */
 export const BCRYPT_COST = 12;
@@ -30,8 +30,22 @@ export function passwordProblem(password: string, context: { email?: string } = 
   return null;
 }
 
+// bcrypt at cost 12 is about 300 ms of CPU by design: it runs in the password worker pool
+// (app/lib/pool.server.ts) so a sign-in never stalls the other requests.
+async function bcryptHash(password: string, cost: number): Promise<string> {
+  const r = await runInPool("password", { kind: "hash", password, cost });
+  if (r.kind !== "text") throw new Error("password worker gave no hash");
+  return r.text;
+}
+
+async function bcryptCompare(password: string, hash: string): Promise<boolean> {
+  const r = await runInPool("password", { kind: "compare", password, hash });
+  if (r.kind !== "boolean") throw new Error("password worker gave no answer");
+  return r.value;
+}
+
 export function hashPassword(password: string): Promise<string> {
-  return bcrypt.hash(password, BCRYPT_COST);
+  return bcryptHash(password, BCRYPT_COST);
 }
 
 /** The cost recorded in a bcrypt hash ("$2b$12$..." → 12), or 0 when it is not a bcrypt hash. */
@@ -49,11 +63,11 @@ let dummyHash: Promise<string> | undefined;
 export async function verifyPassword(password: string, hash: string | null | undefined): Promise<boolean> {
   const tooLong = Buffer.byteLength(password, "utf8") > PASSWORD_MAX_BYTES;
   if (!hash || tooLong) {
-    dummyHash ??= bcrypt.hash("not-a-real-password-for-timing", BCRYPT_COST);
-    await bcrypt.compare(password, await dummyHash);
+    dummyHash ??= bcryptHash("not-a-real-password-for-timing", BCRYPT_COST);
+    await bcryptCompare(password, await dummyHash);
     return false;
   }
-  return bcrypt.compare(password, hash);
+  return bcryptCompare(password, hash);
 }
 
 export function needsRehash(hash: string): boolean {

@@ -20,8 +20,11 @@ export interface HitResult {
 
 /** The figures docs/security.md holds us to, plus the API's request budget. */
 export const LIMITS = {
+  // Guessing at one account: 10 failed sign-ins to it in 15 minutes, from anywhere.
   signInAccount: { limit: 10, windowSeconds: 15 * 60 },
-  signInIp: { limit: 10, windowSeconds: 60 },
+  // Spraying from one address: 30 failures in 15 minutes that were not followed by the same
+  // account's good sign-in from there (a typo put right is taken back), see auth.server signIn.
+  signInIp: { limit: 30, windowSeconds: 15 * 60 },
   resetAccount: { limit: 10, windowSeconds: 15 * 60 },
   resetIp: { limit: 10, windowSeconds: 60 },
   tokenUse: { limit: 10, windowSeconds: 15 * 60 },
@@ -107,6 +110,23 @@ export async function undoHit(key: string, { windowSeconds }: Pick<Limit, "windo
   );
 }
 
+/**
+ * Takes back from `from` every attempt counted against `part` in the same windows, then forgets
+ * `part`: an account's failures from one address leave that address's count when the account
+ * signs in there successfully. Both keys must use the same window length.
+ */
+export async function takeBackHits(from: string, part: string): Promise<void> {
+  await db().transaction(async (trx) => {
+    await trx.raw(
+      `update rate_limits f set count = greatest(f.count - p.count, 0)
+         from rate_limits p
+        where p.key = ? and f.key = ? and f.window_start = p.window_start`,
+      [part, from],
+    );
+    await trx("rate_limits").where({ key: part }).delete();
+  });
+}
+
 /** Forgets every attempt counted against `key` (an account that just signed in successfully). */
 export async function clearHits(key: string): Promise<void> {
   await db()("rate_limits").where({ key }).delete();
@@ -155,14 +175,17 @@ export function waitPhrase(seconds: number): string {
 }
 
 /**
- * Per-IP budget for the open analysis API (600 requests a minute). Unlike sign-in, this cap is
- * kept in each process's memory: it guards against a runaway script, it is generous, and a
- * database round trip per analysis would halve the API's throughput. With several processes
- * behind a load balancer the cap applies per process. Returns a 429 JSON response with
- * Retry-After, or null when the request may go ahead.
+ * Per-IP budget for the open analysis API, charged by work done: a request costs one unit up
+ * front and one more per 10 ms its analysis took in the worker (ANALYSIS_MS_PER_UNIT), against
+ * 600 units a minute (API_RATE_LIMIT_PER_MINUTE). Six hundred small roofs a minute fit, as a
+ * class behind one address needs; a two-second analysis costs 200 units, so three of them use up
+ * the address's minute. Unlike sign-in, this budget is kept in each process's memory: it guards
+ * against a runaway script, and a database round trip per analysis would halve the API's
+ * throughput. With several processes behind a load balancer the budget applies per process.
+ * Returns a 429 JSON response with Retry-After, or null when the request may go ahead.
  */
 export async function limitApiRequest(context: AppLoadContext | undefined | null): Promise<Response | null> {
-  const r = hitInMemory(`api:${clientIp(context)}`, LIMITS.api);
+  const r = hitInMemory(apiKey(context), LIMITS.api);
   if (r.ok) return null;
   return Response.json(
     { error: { message: `Too many requests from this address. Wait ${waitPhrase(r.retryAfter)} and try again.`, issues: [] } },
@@ -170,10 +193,23 @@ export async function limitApiRequest(context: AppLoadContext | undefined | null
   );
 }
 
+/** Milliseconds of worker time that cost one unit of the API budget. */
+export const ANALYSIS_MS_PER_UNIT = 10;
+
+/** Charges the work an analysis took, after the fact (the unit paid up front is not counted again). */
+export function chargeApiWork(context: AppLoadContext | undefined | null, workMs: number): number {
+  const units = Math.floor(Math.max(0, workMs) / ANALYSIS_MS_PER_UNIT);
+  if (units > 0) chargeInMemory(apiKey(context), LIMITS.api, units);
+  return units;
+}
+
+function apiKey(context: AppLoadContext | undefined | null) {
+  return `api:${clientIp(context)}`;
+}
+
 const windows = new Map<string, { start: number; count: number }>();
 
-/** Fixed-window counter in this process's memory (see limitApiRequest for why). */
-export function hitInMemory(key: string, { limit, windowSeconds }: Limit, now = Date.now()): HitResult {
+function windowFor(key: string, windowSeconds: number, now: number) {
   const size = windowSeconds * 1000;
   const start = Math.floor(now / size) * size;
   let w = windows.get(key);
@@ -182,7 +218,18 @@ export function hitInMemory(key: string, { limit, windowSeconds }: Limit, now = 
     w = { start, count: 0 };
     windows.set(key, w);
   }
+  return { w, start, size };
+}
+
+/** Fixed-window counter in this process's memory (see limitApiRequest for why). */
+export function hitInMemory(key: string, { limit, windowSeconds }: Limit, now = Date.now()): HitResult {
+  const { w, start, size } = windowFor(key, windowSeconds, now);
   if (w.count >= limit) return { ok: false, retryAfter: Math.max(1, Math.ceil((start + size - now) / 1000)) };
   w.count++;
   return { ok: true, retryAfter: 0 };
+}
+
+/** Adds `units` to the key's current window; the window may go over its limit (the next request waits). */
+export function chargeInMemory(key: string, { windowSeconds }: Limit, units: number, now = Date.now()): void {
+  windowFor(key, windowSeconds, now).w.count += units;
 }

@@ -1,10 +1,17 @@
 import type { Route } from "./+types/api.v1.analyses";
-import { analyseRoof, parseRoofSpec } from "~/engine";
 import { jsonError, readJsonBody } from "~/lib/json-api.server";
-import { limitApiRequest } from "~/lib/rate-limit.server";
+import { log } from "~/lib/log.server";
+import { metrics } from "~/lib/metrics.server";
+import { PoolBusy, PoolTimeout, runInPool } from "~/lib/pool.server";
+import { chargeApiWork, limitApiRequest } from "~/lib/rate-limit.server";
+import { currentRequest } from "~/lib/request-context.server";
 
 /** Largest request body accepted (issue 4): a 200-vertex outline with 1,000 probes fits well inside. */
 export const ANALYSIS_BODY_LIMIT = 256 * 1024;
+/** Largest answer sent (docs/security.md): a 100 × 100 m roof with mesh and traces is about 7.4 MB. */
+export const ANALYSIS_ANSWER_MAX_BYTES = 10 * 1024 * 1024;
+/** Longest an analysis may take, waiting for a worker included. */
+export const ANALYSIS_TIMEOUT_MS = 15_000;
 
 const NO_STORE = { "Cache-Control": "no-store" };
 
@@ -13,22 +20,22 @@ export function loader() {
   return jsonError(405, "POST a roof spec as JSON to analyse it.", [], { Allow: "POST" });
 }
 
+const mb = (bytes: number) => `${(bytes / 1024 / 1024).toFixed(1)} MB`;
+
 /**
- * POST /api/v1/analyses: a roof spec in, its analysis out (docs/roof-method.md §9). Open to anonymous
- * visitors, limited per address. 415 unless JSON, 413 over 256 kB (counted as it is read), 400
- * malformed, 422 cannot be built, 429 too many; never 500. The bulky 3D mesh and flow traces
- * come only on request (`?mesh=true`, `?traces=true`): the sandbox builds its own in a worker,
- * and leaving them out keeps the API at better than half the speed of a trivial route.
+ * POST /api/v1/analyses: a roof spec in, its analysis out (docs/roof-method.md §9). Open to
+ * anonymous visitors, with a per-address budget charged by the work each analysis took
+ * (rate-limit.server.ts, limitApiRequest). 415 unless JSON, 413 over 256 kB (counted as it is
+ * read), 400 malformed, 422 cannot be built or the answer would be over 10 MB, 429 budget spent,
+ * 503 the engine's workers are saturated or the analysis ran past 15 s; never 500. The roof is
+ * checked, analysed and serialised in the engine's worker pool, so the event loop stays free.
+ * The bulky 3D mesh and flow traces come only on request (`?mesh=true`, `?traces=true`).
  */
 export async function action({ request, context }: Route.ActionArgs) {
   if (request.method !== "POST") return jsonError(405, "Use POST here.", [], { Allow: "POST" });
-  try {
-    const limited = await limitApiRequest(context);
-    if (limited) return limited;
-  } catch {
-    // The limiter lives in the database; the analysis does not need it, so a database fault
-    // must not stop a sandbox from working.
-  }
+  // Counted in this process's memory; it cannot fail on a database fault.
+  const limited = await limitApiRequest(context);
+  if (limited) return limited;
   let body: Awaited<ReturnType<typeof readJsonBody>>;
   try {
     body = await readJsonBody(request, ANALYSIS_BODY_LIMIT);
@@ -36,18 +43,47 @@ export async function action({ request, context }: Route.ActionArgs) {
     return jsonError(400, "The request body could not be read.", [{ path: "(body)", message: "could not be read" }], NO_STORE);
   }
   if (!body.ok) return body.response;
-  // The roof prepared while checking the spec is the one analysed: no second preparation.
-  const parsed = parseRoofSpec(body.value);
-  if (!parsed.ok) return Response.json({ error: parsed.error }, { status: parsed.status, headers: NO_STORE });
   const query = new URL(request.url).searchParams;
+  const started = performance.now();
+  const observe = (outcome: string) => metrics().analysisDuration.observe({ kind: "api", outcome }, (performance.now() - started) / 1000);
+  let result;
   try {
-    const analysis = analyseRoof(parsed.roof, {
-      mesh: query.get("mesh") === "true",
-      traces: query.get("traces") === "true",
-    });
-    return Response.json(analysis, { headers: NO_STORE });
+    result = await runInPool(
+      "engine",
+      { kind: "analyse", spec: body.value, mesh: query.get("mesh") === "true", traces: query.get("traces") === "true", maxBytes: ANALYSIS_ANSWER_MAX_BYTES },
+      ANALYSIS_TIMEOUT_MS,
+    );
   } catch (error) {
-    console.error("analysis failed for a spec that passed validation", error);
-    return jsonError(422, "The roof passed validation but could not be analysed. Simplify the outline and try again.", [], NO_STORE);
+    if (error instanceof PoolBusy || error instanceof PoolTimeout) {
+      observe(error instanceof PoolBusy ? "busy" : "timeout");
+      if (error instanceof PoolTimeout) chargeApiWork(context, ANALYSIS_TIMEOUT_MS);
+      const message =
+        error instanceof PoolBusy
+          ? "The server is analysing many roofs at once. Try again in a few seconds."
+          : `The analysis did not finish within ${ANALYSIS_TIMEOUT_MS / 1000} s. Try again, or send a simpler roof.`;
+      return jsonError(503, message, [], { ...NO_STORE, "Retry-After": "5" });
+    }
+    throw error;
+  }
+  chargeApiWork(context, result.ms);
+  switch (result.kind) {
+    case "bytes":
+      observe("ok");
+      return new Response(result.bytes as Uint8Array<ArrayBuffer>, { headers: { ...NO_STORE, "Content-Type": "application/json; charset=utf-8" } });
+    case "refused":
+      observe("refused");
+      return Response.json({ error: result.error }, { status: result.status, headers: NO_STORE });
+    case "too-large":
+      observe("too_large");
+      return jsonError(
+        422,
+        `The answer would be ${mb(result.bytes)}, over the ${mb(ANALYSIS_ANSWER_MAX_BYTES)} this API sends. Ask without the 3D mesh and flow traces (mesh, traces), use wider joist spacing or fewer probes.`,
+        [{ path: "(answer)", message: `would be ${mb(result.bytes)}, over ${mb(ANALYSIS_ANSWER_MAX_BYTES)}` }],
+        NO_STORE,
+      );
+    default:
+      observe("failed");
+      log().error({ reqId: currentRequest()?.id, reason: result.kind === "failed" ? result.message : result.kind }, "analysis failed for a spec that passed validation");
+      return jsonError(422, "The roof passed validation but could not be analysed. Simplify the outline and try again.", [], NO_STORE);
   }
 }

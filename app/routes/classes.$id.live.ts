@@ -3,16 +3,12 @@ import { getOptionalUser } from "~/lib/auth.server";
 import { getClassFor } from "~/lib/classes.server";
 import { jsonError, readJsonBody } from "~/lib/json-api.server";
 import { parseLiveUpdate } from "~/lib/live-update.server";
-import { liveHub, publishLiveState, readLiveState, type LiveSnapshot } from "~/lib/live.server";
+import { liveFrame, liveHub, publishLiveState, readLiveState, type LiveSnapshot } from "~/lib/live.server";
 
 const HEARTBEAT_MS = 15_000;
 // An event (not a comment) so the page can tell a stalled stream from a quiet one.
 const HEARTBEAT = "event: ping\ndata: {}\n\n";
 const encoder = new TextEncoder();
-
-function frame(snap: LiveSnapshot): string {
-  return `id: ${snap.seq}\nevent: state\ndata: ${JSON.stringify({ seq: snap.seq, state: snap.state })}\n\n`;
-}
 
 /**
  * GET: the class's live roof as server-sent events (`id: <seq>`, event `state`). The current
@@ -34,10 +30,11 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     async start(controller) {
       let sent = last;
       let open = true;
-      const write = (text: string) => {
+      const write = (text: string | Uint8Array) => {
         if (!open) return;
         try {
-          controller.enqueue(encoder.encode(text));
+          // A state frame's bytes are shared by every follower (nothing downstream writes to them).
+          controller.enqueue(typeof text === "string" ? encoder.encode(text) : text);
         } catch {
           cleanup();
         }
@@ -45,7 +42,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       const deliver = (snap: LiveSnapshot) => {
         if (snap.seq <= sent) return;
         sent = snap.seq;
-        write(frame(snap));
+        write(liveFrame(snap));
       };
       const sub = hub.subscribe(cls.id, deliver);
       const heartbeat = setInterval(() => write(HEARTBEAT), HEARTBEAT_MS);

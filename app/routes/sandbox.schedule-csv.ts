@@ -1,6 +1,9 @@
 import type { Route } from "./+types/sandbox.schedule-csv";
-import { analyse, parseSpec } from "~/engine";
-import { scheduleCsv } from "~/components/sandbox/schedule-csv";
+import { log } from "~/lib/log.server";
+import { metrics } from "~/lib/metrics.server";
+import { PoolBusy, PoolTimeout, runInPool } from "~/lib/pool.server";
+import { currentRequest } from "~/lib/request-context.server";
+import { chargeApiWork, limitApiRequest } from "~/lib/rate-limit.server";
 
 /** Longest spec text accepted; 200 vertices and 100 outlets fit many times over. */
 const MAX_SPEC_CHARS = 256 * 1024;
@@ -25,9 +28,13 @@ async function specText(request: Request): Promise<string | null> {
 /**
  * POST /sandbox/schedule.csv: the drop schedule (every joist span with levels and drops below H)
  * of the posted roof, as a CSV attachment. Open to everyone like the sandbox; nothing is stored.
+ * Shares the analysis API's per-address budget (charged by work done) and runs in the engine's
+ * worker pool.
  */
-export async function action({ request }: Route.ActionArgs) {
+export async function action({ request, context }: Route.ActionArgs) {
   if (request.method !== "POST") return text("Only POST.", 405, { Allow: "POST" });
+  const limited = await limitApiRequest(context);
+  if (limited) return text((await limited.json()).error.message, 429, { "Retry-After": limited.headers.get("Retry-After") ?? "60" });
   let raw: string | null;
   try {
     raw = await specText(request);
@@ -42,14 +49,22 @@ export async function action({ request }: Route.ActionArgs) {
   } catch {
     return text("The field `spec` is not JSON.", 400);
   }
-  const parsed = parseSpec(input);
-  if (!parsed.ok) return text(parsed.error.message, parsed.status);
-  let csv: string;
+  const started = performance.now();
+  let result;
   try {
-    csv = scheduleCsv(analyse(parsed.spec, { mesh: false, traces: false }).shaped.joists);
-  } catch {
+    result = await runInPool("engine", { kind: "csv", spec: input }, 15_000);
+  } catch (error) {
+    if (error instanceof PoolBusy || error instanceof PoolTimeout) return text("The server is busy. Try again in a few seconds.", 503, { "Retry-After": "5" });
+    throw error;
+  }
+  chargeApiWork(context, result.ms);
+  metrics().analysisDuration.observe({ kind: "csv", outcome: result.kind === "text" ? "ok" : result.kind }, (performance.now() - started) / 1000);
+  if (result.kind === "refused") return text(result.error.message, result.status);
+  if (result.kind !== "text") {
+    log().error({ reqId: currentRequest()?.id, reason: result.kind === "failed" ? result.message : result.kind }, "schedule CSV: a roof that passed validation could not be analysed");
     return text("This roof could not be analysed.", 422);
   }
+  const csv = result.text;
   return new Response(`\uFEFF${csv}\r\n`, {
     headers: {
       "Content-Type": "text/csv; charset=utf-8",

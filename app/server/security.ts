@@ -1,4 +1,5 @@
 import { randomBytes } from "node:crypto";
+import { Transform } from "node:stream";
 import type { NextFunction, Request, Response } from "express";
 
 /** Headers on every response (docs/security.md, Headers on every response): CSP with a per-request nonce and friends. */
@@ -59,20 +60,91 @@ export function refuseCrossSite() {
   };
 }
 
+/** Body caps by path (docs/security.md): uploads, the JSON API, and every other form or body. */
+export interface BodyCaps {
+  /** `/roofs/:id/underlay`: a 10 MB image in a multipart form. */
+  upload: number;
+  /** `/api/*`: the largest JSON body an API route reads (attempts, 512 kB). */
+  api: number;
+  /** Every other route: forms, the live feed's JSON, the schedule CSV's spec. */
+  other: number;
+}
+
+export const BODY_CAPS: BodyCaps = { upload: 12 * 1024 * 1024, api: 512 * 1024, other: 1024 * 1024 };
+
+export function bodyCapFor(path: string, caps: BodyCaps = BODY_CAPS): number {
+  if (/^\/roofs\/[^/]+\/underlay\/?$/.test(path)) return caps.upload;
+  if (path.startsWith("/api/")) return caps.api;
+  return caps.other;
+}
+
+function sizeText(max: number) {
+  return max >= 1024 * 1024 ? `${Math.round(max / 1024 / 1024)} MB` : `${Math.round(max / 1024)} kB`;
+}
+
+function refuse(res: Response, max: number) {
+  res.set("Connection", "close");
+  res.status(413).json({ error: { message: `The request body is over ${sizeText(max)}.`, issues: [] } });
+}
+
+/** The body stream the app reads: a counted copy of the request's (see capBodySize). */
+export class BodyTooLarge extends Error {
+  constructor(readonly limit: number) {
+    super(`request body over ${limit} bytes`);
+  }
+}
+
 /**
- * Refuse bodies that announce more than the route accepts (JSON API: 256 kB; elsewhere the
- * largest upload), before anything reads them. Answered here, the unread body is drained by
- * Node; refused deeper, a half-read stream can leave the client waiting.
+ * Caps every request body by its path. A body that announces more (Content-Length) is refused
+ * before anything reads it; a body without a length (chunked) or that lies about it is counted
+ * as it streams in, and the moment it passes the cap the client gets 413, the app's reader gets
+ * an error and the rest of the body is thrown away unread. The app reads `res.locals.body`
+ * (handed to React Router by `withCountedBody`), never the raw request.
  */
-export function capBodySize(limit: number, apiLimit = 256 * 1024) {
+export function capBodySize(caps: BodyCaps = BODY_CAPS) {
   return (req: Request, res: Response, next: NextFunction) => {
+    const max = bodyCapFor(req.path, caps);
     const length = Number(req.get("content-length") ?? 0);
-    const max = req.path.startsWith("/api/") ? apiLimit : limit;
-    if (length > max) {
-      res.set("Connection", "close");
-      res.status(413).json({ error: { message: `The request body is over ${max >= 1024 * 1024 ? `${Math.round(max / 1024 / 1024)} MB` : `${Math.round(max / 1024)} kB`}.`, issues: [] } });
-      return;
-    }
+    if (length > max) return refuse(res, max);
+    const hasBody = req.get("transfer-encoding") !== undefined || length > 0;
+    if (!hasBody || SAFE.has(req.method)) return next();
+    let total = 0;
+    const counted = new Transform({
+      transform(chunk: Buffer, _enc, done) {
+        total += chunk.length;
+        if (total > max) done(new BodyTooLarge(max));
+        else done(null, chunk);
+      },
+    });
+    counted.on("error", (err) => {
+      req.unpipe(counted);
+      // Discard whatever else arrives; Connection: close ends the socket after the 413.
+      req.resume();
+      if (err instanceof BodyTooLarge && !res.headersSent) refuse(res, max);
+    });
+    req.pipe(counted);
+    res.locals.body = counted;
     next();
   };
+}
+
+const STREAM_KEYS = new Set<PropertyKey>(["on", "once", "off", "addListener", "removeListener", "removeAllListeners", "pause", "resume", "readable", "destroy", "readableHighWaterMark", "pipe", "unpipe", "read", "isPaused", "readableEnded", Symbol.asyncIterator]);
+
+/**
+ * The request as React Router's adapter should see it: every property the request's own, except
+ * that its body is read from the counted stream capBodySize set up.
+ */
+export function withCountedBody(req: Request, res: Response): Request {
+  const body = res.locals.body as Transform | undefined;
+  if (!body) return req;
+  return new Proxy(req, {
+    get(target, prop) {
+      if (STREAM_KEYS.has(prop)) {
+        const value = Reflect.get(body, prop) as unknown;
+        return typeof value === "function" ? Function.prototype.bind.call(value, body) : value;
+      }
+      // Getters run on the request itself; methods called through the proxy read through it.
+      return Reflect.get(target, prop) as unknown;
+    },
+  });
 }

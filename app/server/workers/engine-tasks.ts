@@ -1,0 +1,51 @@
+/**
+ * Roof analyses for the open API and the schedule CSV, in a worker thread of the engine pool
+ * (app/lib/pool.server.ts), so a two-second analysis never delays other requests.
+ * The analysis is serialised here too: turning a large answer into JSON is a large share of its
+ * cost, and the bytes are handed back without a copy.
+ */
+import { analyse, analyseRoof, parseRoofSpec, parseSpec } from "../../engine";
+import { scheduleCsv } from "../../components/sandbox/schedule-csv";
+import type { PoolTask, PoolResult } from "../../lib/pool-tasks";
+
+const encoder = new TextEncoder();
+
+function analyseTask(task: Extract<PoolTask, { kind: "analyse" }>): PoolResult {
+  const started = performance.now();
+  const parsed = parseRoofSpec(task.spec);
+  if (!parsed.ok) return { kind: "refused", status: parsed.status, error: parsed.error, ms: performance.now() - started };
+  let json: string;
+  try {
+    json = JSON.stringify(analyseRoof(parsed.roof, { mesh: task.mesh, traces: task.traces }));
+  } catch (error) {
+    return { kind: "failed", message: (error as Error)?.message ?? String(error), ms: performance.now() - started };
+  }
+  // Length in UTF-16 units is at most the UTF-8 length for the ASCII-heavy answer; encode only what fits.
+  if (json.length > task.maxBytes) return { kind: "too-large", bytes: Buffer.byteLength(json), ms: performance.now() - started };
+  const bytes = encoder.encode(json);
+  if (bytes.byteLength > task.maxBytes) return { kind: "too-large", bytes: bytes.byteLength, ms: performance.now() - started };
+  // Cloned on the way back (a memcpy); piscina moves only a top-level transferable.
+  return { kind: "bytes", bytes, ms: performance.now() - started };
+}
+
+function csvTask(task: Extract<PoolTask, { kind: "csv" }>): PoolResult {
+  const started = performance.now();
+  const parsed = parseSpec(task.spec);
+  if (!parsed.ok) return { kind: "refused", status: parsed.status, error: parsed.error, ms: performance.now() - started };
+  try {
+    return { kind: "text", text: scheduleCsv(analyse(parsed.spec, { mesh: false, traces: false }).shaped.joists), ms: performance.now() - started };
+  } catch (error) {
+    return { kind: "failed", message: (error as Error)?.message ?? String(error), ms: performance.now() - started };
+  }
+}
+
+export function runTask(task: PoolTask): PoolResult {
+  switch (task.kind) {
+    case "analyse":
+      return analyseTask(task);
+    case "csv":
+      return csvTask(task);
+    default:
+      throw new Error(`the engine pool does not run ${task.kind} tasks`);
+  }
+}
