@@ -12,19 +12,32 @@ interface AttemptGradeRow {
   override_passed: boolean | null;
 }
 
+/** Whose overrides count in a class's figures: the class's trainer and its organisation's admins. */
+export interface OverrideScope {
+  trainerId: string;
+  organisationId: string;
+}
+
 /**
- * Every attempt with its effective grade: the latest override a trainer recorded for it, or
- * else the automatic grade. The attempt row itself is never changed by a review.
+ * Every attempt with its effective grade: the latest override recorded for it, or else the
+ * automatic grade. The attempt row itself is never changed by a review. With a scope, only
+ * overrides by the people who run that class count, so an override by someone outside a class
+ * never shows in its gradebook.
  */
-export function attemptsWithEffectiveGrade() {
+export function attemptsWithEffectiveGrade(scope?: OverrideScope) {
+  const scoped = scope
+    ? `and exists (select 1 from users ru where ru.id = r.reviewer_id
+         and (ru.id = :trainerId or (ru.role = 'admin' and ru.organisation_id = :organisationId)))`
+    : "";
   return db()
     .from("attempts as a")
     .joinRaw(
       `left join lateral (
          select r.override_score, r.override_passed from attempt_reviews r
-         where r.attempt_id = a.id and (r.override_score is not null or r.override_passed is not null)
+         where r.attempt_id = a.id and (r.override_score is not null or r.override_passed is not null) ${scoped}
          order by r.at desc, r.id desc limit 1
        ) o on true`,
+      scope ? { trainerId: scope.trainerId, organisationId: scope.organisationId } : [],
     )
     .select("a.id", "a.trainee_id", "a.lesson_slug", "a.score", "a.passed", "a.submitted_at", "o.override_score", "o.override_passed");
 }
@@ -51,10 +64,10 @@ function better(a: GradeCell, b: GradeCell): boolean {
 export const cellKey = (traineeId: string, slug: string) => `${traineeId}|${slug}`;
 
 /** The best effective grade for each (trainee, lesson) pair that has attempts. */
-export async function bestGrades(traineeIds: string[], slugs: string[]): Promise<Map<string, GradeCell>> {
+export async function bestGrades(traineeIds: string[], slugs: string[], scope?: OverrideScope): Promise<Map<string, GradeCell>> {
   const out = new Map<string, GradeCell>();
   if (!traineeIds.length || !slugs.length) return out;
-  const rows: AttemptGradeRow[] = await attemptsWithEffectiveGrade()
+  const rows: AttemptGradeRow[] = await attemptsWithEffectiveGrade(scope)
     .whereIn("a.trainee_id", traineeIds)
     .whereIn("a.lesson_slug", slugs);
   for (const r of rows) {

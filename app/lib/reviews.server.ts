@@ -152,7 +152,19 @@ export async function attemptFor(viewer: SessionUser, attemptId: string) {
   return { attempt, trainee: { name: (trainee?.name as string) || "", email: (trainee?.email as string) ?? "" } };
 }
 
-/** Reviewing is for trainers and admins, and never of one's own attempt. */
-export function mayReview(viewer: SessionUser, traineeId: string): boolean {
-  return can(viewer.role, "attempts:review") && viewer.id !== traineeId;
+/**
+ * Reviewing is for trainers and admins, and never of one's own attempt. A trainer reviews (and
+ * overrides) only attempts at a lesson assigned in one of their own classes that the trainee
+ * belongs to: an override must never reach a gradebook the trainer does not run. An admin may
+ * review any attempt of their organisation (attemptFor has checked that).
+ */
+export async function mayReview(viewer: SessionUser, attempt: { traineeId: string; lesson: string }): Promise<boolean> {
+  if (!can(viewer.role, "attempts:review") || viewer.id === attempt.traineeId) return false;
+  if (viewer.role === "admin") return true;
+  const row = await db()("classes as c")
+    .join("class_members as m", "m.class_id", "c.id")
+    .join("assignments as s", "s.class_id", "c.id")
+    .where({ "c.trainer_id": viewer.id, "m.user_id": attempt.traineeId, "s.lesson_slug": attempt.lesson })
+    .first("c.id");
+  return !!row;
 }

@@ -32,7 +32,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     trainee,
     reviews,
     grade: effectiveGrade(attempt, reviews),
-    canReview: mayReview(user, attempt.traineeId),
+    canReview: await mayReview(user, attempt),
     back: cls ? { id: cls.id, name: cls.name } : null,
   };
 }
@@ -41,7 +41,10 @@ export async function action({ request, params }: Route.ActionArgs) {
   const user = await requirePermission(request, "attempts:review");
   const found = await attemptFor(user, params.id);
   if (!found) throw data(NOT_FOUND, { status: 404 });
-  if (!mayReview(user, found.attempt.traineeId)) throw data("You cannot review your own attempt.", { status: 403 });
+  if (!(await mayReview(user, found.attempt))) {
+    const why = user.id === found.attempt.traineeId ? "You cannot review your own attempt." : "You can review attempts only at lessons assigned in your own classes.";
+    throw data(why, { status: 403 });
+  }
   const parsed = parseReviewForm(await request.formData());
   if (!parsed.ok) return data({ errors: parsed.errors, values: parsed.values, notice: null }, { status: 400 });
   const { emailSent } = await addReview({
