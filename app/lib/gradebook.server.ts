@@ -35,7 +35,9 @@ export function gradebookCsv(book: Gradebook): string {
     ...book.lessons.flatMap((l) => {
       const cell = r.cells[l.slug];
       const label = STATUS_LABELS[cellStatus(cell)].toLowerCase();
-      return [cell ? formatScore(cell.score) : "", cell?.overridden ? `${label} (override)` : label];
+      // The same reading as the screen: result, then why it did not pass, in words (grading-rule.ts).
+      const result = cell?.overridden ? `${label} (override)` : label;
+      return [cell ? formatScore(cell.score) : "", cell && !cell.passed && cell.reason ? `${result}: ${cell.reason}` : result];
     }),
   ]);
   return Papa.unparse({ fields, data }, { escapeFormulae: true, newline: "\r\n" });

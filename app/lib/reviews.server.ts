@@ -8,6 +8,8 @@ import type { SessionUser } from "~/lib/auth.server";
 import { db } from "~/lib/db.server";
 import { formatScore, type AttemptReview } from "~/lib/gradebook";
 import { getAttempt, maySeeTraineeAttempts } from "~/lib/lessons/attempts.server";
+import { failedRequiredOf, type GradeResult } from "~/lib/lessons/grade";
+import { readGrade, type GradeReading } from "~/lib/lessons/grading-rule";
 import { sendNotice } from "~/lib/mail.server";
 import { can } from "~/lib/permissions";
 
@@ -32,21 +34,22 @@ export async function reviewsForAttempt(attemptId: string): Promise<ReviewView[]
   }));
 }
 
-export interface EffectiveGrade {
-  score: number;
-  passed: boolean;
+export interface EffectiveGrade extends GradeReading {
   /** The review whose override is in force, if any. */
   override: ReviewView | null;
 }
 
-/** The grade that counts: the latest override (reviews newest first), else the automatic one. */
-export function effectiveGrade(attempt: { score: number; passed: boolean }, reviews: ReviewView[]): EffectiveGrade {
+/** The grade that counts, read by the grading rule: the latest override (reviews newest first), else the automatic one. */
+export function effectiveGrade(attempt: { score: number; passed: boolean; results: GradeResult }, reviews: ReviewView[]): EffectiveGrade {
   const override = reviews.find((r) => r.overrideScore !== null || r.overridePassed !== null) ?? null;
-  return {
-    score: override?.overrideScore ?? attempt.score,
-    passed: override?.overridePassed ?? attempt.passed,
-    override,
-  };
+  const reading = readGrade({
+    score: attempt.score,
+    passed: attempt.passed,
+    passMark: attempt.results.passMark,
+    failedRequired: failedRequiredOf(attempt.results),
+    override: override ? { score: override.overrideScore ?? attempt.score, passed: override.overridePassed ?? attempt.passed, reason: override.reason } : null,
+  });
+  return { ...reading, override };
 }
 
 const ReviewForm = z
@@ -77,7 +80,7 @@ export type ReviewInput = z.output<typeof ReviewForm>;
 export type ReviewFields = "comment" | "score" | "passed" | "reason";
 
 export function parseReviewForm(form: FormData):
-  | { ok: true; value: ReviewInput }
+  | { ok: true; value: ReviewInput; raw: Record<string, string> }
   | { ok: false; errors: Partial<Record<ReviewFields, string>>; values: Record<string, string> } {
   const values = {
     comment: String(form.get("comment") ?? ""),
@@ -87,7 +90,7 @@ export function parseReviewForm(form: FormData):
     reason: String(form.get("reason") ?? ""),
   };
   const parsed = ReviewForm.safeParse({ ...values, override: values.override === "on", passed: ["yes", "no"].includes(values.passed) ? values.passed : "" });
-  if (parsed.success) return { ok: true, value: parsed.data };
+  if (parsed.success) return { ok: true, value: parsed.data, raw: values };
   const errors: Partial<Record<ReviewFields, string>> = {};
   for (const issue of parsed.error.issues) errors[(issue.path[0] as ReviewFields) ?? "comment"] ??= issue.message;
   return { ok: false, errors, values };
