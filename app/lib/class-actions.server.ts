@@ -44,7 +44,7 @@ export async function handleClassAction(o: { request: Request; context: AppLoadC
         origin: appOrigin(),
         ip: clientIp(o.context),
       });
-      const nothingValid = !report.invited.length && !report.added.length && !report.alreadyMember.length && !report.alreadyInvited.length && !report.refused.length;
+      const nothingValid = !report.invited.length && !report.askedToJoin.length && !report.alreadyMember.length && !report.alreadyInvited.length && !report.refused.length;
       return reply({ intent, report, text: report.invalid.join("\n") }, nothingValid ? 400 : 200);
     }
     case "remove": {

@@ -5,13 +5,13 @@ import { parseAddressList, type InviteReport } from "~/lib/roster";
 /**
  * Invites a pasted list of addresses into a class. Addresses already in the class or with a
  * live invitation to it are skipped; every other valid one goes through createInvitation,
- * which e-mails a single-use link (or adds an existing trainee account directly).
+ * which e-mails a single-use link (to an existing trainee account: a link to accept joining).
  */
 export async function inviteToClass(o: { classId: string; text: string; inviter: Inviter; origin: string; ip?: string | null }): Promise<InviteReport> {
   const parsed = parseAddressList(o.text);
   const report: InviteReport = {
     invited: [],
-    added: [],
+    askedToJoin: [],
     alreadyMember: [],
     alreadyInvited: [],
     invalid: parsed.invalid,
@@ -34,7 +34,7 @@ export async function inviteToClass(o: { classId: string; text: string; inviter:
       const result = await createInvitation({ email, role: "trainee", classId: o.classId, invitedBy: o.inviter, origin: o.origin, ip: o.ip });
       if (result.status === "refused") report.refused.push({ email, message: result.message });
       else {
-        (result.status === "sent" ? report.invited : report.added).push(email);
+        (result.status === "sent" ? report.invited : report.askedToJoin).push(email);
         if (!result.emailSent) report.mailFailed.push(email);
       }
     }

@@ -220,13 +220,17 @@ export async function assignmentsForTrainee(traineeId: string, classIds: string[
   if (!classIds.length) return {};
   const rows = await db()("assignments as s")
     .join("lessons as l", "l.slug", "s.lesson_slug")
+    .join("classes as c", "c.id", "s.class_id")
     .whereIn("s.class_id", classIds)
-    .select("s.class_id", "s.lesson_slug", "l.title", "s.due_on")
+    .select("s.class_id", "s.lesson_slug", "l.title", "s.due_on", "c.trainer_id", "c.organisation_id")
     .orderByRaw("s.due_on asc nulls last, l.position");
-  const grades = await bestGrades([traineeId], [...new Set(rows.map((r) => r.lesson_slug as string))]);
   const out: Record<string, MyAssignment[]> = Object.fromEntries(classIds.map((id) => [id, []]));
-  for (const r of rows) {
-    out[r.class_id].push({ slug: r.lesson_slug, title: r.title, dueOn: r.due_on, cell: grades.get(cellKey(traineeId, r.lesson_slug)) ?? null });
+  // Each class reads grades as its own gradebook does (only its own trainer's and admins' overrides).
+  for (const classId of classIds) {
+    const mine = rows.filter((r) => r.class_id === classId);
+    if (!mine.length) continue;
+    const grades = await bestGrades([traineeId], [...new Set(mine.map((r) => r.lesson_slug as string))], { trainerId: mine[0].trainer_id, organisationId: mine[0].organisation_id });
+    for (const r of mine) out[classId].push({ slug: r.lesson_slug, title: r.title, dueOn: r.due_on, cell: grades.get(cellKey(traineeId, r.lesson_slug)) ?? null });
   }
   return out;
 }

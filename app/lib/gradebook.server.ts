@@ -1,15 +1,16 @@
 import Papa from "papaparse";
-import { classAssignments, classRoster } from "~/lib/classes.server";
+import { classAssignments, classRoster, type ClassRow } from "~/lib/classes.server";
 import { bestGrades, cellKey } from "~/lib/grades.server";
 import { cellStatus, formatScore, STATUS_LABELS, type Gradebook } from "~/lib/gradebook";
 
 /** Trainees of the class as rows, its assigned lessons as columns, each cell the best effective grade. */
-export async function classGradebook(classId: string): Promise<Gradebook> {
-  const [roster, assignments] = await Promise.all([classRoster(classId), classAssignments(classId)]);
+export async function classGradebook(cls: Pick<ClassRow, "id" | "trainer_id" | "organisation_id">): Promise<Gradebook> {
+  const [roster, assignments] = await Promise.all([classRoster(cls.id), classAssignments(cls.id)]);
   const lessons = assignments.map((a) => ({ slug: a.lesson_slug, title: a.title, dueOn: a.due_on }));
   const grades = await bestGrades(
     roster.map((m) => m.id),
     lessons.map((l) => l.slug),
+    { trainerId: cls.trainer_id, organisationId: cls.organisation_id },
   );
   return {
     lessons,
@@ -34,7 +35,9 @@ export function gradebookCsv(book: Gradebook): string {
     ...book.lessons.flatMap((l) => {
       const cell = r.cells[l.slug];
       const label = STATUS_LABELS[cellStatus(cell)].toLowerCase();
-      return [cell ? formatScore(cell.score) : "", cell?.overridden ? `${label} (override)` : label];
+      // The same reading as the screen: result, then why it did not pass, in words (grading-rule.ts).
+      const result = cell?.overridden ? `${label} (override)` : label;
+      return [cell ? formatScore(cell.score) : "", cell && !cell.passed && cell.reason ? `${result}: ${cell.reason}` : result];
     }),
   ]);
   return Papa.unparse({ fields, data }, { escapeFormulae: true, newline: "\r\n" });

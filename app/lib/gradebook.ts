@@ -1,4 +1,5 @@
 /** Gradebook shapes shared by the server (loaders, CSV) and the table in the browser. */
+import type { NotPassedWhy } from "~/lib/lessons/grading-rule";
 
 export type CellStatus = "passed" | "failed" | "not-attempted";
 
@@ -7,6 +8,9 @@ export interface GradeCell {
   attemptId: string;
   score: number;
   passed: boolean;
+  /** Why it did not pass, in words and as a kind (grading-rule.ts); null when passed. */
+  reason?: string | null;
+  why?: NotPassedWhy | null;
   /** The effective grade comes from a trainer's override, not the automatic grading. */
   overridden: boolean;
   attempts: number;

@@ -21,7 +21,8 @@ export type Inviter = Pick<SessionUser, "id" | "role" | "organisationId">;
 
 export type InvitationResult =
   | { status: "sent"; userId: string; emailSent: boolean }
-  | { status: "added_to_class"; userId: string; emailSent: boolean }
+  /** An existing trainee account asked to join a class: it joins only when it accepts the e-mailed link. */
+  | { status: "asked_to_join"; userId: string; emailSent: boolean }
   | { status: "refused"; message: string };
 
 const Email = z.email("Enter a valid e-mail address.").max(320);
@@ -33,7 +34,9 @@ export function mayInvite(inviterRole: Role, role: Role): boolean {
 
 /**
  * Invites `email` as `role` (into `classId` when given) and e-mails the link. An existing trainee
- * account invited into a class is simply added to it and told so.
+ * account invited into a class gets a link too and joins only when it accepts, signed in as
+ * itself: a trainer must never be able to enrol someone's account (and so read their attempts)
+ * without their consent.
  */
 export async function createInvitation(o: {
   email: string;
@@ -71,9 +74,12 @@ export async function createInvitation(o: {
     }
     if (existing?.password_hash) {
       if (cls && existing.role === "trainee") {
-        await trx("class_members").insert({ class_id: cls.id, user_id: existing.id }).onConflict(["class_id", "user_id"]).ignore();
+        const token = await issueToken(
+          { kind: "invitation", email, userId: existing.id, role: "trainee", classId: cls.id, createdBy: o.invitedBy.id, ttlSeconds: INVITATION_TTL_DAYS * 86400 },
+          trx,
+        );
         await audit({ action: "invitation_sent", actorId: o.invitedBy.id, subjectId: existing.id, detail: { email, role: o.role, classId: cls.id, existing: true }, ip: o.ip }, trx);
-        return { status: "added_to_class" as const, userId: existing.id };
+        return { status: "asked_to_join" as const, userId: existing.id, token };
       }
       return { status: "refused" as const, message: "There is already an account for that address." };
     }
@@ -111,10 +117,13 @@ export async function createInvitation(o: {
         })
       : noticeMessage({
           to: email,
-          subject: `You were added to the class "${cls!.name}"`,
-          heading: `${inviterName} added you to a class`,
-          paragraphs: [`You are now a member of "${cls!.name}". Its lessons and live sessions appear under Classes when you sign in.`],
-          action: { label: "Open your classes", url: `${o.origin}/classes` },
+          subject: `You are invited to join the class "${cls!.name}"`,
+          heading: `${inviterName} invites you to a class`,
+          paragraphs: [
+            `${inviterName} would like you to join "${cls!.name}". If you accept, its trainer sees your attempts at the lessons of your classes and can review them.`,
+            `Open the link, sign in with your own account and choose "Join the class". If you do not want to join, ignore this message; the link expires in ${INVITATION_TTL_DAYS} days.`,
+          ],
+          action: { label: "Accept or decline", url: `${o.origin}/invite/${outcome.token}` },
         });
   let emailSent = true;
   try {
@@ -137,7 +146,16 @@ export async function resendInvitation(o: { userId: string; invitedBy: Inviter; 
 }
 
 export type InvitationView =
-  | { state: "valid"; email: string; role: Role; organisationName: string; className: string | null }
+  | {
+      state: "valid";
+      email: string;
+      role: Role;
+      organisationName: string;
+      className: string | null;
+      /** An account that is already set up, asked to join a class (it accepts while signed in as itself). */
+      existingAccount: boolean;
+      userId: string;
+    }
   | { state: "used" | "expired" | "unknown" };
 
 /** What the invitation page shows before the link is used. */
@@ -151,9 +169,43 @@ export async function findInvitation(token: string): Promise<InvitationView> {
     .first<{ email: string; role: Role; active: boolean; password_hash: string | null; organisation: string } | undefined>(
       "u.email", "u.role", "u.active", "u.password_hash", "o.name as organisation",
     );
-  if (!user || !user.active || user.password_hash) return { state: "used" };
+  if (!user || !user.active) return { state: "used" };
   const cls = found.row.class_id ? await k("classes").where({ id: found.row.class_id }).first("name") : null;
-  return { state: "valid", email: user.email, role: user.role, organisationName: user.organisation, className: cls?.name ?? null };
+  const existingAccount = !!user.password_hash;
+  // A set-up account's link is only ever a class invitation (to a class that still exists).
+  if (existingAccount && (!cls || user.role !== "trainee")) return { state: "used" };
+  return {
+    state: "valid",
+    email: user.email,
+    role: user.role,
+    organisationName: user.organisation,
+    className: cls?.name ?? null,
+    existingAccount,
+    userId: found.row.user_id!,
+  };
+}
+
+export type JoinResult = { ok: true; classId: string } | { ok: false; status: 403 | 410; message: string };
+
+/**
+ * An existing account accepts a class invitation: only the invited account, signed in, can use
+ * the link, and only once.
+ */
+export async function joinClassByInvitation(token: string, user: Pick<SessionUser, "id">, ip?: string | null): Promise<JoinResult> {
+  const found = await peekToken("invitation", token);
+  if (found.state !== "valid" || !found.row.class_id) return { ok: false, status: 410, message: "This invitation link has expired or was already used. Ask your trainer to send a new one." };
+  if (found.row.user_id !== user.id) return { ok: false, status: 403, message: "This invitation is for another account. Sign out and sign in as the invited address." };
+  const classId = await db().transaction(async (trx) => {
+    const row = await consumeToken("invitation", token, trx);
+    if (!row?.class_id || row.user_id !== user.id) return null;
+    const cls = await trx("classes").where({ id: row.class_id }).first("id");
+    if (!cls) return null;
+    await trx("class_members").insert({ class_id: cls.id, user_id: user.id }).onConflict(["class_id", "user_id"]).ignore();
+    await audit({ action: "invitation_accepted", actorId: user.id, subjectId: user.id, detail: { classIds: [cls.id] }, ip }, trx);
+    return cls.id as string;
+  });
+  if (!classId) return { ok: false, status: 410, message: "This invitation link has expired or was already used. Ask your trainer to send a new one." };
+  return { ok: true, classId };
 }
 
 /** Uses the invitation: sets name and password, joins the invited classes, signs in. */

@@ -8,6 +8,8 @@ import type { SessionUser } from "~/lib/auth.server";
 import { db } from "~/lib/db.server";
 import { formatScore, type AttemptReview } from "~/lib/gradebook";
 import { getAttempt, maySeeTraineeAttempts } from "~/lib/lessons/attempts.server";
+import { failedRequiredOf, type GradeResult } from "~/lib/lessons/grade";
+import { readGrade, type GradeReading } from "~/lib/lessons/grading-rule";
 import { sendNotice } from "~/lib/mail.server";
 import { can } from "~/lib/permissions";
 
@@ -32,21 +34,22 @@ export async function reviewsForAttempt(attemptId: string): Promise<ReviewView[]
   }));
 }
 
-export interface EffectiveGrade {
-  score: number;
-  passed: boolean;
+export interface EffectiveGrade extends GradeReading {
   /** The review whose override is in force, if any. */
   override: ReviewView | null;
 }
 
-/** The grade that counts: the latest override (reviews newest first), else the automatic one. */
-export function effectiveGrade(attempt: { score: number; passed: boolean }, reviews: ReviewView[]): EffectiveGrade {
+/** The grade that counts, read by the grading rule: the latest override (reviews newest first), else the automatic one. */
+export function effectiveGrade(attempt: { score: number; passed: boolean; results: GradeResult }, reviews: ReviewView[]): EffectiveGrade {
   const override = reviews.find((r) => r.overrideScore !== null || r.overridePassed !== null) ?? null;
-  return {
-    score: override?.overrideScore ?? attempt.score,
-    passed: override?.overridePassed ?? attempt.passed,
-    override,
-  };
+  const reading = readGrade({
+    score: attempt.score,
+    passed: attempt.passed,
+    passMark: attempt.results.passMark,
+    failedRequired: failedRequiredOf(attempt.results),
+    override: override ? { score: override.overrideScore ?? attempt.score, passed: override.overridePassed ?? attempt.passed, reason: override.reason } : null,
+  });
+  return { ...reading, override };
 }
 
 const ReviewForm = z
@@ -77,7 +80,7 @@ export type ReviewInput = z.output<typeof ReviewForm>;
 export type ReviewFields = "comment" | "score" | "passed" | "reason";
 
 export function parseReviewForm(form: FormData):
-  | { ok: true; value: ReviewInput }
+  | { ok: true; value: ReviewInput; raw: Record<string, string> }
   | { ok: false; errors: Partial<Record<ReviewFields, string>>; values: Record<string, string> } {
   const values = {
     comment: String(form.get("comment") ?? ""),
@@ -87,7 +90,7 @@ export function parseReviewForm(form: FormData):
     reason: String(form.get("reason") ?? ""),
   };
   const parsed = ReviewForm.safeParse({ ...values, override: values.override === "on", passed: ["yes", "no"].includes(values.passed) ? values.passed : "" });
-  if (parsed.success) return { ok: true, value: parsed.data };
+  if (parsed.success) return { ok: true, value: parsed.data, raw: values };
   const errors: Partial<Record<ReviewFields, string>> = {};
   for (const issue of parsed.error.issues) errors[(issue.path[0] as ReviewFields) ?? "comment"] ??= issue.message;
   return { ok: false, errors, values };
@@ -152,7 +155,19 @@ export async function attemptFor(viewer: SessionUser, attemptId: string) {
   return { attempt, trainee: { name: (trainee?.name as string) || "", email: (trainee?.email as string) ?? "" } };
 }
 
-/** Reviewing is for trainers and admins, and never of one's own attempt. */
-export function mayReview(viewer: SessionUser, traineeId: string): boolean {
-  return can(viewer.role, "attempts:review") && viewer.id !== traineeId;
+/**
+ * Reviewing is for trainers and admins, and never of one's own attempt. A trainer reviews (and
+ * overrides) only attempts at a lesson assigned in one of their own classes that the trainee
+ * belongs to: an override must never reach a gradebook the trainer does not run. An admin may
+ * review any attempt of their organisation (attemptFor has checked that).
+ */
+export async function mayReview(viewer: SessionUser, attempt: { traineeId: string; lesson: string }): Promise<boolean> {
+  if (!can(viewer.role, "attempts:review") || viewer.id === attempt.traineeId) return false;
+  if (viewer.role === "admin") return true;
+  const row = await db()("classes as c")
+    .join("class_members as m", "m.class_id", "c.id")
+    .join("assignments as s", "s.class_id", "c.id")
+    .where({ "c.trainer_id": viewer.id, "m.user_id": attempt.traineeId, "s.lesson_slug": attempt.lesson })
+    .first("c.id");
+  return !!row;
 }

@@ -51,8 +51,8 @@ export function parseAddressList(text: string): ParsedAddresses {
 export interface InviteReport {
   /** New invitation e-mails sent. */
   invited: string[];
-  /** Existing trainee accounts added to the class straight away (and told by e-mail). */
-  added: string[];
+  /** Existing trainee accounts asked by e-mail to join; they join when they accept. */
+  askedToJoin: string[];
   alreadyMember: string[];
   alreadyInvited: string[];
   /** As typed. */

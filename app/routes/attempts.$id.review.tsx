@@ -6,7 +6,9 @@ import { getClassFor } from "~/lib/classes.server";
 import { formatScore } from "~/lib/gradebook";
 import { formatWhen } from "~/lib/when";
 import { appOrigin } from "~/lib/app-url";
-import { addReview, attemptFor, effectiveGrade, mayReview, parseReviewForm, reviewsForAttempt } from "~/lib/reviews.server";
+import { addReview, attemptFor, effectiveGrade, mayReview, parseReviewForm, reviewsForAttempt, type ReviewFields } from "~/lib/reviews.server";
+import { overrideProblem, readGrade } from "~/lib/lessons/grading-rule";
+import { failedRequiredOf, type GradeResult } from "~/lib/lessons/grade";
 import { Caution } from "~/components/caution";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
 import { AttemptReviews } from "~/components/classes/attempt-reviews";
@@ -32,7 +34,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     trainee,
     reviews,
     grade: effectiveGrade(attempt, reviews),
-    canReview: mayReview(user, attempt.traineeId),
+    canReview: await mayReview(user, attempt),
     back: cls ? { id: cls.id, name: cls.name } : null,
   };
 }
@@ -41,11 +43,17 @@ export async function action({ request, params }: Route.ActionArgs) {
   const user = await requirePermission(request, "attempts:review");
   const found = await attemptFor(user, params.id);
   if (!found) throw data(NOT_FOUND, { status: 404 });
-  if (!mayReview(user, found.attempt.traineeId)) throw data("You cannot review your own attempt.", { status: 403 });
+  if (!(await mayReview(user, found.attempt))) {
+    const why = user.id === found.attempt.traineeId ? "You cannot review your own attempt." : "You can review attempts only at lessons assigned in your own classes.";
+    throw data(why, { status: 403 });
+  }
   const parsed = parseReviewForm(await request.formData());
   if (!parsed.ok) return data({ errors: parsed.errors, values: parsed.values, notice: null }, { status: 400 });
+  // The grading rule (grading-rule.ts): an override's result follows its score and the pass mark.
+  const problem = parsed.value.override ? overrideProblem(parsed.value.override, found.attempt.results.passMark) : null;
+  if (problem) return data({ errors: { passed: problem } as Partial<Record<ReviewFields, string>>, values: parsed.raw, notice: null }, { status: 400 });
   const { emailSent } = await addReview({
-    attempt: { id: found.attempt.id, traineeEmail: found.trainee.email, lessonTitle: found.attempt.lessonTitle, score: found.attempt.score, passed: found.attempt.passed },
+    attempt: { id: found.attempt.id, traineeEmail: found.trainee.email, lessonTitle: found.attempt.lessonTitle, ...automaticGrade(found.attempt) },
     reviewer: user,
     input: parsed.value,
     origin: appOrigin(),
@@ -54,10 +62,16 @@ export async function action({ request, params }: Route.ActionArgs) {
   return { errors: null, values: null, notice: emailSent ? `Saved. ${who} has been told by e-mail.` : `Saved, but the e-mail to ${who} could not be sent.` };
 }
 
+/** The automatic grade as the rule reads it (grading-rule.ts). */
+function automaticGrade(attempt: { score: number; passed: boolean; results: GradeResult }) {
+  const g = readGrade({ score: attempt.score, passed: attempt.passed, passMark: attempt.results.passMark, failedRequired: failedRequiredOf(attempt.results) });
+  return { score: g.score, passed: g.passed };
+}
+
 export default function AttemptReview() {
   const { attempt, trainee, reviews, grade, canReview, back } = useLoaderData<typeof loader>();
   const result = useActionData<typeof action>();
-  const auto = { score: attempt.score, passed: attempt.passed };
+  const auto = { ...automaticGrade(attempt), passMark: attempt.results.passMark };
   return (
     <div className="grid gap-6">
       <header>
@@ -76,7 +90,7 @@ export default function AttemptReview() {
           <span className="text-ink-soft">Submitted {formatWhen(attempt.submittedAt)}</span>
           <span className="inline-flex items-center gap-2">
             <span className="text-ink-soft">Grade:</span>
-            <GradeMark cell={{ attemptId: attempt.id, score: grade.score, passed: grade.passed, overridden: !!grade.override, attempts: 1, submittedAt: attempt.submittedAt }} />
+            <GradeMark cell={{ attemptId: attempt.id, score: grade.score, passed: grade.passed, overridden: grade.overridden, reason: grade.reason, why: grade.why, attempts: 1, submittedAt: attempt.submittedAt }} />
           </span>
           {grade.override ? <span className="text-sm text-ink-soft">(automatic: {formatScore(auto.score)}, {auto.passed ? "passed" : "not passed"})</span> : null}
           {attempt.spec ? <a className="text-sm underline" href="#roof">See the roof in 3D</a> : null}
@@ -110,7 +124,7 @@ export default function AttemptReview() {
 
 type ActionResult = ReturnType<typeof useActionData<typeof action>>;
 
-function ReviewForm({ result, auto }: { result: ActionResult; auto: { score: number; passed: boolean } }) {
+function ReviewForm({ result, auto }: { result: ActionResult; auto: { score: number; passed: boolean; passMark: number } }) {
   const values = result?.values;
   const errors = result?.errors;
   const [override, setOverride] = useState(values?.override === "on");
@@ -136,7 +150,7 @@ function ReviewForm({ result, auto }: { result: ActionResult; auto: { score: num
             {errors?.score ? <p className="field-error">{errors.score}</p> : null}
           </div>
           <div role="radiogroup" aria-labelledby="passed-label">
-            <p id="passed-label" className="label">Result</p>
+            <p id="passed-label" className="label">Result (passes at {auto.passMark} or more)</p>
             <div className="flex gap-4 py-1.5 text-sm">
               <label className="inline-flex items-center gap-1"><input type="radio" name="passed" value="yes" defaultChecked={values ? values.passed === "yes" : auto.passed} /> Passed</label>
               <label className="inline-flex items-center gap-1"><input type="radio" name="passed" value="no" defaultChecked={values ? values.passed === "no" : !auto.passed} /> Not passed</label>

@@ -5,11 +5,12 @@ import { requirePermission } from "~/lib/auth.server";
 import { db } from "~/lib/db.server";
 import { getAttempt, maySeeTraineeAttempts } from "~/lib/lessons/attempts.server";
 import { getLesson } from "~/lib/lessons/catalogue.server";
-import { reviewsForAttempt } from "~/lib/reviews.server";
+import { effectiveGrade, reviewsForAttempt } from "~/lib/reviews.server";
+import { formatScore } from "~/lib/gradebook";
 import { formatWhen } from "~/lib/when";
 import { Caution } from "~/components/caution";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
-import { ResultsTable, ScoreSummary } from "~/components/lessons/results";
+import { PassMark, ResultsTable, ScoreSummary } from "~/components/lessons/results";
 import { SandboxWorkspace } from "~/components/sandbox/workspace";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `Attempt: ${data?.attempt.lessonTitle ?? "lesson"} · Fallwright` }];
@@ -21,8 +22,10 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   if (!attempt || !(await maySeeTraineeAttempts(db(), user, attempt.traineeId))) throw data("No attempt with that id that you may see.", { status: 404 });
   const reviews = await reviewsForAttempt(attempt.id);
   const current = getLesson(attempt.lesson);
+  const grade = effectiveGrade(attempt, reviews);
   return {
     attempt,
+    grade: { score: grade.score, passed: grade.passed, overridden: grade.overridden, reason: grade.reason, why: grade.why },
     mine: attempt.traineeId === user.id,
     outdated: !!current && current.version !== attempt.lessonVersion,
     reviews: reviews.map((r) => ({ id: r.id, reviewerName: r.reviewerName, comment: r.comment, overrideScore: r.overrideScore, overridePassed: r.overridePassed, reason: r.reason, at: r.at })),
@@ -30,7 +33,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 }
 
 export default function AttemptPage() {
-  const { attempt, mine, outdated, reviews } = useLoaderData<typeof loader>();
+  const { attempt, grade, mine, outdated, reviews } = useLoaderData<typeof loader>();
   const r = attempt.results;
   return (
     <div className="grid gap-6">
@@ -45,7 +48,17 @@ export default function AttemptPage() {
           {outdated ? " · graded on an earlier version of this lesson" : ""}
         </p>
       </header>
-      <ScoreSummary result={r} heading={mine ? "Your result" : "Result"} />
+      {grade.overridden ? (
+        <div className={`rounded border-2 px-4 py-3 ${grade.passed ? "border-ok bg-ok/5" : "border-bad bg-bad/5"}`} role="status" data-testid="grade-that-counts">
+          <p className="text-xs font-medium uppercase tracking-wide text-ink-soft">The grade that counts (changed by your trainer)</p>
+          {grade.reason ? <p className="mt-1 font-medium text-bad">{grade.reason}</p> : null}
+          <p className="mt-1 flex flex-wrap items-baseline gap-x-4">
+            <span className="text-3xl font-bold tabular-nums">{formatScore(grade.score)}<span className="text-base font-normal text-ink-soft"> / 100</span></span>
+            <PassMark passed={grade.passed} />
+          </p>
+        </div>
+      ) : null}
+      <ScoreSummary result={r} heading={grade.overridden ? "Automatic grade (changed by your trainer, see above)" : mine ? "Your result" : "Result"} />
       {reviews.length > 0 && (
         <section className="card grid gap-3" aria-labelledby="reviews-heading">
           <h2 id="reviews-heading" className="text-lg font-bold">From your trainer</h2>

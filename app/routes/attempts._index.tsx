@@ -3,17 +3,22 @@ import type { Route } from "./+types/attempts._index";
 import { requirePermission } from "~/lib/auth.server";
 import { db } from "~/lib/db.server";
 import { listAttempts } from "~/lib/lessons/attempts.server";
+import { gradesOfAttempts } from "~/lib/grades.server";
+import { WHY_SHORT } from "~/lib/lessons/grading-rule";
 import { formatWhen } from "~/lib/when";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
 import { PassMark } from "~/components/lessons/results";
+import { formatScore } from "~/lib/gradebook";
 
 export const meta: Route.MetaFunction = () => [{ title: "My attempts · Fallwright" }];
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requirePermission(request, "lessons:take");
   const attempts = await listAttempts(db(), user.id);
+  const grades = await gradesOfAttempts(attempts.map((a) => a.id));
   return {
     attempts: attempts.map((a) => ({
+      grade: grades.get(a.id) ?? null,
       id: a.id,
       lesson: a.lesson,
       lessonTitle: a.lessonTitle,
@@ -63,8 +68,12 @@ export default function MyAttempts() {
                 <tr key={a.id} className="align-top">
                   <td><Link className="font-medium underline" to={`/lessons/${a.lesson}`}>{a.lessonTitle}</Link></td>
                   <td className="whitespace-nowrap">{formatWhen(a.submittedAt)}</td>
-                  <td className="text-right font-medium">{Math.round(a.score * 10) / 10}</td>
-                  <td className="whitespace-nowrap"><PassMark passed={a.passed} /></td>
+                  <td className="text-right font-medium" data-testid="attempt-score">{formatScore(a.grade?.score ?? a.score)}</td>
+                  <td data-testid="attempt-result">
+                    <span className="whitespace-nowrap"><PassMark passed={a.grade?.passed ?? a.passed} /></span>
+                    {a.grade?.overridden ? <span className="ml-1 text-xs text-ink-soft">(changed by your trainer)</span> : null}
+                    {a.grade && !a.grade.passed && a.grade.why ? <div className="text-xs text-bad" title={a.grade.reason ?? undefined}>{WHY_SHORT[a.grade.why]}</div> : null}
+                  </td>
                   <td className="max-w-sm text-xs text-ink-soft">
                     {!a.missedQuestions.length && !a.missedCriteria.length ? "nothing" : null}
                     {a.missedQuestions.length > 0 && <div>{a.missedQuestions.length === 1 ? "question" : "questions"} {a.missedQuestions.join(", ")}</div>}

@@ -16,7 +16,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   if (!can(user.role, "gradebook:view")) return new Response("Your account cannot see gradebooks.", { status: 403, headers: { "Content-Type": "text/plain; charset=utf-8" } });
   const cls = await getClassFor(user, params.id, "manage");
   if (!cls) return new Response("No such class among yours.", { status: 404, headers: { "Content-Type": "text/plain; charset=utf-8" } });
-  const csv = gradebookCsv(await classGradebook(cls.id));
+  const csv = gradebookCsv(await classGradebook(cls));
   // A byte-order mark so spreadsheet programs read names with accents as UTF-8.
   return new Response(`\uFEFF${csv}\r\n`, {
     headers: {

@@ -11,7 +11,7 @@ export const meta: Route.MetaFunction = ({ data }) => [{ title: `Gradebook · ${
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requirePermission(request, "gradebook:view");
   const cls = await findClassFor(user, params.id, "manage");
-  return { cls: { id: cls.id, name: cls.name }, book: await classGradebook(cls.id) };
+  return { cls: { id: cls.id, name: cls.name }, book: await classGradebook(cls) };
 }
 
 export default function ClassGradebook() {

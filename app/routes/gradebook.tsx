@@ -1,7 +1,7 @@
 import { Form, Link, useLoaderData, useSubmit } from "react-router";
 import type { Route } from "./+types/gradebook";
 import { requirePermission } from "~/lib/auth.server";
-import { isUuid, listClassesFor } from "~/lib/classes.server";
+import { getClassFor, isUuid, listClassesFor } from "~/lib/classes.server";
 import { classGradebook } from "~/lib/gradebook.server";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
 import { GradebookView } from "~/components/classes/gradebook-view";
@@ -14,7 +14,8 @@ export async function loader({ request }: Route.LoaderArgs) {
   const asked = new URL(request.url).searchParams.get("class");
   // Only a class from my own list can be chosen: another trainer's id falls back to my first class.
   const selected = classes.find((c) => isUuid(asked) && c.id === asked) ?? classes[0] ?? null;
-  const book = selected ? await classGradebook(selected.id) : null;
+  const cls = selected ? await getClassFor(user, selected.id, "manage") : null;
+  const book = cls ? await classGradebook(cls) : null;
   return { classes: classes.map((c) => ({ id: c.id, name: c.name })), selected: selected ? { id: selected.id, name: selected.name } : null, book };
 }
 

@@ -1,7 +1,9 @@
-import { data, Form, redirect, useActionData, useLoaderData } from "react-router";
+import { data, Form, Link, redirect, useActionData, useLoaderData, useParams } from "react-router";
 import type { Route } from "./+types/invite.$token";
 import { formFailure } from "~/lib/password-form.server";
-import { acceptInvitation, findInvitation } from "~/lib/invitations.server";
+import { getOptionalUser } from "~/lib/auth.server";
+import { acceptInvitation, findInvitation, joinClassByInvitation } from "~/lib/invitations.server";
+import { clientIp } from "~/lib/rate-limit.server";
 import { ROLE_LABELS } from "~/lib/permissions";
 import { AuthCard, Field, FormError, SubmitButton } from "~/components/form-field";
 import { LINK_STATUS, LinkProblem } from "~/components/link-problem";
@@ -9,13 +11,28 @@ import { NewPasswordFields } from "~/components/new-password-fields";
 
 export const meta: Route.MetaFunction = () => [{ title: "Accept your invitation · Fallwright" }, { name: "referrer", content: "no-referrer" }];
 
-export async function loader({ params }: Route.LoaderArgs) {
+export async function loader({ request, params }: Route.LoaderArgs) {
   const found = await findInvitation(params.token);
   if (found.state !== "valid") return data({ invitation: null, state: found.state }, { status: LINK_STATUS[found.state] });
-  return { invitation: found, state: found.state };
+  const { userId, ...invitation } = found;
+  const user = found.existingAccount ? await getOptionalUser(request) : null;
+  return {
+    invitation: { ...invitation, signedIn: !!user, signedInAsInvitee: !!user && user.id === userId },
+    state: found.state,
+  };
 }
 
 export async function action({ request, params, context }: Route.ActionArgs) {
+  const found = await findInvitation(params.token);
+  const joining = (await request.clone().formData()).get("intent") === "join";
+  if (joining || (found.state === "valid" && found.existingAccount)) {
+    // An account that is already set up joins a class only by its own choice, signed in as itself.
+    const user = await getOptionalUser(request);
+    if (!user) throw redirect(`/login?redirectTo=${encodeURIComponent(`/invite/${params.token}`)}`);
+    const joined = await joinClassByInvitation(params.token, user, clientIp(context));
+    if (!joined.ok) return data({ formError: joined.message, fieldErrors: {} as Record<string, string>, values: {} as Record<string, string> }, { status: joined.status });
+    throw redirect(`/classes/${joined.classId}`);
+  }
   const r = await acceptInvitation(request, params.token, context);
   if (r.ok) throw redirect("/", { headers: { "Set-Cookie": r.setCookie } });
   return formFailure(r);
@@ -24,7 +41,44 @@ export async function action({ request, params, context }: Route.ActionArgs) {
 export default function AcceptInvitation() {
   const { invitation, state } = useLoaderData<typeof loader>();
   const result = useActionData<typeof action>();
+  const { token } = useParams();
   if (!invitation) return <LinkProblem state={state} kind="invitation" />;
+  if (invitation.existingAccount) {
+    return (
+      <AuthCard
+        title="Join a class?"
+        lead={
+          <>
+            You are invited to join the class <strong>{invitation.className}</strong> with the account <strong>{invitation.email}</strong>. If you join, the
+            class's trainer sees your attempts at its lessons and can review them.
+          </>
+        }
+      >
+        <FormError message={result?.formError} />
+        {invitation.signedInAsInvitee ? (
+          <Form method="post" className="flex flex-wrap gap-3">
+            <SubmitButton intent="join" pendingText="Joining…">Join the class</SubmitButton>
+            <Link className="btn" to="/classes">Not now</Link>
+          </Form>
+        ) : (
+          <div className="grid gap-3 text-sm">
+            <p>
+              {invitation.signedIn
+                ? `You are signed in with another account. Sign out, then sign in as ${invitation.email} to answer this invitation.`
+                : `Sign in as ${invitation.email} to answer this invitation.`}
+            </p>
+            {invitation.signedIn ? null : (
+              <p>
+                <Link className="btn-primary" to={`/login?redirectTo=${encodeURIComponent(`/invite/${token}`)}`}>
+                  Sign in
+                </Link>
+              </p>
+            )}
+          </div>
+        )}
+      </AuthCard>
+    );
+  }
   return (
     <AuthCard
       title="Welcome to Fallwright"

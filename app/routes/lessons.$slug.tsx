@@ -7,6 +7,7 @@ import { getOptionalUser, requirePermission } from "~/lib/auth.server";
 import { db } from "~/lib/db.server";
 import { readFormCapped } from "~/lib/json-api.server";
 import { progressOf } from "~/lib/lessons/attempts.server";
+import { GRADING_RULE_LINES } from "~/lib/lessons/grading-rule";
 import { getLesson } from "~/lib/lessons/catalogue.server";
 import { submissionFromForm, submitAttempt } from "~/lib/lessons/submit.server";
 import { lessonView } from "~/lib/lessons/view.server";
@@ -108,6 +109,15 @@ export default function LessonPlayer() {
         <ul className="mt-2 list-disc space-y-1 pl-6">
           {lesson.objectives.map((o) => (
             <li key={o}>{o}</li>
+          ))}
+        </ul>
+      </section>
+
+      <section className="card" aria-labelledby="grading-heading" data-testid="grading-rule">
+        <h2 id="grading-heading" className="font-bold">How this lesson is graded</h2>
+        <ul className="mt-2 list-disc space-y-1 pl-6 text-sm">
+          {GRADING_RULE_LINES(lesson.passMark).map((line) => (
+            <li key={line}>{line}</li>
           ))}
         </ul>
       </section>

@@ -114,10 +114,10 @@ describe("invitation by e-mail", () => {
     const userId = await userIdOf(email);
     expect(await k("class_members").where({ class_id: cls.id, user_id: userId }).first()).toBeTruthy();
 
-    // An existing trainee account is added straight away and told by e-mail.
+    // An existing trainee account is asked by e-mail and is not a member until it accepts (issue 13, defect 3).
     const existing = await createInvitation({ email: "trainee4@tidemark.example", role: "trainee", classId: cls.id, invitedBy: trainer, origin: "http://localhost" });
-    expect(existing).toMatchObject({ status: "added_to_class", emailSent: true });
-    expect(await k("class_members").where({ class_id: cls.id, user_id: await userIdOf("trainee4@tidemark.example") }).first()).toBeTruthy();
+    expect(existing).toMatchObject({ status: "asked_to_join", emailSent: true });
+    expect(await k("class_members").where({ class_id: cls.id, user_id: await userIdOf("trainee4@tidemark.example") }).first()).toBeUndefined();
   });
 
   it("an unknown invitation link answers 404 with a way forward, and an expired one 410", async () => {

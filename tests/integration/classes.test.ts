@@ -79,8 +79,8 @@ describe("inviting by a pasted list", () => {
     expect(report.invited.sort()).toEqual([a, b].sort());
     expect(report.invalid).toEqual(["not-an-address", "bob@"]);
     expect(report.repeated).toEqual([a]);
-    // An existing trainee account joins at once (and is told); a staff account is refused.
-    expect(report.added).toEqual(["trainee@tidemark.example"]);
+    // An existing trainee account is asked to join (it joins when it accepts); a staff account is refused.
+    expect(report.askedToJoin).toEqual(["trainee@tidemark.example"]);
     expect(report.refused.map((x: { email: string }) => x.email)).toEqual(["admin@tidemark.example"]);
     // The box keeps only what needs fixing.
     expect(r.data.text).toBe("not-an-address\nbob@");
@@ -91,22 +91,22 @@ describe("inviting by a pasted list", () => {
       expect(linkIn(mail, "/invite/").origin).toBe(ORIGIN);
     }
     const tokens = await database.db()("tokens").where({ class_id: id, kind: "invitation" }).whereNull("used_at").select("email");
-    expect(tokens.map((t) => t.email).sort()).toEqual([a, b].sort());
+    expect(tokens.map((t) => t.email).sort()).toEqual([a, b, "trainee@tidemark.example"].sort());
 
-    // Pasting again: members and open invitations are skipped, nothing new is sent.
+    // Pasting again: open invitations (the existing account's too) are skipped, nothing new is sent.
     const again = await callRoute(classPage.action, formPost(`/classes/${id}`, { intent: "invite", addresses: `${a}\ntrainee@tidemark.example` }, cookies.trainer), { params: { id } });
-    expect(again.data.report).toMatchObject({ invited: [], alreadyInvited: [a], alreadyMember: ["trainee@tidemark.example"] });
-    expect(await database.db()("tokens").where({ class_id: id, kind: "invitation" }).count("* as n").first()).toMatchObject({ n: "2" });
+    expect(again.data.report).toMatchObject({ invited: [], askedToJoin: [], alreadyInvited: [a, "trainee@tidemark.example"], alreadyMember: [] });
+    expect(await database.db()("tokens").where({ class_id: id, kind: "invitation" }).count("* as n").first()).toMatchObject({ n: "3" });
 
     const page = await callRoute(classPage.loader, get(`/classes/${id}`, cookies.trainer), { params: { id } });
-    expect(page.data.pending.map((p: { email: string }) => p.email).sort()).toEqual([a, b].sort());
-    expect(page.data.members.map((m: { email: string }) => m.email)).toEqual(["trainee@tidemark.example"]);
+    expect(page.data.pending.map((p: { email: string }) => p.email).sort()).toEqual([a, b, "trainee@tidemark.example"].sort());
+    expect(page.data.members).toEqual([]);
 
     // Withdraw one: its link stops working and it leaves the list.
     const w = await callRoute(classPage.action, formPost(`/classes/${id}`, { intent: "withdraw", email: b }, cookies.trainer), { params: { id } });
     expect(w.status).toBe(200);
     const after = await callRoute(classPage.loader, get(`/classes/${id}`, cookies.trainer), { params: { id } });
-    expect(after.data.pending.map((p: { email: string }) => p.email)).toEqual([a]);
+    expect(after.data.pending.map((p: { email: string }) => p.email)).toEqual([a, "trainee@tidemark.example"].sort());
   });
 
   it("an empty or all-invalid paste is a 400 that keeps the text", async () => {

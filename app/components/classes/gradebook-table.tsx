@@ -83,7 +83,7 @@ export function GradebookTable({ book, classId }: { book: Gradebook; classId: st
               <Link
                 to={`/attempts/${cell.attemptId}/review?class=${classId}`}
                 className="-m-1 inline-block rounded p-1 hover:bg-paper-deep"
-                aria-label={`${who}, ${l.title}: ${formatScore(cell.score)} ${STATUS_LABELS[cellStatus(cell)]}${cell.overridden ? " (override)" : ""}. Open the review`}
+                aria-label={`${who}, ${l.title}: ${formatScore(cell.score)} ${STATUS_LABELS[cellStatus(cell)]}${cell.overridden ? " (override)" : ""}${cell.reason && !cell.passed ? `. ${cell.reason}` : "."} Open the review`}
               >
                 <GradeMark cell={cell} />
                 <span className="block text-[11px] text-ink-soft">{cell.attempts} attempt{cell.attempts === 1 ? "" : "s"}</span>

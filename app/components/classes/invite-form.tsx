@@ -24,7 +24,7 @@ export function InviteReportView({ report }: { report: InviteReport }) {
   return (
     <div role="status" className="grid gap-2 rounded border border-rule bg-paper px-3 py-2 text-sm">
       <Group title="Invitation e-mailed" items={report.invited} tone="ok" />
-      <Group title="Already had an account: added to the class and told by e-mail" items={report.added} tone="ok" />
+      <Group title="Already had an account: asked by e-mail to join (they join when they accept)" items={report.askedToJoin} tone="ok" />
       <Group title="Not valid e-mail addresses (left in the box to fix)" items={report.invalid} tone="bad" />
       <Group title="Refused" items={report.refused.map((r) => `${r.email}: ${r.message}`)} tone="bad" />
       <Group title="E-mail could not be sent (the invitation stands; resend later)" items={report.mailFailed} tone="bad" />

@@ -1,5 +1,6 @@
 import { Check, X } from "lucide-react";
-import type { GradeResult, ItemResult } from "~/lib/lessons/grade";
+import { failedRequiredOf, type GradeResult, type ItemResult } from "~/lib/lessons/grade";
+import { readGrade } from "~/lib/lessons/grading-rule";
 
 const fmt = (n: number) => (Number.isInteger(Math.round(n * 10) / 10) ? String(Math.round(n)) : n.toFixed(1));
 
@@ -37,16 +38,23 @@ export function ItemFeedback({ item }: { item: ItemResult }) {
 /** The headline of a graded attempt: total score against the pass mark, and each part's share. */
 export function ScoreSummary({ result, heading = "Your result" }: { result: GradeResult; heading?: string }) {
   const part = (items: ItemResult[]) => `${items.filter((i) => i.passed).length} of ${items.length}`;
+  const grade = readGrade({ score: result.score, passed: result.passed, passMark: result.passMark, failedRequired: failedRequiredOf(result) });
+  const points = result.rawScore ?? result.score;
   return (
-    <div className={`rounded border-2 px-4 py-3 ${result.passed ? "border-ok bg-ok/5" : "border-bad bg-bad/5"}`} role="status" data-testid="score-summary">
+    <div className={`rounded border-2 px-4 py-3 ${grade.passed ? "border-ok bg-ok/5" : "border-bad bg-bad/5"}`} role="status" data-testid="score-summary">
       <p className="text-xs font-medium uppercase tracking-wide text-ink-soft">{heading}</p>
+      {grade.reason ? (
+        <p className="mt-1 font-medium text-bad" data-testid="grade-reason">
+          {grade.reason}
+        </p>
+      ) : null}
       <p className="mt-1 flex flex-wrap items-baseline gap-x-4 gap-y-1">
-        <span className="text-3xl font-bold tabular-nums">{fmt(result.score)}<span className="text-base font-normal text-ink-soft"> / 100</span></span>
-        <PassMark passed={result.passed} label={result.passed ? "Passed" : `Not passed (pass mark ${result.passMark})`} />
+        <span className="text-3xl font-bold tabular-nums" data-testid="grade-score">{fmt(grade.score)}<span className="text-base font-normal text-ink-soft"> / 100</span></span>
+        <PassMark passed={grade.passed} label={grade.passed ? "Passed" : `Not passed (pass mark ${result.passMark})`} />
       </p>
       <p className="mt-1 text-sm text-ink-soft">
         Quiz: {part(result.quiz)} right · Roof task: {part(result.task)} criteria met
-        {result.task.some((i) => i.required && !i.passed) ? " · a required criterion is not met" : ""}
+        {grade.why === "required" && points !== grade.score ? ` · points earned ${fmt(points)}, capped at ${fmt(grade.score)}` : ""}
       </p>
     </div>
   );

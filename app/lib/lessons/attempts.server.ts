@@ -5,6 +5,7 @@ import { keyReusedMessage, requestHash, sameRequest } from "../idempotency.serve
 import { gradeLesson, type GradeResult } from "./grade";
 import type { Lesson } from "./schema";
 import { lessonVersion } from "./sync.server";
+import { traineeGrades } from "~/lib/grades.server";
 
 /** The body of POST /api/v1/attempts and of the player's form (after decoding). */
 export const submissionSchema = z.object({
@@ -160,15 +161,22 @@ export interface Progress {
   lastAt: string;
 }
 
-/** Per lesson: number of attempts, best score, whether any attempt passed. */
-export async function progressOf(knex: Knex, traineeId: string): Promise<Record<string, Progress>> {
-  const rows: { lesson_slug: string; attempts: string | number; best: number; passed: boolean; last_at: Date | string }[] = await knex("attempts")
-    .where("trainee_id", traineeId)
-    .groupBy("lesson_slug")
-    .select("lesson_slug", knex.raw("count(*) as attempts"), knex.raw("max(score) as best"), knex.raw("bool_or(passed) as passed"), knex.raw("max(submitted_at) as last_at"));
-  return Object.fromEntries(
-    rows.map((r) => [r.lesson_slug, { lesson: r.lesson_slug, attempts: Number(r.attempts), bestScore: r.best, passed: r.passed, lastAt: new Date(r.last_at).toISOString() }]),
-  );
+/**
+ * Per lesson: number of attempts, best score, whether any attempt passed, each grade read by the
+ * grading rule (grading-rule.ts, overrides included), so "best 100 · not passed" cannot appear.
+ */
+export async function progressOf(_knex: Knex, traineeId: string): Promise<Record<string, Progress>> {
+  const out: Record<string, Progress> = {};
+  for (const { lesson, cell } of await traineeGrades(traineeId)) {
+    const p = (out[lesson] ??= { lesson, attempts: 0, bestScore: 0, passed: false, lastAt: cell.submittedAt });
+    p.attempts += 1;
+    // The best score among passing attempts if any passed, else the best of all.
+    if (cell.passed && !p.passed) p.bestScore = cell.score;
+    else if (cell.passed === p.passed) p.bestScore = Math.max(p.bestScore, cell.score);
+    p.passed ||= cell.passed;
+    if (cell.submittedAt > p.lastAt) p.lastAt = cell.submittedAt;
+  }
+  return out;
 }
 
 /** Who may see a trainee's attempts: the trainee, a trainer of one of their classes, an admin of their organisation. */

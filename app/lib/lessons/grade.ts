@@ -5,6 +5,7 @@
 import { analyse, formatRatio, parseFall, parseSpec } from "../../engine";
 import type { Analysis, RoofSpec } from "../../engine/types";
 import { CRITERION_KINDS, formatLimit } from "./criteria";
+import { cappedScore } from "./grading-rule";
 import { dimensionName, parseQuantity, parseRatio, quantityOf, sameDimension, valueIn } from "./quantity";
 import type { Criterion, FrontMatter, Question, Task } from "./schema";
 
@@ -22,8 +23,10 @@ export interface ItemResult {
 }
 
 export interface GradeResult {
-  /** 0-100, rounded to one decimal. */
+  /** 0-100, rounded to one decimal: the score that counts (capped when a required check failed, see grading-rule.ts). */
   score: number;
+  /** The points share before any cap (absent on attempts graded before the cap existed). */
+  rawScore?: number;
   passed: boolean;
   passMark: number;
   quiz: ItemResult[];
@@ -224,7 +227,12 @@ export function gradeTask(task: Task, submitted: unknown): TaskGrade {
   return { ok: true, items, analysis, spec };
 }
 
-/** Grades a whole lesson attempt: every question and the roof task. Total 0-100; pass by pass mark and required items. */
+/** Labels of the required items an attempt did not meet (quiz or task). */
+export function failedRequiredOf(result: Pick<GradeResult, "quiz" | "task">): string[] {
+  return [...result.task, ...result.quiz].filter((i) => i.required && !i.passed).map((i) => i.label);
+}
+
+/** Grades a whole lesson attempt: every question and the roof task, by the rule in grading-rule.ts. */
 export function gradeLesson(lesson: Pick<FrontMatter, "quiz" | "task" | "passMark">, answers: Answers, submitted: unknown): GradeResult | Extract<TaskGrade, { ok: false }> {
   const task = gradeTask(lesson.task, submitted);
   if (!task.ok) return task;
@@ -232,10 +240,12 @@ export function gradeLesson(lesson: Pick<FrontMatter, "quiz" | "task" | "passMar
   const all = [...quiz, ...task.items];
   const weight = all.reduce((s, i) => s + i.weight, 0);
   const earned = all.reduce((s, i) => s + i.score, 0);
-  const score = weight > 0 ? Math.round((1000 * earned) / weight) / 10 : 0;
+  const rawScore = weight > 0 ? Math.round((1000 * earned) / weight) / 10 : 0;
   const requiredMet = all.every((i) => !i.required || i.passed);
+  const score = requiredMet ? rawScore : cappedScore(rawScore, lesson.passMark);
   return {
     score,
+    rawScore,
     passed: requiredMet && score >= lesson.passMark,
     passMark: lesson.passMark,
     quiz,

@@ -300,7 +300,8 @@ describe("roof tasks graded by running the engine again", () => {
     const twoOutlets = { ...(task.reference as object), outlets: [{ at: [6, 0] }, { at: [12, 0] }] };
     const req = gradeLesson(lesson, { q1: "1 m" }, twoOutlets);
     expect(req).toMatchObject({ score: 60, passed: false });
+    // 80 points with a pass mark of 50, but a required criterion failed: not passed, score capped at 49 (grading-rule.ts).
     const required = gradeLesson({ ...lesson, passMark: 50 }, { q1: "150 mm" }, twoOutlets);
-    expect(required).toMatchObject({ score: 80, passed: false });
+    expect(required).toMatchObject({ score: 49, rawScore: 80, passed: false });
   });
 });
