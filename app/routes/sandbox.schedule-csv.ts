@@ -1,6 +1,7 @@
 import type { Route } from "./+types/sandbox.schedule-csv";
 import { analyse, parseSpec } from "~/engine";
 import { scheduleCsv } from "~/components/sandbox/schedule-csv";
+import { isUnitSystem, systemFor, type UnitSystem } from "~/lib/units";
 
 /** Longest spec text accepted; 200 vertices and 100 outlets fit many times over. */
 const MAX_SPEC_CHARS = 256 * 1024;
@@ -12,28 +13,35 @@ export function loader() {
   return text("POST the roof spec (form field `spec`, JSON) to get its drop schedule as CSV.", 405, { Allow: "POST" });
 }
 
-async function specText(request: Request): Promise<string | null> {
+/** The spec's text and the units asked for (form field or query `units`: metric or us). */
+async function specText(request: Request): Promise<{ spec: string | null; units: string | null }> {
   const type = request.headers.get("content-type") ?? "";
-  if (type.includes("application/json")) return await request.text();
+  const query = new URL(request.url).searchParams.get("units");
+  if (type.includes("application/json")) return { spec: await request.text(), units: query };
   if (type.includes("application/x-www-form-urlencoded") || type.includes("multipart/form-data")) {
-    const value = (await request.formData()).get("spec");
-    return typeof value === "string" ? value : null;
+    const form = await request.formData();
+    const value = form.get("spec");
+    const units = form.get("units");
+    return { spec: typeof value === "string" ? value : null, units: typeof units === "string" ? units : query };
   }
-  return null;
+  return { spec: null, units: query };
 }
 
 /**
  * POST /sandbox/schedule.csv: the drop schedule (every joist span with levels and drops below H)
- * of the posted roof, as a CSV attachment. Open to everyone like the sandbox; nothing is stored.
+ * of the posted roof, as a CSV attachment, in the units asked for (`units`: metric or us). Open to
+ * everyone like the sandbox; nothing is stored.
  */
 export async function action({ request }: Route.ActionArgs) {
   if (request.method !== "POST") return text("Only POST.", 405, { Allow: "POST" });
   let raw: string | null;
+  let units: string | null;
   try {
-    raw = await specText(request);
+    ({ spec: raw, units } = await specText(request));
   } catch {
     return text("The request body could not be read.", 400);
   }
+  if (units != null && units !== "" && !isUnitSystem(units)) return text("The field `units` must be metric or us.", 400);
   if (raw == null || raw.trim() === "") return text("Send the roof spec as the form field `spec` (JSON).", 400);
   if (raw.length > MAX_SPEC_CHARS) return text("The roof spec is too large.", 413);
   let input: unknown;
@@ -44,9 +52,11 @@ export async function action({ request }: Route.ActionArgs) {
   }
   const parsed = parseSpec(input);
   if (!parsed.ok) return text(parsed.error.message, parsed.status);
+  // Unless asked, the roof's rule set decides (US customary for a US code), as on screen.
+  const system: UnitSystem = isUnitSystem(units) ? units : systemFor(null, parsed.spec.ruleSet);
   let csv: string;
   try {
-    csv = scheduleCsv(analyse(parsed.spec, { mesh: false, traces: false }).shaped.joists);
+    csv = scheduleCsv(analyse(parsed.spec, { mesh: false, traces: false }).shaped.joists, system);
   } catch {
     return text("This roof could not be analysed.", 422);
   }

@@ -1,6 +1,6 @@
 import type { Analysis } from "~/engine";
 import { FallRatio } from "./fall-ratio";
-import { metres, mm, point } from "./format";
+import { useFormat } from "./format";
 import { ResultsSection } from "./results-section";
 import { useSandbox, useSandboxStore } from "./store";
 
@@ -13,6 +13,7 @@ function drainName(drain: string) {
 
 /** The longest fall line (and the flattest, when it is another one): the path water takes from the rim. */
 export function FallLineSection({ analysis }: { analysis: Analysis }) {
+  const { metres, mm, point } = useFormat();
   const store = useSandboxStore();
   const highlight = useSandbox((s) => s.view.highlightFallLine);
   const { longestFallLine: longest, worstFallLine: worst } = analysis.shaped;
