@@ -21,6 +21,7 @@ import { levelAt } from "./surface";
 import { flowTraces } from "./traces";
 import { twistWarnings } from "./twist";
 import type { Analysis, FallLine, RoofSpec, Warning } from "./types";
+import { drainName, outletName } from "./names";
 
 export interface AnalyseOptions {
   /**
@@ -118,7 +119,7 @@ function analyseWith(memory: Arena, roof: Roof, options: AnalyseOptions): Analys
   if (worst && worst.ratio > roof.minFall.ratio * (1 + 1e-9)) {
     warnings.push({
       code: "fall-line-too-flat",
-      message: `The fall line from ${pt(worst.from)} to ${worst.drain} falls at ${formatRatio(worst.ratio)}, flatter than the minimum ${formatRatio(roof.minFall.ratio)}.`,
+      message: `The fall line from ${pt(worst.from)} to ${drainName(worst.drain)} falls at ${formatRatio(worst.ratio)}, flatter than the minimum ${formatRatio(roof.minFall.ratio)}.`,
       at: worst.from,
     });
   }
@@ -152,7 +153,7 @@ function analyseWith(memory: Arena, roof: Roof, options: AnalyseOptions): Analys
   if (gutter.comparable && gutter.narrowGutterOutlets.length) {
     warnings.push({
       code: "narrow-gutter",
-      message: `In the gutter layout, a ${mm(gutter.width)} gutter is too narrow for a clamped outlet at outlet ${gutter.narrowGutterOutlets.map((i) => i + 1).join(", ")}.`,
+      message: `In the gutter layout, a ${mm(gutter.width)} gutter is too narrow for a clamped outlet at outlet ${gutter.narrowGutterOutlets.map(outletName).join(", ")}.`,
     });
   }
   const openEdge = openEdgeOption(roof);

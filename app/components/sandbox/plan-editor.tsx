@@ -140,7 +140,7 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
     store.getState().edit((x) => addOutlet(x, edge, len > 0 ? along / len : 0.5));
     const index = store.getState().spec.outlets.length - 1;
     store.getState().select({ kind: "outlet", index });
-    announce(`Outlet ${index + 1} placed on edge ${edge + 1}.`);
+    announce(`Outlet O${index + 1} placed on edge ${edge + 1}.`);
   }
 
   function clickEdge(e: React.MouseEvent<SVGElement>, edge: number) {
@@ -214,7 +214,7 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
       e.preventDefault();
       store.getState().edit((s) => deleteOutlet(s, k));
       store.getState().select(null);
-      announce(`Outlet ${k + 1} deleted.`);
+      announce(`Outlet O${k + 1} deleted.`);
     }
   }
 
@@ -339,7 +339,7 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
               data-handle={`outlet-${k}`}
               tabIndex={0}
               role="button"
-              aria-label={`Outlet ${k + 1} at x ${len_(o.at[0])}, y ${len_(o.at[1])}`}
+              aria-label={`Outlet O${k + 1} at x ${len_(o.at[0])}, y ${len_(o.at[1])}`}
               aria-describedby={helpId}
               className={`${readOnly ? "" : "cursor-grab"} outline-none`}
               onPointerDown={(e) => startDrag(e, { kind: "outlet", index: k })}
