@@ -47,5 +47,6 @@ export default [
       route("audit", "routes/admin.audit.tsx"),
       route("outbox", "routes/admin.outbox.tsx"),
     ]),
+    route("*", "routes/$.tsx"),
   ]),
 ] satisfies RouteConfig;

@@ -1,5 +1,6 @@
 import { useEffect } from "react";
 import { isRouteErrorResponse, Link, useRouteError, useRouteLoaderData } from "react-router";
+import { ArrowLeft } from "lucide-react";
 
 let hydrated = false;
 
@@ -30,26 +31,39 @@ export function GeneralErrorBoundary() {
   const error = useRouteError();
   let status = 500;
   let detail: string | undefined;
+  let stack: string | undefined;
   if (isRouteErrorResponse(error)) {
     status = error.status;
-    if (typeof error.data === "string" && error.data && status < 500) detail = error.data;
+    // A route's own words add to the page's; the router's ("No route matches URL …") and a
+    // repeat of the page's own text do not.
+    if (typeof error.data === "string" && error.data && status < 500 && !/^Error: No route matches/.test(error.data)) detail = error.data;
   } else if (import.meta.env.DEV && error instanceof Error) {
-    detail = error.stack;
+    stack = error.stack;
   }
   const reference = useErrorReference();
   const msg = MESSAGES[status] ?? { title: "Something went wrong on our side", body: "The error has been logged. Try again, and tell your trainer or admin if it keeps happening." };
+  if (detail && (detail.trim() === msg.body || detail.trim() === msg.title)) detail = undefined;
   return (
-    <section className="card" role="alert">
-      <p className="text-sm font-medium text-ink-soft">Error {status}</p>
-      <h1 className="mt-1 text-2xl font-bold">{msg.title}</h1>
+    <section className="card mx-auto max-w-2xl" role="alert" data-testid="error-page">
+      <p className="text-xs font-medium uppercase tracking-widest text-accent">Error {status}</p>
+      <h1 className="mt-1 text-2xl font-bold tracking-tight">{msg.title}</h1>
       <p className="mt-2">{msg.body}</p>
       {status >= 500 ? (
         <p className="mt-2 text-sm text-ink-soft">
           If you report this, quote the <span data-testid="error-reference">{reference}</span>.
         </p>
       ) : null}
-      {detail ? <pre className="mt-4 overflow-auto whitespace-pre-wrap text-xs text-ink-soft">{detail}</pre> : null}
-      <p className="mt-4"><Link className="underline" to="/">Go to Home</Link></p>
+      {detail ? <p className="mt-2 text-ink-soft">{detail}</p> : null}
+      {stack ? <pre className="mt-4 overflow-auto whitespace-pre-wrap text-xs text-ink-soft">{stack}</pre> : null}
+      <nav aria-label="Ways back" className="mt-5 flex flex-wrap gap-2">
+        <button type="button" className="btn min-h-11 sm:min-h-0" onClick={() => window.history.back()}>
+          <ArrowLeft size={16} aria-hidden="true" /> Go back
+        </button>
+        <Link className="btn-primary min-h-11 sm:min-h-0" to="/">Home</Link>
+        <Link className="btn min-h-11 sm:min-h-0" to="/sandbox">Sandbox</Link>
+        <Link className="btn min-h-11 sm:min-h-0" to="/lessons">Lessons</Link>
+        {status === 403 ? <Link className="btn min-h-11 sm:min-h-0" to="/account">Your account</Link> : null}
+      </nav>
     </section>
   );
 }

@@ -23,6 +23,7 @@ import { levelAt } from "./surface";
 import { flowTraces } from "./traces";
 import { twistWarnings } from "./twist";
 import type { Analysis, FallLine, RoofSpec, Warning } from "./types";
+import { drainName, outletName } from "./names";
 
 export interface AnalyseOptions {
   /**
@@ -137,7 +138,7 @@ function analyseWith(memory: Arena, roof: Roof, options: AnalyseOptions, candida
   if (worst && worst.ratio > roof.minFall.ratio * (1 + 1e-9)) {
     warnings.push({
       code: "fall-line-too-flat",
-      message: `The fall line from ${pt(worst.from)} to ${worst.drain} falls at ${formatRatio(worst.ratio)}, flatter than the minimum ${formatRatio(roof.minFall.ratio)}.`,
+      message: `The fall line from ${pt(worst.from)} to ${drainName(worst.drain)} falls at ${formatRatio(worst.ratio)}, flatter than the minimum ${formatRatio(roof.minFall.ratio)}.`,
       at: worst.from,
     });
   }
@@ -172,7 +173,7 @@ function analyseWith(memory: Arena, roof: Roof, options: AnalyseOptions, candida
   if (gutter.comparable && gutter.narrowGutterOutlets.length) {
     warnings.push({
       code: "narrow-gutter",
-      message: `In the gutter layout, a ${mm(gutter.width)} gutter is too narrow for a clamped outlet at outlet ${gutter.narrowGutterOutlets.map((i) => i + 1).join(", ")}.`,
+      message: `In the gutter layout, a ${mm(gutter.width)} gutter is too narrow for a clamped outlet at outlet ${gutter.narrowGutterOutlets.map(outletName).join(", ")}.`,
     });
   }
   const openEdge = openEdgeOption(roof);

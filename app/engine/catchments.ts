@@ -5,6 +5,7 @@ import type { SurfaceMesh } from "./mesh";
 import { toPlan, type Roof } from "./roof";
 import { drainLabel } from "./traces";
 import type { Analysis, Catchment, Warning } from "./types";
+import { outletName } from "./names";
 
 /**
  * The area draining to each outlet and eaves edge with its design flow (rational method, C = 1,
@@ -25,7 +26,7 @@ export function catchmentsOf(roof: Roof, mesh: SurfaceMesh, routing: Routing, fa
       drain: drainLabel(roof, routing, id),
       kind: d.kind,
       index: d.kind === "eaves" ? roof.userEdge[d.index] : d.index,
-      label: d.kind === "eaves" ? `Eaves edge ${roof.userEdge[d.index] + 1}` : `Outlet ${d.index + 1}`,
+      label: d.kind === "eaves" ? `Eaves edge ${roof.userEdge[d.index] + 1}` : `Outlet ${outletName(d.index)}`,
       area,
       flow,
     };
@@ -35,7 +36,7 @@ export function catchmentsOf(roof: Roof, mesh: SurfaceMesh, routing: Routing, fa
       if (flow > c.capacity) {
         warnings.push({
           code: "outlet-capacity",
-          message: `Outlet ${d.index + 1} (${mm(o.size)}) takes ${flow.toFixed(1)} L/s, more than the ${c.capacity.toFixed(1)} L/s it passes at a ${mm(DESIGN_HEAD)} head (assumed). Use a larger outlet or add one.`,
+          message: `Outlet ${outletName(d.index)} (${mm(o.size)}) takes ${flow.toFixed(1)} L/s, more than the ${c.capacity.toFixed(1)} L/s it passes at a ${mm(DESIGN_HEAD)} head (assumed). Use a larger outlet or add one.`,
           at: toPlan(roof, o.u, o.v),
         });
       }

@@ -1,7 +1,7 @@
-import { create, unitDependencies } from "mathjs";
+import { create, fractionDependencies, unitDependencies } from "mathjs";
 
-/** Only the unit machinery of mathjs, so the browser bundle stays small. */
-const math = create({ unitDependencies });
+/** Only the unit and fraction machinery of mathjs, so the browser bundle stays small. */
+const math = create({ unitDependencies, fractionDependencies });
 
 /** A fall in every form the product shows. ratio N means 1 in N. */
 export interface Fall {
@@ -35,21 +35,33 @@ export function fallFromSlope(slope: number): Fall {
 }
 
 const NUMBER = String.raw`[+]?(?:\d+(?:\.\d*)?|\.\d+)(?:e[+-]?\d+)?`;
-const RATIO = new RegExp(String.raw`^(${NUMBER})\s*(?::|in)\s*(${NUMBER})$`);
-const FRACTION = new RegExp(String.raw`^(${NUMBER})\s*/\s*(${NUMBER})(?=\s*[a-z])`);
+/** A plain number, a fraction "1/4" or a mixed number "1 1/2" (read by mathjs's fraction). */
+const AMOUNT = String.raw`(?:\d+\s+)?\d+\s*/\s*\d+|${NUMBER}`;
+const RATIO = new RegExp(String.raw`^(${AMOUNT})\s*(?::|in)\s*(${AMOUNT})$`);
+const LEADING_FRACTION = new RegExp(String.raw`^((?:\d+\s+)?\d+\s*/\s*\d+)(?=\s*[a-z])`);
+
+/** "1/4", "1 1/2" or "0.25" as a number, through mathjs's exact fractions. */
+function amount(text: string): number {
+  const t = text.replace(/\s*\/\s*/, "/").trim();
+  return t.includes("/") ? Number(math.fraction(t).valueOf()) : Number(t);
+}
 
 function slopeOf(text: string): number | string {
-  let s = text.trim().toLowerCase().replace(/\s+/g, " ");
+  // An inch mark is "in" to mathjs: 1/4" per ft.
+  let s = text.trim().toLowerCase().replace(/["″”]/g, " in ").replace(/\s+/g, " ").trim();
   if (!s) return "is empty";
   const ratio = RATIO.exec(s);
   if (ratio) {
-    // "1:40" and "1 in 40": a rise of 1 over a run of 40, in any one length unit.
-    const quotient: unknown = math.unit(`${ratio[1]} m`).divide(math.unit(`${ratio[2]} m`));
+    // "1:40", "1 in 40" and the US roofers' "1/4:12" (1/4 in of rise in 12 in of run): a rise
+    // over a run, in any one length unit.
+    const run = amount(ratio[2]);
+    if (run === 0) return "has a run of zero";
+    const quotient: unknown = math.unit(`${amount(ratio[1])} m`).divide(math.unit(`${run} m`));
     // mathjs simplifies m/m to a plain number; keep the Unit branch for other builds.
     return typeof quotient === "number" ? quotient : (quotient as { toNumber(u: string): number }).toNumber("m/m");
   }
   // "1/4 in/ft": mathjs reads a unit after a plain number only, so settle the fraction first.
-  s = s.replace(FRACTION, (_, a: string, b: string) => String(Number(a) / Number(b)));
+  s = s.replace(LEADING_FRACTION, (_, f: string) => String(amount(f)));
   s = s
     .replace(/%$/, " cm/m") // one percent is one centimetre per metre
     .replace(/°$/, " deg")
@@ -65,7 +77,7 @@ function slopeOf(text: string): number | string {
 }
 
 /**
- * Reads a fall written as `1:40`, `1 in 40`, `2°`, `2 deg`, `2.5%`, `25 mm/m`, `1/4 in/ft`,
+ * Reads a fall written as `1:40`, `1 in 40`, `1/4:12`, `2°`, `2 deg`, `2.5%`, `25 mm/m`, `1/4 in/ft`,
  * or a number N meaning 1:N. Unit conversion goes through mathjs units.
  */
 export function parseFall(input: string | number): FallResult {

@@ -1,6 +1,7 @@
 /** The roof engine: pure TypeScript, shared by the browser, a Web Worker and the server. */
 export { analyse, analyseRoof, type AnalyseOptions, MAX_MESH_VERTICES } from "./analyse";
 export { parseSpec, parseRoofSpec, type ParseSpecResult, type ParseRoofResult } from "./parse-spec";
+export { drainName, outletName } from "./names";
 export { parseFall, formatRatio, fallFromRatio, fallFromSlope, type Fall, type FallResult } from "./fall";
 export {
   RULE_SETS,

@@ -4,6 +4,7 @@ import { nearestOnSegment, orient, segmentsTouch } from "./geometry/segments";
 import type { Outlet, Roof } from "./roof";
 import { DEFAULT_RULE_SET, RULE_SETS, ruleValue, type RuleSetId, type UsedRule } from "./rule-sets";
 import type { EdgeKind, Point, RoofSpec } from "./types";
+import { outletName } from "./names";
 
 export interface SpecIssue {
   path: string;
@@ -147,7 +148,7 @@ export function prepareRoof(spec: RoofSpec): Prepared {
         nearestEaves <= LIMITS.outletSnap
           ? "sits on an eaves edge: outlets go on parapet edges (an eaves edge drains by itself)"
           : `is ${formatDistance(Math.min(bestDistance, nearestEaves))} from the nearest parapet edge; an outlet must be within 1 mm of one`;
-      return fail(422, `outlets.${k}.at`, `outlet ${k + 1} ${why}`);
+      return fail(422, `outlets.${k}.at`, `outlet ${outletName(k)} ${why}`);
     }
     const q = (best + 1) % n;
     const snap = nearestOnSegment(xs[best], ys[best], xs[q], ys[q], px, py);

@@ -49,3 +49,33 @@ export function legendGradient(): string {
   });
   return `linear-gradient(to right, ${stops.join(", ")})`;
 }
+
+/** The ink of the hatching on faces flatter than the minimum, and how much of it covers a stripe. */
+export const HATCH_INK: [number, number, number] = [0x1f, 0x29, 0x33];
+export const HATCH_MIX = 0.8;
+/** The 3D view shades a face by its turn to the light: its colour times SHADE_MIN..1. */
+export const SHADE_MIN = 0.62;
+
+/** Water paths and drops: a light and a dark tone together, so one of them stands out on any face. */
+export const WATER_LIGHT = "#ffffff";
+export const WATER_DARK = "#0b0f19";
+
+/** WCAG 2.x relative luminance of an sRGB colour (0..255 channels). */
+export function relativeLuminance([r, g, b]: [number, number, number]): number {
+  const lin = (c: number) => {
+    const s = c / 255;
+    return s <= 0.04045 ? s / 12.92 : ((s + 0.055) / 1.055) ** 2.4;
+  };
+  return 0.2126 * lin(r) + 0.7152 * lin(g) + 0.0722 * lin(b);
+}
+
+/** WCAG 2.x contrast ratio, 1 to 21. */
+export function contrastRatio(a: [number, number, number], b: [number, number, number]): number {
+  const [hi, lo] = [relativeLuminance(a), relativeLuminance(b)].sort((x, y) => y - x);
+  return (hi + 0.05) / (lo + 0.05);
+}
+
+export function hexRgb(hex: string): [number, number, number] {
+  const n = Number.parseInt(hex.replace("#", ""), 16);
+  return [(n >> 16) & 255, (n >> 8) & 255, n & 255];
+}

@@ -7,7 +7,7 @@
 import pino, { type Logger } from "pino";
 
 declare global {
-  // eslint-disable-next-line no-var
+   
   var __fallwrightLog: Logger | undefined;
 }
 

@@ -13,7 +13,7 @@ export interface AppMetrics {
 }
 
 declare global {
-  // eslint-disable-next-line no-var
+   
   var __fallwrightMetrics: AppMetrics | undefined;
 }
 

@@ -1,7 +1,7 @@
 /** The messages between the app and its worker threads (app/server/workers/tasks.ts). */
 export type PoolTask =
   | { kind: "analyse"; spec: unknown; mesh: boolean; traces: boolean; maxBytes: number }
-  | { kind: "csv"; spec: unknown }
+  | { kind: "csv"; spec: unknown; units?: string | null }
   | { kind: "hash"; password: string; cost: number }
   | { kind: "compare"; password: string; hash: string };
 

@@ -12,7 +12,7 @@ import type { PoolResult, PoolTask } from "~/lib/pool-tasks";
 export type PoolName = "engine" | "password";
 
 declare global {
-  // eslint-disable-next-line no-var
+   
   var __fallwrightPools: Partial<Record<PoolName, Piscina<PoolTask, PoolResult>>> | undefined;
 }
 

@@ -12,7 +12,7 @@ export interface RequestInfo {
 }
 
 declare global {
-  // eslint-disable-next-line no-var
+   
   var __fallwrightRequests: AsyncLocalStorage<RequestInfo> | undefined;
 }
 

@@ -5,6 +5,7 @@
 import { db } from "~/lib/db.server";
 import type { Role } from "~/lib/permissions";
 import { randomToken, sha256 } from "~/lib/tokens.server";
+import type { UnitsPreference } from "./units";
 
 export const SESSION_COOKIE = "fw_session";
 /** Signed out after this long without a request (sliding). */
@@ -91,6 +92,8 @@ export interface SessionUser {
   name: string;
   role: Role;
   organisationId: string;
+  /** Metric, US customary, or null to follow each roof's rule set (app/lib/units.ts). */
+  units?: UnitsPreference;
 }
 
 export interface LiveSession {
@@ -107,7 +110,7 @@ export async function findLiveSession(request: Request): Promise<LiveSession | n
     .join("users as u", "u.id", "s.user_id")
     .where("s.id", id)
     .first<
-      | { id: string; email: string; name: string; role: Role; organisation_id: string; active: boolean; expired: boolean; idle: boolean; stale: boolean }
+      | { id: string; email: string; name: string; role: Role; organisation_id: string; units: UnitsPreference; active: boolean; expired: boolean; idle: boolean; stale: boolean }
       | undefined
     >(
       "u.id",
@@ -115,6 +118,7 @@ export async function findLiveSession(request: Request): Promise<LiveSession | n
       "u.name",
       "u.role",
       "u.organisation_id",
+      "u.units",
       "u.active",
       k.raw("s.expires_at <= now() as expired"),
       k.raw("s.last_seen_at <= now() - make_interval(secs => ?) as idle", [IDLE_TIMEOUT_SECONDS]),
@@ -128,7 +132,7 @@ export async function findLiveSession(request: Request): Promise<LiveSession | n
   if (row.stale) await k("sessions").where({ id }).update({ last_seen_at: k.fn.now() });
   return {
     sessionId: id,
-    user: { id: row.id, email: row.email, name: row.name, role: row.role, organisationId: row.organisation_id },
+    user: { id: row.id, email: row.email, name: row.name, role: row.role, organisationId: row.organisation_id, units: row.units ?? null },
   };
 }
 

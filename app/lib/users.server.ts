@@ -8,6 +8,7 @@ import { newPasswordFields, NAME_MAX, type PasswordFormResult } from "~/lib/pass
 import { ROLES, type Role } from "~/lib/permissions";
 import { clientIp, hit, hitAll, LIMITS, waitPhrase } from "~/lib/rate-limit.server";
 import { createSession, destroyAllSessions, type SessionUser } from "~/lib/session.server";
+import { isUnitSystem } from "~/lib/units";
 
 export type UserStatus = "active" | "invited" | "deactivated";
 
@@ -115,6 +116,15 @@ export async function changeName(user: SessionUser, rawName: string, ip?: string
   await db()("users").where({ id: user.id }).update({ name });
   await audit({ action: "profile_changed", actorId: user.id, subjectId: user.id, ip });
   return { ok: true, message: "Your name is saved." };
+}
+
+/** Metric, US customary, or "auto" (null: follow each roof's rule set). */
+export async function changeUnits(user: SessionUser, raw: unknown, ip?: string | null): Promise<AdminResult> {
+  const units = raw === "auto" || raw === "" ? null : isUnitSystem(raw) ? raw : undefined;
+  if (units === undefined) return { ok: false, message: "Choose metric, US customary or the roof's rule set." };
+  await db()("users").where({ id: user.id }).update({ units });
+  await audit({ action: "profile_changed", actorId: user.id, subjectId: user.id, detail: { units: units ?? "auto" }, ip });
+  return { ok: true, message: "Your units are saved." };
 }
 
 /** Needs the current password; ends every session (other devices too) and keeps this browser signed in with a new one. */

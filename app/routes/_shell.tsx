@@ -4,6 +4,7 @@ import { getOptionalUser } from "~/lib/auth.server";
 import { can, ROLE_LABELS, type Permission } from "~/lib/permissions";
 import { PageErrorBoundary } from "~/components/error-boundary";
 import { Caution } from "~/components/caution";
+import { UnitsProvider, UnitsSwitch } from "~/components/units";
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await getOptionalUser(request);
@@ -24,6 +25,7 @@ export default function Shell() {
   const { user } = useLoaderData<typeof loader>();
   const items = NAV.filter((n) => (n.permission ? can(user?.role, n.permission) : n.signedIn ? !!user : true));
   return (
+    <UnitsProvider saved={user?.units ?? null} signedIn={!!user}>
     <div className="flex min-h-screen flex-col">
       <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:bg-sheet focus:p-2">
         Skip to content
@@ -51,7 +53,8 @@ export default function Shell() {
               </NavLink>
             ))}
           </nav>
-          <div className="ml-auto flex items-center gap-3 text-sm">
+          <div className="ml-auto flex flex-wrap items-center gap-3 text-sm">
+            <UnitsSwitch />
             {user ? (
               <>
                 <span>
@@ -79,6 +82,7 @@ export default function Shell() {
         </div>
       </footer>
     </div>
+    </UnitsProvider>
   );
 }
 

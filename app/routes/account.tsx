@@ -6,7 +6,7 @@ import { getLiveSession, requireUser } from "~/lib/auth.server";
 import { ROLE_LABELS } from "~/lib/permissions";
 import { clientIp, retryAfterHeaders } from "~/lib/rate-limit.server";
 import { clearSessionCookie, destroyAllSessions, listSessions } from "~/lib/session.server";
-import { changeName, changePassword } from "~/lib/users.server";
+import { changeName, changePassword, changeUnits } from "~/lib/users.server";
 import { describeDevice, formatWhen } from "~/lib/when";
 import { Field, FormError, FormNotice, SubmitButton } from "~/components/form-field";
 import { NewPasswordFields } from "~/components/new-password-fields";
@@ -31,9 +31,9 @@ export async function loader({ request }: Route.LoaderArgs) {
   };
 }
 
-const Intent = z.enum(["name", "password", "sign-out-everywhere"]);
+const Intent = z.enum(["name", "units", "password", "sign-out-everywhere"]);
 
-type AccountResult = { intent: "name" | "password" | null; message: string | null; formError: string | null; fieldErrors: Partial<Record<string, string>> };
+type AccountResult = { intent: "name" | "units" | "password" | null; message: string | null; formError: string | null; fieldErrors: Partial<Record<string, string>> };
 
 export async function action({ request, context }: Route.ActionArgs) {
   const user = await requireUser(request);
@@ -46,6 +46,13 @@ export async function action({ request, context }: Route.ActionArgs) {
       const r = await changeName(user, String(form.get("name") ?? ""), ip);
       return data<AccountResult>(
         { intent: "name", message: r.ok ? r.message : null, formError: null, fieldErrors: r.ok ? {} : { name: r.message } },
+        { status: r.ok ? 200 : 400 },
+      );
+    }
+    case "units": {
+      const r = await changeUnits(user, form.get("units"), ip);
+      return data<AccountResult>(
+        { intent: "units", message: r.ok ? r.message : null, formError: null, fieldErrors: r.ok ? {} : { units: r.message } },
         { status: r.ok ? 200 : 400 },
       );
     }

@@ -4,6 +4,7 @@ import { metrics } from "~/lib/metrics.server";
 import { PoolBusy, PoolTimeout, runInPool } from "~/lib/pool.server";
 import { currentRequest } from "~/lib/request-context.server";
 import { chargeApiWork, limitApiRequest } from "~/lib/rate-limit.server";
+import { isUnitSystem } from "~/lib/units";
 
 /** Longest spec text accepted; 200 vertices and 100 outlets fit many times over. */
 const MAX_SPEC_CHARS = 256 * 1024;
@@ -15,19 +16,24 @@ export function loader() {
   return text("POST the roof spec (form field `spec`, JSON) to get its drop schedule as CSV.", 405, { Allow: "POST" });
 }
 
-async function specText(request: Request): Promise<string | null> {
+/** The spec's text and the units asked for (form field or query `units`: metric or us). */
+async function specText(request: Request): Promise<{ spec: string | null; units: string | null }> {
   const type = request.headers.get("content-type") ?? "";
-  if (type.includes("application/json")) return await request.text();
+  const query = new URL(request.url).searchParams.get("units");
+  if (type.includes("application/json")) return { spec: await request.text(), units: query };
   if (type.includes("application/x-www-form-urlencoded") || type.includes("multipart/form-data")) {
-    const value = (await request.formData()).get("spec");
-    return typeof value === "string" ? value : null;
+    const form = await request.formData();
+    const value = form.get("spec");
+    const units = form.get("units");
+    return { spec: typeof value === "string" ? value : null, units: typeof units === "string" ? units : query };
   }
-  return null;
+  return { spec: null, units: query };
 }
 
 /**
  * POST /sandbox/schedule.csv: the drop schedule (every joist span with levels and drops below H)
- * of the posted roof, as a CSV attachment. Open to everyone like the sandbox; nothing is stored.
+ * of the posted roof, as a CSV attachment, in the units asked for (`units`: metric or us; else the
+ * roof's rule set decides, as on screen). Open to everyone like the sandbox; nothing is stored.
  * Shares the analysis API's per-address budget (charged by work done) and runs in the engine's
  * worker pool.
  */
@@ -36,11 +42,13 @@ export async function action({ request, context }: Route.ActionArgs) {
   const limited = await limitApiRequest(context);
   if (limited) return text((await limited.json()).error.message, 429, { "Retry-After": limited.headers.get("Retry-After") ?? "60" });
   let raw: string | null;
+  let units: string | null;
   try {
-    raw = await specText(request);
+    ({ spec: raw, units } = await specText(request));
   } catch {
     return text("The request body could not be read.", 400);
   }
+  if (units != null && units !== "" && !isUnitSystem(units)) return text("The field `units` must be metric or us.", 400);
   if (raw == null || raw.trim() === "") return text("Send the roof spec as the form field `spec` (JSON).", 400);
   if (raw.length > MAX_SPEC_CHARS) return text("The roof spec is too large.", 413);
   let input: unknown;
@@ -52,7 +60,7 @@ export async function action({ request, context }: Route.ActionArgs) {
   const started = performance.now();
   let result;
   try {
-    result = await runInPool("engine", { kind: "csv", spec: input }, 15_000);
+    result = await runInPool("engine", { kind: "csv", spec: input, units }, 15_000);
   } catch (error) {
     if (error instanceof PoolBusy || error instanceof PoolTimeout) return text("The server is busy. Try again in a few seconds.", 503, { "Retry-After": "5" });
     throw error;

@@ -7,7 +7,8 @@ import { readLinkedSpec } from "~/components/sandbox/linked-spec.server";
 import { Caution } from "~/components/caution";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
 import { FallRatio } from "~/components/sandbox/fall-ratio";
-import { area, fallDetail, flow, formatRatio, metres, mm, point } from "~/components/sandbox/format";
+import { fallDetail as degreesAndPercent, useFormat } from "~/components/sandbox/format";
+import { RoofUnits } from "~/components/units";
 import { PlanDrawing } from "~/components/sandbox/plan-drawing";
 import { citation, RULE_KEY_NAMES } from "~/components/sandbox/rule-keys";
 import { runAnalysis } from "~/components/sandbox/run-analysis";
@@ -87,11 +88,18 @@ function CheckSheet({ spec }: { spec: RoofSpec }) {
       </div>
     );
   }
-  return <SheetBody spec={spec} analysis={outcome.analysis} />;
+  return (
+    <RoofUnits ruleSet={spec.ruleSet}>
+      <SheetBody spec={spec} analysis={outcome.analysis} />
+    </RoofUnits>
+  );
 }
 
 function SheetBody({ spec, analysis }: { spec: RoofSpec; analysis: Analysis }) {
   const { shaped, gutter, openEdge, comparison, advice } = analysis;
+  const { area, flow, fall: formatRatio, metres, mm, point, system } = useFormat();
+  const us = system === "us";
+  const level = (m: number) => (us ? mm(m).replace(/\u00a0in$/, "") : String(Math.round(m * 1000)));
   const rows = scheduleRows(shaped.joists);
   const dir = shaped.joistDirection;
   const figures: [string, React.ReactNode][] = [
@@ -102,8 +110,8 @@ function SheetBody({ spec, analysis }: { spec: RoofSpec; analysis: Analysis }) {
     ["Longest fall line", shaped.longestFallLine ? <>{metres(shaped.longestFallLine.length)} at <FallRatio ratio={shaped.longestFallLine.ratio} /></> : "–"],
     ["Flattest fall line", <FallRatio key="w" ratio={shaped.worstFallRatio} />],
     ["Area flatter than the minimum", area(shaped.fallMap.flatterThanMinimumArea)],
-    ["Joists", `${shaped.joists.length} at ${Math.round((spec.joists?.spacing ?? 0.4) * 1000)} mm, direction (${dir[0].toFixed(3)}, ${dir[1].toFixed(3)})`],
-    ["Rainfall intensity", `${analysis.rainfall.intensity} mm/h${analysis.rainfall.assumed ? " (assumed)" : ""}`],
+    ["Joists", `${shaped.joists.length} at ${mm(spec.joists?.spacing ?? 0.4)}, direction (${dir[0].toFixed(3)}, ${dir[1].toFixed(3)})`],
+    ["Rainfall intensity", `${us ? `${(analysis.rainfall.intensity / 25.4).toFixed(2)} in/h` : `${analysis.rainfall.intensity} mm/h`}${analysis.rainfall.assumed ? " (assumed)" : ""}`],
     ["Gutter layout high level", gutter.comparable ? `${mm(gutter.highLevel)} (saves ${mm(comparison.heightSaved)} by shaping)` : `not comparable: ${gutter.reason ?? ""}`],
     ["Open edge (edge " + (openEdge.edge + 1) + ") high level", mm(openEdge.highLevel)],
   ];
@@ -134,7 +142,7 @@ function SheetBody({ spec, analysis }: { spec: RoofSpec; analysis: Analysis }) {
         <figure>
           <PlanDrawing spec={spec} analysis={analysis} className="h-auto w-full border border-rule" />
           <figcaption className="mt-1 text-xs text-ink-soft">
-            Plan. Levels in mm above the outlet datum; dashed orange: the longest fall line; thin lines: joists.
+            Plan. Levels in {us ? "inches" : "mm"} above the outlet datum; dashed orange: the longest fall line; thin lines: joists.
           </figcaption>
         </figure>
         <dl className="grid content-start gap-y-1 text-sm">
@@ -152,7 +160,7 @@ function SheetBody({ spec, analysis }: { spec: RoofSpec; analysis: Analysis }) {
           <thead><tr><th>edge</th><th>from (low)</th><th>to (high)</th><th className="text-right">fall</th><th className="text-right">° · %</th></tr></thead>
           <tbody>
             {shaped.edgeFalls.map((r, i) => (
-              <tr key={i}><td>{r.edge + 1}</td><td>{point(r.from)}</td><td>{point(r.to)}</td><td className="text-right">{formatRatio(r.ratio)}</td><td className="text-right">{fallDetail(r.ratio)}</td></tr>
+              <tr key={i}><td>{r.edge + 1}</td><td>{point(r.from)}</td><td>{point(r.to)}</td><td className="text-right">{formatRatio(r.ratio)}</td><td className="text-right">{degreesAndPercent(r.ratio)}</td></tr>
             ))}
           </tbody>
         </table>
@@ -177,7 +185,7 @@ function SheetBody({ spec, analysis }: { spec: RoofSpec; analysis: Analysis }) {
           {analysis.warnings.map((w, i) => <li key={i}>{w.message}</li>)}
           {analysis.warnings.length === 0 && <li>No warnings.</li>}
           {advice.minimumBaseFall && (
-            <li>Flattest base fall keeping every fall line at {formatRatio(analysis.minFall.ratio)}: {formatRatio(advice.minimumBaseFall.ratio)} ({fallDetail(advice.minimumBaseFall.ratio)}).</li>
+            <li>Flattest base fall keeping every fall line at {formatRatio(analysis.minFall.ratio)}: {formatRatio(advice.minimumBaseFall.ratio)} ({degreesAndPercent(advice.minimumBaseFall.ratio)}).</li>
           )}
           {advice.extraOutlet && (
             <li>One more outlet at {point(advice.extraOutlet.at)} (edge {advice.extraOutlet.edge + 1}) would bring the longest fall line to {formatRatio(advice.extraOutlet.longestFallRatio)}.</li>
@@ -188,18 +196,18 @@ function SheetBody({ spec, analysis }: { spec: RoofSpec; analysis: Analysis }) {
       <Block title={`Drop schedule (H = ${mm(shaped.highLevel)})`}>
         <table className="data-table sheet-table w-full" data-testid="sheet-schedule">
           <thead>
-            <tr><th>joist</th><th>offset (m)</th><th>span</th><th>length (m)</th><th>start level</th><th>end level</th><th>start drop</th><th>end drop</th><th>fall</th></tr>
+            <tr><th>joist</th><th>offset{us ? "" : " (m)"}</th><th>span</th><th>length{us ? "" : " (m)"}</th><th>start level</th><th>end level</th><th>start drop</th><th>end drop</th><th>fall</th></tr>
           </thead>
           <tbody>
             {rows.map((r) => (
               <tr key={`${r.joist}-${r.span}`}>
-                <td>{r.joist}</td><td>{r.offset.toFixed(2)}</td><td>{r.span}</td><td>{r.length.toFixed(2)}</td>
-                <td>{r.startLevel}</td><td>{r.endLevel}</td><td>{r.startDrop}</td><td>{r.endDrop}</td><td>{formatRatio(r.ratio)}</td>
+                <td>{r.joist}</td><td>{us ? metres(r.offset) : r.offset.toFixed(2)}</td><td>{r.span}</td><td>{us ? metres(r.length) : r.length.toFixed(2)}</td>
+                <td>{level(r.metres.startLevel)}</td><td>{level(r.metres.endLevel)}</td><td>{level(r.metres.startDrop)}</td><td>{level(r.metres.endDrop)}</td><td>{formatRatio(r.ratio)}</td>
               </tr>
             ))}
           </tbody>
         </table>
-        <p className="mt-1 text-xs text-ink-soft">Levels and drops in mm; drops measured down from H at each bearing.</p>
+        <p className="mt-1 text-xs text-ink-soft">Levels and drops in {us ? "inches (to 1/16)" : "mm"}; drops measured down from H at each bearing.</p>
       </Block>
 
       <Block title="Rule set and sources">
@@ -207,7 +215,7 @@ function SheetBody({ spec, analysis }: { spec: RoofSpec; analysis: Analysis }) {
         <ul className="mt-1 list-disc pl-5 text-sm">
           {analysis.ruleSet.used.map((u) => (
             <li key={u.key}>
-              {RULE_KEY_NAMES[u.key] ?? u.key}: {u.unit === "ratio" ? `${formatRatio(u.value)} (${fallDetail(u.value)})` : u.unit === "m" ? `${Math.round(u.value * 1000)} mm` : `× ${u.value}`}, {citation(u)}
+              {RULE_KEY_NAMES[u.key] ?? u.key}: {u.unit === "ratio" ? `${formatRatio(u.value)} (${degreesAndPercent(u.value)})` : u.unit === "m" ? mm(u.value) : `× ${u.value}`}, {citation(u)}
             </li>
           ))}
         </ul>

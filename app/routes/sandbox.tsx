@@ -21,7 +21,7 @@
  * This page opens the demo roof, or the roof in `?spec=` (base64url JSON, as the classroom's
  * "copy to my sandbox" link sends it), and keeps unsaved edits in this tab's sessionStorage.
  */
-import { data, useLoaderData } from "react-router";
+import { data, useLoaderData, useRouteLoaderData } from "react-router";
 import type { Route } from "./+types/sandbox";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
 import { DEMO_ROOF } from "~/components/sandbox/demo-roof";
@@ -29,6 +29,8 @@ import { readLinkedSpec } from "~/components/sandbox/linked-spec.server";
 import { ResetRoofButton } from "~/components/sandbox/reset-roof-button";
 import { SandboxWorkspace } from "~/components/sandbox/workspace";
 import { SaveToLibrary } from "~/components/roofs/save-to-library";
+import { can } from "~/lib/permissions";
+import type { loader as shellLoader } from "./_shell";
 
 export const meta: Route.MetaFunction = () => [
   { title: "Sandbox · Fallwright" },
@@ -49,13 +51,27 @@ function StartOver() {
   );
 }
 
+/** What happens to the roof on screen, for who is looking. */
+function SavedNote() {
+  const shell = useRouteLoaderData<typeof shellLoader>("routes/_shell");
+  const user = shell?.user;
+  let text = "Nothing here is saved on the server. Sign in to keep roofs in your library.";
+  if (user && can(user.role, "roofs:own")) text = "This roof is kept in this browser tab only until you press “Save to my roofs”.";
+  else if (user) text = "This roof is kept in this browser tab only; your role has no roof library.";
+  return (
+    <p className="text-sm text-ink-soft" data-testid="sandbox-saved-note">
+      {text}
+    </p>
+  );
+}
+
 export default function Sandbox() {
   const { linked, linkError } = useLoaderData<typeof loader>();
   return (
     <div className="grid gap-3">
       <div className="flex flex-wrap items-baseline justify-between gap-2">
         <h1 className="text-2xl font-bold tracking-tight">Sandbox</h1>
-        <p className="text-sm text-ink-soft">Nothing here is saved on the server. Sign in to keep roofs in your library.</p>
+        <SavedNote />
       </div>
       {linkError && (
         <p role="alert" className="rounded border border-bad/50 bg-accent-wash px-3 py-2 text-sm">

@@ -17,7 +17,7 @@ const JSON_TYPE = /^application\/(.+\+)?json/i;
 
 function fieldProblem(name: string, value: string): InputProblem | null {
   const inName = textProblem(name);
-  if (inName) return { path: name.replace(/[\u0000\uD800-\uDFFF]/g, "�"), message: `is a field name that ${inName}` };
+  if (inName) return { path: name.replaceAll("\u0000", "�").replace(/[\uD800-\uDFFF]/g, "�"), message: `is a field name that ${inName}` };
   const inValue = textProblem(value);
   if (inValue) return { path: name, message: inValue };
   if (ID_FIELDS.has(name) && value !== "" && !isUuid(value)) return { path: name, message: "must be an id (a UUID)" };

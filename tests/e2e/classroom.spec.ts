@@ -16,7 +16,7 @@ async function signedIn(browser: Browser, email: string) {
   return { context, page };
 }
 
-const outletX = (page: Page) => page.getByLabel("Outlet 1 x");
+const outletX = (page: Page) => page.getByLabel("Outlet O1 x");
 
 /** Resolves once the page has gone a second without a long task (its scripts and drawing have caught up). */
 function quiet(page: Page) {

@@ -51,7 +51,7 @@ test("a trainee passes the quiz, fails the roof task, moves the outlet and passe
   await expect(summary).toContainText("66.7");
 
   // Move the outlet to the middle of the front parapet with the outlet table, and submit again.
-  const x = page.getByLabel("Outlet 1 x");
+  const x = page.getByLabel("Outlet O1 x");
   await x.fill("9");
   await x.press("Tab");
   await expect(page.getByTestId("sandbox-workspace")).toContainText("1:84.9");

@@ -73,13 +73,13 @@ test("sandbox: edit by keyboard and table, place an outlet on an edge, the 3D vi
   await expect(page.getByTestId("high-level-figure")).toHaveText("314 mm");
 
   // Click the front edge at about x = 2 m: a second outlet, with its own catchment and flow.
-  await expect(page.getByTestId("catchments")).not.toContainText("Outlet 2");
+  await expect(page.getByTestId("catchments")).not.toContainText("Outlet O2");
   const edge = await page.getByTestId("edge-0").boundingBox();
   expect(edge).not.toBeNull();
   await page.mouse.click(edge!.x + edge!.width * (2 / 12), edge!.y + edge!.height / 2);
   await expect(page.getByTestId("outlet-table").locator("tbody tr")).toHaveCount(2);
   await expect(page.getByTestId("outlet-1")).toBeVisible();
-  await expect(page.getByTestId("catchments")).toContainText("Outlet 2");
+  await expect(page.getByTestId("catchments")).toContainText("Outlet O2");
 
   // A fall typed wrongly keeps the text and says why; a good one changes H (9 m at 2.5 % = 225 mm).
   const baseFall = page.getByTestId("base-fall");

@@ -123,6 +123,7 @@ const MATRIX: Record<string, Case[]> = {
     { path: "/classes/{trainerClass}/live", expect: s(401, 200, 200, 200, 404) },
   ],
   "/gradebook": [{ path: "/gradebook", expect: s(302, 200, 200, 403, 403) }],
+  "/*": [{ path: "/no-such-page/{uuid}", expect: ALL(404), why: "the 404 page inside the shell, with its navigation" }],
 };
 
 /** Real ids from the demo seed, looked up once. */

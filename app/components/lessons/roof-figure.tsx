@@ -2,6 +2,7 @@ import { useId, useState } from "react";
 import { Box } from "lucide-react";
 import type { FigureData } from "~/lib/lessons/types";
 import { FallLegend } from "~/components/sandbox/fall-legend";
+import { useFormat } from "~/components/sandbox/format";
 import { SandboxWorkspace } from "~/components/sandbox/workspace";
 
 /** The plan of a figure: fall map or catchments, flat faces hatched, outline, outlets, longest fall line. */
@@ -60,9 +61,10 @@ function KeyTable({ f }: { f: FigureData }) {
 }
 
 function CatchmentKey({ f }: { f: FigureData }) {
+  const { area, flow, system } = useFormat();
   return (
     <table className="data-table w-full">
-      <caption className="pb-1 text-left text-xs text-ink-soft">Design flow Q = i·A/3600 at {f.intensity} mm/h</caption>
+      <caption className="pb-1 text-left text-xs text-ink-soft">Design flow Q = i·A/3600 at {system === "us" ? `${(f.intensity / 25.4).toFixed(2)} in/h` : `${f.intensity} mm/h`}</caption>
       <thead>
         <tr><th scope="col">Drain</th><th scope="col" className="text-right">Area</th><th scope="col" className="text-right">Flow</th></tr>
       </thead>
@@ -70,8 +72,8 @@ function CatchmentKey({ f }: { f: FigureData }) {
         {f.catchments.map((c) => (
           <tr key={c.label}>
             <td><span className="mr-2 inline-block h-3 w-3 rounded-sm border border-ink/40 align-middle" style={{ background: c.fill }} aria-hidden="true" />{c.label}</td>
-            <td className="text-right">{c.area.toFixed(1)} m²</td>
-            <td className="text-right">{c.flow.toFixed(2)} L/s</td>
+            <td className="text-right">{area(c.area)}</td>
+            <td className="text-right">{flow(c.flow)}</td>
           </tr>
         ))}
       </tbody>
@@ -80,6 +82,7 @@ function CatchmentKey({ f }: { f: FigureData }) {
 }
 
 function Schedule({ f }: { f: FigureData }) {
+  const { metres, mm } = useFormat();
   return (
     <div className="max-h-72 overflow-auto rounded border border-rule">
       <table className="data-table w-full">
@@ -97,9 +100,9 @@ function Schedule({ f }: { f: FigureData }) {
           {f.schedule.map((r, i) => (
             <tr key={i}>
               <td>{r.joist}</td>
-              <td className="text-right">{r.length.toFixed(2)} m</td>
-              <td className="text-right">{r.startDrop} mm</td>
-              <td className="text-right">{r.endDrop} mm</td>
+              <td className="text-right">{metres(r.length)}</td>
+              <td className="text-right">{mm(r.startDrop / 1000)}</td>
+              <td className="text-right">{mm(r.endDrop / 1000)}</td>
               <td className="text-right">{r.ratio}</td>
             </tr>
           ))}
@@ -110,6 +113,7 @@ function Schedule({ f }: { f: FigureData }) {
 }
 
 function Compare({ f }: { f: FigureData }) {
+  const { metres, mm } = useFormat();
   const c = f.compare!;
   const rows = [
     { label: "Shaped (level rim)", h: c.shaped },
@@ -126,7 +130,7 @@ function Compare({ f }: { f: FigureData }) {
             {r.h != null ? (
               <>
                 <rect x="0" y="18" height="10" width={(220 * r.h) / max} fill={i === 0 ? "var(--color-accent)" : "var(--color-ink-soft)"} />
-                <text x={(220 * r.h) / max + 6} y="27" fontSize="11" fill="var(--color-ink)">{Math.round(r.h * 1000)} mm</text>
+                <text x={(220 * r.h) / max + 6} y="27" fontSize="11" fill="var(--color-ink)">{mm(r.h)}</text>
               </>
             ) : (
               <text x="0" y="28" fontSize="11" fill="var(--color-ink-soft)">not comparable: {c.reason}</text>
@@ -135,7 +139,7 @@ function Compare({ f }: { f: FigureData }) {
         ))}
       </svg>
       <p className="text-sm">
-        {c.saved != null ? <>Shaping saves <strong>{Math.round(c.saved * 1000)} mm</strong> of height against the gutter layout, and about {Math.round(c.detailLength)} m of membrane changes of plane along {c.gutterLength.toFixed(1)} m of gutter.</> : <>The gutter layout is not comparable here: {c.reason}.</>}
+        {c.saved != null ? <>Shaping saves <strong>{mm(c.saved)}</strong> of height against the gutter layout, and about {metres(c.detailLength, 0)} of membrane changes of plane along {metres(c.gutterLength, 1)} of gutter.</> : <>The gutter layout is not comparable here: {c.reason}.</>}
       </p>
     </div>
   );

@@ -1,9 +1,10 @@
 import { FallRatio } from "./fall-ratio";
-import { metres, mm, area } from "./format";
+import { useFormat } from "./format";
 import { useSandbox } from "./store";
 
 /** The figures that set the shaped roof beside the gutter layout and the open edge. */
 export function ComparisonFigures() {
+  const { metres, mm, area } = useFormat();
   const analysis = useSandbox((s) => s.analysis);
   if (!analysis) return null;
   const { shaped, gutter, openEdge, comparison } = analysis;

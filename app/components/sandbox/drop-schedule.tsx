@@ -1,6 +1,6 @@
 import { Download } from "lucide-react";
 import { lazy, Suspense, useMemo } from "react";
-import { mm } from "./format";
+import { useFormat } from "./format";
 import { scheduleRows } from "./schedule-rows";
 import { useSandbox } from "./store";
 import { useNearViewport } from "./use-near-viewport";
@@ -19,6 +19,7 @@ function Loading() {
 
 /** The drop schedule: every joist's spans with levels and drops below H, sortable, with a CSV download. */
 export function DropSchedule() {
+  const { mm, system } = useFormat();
   const analysis = useSandbox((s) => s.analysis);
   const spec = useSandbox((s) => s.analysedSpec);
   const [anchor, near] = useNearViewport();
@@ -49,6 +50,7 @@ export function DropSchedule() {
           data-testid="csv-form"
         >
           <input type="hidden" name="spec" value={JSON.stringify(spec)} />
+          <input type="hidden" name="units" value={system} />
           <button type="submit" className="btn" data-testid="download-csv">
             <Download size={16} aria-hidden="true" /> Download CSV
           </button>
@@ -57,7 +59,7 @@ export function DropSchedule() {
       <div ref={anchor}>
         {near ? (
           <Suspense fallback={<Loading />}>
-            <ScheduleTable rows={rows} />
+            <ScheduleTable rows={rows} system={system} />
           </Suspense>
         ) : (
           <Loading />

@@ -1,5 +1,5 @@
 import { useEffect, useId, useRef, useState } from "react";
-import { fallDetail, formatRatio } from "./format";
+import { fallDetail, useFormat } from "./format";
 import { useSandbox } from "./store";
 
 interface Props {
@@ -12,7 +12,7 @@ interface Props {
   testId?: string;
 }
 
-const EXAMPLES = "such as 1:40, 2°, 2.5% or 25 mm/m";
+const EXAMPLES = "such as 1:40, 1/4:12, 1/4 in/ft, 2°, 2.5% or 25 mm/m";
 
 /**
  * A fall typed the way people say it: 1:40, 1 in 40, 2°, 2.5%, 25 mm/m. The engine (in its worker)
@@ -22,6 +22,7 @@ const EXAMPLES = "such as 1:40, 2°, 2.5% or 25 mm/m";
 export function FallField({ label, value, onCommit, optional, placeholder, disabled, testId }: Props) {
   const id = useId();
   const engine = useSandbox((s) => s.engine);
+  const { fall } = useFormat();
   const [text, setText] = useState(value == null ? "" : String(value));
   const [reading, setReading] = useState<{ error: string | null; detail: string | null }>({ error: null, detail: null });
   const ask = useRef(0);
@@ -47,10 +48,10 @@ export function FallField({ label, value, onCommit, optional, placeholder, disab
     void engine.parseFall(typed).then((r) => {
       if (n !== ask.current) return;
       if (!r.ok) return setReading({ error: `${typed} ${r.error}`, detail: null });
-      setReading({ error: null, detail: `${formatRatio(r.ratio)} · ${fallDetail(r.ratio)}` });
+      setReading({ error: null, detail: `${fall(r.ratio)} · ${fallDetail(r.ratio)}` });
       if (typed !== String(current.current.value ?? "")) current.current.onCommit(typed);
     });
-  }, [text, engine, optional]);
+  }, [text, engine, optional, fall]);
 
   function change(next: string) {
     setText(next);

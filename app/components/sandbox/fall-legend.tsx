@@ -1,9 +1,10 @@
 import { fallPosition, legendGradient, LEGEND_TICKS, SCALE_FLAT, SCALE_STEEP } from "~/lib/fall-colour";
-import { fallDetail } from "./format";
+import { useFormat } from "./format";
 
 /** The fall map's key: the continuous scale in 1:N on a log axis, and the hatch for "flatter than the minimum". */
 export function FallLegend({ minRatio }: { minRatio: number }) {
   const minAt = fallPosition(minRatio) * 100;
+  const { fallDetail, fall, system } = useFormat();
   return (
     <div className="text-xs" data-testid="fall-legend">
       <div className="flex flex-wrap items-end gap-x-3 gap-y-1">
@@ -27,7 +28,7 @@ export function FallLegend({ minRatio }: { minRatio: number }) {
         </div>
         <div className="flex items-center gap-1.5 pb-4">
           <span className="inline-block h-3 w-5 rounded-sm border border-ink/40" style={{ background: "repeating-linear-gradient(135deg, #1f2933 0 2px, #e8d96a 2px 6px)" }} aria-hidden="true" />
-          <span>flatter than the minimum 1:{Math.round(minRatio)}</span>
+          <span>flatter than the minimum {system === "us" ? fall(minRatio) : `1:${Math.round(minRatio)}`}</span>
         </div>
       </div>
       <p className="sr-only">

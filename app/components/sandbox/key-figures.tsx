@@ -1,6 +1,6 @@
 import { useSandbox } from "./store";
 import { FallRatio } from "./fall-ratio";
-import { area, metres, mm } from "./format";
+import { useFormat } from "./format";
 
 function Figure({ label, children, testId, tone }: { label: string; children: React.ReactNode; testId?: string; tone?: "bad" | "ok" }) {
   return (
@@ -15,6 +15,7 @@ function Figure({ label, children, testId, tone }: { label: string; children: Re
 
 /** The four figures a class watches while the roof changes: height budget, longest and flattest fall lines, flat area. */
 export function KeyFigures() {
+  const { area, metres, mm } = useFormat();
   const analysis = useSandbox((s) => s.analysis);
   const stale = useSandbox((s) => s.analysedSpec !== s.spec);
   const failed = useSandbox((s) => s.engineError !== null);

@@ -1,4 +1,6 @@
 import { useId, useState } from "react";
+import { useUnits } from "~/components/units";
+import { bareUnit, formatLength, formatLevel, lengthInputText, parseLength, type LengthKind, type UnitSystem } from "~/lib/units";
 
 interface Props {
   label: string;
@@ -18,6 +20,12 @@ interface Props {
   compact?: boolean;
   hint?: string;
   testId?: string;
+  /**
+   * A length in metres shown in the chosen units: "length" is m or feet and inches, "level" is mm
+   * or inches. Any length unit may be typed (12' 6", 150 mm, 6 1/2 in); `min`/`max` stay in the
+   * metric unit (`scale`), `unit` and `digits` are then unused.
+   */
+  length?: LengthKind;
 }
 
 function show(value: number | undefined, scale: number, digits: number) {
@@ -26,27 +34,52 @@ function show(value: number | undefined, scale: number, digits: number) {
   return String(Number(v.toFixed(digits)));
 }
 
+function showIn(value: number | undefined, scale: number, digits: number, length: LengthKind | undefined, system: UnitSystem) {
+  return length ? lengthInputText(value, system, length) : show(value, scale, digits);
+}
+
+/** The typed text as the stored value, or why it is not one. */
+function read(text: string, scale: number, length: LengthKind | undefined, system: UnitSystem): { value: number } | { error: string } {
+  if (length) {
+    const r = parseLength(text, system, length);
+    return r.ok ? { value: r.metres } : { error: r.error };
+  }
+  const n = Number(text.replace(",", "."));
+  return Number.isFinite(n) ? { value: n / scale } : { error: "is not a number" };
+}
+
 /**
  * A number typed by hand. Valid input is committed as it is typed; invalid input stays in the
  * box with the reason beside it, and the roof keeps its last good value.
  */
-export function NumberField({ label, value, onCommit, unit, scale = 1, min, max, digits = 3, optional, placeholder, disabled, compact, hint, testId }: Props) {
+export function NumberField({ label, value, onCommit, unit: metricUnit, scale = 1, min, max, digits = 3, optional, placeholder, disabled, compact, hint, testId, length }: Props) {
   const id = useId();
-  const [text, setText] = useState(() => show(value, scale, digits));
+  const system = useUnits();
+  const unit = length ? (system === "us" && length === "length" ? "ft, in" : bareUnit(system, length)) : metricUnit;
+  const [text, setText] = useState(() => showIn(value, scale, digits, length, system));
   const [error, setError] = useState<string | null>(null);
 
-  // Only an outside change of the value (undo, drag, apply) rewrites the box: the value is
-  // compared with the one last seen while rendering (React's "adjust state when a prop changes").
-  const [seen, setSeen] = useState(value);
-  if (seen !== value) {
-    setSeen(value);
-    const typed = text.trim() === "" ? undefined : Number(text.replace(",", ".")) / scale;
-    const same = typed === value || (typed != null && value != null && Math.abs(typed - value) < 1e-9);
+  // Only an outside change of the value (undo, drag, apply) or of the unit system rewrites the box:
+  // both are compared with the ones last seen while rendering (React's "adjust state when a prop changes").
+  const [seen, setSeen] = useState({ value, system });
+  if (seen.value !== value || seen.system !== system) {
+    const systemChanged = seen.system !== system;
+    setSeen({ value, system });
+    const r = text.trim() === "" ? { value: undefined } : read(text.trim(), scale, length, system);
+    const typed = "value" in r ? r.value : Number.NaN;
+    // What is shown rounds (to 1/16 in): a value within that of the typed text is the same.
+    const tolerance = length && system === "us" ? 0.0254 / 32 : 1e-9;
+    const same = !(systemChanged && length) && (typed === value || (typed != null && value != null && Math.abs(typed - value) < tolerance));
     if (!same) {
-      setText(show(value, scale, digits));
+      setText(showIn(value, scale, digits, length, system));
       setError(null);
     }
   }
+
+  const limit = (v: number) => {
+    if (!length) return `${v}${unit ? ` ${unit}` : ""}`;
+    return (length === "level" ? formatLevel(v / scale, system) : formatLength(v / scale, system)).replace(/\u00a0/g, " ");
+  };
 
   function change(next: string) {
     setText(next);
@@ -58,12 +91,13 @@ export function NumberField({ label, value, onCommit, unit, scale = 1, min, max,
       } else setError("needs a value");
       return;
     }
-    const n = Number(trimmed);
-    if (!Number.isFinite(n)) return setError("is not a number");
-    if (min != null && n < min) return setError(`must be at least ${min}${unit ? ` ${unit}` : ""}`);
-    if (max != null && n > max) return setError(`must be at most ${max}${unit ? ` ${unit}` : ""}`);
+    const r = read(trimmed, scale, length, system);
+    if ("error" in r) return setError(r.error);
+    const n = r.value * scale;
+    if (min != null && n < min - 1e-9) return setError(`must be at least ${limit(min)}`);
+    if (max != null && n > max + 1e-9) return setError(`must be at most ${limit(max)}`);
     setError(null);
-    onCommit(n / scale);
+    onCommit(r.value);
   }
 
   return (
@@ -75,7 +109,7 @@ export function NumberField({ label, value, onCommit, unit, scale = 1, min, max,
       <input
         id={id}
         className={`field tabular-nums ${error ? "border-bad" : ""} ${compact ? "px-1.5 py-1" : ""}`}
-        inputMode="decimal"
+        inputMode={length && system === "us" ? "text" : "decimal"}
         value={text}
         placeholder={placeholder}
         disabled={disabled}

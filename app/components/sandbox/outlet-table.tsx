@@ -1,4 +1,5 @@
 import { Trash2 } from "lucide-react";
+import { useFormat } from "./format";
 import { NumberField } from "./number-field";
 import { attachOutlet, deleteOutlet, setOutlet } from "./spec-edit";
 import { useSandbox, useSandboxStore } from "./store";
@@ -10,6 +11,9 @@ export function OutletTable() {
   const readOnly = useSandbox((s) => s.readOnly);
   const selection = useSandbox((s) => s.selection);
   const edit = store.getState().edit;
+  const { system } = useFormat();
+  const lengthUnit = system === "us" ? "ft, in" : "m";
+  const levelUnit = system === "us" ? "in" : "mm";
   if (spec.outlets.length === 0) {
     return (
       <p className="rounded border border-dashed border-rule p-3 text-sm text-ink-soft" data-testid="no-outlets">
@@ -25,11 +29,11 @@ export function OutletTable() {
         <thead>
           <tr>
             <th scope="col">outlet</th>
-            <th scope="col">x (m)</th>
-            <th scope="col">y (m)</th>
+            <th scope="col">x ({lengthUnit})</th>
+            <th scope="col">y ({lengthUnit})</th>
             <th scope="col">edge</th>
-            <th scope="col">level (mm)</th>
-            <th scope="col">size (mm)</th>
+            <th scope="col">level ({levelUnit})</th>
+            <th scope="col">size ({levelUnit})</th>
             <th scope="col"><span className="sr-only">actions</span></th>
           </tr>
         </thead>
@@ -38,27 +42,27 @@ export function OutletTable() {
             <tr key={k} className={selection?.kind === "outlet" && selection.index === k ? "bg-accent-wash" : undefined}>
               <th scope="row" className="border-b border-rule text-sm font-medium normal-case">O{k + 1}</th>
               <td className="w-24">
-                <NumberField compact label={`Outlet ${k + 1} x`} value={o.at[0]} disabled={readOnly} min={-1e6} max={1e6}
+                <NumberField compact label={`Outlet O${k + 1} x`} value={o.at[0]} length="length" disabled={readOnly} min={-1e6} max={1e6}
                   onCommit={(v) => v != null && edit((s) => setOutlet(s, k, { at: [v, s.outlets[k].at[1]] }))} />
               </td>
               <td className="w-24">
-                <NumberField compact label={`Outlet ${k + 1} y`} value={o.at[1]} disabled={readOnly} min={-1e6} max={1e6}
+                <NumberField compact label={`Outlet O${k + 1} y`} value={o.at[1]} length="length" disabled={readOnly} min={-1e6} max={1e6}
                   onCommit={(v) => v != null && edit((s) => setOutlet(s, k, { at: [s.outlets[k].at[0], v] }))} />
               </td>
               <td className="text-ink-soft">{attachOutlet(spec, o.at).edge + 1}</td>
               <td className="w-24">
-                <NumberField compact label={`Outlet ${k + 1} level`} value={o.level} scale={1000} digits={0} optional placeholder="0"
+                <NumberField compact label={`Outlet O${k + 1} level`} value={o.level} length="level" scale={1000} digits={0} optional placeholder="0"
                   min={-1000} max={1000} disabled={readOnly}
                   onCommit={(v) => edit((s) => setOutlet(s, k, { level: v }))} />
               </td>
               <td className="w-24">
-                <NumberField compact label={`Outlet ${k + 1} size`} value={o.size} scale={1000} digits={0} optional placeholder="100"
+                <NumberField compact label={`Outlet O${k + 1} size`} value={o.size} length="level" scale={1000} digits={0} optional placeholder={system === "us" ? "4" : "100"}
                   min={10} max={2000} disabled={readOnly}
                   onCommit={(v) => edit((s) => setOutlet(s, k, { size: v }))} />
               </td>
               <td className="text-right">
                 {!readOnly && (
-                  <button type="button" className="btn px-1.5 py-0.5 text-xs" aria-label={`Delete outlet ${k + 1}`}
+                  <button type="button" className="btn px-1.5 py-0.5 text-xs" aria-label={`Delete outlet O${k + 1}`}
                     onClick={() => edit((s) => deleteOutlet(s, k))}>
                     <Trash2 size={14} aria-hidden="true" />
                   </button>

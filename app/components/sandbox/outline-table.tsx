@@ -1,5 +1,6 @@
 import { Plus, Trash2 } from "lucide-react";
 import type { EdgeKind } from "~/engine";
+import { useFormat } from "./format";
 import { NumberField } from "./number-field";
 import { addOutlet, deleteVertex, edgeKindsOf, edgeLength, insertVertex, moveVertex, outletsOnEdge, setEdgeKind } from "./spec-edit";
 import { useSandbox, useSandboxStore } from "./store";
@@ -13,6 +14,8 @@ export function OutlineTable() {
   const kinds = edgeKindsOf(spec);
   const n = spec.outline.length;
   const edit = store.getState().edit;
+  const { metres, system } = useFormat();
+  const lengthUnit = system === "us" ? "ft, in" : "m";
 
   function changeKind(edge: number, kind: EdgeKind) {
     const lost = kind === "eaves" ? outletsOnEdge(spec, edge) : 0;
@@ -27,8 +30,8 @@ export function OutlineTable() {
         <thead>
           <tr>
             <th scope="col">#</th>
-            <th scope="col">x (m)</th>
-            <th scope="col">y (m)</th>
+            <th scope="col">x ({lengthUnit})</th>
+            <th scope="col">y ({lengthUnit})</th>
             <th scope="col">edge to next</th>
             <th scope="col">length</th>
             <th scope="col"><span className="sr-only">actions</span></th>
@@ -42,11 +45,11 @@ export function OutlineTable() {
               <tr key={i} className={selected ? "bg-accent-wash" : undefined}>
                 <th scope="row" className="w-8 border-b border-rule text-sm font-medium normal-case">{i + 1}</th>
                 <td className="w-24">
-                  <NumberField compact label={`Vertex ${i + 1} x`} value={p[0]} min={-1e6} max={1e6} disabled={readOnly}
+                  <NumberField compact label={`Vertex ${i + 1} x`} value={p[0]} length="length" min={-1e6} max={1e6} disabled={readOnly}
                     onCommit={(v) => v != null && edit((s) => moveVertex(s, i, [v, s.outline[i][1]]))} testId={`vertex-${i}-x`} />
                 </td>
                 <td className="w-24">
-                  <NumberField compact label={`Vertex ${i + 1} y`} value={p[1]} min={-1e6} max={1e6} disabled={readOnly}
+                  <NumberField compact label={`Vertex ${i + 1} y`} value={p[1]} length="length" min={-1e6} max={1e6} disabled={readOnly}
                     onCommit={(v) => v != null && edit((s) => moveVertex(s, i, [s.outline[i][0], v]))} testId={`vertex-${i}-y`} />
                 </td>
                 <td>
@@ -57,7 +60,7 @@ export function OutlineTable() {
                     <option value="eaves">eaves</option>
                   </select>
                 </td>
-                <td className="whitespace-nowrap text-ink-soft">{edgeLength(spec.outline, i).toFixed(2)} m</td>
+                <td className="whitespace-nowrap text-ink-soft">{metres(edgeLength(spec.outline, i))}</td>
                 <td className="whitespace-nowrap text-right">
                   {!readOnly && (
                     <span className="inline-flex gap-1">

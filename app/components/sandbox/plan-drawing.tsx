@@ -1,5 +1,6 @@
 import { useMemo } from "react";
 import type { Analysis, RoofSpec } from "~/engine";
+import { useFormat } from "./format";
 import { MeshSampler } from "./mesh-sample";
 import { bounds, edgeKindsOf, signedArea } from "./spec-edit";
 
@@ -8,6 +9,10 @@ import { bounds, edgeKindsOf, signedArea } from "./spec-edit";
  * longest fall line, outlets, edge lengths, levels in mm at corners and outlets, and a scale bar.
  */
 export function PlanDrawing({ spec, analysis, className = "" }: { spec: RoofSpec; analysis: Analysis; className?: string }) {
+  const { metres, mm, system } = useFormat();
+  // Levels at corners and outlets without their unit (the label says which).
+  const level = (z: number) => (system === "us" ? mm(z).replace(/\u00a0in$/, "") : String(Math.round(z * 1000)));
+  const levelUnit = system === "us" ? "inches" : "millimetres";
   const b = bounds(spec.outline);
   const span = Math.max(b.maxX - b.minX, b.maxY - b.minY, 1);
   const pad = span * 0.14;
@@ -20,9 +25,12 @@ export function PlanDrawing({ spec, analysis, className = "" }: { spec: RoofSpec
   const joists = analysis.shaped.joists.flatMap((j) => j.spans.map((s) => `M${s.start[0]} ${-s.start[1]}L${s.end[0]} ${-s.end[1]}`)).join("");
   const line = analysis.shaped.longestFallLine;
   const linePath = line ? (line.path.length >= 2 ? line.path : [line.from, line.to]).map((p, i) => `${i ? "L" : "M"}${p[0]} ${-p[1]}`).join("") : "";
-  const scale = [1, 2, 5, 10, 20, 50, 100].find((s) => s >= span / 5) ?? 100;
+  // The scale bar: a round number of metres, or of feet.
+  const unitLength = system === "us" ? 0.3048 : 1;
+  const scaleUnits = [1, 2, 5, 10, 20, 50, 100, 200, 500].find((s) => s * unitLength >= span / 5) ?? 500;
+  const scale = scaleUnits * unitLength;
   return (
-    <svg viewBox={`${vb.x} ${vb.y} ${vb.w} ${vb.h}`} className={className} role="img" aria-label="Plan of the roof with outlets, joists, the longest fall line and levels in millimetres" data-testid="plan-drawing">
+    <svg viewBox={`${vb.x} ${vb.y} ${vb.w} ${vb.h}`} className={className} role="img" aria-label={`Plan of the roof with outlets, joists, the longest fall line and levels in ${levelUnit}`} data-testid="plan-drawing">
       <polygon points={spec.outline.map((p) => `${p[0]},${-p[1]}`).join(" ")} fill="#fffdf8" />
       <path d={joists} stroke="#52606d" strokeOpacity={0.35} strokeWidth={u * 0.08} />
       {linePath && <path d={linePath} stroke="#b4471f" strokeWidth={u * 0.35} strokeDasharray={`${u * 1.2} ${u * 0.6}`} fill="none" />}
@@ -38,7 +46,7 @@ export function PlanDrawing({ spec, analysis, className = "" }: { spec: RoofSpec
             <line x1={a[0]} y1={-a[1]} x2={c[0]} y2={-c[1]} stroke="#1f2933" strokeWidth={kinds[i] === "eaves" ? u * 0.2 : u * 0.45}
               strokeDasharray={kinds[i] === "eaves" ? `${u} ${u * 0.6}` : undefined} strokeLinecap="square" />
             <text x={mx} y={-my} fontSize={u * 1.5} textAnchor="middle" dominantBaseline="middle" fill="#52606d">
-              {len.toFixed(2)} m{kinds[i] === "eaves" ? " eaves" : ""}
+              {metres(len)}{kinds[i] === "eaves" ? " eaves" : ""}
             </text>
           </g>
         );
@@ -50,7 +58,7 @@ export function PlanDrawing({ spec, analysis, className = "" }: { spec: RoofSpec
             <circle cx={p[0]} cy={-p[1]} r={u * 0.35} fill="#1f2933" />
             {z != null && (
               <text x={p[0] + u * 0.8} y={-p[1] - u * 0.8} fontSize={u * 1.4} fill="#1f2933" fontWeight={700}>
-                {Math.round(z * 1000)}
+                {level(z)}
               </text>
             )}
           </g>
@@ -60,7 +68,7 @@ export function PlanDrawing({ spec, analysis, className = "" }: { spec: RoofSpec
         <g key={`o${k}`}>
           <circle cx={o.at[0]} cy={-o.at[1]} r={u * 0.9} fill="#b4471f" stroke="#1f2933" strokeWidth={u * 0.2} />
           <text x={o.at[0] + u * 1.3} y={-o.at[1] - u * 1.1} fontSize={u * 1.4} fill="#8c3516" fontWeight={700}>
-            O{k + 1} · {Math.round((o.level ?? 0) * 1000)}
+            O{k + 1} · {level(o.level ?? 0)}
           </text>
         </g>
       ))}
@@ -68,7 +76,7 @@ export function PlanDrawing({ spec, analysis, className = "" }: { spec: RoofSpec
         <line x1={0} y1={0} x2={scale} y2={0} stroke="#1f2933" strokeWidth={u * 0.3} />
         <line x1={0} y1={-u * 0.6} x2={0} y2={u * 0.6} stroke="#1f2933" strokeWidth={u * 0.2} />
         <line x1={scale} y1={-u * 0.6} x2={scale} y2={u * 0.6} stroke="#1f2933" strokeWidth={u * 0.2} />
-        <text x={scale + u} y={0} fontSize={u * 1.4} dominantBaseline="middle" fill="#1f2933">{scale} m</text>
+        <text x={scale + u} y={0} fontSize={u * 1.4} dominantBaseline="middle" fill="#1f2933">{scaleUnits} {system === "us" ? "ft" : "m"}</text>
       </g>
     </svg>
   );

@@ -21,6 +21,7 @@ import {
 } from "./spec-edit";
 import { useSandbox, useSandboxStore } from "./store";
 import type { Underlay } from "./underlay";
+import { useFormat } from "./format";
 
 type Drag = { kind: "vertex" | "outlet"; index: number };
 type Focus = { kind: "vertex" | "outlet" | "edge"; index: number };
@@ -40,6 +41,7 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
   const view = useSandbox((s) => s.view);
   const hasError = useSandbox((s) => s.engineError !== null);
   const dragging = useSandbox((s) => s.gesture !== null);
+  const { metres: len_, mm: level_ } = useFormat();
   const helpId = useId();
   const svgRef = useRef<SVGSVGElement>(null);
   const drag = useRef<Drag | null>(null);
@@ -138,7 +140,7 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
     store.getState().edit((x) => addOutlet(x, edge, len > 0 ? along / len : 0.5));
     const index = store.getState().spec.outlets.length - 1;
     store.getState().select({ kind: "outlet", index });
-    announce(`Outlet ${index + 1} placed on edge ${edge + 1}.`);
+    announce(`Outlet O${index + 1} placed on edge ${edge + 1}.`);
   }
 
   function clickEdge(e: React.MouseEvent<SVGElement>, edge: number) {
@@ -212,7 +214,7 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
       e.preventDefault();
       store.getState().edit((s) => deleteOutlet(s, k));
       store.getState().select(null);
-      announce(`Outlet ${k + 1} deleted.`);
+      announce(`Outlet O${k + 1} deleted.`);
     }
   }
 
@@ -304,7 +306,7 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
                 fill="var(--color-ink-soft)"
                 pointerEvents="none"
               >
-                {len.toFixed(2)} m{eaves ? " · eaves" : ""}
+                {len_(len)}{eaves ? " · eaves" : ""}
               </text>
               <path
                 d={d}
@@ -315,7 +317,7 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
                 className={`${readOnly ? "" : "cursor-copy"} outline-none focus-visible:stroke-accent/30`}
                 tabIndex={0}
                 role="button"
-                aria-label={`Edge ${i + 1} to ${((i + 1) % n) + 1}, ${kinds[i]}, ${len.toFixed(2)} m`}
+                aria-label={`Edge ${i + 1} to ${((i + 1) % n) + 1}, ${kinds[i]}, ${len_(len)}`}
                 aria-describedby={helpId}
                 onPointerDown={(e) => e.stopPropagation()}
                 onClick={(e) => clickEdge(e, i)}
@@ -337,7 +339,7 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
               data-handle={`outlet-${k}`}
               tabIndex={0}
               role="button"
-              aria-label={`Outlet ${k + 1} at x ${o.at[0].toFixed(2)} m, y ${o.at[1].toFixed(2)} m`}
+              aria-label={`Outlet O${k + 1} at x ${len_(o.at[0])}, y ${len_(o.at[1])}`}
               aria-describedby={helpId}
               className={`${readOnly ? "" : "cursor-grab"} outline-none`}
               onPointerDown={(e) => startDrag(e, { kind: "outlet", index: k })}
@@ -368,7 +370,7 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
               data-handle={`vertex-${i}`}
               tabIndex={0}
               role="button"
-              aria-label={`Vertex ${i + 1} at x ${p[0].toFixed(2)} m, y ${p[1].toFixed(2)} m`}
+              aria-label={`Vertex ${i + 1} at x ${len_(p[0])}, y ${len_(p[1])}`}
               aria-describedby={helpId}
               className={`${readOnly ? "" : "cursor-move"} outline-none`}
               onPointerDown={(e) => startDrag(e, { kind: "vertex", index: i })}
@@ -399,7 +401,7 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
         })}
       </svg>
       <div className="pointer-events-none absolute bottom-1 left-2 text-[11px] tabular-nums text-ink-soft" aria-hidden="true">
-        {cursor ? `x ${cursor[0].toFixed(2)} m · y ${cursor[1].toFixed(2)} m` : `grid ${Math.round(view.gridStep * 1000)} mm`}
+        {cursor ? `x ${len_(cursor[0])} · y ${len_(cursor[1])}` : `grid ${view.gridStep >= 1 ? len_(view.gridStep) : level_(view.gridStep)}`}
       </div>
       <button type="button" className="btn absolute right-2 top-2 px-2 py-0.5 text-xs" onClick={() => setFit((f) => f + 1)}>
         Fit

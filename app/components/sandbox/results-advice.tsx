@@ -1,6 +1,6 @@
 import type { Analysis } from "~/engine";
 import { FallRatio } from "./fall-ratio";
-import { formatRatio, point } from "./format";
+import { formatRatio, useFormat } from "./format";
 import { addOutletAt } from "./spec-edit";
 import { ResultsSection } from "./results-section";
 import { useSandbox, useSandboxStore } from "./store";
@@ -15,6 +15,7 @@ export function steeperRound(ratio: number): string {
 export function Advice({ analysis }: { analysis: Analysis }) {
   const store = useSandboxStore();
   const readOnly = useSandbox((s) => s.readOnly);
+  const { point } = useFormat();
   const { minimumBaseFall, extraOutlet } = analysis.advice;
   const min = analysis.minFall.ratio;
   const field = analysis.ruleSet.used.find((u) => u.key === "fieldFall");

@@ -1,9 +1,10 @@
 import type { Analysis } from "~/engine";
-import { area, flow, point } from "./format";
+import { useFormat } from "./format";
 import { ResultsSection } from "./results-section";
 
 /** Where the water goes: each drain's catchment and design flow, and any ponding. */
 export function Catchments({ analysis }: { analysis: Analysis }) {
+  const { area, flow, point, mm } = useFormat();
   const { catchments, ponding } = analysis.shaped;
   return (
     <ResultsSection title="Catchments and flows" id="catchments">
@@ -38,7 +39,7 @@ export function Catchments({ analysis }: { analysis: Analysis }) {
         <ul className="text-sm">
           {ponding.map((p, i) => (
             <li key={i} className="text-bad">
-              Low point at {point(p.at)}, level {Math.round(p.level * 1000)} mm: {area(p.area)} drains to it.
+              Low point at {point(p.at)}, level {mm(p.level)}: {area(p.area)} drains to it.
             </li>
           ))}
         </ul>

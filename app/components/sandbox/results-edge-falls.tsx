@@ -1,10 +1,11 @@
 import type { Analysis } from "~/engine";
 import { FallRatio } from "./fall-ratio";
-import { fallDetail, point } from "./format";
+import { useFormat } from "./format";
 import { ResultsSection } from "./results-section";
 
 /** Each rising piece of an outlet edge, from the outlet up to the level rim. */
 export function EdgeFalls({ analysis }: { analysis: Analysis }) {
+  const { fallDetail, point } = useFormat();
   const rows = analysis.shaped.edgeFalls;
   return (
     <ResultsSection title="Edge falls" id="edge-falls">

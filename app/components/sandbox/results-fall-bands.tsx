@@ -1,10 +1,11 @@
 import type { Analysis } from "~/engine";
 import { fallColourCss } from "~/lib/fall-colour";
-import { area } from "./format";
+import { useFormat } from "./format";
 import { ResultsSection } from "./results-section";
 
 /** How much of the roof falls at each band of steepness. */
 export function FallBands({ analysis }: { analysis: Analysis }) {
+  const { area } = useFormat();
   const { areaByBand, area: total, flatterThanMinimumArea } = analysis.shaped.fallMap;
   return (
     <ResultsSection title="Fall bands" id="fall-bands">

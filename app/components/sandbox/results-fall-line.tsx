@@ -1,18 +1,12 @@
-import type { Analysis } from "~/engine";
+import { drainName, type Analysis } from "~/engine";
 import { FallRatio } from "./fall-ratio";
-import { metres, mm, point } from "./format";
+import { useFormat } from "./format";
 import { ResultsSection } from "./results-section";
 import { useSandbox, useSandboxStore } from "./store";
 
-function drainName(drain: string) {
-  const [kind, n] = drain.split("-");
-  if (kind === "outlet") return `outlet O${Number(n) + 1}`;
-  if (kind === "eaves") return `eaves edge ${Number(n) + 1}`;
-  return drain;
-}
-
 /** The longest fall line (and the flattest, when it is another one): the path water takes from the rim. */
 export function FallLineSection({ analysis }: { analysis: Analysis }) {
+  const { metres, mm, point } = useFormat();
   const store = useSandboxStore();
   const highlight = useSandbox((s) => s.view.highlightFallLine);
   const { longestFallLine: longest, worstFallLine: worst } = analysis.shaped;

@@ -1,9 +1,10 @@
-import { mm } from "./format";
+import { useFormat } from "./format";
 import { ResultsSection } from "./results-section";
 import type { Analysis } from "~/engine";
 
 /** The height budget: what each way of draining this roof costs in build-up height at the high perimeter. */
 export function HeightBudget({ analysis }: { analysis: Analysis }) {
+  const { mm } = useFormat();
   const { shaped, gutter, openEdge, comparison } = analysis;
   return (
     <ResultsSection title="Height budget" id="height-budget">

@@ -1,8 +1,9 @@
-import { fallDetail, formatRatio, mm, metres, area, point } from "./format";
+import { useFormat } from "./format";
 import { useSandbox } from "./store";
 
 /** What the 3D view shows, in words, for screen readers and for anyone who prefers reading. */
 export function SceneSummary() {
+  const { fallDetail, fall: formatRatio, mm, metres, area, point } = useFormat();
   const analysis = useSandbox((s) => s.analysis);
   const spec = useSandbox((s) => s.analysedSpec);
   if (!analysis || !spec) return <p>No roof to describe yet.</p>;

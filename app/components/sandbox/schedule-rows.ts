@@ -16,6 +16,8 @@ export interface ScheduleRow {
   endDrop: number;
   /** Fall ratio N, null when level. */
   ratio: number | null;
+  /** The same levels and drops in metres, unrounded, for showing in other units. */
+  metres: { startLevel: number; endLevel: number; startDrop: number; endDrop: number };
 }
 
 const r3 = (v: number) => Math.round(v * 1000) / 1000;
@@ -40,6 +42,7 @@ export function scheduleRows(joists: Analysis["shaped"]["joists"]): ScheduleRow[
         startDrop: mm(s.startDrop),
         endDrop: mm(s.endDrop),
         ratio: s.ratio,
+        metres: { startLevel: s.startLevel, endLevel: s.endLevel, startDrop: s.startDrop, endDrop: s.endDrop },
       });
     });
   }

@@ -7,44 +7,55 @@ import {
   type SortingState,
 } from "@tanstack/react-table";
 import { ArrowDown, ArrowUp } from "lucide-react";
-import { useState } from "react";
+import { useMemo, useState } from "react";
+import type { UnitSystem } from "~/lib/units";
 import { FallRatio } from "./fall-ratio";
+import { formatIn } from "./format";
 import type { ScheduleRow } from "./schedule-rows";
 
 const column = createColumnHelper<ScheduleRow>();
 const num = (digits: number) => (v: number) => v.toFixed(digits);
 
-const COLUMNS = [
-  column.accessor("joist", { header: "Joist" }),
-  column.accessor("offset", {
-    header: "Offset (m)",
-    cell: (c) => num(2)(c.getValue()),
-  }),
-  column.accessor("span", { header: "Span" }),
-  column.accessor("length", {
-    header: "Length (m)",
-    cell: (c) => num(2)(c.getValue()),
-  }),
-  column.accessor("startLevel", { header: "Start level (mm)" }),
-  column.accessor("endLevel", { header: "End level (mm)" }),
-  column.accessor("startDrop", { header: "Start drop below H (mm)" }),
-  column.accessor("endDrop", { header: "End drop below H (mm)" }),
-  column.accessor((r) => r.ratio ?? Infinity, {
-    id: "fall",
-    header: "Fall",
-    cell: (c) => <FallRatio ratio={c.row.original.ratio} />,
-  }),
-];
+/** The columns in the chosen units: metres and millimetres, or feet-inches and inches to 1/16. */
+function columnsIn(system: UnitSystem) {
+  if (system === "metric") {
+    return [
+      column.accessor("joist", { header: "Joist" }),
+      column.accessor("offset", { header: "Offset (m)", cell: (c) => num(2)(c.getValue()) }),
+      column.accessor("span", { header: "Span" }),
+      column.accessor("length", { header: "Length (m)", cell: (c) => num(2)(c.getValue()) }),
+      column.accessor("startLevel", { header: "Start level (mm)" }),
+      column.accessor("endLevel", { header: "End level (mm)" }),
+      column.accessor("startDrop", { header: "Start drop below H (mm)" }),
+      column.accessor("endDrop", { header: "End drop below H (mm)" }),
+      column.accessor((r) => r.ratio ?? Infinity, { id: "fall", header: "Fall", cell: (c) => <FallRatio ratio={c.row.original.ratio} /> }),
+    ];
+  }
+  const f = formatIn(system);
+  const level = (v: number) => f.mm(v).replace(/\u00a0in$/, "");
+  return [
+    column.accessor("joist", { header: "Joist" }),
+    column.accessor("offset", { header: "Offset", cell: (c) => f.metres(c.getValue()) }),
+    column.accessor("span", { header: "Span" }),
+    column.accessor("length", { header: "Length", cell: (c) => f.metres(c.getValue()) }),
+    column.accessor((r) => r.metres.startLevel, { id: "startLevel", header: "Start level (in)", cell: (c) => level(c.getValue()) }),
+    column.accessor((r) => r.metres.endLevel, { id: "endLevel", header: "End level (in)", cell: (c) => level(c.getValue()) }),
+    column.accessor((r) => r.metres.startDrop, { id: "startDrop", header: "Start drop below H (in)", cell: (c) => level(c.getValue()) }),
+    column.accessor((r) => r.metres.endDrop, { id: "endDrop", header: "End drop below H (in)", cell: (c) => level(c.getValue()) }),
+    column.accessor((r) => r.ratio ?? Infinity, { id: "fall", header: "Fall", cell: (c) => <FallRatio ratio={c.row.original.ratio} /> }),
+  ];
+}
 
 const PAGE = 60;
 
 /** The drop schedule's rows as a sortable table (loaded when the schedule comes into view). */
-export default function ScheduleTable({ rows }: { rows: ScheduleRow[] }) {
+export default function ScheduleTable({ rows, system = "metric" }: { rows: ScheduleRow[]; system?: UnitSystem }) {
   const [sorting, setSorting] = useState<SortingState>([]);
+  const columns = useMemo(() => columnsIn(system), [system]);
   const [all, setAll] = useState(false);
   const table = useReactTable({
     data: rows,
-    columns: COLUMNS,
+    columns,
     state: { sorting },
     onSortingChange: setSorting,
     getCoreRowModel: getCoreRowModel(),

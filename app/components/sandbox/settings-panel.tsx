@@ -1,6 +1,6 @@
 import type { RoofSpec, RuleSetId } from "~/engine";
 import { FallField } from "./fall-field";
-import { formatRatio } from "./format";
+import { formatRatio, useFormat } from "./format";
 import { NumberField } from "./number-field";
 import { useSandbox, useSandboxStore } from "./store";
 
@@ -27,6 +27,8 @@ export function SettingsPanel() {
   const joists = spec.joists ?? {};
   const gutter = spec.gutter ?? {};
   const autoAngle = degreesOf(analysis?.shaped.joistDirection);
+  const { mm } = useFormat();
+  const hint = (m: number) => mm(m).replace(/\u00a0/g, " ");
 
   return (
     <div className="grid gap-4" data-testid="settings">
@@ -36,14 +38,14 @@ export function SettingsPanel() {
         <FallField label="Minimum fall" value={spec.minFall} optional disabled={readOnly}
           placeholder={analysis ? formatRatio(analysis.minFall.ratio) : "1:100"} testId="min-fall"
           onCommit={(v) => edit((s) => ({ ...s, minFall: v }))} />
-        <NumberField label="High level" unit="mm" scale={1000} digits={0} optional value={spec.highLevel} disabled={readOnly}
+        <NumberField label="High level" length="level" unit="mm" scale={1000} digits={0} optional value={spec.highLevel} disabled={readOnly}
           min={-100000} max={100000}
-          placeholder={analysis && analysis.shaped.highLevelSource === "derived" ? `auto: ${Math.round(analysis.shaped.highLevel * 1000)}` : "auto"}
+          placeholder={analysis && analysis.shaped.highLevelSource === "derived" ? `auto: ${hint(analysis.shaped.highLevel)}` : "auto"}
           hint="Empty: derived from the base fall" testId="high-level"
           onCommit={(v) => edit((s) => ({ ...s, highLevel: v }))} />
       </Group>
       <Group title="Joists">
-        <NumberField label="Spacing" unit="mm" scale={1000} digits={0} value={joists.spacing} optional placeholder="400"
+        <NumberField label="Spacing" length="level" unit="mm" scale={1000} digits={0} value={joists.spacing} optional placeholder={hint(0.4)}
           min={50} max={20000} disabled={readOnly} testId="joist-spacing"
           onCommit={(v) => edit((s) => ({ ...s, joists: { ...s.joists, spacing: v } }))} />
         <NumberField label="Direction" unit="° from x" digits={1} value={degreesOf(joists.direction)} optional
@@ -56,16 +58,16 @@ export function SettingsPanel() {
               return { ...s, joists: { ...s.joists, direction } };
             })
           } />
-        <NumberField label="First joist offset" unit="m" value={joists.offset} optional placeholder="0" min={0} max={100000}
+        <NumberField label="First joist offset" length="length" unit="m" value={joists.offset} optional placeholder="0" min={0} max={100000}
           disabled={readOnly} testId="joist-offset"
           onCommit={(v) => edit((s) => ({ ...s, joists: { ...s.joists, offset: v } }))} />
       </Group>
       <Group title="Gutter layout (for the comparison)">
-        <NumberField label="Gutter width" unit="mm" scale={1000} digits={0} value={gutter.width} optional
-          placeholder={analysis ? String(Math.round(analysis.gutter.width * 1000)) : "300"} min={1} max={5000} disabled={readOnly}
+        <NumberField label="Gutter width" length="level" unit="mm" scale={1000} digits={0} value={gutter.width} optional
+          placeholder={hint(analysis ? analysis.gutter.width : 0.3)} min={1} max={5000} disabled={readOnly}
           onCommit={(v) => edit((s) => ({ ...s, gutter: { ...s.gutter, width: v } }))} />
-        <NumberField label="Depth at high end" unit="mm" scale={1000} digits={0} value={gutter.depth} optional
-          placeholder={analysis ? String(Math.round(analysis.gutter.depth * 1000)) : "50"} min={0} max={2000} disabled={readOnly}
+        <NumberField label="Depth at high end" length="level" unit="mm" scale={1000} digits={0} value={gutter.depth} optional
+          placeholder={hint(analysis ? analysis.gutter.depth : 0.05)} min={0} max={2000} disabled={readOnly}
           onCommit={(v) => edit((s) => ({ ...s, gutter: { ...s.gutter, depth: v } }))} />
         <FallField label="Sole fall" value={gutter.fall} optional disabled={readOnly}
           placeholder={analysis ? formatRatio(analysis.gutter.fall.ratio) : "1:100"}

@@ -1,5 +1,6 @@
 import { lazy, Suspense, useEffect, useState } from "react";
 import type { RoofSpec } from "~/engine";
+import { RoofUnits } from "~/components/units";
 import { ComparisonFigures } from "./comparison-figures";
 import { DropSchedule } from "./drop-schedule";
 import { EngineErrorNote } from "./engine-error";
@@ -85,9 +86,17 @@ export function SandboxWorkspace({ initialSpec, onSpecChange, readOnly = false, 
 
   return (
     <SandboxStoreContext.Provider value={store}>
-      <Layout underlay={underlay} toolbarExtra={toolbarExtra} />
+      <WorkspaceUnits>
+        <Layout underlay={underlay} toolbarExtra={toolbarExtra} />
+      </WorkspaceUnits>
     </SandboxStoreContext.Provider>
   );
+}
+
+/** Someone who has not chosen units sees this roof in its rule set's (US customary for a US code). */
+function WorkspaceUnits({ children }: { children: React.ReactNode }) {
+  const ruleSet = useSandbox((s) => s.spec.ruleSet);
+  return <RoofUnits ruleSet={ruleSet}>{children}</RoofUnits>;
 }
 
 function Layout({ underlay, toolbarExtra }: { underlay?: Underlay; toolbarExtra?: React.ReactNode }) {

@@ -1,4 +1,6 @@
 import { create, unitDependencies, type Unit } from "mathjs";
+import { parseFall } from "../../engine/fall";
+import { parseLength } from "../units";
 
 /** Only the unit machinery of mathjs (same build as the engine's fall parser). */
 const math = create({ unitDependencies });
@@ -20,6 +22,11 @@ export function parseQuantity(input: string): QuantityResult {
   let s = input.trim();
   if (!s) return { ok: false, error: "is empty" };
   if (s.length > MAX_LENGTH) return { ok: false, error: "is too long" };
+  // Feet and inches, and inches with fractions, as US builders write them: 12' 6", 5 7/8 in.
+  if (/['"′″’”]/.test(s) || /\d\s*\/\s*\d+\s*(?:in|ft|inch|inches|feet|foot)\b/i.test(s) || /\b(?:ft|feet|foot)\s*\d/i.test(s)) {
+    const length = parseLength(s, "metric", "length");
+    if (length.ok) return { ok: true, bare: false, unit: math.unit(length.metres, "m") };
+  }
   s = s
     .replace(/,(?=\d{3}\b)/g, "") // 1,500 m² → 1500 m²
     .replace(/²/g, "^2")
@@ -88,7 +95,14 @@ export function parseRatio(input: string): { ok: true; ratio: number } | { ok: f
   if (!s) return { ok: false, error: "is empty" };
   if (s.length > MAX_LENGTH) return { ok: false, error: "is too long" };
   const m = /^(\d+(?:\.\d*)?|\.\d+)\s*(?::|in|\/)\s*(\d+(?:\.\d*)?|\.\d+)$/.exec(s);
-  if (!m) return { ok: false, error: "is not written as a ratio such as 1:40" };
+  if (!m) {
+    // The US roofers' forms of the same fall: 1/4:12, 1/4 in/ft, 1/4 in per ft (read by the engine).
+    if (/^\d+(?:\s+\d+)?\s*\/\s*\d+\s*:/.test(s) || /\b(?:in|inch|inches|")\s*(?:\/|per)\s*(?:ft|foot)$/.test(s)) {
+      const f = parseFall(s);
+      if (f.ok) return { ok: true, ratio: f.ratio };
+    }
+    return { ok: false, error: "is not written as a ratio such as 1:40 (or 1/4:12)" };
+  }
   const rise = Number(m[1]);
   const run = Number(m[2]);
   if (!(rise > 0) || !(run > 0)) return { ok: false, error: "needs a rise and a run above zero" };

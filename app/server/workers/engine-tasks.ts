@@ -7,6 +7,7 @@
 import { analyse, analyseRoof, parseRoofSpec, parseSpec } from "../../engine";
 import { scheduleCsv } from "../../components/sandbox/schedule-csv";
 import type { PoolTask, PoolResult } from "../../lib/pool-tasks";
+import { isUnitSystem, systemFor } from "../../lib/units";
 
 const encoder = new TextEncoder();
 
@@ -33,7 +34,9 @@ function csvTask(task: Extract<PoolTask, { kind: "csv" }>): PoolResult {
   const parsed = parseSpec(task.spec);
   if (!parsed.ok) return { kind: "refused", status: parsed.status, error: parsed.error, ms: performance.now() - started };
   try {
-    return { kind: "text", text: scheduleCsv(analyse(parsed.spec, { mesh: false, traces: false }).shaped.joists), ms: performance.now() - started };
+    // Unless asked, the roof's rule set decides the units (US customary for a US code), as on screen.
+    const system = isUnitSystem(task.units) ? task.units : systemFor(null, parsed.spec.ruleSet);
+    return { kind: "text", text: scheduleCsv(analyse(parsed.spec, { mesh: false, traces: false }).shaped.joists, system), ms: performance.now() - started };
   } catch (error) {
     return { kind: "failed", message: (error as Error)?.message ?? String(error), ms: performance.now() - started };
   }

@@ -30,6 +30,13 @@ beforeEach(() => {
 });
 
 describe("POST /api/v1/analyses", () => {
+  it('accepts baseFall "1/4:12" (was 400) and reads it as 1:48', async () => {
+    const res = await call(post(JSON.stringify({ ...spec, baseFall: "1/4:12" })));
+    expect(res.status).toBe(200);
+    const a = await res.json();
+    expect(a.baseFall.ratio).toBeCloseTo(48, 9);
+  });
+
   it("answers 200 with the contract's keys", async () => {
     const res = await call(post(JSON.stringify(spec)));
     expect(res.status).toBe(200);

@@ -51,6 +51,20 @@ describe("fall conversions (docs/check-values.md, Trigonometry: derived)", () =>
     close(f.ratio, 48, 1e-9);
   });
 
+  it("1/4:12, the way US roofers write the IBC minimum, is 1:48 and 2.083 % (IBC 2018 1507.10.1; 0.25/12 = 1/48)", () => {
+    for (const text of ["1/4:12", "1/4 : 12", "0.25:12", "1/4 in 12", '1/4" per ft', "1/4 in per ft", "3 in 144"]) {
+      const f = parseFall(text);
+      if (!f.ok) throw new Error(`${text}: ${f.error}`);
+      close(f.ratio, 48, 1e-9);
+      close(f.percent, 2.083, 0.0005);
+    }
+    const half = parseFall("1 1/2:12"); // a mixed number: 1.5 in per ft = 1:8
+    if (!half.ok) throw new Error(half.error);
+    close(half.ratio, 8, 1e-9);
+    expect(parseFall("1/4:0").ok).toBe(false);
+    expect(parseFall("1/0:12").ok).toBe(false);
+  });
+
   it("agrees with mathjs's own angle conversion (mathjs units, from the npm registry)", () => {
     for (const deg of [0.5, 1, 2, 5, 30]) {
       const f = parseFall(`${deg} deg`);

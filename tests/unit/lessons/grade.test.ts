@@ -15,6 +15,15 @@ describe("numeric answers through mathjs units", () => {
     expect(r.score).toBe(1);
   });
 
+  it("counts feet, inches and fractions of an inch (1 in = 25.4 mm exactly, NIST SP 811)", () => {
+    // 250 mm = 9.843 in; 9 13/16 in = 249.2 mm and 9 7/8 in = 250.8 mm are both within 1 mm.
+    for (const given of ["9 13/16 in", '9 7/8"', "9.843 in", "0.8202 ft"]) expect(gradeQuestion(length, given).passed, given).toBe(true);
+    expect(gradeQuestion(length, '10"').passed).toBe(false); // 254 mm
+    const long = q({ id: "q2", kind: "numeric", prompt: "How long?", answer: "3.81 m", tolerance: "5 mm" });
+    for (const given of [`12' 6"`, "12 ft 6 in", "12.5 ft"]) expect(gradeQuestion(long, given).passed, given).toBe(true);
+    expect(gradeQuestion(long, `12' 7"`).passed).toBe(false);
+  });
+
   it("refuses an answer of the wrong kind of unit and says what was asked for", () => {
     const r = gradeQuestion(length, "250 kg");
     expect(r.passed).toBe(false);
@@ -80,6 +89,12 @@ describe("ratio answers", () => {
   const ratio = q({ id: "r", kind: "ratio", prompt: "As 1:N?", answer: "1:40" });
   it.each(["1:40", "1 : 40", "1 in 40", "1/40", "2:80", "1:40.3"])("counts %s as 1:40", (given) => {
     expect(gradeQuestion(ratio, given).passed).toBe(true);
+  });
+  it("counts the US roofers' forms of the same fall: 1/4:12 and 1/4 in per ft are 1:48 (IBC 2018 1507.10.1)", () => {
+    const us = q({ id: "r", kind: "ratio", prompt: "As 1:N?", answer: "1:48" });
+    for (const given of ["1/4:12", "1/4 in/ft", "1/4 in per ft", '1/4" per ft']) expect(gradeQuestion(us, given).passed, given).toBe(true);
+    expect(gradeQuestion(us, "1/8:12").passed).toBe(false); // 1:96
+    expect(gradeQuestion(us, "1/4:12").measured).toBe("1:48");
   });
   it("refuses other forms and wrong ratios", () => {
     expect(gradeQuestion(ratio, "40").passed).toBe(false);

@@ -4,6 +4,15 @@ import { action, loader } from "~/routes/sandbox.schedule-csv";
 import { DEMO_ROOF } from "~/components/sandbox/demo-roof";
 import { decodeSpec, encodeSpec, sheetHref, SHEET_LINK_LIMIT } from "~/components/sandbox/sheet-link";
 import { readLinkedSpec } from "~/components/sandbox/linked-spec.server";
+import { formatIn } from "~/components/sandbox/format";
+import { scheduleRows } from "~/components/sandbox/schedule-rows";
+import { analyse, parseSpec, type RoofSpec } from "~/engine";
+
+function parseOk(input: unknown): RoofSpec {
+  const r = parseSpec(input);
+  if (!r.ok) throw new Error(r.error.message);
+  return r.spec;
+}
 
 type ActionArgs = Parameters<typeof action>[0];
 
@@ -30,6 +39,29 @@ describe("POST /sandbox/schedule.csv", () => {
     expect(through).toMatchObject({ start_level_mm: "0", end_level_mm: String(H), start_drop_below_H_mm: String(H), end_drop_below_H_mm: "0", fall: "1:28.6" });
     // The joist against the end wall lies on the level rim: level, no drop.
     expect(parsed.data[0]).toMatchObject({ joist: "1", offset_m: "0", start_level_mm: String(H), end_level_mm: String(H), fall: "level" });
+  });
+
+  it("answers in US customary when asked (units=us), or for a US rule set, agreeing with the screen's figures", async () => {
+    const res = await post(new URLSearchParams({ spec: JSON.stringify(DEMO_ROOF), units: "us" }), "application/x-www-form-urlencoded");
+    expect(res.status).toBe(200);
+    const parsed = Papa.parse<Record<string, string>>((await res.text()).replace(/^\uFEFF/, "").trim(), { header: true });
+    const analysis = analyse(parseOk(DEMO_ROOF), { mesh: false, traces: false });
+    const rows = scheduleRows(analysis.shaped.joists);
+    expect(parsed.data).toHaveLength(rows.length);
+    const through = parsed.data.find((r) => Math.abs(Number(r.offset_ft) - 6 / 0.3048) < 0.001)!;
+    const row = rows.find((r) => r.offset === 6)!;
+    // The screen writes the same level to 1/16 in: 5 7/8 in is 5.875 in the file.
+    const screen = formatIn("us").mm(row.metres.endLevel).replace(/\u00a0in$/, "");
+    const [whole, frac] = screen.includes(" ") ? screen.split(" ") : screen.includes("/") ? ["0", screen] : [screen, "0/1"];
+    const [a, b] = frac.split("/").map(Number);
+    expect(Number(through.end_level_in)).toBeCloseTo(Number(whole) + a / b, 9);
+    // 1 in = 25.4 mm exactly (NIST SP 811): the level in inches is the level in metres / 0.0254, to 1/16.
+    expect(Number(through.end_level_in)).toBeCloseTo(Math.round((row.metres.endLevel / 0.0254) * 16) / 16, 9);
+    expect(through.fall).toBe("1:28.6");
+    expect(Number(through.fall_in_per_ft)).toBeCloseTo(12 / (1 / Math.tan((2 * Math.PI) / 180)), 2);
+    const ibc = await form(JSON.stringify({ ...DEMO_ROOF, ruleSet: "us-ibc-2018" }));
+    expect((await ibc.text()).split("\n")[0]).toContain("offset_ft");
+    expect((await post(new URLSearchParams({ spec: JSON.stringify(DEMO_ROOF), units: "imperial" }), "application/x-www-form-urlencoded")).status).toBe(400);
   });
 
   it("takes the spec as a JSON body too", async () => {

@@ -38,7 +38,7 @@ export function LayoutScene({
         if (z !== null) out.push({ at: p, level: z, kind: "corner", name: `Corner ${i + 1}` });
       });
     }
-    if (showOutlets) spec.outlets.forEach((o, k) => out.push({ at: o.at, level: o.level ?? 0, kind: "outlet", name: `Outlet ${k + 1}` }));
+    if (showOutlets) spec.outlets.forEach((o, k) => out.push({ at: o.at, level: o.level ?? 0, kind: "outlet", name: `Outlet O${k + 1}` }));
     const longest = [...surface.lines].sort((a, b) => Math.hypot(b[1][0] - b[0][0], b[1][1] - b[0][1]) - Math.hypot(a[1][0] - a[0][0], a[1][1] - a[0][1]))[0];
     if (note && longest) {
       const [p, q] = longest;

@@ -1,6 +1,6 @@
 import { useEffect, useMemo } from "react";
 import * as THREE from "three";
-import { fallColour } from "~/lib/fall-colour";
+import { fallColour, HATCH_INK, HATCH_MIX, SHADE_MIN } from "~/lib/fall-colour";
 import type { SceneFrame } from "./scene-frame";
 
 const WALL_RGB: [number, number, number] = [120, 112, 98];
@@ -46,11 +46,11 @@ varying vec2 vPlan;
 void main() {
   #include <clipping_planes_fragment>
   vec3 n = normalize(cross(dFdx(vWorld), dFdy(vWorld)));
-  float light = 0.62 + 0.38 * abs(dot(n, lightDir));
+  float light = ${SHADE_MIN.toFixed(2)} + ${(1 - SHADE_MIN).toFixed(2)} * abs(dot(n, lightDir));
   vec3 c = vColor * light;
   if (vFlatter > 0.5) {
     float s = fract((vPlan.x - vPlan.y) / hatchPeriod);
-    if (s < 0.28) c = mix(c, hatchColor, 0.8);
+    if (s < 0.28) c = mix(c, hatchColor, ${HATCH_MIX.toFixed(2)});
   }
   gl_FragColor = vec4(mix(c, vec3(0.97, 0.95, 0.91), dim), 1.0);
 }
@@ -116,7 +116,7 @@ export function RoofSurface({
         clipping: true,
         uniforms: {
           lightDir: { value: new THREE.Vector3(0.35, 0.85, 0.4).normalize() },
-          hatchColor: { value: new THREE.Color(0x1f2933) },
+          hatchColor: { value: new THREE.Color(`rgb(${HATCH_INK.join(",")})`) },
           hatchPeriod: { value: 0.25 },
           dim: { value: 0 },
         },

@@ -15,11 +15,24 @@ import {
   type HTMLAttributes,
   type ReactNode,
 } from "react";
+import { getConsoleFunction, setConsoleFunction } from "three";
 import * as SCENE_ELEMENTS from "./scene-elements";
 
 // Only the elements the scenes use: the library's own <Canvas> registers the whole THREE
 // namespace, which keeps every class of three.js in the sandbox's bundle.
 extend(SCENE_ELEMENTS);
+
+// @react-three/fiber 9 makes a THREE.Clock for every canvas, which three r183+ reports as
+// deprecated on each 3D page. That one known message is dropped; every other message of three
+// goes to the console as before (three's own hook for its messages).
+const CLOCK_DEPRECATED = /^THREE\.Clock: This module has been deprecated/;
+if (!getConsoleFunction()) {
+  setConsoleFunction((level: string, message: string, ...rest: unknown[]) => {
+    if (level === "warn" && CLOCK_DEPRECATED.test(message)) return;
+    const log = level === "error" ? console.error : level === "warn" ? console.warn : console.log;
+    log(message, ...rest);
+  });
+}
 
 type SceneCanvasProps = Pick<
   RenderProps<HTMLCanvasElement>,

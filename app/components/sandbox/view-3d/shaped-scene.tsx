@@ -86,7 +86,7 @@ export function ShapedScene({
         if (z !== null) out.push({ at: p, level: z, kind: "corner", name: `Corner ${i + 1}` });
       });
     }
-    spec.outlets.forEach((o, k) => out.push({ at: o.at, level: o.level ?? 0, kind: "outlet", name: `Outlet ${k + 1}` }));
+    spec.outlets.forEach((o, k) => out.push({ at: o.at, level: o.level ?? 0, kind: "outlet", name: `Outlet O${k + 1}` }));
     return out;
   }, [sampler, spec]);
 

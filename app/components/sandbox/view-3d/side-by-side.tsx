@@ -1,7 +1,7 @@
 import { SceneCanvas } from "./scene-canvas";
 import { useMemo, useRef } from "react";
 import type { Analysis, RoofSpec } from "~/engine";
-import { mm } from "../format";
+import { useFormat } from "../format";
 import { gutterSurface, openEdgeKinds, openEdgeSurface } from "../layout-scenes";
 import { edgeKindsOf } from "../spec-edit";
 import { useSandbox } from "../store";
@@ -55,6 +55,7 @@ function View({ label, children, frame, height, link, preset, resetKey, drains }
  * (orbit one, the others follow), same exaggeration and fall colours.
  */
 export default function SideBySide({ resetKey = 0 }: { resetKey?: number }) {
+  const { mm } = useFormat();
   const analysis = useSandbox((s) => s.analysis);
   const spec = useSandbox((s) => s.analysedSpec);
   const view = useSandbox((s) => s.view);
@@ -93,6 +94,7 @@ interface LayoutPanelProps {
 }
 
 function GutterPanel({ analysis, spec, exaggeration, ...rest }: LayoutPanelProps) {
+  const { mm } = useFormat();
   const surface = useMemo(() => gutterSurface(spec, analysis), [spec, analysis]);
   const kinds = useMemo(() => edgeKindsOf(spec), [spec]);
   return (
@@ -110,6 +112,7 @@ function GutterPanel({ analysis, spec, exaggeration, ...rest }: LayoutPanelProps
 }
 
 function OpenEdgePanel({ analysis, spec, exaggeration, ...rest }: LayoutPanelProps) {
+  const { mm } = useFormat();
   const surface = useMemo(() => openEdgeSurface(spec, analysis), [spec, analysis]);
   const kinds = useMemo(() => openEdgeKinds(spec, analysis), [spec, analysis]);
   return (

@@ -1,7 +1,9 @@
 import { useFrame } from "@react-three/fiber";
 import { useEffect, useMemo, useRef } from "react";
 import * as THREE from "three";
+import { mergeGeometries } from "three/examples/jsm/utils/BufferGeometryUtils.js";
 import type { FlowTraces } from "~/engine";
+import { WATER_DARK, WATER_LIGHT } from "~/lib/fall-colour";
 import type { SceneFrame } from "./scene-frame";
 
 const MAX_PARTICLES = 600;
@@ -74,18 +76,24 @@ function placeDrop(m: THREE.InstancedMesh, tracks: Track[], drops: Drops, i: num
 }
 
 /**
- * Water paths: the engine's flow traces drawn as faint lines, and (when animating) instanced drops
+ * Water paths: the engine's flow traces drawn as two-tone dashed lines, and (when animating) instanced drops
  * running down them. Per-frame work writes straight into the instance matrix array, no allocation.
  */
 export function WaterPaths({ traces, frame, exaggeration, animate }: { traces: FlowTraces; frame: SceneFrame; exaggeration: number; animate: boolean }) {
   const tracks = useMemo(() => buildTracks(traces, frame), [traces, frame]);
   const lines = useMemo(() => {
     const pairs: number[] = [];
+    // Distance along the path at each end, so the light dashes run on along a path.
+    const along: number[] = [];
     for (const t of tracks) {
-      for (let i = 0; i + 1 < t.s.length; i++) pairs.push(t.xyz[3 * i], t.xyz[3 * i + 1], t.xyz[3 * i + 2], t.xyz[3 * i + 3], t.xyz[3 * i + 4], t.xyz[3 * i + 5]);
+      for (let i = 0; i + 1 < t.s.length; i++) {
+        pairs.push(t.xyz[3 * i], t.xyz[3 * i + 1], t.xyz[3 * i + 2], t.xyz[3 * i + 3], t.xyz[3 * i + 4], t.xyz[3 * i + 5]);
+        along.push(t.s[i], t.s[i + 1]);
+      }
     }
     const g = new THREE.BufferGeometry();
     g.setAttribute("position", new THREE.Float32BufferAttribute(pairs, 3));
+    g.setAttribute("lineDistance", new THREE.Float32BufferAttribute(along, 1));
     return g;
   }, [tracks]);
   useEffect(() => () => lines.dispose(), [lines]);
@@ -108,8 +116,26 @@ export function WaterPaths({ traces, frame, exaggeration, animate }: { traces: F
   }, [tracks, frame]);
 
   const mesh = useRef<THREE.InstancedMesh>(null);
-  const sphere = useMemo(() => new THREE.IcosahedronGeometry(Math.max(0.03, frame.radius * 0.007), 1), [frame]);
+  // A light drop inside a dark ring (the larger sphere's back faces): one of the two stands out
+  // at 3:1 or more on every face colour, hatched or not (WCAG 1.4.11; tests/unit/sandbox/palette.test.ts).
+  const sphere = useMemo(() => {
+    const r = Math.max(0.03, frame.radius * 0.007);
+    const core = new THREE.IcosahedronGeometry(r, 1);
+    const ring = new THREE.IcosahedronGeometry(r * 1.6, 1);
+    const merged = mergeGeometries([core, ring], true)!;
+    core.dispose();
+    ring.dispose();
+    return merged;
+  }, [frame]);
   useEffect(() => () => sphere.dispose(), [sphere]);
+  const materials = useMemo(
+    () => [new THREE.MeshBasicMaterial({ color: WATER_LIGHT }), new THREE.MeshBasicMaterial({ color: WATER_DARK, side: THREE.BackSide })],
+    [],
+  );
+  useEffect(() => () => materials.forEach((m) => m.dispose()), [materials]);
+  const dash = Math.max(0.05, frame.radius * 0.02);
+  const lift = LIFT;
+
   useEffect(() => {
     const m = mesh.current;
     if (!m) return;
@@ -143,12 +169,14 @@ export function WaterPaths({ traces, frame, exaggeration, animate }: { traces: F
 
   return (
     <group name="water">
-      <lineSegments geometry={lines} scale={[1, exaggeration, 1]} position={[0, LIFT * exaggeration, 0]}>
-        <lineBasicMaterial color="#ffffff" transparent opacity={0.35} />
+      {/* Dark and light dashes along each path: readable on the dark and the light end of the scale. */}
+      <lineSegments geometry={lines} scale={[1, exaggeration, 1]} position={[0, lift * exaggeration, 0]}>
+        <lineBasicMaterial color={WATER_DARK} />
       </lineSegments>
-      <instancedMesh ref={mesh} args={[sphere, undefined, Math.max(1, drops.track.length)]} frustumCulled={false}>
-        <meshBasicMaterial color="#7fdcff" />
-      </instancedMesh>
+      <lineSegments geometry={lines} scale={[1, exaggeration, 1]} position={[0, lift * exaggeration, 0]} renderOrder={1}>
+        <lineDashedMaterial color={WATER_LIGHT} dashSize={dash} gapSize={dash} />
+      </lineSegments>
+      <instancedMesh ref={mesh} args={[sphere, materials, Math.max(1, drops.track.length)]} frustumCulled={false} />
     </group>
   );
 }
