@@ -16,6 +16,7 @@ import { buildMesh } from "./mesh";
 import { meshArrays, meshBuffers } from "./mesh-out";
 import { outletParallelWarnings } from "./outlet-reach";
 import { perimeterLevels } from "./perimeter";
+import { heldWaterWarnings } from "./upstands";
 import { prepareRoof } from "./prepare";
 import { toFrame, type Roof } from "./roof";
 import { RULE_SETS, ruleValue } from "./rule-sets";
@@ -145,6 +146,7 @@ function analyseWith(memory: Arena, roof: Roof, options: AnalyseOptions, candida
 
   const { catchments, ponding } = catchmentsOf(roof, mesh, routing, faces, warnings);
   warnings.push(...outletParallelWarnings(roof, levels, catchments));
+  warnings.push(...heldWaterWarnings(roof, levels, mesh, routing, faces));
   if (ponding.length) {
     const total = ponding.reduce((s, p) => s + p.area, 0);
     warnings.push({
@@ -163,7 +165,8 @@ function analyseWith(memory: Arena, roof: Roof, options: AnalyseOptions, candida
   const probes = roof.probes.map((p) => {
     const [u, v] = toFrame(roof, p[0], p[1]);
     const level = levelAt(roof, levels, u, v);
-    if (level === null) warnings.push({ code: "probe-outside", message: `Probe ${pt(p)} is outside the outline.`, at: p });
+    if (level === null)
+      warnings.push({ code: "probe-outside", message: `Probe ${pt(p)} is outside the outline${roof.holes.length ? " or in an opening" : ""}.`, at: p });
     return { at: p, level };
   });
 
@@ -194,6 +197,7 @@ function analyseWith(memory: Arena, roof: Roof, options: AnalyseOptions, candida
     fallMap: fallMapResult,
     catchments,
     ponding,
+    openings: roof.holes.map((h) => ({ index: h.index, kind: h.kind, upstand: h.upstand, area: h.area })),
     probes,
   };
   if (options.mesh === "typed") shaped.meshBuffers = meshBuffers(roof, mesh, faces.slope2, faces.drain);

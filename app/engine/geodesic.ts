@@ -1,4 +1,31 @@
+import { signedArea } from "./geometry/area";
+import { orient } from "./geometry/segments";
 import type { Roof } from "./roof";
+
+/** True when local plan point (x, y) lies strictly inside an opening (its boundary is deck). */
+function inOpening(roof: Roof, x: number, y: number): boolean {
+  const tol = roof.tol * 1000;
+  for (const h of roof.holes) {
+    const { xs, ys } = h;
+    const m = xs.length;
+    let inside = false;
+    for (let i = 0, j = m - 1; i < m; j = i++) {
+      const xi = xs[i], yi = ys[i], xj = xs[j], yj = ys[j];
+      const dx = xi - xj, dy = yi - yj;
+      const len2 = dx * dx + dy * dy;
+      let s = len2 > 0 ? ((x - xj) * dx + (y - yj) * dy) / len2 : 0;
+      s = s < 0 ? 0 : s > 1 ? 1 : s;
+      const cx = xj + s * dx - x, cy = yj + s * dy - y;
+      if (cx * cx + cy * cy <= tol * tol) {
+        inside = false;
+        break;
+      }
+      if (yi > y !== yj > y && x < ((xj - xi) * (y - yi)) / (yj - yi) + xi) inside = !inside;
+    }
+    if (inside) return true;
+  }
+  return false;
+}
 
 export interface GeodesicPath {
   length: number;
@@ -35,7 +62,13 @@ export class Geodesic {
   private readonly ys: Float64Array;
   private readonly n: number;
   private readonly tol: number;
+  /** Where a path may bend: the outline's reflex vertices, then the openings' convex corners. */
   readonly reflex: number[];
+  private readonly nx: Float64Array;
+  private readonly ny: Float64Array;
+  /** Every wall as segments (outline, then openings): x0, y0, x1, y1 each. */
+  private readonly walls: Float64Array;
+  private readonly open: boolean;
   private reflexVisible: Uint8Array | null = null;
 
   constructor(private readonly roof: Roof) {
@@ -44,13 +77,44 @@ export class Geodesic {
     this.n = roof.n;
     this.tol = roof.tol * 1000;
     this.reflex = [];
-    for (let i = 0; i < roof.n; i++) if (roof.reflex[i]) this.reflex.push(i);
+    const px: number[] = [];
+    const py: number[] = [];
+    for (let i = 0; i < roof.n; i++) {
+      if (!roof.reflex[i]) continue;
+      this.reflex.push(i);
+      px.push(roof.xs[i]);
+      py.push(roof.ys[i]);
+    }
+    // Openings (docs/roof-method-plans.md P2): water and fall lines go round them, bending at
+    // their corners that point out into the deck.
+    const walls: number[] = [];
+    for (let i = 0; i < roof.n; i++) {
+      const q = i + 1 === roof.n ? 0 : i + 1;
+      walls.push(roof.xs[i], roof.ys[i], roof.xs[q], roof.ys[q]);
+    }
+    for (const h of roof.holes) {
+      const m = h.xs.length;
+      const sign = signedArea(h.xs, h.ys) > 0 ? 1 : -1;
+      for (let i = 0; i < m; i++) {
+        const a = (i + m - 1) % m, q = (i + 1) % m;
+        walls.push(h.xs[i], h.ys[i], h.xs[q], h.ys[q]);
+        if (sign * orient(h.xs[a], h.ys[a], h.xs[i], h.ys[i], h.xs[q], h.ys[q]) > 0) {
+          this.reflex.push(-1);
+          px.push(h.xs[i]);
+          py.push(h.ys[i]);
+        }
+      }
+    }
+    this.nx = Float64Array.from(px);
+    this.ny = Float64Array.from(py);
+    this.walls = Float64Array.from(walls);
+    this.open = roof.convex && roof.holes.length === 0;
   }
 
   /** True when the segment a→b stays inside the closed outline (touching the boundary is inside). */
   visible(ax: number, ay: number, bx: number, by: number): boolean {
-    if (this.roof.convex) return true;
-    const { xs, ys, n, tol } = this;
+    if (this.open) return true;
+    const { walls, tol } = this;
     const ex = bx - ax;
     const ey = by - ay;
     const L = Math.sqrt(ex * ex + ey * ey);
@@ -59,9 +123,8 @@ export class Geodesic {
     const loX = Math.min(ax, bx) - tol, hiX = Math.max(ax, bx) + tol;
     const loY = Math.min(ay, by) - tol, hiY = Math.max(ay, by) + tol;
     let touches: number[] | null = null;
-    for (let i = 0; i < n; i++) {
-      const q = i + 1 === n ? 0 : i + 1;
-      const px = xs[i], py = ys[i], qx = xs[q], qy = ys[q];
+    for (let w = 0; w < walls.length; w += 4) {
+      const px = walls[w], py = walls[w + 1], qx = walls[w + 2], qy = walls[w + 3];
       if ((px < loX && qx < loX) || (px > hiX && qx > hiX) || (py < loY && qy < loY) || (py > hiY && qy > hiY)) continue;
       const o1 = ex * (py - ay) - ey * (px - ax);
       const o2 = ex * (qy - ay) - ey * (qx - ax);
@@ -81,6 +144,7 @@ export class Geodesic {
       if (cuts[k] - cuts[k - 1] <= 1e-9) continue;
       const s = (cuts[k] + cuts[k - 1]) / 2;
       if (!this.insideOrOn(ax + s * ex, ay + s * ey)) return false;
+      if (this.roof.holes.length && inOpening(this.roof, ax + s * ex, ay + s * ey)) return false;
     }
     return true;
   }
@@ -108,8 +172,7 @@ export class Geodesic {
     const m = new Uint8Array(r * r);
     for (let a = 0; a < r; a++) {
       for (let b = a + 1; b < r; b++) {
-        const i = this.reflex[a], j = this.reflex[b];
-        const ok = this.visible(this.xs[i], this.ys[i], this.xs[j], this.ys[j]) ? 1 : 0;
+        const ok = this.visible(this.nx[a], this.ny[a], this.nx[b], this.ny[b]) ? 1 : 0;
         m[a * r + b] = m[b * r + a] = ok;
       }
     }
@@ -131,10 +194,9 @@ export class Geodesic {
     const endX = new Float64Array(r);
     const endY = new Float64Array(r);
     for (let a = 0; a < r; a++) {
-      const i = this.reflex[a];
-      const end = direct(this.xs[i], this.ys[i]);
+      const end = direct(this.nx[a], this.ny[a]);
       if (!end) continue;
-      dist[a] = Math.hypot(end[0] - this.xs[i], end[1] - this.ys[i]);
+      dist[a] = Math.hypot(end[0] - this.nx[a], end[1] - this.ny[a]);
       endX[a] = end[0];
       endY[a] = end[1];
     }
@@ -146,11 +208,9 @@ export class Geodesic {
         for (let k = 0; k < r; k++) if (!done[k] && dist[k] < Infinity && (a < 0 || dist[k] < dist[a])) a = k;
         if (a < 0) break;
         done[a] = 1;
-        const i = this.reflex[a];
         for (let b = 0; b < r; b++) {
           if (done[b] || !m[a * r + b]) continue;
-          const j = this.reflex[b];
-          const d = dist[a] + Math.hypot(this.xs[j] - this.xs[i], this.ys[j] - this.ys[i]);
+          const d = dist[a] + Math.hypot(this.nx[b] - this.nx[a], this.ny[b] - this.ny[a]);
           if (d < dist[b]) {
             dist[b] = d;
             next[b] = a;
@@ -216,18 +276,16 @@ export class Geodesic {
     const key = new Float64Array(r);
     for (let a = 0; a < r; a++) {
       if (to.dist[a] === Infinity) continue;
-      const i = this.reflex[a];
-      key[a] = Math.hypot(this.xs[i] - sx, this.ys[i] - sy) + to.dist[a];
+      key[a] = Math.hypot(this.nx[a] - sx, this.ny[a] - sy) + to.dist[a];
       order.push(a);
     }
     order.sort((p, q) => key[p] - key[q]);
     for (const a of order) {
-      const i = this.reflex[a];
-      if (!this.visible(sx, sy, this.xs[i], this.ys[i])) continue;
+      if (!this.visible(sx, sy, this.nx[a], this.ny[a])) continue;
       const path: [number, number][] = [[sx, sy]];
       let b = a;
       for (let guard = 0; guard <= r && b >= 0; guard++) {
-        path.push([this.xs[this.reflex[b]], this.ys[this.reflex[b]]]);
+        path.push([this.nx[b], this.ny[b]]);
         if (to.next[b] < 0) path.push([to.endX[b], to.endY[b]]);
         b = to.next[b];
       }

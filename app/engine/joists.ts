@@ -36,7 +36,8 @@ export function joistPositions(roof: Roof): Float64Array {
  * inside it (docs/roof-method-plans.md P6): along a wall lying on the joist line the surface is
  * that wall's own level, which rises and falls through its knots (outlets, half-way points), so
  * the joist is split at every knot of the wall, and at a corner the chord passes it is split at
- * the corner's level. Every span end is then the surface's level at that point.
+ * the corner's level. Every span end is then the surface's level at that point. Spans are
+ * trimmed round openings (P2).
  */
 export function dropSchedule(roof: Roof, levels: PerimeterLevels, positions: Float64Array): Joist[] {
   const joists: Joist[] = [];
@@ -59,29 +60,74 @@ export function dropSchedule(roof: Roof, levels: PerimeterLevels, positions: Flo
     // A wall on the line that no chord from this side covers still has a joist against it.
     if (onVertexLine.has(u)) pieces.push(...uncoveredWalls(roof, levels, u, chords));
     pieces.sort((a, b) => a[0].v - b[0].v);
+    const cuts = roof.holes.length ? holeIntervals(roof, u, side) : NO_CUTS;
+    const push = (v0: number, z0: number, v1: number, z1: number) => {
+      const length = v1 - v0;
+      if (length <= roof.tol) return;
+      const rise = Math.abs(z1 - z0);
+      spans.push({
+        start: toPlan(roof, u, v0),
+        end: toPlan(roof, u, v1),
+        length,
+        startLevel: z0,
+        endLevel: z1,
+        startDrop: H - z0,
+        endDrop: H - z1,
+        ratio: rise > 1e-12 ? length / rise : null,
+      });
+    };
     for (const breaks of pieces) {
       if (breaks.length > 2) breaks.sort((a, b) => a.v - b.v);
       for (let b = 1; b < breaks.length; b++) {
         const from = breaks[b - 1];
         const to = breaks[b];
-        const length = to.v - from.v;
-        if (length <= roof.tol) continue;
-        const rise = Math.abs(to.z - from.z);
-        spans.push({
-          start: toPlan(roof, u, from.v),
-          end: toPlan(roof, u, to.v),
-          length,
-          startLevel: from.z,
-          endLevel: to.z,
-          startDrop: H - from.z,
-          endDrop: H - to.z,
-          ratio: rise > 1e-12 ? length / rise : null,
-        });
+        // Trimmed round the openings (docs/roof-method-plans.md P2): the pieces left keep the
+        // uncut span's levels at their ends.
+        let v0 = from.v;
+        const at = (v: number) => (to.v > from.v ? from.z + ((to.z - from.z) * (v - from.v)) / (to.v - from.v) : from.z);
+        for (let c = 0; c < cuts.length; c += 2) {
+          const lo = cuts[c], hi = cuts[c + 1];
+          if (hi <= v0 || lo >= to.v) continue;
+          if (lo > v0) push(v0, at(v0), lo, at(lo));
+          v0 = Math.max(v0, hi);
+        }
+        if (v0 < to.v) push(v0, at(v0), to.v, to.z);
       }
     }
     joists.push({ index: k, offset: u - roof.umin, spans });
   }
   return joists;
+}
+
+const NO_CUTS: number[] = [];
+
+/**
+ * Stretches of the line u inside openings, as sorted pairs [lo, hi, lo, hi, ...]. Crossings use
+ * the half-open rule of `chordsAt` with the same side, so a line through an opening's corner or
+ * along its edge reads as its neighbour on that side.
+ */
+function holeIntervals(roof: Roof, u: number, side: 1 | -1): number[] {
+  const out: number[] = [];
+  for (const h of roof.holes) {
+    const { us, vs } = h;
+    const m = us.length;
+    const vsAt: number[] = [];
+    for (let i = 0; i < m; i++) {
+      const q = i + 1 === m ? 0 : i + 1;
+      const ua = us[i], ub = us[q];
+      const crosses = side > 0 ? ua <= u !== ub <= u : ua < u !== ub < u;
+      if (!crosses) continue;
+      const s = Math.min(1, Math.max(0, (u - ua) / (ub - ua)));
+      vsAt.push(vs[i] + s * (vs[q] - vs[i]));
+    }
+    vsAt.sort((a, b) => a - b);
+    for (let k = 0; k + 1 < vsAt.length; k += 2) out.push(vsAt[k], vsAt[k + 1]);
+  }
+  // Openings stand apart, so their stretches never overlap: sort the pairs by their start.
+  const pairs: [number, number][] = [];
+  for (let k = 0; k < out.length; k += 2) pairs.push([out[k], out[k + 1]]);
+  pairs.sort((a, b) => a[0] - b[0]);
+  return pairs.flat();
 }
 
 interface Break {

@@ -40,7 +40,7 @@ export interface MeshOptions {
 
 /** Sorted unique breakpoints: every vertex u exactly, outlet and half-way knots, then mesh joist lines. */
 function meshLines(roof: Roof, levels: PerimeterLevels, joists: Float64Array, stride: number, gap: number): Float64Array {
-  const hard = Float64Array.from(roof.us).sort();
+  const hard = Float64Array.from(roof.holes.length ? [...roof.us, ...roof.holes.flatMap((h) => [...h.us])] : roof.us).sort();
   const snap = 1e-6 * Math.max(1, roof.umax - roof.umin);
   const knots: number[] = [];
   for (let j = 0; j < roof.n; j++) {
@@ -88,7 +88,12 @@ function mergeAway(accepted: ArrayLike<number>, candidates: ArrayLike<number>, g
  * outline's area. Levels: perimeter level on the outline, the chord rule inside.
  */
 export function buildMesh(roof: Roof, levels: PerimeterLevels, joists: Float64Array, options: MeshOptions): SurfaceMesh {
-  const { n, us, vs, len, spacing } = roof;
+  const { n, len, spacing } = roof;
+  // Every ring's edges: the outline's (0..n-1), then each opening's; edge e runs from vertex e to
+  // vertex next[e]. The even-odd pairing of edges in a slab leaves the openings out.
+  const rings = ringsOf(roof);
+  const { us, vs, next } = rings;
+  const N = us.length;
   const memory = options.memory ?? FRESH;
   // Work bound: estimate stations as lines × stations per line over the bounding box (a thin
   // diagonal roof has few lines, each very long), then thin out the joist lines and lengthen the
@@ -107,23 +112,28 @@ export function buildMesh(roof: Roof, levels: PerimeterLevels, joists: Float64Ar
   const tolV = 1e-9 * extent;
   const minGap = 0.25 * step;
 
-  const edgeV = (e: number, u: number): number => vOnEdge(us, vs, n, e, u);
+  const edgeV = (e: number, u: number): number => vOnEdge(us, vs, next, e, u);
 
   // Trapezoids of each slab: pairs of edges spanning it, sorted along v at the slab's middle.
   const slabStart = new Int32Array(L);
   const trapBot = new Growable(Int32Array, 4 * L);
   const trapTop = new Growable(Int32Array, 4 * L);
   // Edges spanning the current slab, and each one's v at the slab's middle (indexed by edge).
-  const crossing = new Int32Array(n);
-  const crossingV = new Float64Array(n);
+  const crossing = new Int32Array(N);
+  const crossingV = new Float64Array(N);
+  // With openings, the outline's own trapezoids too: the chord rule reads levels from them.
+  const holes = N > n;
+  const outerBot = new Growable(Int32Array, holes ? 4 * L : 0);
+  const outerTop = new Growable(Int32Array, holes ? 4 * L : 0);
+  const outerStart = new Int32Array(holes ? L : 0);
   for (let j = 0; j + 1 < L; j++) {
     slabStart[j] = trapBot.length;
     const a = U[j];
     const b = U[j + 1];
     const mid = (a + b) / 2;
     let nc = 0;
-    for (let e = 0; e < n; e++) {
-      const q = e + 1 === n ? 0 : e + 1;
+    for (let e = 0; e < N; e++) {
+      const q = next[e];
       const lo = us[e] < us[q] ? us[e] : us[q];
       const hi = us[e] < us[q] ? us[q] : us[e];
       if (lo <= a && hi >= b) {
@@ -145,15 +155,46 @@ export function buildMesh(roof: Roof, levels: PerimeterLevels, joists: Float64Ar
       trapBot.push(crossing[k]);
       trapTop.push(crossing[k + 1]);
     }
+    if (holes) {
+      outerStart[j] = outerBot.length;
+      let side = 0;
+      for (let k = 0; k < nc; k++) {
+        if (crossing[k] >= n) continue;
+        if (side++ % 2 === 0) outerBot.push(crossing[k]);
+        else outerTop.push(crossing[k]);
+      }
+    }
   }
   slabStart[L - 1] = trapBot.length;
+  if (holes) outerStart[L - 1] = outerBot.length;
+  const oBots = outerBot.view();
+  const oTops = outerTop.view();
+  /** Level at v on line u by the chord rule of the outline alone, read from slab `slab`. */
+  const chordZ = (slab: number, u: number, v: number): number => {
+    const k1 = slab + 1 < L ? outerStart[slab + 1] : oBots.length;
+    let best = outerStart[slab];
+    let bestGap = Infinity;
+    for (let k = outerStart[slab]; k < k1; k++) {
+      const vB = edgeV(oBots[k], u), vT = edgeV(oTops[k], u);
+      const gap = v < vB ? vB - v : v > vT ? v - vT : 0;
+      if (gap < bestGap) {
+        bestGap = gap;
+        best = k;
+      }
+    }
+    const eB = oBots[best], eT = oTops[best];
+    const vB = edgeV(eB, u), vT = edgeV(eT, u);
+    const zB = levelOnEdge(levels, eB, tOnEdge(us, len, next, eB, u));
+    const zT = levelOnEdge(levels, eT, tOnEdge(us, len, next, eT, u));
+    return vT - vB > 0 ? zB + ((zT - zB) * (v - vB)) / (vT - vB) : zB;
+  };
   const bots = trapBot.view();
   const tops = trapTop.view();
 
   const out = new Stations(memory, Math.ceil((roof.area / (spacing * stride * step)) * 1.1 + 4 * L + 64));
   const lineStart = memory.take(Int32Array, L + 1);
   // Per-line scratch, sized for the worst line.
-  const maxSides = 2 * (bots.length > 0 ? n : 1) + 2;
+  const maxSides = 2 * (bots.length > 0 ? N : 1) + 2;
   const sides = new Float64Array(4 * maxSides);
   const maxMarks = 2 * maxSides + levels.t.reduce((sum, kt) => sum + kt.length, 0) + 8;
   const marks = new Marks(maxMarks);
@@ -176,22 +217,26 @@ export function buildMesh(roof: Roof, levels: PerimeterLevels, joists: Float64Ar
       const k1 = pass === 0 ? rightTo : leftTo;
       for (let k = k0; k < k1; k++) {
         const eB = bots[k], eT = tops[k];
-        const tB = tOnEdge(us, len, n, eB, u), tT = tOnEdge(us, len, n, eT, u);
-        const vB = vOnEdge(us, vs, n, eB, u), vT = vOnEdge(us, vs, n, eT, u);
-        const zB = levelOnEdge(levels, eB, tB), zT = levelOnEdge(levels, eT, tT);
+        const tB = tOnEdge(us, len, next, eB, u), tT = tOnEdge(us, len, next, eT, u);
+        const vB = vOnEdge(us, vs, next, eB, u), vT = vOnEdge(us, vs, next, eT, u);
+        const slab = pass === 0 ? j : j - 1;
+        // An end on an opening's edge takes the deck's level there (docs/roof-method-plans.md
+        // P2); its station is marked -2 - opening.
+        const zB = eB < n ? levelOnEdge(levels, eB, tB) : chordZ(slab, u, vB);
+        const zT = eT < n ? levelOnEdge(levels, eT, tT) : chordZ(slab, u, vT);
         sides[4 * nSides] = vB;
         sides[4 * nSides + 1] = vT;
         sides[4 * nSides + 2] = zB;
         sides[4 * nSides + 3] = zT;
         nSides++;
-        marks.add(vB, eB, tB, zB);
-        marks.add(vT, eT, tT, zT);
+        marks.add(vB, eB < n ? eB : -2 - rings.hole[eB - n], eB < n ? tB : 0, zB);
+        marks.add(vT, eT < n ? eT : -2 - rings.hole[eT - n], eT < n ? tT : 0, zT);
       }
     }
     const rightSides = rightTo - rightFrom;
     along.length = 0;
     for (let e = 0; e < n; e++) {
-      const q = e + 1 === n ? 0 : e + 1;
+      const q = next[e];
       if (us[e] !== u || us[q] !== u) continue;
       along.push(e);
       const kt = levels.t[e];
@@ -274,9 +319,36 @@ export function meshEdges(mesh: SurfaceMesh): Uint32Array {
   return edges;
 }
 
-/** v where internal edge e (vertex e to e + 1) crosses the line at u, its end values exactly at its ends. */
-function vOnEdge(us: Float64Array, vs: Float64Array, n: number, e: number, u: number): number {
-  const q = e + 1 === n ? 0 : e + 1;
+/** The outline's and the openings' rings as one list of vertices and edges (edge e: e → next[e]). */
+export function ringsOf(roof: Roof): { us: Float64Array; vs: Float64Array; next: Int32Array; hole: Int32Array } {
+  const { n } = roof;
+  const total = n + roof.holes.reduce((sum, h) => sum + h.us.length, 0);
+  const us = total === n ? roof.us : new Float64Array(total);
+  const vs = total === n ? roof.vs : new Float64Array(total);
+  const next = new Int32Array(total);
+  const hole = new Int32Array(total - n);
+  for (let e = 0; e < n; e++) next[e] = e + 1 === n ? 0 : e + 1;
+  if (total > n) {
+    us.set(roof.us);
+    vs.set(roof.vs);
+    let at = n;
+    roof.holes.forEach((h, k) => {
+      const m = h.us.length;
+      us.set(h.us, at);
+      vs.set(h.vs, at);
+      for (let i = 0; i < m; i++) {
+        next[at + i] = at + ((i + 1) % m);
+        hole[at + i - n] = k;
+      }
+      at += m;
+    });
+  }
+  return { us, vs, next, hole };
+}
+
+/** v where edge e (vertex e to next[e]) crosses the line at u, its end values exactly at its ends. */
+function vOnEdge(us: Float64Array, vs: Float64Array, next: Int32Array, e: number, u: number): number {
+  const q = next[e];
   const ua = us[e];
   const ub = us[q];
   if (u === ua) return vs[e];
@@ -286,9 +358,10 @@ function vOnEdge(us: Float64Array, vs: Float64Array, n: number, e: number, u: nu
   return vs[e] + s * (vs[q] - vs[e]);
 }
 
-/** Distance along internal edge e to where it crosses the line at u. */
-function tOnEdge(us: Float64Array, len: Float64Array, n: number, e: number, u: number): number {
-  const q = e + 1 === n ? 0 : e + 1;
+/** Distance along outline edge e to where it crosses the line at u (0 for an opening's edge: unused). */
+function tOnEdge(us: Float64Array, len: Float64Array, next: Int32Array, e: number, u: number): number {
+  if (e >= len.length) return 0;
+  const q = next[e];
   const ua = us[e];
   const ub = us[q];
   if (u === ua) return 0;

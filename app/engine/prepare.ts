@@ -1,7 +1,8 @@
 import { fallFromRatio, parseFall, type Fall } from "./fall";
 import { signedArea } from "./geometry/area";
 import { nearestOnSegment, orient, segmentsTouch } from "./geometry/segments";
-import type { Outlet, Roof } from "./roof";
+import { insidePolygon } from "./geometry/inside";
+import type { Hole, Outlet, Roof } from "./roof";
 import { DEFAULT_RULE_SET, RULE_SETS, ruleValue, type RuleSetId, type UsedRule } from "./rule-sets";
 import type { EdgeKind, Point, RoofSpec } from "./types";
 import { outletName } from "./names";
@@ -118,6 +119,10 @@ export function prepareRoof(spec: RoofSpec): Prepared {
   for (let j = 0; j < n; j++) extent = Math.max(extent, Math.abs(xs[j]), Math.abs(ys[j]));
   const tol = 1e-9 * Math.max(1, extent);
 
+  const holesOrIssue = prepareHoles(spec, pts, ox, oy);
+  if (!Array.isArray(holesOrIssue)) return holesOrIssue;
+  const holes = holesOrIssue;
+
   // Outlets: snap each onto the nearest parapet edge, or onto a vertex when within the snap distance.
   const outlets: Outlet[] = [];
   const specOutlets = spec.outlets ?? [];
@@ -195,6 +200,7 @@ export function prepareRoof(spec: RoofSpec): Prepared {
     dy = (xs[q] - xs[edge]) / len[edge] + 0;
   }
   const { us, vs, umin, umax, vmin, vmax } = frameOf(xs, ys, len, outlets, dx, dy, tol);
+  frameHoles(holes, dx, dy);
 
   const spacing = spec.joists?.spacing ?? DEFAULTS.joistSpacing;
   const offset = spec.joists?.offset ?? 0;
@@ -237,6 +243,8 @@ export function prepareRoof(spec: RoofSpec): Prepared {
       : { intensity: DEFAULTS.rainfallIntensity, assumed: true },
     ruleSet, used, spacing, offset, highLevelGiven,
     probes: (spec.probes ?? []).map((p) => [p[0], p[1]]),
+    holes,
+    holeArea: holes.reduce((sum, h) => sum + h.area, 0),
     tol,
   };
   return { ok: true, roof };
@@ -295,7 +303,90 @@ export function withJoistDirection(roof: Roof, dx: number, dy: number): Roof | n
   const frame = frameOf(roof.xs, roof.ys, roof.len, outlets, dx, dy, roof.tol);
   const count = Math.floor(Math.max(0, frame.umax - frame.umin - roof.offset) / roof.spacing) + 2;
   if (count > LIMITS.maxJoists) return null;
-  return { ...roof, dx: dx + 0, dy: dy + 0, outlets, ...frame, probes: [] };
+  const holes = roof.holes.map((h) => ({ ...h, us: new Float64Array(h.xs.length), vs: new Float64Array(h.xs.length) }));
+  frameHoles(holes, dx, dy);
+  return { ...roof, dx: dx + 0, dy: dy + 0, outlets, ...frame, holes, probes: [] };
+}
+
+function frameHoles(holes: Hole[], dx: number, dy: number): void {
+  for (const h of holes) {
+    for (let j = 0; j < h.xs.length; j++) {
+      h.us[j] = h.xs[j] * dy - h.ys[j] * dx;
+      h.vs[j] = h.xs[j] * dx + h.ys[j] * dy;
+    }
+  }
+}
+
+/** Default upstand height (m): common practice, no source. */
+export const DEFAULT_UPSTAND = 0.15;
+
+/**
+ * Openings (docs/roof-method-plans.md P2): each a simple polygon strictly inside the outline, not
+ * touching it nor another opening. Returns them in the local frame (u, v set later), or the 422.
+ */
+function prepareHoles(spec: RoofSpec, outline: Point[], ox: number, oy: number): Hole[] | Prepared {
+  const holes: Hole[] = [];
+  const rings: Point[][] = [];
+  const list = spec.openings ?? [];
+  const n = outline.length;
+  const oxs = outline.map((p) => p[0]);
+  const oys = outline.map((p) => p[1]);
+  for (let i = 0; i < list.length; i++) {
+    const path = `openings.${i}.outline`;
+    let ring: Point[] = list[i].outline.map((p) => [p[0], p[1]]);
+    const a = ring[0], b = ring[ring.length - 1];
+    if (ring.length > 3 && Math.hypot(a[0] - b[0], a[1] - b[1]) <= LIMITS.minEdge) ring = ring.slice(0, -1);
+    if (ring.length > 50) return fail(400, path, "allows at most 50 vertices");
+    for (let k = 0; k < ring.length; k++) {
+      const p = ring[k], q = ring[(k + 1) % ring.length];
+      if (Math.hypot(q[0] - p[0], q[1] - p[1]) < LIMITS.minEdge) return fail(422, path, `opening ${i + 1}: edge ${k} has zero length`);
+    }
+    const crossing = findCrossing(ring);
+    if (crossing) return fail(422, path, `opening ${i + 1}: ${crossing}`);
+    const area = Math.abs(signedArea(ring.map((p) => p[0]), ring.map((p) => p[1])));
+    if (area < 1e-6) return fail(422, path, `opening ${i + 1} encloses no area`);
+    for (const p of ring) {
+      if (!insidePolygon(oxs, oys, p[0], p[1])) return fail(422, path, `opening ${i + 1} lies outside the roof outline at (${p[0]}, ${p[1]})`);
+    }
+    for (let k = 0; k < ring.length; k++) {
+      const p = ring[k], q = ring[(k + 1) % ring.length];
+      for (let j = 0; j < n; j++) {
+        const c = outline[j], d = outline[(j + 1) % n];
+        const near = Math.min(
+          nearestOnSegment(c[0], c[1], d[0], d[1], p[0], p[1]).distance,
+          nearestOnSegment(p[0], p[1], q[0], q[1], c[0], c[1]).distance,
+        );
+        if (segmentsTouch(p[0], p[1], q[0], q[1], c[0], c[1], d[0], d[1]) || near < LIMITS.minEdge)
+          return fail(422, path, `opening ${i + 1} crosses or touches the roof outline (outline edge ${j}): an opening must lie inside it`);
+      }
+    }
+    for (let m = 0; m < rings.length; m++) {
+      const other = rings[m];
+      const touching = ring.some((p, k) => {
+        const q = ring[(k + 1) % ring.length];
+        return other.some((c, j) => {
+          const d = other[(j + 1) % other.length];
+          return segmentsTouch(p[0], p[1], q[0], q[1], c[0], c[1], d[0], d[1]);
+        });
+      });
+      const inside =
+        insidePolygon(other.map((p) => p[0]), other.map((p) => p[1]), ring[0][0], ring[0][1]) ||
+        insidePolygon(ring.map((p) => p[0]), ring.map((p) => p[1]), other[0][0], other[0][1]);
+      if (touching || inside) return fail(422, path, `opening ${i + 1} overlaps or touches opening ${m + 1}: openings must stand apart`);
+    }
+    rings.push(ring);
+    holes.push({
+      index: i,
+      kind: list[i].kind ?? "other",
+      upstand: list[i].upstand ?? DEFAULT_UPSTAND,
+      xs: Float64Array.from(ring, (p) => p[0] - ox),
+      ys: Float64Array.from(ring, (p) => p[1] - oy),
+      us: new Float64Array(ring.length),
+      vs: new Float64Array(ring.length),
+      area,
+    });
+  }
+  return holes;
 }
 
 function formatDistance(m: number): string {

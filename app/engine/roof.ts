@@ -20,6 +20,19 @@ export interface Outlet {
   radius: number;
 }
 
+/** An opening (a hole with an upstand) in the engine's frame: local plan and joist-frame vertices. */
+export interface Hole {
+  /** Position in the request's openings list. */
+  index: number;
+  kind: "rooflight" | "hatch" | "plant" | "other";
+  upstand: number;
+  xs: Float64Array;
+  ys: Float64Array;
+  us: Float64Array;
+  vs: Float64Array;
+  area: number;
+}
+
 /**
  * A validated roof in the engine's frame: counter-clockwise outline about a local origin,
  * with joist-frame coordinates u (across the joists) and v (along them).
@@ -61,8 +74,37 @@ export interface Roof {
   offset: number;
   highLevelGiven: number | null;
   probes: Point[];
+  /** Openings, strictly inside the outline and apart from each other (docs/roof-method-plans.md P2). */
+  holes: Hole[];
+  /** Their total plan area. */
+  holeArea: number;
   /** Length tolerance for coincidence tests, scaled to the roof. */
   tol: number;
+}
+
+/** The opening holding frame point (u, v) strictly inside it, or -1 (its boundary is deck). */
+export function holeAt(roof: Roof, u: number, v: number): number {
+  for (let h = 0; h < roof.holes.length; h++) {
+    const { us, vs } = roof.holes[h];
+    const m = us.length;
+    let inside = false;
+    for (let i = 0, j = m - 1; i < m; j = i++) {
+      const ui = us[i], vi = vs[i], uj = us[j], vj = vs[j];
+      // On the boundary: deck, not opening.
+      const du = ui - uj, dv = vi - vj;
+      const len2 = du * du + dv * dv;
+      let s = len2 > 0 ? ((u - uj) * du + (v - vj) * dv) / len2 : 0;
+      s = s < 0 ? 0 : s > 1 ? 1 : s;
+      const cu = uj + s * du - u, cv = vj + s * dv - v;
+      if (cu * cu + cv * cv <= roof.tol * roof.tol * 1e6) {
+        inside = false;
+        break;
+      }
+      if (vi > v !== vj > v && u < ((uj - ui) * (v - vi)) / (vj - vi) + ui) inside = !inside;
+    }
+    if (inside) return h;
+  }
+  return -1;
 }
 
 /** Local (u, v) → request plan coordinates. */

@@ -62,5 +62,20 @@ export const roofSpecSchema = z.object({
     }),
   ),
   probes: z.optional(z.array(point).check(z.maxLength(1000, "allows at most 1000 probes"))),
+  openings: z.optional(
+    z
+      .array(
+        z.object({
+          // One extra vertex is allowed for a repeated closing point.
+          outline: z
+            .array(point, { error: "must be a list of [x, y] points" })
+            .check(z.minLength(3, "needs at least 3 vertices"), z.maxLength(51, "allows at most 50 vertices")),
+          kind: z.optional(z.enum(["rooflight", "hatch", "plant", "other"], { error: 'must be "rooflight", "hatch", "plant" or "other"' })),
+          upstand: z.optional(limited(0, 2, "must be at least 0 m", "must be at most 2 m")),
+        }),
+        { error: "must be a list of openings {outline: [[x, y], ...]}" },
+      )
+      .check(z.maxLength(50, "allows at most 50 openings")),
+  ),
   ruleSet: z.optional(z.enum(RULE_SET_IDS as [string, ...string[]], { error: `must be one of ${RULE_SET_IDS.join(", ")}` })),
 });

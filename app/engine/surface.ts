@@ -1,7 +1,7 @@
 import { chordThrough, type Chord } from "./chords";
 import { nearestOnSegment } from "./geometry/segments";
 import { levelOnEdge, type PerimeterLevels } from "./perimeter";
-import type { Roof } from "./roof";
+import { holeAt, type Roof } from "./roof";
 
 /** Level along a chord at v: linear between its end levels (the chord rule, docs/roof-method.md §4). */
 export function chordLevel(levels: PerimeterLevels, c: Chord, v: number): number {
@@ -33,9 +33,11 @@ export function perimeterLevelAt(roof: Roof, levels: PerimeterLevels, u: number,
 
 /**
  * Level of the shaped surface at frame point (u, v): the perimeter level on the outline, else
- * linear along the joist-direction chord through the point; null outside the outline.
+ * linear along the joist-direction chord through the point; null outside the outline or in an opening.
  */
 export function levelAt(roof: Roof, levels: PerimeterLevels, u: number, v: number): number | null {
+  // No deck inside an opening (docs/roof-method-plans.md P2); its boundary keeps the deck's level.
+  if (roof.holes.length && holeAt(roof, u, v) >= 0) return null;
   const onRim = perimeterLevelAt(roof, levels, u, v, roof.tol * 1000);
   if (onRim !== null) return onRim;
   const c = chordThrough(roof, u, v);

@@ -20,6 +20,17 @@ export interface RoofSpec {
   rainfall?: { intensity: number };
   probes?: Point[];
   ruleSet?: RuleSetId;
+  /** Rooflights, hatches, plant bases: holes in the drained deck with an upstand round them (docs/roof-method-plans.md P2). */
+  openings?: Opening[];
+}
+
+export type OpeningKind = "rooflight" | "hatch" | "plant" | "other";
+
+export interface Opening {
+  outline: Point[];
+  kind?: OpeningKind;
+  /** Upstand height in metres (default 0.15 m, common practice, no source). */
+  upstand?: number;
 }
 
 export interface Warning {
@@ -35,7 +46,8 @@ export interface Warning {
     | "outlet-capacity"
     | "narrow-gutter"
     | "rainfall-assumed"
-    | "outlet-parallel-to-joists";
+    | "outlet-parallel-to-joists"
+    | "water-held-behind-upstand";
   message: string;
   at?: Point;
   /** Size of the problem in metres where it has one (twist: level difference). */
@@ -45,6 +57,20 @@ export interface Warning {
   drainedArea?: number;
   /** Ways out, the first the one a client can apply in one click where it has a value. */
   fixes?: WarningFix[];
+  /** water-held-behind-upstand: the plan area draining to the held water (m²), and the opening (request index). */
+  area?: number;
+  opening?: number;
+  /** water-held-behind-upstand: the diverting ridge a builder sets there (docs/roof-method-plans.md P5). */
+  cricket?: Cricket;
+}
+
+/** A cricket (saddle): its crest from the upstand up the fall, level at `crestLevel`. */
+export interface Cricket {
+  line: [Point, Point];
+  crestLevel: number;
+  length: number;
+  /** Height of the crest above the deck at the upstand. */
+  height: number;
 }
 
 export type WarningFix =
@@ -185,6 +211,8 @@ export interface Analysis {
     };
     catchments: Catchment[];
     ponding: { at: Point; area: number; level: number }[];
+    /** Each opening (request order) with its plan area; the drained area is the outline's less these. */
+    openings: { index: number; kind: OpeningKind; upstand: number; area: number }[];
     probes: { at: Point; level: number | null }[];
     /** Present unless options.mesh is false or "typed". */
     mesh?: Mesh;

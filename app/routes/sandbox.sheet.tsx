@@ -104,6 +104,9 @@ function SheetBody({ spec, analysis }: { spec: RoofSpec; analysis: Analysis }) {
   const dir = shaped.joistDirection;
   const figures: [string, React.ReactNode][] = [
     ["Roof area", area(analysis.area)],
+    ...(shaped.openings.length
+      ? ([["Openings (no deck)", `${shaped.openings.length}, ${area(shaped.openings.reduce((sum, o) => sum + o.area, 0))}`]] as [string, React.ReactNode][])
+      : []),
     ["High level H (" + shaped.highLevelSource + ")", mm(shaped.highLevel)],
     ["Base fall", <FallRatio key="b" ratio={analysis.baseFall.ratio} />],
     ["Minimum fall for fall lines", <FallRatio key="m" ratio={analysis.minFall.ratio} />],
@@ -165,6 +168,23 @@ function SheetBody({ spec, analysis }: { spec: RoofSpec; analysis: Analysis }) {
           </tbody>
         </table>
       </Block>
+
+      {shaped.openings.length > 0 && (
+        <Block title="Openings">
+          <table className="data-table sheet-table w-full" data-testid="sheet-openings">
+            <thead><tr><th>opening</th><th>kind</th><th className="text-right">upstand</th><th className="text-right">area</th><th>corners</th></tr></thead>
+            <tbody>
+              {shaped.openings.map((o) => (
+                <tr key={o.index}>
+                  <td>{o.index + 1}</td><td>{o.kind}</td><td className="text-right">{mm(o.upstand)}</td><td className="text-right">{area(o.area)}</td>
+                  <td>{(spec.openings?.[o.index]?.outline ?? []).map((p) => point(p)).join(" ")}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+          <p className="mt-1 text-xs text-ink-soft">The deck keeps its levels round each opening; joists cut by one are trimmed and listed in pieces below.</p>
+        </Block>
+      )}
 
       <Block title="Catchments and flows">
         <table className="data-table sheet-table w-full">

@@ -24,7 +24,7 @@ export interface BenchRow {
 
 export type Section = { title: string; run: () => Promise<BenchRow[]> | BenchRow[] };
 
-/** Invented roofs of about 150, 1,500 and 10,000 m² with 0.4 m joists. */
+/** Invented roofs of about 150, 1,500 (plain, and with openings) and 10,000 m² with 0.4 m joists. */
 export const BENCH_ROOFS: { name: string; area: number; frames: number; spec: RoofSpec }[] = [
   {
     name: "small (15 × 10 m, 150 m²)",
@@ -41,6 +41,25 @@ export const BENCH_ROOFS: { name: string; area: number; frames: number; spec: Ro
       outlets: [{ at: [12.5, 0] }, { at: [37.5, 0] }],
       baseFall: "1:50",
       joists: { spacing: 0.4 },
+    },
+  },
+  {
+    name: "medium with 5 openings (1,500 m²)",
+    area: 1500,
+    frames: 0.5,
+    // The medium L with three rooflights, a hatch and a plant base (one across a fall line).
+    spec: {
+      outline: [[0, 0], [50, 0], [50, 21], [30, 21], [30, 36], [0, 36]],
+      outlets: [{ at: [12.5, 0] }, { at: [37.5, 0] }],
+      baseFall: "1:50",
+      joists: { spacing: 0.4 },
+      openings: [
+        { outline: [[4, 8], [7, 8], [7, 11], [4, 11]], kind: "rooflight" },
+        { outline: [[18, 8], [21, 8], [21, 11], [18, 11]], kind: "rooflight" },
+        { outline: [[40, 10], [43, 10], [43, 13], [40, 13]], kind: "rooflight" },
+        { outline: [[8, 25], [9.5, 25], [9.5, 26.5], [8, 26.5]], kind: "hatch" },
+        { outline: [[10, 14], [15, 14], [15, 17], [10, 17]], kind: "plant" },
+      ],
     },
   },
   {

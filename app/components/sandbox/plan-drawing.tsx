@@ -33,6 +33,10 @@ export function PlanDrawing({ spec, analysis, className = "" }: { spec: RoofSpec
     <svg viewBox={`${vb.x} ${vb.y} ${vb.w} ${vb.h}`} className={className} role="img" aria-label={`Plan of the roof with outlets, joists, the longest fall line and levels in ${levelUnit}`} data-testid="plan-drawing">
       <polygon points={spec.outline.map((p) => `${p[0]},${-p[1]}`).join(" ")} fill="#fffdf8" />
       <path d={joists} stroke="#52606d" strokeOpacity={0.35} strokeWidth={u * 0.08} />
+      {(spec.openings ?? []).map((o, i) => (
+        <polygon key={`opening-${i}`} data-testid={`sheet-plan-opening-${i}`} points={o.outline.map((p) => `${p[0]},${-p[1]}`).join(" ")}
+          fill="#e4e7eb" stroke="#1f2933" strokeWidth={u * 0.15} />
+      ))}
       {linePath && <path d={linePath} stroke="#b4471f" strokeWidth={u * 0.35} strokeDasharray={`${u * 1.2} ${u * 0.6}`} fill="none" />}
       {spec.outline.map((a, i) => {
         const c = spec.outline[(i + 1) % n];

@@ -1,5 +1,5 @@
 import { memo } from "react";
-import type { Analysis } from "~/engine";
+import type { Analysis, RoofSpec } from "~/engine";
 import { sectionJoistIndex } from "./section-joist";
 import { useSandbox } from "./store";
 
@@ -10,15 +10,38 @@ export const PlanOverlays = memo(function PlanOverlays({ px }: { px: number }) {
   const showJoists = useSandbox((s) => s.view.showJoists);
   const highlight = useSandbox((s) => s.view.highlightFallLine);
   const section = useSandbox((s) => (s.view.camera === "section" && s.analysis ? sectionJoistIndex(s.analysis.shaped.joists, s.view.sectionJoist) : -1));
-  if (!analysis) return null;
+  const openings = useSandbox((s) => s.spec.openings);
+  if (!analysis) return openings?.length ? <Openings openings={openings} /> : null;
   return (
     <g pointerEvents="none" opacity={stale ? 0.55 : 1}>
+      {openings && openings.length > 0 && <Openings openings={openings} />}
       {showJoists && <JoistLines joists={analysis.shaped.joists} />}
       {section >= 0 && <SectionJoist joists={analysis.shaped.joists} index={section} />}
       {highlight && analysis.shaped.longestFallLine && <FallLinePath line={analysis.shaped.longestFallLine} px={px} />}
     </g>
   );
 });
+
+/** Openings as cross-hatched outlines (no deck there), numbered as in the settings list. */
+function Openings({ openings }: { openings: NonNullable<RoofSpec["openings"]> }) {
+  return (
+    <g data-testid="plan-openings" pointerEvents="none">
+      {openings.map((o, i) => {
+        const d = o.outline.map((p, k) => `${k ? "L" : "M"}${p[0]} ${-p[1]}`).join("") + "Z";
+        const xs = o.outline.map((p) => p[0]);
+        const ys = o.outline.map((p) => p[1]);
+        const [x0, x1, y0, y1] = [Math.min(...xs), Math.max(...xs), Math.min(...ys), Math.max(...ys)];
+        return (
+          <g key={i} data-testid={`plan-opening-${i}`}>
+            <path d={d} fill="var(--color-sheet)" stroke="var(--color-ink)" strokeWidth={2} vectorEffect="non-scaling-stroke" />
+            <path d={`M${x0} ${-y0}L${x1} ${-y1}M${x0} ${-y1}L${x1} ${-y0}`} stroke="var(--color-ink-soft)" strokeWidth={1} vectorEffect="non-scaling-stroke" />
+            <title>{`Opening ${i + 1}: ${o.kind ?? "other"}, upstand ${Math.round((o.upstand ?? 0.15) * 1000)} mm`}</title>
+          </g>
+        );
+      })}
+    </g>
+  );
+}
 
 function JoistLines({ joists }: { joists: Analysis["shaped"]["joists"] }) {
   let d = "";

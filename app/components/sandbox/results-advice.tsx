@@ -1,7 +1,7 @@
 import type { Analysis } from "~/engine";
 import { FallRatio } from "./fall-ratio";
 import { formatRatio, useFormat } from "./format";
-import { addOutletAt } from "./spec-edit";
+import { addOutletAt, setJoistDirection } from "./spec-edit";
 import { ResultsSection } from "./results-section";
 import { useSandbox, useSandboxStore } from "./store";
 
@@ -70,7 +70,57 @@ export function Advice({ analysis }: { analysis: Analysis }) {
             )}
           </li>
         )}
+        {analysis.advice.joistDirections.length > 1 && <JoistDirections analysis={analysis} readOnly={readOnly} />}
       </ul>
     </ResultsSection>
+  );
+}
+
+const angleOf = (d: [number, number]) => `${(((Math.atan2(d[1], d[0]) * 180) / Math.PI + 360) % 360).toFixed(0)}°`;
+
+/** Each candidate joist direction side by side, the best flagged, with a one-click apply. */
+function JoistDirections({ analysis, readOnly }: { analysis: Analysis; readOnly: boolean }) {
+  const store = useSandboxStore();
+  const options = analysis.advice.joistDirections;
+  const best = options.find((o) => o.best);
+  return (
+    <li data-testid="joist-directions">
+      <p>Joist direction: the figures each candidate gives (from an outlet edge or eaves edge, and the current one).</p>
+      <table className="mt-1 w-full text-left text-xs">
+        <thead>
+          <tr>
+            <th scope="col">Direction</th>
+            <th scope="col">High level</th>
+            <th scope="col">Longest fall line</th>
+            <th scope="col">Flattest fall line</th>
+            <th scope="col">Flatter than minimum</th>
+          </tr>
+        </thead>
+        <tbody>
+          {options.map((o, i) => (
+            <tr key={i} className={o.best ? "font-bold" : undefined}>
+              <td>
+                {angleOf(o.direction)}
+                {o.current ? " (current)" : ""}
+                {o.best ? " best" : ""}
+              </td>
+              <td>{Math.round(o.highLevel * 1000)} mm</td>
+              <td>{o.longestFallRatio != null ? <FallRatio ratio={o.longestFallRatio} /> : "none"}</td>
+              <td>{o.worstFallRatio != null ? <FallRatio ratio={o.worstFallRatio} /> : "none"}</td>
+              <td>{o.flatterThanMinimumArea.toFixed(1)} m²</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+      {!readOnly && best && !best.current && (
+        <button type="button" className="btn mt-1" data-testid="apply-joist-direction"
+          onClick={() => {
+            store.getState().edit((s) => setJoistDirection(s, best.direction));
+            store.getState().setNotice(`Joists turned to ${angleOf(best.direction)}.`);
+          }}>
+          Turn the joists to {angleOf(best.direction)}
+        </button>
+      )}
+    </li>
   );
 }

@@ -2,6 +2,7 @@ import type { RoofSpec, RuleSetId } from "~/engine";
 import { FallField } from "./fall-field";
 import { formatRatio, useFormat } from "./format";
 import { NumberField } from "./number-field";
+import { OpeningsPanel } from "./openings-panel";
 import { useSandbox, useSandboxStore } from "./store";
 
 const degreesOf = (d: [number, number] | undefined) => (d ? ((Math.atan2(d[1], d[0]) * 180) / Math.PI + 360) % 360 : undefined);
@@ -62,6 +63,7 @@ export function SettingsPanel() {
           disabled={readOnly} testId="joist-offset"
           onCommit={(v) => edit((s) => ({ ...s, joists: { ...s.joists, offset: v } }))} />
       </Group>
+      <OpeningsPanel />
       <Group title="Gutter layout (for the comparison)">
         <NumberField label="Gutter width" length="level" unit="mm" scale={1000} digits={0} value={gutter.width} optional
           placeholder={hint(analysis ? analysis.gutter.width : 0.3)} min={1} max={5000} disabled={readOnly}

@@ -159,3 +159,44 @@ export function bounds(points: Point[]) {
   }
   return { minX, minY, maxX, maxY };
 }
+
+/** Joists along a unit direction (the advice's one-click apply), rounded like the settings field. */
+export function setJoistDirection(spec: RoofSpec, direction: Point): RoofSpec {
+  const d: Point = [Number(direction[0].toFixed(9)) + 0, Number(direction[1].toFixed(9)) + 0];
+  return { ...spec, joists: { ...spec.joists, direction: d } };
+}
+
+type Opening = NonNullable<RoofSpec["openings"]>[number];
+
+/** A square opening of side `size` centred at `centre` (docs/roof-method-plans.md P2); at most 50. */
+export function addOpening(spec: RoofSpec, centre: Point, size = 1, kind: Opening["kind"] = "rooflight"): RoofSpec {
+  const openings = spec.openings ?? [];
+  if (openings.length >= 50) return spec;
+  const h = size / 2;
+  const [cx, cy] = centre;
+  const outline: Point[] = [roundPoint([cx - h, cy - h]), roundPoint([cx + h, cy - h]), roundPoint([cx + h, cy + h]), roundPoint([cx - h, cy + h])];
+  return { ...spec, openings: [...openings, { outline, kind }] };
+}
+
+/** Moves opening `index` by (dx, dy) metres. */
+export function moveOpening(spec: RoofSpec, index: number, dx: number, dy: number): RoofSpec {
+  const openings = (spec.openings ?? []).map((o, k) => (k === index ? { ...o, outline: o.outline.map((p) => roundPoint([p[0] + dx, p[1] + dy])) } : o));
+  return { ...spec, openings };
+}
+
+export function setOpening(spec: RoofSpec, index: number, patch: Partial<Opening>): RoofSpec {
+  return { ...spec, openings: (spec.openings ?? []).map((o, k) => (k === index ? { ...o, ...patch } : o)) };
+}
+
+export function deleteOpening(spec: RoofSpec, index: number): RoofSpec {
+  const openings = (spec.openings ?? []).filter((_, k) => k !== index);
+  const { openings: _dropped, ...rest } = spec;
+  void _dropped;
+  return openings.length ? { ...spec, openings } : rest;
+}
+
+/** The mean of an outline's vertices: where a new opening is put first. */
+export function centreOf(points: Point[]): Point {
+  const { minX, minY, maxX, maxY } = bounds(points);
+  return [(minX + maxX) / 2, (minY + maxY) / 2];
+}

@@ -1,6 +1,7 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { analyse, parseSpec, type Analysis, type EdgeKind, type Point, type RoofSpec } from "~/engine";
+import type { Opening } from "~/engine/types";
 import { buildMesh, meshEdges } from "~/engine/mesh";
 import { drainSpans, highLevelFor } from "~/engine/high-level";
 import { joistPositions } from "~/engine/joists";
@@ -50,8 +51,9 @@ const roofCase = fc
     fc.array(fc.tuple(num(-0.2, 1.2), num(-0.2, 1.2)), { maxLength: 6 }),
     fc.array(fc.tuple(fc.nat(), num(0, 1)), { maxLength: 6 }),
     fc.boolean(),
+    fc.array(fc.tuple(num(0.1, 0.9), num(0.1, 0.9), num(0.2, 1.2), num(0, Math.PI), fc.boolean()), { maxLength: 3 }),
   )
-  .map(([outline, outletPicks, eavesPick, baseFall, inner, onRim, skewJoists]): Case => {
+  .map(([outline, outletPicks, eavesPick, baseFall, inner, onRim, skewJoists, openingPicks]): Case => {
     const n = outline.length;
     const outletEdges = new Set(outletPicks.map(([e]) => e % n));
     let edges: EdgeKind[] | undefined;
@@ -77,6 +79,21 @@ const roofCase = fc
     ];
     const spec: RoofSpec = { outline, outlets, baseFall, probes, ...(edges ? { edges } : {}) };
     if (skewJoists) spec.joists = { direction: [1, 0.3], spacing: 0.5 };
+    // Openings (docs/roof-method-plans.md P2): small squares or triangles, turned, kept when the
+    // validator accepts them (inside the outline, apart from each other).
+    const openings: Opening[] = [];
+    for (const [fx, fy, size, turn, triangle] of openingPicks) {
+      const cx = minX + fx * (maxX - minX);
+      const cy = minY + fy * (maxY - minY);
+      const k = triangle ? 3 : 4;
+      const ring = Array.from({ length: k }, (_, i): Point => {
+        const a = turn + (2 * Math.PI * i) / k;
+        return [cx + size * Math.cos(a), cy + size * Math.sin(a)];
+      });
+      const trial = [...openings, { outline: ring, kind: "rooflight" as const }];
+      if (parseSpec(structuredClone({ ...spec, openings: trial })).ok) openings.push(trial[trial.length - 1]);
+    }
+    if (openings.length) spec.openings = openings;
     return { spec, perimeterProbes };
   });
 
@@ -143,11 +160,26 @@ function moved(spec: RoofSpec, angle: number, tx: number, ty: number): RoofSpec 
   out.outline = spec.outline.map((p) => rotate(p, c, s, tx, ty));
   out.outlets = spec.outlets.map((o) => ({ ...o, at: rotate(o.at, c, s, tx, ty) }));
   out.probes = spec.probes?.map((p) => rotate(p, c, s, tx, ty));
+  if (spec.openings) out.openings = spec.openings.map((o) => ({ ...o, outline: o.outline.map((p) => rotate(p, c, s, tx, ty)) }));
   if (spec.joists?.direction) out.joists = { ...spec.joists, direction: rotate(spec.joists.direction, c, s, 0, 0) };
   return out;
 }
 
 const RUNS = { numRuns: 60 };
+
+/** Inside a polygon by more than `margin` (crossing number, and clear of every edge). */
+function strictlyInside(ring: Point[], x: number, y: number, margin: number): boolean {
+  let inside = false;
+  for (let i = 0, j = ring.length - 1; i < ring.length; j = i++) {
+    const [xi, yi] = ring[i];
+    const [xj, yj] = ring[j];
+    const dx = xi - xj, dy = yi - yj;
+    const t = Math.max(0, Math.min(1, ((x - xj) * dx + (y - yj) * dy) / (dx * dx + dy * dy)));
+    if (Math.hypot(xj + t * dx - x, yj + t * dy - y) <= margin) return false;
+    if (yi > y !== yj > y && x < ((xj - xi) * (y - yi)) / (yj - yi) + xi) inside = !inside;
+  }
+  return inside;
+}
 
 describe("invariants on random valid roofs", () => {
   it("every level lies within [lowest drain, H]", () => {
@@ -190,6 +222,26 @@ describe("invariants on random valid roofs", () => {
     );
   });
 
+  it("no fall line passes through an opening", () => {
+    fc.assert(
+      fc.property(validCase, ({ spec }) => {
+        if (!spec.openings?.length) return;
+        const a = run(spec, false);
+        for (const line of a.shaped.fallLines) {
+          for (let k = 1; k < line.path.length; k++) {
+            const [p, q] = [line.path[k - 1], line.path[k]];
+            for (let s = 1; s < 40; s++) {
+              const x = p[0] + ((q[0] - p[0]) * s) / 40;
+              const y = p[1] + ((q[1] - p[1]) * s) / 40;
+              for (const o of spec.openings) expect(strictlyInside(o.outline, x, y, 1e-6)).toBe(false);
+            }
+          }
+        }
+      }),
+      RUNS,
+    );
+  });
+
   it("perimeter levels follow the level-rim rule", () => {
     fc.assert(
       fc.property(validCase, ({ spec, perimeterProbes }) => {
@@ -210,7 +262,8 @@ describe("invariants on random valid roofs", () => {
       fc.property(validCase, ({ spec }) => {
         const a = run(spec);
         const { total, smallest } = meshAreas(a.shaped.mesh!.positions, a.shaped.mesh!.indices);
-        const area = shoelace(spec.outline);
+        // Less the openings: no deck, no catchment inside them.
+        const area = shoelace(spec.outline) - (spec.openings ?? []).reduce((sum, o) => sum + shoelace(o.outline), 0);
         expect(Math.abs(total - area)).toBeLessThan(1e-9 * area + 1e-9);
         expect(smallest).toBeGreaterThan(0);
         expect(Math.abs(a.shaped.catchments.reduce((s, c) => s + c.area, 0) + a.shaped.ponding.reduce((s, p) => s + p.area, 0) - area)).toBeLessThan(1e-6 * area);

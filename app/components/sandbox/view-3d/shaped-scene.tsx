@@ -12,6 +12,7 @@ import { JoistMembers } from "./joists";
 import { LevelLabels, type LevelLabel } from "./level-labels";
 import { OutletMarkers } from "./outlet-markers";
 import { Parapets } from "./parapets";
+import { Upstands } from "./upstands";
 import { RoofSurface } from "./roof-surface";
 import type { SceneFrame } from "./scene-frame";
 import { WaterPaths } from "./water-paths";
@@ -114,6 +115,9 @@ export function ShapedScene({
       <RoofSurface mesh={mesh} frame={frame} minRatio={analysis.minFall.ratio} exaggeration={exaggeration} clippingPlanes={clipping} />
       <Parapets outline={spec.outline} kinds={kinds} frame={frame} low={low} high={analysis.shaped.highLevel} exaggeration={exaggeration} clippingPlanes={clipping} />
       <OutletMarkers outlets={spec.outlets} frame={frame} exaggeration={exaggeration} />
+      {spec.openings && spec.openings.length > 0 && sampler && (
+        <Upstands openings={spec.openings} sampler={sampler} frame={frame} exaggeration={exaggeration} clippingPlanes={clipping} />
+      )}
       {(view.showJoists || sectionJoist >= 0) && (
         <JoistMembers joists={analysis.shaped.joists} frame={frame} exaggeration={exaggeration} highlight={analysis.shaped.joists[sectionJoist]?.index ?? -1} clippingPlanes={clipping} />
       )}
