@@ -15,7 +15,8 @@ import { buildMesh } from "./mesh";
 import { meshArrays, meshBuffers } from "./mesh-out";
 import { perimeterLevels } from "./perimeter";
 import { prepareRoof } from "./prepare";
-import { toFrame, type Roof } from "./roof";
+import { toFrame, toPlan, type Roof } from "./roof";
+import { outletJoists, trimWarnings } from "./setout";
 import { RULE_SETS, ruleValue } from "./rule-sets";
 import { levelAt } from "./surface";
 import { flowTraces } from "./traces";
@@ -88,6 +89,8 @@ function analyseWith(memory: Arena, roof: Roof, options: AnalyseOptions): Analys
   const levels = perimeterLevels(roof, H);
   const joistU = joistPositions(roof);
   const joists = dropSchedule(roof, levels, joistU);
+  const onJoists = outletJoists(roof, joistU, (u, v) => toPlan(roof, u, v));
+  warnings.push(...trimWarnings(onJoists));
   const sunk = joists.flatMap((j) => j.spans.filter((s) => s.ratio === null && Math.max(s.startDrop, s.endDrop) > 1e-9));
   if (sunk.length) {
     const s = sunk[Math.floor(sunk.length / 2)];
@@ -164,6 +167,7 @@ function analyseWith(memory: Arena, roof: Roof, options: AnalyseOptions): Analys
     highLevel: H,
     highLevelSource: roof.highLevelGiven === null ? "derived" : "given",
     joistDirection: [roof.dx, roof.dy],
+    setOut: { spacing: roof.spacing, offset: joistU.length ? joistU[0] - roof.umin : 0, fromOutlets: roof.fromOutlets, outlets: onJoists },
     edgeFalls: edgeFalls(roof, levels),
     longestFallLine: longest,
     worstFallRatio: worst ? worst.ratio : null,

@@ -27,6 +27,8 @@ export type {
   Joist,
   JoistSpan,
   FallLine,
+  OutletJoist,
+  JoistSetOut,
   Band,
   Catchment,
   Mesh,

@@ -59,6 +59,8 @@ export interface Roof {
   used: UsedRule[];
   spacing: number;
   offset: number;
+  /** The offset was found from the outlets (spec joists.fromOutlets). */
+  fromOutlets: boolean;
   highLevelGiven: number | null;
   probes: Point[];
   /** Length tolerance for coincidence tests, scaled to the roof. */
