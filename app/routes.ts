@@ -13,6 +13,7 @@ export default [
   route("roofs/:id/underlay", "routes/roofs.$id.underlay.ts"),
   route("roofs/new", "routes/roofs.new.ts"),
   route("roofs/:id/export", "routes/roofs.$id.export.ts"),
+  route("roofs/:id/schedule.csv", "routes/roofs.$id.schedule-csv.ts"),
   route("logout", "routes/logout.ts"),
   route("sandbox/schedule.csv", "routes/sandbox.schedule-csv.ts"),
   route("classes/:id/live", "routes/classes.$id.live.ts"),

@@ -90,7 +90,7 @@ function analyseWith(memory: Arena, roof: Roof, options: AnalyseOptions): Analys
   const joistU = joistPositions(roof);
   const joists = dropSchedule(roof, levels, joistU);
   const onJoists = outletJoists(roof, joistU, (u, v) => toPlan(roof, u, v));
-  warnings.push(...trimWarnings(onJoists));
+  warnings.push(...trimWarnings(onJoists, roof.fromOutlets));
   const sunk = joists.flatMap((j) => j.spans.filter((s) => s.ratio === null && Math.max(s.startDrop, s.endDrop) > 1e-9));
   if (sunk.length) {
     const s = sunk[Math.floor(sunk.length / 2)];

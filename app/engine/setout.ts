@@ -62,19 +62,21 @@ const mmText = (m: number) => `${Math.round(m * 1000)} mm`;
 const ptText = (p: Point) => `(${p[0].toFixed(2)}, ${p[1].toFixed(2)})`;
 
 /** One warning per outlet no joist lands on: a trimmer or noggin is needed there, between the named joists. */
-export function trimWarnings(set: OutletJoist[]): Warning[] {
+export function trimWarnings(set: OutletJoist[], fromOutlets: boolean): Warning[] {
   const served = set.filter((s) => s.joist !== null).map((s) => s.outlet + 1);
   return set
     .filter((s) => s.joist === null)
     .map((s) => {
       const [a, b] = s.between ?? [null, null];
       const where = a !== null && b !== null ? `between joists ${a} and ${b}` : a !== null ? `beyond joist ${a}` : `before joist ${b}`;
-      const why = served.length
-        ? ` the spacing cannot also put a joist on outlet ${served.join(", ")}`
-        : " no joist lands on it";
+      const why = !fromOutlets
+        ? " set the joists out from the outlets, or trim round it"
+        : served.length
+          ? ` the spacing cannot also put a joist on outlet ${served.join(", ")}. Trim round it`
+          : " no joist can land on it. Trim round it";
       return {
         code: "outlet-off-joist" as const,
-        message: `Outlet ${s.outlet + 1} at ${ptText(s.at)} lies ${where}, ${mmText(s.gap)} from the nearest:${why}. Trim round it (trimmer or noggin ${where}) so the outlet's low point is carried.`,
+        message: `Outlet ${s.outlet + 1} at ${ptText(s.at)} lies ${where}, ${mmText(s.gap)} from the nearest:${why} (trimmer or noggin ${where}) so the outlet's low point is carried.`,
         at: s.at,
         size: s.gap,
       };

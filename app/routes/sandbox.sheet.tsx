@@ -11,7 +11,7 @@ import { area, fallDetail, flow, formatRatio, metres, mm, point } from "~/compon
 import { PlanDrawing } from "~/components/sandbox/plan-drawing";
 import { citation, RULE_KEY_NAMES } from "~/components/sandbox/rule-keys";
 import { runAnalysis } from "~/components/sandbox/run-analysis";
-import { scheduleRows } from "~/components/sandbox/schedule-rows";
+import { scheduleRows } from "~/lib/pack/schedule-rows";
 import { SHEET_SESSION_KEY } from "~/components/sandbox/sheet-link";
 
 export const meta: Route.MetaFunction = () => [{ title: "Check sheet · Fallwright" }];

@@ -1,7 +1,7 @@
 import { Download } from "lucide-react";
 import { lazy, Suspense, useMemo } from "react";
 import { mm } from "./format";
-import { scheduleRows } from "./schedule-rows";
+import { scheduleRows } from "~/lib/pack/schedule-rows";
 import { useSandbox } from "./store";
 import { useNearViewport } from "./use-near-viewport";
 

@@ -7,9 +7,9 @@ import {
   type SortingState,
 } from "@tanstack/react-table";
 import { ArrowDown, ArrowUp } from "lucide-react";
-import { useState } from "react";
+import { useMemo, useState } from "react";
 import { FallRatio } from "./fall-ratio";
-import type { ScheduleRow } from "./schedule-rows";
+import { hasMultiSpan, type ScheduleRow } from "~/lib/pack/schedule-rows";
 
 const column = createColumnHelper<ScheduleRow>();
 const num = (digits: number) => (v: number) => v.toFixed(digits);
@@ -20,7 +20,7 @@ const COLUMNS = [
     header: "Offset (m)",
     cell: (c) => num(2)(c.getValue()),
   }),
-  column.accessor("span", { header: "Span" }),
+  column.accessor((r) => r.span ?? 0, { id: "span", header: "Span", cell: (c) => c.row.original.span ?? "" }),
   column.accessor("length", {
     header: "Length (m)",
     cell: (c) => num(2)(c.getValue()),
@@ -42,9 +42,11 @@ const PAGE = 60;
 export default function ScheduleTable({ rows }: { rows: ScheduleRow[] }) {
   const [sorting, setSorting] = useState<SortingState>([]);
   const [all, setAll] = useState(false);
+  // The span number only means something where a joist has more than one (the CSV does the same).
+  const columns = useMemo(() => (hasMultiSpan(rows) ? COLUMNS : COLUMNS.filter((c) => c.id !== "span")), [rows]);
   const table = useReactTable({
     data: rows,
-    columns: COLUMNS,
+    columns,
     state: { sorting },
     onSortingChange: setSorting,
     getCoreRowModel: getCoreRowModel(),

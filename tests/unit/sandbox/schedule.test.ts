@@ -4,6 +4,8 @@ import { action, loader } from "~/routes/sandbox.schedule-csv";
 import { DEMO_ROOF } from "~/components/sandbox/demo-roof";
 import { decodeSpec, encodeSpec, sheetHref, SHEET_LINK_LIMIT } from "~/components/sandbox/sheet-link";
 import { readLinkedSpec } from "~/components/sandbox/linked-spec.server";
+import { scheduleCsv } from "~/lib/pack/schedule-csv";
+import { packOf } from "../pack/fixtures";
 
 type ActionArgs = Parameters<typeof action>[0];
 
@@ -15,21 +17,35 @@ function post(body: BodyInit, type: string) {
 const form = (spec: string) => post(new URLSearchParams({ spec }), "application/x-www-form-urlencoded");
 
 describe("POST /sandbox/schedule.csv", () => {
-  it("answers the drop schedule as a CSV attachment", async () => {
-    const res = await form(JSON.stringify(DEMO_ROOF));
+  it("answers the drop schedule as a CSV attachment named after the roof and the day", async () => {
+    const res = await post(new URLSearchParams({ spec: JSON.stringify(DEMO_ROOF), name: "Depot, east wing" }), "application/x-www-form-urlencoded");
     expect(res.status).toBe(200);
     expect(res.headers.get("content-type")).toMatch(/^text\/csv/);
-    expect(res.headers.get("content-disposition")).toMatch(/attachment; filename="drop-schedule.csv"/);
-    const parsed = Papa.parse<Record<string, string>>((await res.text()).replace(/^\uFEFF/, "").trim(), { header: true });
+    const today = new Date().toISOString().slice(0, 10);
+    expect(res.headers.get("content-disposition")).toBe(`attachment; filename="depot-east-wing-drop-schedule-${today}.csv"`);
+    const text = (await res.text()).replace(/^\uFEFF/, "").trim();
+    // The same writer as the roof's download and the CLI: the same file for the same roof and day.
+    expect(text).toBe(scheduleCsv(packOf(DEMO_ROOF, "Depot, east wing", new Date())).trim());
+    const table = text.slice(text.indexOf("\r\n,") + 2).replace(/^,*\r\n/, "");
+    const parsed = Papa.parse<Record<string, string>>(table, { header: true });
     expect(parsed.errors).toEqual([]);
-    // Joists every 0.4 m across 12 m: 31 lines, one span each on a rectangle.
+    // Joists every 0.4 m across 12 m: 31 lines, one span each on a rectangle (so no span column).
     expect(parsed.data).toHaveLength(31);
+    expect(parsed.meta.fields).not.toContain("span");
     const H = Math.round(8 * Math.tan((2 * Math.PI) / 180) * 1000);
     // ROOF-METHOD.md §3: the joist through the outlet falls exactly at the base fall (2° = 1:28.6).
     const through = parsed.data.find((r) => Number(r.offset_m) === 6)!;
     expect(through).toMatchObject({ start_level_mm: "0", end_level_mm: String(H), start_drop_below_H_mm: String(H), end_drop_below_H_mm: "0", fall: "1:28.6" });
     // The joist against the end wall lies on the level rim: level, no drop.
     expect(parsed.data[0]).toMatchObject({ joist: "1", offset_m: "0", start_level_mm: String(H), end_level_mm: String(H), fall: "level" });
+  });
+
+  it("calls an unnamed roof the sandbox roof, and refuses an over-long name naming the field", async () => {
+    const res = await form(JSON.stringify(DEMO_ROOF));
+    expect(res.headers.get("content-disposition")).toMatch(/filename="sandbox-roof-drop-schedule-\d{4}-\d{2}-\d{2}\.csv"/);
+    const long = await post(new URLSearchParams({ spec: JSON.stringify(DEMO_ROOF), name: "x".repeat(121) }), "application/x-www-form-urlencoded");
+    expect(long.status).toBe(400);
+    expect(await long.text()).toMatch(/`name`/);
   });
 
   it("takes the spec as a JSON body too", async () => {
@@ -49,7 +65,7 @@ describe("POST /sandbox/schedule.csv", () => {
   });
 
   it("answers GET with 405", async () => {
-    const res = (loader as () => Response)();
+    const res = loader();
     expect(res.status).toBe(405);
     expect(res.headers.get("allow")).toBe("POST");
   });

@@ -4,7 +4,8 @@ import type { Analysis } from "~/engine";
 export interface ScheduleRow {
   joist: number;
   offset: number;
-  span: number;
+  /** Span number along its joist (from 1), null when the joist has only the one span. */
+  span: number | null;
   startX: number;
   startY: number;
   endX: number;
@@ -21,7 +22,7 @@ export interface ScheduleRow {
 const r3 = (v: number) => Math.round(v * 1000) / 1000;
 const mm = (v: number) => Math.round(v * 1000);
 
-/** The drop schedule (ROOF-METHOD.md §5) flattened to rows, joists and spans numbered from 1. */
+/** The drop schedule (docs/roof-method.md §5) flattened to rows, joists and spans numbered from 1. */
 export function scheduleRows(joists: Analysis["shaped"]["joists"]): ScheduleRow[] {
   const rows: ScheduleRow[] = [];
   for (const j of joists) {
@@ -29,7 +30,7 @@ export function scheduleRows(joists: Analysis["shaped"]["joists"]): ScheduleRow[
       rows.push({
         joist: j.index + 1,
         offset: r3(j.offset),
-        span: k + 1,
+        span: j.spans.length > 1 ? k + 1 : null,
         startX: r3(s.start[0]),
         startY: r3(s.start[1]),
         endX: r3(s.end[0]),
@@ -45,3 +46,6 @@ export function scheduleRows(joists: Analysis["shaped"]["joists"]): ScheduleRow[
   }
   return rows;
 }
+
+/** True when some joist has more than one span, so the span column means something. */
+export const hasMultiSpan = (rows: ScheduleRow[]) => rows.some((r) => r.span !== null);

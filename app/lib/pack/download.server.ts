@@ -1,0 +1,119 @@
+/**
+ * The builder's pack as HTTP downloads: one place that turns a named roof spec into the CSV,
+ * PDF, DXF or glb response, for the saved roof's addresses (/roofs/:id/…), the sandbox's
+ * (POST the spec) and a share link's (/s/:token/…).
+ */
+import { analyse, parseSpec, type RoofSpec } from "~/engine";
+import { requirePermission } from "~/lib/auth.server";
+import { getRoofFor } from "~/lib/roofs.server";
+import { packFileName, type PackRoof } from "./facts";
+import { scheduleCsv } from "./schedule-csv";
+
+export const PACK_FILES = ["schedule.csv"] as const;
+export type PackFile = (typeof PACK_FILES)[number];
+
+interface Writer {
+  what: string;
+  ext: string;
+  type: string;
+  mesh: boolean;
+  write: (p: PackRoof) => Promise<string | Uint8Array>;
+}
+
+const WRITERS: Record<PackFile, Writer> = {
+  "schedule.csv": {
+    what: "drop-schedule",
+    ext: "csv",
+    type: "text/csv; charset=utf-8",
+    mesh: false,
+    // A byte-order mark so spreadsheet programs read the file as UTF-8.
+    write: async (p) => `\uFEFF${scheduleCsv(p)}\r\n`,
+  },
+};
+
+export const isPackFile = (f: unknown): f is PackFile => typeof f === "string" && (PACK_FILES as readonly string[]).includes(f);
+
+const text = (body: string, status: number, headers: Record<string, string> = {}) =>
+  new Response(body, { status, headers: { "Content-Type": "text/plain; charset=utf-8", ...headers } });
+
+/** The file for a spec already checked by parseSpec; 422 when the engine cannot shape it. */
+export async function packResponse(file: PackFile, name: string, spec: RoofSpec, cache = "no-store"): Promise<Response> {
+  const w = WRITERS[file];
+  let pack: PackRoof;
+  try {
+    pack = { name, date: new Date(), spec, analysis: analyse(spec, { mesh: w.mesh, traces: false }) };
+  } catch {
+    return text("This roof could not be analysed.", 422);
+  }
+  const body = await w.write(pack);
+  return new Response(body as BodyInit, {
+    headers: {
+      "Content-Type": w.type,
+      "Content-Disposition": `attachment; filename="${packFileName(name, w.what, pack.date, w.ext)}"`,
+      "Cache-Control": cache,
+    },
+  });
+}
+
+/** A saved roof's file, for whoever may read the roof (owner, or a colleague when it is shared). */
+export async function roofPackResponse(request: Request, id: string, file: PackFile): Promise<Response> {
+  const user = await requirePermission(request, "roofs:own");
+  const roof = await getRoofFor(user, id);
+  if (!roof) return text("No roof with that id in your library.", 404);
+  return savedSpecResponse(file, roof.name, roof.spec, "private, no-store");
+}
+
+/** A stored spec (checked again: an old roof may no longer pass) as the file. */
+export async function savedSpecResponse(file: PackFile, name: string, stored: unknown, cache: string): Promise<Response> {
+  const parsed = parseSpec(stored);
+  if (!parsed.ok) return text(`This roof cannot be shaped as saved: ${parsed.error.message}`, 422);
+  return packResponse(file, name, parsed.spec, cache);
+}
+
+/** Longest spec text accepted; 200 vertices and 100 outlets fit many times over. */
+const MAX_SPEC_CHARS = 256 * 1024;
+const NAME_MAX = 120;
+
+async function readFields(request: Request): Promise<{ spec: string | null; name: string | null }> {
+  const type = request.headers.get("content-type") ?? "";
+  if (type.includes("application/json")) return { spec: await request.text(), name: null };
+  if (type.includes("application/x-www-form-urlencoded") || type.includes("multipart/form-data")) {
+    const form = await request.formData();
+    const spec = form.get("spec");
+    const name = form.get("name");
+    return { spec: typeof spec === "string" ? spec : null, name: typeof name === "string" ? name : null };
+  }
+  return { spec: null, name: null };
+}
+
+/**
+ * POST /sandbox/<file>: the file for the posted roof (form fields `spec`, JSON, and optional
+ * `name`; or the spec as a JSON body). Open to everyone like the sandbox; nothing is stored.
+ */
+export async function sandboxPackResponse(request: Request, file: PackFile): Promise<Response> {
+  if (request.method !== "POST") return text("Only POST.", 405, { Allow: "POST" });
+  let fields: { spec: string | null; name: string | null };
+  try {
+    fields = await readFields(request);
+  } catch {
+    return text("The request body could not be read.", 400);
+  }
+  const raw = fields.spec;
+  if (raw == null || raw.trim() === "") return text("Send the roof spec as the form field `spec` (JSON).", 400);
+  if (raw.length > MAX_SPEC_CHARS) return text("The roof spec is too large.", 413);
+  const name = (fields.name ?? "").trim() || "Sandbox roof";
+  if (name.length > NAME_MAX) return text(`The field \`name\` must be at most ${NAME_MAX} characters.`, 400);
+  let input: unknown;
+  try {
+    input = JSON.parse(raw);
+  } catch {
+    return text("The field `spec` is not JSON.", 400);
+  }
+  const parsed = parseSpec(input);
+  if (!parsed.ok) return text(parsed.error.message, parsed.status);
+  return packResponse(file, name, parsed.spec);
+}
+
+/** GET on a sandbox file address: it needs the roof posted. */
+export const sandboxPackGet = (file: PackFile) =>
+  text(`POST the roof spec (form field \`spec\`, JSON) to get its ${file}.`, 405, { Allow: "POST" });
