@@ -7,9 +7,10 @@ import { analyse, parseSpec, type RoofSpec } from "~/engine";
 import { requirePermission } from "~/lib/auth.server";
 import { getRoofFor } from "~/lib/roofs.server";
 import { packFileName, type PackRoof } from "./facts";
+import { planDxf } from "./plan-dxf";
 import { scheduleCsv } from "./schedule-csv";
 
-export const PACK_FILES = ["schedule.csv"] as const;
+export const PACK_FILES = ["schedule.csv", "plan.dxf"] as const;
 export type PackFile = (typeof PACK_FILES)[number];
 
 interface Writer {
@@ -29,6 +30,7 @@ const WRITERS: Record<PackFile, Writer> = {
     // A byte-order mark so spreadsheet programs read the file as UTF-8.
     write: async (p) => `\uFEFF${scheduleCsv(p)}\r\n`,
   },
+  "plan.dxf": { what: "plan", ext: "dxf", type: "application/dxf", mesh: false, write: async (p) => planDxf(p) },
 };
 
 export const isPackFile = (f: unknown): f is PackFile => typeof f === "string" && (PACK_FILES as readonly string[]).includes(f);
