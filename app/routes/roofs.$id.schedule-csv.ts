@@ -1,5 +1,5 @@
 import type { Route } from "./+types/roofs.$id.schedule-csv";
-import { roofPackResponse } from "~/lib/pack/download.server";
+import { SCHEDULE_CSV, roofPackResponse } from "~/lib/pack/download.server";
 
 /** GET /roofs/:id/schedule.csv: the saved roof's drop schedule, for whoever may read the roof. */
-export const loader = ({ request, params }: Route.LoaderArgs) => roofPackResponse(request, params.id, "schedule.csv");
+export const loader = ({ request, params }: Route.LoaderArgs) => roofPackResponse(request, params.id, SCHEDULE_CSV);

@@ -1,7 +1,7 @@
 import type { Route } from "./+types/sandbox.schedule-csv";
-import { sandboxPackGet, sandboxPackResponse } from "~/lib/pack/download.server";
+import { SCHEDULE_CSV, sandboxPackGet, sandboxPackResponse } from "~/lib/pack/download.server";
 
-export const loader = () => sandboxPackGet("schedule.csv");
+export const loader = () => sandboxPackGet(SCHEDULE_CSV);
 
 /** POST /sandbox/schedule.csv: the posted roof's drop schedule as a CSV attachment. */
-export const action = ({ request }: Route.ActionArgs) => sandboxPackResponse(request, "schedule.csv");
+export const action = ({ request }: Route.ActionArgs) => sandboxPackResponse(request, SCHEDULE_CSV);

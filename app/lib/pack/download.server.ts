@@ -6,32 +6,23 @@
 import { analyse, parseSpec, type RoofSpec } from "~/engine";
 import { requirePermission } from "~/lib/auth.server";
 import { getRoofFor } from "~/lib/roofs.server";
-import { packFileName, type PackRoof } from "./facts";
+import { packFileName, PACK_FILES, type PackFile, type PackRoof, type PackWriter } from "./facts";
+
+export { PACK_FILES, type PackFile, type PackWriter };
 import { planDxf } from "./plan-dxf";
 import { scheduleCsv } from "./schedule-csv";
 
-export const PACK_FILES = ["schedule.csv", "plan.dxf"] as const;
-export type PackFile = (typeof PACK_FILES)[number];
-
-interface Writer {
-  what: string;
-  ext: string;
-  type: string;
-  mesh: boolean;
-  write: (p: PackRoof) => Promise<string | Uint8Array>;
-}
-
-const WRITERS: Record<PackFile, Writer> = {
-  "schedule.csv": {
-    what: "drop-schedule",
-    ext: "csv",
-    type: "text/csv; charset=utf-8",
-    mesh: false,
-    // A byte-order mark so spreadsheet programs read the file as UTF-8.
-    write: async (p) => `\uFEFF${scheduleCsv(p)}\r\n`,
-  },
-  "plan.dxf": { what: "plan", ext: "dxf", type: "application/dxf", mesh: false, write: async (p) => planDxf(p) },
+export const SCHEDULE_CSV: PackWriter = {
+  file: "schedule.csv",
+  what: "drop-schedule",
+  ext: "csv",
+  type: "text/csv; charset=utf-8",
+  mesh: false,
+  // A byte-order mark so spreadsheet programs read the file as UTF-8.
+  write: (p) => `\uFEFF${scheduleCsv(p)}\r\n`,
 };
+
+export const PLAN_DXF: PackWriter = { file: "plan.dxf", what: "plan", ext: "dxf", type: "application/dxf", mesh: false, write: planDxf };
 
 export const isPackFile = (f: unknown): f is PackFile => typeof f === "string" && (PACK_FILES as readonly string[]).includes(f);
 
@@ -39,8 +30,7 @@ const text = (body: string, status: number, headers: Record<string, string> = {}
   new Response(body, { status, headers: { "Content-Type": "text/plain; charset=utf-8", ...headers } });
 
 /** The file for a spec already checked by parseSpec; 422 when the engine cannot shape it. */
-export async function packResponse(file: PackFile, name: string, spec: RoofSpec, cache = "no-store"): Promise<Response> {
-  const w = WRITERS[file];
+export async function packResponse(w: PackWriter, name: string, spec: RoofSpec, cache = "no-store"): Promise<Response> {
   let pack: PackRoof;
   try {
     pack = { name, date: new Date(), spec, analysis: analyse(spec, { mesh: w.mesh, traces: false }) };
@@ -58,18 +48,18 @@ export async function packResponse(file: PackFile, name: string, spec: RoofSpec,
 }
 
 /** A saved roof's file, for whoever may read the roof (owner, or a colleague when it is shared). */
-export async function roofPackResponse(request: Request, id: string, file: PackFile): Promise<Response> {
+export async function roofPackResponse(request: Request, id: string, w: PackWriter): Promise<Response> {
   const user = await requirePermission(request, "roofs:own");
   const roof = await getRoofFor(user, id);
   if (!roof) return text("No roof with that id in your library.", 404);
-  return savedSpecResponse(file, roof.name, roof.spec, "private, no-store");
+  return savedSpecResponse(w, roof.name, roof.spec, "private, no-store");
 }
 
 /** A stored spec (checked again: an old roof may no longer pass) as the file. */
-export async function savedSpecResponse(file: PackFile, name: string, stored: unknown, cache: string): Promise<Response> {
+export async function savedSpecResponse(w: PackWriter, name: string, stored: unknown, cache: string): Promise<Response> {
   const parsed = parseSpec(stored);
   if (!parsed.ok) return text(`This roof cannot be shaped as saved: ${parsed.error.message}`, 422);
-  return packResponse(file, name, parsed.spec, cache);
+  return packResponse(w, name, parsed.spec, cache);
 }
 
 /** Longest spec text accepted; 200 vertices and 100 outlets fit many times over. */
@@ -92,7 +82,7 @@ async function readFields(request: Request): Promise<{ spec: string | null; name
  * POST /sandbox/<file>: the file for the posted roof (form fields `spec`, JSON, and optional
  * `name`; or the spec as a JSON body). Open to everyone like the sandbox; nothing is stored.
  */
-export async function sandboxPackResponse(request: Request, file: PackFile): Promise<Response> {
+export async function sandboxPackResponse(request: Request, w: PackWriter): Promise<Response> {
   if (request.method !== "POST") return text("Only POST.", 405, { Allow: "POST" });
   let fields: { spec: string | null; name: string | null };
   try {
@@ -113,9 +103,9 @@ export async function sandboxPackResponse(request: Request, file: PackFile): Pro
   }
   const parsed = parseSpec(input);
   if (!parsed.ok) return text(parsed.error.message, parsed.status);
-  return packResponse(file, name, parsed.spec);
+  return packResponse(w, name, parsed.spec);
 }
 
 /** GET on a sandbox file address: it needs the roof posted. */
-export const sandboxPackGet = (file: PackFile) =>
-  text(`POST the roof spec (form field \`spec\`, JSON) to get its ${file}.`, 405, { Allow: "POST" });
+export const sandboxPackGet = (w: PackWriter) =>
+  text(`POST the roof spec (form field \`spec\`, JSON) to get its ${w.file}.`, 405, { Allow: "POST" });

@@ -58,3 +58,18 @@ export function packFileName(name: string, what: string, date: Date, ext: string
   const stem = name.normalize("NFKD").replace(/[^A-Za-z0-9]+/g, "-").replace(/^-+|-+$/g, "").toLowerCase().slice(0, 60);
   return `${stem || "roof"}-${what}-${isoDate(date)}.${ext}`;
 }
+
+export const PACK_FILES = ["schedule.csv", "sheet.pdf", "plan.dxf", "roof.glb"] as const;
+export type PackFile = (typeof PACK_FILES)[number];
+
+/** How one file of the pack is written (each writer module exports one; the glb's lives with the 3D view's colours). */
+export interface PackWriter {
+  file: PackFile;
+  /** File name part after the roof's name. */
+  what: string;
+  ext: string;
+  type: string;
+  /** Whether the analysis needs the 3D mesh. */
+  mesh: boolean;
+  write: (p: PackRoof) => Promise<string | Uint8Array> | string | Uint8Array;
+}
