@@ -9,7 +9,7 @@ import { GeneralErrorBoundary } from "~/components/error-boundary";
 import { FallRatio } from "~/components/sandbox/fall-ratio";
 import { area, fallDetail, flow, formatRatio, metres, mm, point } from "~/components/sandbox/format";
 import { PlanDrawing } from "~/components/sandbox/plan-drawing";
-import { citation, RULE_KEY_NAMES } from "~/components/sandbox/rule-keys";
+import { citation, RULE_KEY_NAMES } from "~/lib/pack/rule-keys";
 import { runAnalysis } from "~/components/sandbox/run-analysis";
 import { scheduleRows } from "~/lib/pack/schedule-rows";
 import { SHEET_SESSION_KEY } from "~/components/sandbox/sheet-link";
