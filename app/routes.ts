@@ -17,6 +17,7 @@ export default [
   route("roofs/:id/sheet.pdf", "routes/roofs.$id.sheet-pdf.ts"),
   route("roofs/:id/plan.dxf", "routes/roofs.$id.plan-dxf.ts"),
   route("roofs/:id/roof.glb", "routes/roofs.$id.roof-glb.ts"),
+  route("s/:token/:file", "routes/s.$token.$file.ts"),
   route("logout", "routes/logout.ts"),
   route("sandbox/schedule.csv", "routes/sandbox.schedule-csv.ts"),
   route("sandbox/sheet.pdf", "routes/sandbox.sheet-pdf.ts"),
@@ -46,6 +47,7 @@ export default [
     route("forgot-password", "routes/forgot-password.tsx"),
     route("reset-password/:token", "routes/reset-password.$token.tsx"),
     route("invite/:token", "routes/invite.$token.tsx"),
+    route("s/:token", "routes/s.$token.tsx"),
     route("account", "routes/account.tsx"),
     route("admin", "routes/admin.tsx", [
       index("routes/admin._index.tsx"),
