@@ -1,8 +1,11 @@
 import type { Route } from "./+types/sandbox.roof-glb";
-import { sandboxPackGet, sandboxPackResponse } from "~/lib/pack/download.server";
-import { ROOF_GLB } from "~/components/pack/roof-glb";
+import { sandboxPackResponse } from "~/lib/pack/download.server";
 
-export const loader = () => sandboxPackGet(ROOF_GLB);
+export const loader = () =>
+  new Response("POST the roof spec (form field `spec`, JSON) to get its roof.glb.", { status: 405, headers: { Allow: "POST", "Content-Type": "text/plain; charset=utf-8" } });
 
 /** POST /sandbox/roof.glb: the posted roof as a 3D model (binary glTF); nothing is stored. */
-export const action = ({ request }: Route.ActionArgs) => sandboxPackResponse(request, ROOF_GLB);
+export async function action({ request }: Route.ActionArgs) {
+  const { ROOF_GLB } = await import("~/components/pack/roof-glb");
+  return sandboxPackResponse(request, ROOF_GLB);
+}
