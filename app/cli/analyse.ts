@@ -4,8 +4,11 @@
  */
 import { readFileSync, writeFileSync } from "node:fs";
 import { parseArgs } from "node:util";
-import { scheduleCsv as joistScheduleCsv } from "../components/sandbox/schedule-csv.ts";
-import { analyse, formatRatio, parseSpec, type Analysis } from "../engine/index.ts";
+import { basename } from "node:path";
+import { CAUTION_LINE } from "../lib/caution.ts";
+import { directionDegrees } from "../lib/pack/facts.ts";
+import { scheduleCsv as packScheduleCsv } from "../lib/pack/schedule-csv.ts";
+import { analyse, formatRatio, parseSpec, type Analysis, type RoofSpec } from "../engine/index.ts";
 
 const HELP = `Usage: npm run analyse -- <roof.json> [--csv <schedule.csv>]
 
@@ -18,10 +21,9 @@ const m2 = (a: number) => `${a.toFixed(1)} m²`;
 const metres = (m: number) => `${m.toFixed(2)} m`;
 const pt = (p: [number, number]) => `(${p[0].toFixed(2)}, ${p[1].toFixed(2)})`;
 
-/** Rows of the drop schedule: one per joist span; levels and drops in millimetres. */
-/** The drop schedule as CSV, in the same columns as the sandbox's download. */
-export function scheduleCsv(a: Analysis): string {
-  return joistScheduleCsv(a.shaped.joists);
+/** The drop schedule as CSV: the same writer, header block and columns as the app's downloads. */
+export function scheduleCsv(a: Analysis, spec: RoofSpec, name: string, date = new Date()): string {
+  return packScheduleCsv({ name, date, spec, analysis: a });
 }
 
 /** The printed report. */
@@ -34,7 +36,7 @@ export function report(a: Analysis, name: string): string {
   add();
   add("Shaped roof");
   add(`  High level            ${mm(s.highLevel)} (${s.highLevelSource})`);
-  add(`  Joist direction       (${s.joistDirection.map((d) => d.toFixed(3)).join(", ")}), ${s.joists.length} joists`);
+  add(`  Joists                ${s.joists.length} at ${Math.round(s.setOut.spacing * 1000)} mm, direction ${directionDegrees(s.joistDirection).toFixed(1)}° from x, first at ${s.setOut.offset.toFixed(3)} m${s.setOut.fromOutlets ? " (set out from the outlets)" : ""}`);
   for (const f of s.edgeFalls) add(`  Edge ${f.edge + 1} fall           ${formatRatio(f.ratio)} from ${pt(f.from)} to ${pt(f.to)}`);
   const l = s.longestFallLine;
   const drainLabel = (id: string) => s.catchments.find((c) => c.drain === id)?.label ?? id;
@@ -70,9 +72,7 @@ export function report(a: Analysis, name: string): string {
   add(a.warnings.length ? `Warnings (${a.warnings.length})` : "No warnings");
   for (const w of a.warnings) add(`  [${w.code}] ${w.message}`);
   add();
-  add("Caution: a teaching and early-design aid. Falls, outlets and overflows, structure and fixing");
-  add("must be confirmed by the designer of record against the local building code and by licensed");
-  add("practitioners.");
+  add(CAUTION_LINE);
   return lines.join("\n");
 }
 
@@ -105,7 +105,8 @@ export function main(argv: string[]): number {
   const analysis = analyse(spec.spec, { mesh: false, traces: false });
   process.stdout.write(`${report(analysis, file)}\n`);
   if (parsed.values.csv) {
-    writeFileSync(parsed.values.csv, `${scheduleCsv(analysis)}\n`);
+    const name = basename(file).replace(/\.json$/i, "");
+    writeFileSync(parsed.values.csv, `${scheduleCsv(analysis, spec.spec, name)}\r\n`);
     process.stdout.write(`\nDrop schedule written to ${parsed.values.csv}\n`);
   }
   return 0;

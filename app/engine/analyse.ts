@@ -18,7 +18,8 @@ import { outletParallelWarnings } from "./outlet-reach";
 import { perimeterLevels } from "./perimeter";
 import { heldWaterWarnings } from "./upstands";
 import { prepareRoof } from "./prepare";
-import { toFrame, type Roof } from "./roof";
+import { toFrame, toPlan, type Roof } from "./roof";
+import { outletJoists, trimWarnings } from "./setout";
 import { RULE_SETS, ruleValue } from "./rule-sets";
 import { levelAt } from "./surface";
 import { flowTraces } from "./traces";
@@ -109,6 +110,8 @@ function analyseWith(memory: Arena, roof: Roof, options: AnalyseOptions, candida
   const levels = perimeterLevels(roof, H);
   const joistU = joistPositions(roof);
   const joists = dropSchedule(roof, levels, joistU);
+  const onJoists = outletJoists(roof, joistU, (u, v) => toPlan(roof, u, v));
+  warnings.push(...trimWarnings(onJoists, roof.fromOutlets));
   const sunk = joists.flatMap((j) => j.spans.filter((s) => s.ratio === null && Math.max(s.startDrop, s.endDrop) > 1e-9));
   if (sunk.length) {
     const s = sunk[Math.floor(sunk.length / 2)];
@@ -188,6 +191,7 @@ function analyseWith(memory: Arena, roof: Roof, options: AnalyseOptions, candida
     highLevel: H,
     highLevelSource: roof.highLevelGiven === null ? "derived" : "given",
     joistDirection: [roof.dx, roof.dy],
+    setOut: { spacing: roof.spacing, offset: joistU.length ? joistU[0] - roof.umin : 0, fromOutlets: roof.fromOutlets, outlets: onJoists },
     edgeFalls: edgeFalls(roof, levels),
     longestFallLine: longest,
     worstFallRatio: worst ? worst.ratio : null,

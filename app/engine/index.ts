@@ -30,6 +30,8 @@ export type {
   Joist,
   JoistSpan,
   FallLine,
+  OutletJoist,
+  JoistSetOut,
   Band,
   Catchment,
   Mesh,

@@ -3,6 +3,7 @@ import { signedArea } from "./geometry/area";
 import { nearestOnSegment, orient, segmentsTouch } from "./geometry/segments";
 import { insidePolygon } from "./geometry/inside";
 import type { Hole, Outlet, Roof } from "./roof";
+import { offsetFromOutlets } from "./setout";
 import { DEFAULT_RULE_SET, RULE_SETS, ruleValue, type RuleSetId, type UsedRule } from "./rule-sets";
 import type { EdgeKind, Point, RoofSpec } from "./types";
 import { outletName } from "./names";
@@ -203,7 +204,8 @@ export function prepareRoof(spec: RoofSpec): Prepared {
   frameHoles(holes, dx, dy);
 
   const spacing = spec.joists?.spacing ?? DEFAULTS.joistSpacing;
-  const offset = spec.joists?.offset ?? 0;
+  const fromOutlets = spec.joists?.fromOutlets === true;
+  const offset = fromOutlets ? offsetFromOutlets(outlets, umin, umax, spacing) : (spec.joists?.offset ?? 0);
   const joistCount = Math.floor(Math.max(0, umax - umin - offset) / spacing) + 2;
   if (joistCount > LIMITS.maxJoists)
     return fail(
@@ -241,7 +243,7 @@ export function prepareRoof(spec: RoofSpec): Prepared {
     rainfall: spec.rainfall
       ? { intensity: spec.rainfall.intensity, assumed: false }
       : { intensity: DEFAULTS.rainfallIntensity, assumed: true },
-    ruleSet, used, spacing, offset, highLevelGiven,
+    ruleSet, used, spacing, offset, fromOutlets, highLevelGiven,
     probes: (spec.probes ?? []).map((p) => [p[0], p[1]]),
     holes,
     holeArea: holes.reduce((sum, h) => sum + h.area, 0),

@@ -72,6 +72,8 @@ export interface Roof {
   used: UsedRule[];
   spacing: number;
   offset: number;
+  /** The offset was found from the outlets (spec joists.fromOutlets). */
+  fromOutlets: boolean;
   highLevelGiven: number | null;
   probes: Point[];
   /** Openings, strictly inside the outline and apart from each other (docs/roof-method-plans.md P2). */

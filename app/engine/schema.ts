@@ -46,6 +46,7 @@ export const roofSpecSchema = z.object({
       spacing: z.optional(limited(0.05, 20, "must be at least 0.05 m", "must be at most 20 m")),
       direction: z.optional(point.check(z.refine(([x, y]) => Math.hypot(x, y) > 1e-9, "must not be the zero vector"))),
       offset: z.optional(limited(0, 100_000)),
+      fromOutlets: z.optional(z.boolean({ error: "must be true or false" })),
     }),
   ),
   minFall: z.optional(fall),

@@ -14,7 +14,11 @@ export interface RoofSpec {
   /** `1:40`, `2°`, `2.5%`, `25 mm/m`, or a number N meaning 1:N. */
   baseFall: string | number;
   highLevel?: number;
-  joists?: { spacing?: number; direction?: Point; offset?: number };
+  /**
+   * fromOutlets: set the first joist's offset so a joist lands on each outlet the spacing allows
+   * (the given offset is then ignored); outlets it cannot serve get an "outlet-off-joist" warning.
+   */
+  joists?: { spacing?: number; direction?: Point; offset?: number; fromOutlets?: boolean };
   minFall?: string | number;
   gutter?: { width?: number; depth?: number; fall?: string | number };
   rainfall?: { intensity: number };
@@ -47,7 +51,8 @@ export interface Warning {
     | "narrow-gutter"
     | "rainfall-assumed"
     | "outlet-parallel-to-joists"
-    | "water-held-behind-upstand";
+    | "water-held-behind-upstand"
+    | "outlet-off-joist";
   message: string;
   at?: Point;
   /** Size of the problem in metres where it has one (twist: level difference). */
@@ -107,6 +112,28 @@ export interface Joist {
   /** Across the roof from its extreme edge, metres. */
   offset: number;
   spans: JoistSpan[];
+}
+
+/** Where an outlet sits among the joists (docs/roof-method.md §5). */
+export interface OutletJoist {
+  /** Outlet index in the request's list. */
+  outlet: number;
+  at: Point;
+  /** Joist number (from 1) landing on the outlet, or null when it falls between two. */
+  joist: number | null;
+  /** Joist numbers either side when no joist lands on it (null past the first or last). */
+  between: [number | null, number | null] | null;
+  /** Distance to the nearest joist line, metres (0 when one lands on it). */
+  gap: number;
+}
+
+/** How the joists were set out. */
+export interface JoistSetOut {
+  spacing: number;
+  /** First joist's offset from the extreme edge, metres (given, or found from the outlets). */
+  offset: number;
+  fromOutlets: boolean;
+  outlets: OutletJoist[];
 }
 
 export interface FallLine {
@@ -197,6 +224,7 @@ export interface Analysis {
     /** How the high level was found. */
     highLevelSource: "given" | "derived";
     joistDirection: Point;
+    setOut: JoistSetOut;
     edgeFalls: EdgeFall[];
     longestFallLine: FallLine | null;
     worstFallRatio: number | null;

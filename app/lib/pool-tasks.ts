@@ -1,13 +1,16 @@
+import type { Analysis } from "../engine";
+
 /** The messages between the app and its worker threads (app/server/workers/tasks.ts). */
 export type PoolTask =
   | { kind: "analyse"; spec: unknown; mesh: boolean; traces: boolean; maxBytes: number }
-  | { kind: "csv"; spec: unknown; units?: string | null }
+  | { kind: "shape"; spec: unknown; mesh: boolean }
   | { kind: "hash"; password: string; cost: number }
   | { kind: "compare"; password: string; hash: string };
 
 export type PoolResult =
   | { kind: "bytes"; bytes: Uint8Array; ms: number }
   | { kind: "text"; text: string; ms: number }
+  | { kind: "analysis"; analysis: Analysis; ms: number }
   | { kind: "boolean"; value: boolean; ms: number }
   | { kind: "too-large"; bytes: number; ms: number }
   | { kind: "refused"; status: number; error: { message: string; issues: { path: string; message: string }[] }; ms: number }

@@ -17,6 +17,8 @@ import { RoofWorkspace, retraceSpec } from "~/components/roofs/roof-workspace";
 import type { SandboxStore } from "~/components/sandbox/store";
 import type { RoofSpec } from "~/engine";
 import { newRequestKey } from "~/lib/request-key";
+import { createShareLink, listShareLinks, MAX_LINKS_PER_ROOF, revokeShareLink } from "~/lib/share-links.server";
+import { PackDownloads } from "~/components/pack/downloads";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.roof.name ?? "Roof"} · Fallwright` }];
 
@@ -29,6 +31,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     underlay: roof.underlay,
     underlayUrl: roof.underlayId ? underlayUrl(roof.id, roof.underlayId) : null,
     versions: roof.canEdit ? await listVersions(roof.id) : [],
+    shareLinks: roof.canEdit ? await listShareLinks(roof.id) : [],
   };
 }
 
@@ -37,6 +40,8 @@ const intentSchema = z.discriminatedUnion("intent", [
   z.object({ intent: z.literal("underlay"), settings: z.string().max(2000) }),
   z.object({ intent: z.literal("restore-version"), version: pgInt({ coerce: true }), expected: pgInt({ coerce: true }) }),
   z.object({ intent: z.literal("duplicate"), name: roofNameSchema.optional() }),
+  z.object({ intent: z.literal("share-link-create") }),
+  z.object({ intent: z.literal("share-link-revoke"), linkId: z.string().max(100) }),
 ]);
 
 export async function action({ request, params }: Route.ActionArgs) {
@@ -73,6 +78,19 @@ export async function action({ request, params }: Route.ActionArgs) {
       const roof = await getRoofFor(user, params.id);
       return { restored: { version: result.version, spec: roof!.spec, name: roof!.name, from: input.version } };
     }
+    case "share-link-create": {
+      const made = await createShareLink(user, params.id);
+      if (made.status === "forbidden") throw data("Only the owner can share this roof by link.", { status: 403 });
+      if (made.status === "not-found") throw notFound();
+      if (made.status !== "ok") return data({ error: `A roof can have at most ${MAX_LINKS_PER_ROOF} links at once: revoke one first.` }, { status: 409 });
+      return { shareLink: { id: made.id, path: `/s/${made.token}` } };
+    }
+    case "share-link-revoke": {
+      const result = await revokeShareLink(user, params.id, input.linkId);
+      if (result === "forbidden") throw data("Only the owner can revoke this roof's links.", { status: 403 });
+      if (result === "not-found") return data({ error: "That link was not found; it may have been revoked already." }, { status: 404 });
+      return { revoked: input.linkId };
+    }
     case "duplicate": {
       const copy = await duplicateRoof(user, params.id, input.name);
       if (!copy) throw notFound();
@@ -81,14 +99,21 @@ export async function action({ request, params }: Route.ActionArgs) {
   }
 }
 
-type ActionData = { shared?: boolean; restored?: RoofSnapshot & { from: number }; conflict?: RoofSnapshot; error?: string };
+type ActionData = {
+  shared?: boolean;
+  restored?: RoofSnapshot & { from: number };
+  conflict?: RoofSnapshot;
+  error?: string;
+  shareLink?: { id: string; path: string };
+  revoked?: string;
+};
 
 export default function RoofPage({ loaderData }: Route.ComponentProps) {
   // A different roof is a different editor: never carry drafts across.
   return <RoofEditor key={loaderData.roof.id} {...loaderData} />;
 }
 
-function RoofEditor({ roof, underlay: initialUnderlay, underlayUrl: initialUrl, versions }: Route.ComponentProps["loaderData"]) {
+function RoofEditor({ roof, underlay: initialUnderlay, underlayUrl: initialUrl, versions, shareLinks }: Route.ComponentProps["loaderData"]) {
   const navigate = useNavigate();
   const [params] = useSearchParams();
   const autosave = useAutosave(roof.id, roof.version, { enabled: roof.canEdit });
@@ -195,6 +220,8 @@ function RoofEditor({ roof, underlay: initialUnderlay, underlayUrl: initialUrl, 
         </div>
       </header>
       {roof.canEdit ? <h1 className="sr-only">{name}</h1> : null}
+      <PackDownloads base={`/roofs/${roof.id}`} />
+      {roof.canEdit ? <ShareLinks links={shareLinks} /> : null}
 
       {notice ? <p role="status" className="rounded border border-ok/40 bg-sheet px-3 py-2 text-sm text-ok">{notice}</p> : null}
       {!roof.canEdit ? <ReadOnlyBanner owner={roof.ownerName} name={roof.name} /> : null}
@@ -278,6 +305,67 @@ function ShareControls({ shared }: { shared: boolean }) {
       ) : null}
       {copied === "failed" ? <span role="alert" className="text-xs text-bad">Copy this address from the address bar.</span> : null}
     </div>
+  );
+}
+
+function ShareLinks({ links }: { links: Route.ComponentProps["loaderData"]["shareLinks"] }) {
+  const make = useFetcher<ActionData>();
+  const revoke = useFetcher<ActionData>();
+  const [copied, setCopied] = useState(false);
+  const made = make.data?.shareLink;
+  const url = made && typeof window !== "undefined" ? window.location.origin + made.path : made?.path;
+  async function copy() {
+    if (!url) return;
+    try {
+      await navigator.clipboard.writeText(url);
+      setCopied(true);
+      setTimeout(() => setCopied(false), 4000);
+    } catch {
+      setCopied(false);
+    }
+  }
+  return (
+    <section className="card" aria-labelledby="share-links-title" data-testid="share-links">
+      <div className="flex flex-wrap items-center justify-between gap-2">
+        <h2 id="share-links-title" className="flex items-center gap-2 text-lg font-bold">
+          <Link2 aria-hidden="true" className="h-5 w-5" /> Read-only links
+        </h2>
+        <make.Form method="post">
+          <input type="hidden" name="intent" value="share-link-create" />
+          <button type="submit" className="btn" disabled={make.state !== "idle"} data-testid="share-link-create">
+            {make.state !== "idle" ? "Making a link…" : "Make a read-only link"}
+          </button>
+        </make.Form>
+      </div>
+      <p className="mt-1 text-sm text-ink-soft">
+        Anyone with a link sees this roof, its figures and its downloads without signing in, and cannot change it. Revoke a link to stop it working.
+      </p>
+      {make.data?.error ? <p role="alert" className="mt-2 text-sm text-bad">{make.data.error}</p> : null}
+      {url ? (
+        <div className="mt-2 flex flex-wrap items-center gap-2 rounded border border-ok/40 bg-sheet px-3 py-2" role="status">
+          <label htmlFor="share-link-url" className="text-sm">New link (shown once; copy it now):</label>
+          <input id="share-link-url" readOnly value={url} className="field min-w-72 flex-1 font-mono text-xs" data-testid="share-link-url" onFocus={(e) => e.currentTarget.select()} />
+          <button type="button" className="btn" onClick={() => void copy()}>{copied ? "Copied" : "Copy"}</button>
+        </div>
+      ) : null}
+      {revoke.data?.error ? <p role="alert" className="mt-2 text-sm text-bad">{revoke.data.error}</p> : null}
+      {links.length ? (
+        <ul className="mt-2 divide-y divide-rule text-sm" data-testid="share-link-list">
+          {links.map((l) => (
+            <li key={l.id} className="flex items-center justify-between gap-2 py-1.5">
+              <span>Link made <RelativeTime iso={l.createdAt} /></span>
+              <revoke.Form method="post">
+                <input type="hidden" name="intent" value="share-link-revoke" />
+                <input type="hidden" name="linkId" value={l.id} />
+                <button type="submit" className="btn py-0.5 text-xs" disabled={revoke.state !== "idle"} data-testid="share-link-revoke">Revoke</button>
+              </revoke.Form>
+            </li>
+          ))}
+        </ul>
+      ) : (
+        <p className="mt-2 text-sm text-ink-soft">No working links.</p>
+      )}
+    </section>
   );
 }
 

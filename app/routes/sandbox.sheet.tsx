@@ -10,9 +10,9 @@ import { FallRatio } from "~/components/sandbox/fall-ratio";
 import { fallDetail as degreesAndPercent, useFormat } from "~/components/sandbox/format";
 import { RoofUnits } from "~/components/units";
 import { PlanDrawing } from "~/components/sandbox/plan-drawing";
-import { citation, RULE_KEY_NAMES } from "~/components/sandbox/rule-keys";
+import { citation, RULE_KEY_NAMES } from "~/lib/pack/rule-keys";
 import { runAnalysis } from "~/components/sandbox/run-analysis";
-import { scheduleRows } from "~/components/sandbox/schedule-rows";
+import { scheduleRows } from "~/lib/pack/schedule-rows";
 import { SHEET_SESSION_KEY } from "~/components/sandbox/sheet-link";
 
 export const meta: Route.MetaFunction = () => [{ title: "Check sheet · Fallwright" }];

@@ -73,6 +73,9 @@ const MATRIX: Record<string, Case[]> = {
   "/sandbox": [{ path: "/sandbox", expect: ALL(200) }],
   "/sandbox/sheet": [{ path: "/sandbox/sheet", expect: ALL(200) }],
   "/sandbox/schedule.csv": [{ path: "/sandbox/schedule.csv", expect: ALL(405), why: "the schedule is POSTed from the sandbox" }],
+  "/sandbox/sheet.pdf": [{ path: "/sandbox/sheet.pdf", expect: ALL(405), why: "the roof on screen is POSTed" }],
+  "/sandbox/plan.dxf": [{ path: "/sandbox/plan.dxf", expect: ALL(405), why: "the roof on screen is POSTed" }],
+  "/sandbox/roof.glb": [{ path: "/sandbox/roof.glb", expect: ALL(405), why: "the roof on screen is POSTed" }],
   "/roofs": [{ path: "/roofs", expect: SIGNED_IN(200) }],
   "/roofs/new": [{ path: "/roofs/new", expect: ALL(302), why: "GET goes back to the list; only POST creates" }],
   "/roofs/:id": [
@@ -82,6 +85,27 @@ const MATRIX: Record<string, Case[]> = {
   "/roofs/:id/export": [
     { path: "/roofs/{uuid}/export", expect: SIGNED_IN(404) },
     { path: "/roofs/{designerRoof}/export", expect: SIGNED_IN(200) },
+  ],
+  "/roofs/:id/schedule.csv": [
+    { path: "/roofs/{uuid}/schedule.csv", expect: SIGNED_IN(404) },
+    { path: "/roofs/{designerRoof}/schedule.csv", expect: SIGNED_IN(200), why: "readable by whoever may read the roof" },
+  ],
+  "/roofs/:id/sheet.pdf": [
+    { path: "/roofs/{uuid}/sheet.pdf", expect: SIGNED_IN(404) },
+    { path: "/roofs/{designerRoof}/sheet.pdf", expect: SIGNED_IN(200) },
+  ],
+  "/roofs/:id/plan.dxf": [
+    { path: "/roofs/{uuid}/plan.dxf", expect: SIGNED_IN(404) },
+    { path: "/roofs/{designerRoof}/plan.dxf", expect: SIGNED_IN(200) },
+  ],
+  "/roofs/:id/roof.glb": [
+    { path: "/roofs/{uuid}/roof.glb", expect: SIGNED_IN(404) },
+    { path: "/roofs/{designerRoof}/roof.glb", expect: SIGNED_IN(200) },
+  ],
+  "/s/:token": [{ path: "/s/{token}", expect: ALL(404), why: "no account needed; an unknown or revoked link is 404 for everyone" }],
+  "/s/:token/:file": [
+    { path: "/s/{token}/schedule.csv", expect: ALL(404) },
+    { path: "/s/{token}/anything", expect: ALL(404) },
   ],
   "/roofs/:id/underlay": [
     { path: "/roofs/{uuid}/underlay", expect: ALL(404) },

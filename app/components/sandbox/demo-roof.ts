@@ -11,7 +11,8 @@ export const DEMO_ROOF: RoofSpec = {
   edges: ["parapet", "parapet", "parapet", "parapet"],
   outlets: [{ at: [6, 0] }],
   baseFall: "2°",
-  joists: { spacing: 0.4 },
+  // New roofs start from this one, so they set their joists out from the outlets by default.
+  joists: { spacing: 0.4, fromOutlets: true },
   rainfall: { intensity: 100 },
   ruleSet: "common-practice",
 };

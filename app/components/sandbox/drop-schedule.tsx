@@ -1,7 +1,7 @@
-import { Download } from "lucide-react";
+import { Box, Download, FileText, PenTool } from "lucide-react";
 import { lazy, Suspense, useMemo } from "react";
 import { useFormat } from "./format";
-import { scheduleRows } from "./schedule-rows";
+import { scheduleRows } from "~/lib/pack/schedule-rows";
 import { useSandbox } from "./store";
 import { useNearViewport } from "./use-near-viewport";
 
@@ -46,13 +46,26 @@ export function DropSchedule() {
         <form
           method="post"
           action="/sandbox/schedule.csv"
-          className="ml-auto"
+          className="ml-auto flex flex-wrap gap-2"
           data-testid="csv-form"
         >
           <input type="hidden" name="spec" value={JSON.stringify(spec)} />
           <input type="hidden" name="units" value={system} />
+          {/* The builder's pack for the roof on screen: each button posts it to its file's address. */}
           <button type="submit" className="btn" data-testid="download-csv">
             <Download size={16} aria-hidden="true" /> Download CSV
+          </button>
+          <button type="submit" className="btn" formAction="/sandbox/sheet.pdf" data-testid="download-pdf">
+            <FileText size={16} aria-hidden="true" /> PDF (A4)
+          </button>
+          <button type="submit" className="btn" formAction="/sandbox/sheet.pdf?paper=letter" data-testid="download-pdf-letter">
+            <FileText size={16} aria-hidden="true" /> PDF (Letter)
+          </button>
+          <button type="submit" className="btn" formAction="/sandbox/plan.dxf" data-testid="download-dxf">
+            <PenTool size={16} aria-hidden="true" /> DXF
+          </button>
+          <button type="submit" className="btn" formAction="/sandbox/roof.glb" data-testid="download-glb">
+            <Box size={16} aria-hidden="true" /> 3D model
           </button>
         </form>
       </div>

@@ -2,7 +2,7 @@ import type { Analysis } from "~/engine";
 import { FallRatio } from "./fall-ratio";
 import { ResultsSection } from "./results-section";
 import { useSandbox } from "./store";
-import { citation, RULE_KEY_NAMES } from "./rule-keys";
+import { citation, RULE_KEY_NAMES } from "~/lib/pack/rule-keys";
 
 
 /** The rule set the results used, value by value, each with its document and clause. */

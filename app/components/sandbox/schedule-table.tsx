@@ -11,7 +11,7 @@ import { useMemo, useState } from "react";
 import type { UnitSystem } from "~/lib/units";
 import { FallRatio } from "./fall-ratio";
 import { formatIn } from "./format";
-import type { ScheduleRow } from "./schedule-rows";
+import { hasMultiSpan, type ScheduleRow } from "~/lib/pack/schedule-rows";
 
 const column = createColumnHelper<ScheduleRow>();
 const num = (digits: number) => (v: number) => v.toFixed(digits);
@@ -22,7 +22,7 @@ function columnsIn(system: UnitSystem) {
     return [
       column.accessor("joist", { header: "Joist" }),
       column.accessor("offset", { header: "Offset (m)", cell: (c) => num(2)(c.getValue()) }),
-      column.accessor("span", { header: "Span" }),
+      column.accessor((r) => r.span ?? 0, { id: "span", header: "Span", cell: (c) => c.row.original.span ?? "" }),
       column.accessor("length", { header: "Length (m)", cell: (c) => num(2)(c.getValue()) }),
       column.accessor("startLevel", { header: "Start level (mm)" }),
       column.accessor("endLevel", { header: "End level (mm)" }),
@@ -36,7 +36,7 @@ function columnsIn(system: UnitSystem) {
   return [
     column.accessor("joist", { header: "Joist" }),
     column.accessor("offset", { header: "Offset", cell: (c) => f.metres(c.getValue()) }),
-    column.accessor("span", { header: "Span" }),
+    column.accessor((r) => r.span ?? 0, { id: "span", header: "Span", cell: (c) => c.row.original.span ?? "" }),
     column.accessor("length", { header: "Length", cell: (c) => f.metres(c.getValue()) }),
     column.accessor((r) => r.metres.startLevel, { id: "startLevel", header: "Start level (in)", cell: (c) => level(c.getValue()) }),
     column.accessor((r) => r.metres.endLevel, { id: "endLevel", header: "End level (in)", cell: (c) => level(c.getValue()) }),
@@ -51,8 +51,12 @@ const PAGE = 60;
 /** The drop schedule's rows as a sortable table (loaded when the schedule comes into view). */
 export default function ScheduleTable({ rows, system = "metric" }: { rows: ScheduleRow[]; system?: UnitSystem }) {
   const [sorting, setSorting] = useState<SortingState>([]);
-  const columns = useMemo(() => columnsIn(system), [system]);
   const [all, setAll] = useState(false);
+  // The span number only means something where a joist has more than one (the CSV does the same).
+  const columns = useMemo(() => {
+    const all = columnsIn(system);
+    return hasMultiSpan(rows) ? all : all.filter((c) => c.id !== "span");
+  }, [rows, system]);
   const table = useReactTable({
     data: rows,
     columns,

@@ -59,9 +59,21 @@ export function SettingsPanel() {
               return { ...s, joists: { ...s.joists, direction } };
             })
           } />
-        <NumberField label="First joist offset" length="length" unit="m" value={joists.offset} optional placeholder="0" min={0} max={100000}
-          disabled={readOnly} testId="joist-offset"
+        <NumberField label="First joist offset" length="length" unit="m" value={joists.fromOutlets ? undefined : joists.offset} optional
+          placeholder={joists.fromOutlets && analysis ? `from outlets: ${hint(analysis.shaped.setOut.offset)}` : "0"} min={0} max={100000}
+          disabled={readOnly || joists.fromOutlets === true} testId="joist-offset"
           onCommit={(v) => edit((s) => ({ ...s, joists: { ...s.joists, offset: v } }))} />
+        <label className="col-span-2 flex items-start gap-2 text-sm sm:col-span-3">
+          <input type="checkbox" className="mt-1" checked={joists.fromOutlets === true} disabled={readOnly} data-testid="joists-from-outlets"
+            onChange={(e) => {
+              const on = e.target.checked;
+              edit((s) => ({ ...s, joists: { ...s.joists, fromOutlets: on || undefined } }));
+            }} />
+          <span>
+            Set out from the outlets: place the first joist so a joist lands on each outlet where the spacing allows
+            (outlets it cannot reach are listed in the warnings, to be trimmed round).
+          </span>
+        </label>
       </Group>
       <OpeningsPanel />
       <Group title="Gutter layout (for the comparison)">

@@ -5,9 +5,7 @@
  * cost, and the bytes are handed back without a copy.
  */
 import { analyse, analyseRoof, parseRoofSpec, parseSpec } from "../../engine";
-import { scheduleCsv } from "../../components/sandbox/schedule-csv";
 import type { PoolTask, PoolResult } from "../../lib/pool-tasks";
-import { isUnitSystem, systemFor } from "../../lib/units";
 
 const encoder = new TextEncoder();
 
@@ -29,14 +27,13 @@ function analyseTask(task: Extract<PoolTask, { kind: "analyse" }>): PoolResult {
   return { kind: "bytes", bytes, ms: performance.now() - started };
 }
 
-function csvTask(task: Extract<PoolTask, { kind: "csv" }>): PoolResult {
+/** An analysis handed back as an object (structured clone keeps its typed arrays): the builder's pack files. */
+function shapeTask(task: Extract<PoolTask, { kind: "shape" }>): PoolResult {
   const started = performance.now();
   const parsed = parseSpec(task.spec);
   if (!parsed.ok) return { kind: "refused", status: parsed.status, error: parsed.error, ms: performance.now() - started };
   try {
-    // Unless asked, the roof's rule set decides the units (US customary for a US code), as on screen.
-    const system = isUnitSystem(task.units) ? task.units : systemFor(null, parsed.spec.ruleSet);
-    return { kind: "text", text: scheduleCsv(analyse(parsed.spec, { mesh: false, traces: false }).shaped.joists, system), ms: performance.now() - started };
+    return { kind: "analysis", analysis: analyse(parsed.spec, { mesh: task.mesh, traces: false }), ms: performance.now() - started };
   } catch (error) {
     return { kind: "failed", message: (error as Error)?.message ?? String(error), ms: performance.now() - started };
   }
@@ -46,8 +43,8 @@ export function runTask(task: PoolTask): PoolResult {
   switch (task.kind) {
     case "analyse":
       return analyseTask(task);
-    case "csv":
-      return csvTask(task);
+    case "shape":
+      return shapeTask(task);
     default:
       throw new Error(`the engine pool does not run ${task.kind} tasks`);
   }

@@ -10,7 +10,12 @@ describe("npm run analyse", () => {
     const a = analyseSpec(spec);
 
     it(`${name}: the CSV has one row per joist span with levels in millimetres`, () => {
-      const csv = Papa.parse<Record<string, string>>(scheduleCsv(a), { header: true, skipEmptyLines: true });
+      const text = scheduleCsv(a, spec, name);
+      expect(text.split("\r\n")[1]).toBe(`roof,${name}${",".repeat(text.split("\r\n")[1].split(",").length - 2)}`);
+      // The table starts after the header block's empty line.
+      const lines = text.split("\r\n");
+      const table = lines.slice(lines.findIndex((l) => /^,*$/.test(l)) + 1).join("\r\n");
+      const csv = Papa.parse<Record<string, string>>(table, { header: true, skipEmptyLines: true });
       const spans = a.shaped.joists.flatMap((j) => j.spans);
       expect(csv.data).toHaveLength(spans.length);
       expect(csv.meta.fields).toContain("start_drop_below_H_mm");

@@ -5,13 +5,21 @@ import { DEMO_ROOF } from "~/components/sandbox/demo-roof";
 import { decodeSpec, encodeSpec, sheetHref, SHEET_LINK_LIMIT } from "~/components/sandbox/sheet-link";
 import { readLinkedSpec } from "~/components/sandbox/linked-spec.server";
 import { formatIn } from "~/components/sandbox/format";
-import { scheduleRows } from "~/components/sandbox/schedule-rows";
+import { scheduleRows } from "~/lib/pack/schedule-rows";
 import { analyse, parseSpec, type RoofSpec } from "~/engine";
+import { scheduleCsv } from "~/lib/pack/schedule-csv";
+import { packOf } from "../pack/fixtures";
 
 function parseOk(input: unknown): RoofSpec {
   const r = parseSpec(input);
   if (!r.ok) throw new Error(r.error.message);
   return r.spec;
+}
+
+/** The table below the CSV's header block. */
+function tableOf(text: string): string {
+  const t = text.replace(/^\uFEFF/, "").trim();
+  return t.slice(t.indexOf("\r\n,") + 2).replace(/^,*\r\n/, "");
 }
 
 type ActionArgs = Parameters<typeof action>[0];
@@ -24,15 +32,21 @@ function post(body: BodyInit, type: string) {
 const form = (spec: string) => post(new URLSearchParams({ spec }), "application/x-www-form-urlencoded");
 
 describe("POST /sandbox/schedule.csv", () => {
-  it("answers the drop schedule as a CSV attachment", async () => {
-    const res = await form(JSON.stringify(DEMO_ROOF));
+  it("answers the drop schedule as a CSV attachment named after the roof and the day", async () => {
+    const res = await post(new URLSearchParams({ spec: JSON.stringify(DEMO_ROOF), name: "Depot, east wing" }), "application/x-www-form-urlencoded");
     expect(res.status).toBe(200);
     expect(res.headers.get("content-type")).toMatch(/^text\/csv/);
-    expect(res.headers.get("content-disposition")).toMatch(/attachment; filename="drop-schedule.csv"/);
-    const parsed = Papa.parse<Record<string, string>>((await res.text()).replace(/^\uFEFF/, "").trim(), { header: true });
+    const today = new Date().toISOString().slice(0, 10);
+    expect(res.headers.get("content-disposition")).toBe(`attachment; filename="depot-east-wing-drop-schedule-${today}.csv"`);
+    const text = (await res.text()).replace(/^\uFEFF/, "").trim();
+    // The same writer as the roof's download and the CLI: the same file for the same roof and day.
+    expect(text).toBe(scheduleCsv(packOf(DEMO_ROOF, "Depot, east wing", new Date())).trim());
+    const table = text.slice(text.indexOf("\r\n,") + 2).replace(/^,*\r\n/, "");
+    const parsed = Papa.parse<Record<string, string>>(table, { header: true });
     expect(parsed.errors).toEqual([]);
-    // Joists every 0.4 m across 12 m: 31 lines, one span each on a rectangle.
+    // Joists every 0.4 m across 12 m: 31 lines, one span each on a rectangle (so no span column).
     expect(parsed.data).toHaveLength(31);
+    expect(parsed.meta.fields).not.toContain("span");
     const H = Math.round(8 * Math.tan((2 * Math.PI) / 180) * 1000);
     // docs/roof-method.md §3: the joist through the outlet falls exactly at the base fall (2° = 1:28.6).
     const through = parsed.data.find((r) => Number(r.offset_m) === 6)!;
@@ -44,7 +58,7 @@ describe("POST /sandbox/schedule.csv", () => {
   it("answers in US customary when asked (units=us), or for a US rule set, agreeing with the screen's figures", async () => {
     const res = await post(new URLSearchParams({ spec: JSON.stringify(DEMO_ROOF), units: "us" }), "application/x-www-form-urlencoded");
     expect(res.status).toBe(200);
-    const parsed = Papa.parse<Record<string, string>>((await res.text()).replace(/^\uFEFF/, "").trim(), { header: true });
+    const parsed = Papa.parse<Record<string, string>>(tableOf(await res.text()), { header: true });
     const analysis = analyse(parseOk(DEMO_ROOF), { mesh: false, traces: false });
     const rows = scheduleRows(analysis.shaped.joists);
     expect(parsed.data).toHaveLength(rows.length);
@@ -60,8 +74,16 @@ describe("POST /sandbox/schedule.csv", () => {
     expect(through.fall).toBe("1:28.6");
     expect(Number(through.fall_in_per_ft)).toBeCloseTo(12 / (1 / Math.tan((2 * Math.PI) / 180)), 2);
     const ibc = await form(JSON.stringify({ ...DEMO_ROOF, ruleSet: "us-ibc-2018" }));
-    expect((await ibc.text()).split("\n")[0]).toContain("offset_ft");
+    expect(tableOf(await ibc.text()).split("\n")[0]).toContain("offset_ft");
     expect((await post(new URLSearchParams({ spec: JSON.stringify(DEMO_ROOF), units: "imperial" }), "application/x-www-form-urlencoded")).status).toBe(400);
+  });
+
+  it("calls an unnamed roof the sandbox roof, and refuses an over-long name naming the field", async () => {
+    const res = await form(JSON.stringify(DEMO_ROOF));
+    expect(res.headers.get("content-disposition")).toMatch(/filename="sandbox-roof-drop-schedule-\d{4}-\d{2}-\d{2}\.csv"/);
+    const long = await post(new URLSearchParams({ spec: JSON.stringify(DEMO_ROOF), name: "x".repeat(121) }), "application/x-www-form-urlencoded");
+    expect(long.status).toBe(400);
+    expect(await long.text()).toMatch(/`name`/);
   });
 
   it("takes the spec as a JSON body too", async () => {
@@ -81,7 +103,7 @@ describe("POST /sandbox/schedule.csv", () => {
   });
 
   it("answers GET with 405", async () => {
-    const res = (loader as () => Response)();
+    const res = loader();
     expect(res.status).toBe(405);
     expect(res.headers.get("allow")).toBe("POST");
   });

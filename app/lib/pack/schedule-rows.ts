@@ -4,7 +4,8 @@ import type { Analysis } from "~/engine";
 export interface ScheduleRow {
   joist: number;
   offset: number;
-  span: number;
+  /** Span number along its joist (from 1), null when the joist has only the one span. */
+  span: number | null;
   startX: number;
   startY: number;
   endX: number;
@@ -31,7 +32,7 @@ export function scheduleRows(joists: Analysis["shaped"]["joists"]): ScheduleRow[
       rows.push({
         joist: j.index + 1,
         offset: r3(j.offset),
-        span: k + 1,
+        span: j.spans.length > 1 ? k + 1 : null,
         startX: r3(s.start[0]),
         startY: r3(s.start[1]),
         endX: r3(s.end[0]),
@@ -48,3 +49,6 @@ export function scheduleRows(joists: Analysis["shaped"]["joists"]): ScheduleRow[
   }
   return rows;
 }
+
+/** True when some joist has more than one span, so the span column means something. */
+export const hasMultiSpan = (rows: ScheduleRow[]) => rows.some((r) => r.span !== null);
