@@ -22,13 +22,10 @@ export function loader() {
  */
 export async function action({ request, context }: Route.ActionArgs) {
   if (request.method !== "POST") return jsonError(405, "Use POST here.", [], { Allow: "POST" });
-  try {
-    const limited = await limitApiRequest(context);
-    if (limited) return limited;
-  } catch {
-    // The limiter lives in the database; the analysis does not need it, so a database fault
-    // must not stop a sandbox from working.
-  }
+  // Counted in this process's memory, not in the database (see limitApiRequest): the sandbox's
+  // analyses keep working while PostgreSQL is down.
+  const limited = await limitApiRequest(context);
+  if (limited) return limited;
   let body: Awaited<ReturnType<typeof readJsonBody>>;
   try {
     body = await readJsonBody(request, ANALYSIS_BODY_LIMIT);
