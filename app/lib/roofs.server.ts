@@ -100,10 +100,11 @@ export async function listSharedWithMe(user: SessionUser): Promise<SharedRoofSum
 /**
  * The roof if this user may see it: the owner always, a colleague in the same organisation when
  * it is shared. Anyone else gets null, which callers turn into 404 (never a hint it exists).
+ * With `lock` (inside a transaction) the roof's row is locked FOR UPDATE until it ends.
  */
-export async function getRoofFor(user: SessionUser, id: string, trx: Knex = db()): Promise<RoofDetail | null> {
+export async function getRoofFor(user: SessionUser, id: string, trx: Knex = db(), o: { lock?: boolean } = {}): Promise<RoofDetail | null> {
   if (!isUuid(id)) return null;
-  const r = await trx("roofs as r")
+  const q = trx("roofs as r")
     .join("users as u", "u.id", "r.owner_id")
     .where("r.id", id)
     .whereNull("r.deleted_at")
@@ -111,6 +112,7 @@ export async function getRoofFor(user: SessionUser, id: string, trx: Knex = db()
       "r.id", "r.name", "r.version", "r.shared", "r.updated_at", "r.created_at", "r.owner_id", "r.spec",
       "r.underlay_id", "r.underlay", "u.name as owner_name", "u.email as owner_email", "u.organisation_id",
     );
+  const r = await (o.lock ? q.forUpdate("r") : q);
   if (!r) return null;
   const isOwner = r.owner_id === user.id;
   if (!isOwner && !(r.shared && r.organisation_id === user.organisationId)) return null;
@@ -167,7 +169,7 @@ export async function createRoof(user: SessionUser, input: NewRoof & { idempoten
 
 /** Not visible → not-found; visible but not mine → forbidden; mine → the row, locked for this transaction. */
 async function ownedForWrite(trx: Knex.Transaction, user: SessionUser, id: string) {
-  const roof = await getRoofFor(user, id, trx);
+  const roof = await getRoofFor(user, id, trx, { lock: true });
   if (!roof) return { status: "not-found" as const };
   if (!roof.canEdit) return { status: "forbidden" as const };
   return { status: "ok" as const, roof };

@@ -33,7 +33,8 @@ const mb = (bytes: number) => `${(bytes / 1024 / 1024).toFixed(1)} MB`;
  */
 export async function action({ request, context }: Route.ActionArgs) {
   if (request.method !== "POST") return jsonError(405, "Use POST here.", [], { Allow: "POST" });
-  // Counted in this process's memory; it cannot fail on a database fault.
+  // Counted in this process's memory, not in the database (see limitApiRequest): the sandbox's
+  // analyses keep working while PostgreSQL is down.
   const limited = await limitApiRequest(context);
   if (limited) return limited;
   let body: Awaited<ReturnType<typeof readJsonBody>>;

@@ -5,6 +5,7 @@ import { useTestDatabase } from "../support/db";
 import { linkIn, sessionCookie, uniqueAddress, waitForMail } from "../support/accounts";
 import { makePng } from "../support/png";
 import { startServer, type RunningServer } from "../support/server";
+import { getRoofFor } from "~/lib/roofs.server";
 
 /**
  * Issue 13: what an outside probe broke. Each case was reproduced against a production build
@@ -270,6 +271,20 @@ describe("12. an idempotency key reused with a different body is a 422 naming th
     const body = await other.json();
     expect(body.error.message).toContain(`"${key}"`);
     expect(body.error.issues[0].path).toBe("idempotencyKey");
+  });
+});
+
+describe("comments that now hold", () => {
+  it("getRoofFor with lock holds the roof's row FOR UPDATE until the transaction ends (writes rely on it)", async () => {
+    const roof = await newRoof();
+    const k = database.db();
+    const u = await k("users").where({ email: "designer@tidemark.example" }).first();
+    const user = { id: u.id, email: u.email, name: u.name, role: u.role, organisationId: u.organisation_id };
+    await k.transaction(async (trx) => {
+      expect(await getRoofFor(user, roof.id, trx, { lock: true })).not.toBeNull();
+      await expect(k("roofs").where({ id: roof.id }).forUpdate().noWait().first("id")).rejects.toThrow(/could not obtain lock/);
+    });
+    expect(await k("roofs").where({ id: roof.id }).forUpdate().noWait().first("id")).toEqual({ id: roof.id });
   });
 });
 

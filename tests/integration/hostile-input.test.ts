@@ -54,12 +54,12 @@ const SWEEP: Record<string, Probe[]> = {
       who: "trainee",
       method: "POST",
       path: "/api/v1/attempts",
-      json: { lesson: "{lesson}", answers: { q1: "a" }, spec: SPEC, idempotencyKey: "sweep-key-0001", timeSpentSeconds: 30 },
+      json: { lesson: "{lesson}", answers: { q1: "a" }, spec: SPEC, idempotencyKey: "{fresh}", timeSpentSeconds: 30 },
     },
   ],
   "/api/v1/attempts/:id": [{ who: "trainee", method: "GET", path: "/api/v1/attempts/{attempt}" }],
   "/roofs/:id/underlay": [{ who: "designer", method: "POST", path: "/roofs/{roof}/underlay", form: { file: "not an image" }, multipart: true }],
-  "/roofs/new": [{ who: "designer", method: "POST", path: "/roofs/new", form: { name: "Sweep save", spec: SPEC_TEXT, idempotencyKey: "sweep-save-0001" } }],
+  "/roofs/new": [{ who: "designer", method: "POST", path: "/roofs/new", form: { name: "Sweep save", spec: SPEC_TEXT, idempotencyKey: "{fresh}" } }],
   "/roofs/:id/export": [{ who: "designer", method: "GET", path: "/roofs/{roof}/export" }],
   "/logout": [{ who: "anonymous", method: "POST", path: "/logout", form: { probe: "1" } }],
   "/sandbox/schedule.csv": [{ who: "anonymous", method: "POST", path: "/sandbox/schedule.csv", form: { spec: SPEC_TEXT } }],
@@ -73,7 +73,7 @@ const SWEEP: Record<string, Probe[]> = {
   "/sandbox/sheet": [{ who: "anonymous", method: "GET", path: "/sandbox/sheet", query: { from: "session" } }],
   "/lessons": [{ who: "anonymous", method: "GET", path: "/lessons", query: { probe: "1" } }],
   "/lessons/:slug": [
-    { who: "trainee", method: "POST", path: "/lessons/{lesson}", form: { "q:q1": "a", spec: SPEC_TEXT, idempotencyKey: "sweep-form-0001", version: "", timeSpentSeconds: "12" } },
+    { who: "trainee", method: "POST", path: "/lessons/{lesson}", form: { "q:q1": "a", spec: SPEC_TEXT, idempotencyKey: "{fresh}", version: "", timeSpentSeconds: "12" } },
   ],
   "/attempts": [{ who: "trainee", method: "GET", path: "/attempts", query: { probe: "1" } }],
   "/attempts/:id": [{ who: "trainee", method: "GET", path: "/attempts/{attempt}" }],
@@ -84,7 +84,7 @@ const SWEEP: Record<string, Probe[]> = {
   "/roofs": [
     { who: "designer", method: "POST", path: "/roofs?index", form: { intent: "rename", id: "{roof}", name: "Sweep rename", version: "999999" } },
     { who: "designer", method: "POST", path: "/roofs?index", form: { intent: "duplicate", id: "{roof}" } },
-    { who: "designer", method: "POST", path: "/roofs?index", form: { intent: "import", file: '{"format":"fallwright-roof"}', idempotencyKey: "sweep-import-01" }, multipart: true },
+    { who: "designer", method: "POST", path: "/roofs?index", form: { intent: "import", file: '{"format":"fallwright-roof"}', idempotencyKey: "{fresh}" }, multipart: true },
   ],
   "/roofs/:id": [
     { who: "designer", method: "POST", path: "/roofs/{roof}", form: { intent: "restore-version", version: "1", expected: "999999" } },
@@ -177,7 +177,9 @@ afterAll(async () => {
   await server?.stop();
 });
 
-const fill = (s: string) => s.replace(/\{(\w+)\}/g, (_, name: string) => values[name] ?? `{${name}}`);
+/** Placeholders: seed ids and tokens from `values`; {fresh} is a new idempotency key each time, so no request replays another. */
+let serial = 0;
+const fill = (s: string) => s.replace(/\{(\w+)\}/g, (_, name: string) => (name === "fresh" ? `sweep-${Date.now().toString(36)}-${serial++}` : (values[name] ?? `{${name}}`)));
 
 /** One request: the probe with `field` (in `where`) set to a hostile value. */
 type Where = "path" | "query" | "form" | "json";

@@ -108,7 +108,7 @@ async function main() {
       env: { ...process.env, ...env, NODE_ENV: "production", PORT: String(port), APP_URL: `http://127.0.0.1:${port}`, DATABASE_URL: clusterUrl(info, e2eDb) },
     });
     children.push(server);
-    await waitForPort(port);
+    await waitForPort(port, 90_000); // a loaded shared machine can take over 30 s to load the build
     const extra = process.argv.slice(2).filter((a) => !a.startsWith("--only="));
     stage("playwright", bin("playwright"), ["test", "--config", "tests/playwright.config.ts", ...extra], {
       ...env,
