@@ -50,3 +50,13 @@ describe("POST /api/v1/analyses with openings and the plan advice (docs/roof-met
     expect((await res.json()).error.issues[0].path).toBe("openings.0.outline");
   });
 });
+
+describe("drainage areas, not built yet", () => {
+  it("refuses ridges and areas by name rather than ignoring them", async () => {
+    for (const [key, value] of [["ridges", [{ line: [[10, 0], [10, 10]] }]], ["areas", [{ at: [5, 5], joists: { direction: [1, 0] } }]]] as const) {
+      const res = await call({ ...spec, [key]: value });
+      expect(res.status).toBe(422);
+      expect((await res.json()).error.issues[0].path).toBe(key);
+    }
+  });
+});
