@@ -62,6 +62,11 @@ export function prepareRoof(spec: RoofSpec): Prepared {
     if (kinds && kinds.length === pts.length + 1) kinds = kinds.slice(0, -1);
   }
   const n = pts.length;
+  const unbuilt = spec as { ridges?: unknown[]; areas?: unknown[] };
+  for (const key of ["ridges", "areas"] as const) {
+    if (unbuilt[key]?.length)
+      return fail(422, key, "drainage areas divided by ridges are not built yet: analyse each area as a roof of its own for now");
+  }
   if (n > LIMITS.maxVertices) return fail(400, "outline", `allows at most ${LIMITS.maxVertices} vertices (got ${n})`);
   if (kinds && kinds.length !== n) return fail(400, "edges", `needs one kind per edge: ${n} (got ${kinds.length})`);
 

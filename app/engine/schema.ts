@@ -78,5 +78,9 @@ export const roofSpecSchema = z.object({
       )
       .check(z.maxLength(50, "allows at most 50 openings")),
   ),
+  // Drainage areas (docs/roof-method-plans.md P4) are specified but not built yet: they are read
+  // here so that preparation refuses them by name instead of dropping them unseen.
+  ridges: z.optional(z.array(z.unknown()).check(z.maxLength(50))),
+  areas: z.optional(z.array(z.unknown()).check(z.maxLength(50))),
   ruleSet: z.optional(z.enum(RULE_SET_IDS as [string, ...string[]], { error: `must be one of ${RULE_SET_IDS.join(", ")}` })),
 });

@@ -184,6 +184,15 @@ export function changedFixedKeys(task: Pick<Task, "editable">, start: RoofSpec, 
     if (submitted.outlets.some((o) => !startLevels.has(o.level ?? 0))) changed.push("outlet levels");
   }
   if (!editable.has("outlets") && !samePoints(start.outlets.map((o) => o.at), submitted.outlets.map((o) => o.at))) changed.push("outlets");
+  if (!editable.has("openings")) {
+    const rings = (sp: RoofSpec) => sp.openings ?? [];
+    const a = rings(start);
+    const b = rings(submitted);
+    const same =
+      a.length === b.length &&
+      a.every((o, i) => samePoints(o.outline, b[i].outline) && (o.kind ?? "other") === (b[i].kind ?? "other") && near(o.upstand ?? 0.15, b[i].upstand ?? 0.15));
+    if (!same) changed.push("openings");
+  }
   const minA = fallRatio(start.minFall ?? "1:100");
   const minB = fallRatio(submitted.minFall ?? "1:100");
   if (minA !== minB && !(minA != null && minB != null && near(minA, minB))) changed.push("minimum fall");

@@ -171,7 +171,7 @@ export const criterionSchema = z
   });
 
 /** Spec keys a trainee may change in a task; everything else must stay as the starting roof gives it. */
-export const EDITABLE_KEYS = ["outlets", "outletLevels", "baseFall", "edges", "joists", "highLevel", "outline"] as const;
+export const EDITABLE_KEYS = ["outlets", "outletLevels", "baseFall", "edges", "joists", "highLevel", "outline", "openings"] as const;
 
 export const taskSchema = z.object({
   id: id.default("task"),
