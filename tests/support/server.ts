@@ -35,7 +35,8 @@ export async function startServer(databaseUrl: string, env: Record<string, strin
   proc.stdout!.on("data", (d) => (out += d));
   proc.stderr!.on("data", (d) => (out += d));
   const url = `http://127.0.0.1:${port}`;
-  const end = Date.now() + 30_000;
+  // Generous: on a shared, busy machine the first start (tsx and the build) can take most of a minute.
+  const end = Date.now() + 100_000;
   for (;;) {
     if (proc.exitCode !== null) throw new Error(`server exited early:\n${out}`);
     try {
