@@ -98,7 +98,8 @@ describe("pointers stay inside the repository", () => {
             const sections = [...(m[2] ?? "").matchAll(/\d+/g)].map((d) => d[0]);
             const body = fs.readFileSync(target, "utf8");
             for (const s of sections) {
-              if (!new RegExp(`^## ${s}\\. `, "m").test(body)) missing.push(`${file}:${i + 1}: docs/${m[1]} has no section §${s}`);
+              // A numbered heading: "## 4. The surface", "### §4 ...", "## 4) ...".
+              if (!new RegExp(`^#{2,4}\\s*§?\\s*${s}(?:[.):]|\\s)`, "m").test(body)) missing.push(`${file}:${i + 1}: docs/${m[1]} has no section §${s}`);
             }
           }
         });
