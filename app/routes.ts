@@ -4,6 +4,7 @@ export default [
   route("healthz", "routes/healthz.ts"),
   route("api/v1", "routes/api.v1._index.ts"),
   route("api/v1/analyses", "routes/api.v1.analyses.ts"),
+  route("api/v1/analyses/as-built", "routes/api.v1.analyses.as-built.ts"),
   route("api/v1/roofs", "routes/api.v1.roofs.ts"),
   route("api/v1/roofs/:id", "routes/api.v1.roofs.$id.ts"),
   route("api/v1/lessons", "routes/api.v1.lessons.ts"),

@@ -39,7 +39,8 @@ export const AS_BUILT_DEFAULTS = {
 } as const;
 
 export const AS_BUILT_LIMITS = {
-  maxPoints: 5_000,
+  // 2,000 labelled points fit in the 256 kB body cap of the analyses API.
+  maxPoints: 2_000,
   /** A measured point this close to an outline corner or outlet replaces its design level (metres). */
   merge: 0.01,
 } as const;
