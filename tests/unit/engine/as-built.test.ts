@@ -78,6 +78,25 @@ describe("as-built check", () => {
     expect(dev.design).toBeCloseTo(0.02, 9);
   });
 
+  it("an L-shaped roof: triangles outside the re-entrant corner are dropped, catchments share the area", () => {
+    // Area by hand: 10 x 4 + 4 x 4 = 56 m². The convex hull of the points would add the
+    // 6 x 4 = 24 m² notch; the surface must not.
+    const L: RoofSpec = {
+      outline: [[0, 0], [10, 0], [10, 4], [4, 4], [4, 8], [0, 8]],
+      outlets: [{ at: [5, 0] }, { at: [0, 6] }],
+      baseFall: "1:60",
+      joists: { spacing: 0.6 },
+    };
+    const r = asBuilt(L, designSurvey(L));
+    if (!r.ok) throw new Error(JSON.stringify(r.issues));
+    expect(r.result.surface.fallMap.area).toBeCloseTo(56, 6);
+    const { catchments } = r.result.surface;
+    expect(catchments.map((c) => c.drain)).toEqual(["outlet-0", "outlet-1"]);
+    expect(catchments.reduce((t, c) => t + c.area, 0)).toBeCloseTo(56, 6);
+    for (const c of catchments) expect(c.area).toBeGreaterThan(0);
+    expect(r.result.verdict.passed).toBe(true);
+  });
+
   it("rejects a point outside the outline, naming it", () => {
     const r = asBuilt(roof, [{ at: [5, 1], level: 0 }]);
     expect(r.ok).toBe(false);
