@@ -97,6 +97,28 @@ describe("as-built check", () => {
     expect(r.result.verdict.passed).toBe(true);
   });
 
+  it("a joist end built within tolerance but flattening its fall below the minimum fails on fall", () => {
+    // The joist end at (0.4, 0): design 1.6 / 40 = 40 mm, built 8 mm low at 32 mm (inside the
+    // ±10 mm deviation). Its water runs along the bottom edge through 30, 20, 10 mm to the
+    // outlet at 0: 1.6 m for a 32 mm drop, 1:50, flatter than a 1:45 minimum; the design's
+    // 1:40 on the same way is not. The level it was built at is within the deviation tolerance,
+    // so the fall is what fails.
+    const pts = designSurvey(roof).map((p) =>
+      Math.abs(p.at[0] - 0.4) < 1e-9 && Math.abs(p.at[1]) < 1e-9 ? { ...p, level: p.level - 0.008 } : p,
+    );
+    const r = asBuilt(roof, pts, { minFall: 45 });
+    if (!r.ok) throw new Error(JSON.stringify(r.issues));
+    const fall = r.result.verdict.failures.filter((f) => f.code === "fall");
+    const here = fall.find((f) => Math.abs(f.at![0] - 0.4) < 1e-9 && Math.abs(f.at![1]) < 1e-9);
+    expect(here?.message).toContain("falls at 1:50");
+    expect(r.result.verdict.failures.some((f) => f.code === "deviation")).toBe(false);
+    expect(r.result.surface.ponds).toEqual([]);
+    // The design itself at the same minimum passes.
+    const asDesigned = asBuilt(roof, designSurvey(roof), { minFall: 45 });
+    if (!asDesigned.ok) throw new Error("unexpected");
+    expect(asDesigned.result.verdict.passed).toBe(true);
+  });
+
   it("rejects a point outside the outline, naming it", () => {
     const r = asBuilt(roof, [{ at: [5, 1], level: 0 }]);
     expect(r.ok).toBe(false);
