@@ -6,6 +6,7 @@ export default [
   route("api/v1/openapi.json", "routes/api.v1.openapi-json.ts"),
   route("api/v1/docs", "routes/api.v1.docs.ts"),
   route("api/v1/analyses", "routes/api.v1.analyses.ts"),
+  route("api/v1/analyses/as-built", "routes/api.v1.analyses.as-built.ts"),
   route("api/v1/roofs", "routes/api.v1.roofs.ts"),
   route("api/v1/roofs/:id", "routes/api.v1.roofs.$id.ts"),
   route("api/v1/lessons", "routes/api.v1.lessons.ts"),

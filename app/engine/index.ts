@@ -38,3 +38,12 @@ export type {
   MeshBuffers,
   FlowTraces,
 } from "./types";
+export {
+  asBuilt,
+  AS_BUILT_DEFAULTS,
+  AS_BUILT_LIMITS,
+  type AsBuiltAnswer,
+  type AsBuiltResult,
+  type SurveyPoint,
+  type Tolerance,
+} from "./as-built";

@@ -24,6 +24,7 @@ import {
   roofSchema,
   roofSpecRef,
 } from "~/lib/api-responses";
+import { asBuiltAnswerSchema, asBuiltBodySchema } from "~/lib/as-built-api";
 import { submissionSchema } from "~/lib/lessons/attempts.server";
 import { idempotencyKeySchema } from "~/lib/roofs.server";
 import { roofCreateSchema, roofUpdateSchema } from "~/lib/roofs-api.server";
@@ -104,6 +105,29 @@ function build(): OpenApiDocument {
       422: error("The spec is well formed but cannot be built (self-crossing outline, outlet off every parapet edge, too large)."),
       429: error("Too many requests from this address; see Retry-After."),
     },
+  });
+  registry.registerPath({
+    method: "post",
+    path: "/api/v1/analyses/as-built",
+    summary: "Check measured levels against the design (as-built check)",
+    description: "Open to anonymous callers, limited per client address like /api/v1/analyses. The method is docs/as-built.md.",
+    tags: ["Analyses"],
+    request: { body: { required: true, ...json(asBuiltBodySchema.extend({ spec: roofSpecRef })) } },
+    responses: {
+      200: answer("Deviations, the as-built surface with its ponds, the verdict and the fixes.", asBuiltAnswerSchema),
+      400: error("The body is malformed (points, tolerance or the spec)."),
+      413: E413,
+      415: E415,
+      422: error("The spec or the points cannot be used (e.g. points outside the roof)."),
+      429: error("Too many requests from this address; see Retry-After."),
+    },
+  });
+  registry.registerPath({
+    method: "get",
+    path: "/api/v1/analyses/as-built",
+    summary: "Not used: POST a spec and measured points",
+    tags: ["Analyses"],
+    responses: { 405: E405 },
   });
   registry.registerPath({
     method: "get",

@@ -62,6 +62,7 @@ const MATRIX: Record<string, Case[]> = {
     { path: "/api/v1/roofs/{designerRoof}", expect: s(401, 200, 200, 200, 200), why: "demo roofs are shared" },
   ],
   "/api/v1/analyses": [{ path: "/api/v1/analyses", expect: ALL(405), why: "roofs are POSTed to be analysed; anyone may, within the per-address limit" }],
+  "/api/v1/analyses/as-built": [{ path: "/api/v1/analyses/as-built", expect: ALL(405), why: "surveys are POSTed to be checked; anyone may, within the per-address limit" }],
   "/api/v1/lessons": [{ path: "/api/v1/lessons", expect: ALL(200) }],
   "/api/v1/lessons/:slug": [
     { path: "/api/v1/lessons/{uuid}", expect: ALL(404) },
