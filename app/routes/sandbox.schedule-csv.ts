@@ -52,7 +52,7 @@ export async function action({ request, context }: Route.ActionArgs) {
   const started = performance.now();
   let result;
   try {
-    result = await runInPool("engine", { kind: "csv", spec: input }, 15_000);
+    result = await runInPool("engine", { kind: "csv", spec: input }, 30_000);
   } catch (error) {
     if (error instanceof PoolBusy || error instanceof PoolTimeout) return text("The server is busy. Try again in a few seconds.", 503, { "Retry-After": "5" });
     throw error;
