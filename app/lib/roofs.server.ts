@@ -20,6 +20,11 @@ export const roofNameSchema = z
 /** How long a deleted roof can still be brought back by "Undo". */
 export const RESTORE_WINDOW_HOURS = 24;
 export const HISTORY_LIMIT = 30;
+/** Autosaves by the same person within this many minutes of the last one share one version row. */
+export const AUTOSAVE_COALESCE_MINUTES = 5;
+
+/** What made a version: only `auto` rows are ever coalesced. */
+export type VersionKind = "created" | "auto" | "named" | "restored";
 
 import { isUuid } from "~/lib/input";
 
@@ -162,7 +167,7 @@ export async function createRoof(user: SessionUser, input: NewRoof & { idempoten
       if (!sameRequest(first.idempotency_hash, hash!)) return { keyReused: key! };
       return { id: first.id as string, version: first.version as number, repeated: true };
     }
-    await trx("roof_versions").insert({ roof_id: roof.id, version: roof.version, name: input.name, spec: JSON.stringify(input.spec), saved_by: user.id });
+    await trx("roof_versions").insert({ roof_id: roof.id, version: roof.version, name: input.name, spec: JSON.stringify(input.spec), saved_by: user.id, kind: "created" });
     return { id: roof.id as string, version: roof.version as number };
   });
 }
@@ -178,11 +183,15 @@ async function ownedForWrite(trx: Knex.Transaction, user: SessionUser, id: strin
 /**
  * Saves a new name and/or spec if `version` is still the latest. The guarded update is the lock:
  * of two saves from the same version, PostgreSQL lets one through and the other matches 0 rows.
+ * History stays useful and bounded: a save of the spec alone (an autosave) made by the same
+ * person within AUTOSAVE_COALESCE_MINUTES of the previous autosave, with nothing saved between,
+ * replaces that autosave's row instead of adding one. Created, named and restored versions are
+ * always kept.
  */
 export async function updateRoof(
   user: SessionUser,
   id: string,
-  input: { name?: string; spec?: unknown; version: number },
+  input: { name?: string; spec?: unknown; version: number; kind?: VersionKind },
 ): Promise<UpdateResult> {
   if (!isUuid(id)) return { status: "not-found" };
   return db().transaction(async (trx) => {
@@ -199,7 +208,16 @@ export async function updateRoof(
       if (found.status !== "ok") return { status: found.status };
       return { status: "conflict", current: { version: found.roof.version, spec: found.roof.spec, name: found.roof.name } };
     }
-    await trx("roof_versions").insert({ roof_id: id, version: saved.version, name: saved.name, spec: JSON.stringify(saved.spec), saved_by: user.id });
+    const kind: VersionKind = input.kind ?? (input.name !== undefined ? "named" : "auto");
+    const row = { version: saved.version, name: saved.name, spec: JSON.stringify(saved.spec), saved_by: user.id, kind };
+    if (kind === "auto") {
+      const merged = await trx("roof_versions")
+        .where({ roof_id: id, version: saved.version - 1, kind: "auto", saved_by: user.id })
+        .andWhere("saved_at", ">", trx.raw(`now() - make_interval(mins => ?)`, [AUTOSAVE_COALESCE_MINUTES]))
+        .update({ ...row, saved_at: trx.fn.now() });
+      if (merged) return { status: "ok", id, version: saved.version as number };
+    }
+    await trx("roof_versions").insert({ roof_id: id, ...row });
     return { status: "ok", id, version: saved.version as number };
   });
 }
@@ -260,7 +278,7 @@ export async function restoreVersion(user: SessionUser, id: string, version: num
   if (!isUuid(id)) return { status: "not-found" };
   const old = await db()("roof_versions").where({ roof_id: id, version }).first("name", "spec");
   if (!old) return { status: "not-found" };
-  return updateRoof(user, id, { name: old.name, spec: old.spec, version: expectedVersion });
+  return updateRoof(user, id, { name: old.name, spec: old.spec, version: expectedVersion, kind: "restored" });
 }
 
 /** Underlay image and placement live beside the spec and do not bump its version. */

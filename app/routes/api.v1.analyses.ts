@@ -11,7 +11,7 @@ export const ANALYSIS_BODY_LIMIT = 256 * 1024;
 /** Largest answer sent (docs/security.md): a 100 × 100 m roof with mesh and traces is about 7.4 MB. */
 export const ANALYSIS_ANSWER_MAX_BYTES = 10 * 1024 * 1024;
 /** Longest an analysis may take, waiting for a worker included. */
-export const ANALYSIS_TIMEOUT_MS = 15_000;
+export const ANALYSIS_TIMEOUT_MS = 30_000;
 
 const NO_STORE = { "Cache-Control": "no-store" };
 
@@ -27,7 +27,7 @@ const mb = (bytes: number) => `${(bytes / 1024 / 1024).toFixed(1)} MB`;
  * anonymous visitors, with a per-address budget charged by the work each analysis took
  * (rate-limit.server.ts, limitApiRequest). 415 unless JSON, 413 over 256 kB (counted as it is
  * read), 400 malformed, 422 cannot be built or the answer would be over 10 MB, 429 budget spent,
- * 503 the engine's workers are saturated or the analysis ran past 15 s; never 500. The roof is
+ * 503 the engine's workers are saturated or the analysis ran past 30 s; never 500. The roof is
  * checked, analysed and serialised in the engine's worker pool, so the event loop stays free.
  * The bulky 3D mesh and flow traces come only on request (`?mesh=true`, `?traces=true`).
  */

@@ -122,6 +122,10 @@ export function capBodySize(caps: BodyCaps = BODY_CAPS) {
       req.resume();
       if (err instanceof BodyTooLarge && !res.headersSent) refuse(res, max);
     });
+    // A client that goes away mid-body: the app's reader gets an error instead of waiting forever.
+    req.once("close", () => {
+      if (!req.readableEnded && !counted.destroyed) counted.destroy(new Error("the client closed the request before its body ended"));
+    });
     req.pipe(counted);
     res.locals.body = counted;
     next();
