@@ -1,4 +1,8 @@
+import { useMemo } from "react";
 import { RotateCcw } from "lucide-react";
+import { changedFixedKeys } from "~/lib/lessons/fixed-parts";
+import type { Locks } from "~/components/sandbox/store";
+import { LiveCriteria } from "./live-criteria";
 import type { RoofSpec } from "~/engine";
 import type { ItemResult } from "~/lib/lessons/grade";
 import type { LessonView } from "~/lib/lessons/types";
@@ -16,6 +20,22 @@ const EDITABLE_WORDS: Record<string, string> = {
   highLevel: "the high level",
   outline: "the outline",
 };
+
+/** The parts of a roof a task may leave open (lessons/README.md, `editable`). */
+const PARTS = ["outline", "edges", "outlets", "outletLevels", "baseFall", "joists", "highLevel"];
+
+/** What the task fixes, for the editor to lock: any edit that would change one of them is refused. */
+function taskLocks(task: LessonView["task"]): Locks {
+  const allowed = task.editable.map((e) => EDITABLE_WORDS[e] ?? e).join(", ");
+  return {
+    parts: PARTS.filter((p) => !task.editable.includes(p)),
+    why: `This task asks you to change only ${allowed}; the rest is the roof as given.`,
+    check(before, after) {
+      const already = new Set(changedFixedKeys(task, task.start, before));
+      return changedFixedKeys(task, task.start, after).filter((k) => !already.has(k));
+    },
+  };
+}
 
 function ResetRoof({ start }: { start: RoofSpec }) {
   return (
@@ -44,6 +64,7 @@ export function TaskPanel({
 }) {
   const byId = new Map((results ?? []).map((r) => [r.id, r]));
   const fixed = byId.get("fixed");
+  const locks = useMemo(() => taskLocks(task), [task]);
   return (
     <section aria-labelledby="task-heading" className="grid gap-4">
       <div>
@@ -87,6 +108,8 @@ export function TaskPanel({
         onSpecChange={onSpecChange}
         restoreKey={`fallwright:lesson:${slug}:${version.slice(0, 12)}`}
         toolbarExtra={<ResetRoof start={task.start} />}
+        locks={locks}
+        panel={<LiveCriteria task={task} />}
       />
     </section>
   );

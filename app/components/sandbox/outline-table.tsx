@@ -10,6 +10,8 @@ export function OutlineTable() {
   const store = useSandboxStore();
   const spec = useSandbox((s) => s.spec);
   const readOnly = useSandbox((s) => s.readOnly);
+  const outlineLocked = useSandbox((s) => !!s.locks?.parts.includes("outline"));
+  const edgesLocked = useSandbox((s) => !!s.locks?.parts.includes("edges"));
   const selection = useSandbox((s) => s.selection);
   const kinds = edgeKindsOf(spec);
   const n = spec.outline.length;
@@ -45,16 +47,16 @@ export function OutlineTable() {
               <tr key={i} className={selected ? "bg-accent-wash" : undefined}>
                 <th scope="row" className="w-8 border-b border-rule text-sm font-medium normal-case">{i + 1}</th>
                 <td className="w-24">
-                  <NumberField compact label={`Vertex ${i + 1} x`} value={p[0]} length="length" min={-1e6} max={1e6} disabled={readOnly}
+                  <NumberField compact label={`Vertex ${i + 1} x`} value={p[0]} length="length" min={-1e6} max={1e6} disabled={readOnly || outlineLocked}
                     onCommit={(v) => v != null && edit((s) => moveVertex(s, i, [v, s.outline[i][1]]))} testId={`vertex-${i}-x`} />
                 </td>
                 <td className="w-24">
-                  <NumberField compact label={`Vertex ${i + 1} y`} value={p[1]} length="length" min={-1e6} max={1e6} disabled={readOnly}
+                  <NumberField compact label={`Vertex ${i + 1} y`} value={p[1]} length="length" min={-1e6} max={1e6} disabled={readOnly || outlineLocked}
                     onCommit={(v) => v != null && edit((s) => moveVertex(s, i, [s.outline[i][0], v]))} testId={`vertex-${i}-y`} />
                 </td>
                 <td>
                   <label className="sr-only" htmlFor={`edge-kind-${i}`}>Edge {i + 1} to {((i + 1) % n) + 1} kind</label>
-                  <select id={`edge-kind-${i}`} className="field px-1.5 py-1" value={kinds[i]} disabled={readOnly}
+                  <select id={`edge-kind-${i}`} className="field px-1.5 py-1" value={kinds[i]} disabled={readOnly || edgesLocked}
                     onChange={(e) => changeKind(i, e.target.value as EdgeKind)}>
                     <option value="parapet">parapet</option>
                     <option value="eaves">eaves</option>

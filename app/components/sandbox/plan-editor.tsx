@@ -1,4 +1,5 @@
 import { useEffect, useId, useRef, useState, type KeyboardEvent, type PointerEvent } from "react";
+import { Lock } from "lucide-react";
 import type { Point } from "~/engine";
 import { PlanGrid } from "./plan-grid";
 import { PlanOverlays } from "./plan-overlays";
@@ -50,6 +51,13 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
   const [size, setSize] = useState({ w: 640, h: 440 });
   const [fit, setFit] = useState(0);
   const [cursor, setCursor] = useState<Point | null>(null);
+  const locks = useSandbox((s) => s.locks);
+  const outlineLocked = !!locks?.parts.includes("outline");
+  const edgesLocked = !!locks?.parts.includes("edges");
+  const outletsLocked = !!locks?.parts.includes("outlets");
+  /** A tap on a crowded spot: the handles under it, to choose from. */
+  const [choice, setChoice] = useState<{ left: number; top: number; items: Focus[] } | null>(null);
+  const pressed = useRef<{ x: number; y: number; moved: boolean; crowd: Focus[] } | null>(null);
 
   useEffect(() => {
     const svg = svgRef.current;
@@ -92,10 +100,26 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
   }
 
   // ── pointer: vertices and outlets ────────────────────────────────────────────
+  /** Every handle within reach of a plan point (outlets first: they are what tasks are about). */
+  function handlesAt(p: Point): Focus[] {
+    const s = store.getState().spec;
+    const reach = 12 * px;
+    const near = (q: Point) => Math.hypot(q[0] - p[0], q[1] - p[1]) <= reach;
+    return [
+      ...s.outlets.flatMap((o, k) => (near(o.at) ? [{ kind: "outlet" as const, index: k }] : [])),
+      ...s.outline.flatMap((q, i) => (near(q) ? [{ kind: "vertex" as const, index: i }] : [])),
+    ];
+  }
+
   function startDrag(e: PointerEvent<SVGElement>, target: Drag) {
     e.stopPropagation();
+    setChoice(null);
     store.getState().select(target);
+    const at = target.kind === "outlet" ? store.getState().spec.outlets[target.index]?.at : store.getState().spec.outline[target.index];
+    pressed.current = { x: e.clientX, y: e.clientY, moved: false, crowd: at ? handlesAt(at) : [] };
     if (readOnly || e.button !== 0) return;
+    if (target.kind === "vertex" && outlineLocked) return;
+    if (target.kind === "outlet" && outletsLocked) return;
     e.currentTarget.setPointerCapture(e.pointerId);
     drag.current = target;
   }
@@ -103,6 +127,12 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
   function moveDrag(e: PointerEvent<SVGElement>) {
     const d = drag.current;
     if (!d) return;
+    const press = pressed.current;
+    if (press && !press.moved) {
+      // A tap is not a drag: the handle moves only once the pointer has travelled a few pixels.
+      if (Math.hypot(e.clientX - press.x, e.clientY - press.y) < 4) return;
+      press.moved = true;
+    }
     const p = toPlan(e.clientX, e.clientY);
     if (d.kind === "vertex") {
       store.getState().edit((s) => moveVertex(s, d.index, snapVertex(p, s.outline, d.index, snap)), { gesture: `vertex-${d.index}` });
@@ -120,6 +150,12 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
   }
 
   function endDrag(e: PointerEvent<SVGElement>) {
+    const press = pressed.current;
+    pressed.current = null;
+    if (press && !press.moved && press.crowd.length > 1) {
+      const box = svgRef.current?.getBoundingClientRect();
+      if (box) setChoice({ left: press.x - box.left, top: press.y - box.top, items: press.crowd });
+    }
     if (!drag.current) return;
     if (e.currentTarget.hasPointerCapture(e.pointerId)) e.currentTarget.releasePointerCapture(e.pointerId);
     drag.current = null;
@@ -246,8 +282,17 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
   const sp = (p: Point) => [p[0], -p[1]] as const;
   const poly = spec.outline.map((p) => `${p[0]},${-p[1]}`).join(" ");
 
+  const lockedWords = (locks?.parts ?? []).map((k) => LOCK_WORDS[k] ?? k);
   return (
     <div className="relative">
+      {locks && lockedWords.length ? (
+        <p className="mb-2 flex items-start gap-2 rounded border border-rule bg-paper px-2 py-1 text-sm" data-testid="task-locks">
+          <Lock aria-hidden="true" className="mt-0.5 h-4 w-4 shrink-0" />
+          <span>
+            <strong>Fixed by this task:</strong> {lockedWords.join(", ")}. {locks.why}
+          </span>
+        </p>
+      ) : null}
       <svg
         ref={svgRef}
         role="group"
@@ -330,6 +375,49 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
           );
         })}
 
+        {spec.outline.map((p, i) => {
+          const [x, y] = sp(p);
+          const selected = isSelected("vertex", i);
+          return (
+            <g
+              key={`v${i}`}
+              data-handle={`vertex-${i}`}
+              tabIndex={0}
+              role="button"
+              aria-label={`Vertex ${i + 1} at x ${len_(p[0])}, y ${len_(p[1])}${outlineLocked ? ", fixed by this task" : ""}`}
+              aria-describedby={helpId}
+              aria-disabled={outlineLocked || undefined}
+              data-locked={outlineLocked || undefined}
+              className={`${readOnly ? "" : outlineLocked ? "cursor-not-allowed" : "cursor-move"} outline-none`}
+              onPointerDown={(e) => startDrag(e, { kind: "vertex", index: i })}
+              onPointerMove={moveDrag}
+              onPointerUp={endDrag}
+              onPointerCancel={endDrag}
+              onFocus={() => store.getState().select({ kind: "vertex", index: i })}
+              onKeyDown={(e) => vertexKey(e, i)}
+              onKeyUp={keyUp}
+              data-testid={`vertex-${i}`}
+            >
+              <rect x={x - handle * 1.6} y={y - handle * 1.6} width={handle * 3.2} height={handle * 3.2} fill="transparent" />
+              <rect
+                x={x - handle}
+                y={y - handle}
+                width={handle * 2}
+                height={handle * 2}
+                fill={selected ? "var(--color-accent)" : outlineLocked ? "var(--color-paper-deep)" : "var(--color-sheet)"}
+                stroke={outlineLocked ? "var(--color-ink-soft)" : "var(--color-ink)"}
+                strokeWidth={2}
+                strokeDasharray={outlineLocked ? "2 2" : undefined}
+                vectorEffect="non-scaling-stroke"
+              />
+              {outlineLocked ? <Lock x={x - handle * 0.8} y={y - handle * 0.8} width={handle * 1.6} height={handle * 1.6} strokeWidth={3} color="var(--color-ink-soft)" aria-hidden="true" /> : null}
+              <text x={x - handle * 1.4} y={y - handle * 1.4} fontSize={font} textAnchor="end" fill="var(--color-ink)" pointerEvents="none">
+                {i + 1}
+              </text>
+            </g>
+          );
+        })}
+        {/* Outlets are drawn last, over corners: where the two overlap, the outlet is what a drag takes. */}
         {spec.outlets.map((o, k) => {
           const [x, y] = sp(o.at);
           const selected = isSelected("outlet", k);
@@ -361,48 +449,42 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
           );
         })}
 
-        {spec.outline.map((p, i) => {
-          const [x, y] = sp(p);
-          const selected = isSelected("vertex", i);
-          return (
-            <g
-              key={`v${i}`}
-              data-handle={`vertex-${i}`}
-              tabIndex={0}
-              role="button"
-              aria-label={`Vertex ${i + 1} at x ${len_(p[0])}, y ${len_(p[1])}`}
-              aria-describedby={helpId}
-              className={`${readOnly ? "" : "cursor-move"} outline-none`}
-              onPointerDown={(e) => startDrag(e, { kind: "vertex", index: i })}
-              onPointerMove={moveDrag}
-              onPointerUp={endDrag}
-              onPointerCancel={endDrag}
-              onFocus={() => store.getState().select({ kind: "vertex", index: i })}
-              onKeyDown={(e) => vertexKey(e, i)}
-              onKeyUp={keyUp}
-              data-testid={`vertex-${i}`}
-            >
-              <rect x={x - handle * 1.6} y={y - handle * 1.6} width={handle * 3.2} height={handle * 3.2} fill="transparent" />
-              <rect
-                x={x - handle}
-                y={y - handle}
-                width={handle * 2}
-                height={handle * 2}
-                fill={selected ? "var(--color-accent)" : "var(--color-sheet)"}
-                stroke="var(--color-ink)"
-                strokeWidth={2}
-                vectorEffect="non-scaling-stroke"
-              />
-              <text x={x - handle * 1.4} y={y - handle * 1.4} fontSize={font} textAnchor="end" fill="var(--color-ink)" pointerEvents="none">
-                {i + 1}
-              </text>
-            </g>
-          );
-        })}
       </svg>
       <div className="pointer-events-none absolute bottom-1 left-2 text-[11px] tabular-nums text-ink-soft" aria-hidden="true">
         {cursor ? `x ${len_(cursor[0])} · y ${len_(cursor[1])}` : `grid ${view.gridStep >= 1 ? len_(view.gridStep) : level_(view.gridStep)}`}
       </div>
+      {choice ? (
+        <div
+          role="menu"
+          aria-label="Several handles here: choose one"
+          className="absolute z-10 grid gap-1 rounded border border-rule bg-sheet p-1 text-sm shadow"
+          style={{ left: choice.left + 8, top: choice.top + 8 }}
+          data-testid="handle-choice"
+        >
+          {choice.items.map((h) => {
+            const locked = (h.kind === "vertex" && outlineLocked) || (h.kind === "outlet" && outletsLocked);
+            const label = `${h.kind === "outlet" ? "Outlet" : "Corner"} ${h.index + 1}${locked ? " (fixed by this task)" : ""}`;
+            return (
+              <button
+                key={`${h.kind}-${h.index}`}
+                type="button"
+                role="menuitem"
+                className="btn justify-start px-2 py-0.5 text-left text-xs"
+                onClick={() => {
+                  setChoice(null);
+                  store.getState().select(h.kind === "edge" ? null : h);
+                  svgRef.current?.querySelector<SVGElement>(`[data-handle="${h.kind}-${h.index}"]`)?.focus();
+                }}
+              >
+                {label}
+              </button>
+            );
+          })}
+          <button type="button" className="px-2 py-0.5 text-left text-xs underline" onClick={() => setChoice(null)}>
+            Cancel
+          </button>
+        </div>
+      ) : null}
       <button type="button" className="btn absolute right-2 top-2 px-2 py-0.5 text-xs" onClick={() => setFit((f) => f + 1)}>
         Fit
       </button>
@@ -414,6 +496,16 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
     </div>
   );
 }
+
+const LOCK_WORDS: Record<string, string> = {
+  outline: "the outline (corners)",
+  edges: "the edge kinds",
+  outlets: "the outlets",
+  outletLevels: "outlet levels",
+  baseFall: "the base fall",
+  joists: "the joists",
+  highLevel: "the high level",
+};
 
 function nearestParapetEdge(outline: Point[], kinds: string[], p: Point): number {
   let best = -1;

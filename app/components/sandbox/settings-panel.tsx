@@ -21,6 +21,8 @@ export function SettingsPanel() {
   const store = useSandboxStore();
   const spec = useSandbox((s) => s.spec);
   const readOnly = useSandbox((s) => s.readOnly);
+  const locked = useSandbox((s) => s.locks?.parts);
+  const fixed = (part: string) => readOnly || !!locked?.includes(part);
   const analysis = useSandbox((s) => s.analysis);
   const ruleSets = useSandbox((s) => s.ruleSets);
   const ruleSet = spec.ruleSet ?? "common-practice";
@@ -34,23 +36,23 @@ export function SettingsPanel() {
   return (
     <div className="grid gap-4" data-testid="settings">
       <Group title="Falls">
-        <FallField label="Base fall" value={spec.baseFall} disabled={readOnly} testId="base-fall"
+        <FallField label={fixed("baseFall") && !readOnly ? "Base fall (fixed by the task)" : "Base fall"} value={spec.baseFall} disabled={fixed("baseFall")} testId="base-fall"
           onCommit={(v) => v && edit((s) => ({ ...s, baseFall: v }))} />
         <FallField label="Minimum fall" value={spec.minFall} optional disabled={readOnly}
           placeholder={analysis ? formatRatio(analysis.minFall.ratio) : "1:100"} testId="min-fall"
           onCommit={(v) => edit((s) => ({ ...s, minFall: v }))} />
-        <NumberField label="High level" length="level" unit="mm" scale={1000} digits={0} optional value={spec.highLevel} disabled={readOnly}
+        <NumberField label="High level" length="level" unit="mm" scale={1000} digits={0} optional value={spec.highLevel} disabled={fixed("highLevel")}
           min={-100000} max={100000}
           placeholder={analysis && analysis.shaped.highLevelSource === "derived" ? `auto: ${hint(analysis.shaped.highLevel)}` : "auto"}
           hint="Empty: derived from the base fall" testId="high-level"
           onCommit={(v) => edit((s) => ({ ...s, highLevel: v }))} />
       </Group>
-      <Group title="Joists">
+      <Group title={fixed("joists") && !readOnly ? "Joists (fixed by the task)" : "Joists"}>
         <NumberField label="Spacing" length="level" unit="mm" scale={1000} digits={0} value={joists.spacing} optional placeholder={hint(0.4)}
-          min={50} max={20000} disabled={readOnly} testId="joist-spacing"
+          min={50} max={20000} disabled={fixed("joists")} testId="joist-spacing"
           onCommit={(v) => edit((s) => ({ ...s, joists: { ...s.joists, spacing: v } }))} />
         <NumberField label="Direction" unit="° from x" digits={1} value={degreesOf(joists.direction)} optional
-          placeholder={autoAngle != null ? `auto: ${autoAngle.toFixed(0)}` : "auto"} min={0} max={360} disabled={readOnly}
+          placeholder={autoAngle != null ? `auto: ${autoAngle.toFixed(0)}` : "auto"} min={0} max={360} disabled={fixed("joists")}
           hint="Empty: square to the first outlet's edge" testId="joist-direction"
           onCommit={(v) =>
             edit((s) => {
@@ -61,10 +63,10 @@ export function SettingsPanel() {
           } />
         <NumberField label="First joist offset" length="length" unit="m" value={joists.fromOutlets ? undefined : joists.offset} optional
           placeholder={joists.fromOutlets && analysis ? `from outlets: ${hint(analysis.shaped.setOut.offset)}` : "0"} min={0} max={100000}
-          disabled={readOnly || joists.fromOutlets === true} testId="joist-offset"
+          disabled={fixed("joists") || joists.fromOutlets === true} testId="joist-offset"
           onCommit={(v) => edit((s) => ({ ...s, joists: { ...s.joists, offset: v } }))} />
         <label className="col-span-2 flex items-start gap-2 text-sm sm:col-span-3">
-          <input type="checkbox" className="mt-1" checked={joists.fromOutlets === true} disabled={readOnly} data-testid="joists-from-outlets"
+          <input type="checkbox" className="mt-1" checked={joists.fromOutlets === true} disabled={fixed("joists")} data-testid="joists-from-outlets"
             onChange={(e) => {
               const on = e.target.checked;
               edit((s) => ({ ...s, joists: { ...s.joists, fromOutlets: on || undefined } }));

@@ -31,6 +31,18 @@ export interface ViewSettings {
   highlightFallLine: boolean;
 }
 
+/**
+ * What a lesson task fixes, held by the editor: the parts listed cannot be changed by any edit
+ * (mouse, keyboard, tables, settings), and `why` says so on screen.
+ */
+export interface Locks {
+  /** Spec parts that are fixed: "outline", "edges", "outlets", "baseFall", "joists", "highLevel", … */
+  parts: string[];
+  why: string;
+  /** Which fixed parts an edit would change (empty: allowed). */
+  check: (before: RoofSpec, after: RoofSpec) => string[];
+}
+
 export interface EngineError {
   status: number;
   message: string;
@@ -52,6 +64,7 @@ export interface SandboxState {
   engineError: EngineError | null;
   computing: boolean;
   readOnly: boolean;
+  locks: Locks | null;
   /** The page's engine (a worker); null until the page runs in a browser. */
   engine: EngineClient | null;
   /** Rule sets the engine knows, for the picker (empty until the engine answers). */
@@ -94,7 +107,7 @@ export type SandboxStore = StoreApi<SandboxState>;
  * the selection, view settings and the engine's latest answer. The engine runs in the browser
  * only (a worker), so the first render, on the server and in the browser alike, has no analysis yet.
  */
-export function createSandboxStore(initialSpec: RoofSpec, options: { readOnly?: boolean; view?: Partial<ViewSettings> } = {}) {
+export function createSandboxStore(initialSpec: RoofSpec, options: { readOnly?: boolean; view?: Partial<ViewSettings>; locks?: Locks | null } = {}) {
   return createStore<SandboxState>()((set, get) => ({
     spec: initialSpec,
     past: [],
@@ -107,6 +120,7 @@ export function createSandboxStore(initialSpec: RoofSpec, options: { readOnly?: 
     engineError: null,
     computing: true,
     readOnly: options.readOnly ?? false,
+    locks: options.locks ?? null,
     engine: null,
     ruleSets: [],
     notice: null,
@@ -115,6 +129,12 @@ export function createSandboxStore(initialSpec: RoofSpec, options: { readOnly?: 
       if (readOnly) return;
       const next = recipe(spec);
       if (next === spec) return;
+      const locks = get().locks;
+      const broken = locks ? locks.check(spec, next) : [];
+      if (broken.length) {
+        set({ notice: `The ${broken.join(", ")} ${broken.length === 1 ? "is" : "are"} fixed by this task and cannot be changed. ${locks!.why}` });
+        return;
+      }
       const continuing = gesture != null && gesture === get().gesture;
       set({
         spec: next,

@@ -12,7 +12,7 @@ import { PlanEditor } from "./plan-editor";
 import { ResultsPanel } from "./results-panel";
 import { SceneSummary } from "./scene-summary";
 import { SettingsPanel } from "./settings-panel";
-import { createSandboxStore, SandboxStoreContext, useSandbox, type SandboxStore, type ViewSettings } from "./store";
+import { createSandboxStore, SandboxStoreContext, useSandbox, type Locks, type SandboxStore, type ViewSettings } from "./store";
 import { Toolbar } from "./toolbar";
 import type { Underlay } from "./underlay";
 import { useEngine } from "./use-engine";
@@ -41,6 +41,10 @@ export interface SandboxWorkspaceProps {
   restore?: boolean;
   /** Opening view settings (e.g. a lesson that starts in side-by-side). */
   initialView?: Partial<ViewSettings>;
+  /** What a lesson task fixes: those parts cannot be edited, and a lock says why. */
+  locks?: Locks | null;
+  /** Shown above the workspace, inside its store (e.g. a task's live criteria). */
+  panel?: React.ReactNode;
 }
 
 function Card({ title, children, aside, className = "", testId }: { title: string; children: React.ReactNode; aside?: React.ReactNode; className?: string; testId?: string }) {
@@ -67,8 +71,8 @@ const loading3d = <div className="flex h-full items-center justify-center text-s
  * The sandbox: plan editor, 3D fall map (or side-by-side), key figures, inputs, results and the
  * drop schedule around one per-page store. Used by /sandbox, and by saved roofs and lessons.
  */
-export function SandboxWorkspace({ initialSpec, onSpecChange, readOnly = false, underlay, toolbarExtra, restoreKey, restore = true, initialView }: SandboxWorkspaceProps) {
-  const [store] = useState<SandboxStore>(() => createSandboxStore(initialSpec, { readOnly, view: initialView }));
+export function SandboxWorkspace({ initialSpec, onSpecChange, readOnly = false, underlay, toolbarExtra, restoreKey, restore = true, initialView, locks, panel }: SandboxWorkspaceProps) {
+  const [store] = useState<SandboxStore>(() => createSandboxStore(initialSpec, { readOnly, view: initialView, locks }));
   useEngine(store);
   useUndoShortcuts(store);
   useSessionSpec(store, restoreKey, restore);
@@ -87,6 +91,7 @@ export function SandboxWorkspace({ initialSpec, onSpecChange, readOnly = false, 
   return (
     <SandboxStoreContext.Provider value={store}>
       <WorkspaceUnits>
+        {panel}
         <Layout underlay={underlay} toolbarExtra={toolbarExtra} />
       </WorkspaceUnits>
     </SandboxStoreContext.Provider>

@@ -179,3 +179,17 @@ export const CRITERION_KINDS = {
 
 export type CriterionKindId = keyof typeof CRITERION_KINDS;
 export const CRITERION_KIND_IDS = Object.keys(CRITERION_KINDS) as [CriterionKindId, ...CriterionKindId[]];
+
+/**
+ * Measures one criterion on an analysed roof and says whether it is met. Shared by the server's
+ * grading and the lesson editor's live feedback (the server's grade is the one that counts).
+ */
+export function checkCriterion(c: { kind: CriterionKindId; limit: number }, analysis: Analysis, spec: RoofSpec): { passed: boolean; measured: Measured } {
+  const kind = CRITERION_KINDS[c.kind];
+  const measured = kind.measure(analysis, spec);
+  const v = measured.value;
+  // Ratios and levels from the engine carry float noise: a roof exactly at the limit passes.
+  const slack = 1e-9 * Math.max(1, Math.abs(c.limit));
+  const passed = v != null && (kind.compare === "atMost" ? v <= c.limit + slack : v >= c.limit - slack);
+  return { passed, measured };
+}

@@ -2,12 +2,16 @@
  * Grading, pure: quiz answers through mathjs units and tolerances; roof tasks by running the
  * engine again on the submitted spec. The browser's own figures are never trusted.
  */
-import { analyse, formatRatio, parseFall, parseSpec } from "../../engine";
+import { analyse, formatRatio, parseSpec } from "../../engine";
 import type { Analysis, RoofSpec } from "../../engine/types";
-import { CRITERION_KINDS, formatLimit } from "./criteria";
+import { checkCriterion, CRITERION_KINDS, formatLimit } from "./criteria";
+import { changedFixedKeys } from "./fixed-parts";
 import { cappedScore } from "./grading-rule";
 import { dimensionName, parseQuantity, parseRatio, quantityOf, sameDimension, valueIn } from "./quantity";
 import type { Criterion, FrontMatter, Question, Task } from "./schema";
+
+export { changedFixedKeys } from "./fixed-parts";
+export { failedRequiredOf } from "./grading-rule";
 
 /** One graded item: a quiz question or a task criterion. `score` is the points earned (0..weight). */
 export interface ItemResult {
@@ -120,87 +124,12 @@ export function criterionLabel(c: Criterion): string {
 }
 
 export function gradeCriterion(c: Criterion, analysis: Analysis, spec: RoofSpec): ItemResult {
-  const kind = CRITERION_KINDS[c.kind];
-  const measured = kind.measure(analysis, spec);
+  const { passed, measured } = checkCriterion(c, analysis, spec);
   const label = criterionLabel(c);
-  const v = measured.value;
-  const slack = EPS * Math.max(1, Math.abs(c.limit));
-  const passed = v != null && (kind.compare === "atMost" ? v <= c.limit + slack : v >= c.limit - slack);
   const feedback = passed
     ? `Measured: ${measured.text}.`
     : `Measured: ${measured.text}. Needed: ${label.charAt(0).toLowerCase()}${label.slice(1)}.${c.hint ? ` ${c.hint}` : ""}`;
   return { id: c.id, section: "task", label, passed, score: passed ? c.weight : 0, weight: c.weight, feedback, measured: measured.text, required: c.required || undefined };
-}
-
-const near = (a: number, b: number) => Math.abs(a - b) <= 1e-6 * Math.max(1, Math.abs(a), Math.abs(b));
-
-function samePoints(a: unknown, b: unknown): boolean {
-  if (!Array.isArray(a) || !Array.isArray(b)) return a === b;
-  const strip = (pts: unknown[]) => {
-    const p = pts as [number, number][];
-    // A repeated closing point is the same outline.
-    return p.length > 3 && near(p[0][0], p[p.length - 1][0]) && near(p[0][1], p[p.length - 1][1]) ? p.slice(0, -1) : p;
-  };
-  const x = strip(a);
-  const y = strip(b);
-  return x.length === y.length && x.every((p, i) => near(p[0], y[i][0]) && near(p[1], y[i][1]));
-}
-
-function fallRatio(v: string | number | undefined): number | null {
-  if (v === undefined) return null;
-  const r = parseFall(v);
-  return r.ok ? r.ratio : null;
-}
-
-/**
- * Which fixed parts of the task's roof the trainee changed. Defaults count as given (an edge list
- * of all parapets equals no edge list), so an editor that writes defaults out is not penalised.
- */
-export function changedFixedKeys(task: Pick<Task, "editable">, start: RoofSpec, submitted: RoofSpec): string[] {
-  const editable = new Set<string>(task.editable);
-  const changed: string[] = [];
-  if (!editable.has("outline") && !samePoints(start.outline, submitted.outline)) changed.push("outline");
-  if (!editable.has("edges")) {
-    const n = start.outline.length;
-    const norm = (e: RoofSpec["edges"], count: number) => Array.from({ length: count }, (_, i) => e?.[i] ?? "parapet");
-    const count = Math.max(n, submitted.outline.length);
-    if (norm(start.edges, count).join() !== norm(submitted.edges, count).join()) changed.push("edges");
-  }
-  if (!editable.has("baseFall") && !near(fallRatio(start.baseFall) ?? 0, fallRatio(submitted.baseFall) ?? -1)) changed.push("baseFall");
-  if (!editable.has("highLevel") && (start.highLevel ?? null) !== (submitted.highLevel ?? null)) {
-    if (start.highLevel == null || submitted.highLevel == null || !near(start.highLevel, submitted.highLevel)) changed.push("highLevel");
-  }
-  if (!editable.has("joists")) {
-    const a = start.joists ?? {};
-    const b = submitted.joists ?? {};
-    const sameNum = (x: number | undefined, y: number | undefined, d: number) => near(x ?? d, y ?? d);
-    const dirA = a.direction;
-    const dirB = b.direction;
-    const dirSame = !dirA ? !dirB || dirB === dirA : !!dirB && near(dirA[0] / Math.hypot(...dirA), dirB[0] / Math.hypot(...dirB)) && near(dirA[1] / Math.hypot(...dirA), dirB[1] / Math.hypot(...dirB));
-    if (!sameNum(a.spacing, b.spacing, 0.4) || !sameNum(a.offset, b.offset, 0) || !dirSame) changed.push("joists");
-  }
-  if (!editable.has("outletLevels") && submitted.outlets.some((o) => o.level !== undefined && !near(o.level, 0))) {
-    const startLevels = new Set(start.outlets.map((o) => o.level ?? 0));
-    if (submitted.outlets.some((o) => !startLevels.has(o.level ?? 0))) changed.push("outlet levels");
-  }
-  if (!editable.has("outlets") && !samePoints(start.outlets.map((o) => o.at), submitted.outlets.map((o) => o.at))) changed.push("outlets");
-  if (!editable.has("openings")) {
-    const rings = (sp: RoofSpec) => sp.openings ?? [];
-    const a = rings(start);
-    const b = rings(submitted);
-    const same =
-      a.length === b.length &&
-      a.every((o, i) => samePoints(o.outline, b[i].outline) && (o.kind ?? "other") === (b[i].kind ?? "other") && near(o.upstand ?? 0.15, b[i].upstand ?? 0.15));
-    if (!same) changed.push("openings");
-  }
-  const minA = fallRatio(start.minFall ?? "1:100");
-  const minB = fallRatio(submitted.minFall ?? "1:100");
-  if (minA !== minB && !(minA != null && minB != null && near(minA, minB))) changed.push("minimum fall");
-  if ((start.rainfall?.intensity ?? null) !== (submitted.rainfall?.intensity ?? null)) changed.push("rainfall");
-  if ((start.ruleSet ?? "common-practice") !== (submitted.ruleSet ?? "common-practice")) changed.push("rule set");
-  const g = (s: RoofSpec) => JSON.stringify([s.gutter?.width ?? null, s.gutter?.depth ?? null, s.gutter?.fall == null ? null : fallRatio(s.gutter.fall)]);
-  if (g(start) !== g(submitted)) changed.push("gutter");
-  return changed;
 }
 
 const KEY_WORDS: Record<string, string> = { baseFall: "base fall", highLevel: "high level", outline: "outline", edges: "edge kinds", joists: "joists", outlets: "outlets" };
@@ -234,11 +163,6 @@ export function gradeTask(task: Task, submitted: unknown): TaskGrade {
     });
   }
   return { ok: true, items, analysis, spec };
-}
-
-/** Labels of the required items an attempt did not meet (quiz or task). */
-export function failedRequiredOf(result: Pick<GradeResult, "quiz" | "task">): string[] {
-  return [...result.task, ...result.quiz].filter((i) => i.required && !i.passed).map((i) => i.label);
 }
 
 /** Grades a whole lesson attempt: every question and the roof task, by the rule in grading-rule.ts. */

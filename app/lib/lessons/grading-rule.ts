@@ -85,3 +85,8 @@ export function overrideProblem(o: { score: number; passed: boolean }, passMark:
   if (!o.passed && o.score >= passMark) return `A score of ${passMark} or more passes; lower it below ${passMark} or choose Passed.`;
   return null;
 }
+
+/** Labels of the required items an attempt did not meet (quiz or task). */
+export function failedRequiredOf(result: { quiz: { required?: boolean; passed: boolean; label: string }[]; task: { required?: boolean; passed: boolean; label: string }[] }): string[] {
+  return [...result.task, ...result.quiz].filter((i) => i.required && !i.passed).map((i) => i.label);
+}

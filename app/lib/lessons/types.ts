@@ -1,5 +1,6 @@
 /** Shapes the lesson pages receive from their loaders (safe for the browser: no answers, no reference roofs). */
 import type { RoofSpec } from "../../engine";
+import type { CriterionKindId } from "./criteria";
 import type { Figure } from "./schema";
 
 /** A lesson figure, drawn from the engine's output on the server and sent as plain shapes. */
@@ -47,7 +48,7 @@ export interface LessonView extends LessonSummary {
     goalHtml: string;
     start: RoofSpec;
     editable: string[];
-    criteria: { id: string; label: string; weight: number; required: boolean }[];
+    criteria: { id: string; kind: CriterionKindId; limit: number; label: string; weight: number; required: boolean }[];
     hints: string[];
   };
 }

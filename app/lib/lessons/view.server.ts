@@ -44,7 +44,8 @@ export function lessonView(l: Lesson): LessonView {
       goalHtml: renderMarkdown(l.task.goal),
       start: l.task.start as RoofSpec,
       editable: l.task.editable,
-      criteria: l.task.criteria.map((c) => ({ id: c.id, label: criterionLabel(c), weight: c.weight, required: c.required })),
+      // Kind and limit too: the editor measures each criterion live (the server's grade still counts).
+      criteria: l.task.criteria.map((c) => ({ id: c.id, kind: c.kind, limit: c.limit, label: criterionLabel(c), weight: c.weight, required: c.required })),
       hints: l.task.hints,
     },
   };

@@ -1,0 +1,80 @@
+import { expect, test, type Page } from "@playwright/test";
+
+// Issue 16, items 2 and 3: in lesson 3 the outlet sits on a corner; the task fixes the outline, so
+// the corner is locked (mouse and keyboard), the outlet wins the drag, a tap on the crowded spot
+// offers a choice, and the live checks turn met as the roof is fixed.
+const LESSON = { slug: "outlets-and-overflows", title: "Outlets, overflows and scuppers" };
+
+async function signIn(page: Page, email: string) {
+  await page.goto(`/login?redirectTo=${encodeURIComponent(`/lessons/${LESSON.slug}`)}`);
+  await page.getByLabel("E-mail").fill(email);
+  await page.getByLabel("Password").fill("fallwright-demo");
+  await page.getByRole("button", { name: "Sign in" }).click();
+  await expect(page).toHaveURL(new RegExp(`/lessons/${LESSON.slug}$`));
+}
+
+async function centre(page: Page, testId: string) {
+  const box = await page.getByTestId(testId).boundingBox();
+  if (!box) throw new Error(`${testId} has no box`);
+  return { x: box.x + box.width / 2, y: box.y + box.height / 2 };
+}
+
+test("lesson 3: the locked outline stays put by mouse and keyboard; a tap on the crowded corner offers the outlet, which moves as the hints say; the live checks turn met", async ({ page }) => {
+  test.setTimeout(300_000);
+  await signIn(page, "trainee4@tidemark.example");
+  const plan = page.getByTestId("plan");
+  await expect(plan).toBeVisible();
+  await expect(page.getByTestId("task-locks")).toContainText("Fixed by this task: the outline (corners)");
+  await expect(page.getByTestId("task-locks")).toContainText("change only the outlets");
+
+  // Live checks on the starting roof, measured in the browser.
+  const fallLine = page.getByTestId("live-fall-line");
+  // The engine (a worker) loads with the page; on a busy machine that takes a while.
+  await expect(fallLine).toHaveAttribute("data-state", "not-met", { timeout: 60_000 });
+  await expect(fallLine).toContainText("1:134.2");
+  await expect(page.getByTestId("live-fixed")).toHaveAttribute("data-state", "met");
+
+  // The corner at (18, 0) cannot be dragged…
+  await expect(page.getByLabel("Vertex 2 x")).toBeDisabled();
+  const corner = await centre(page, "vertex-1");
+  await page.mouse.move(corner.x, corner.y);
+  await page.mouse.down();
+  await page.mouse.move(corner.x - 60, corner.y - 40, { steps: 8 });
+  await page.mouse.up();
+  await expect(page.getByLabel("Vertex 2 x")).toHaveValue(/^18(\.0+)?$/);
+  // …nor moved by keyboard; the refusal says why.
+  await page.getByTestId("vertex-1").focus();
+  await page.keyboard.press("ArrowLeft");
+  await page.keyboard.press("Shift+ArrowUp");
+  await expect(page.getByText(/outline is fixed by this task/).first()).toBeVisible();
+  await expect(page.getByLabel("Vertex 2 x")).toHaveValue(/^18(\.0+)?$/);
+  await expect(page.getByLabel("Vertex 2 y")).toHaveValue(/^0(\.0+)?$/);
+  await expect(page.getByTestId("live-fixed")).toHaveAttribute("data-state", "met");
+
+  // A tap on the crowded corner offers a choice between the outlet and the (locked) corner.
+  const outlet = await centre(page, "outlet-0");
+  await page.mouse.click(outlet.x, outlet.y);
+  const choice = page.getByTestId("handle-choice");
+  await expect(choice.getByRole("menuitem", { name: "Outlet 1" })).toBeVisible();
+  await expect(choice.getByRole("menuitem", { name: "Corner 1 (fixed by this task)" })).toBeVisible();
+  // Choosing the outlet focuses it; the arrow keys slide it along the front edge while the corner stays.
+  await choice.getByRole("menuitem", { name: "Outlet 1" }).click();
+  await expect(page.getByTestId("outlet-0")).toBeFocused();
+  for (let i = 0; i < 3; i++) await page.keyboard.press("Shift+ArrowRight");
+  await expect(page.getByLabel("Outlet 1 x")).not.toHaveValue(/^0(\.0+)?$/);
+  await expect(page.getByLabel("Outlet 1 y")).toHaveValue(/^0(\.0+)?$/);
+  await expect(page.getByLabel("Vertex 1 x")).toHaveValue(/^0(\.0+)?$/);
+  // Hint 1's other way: type its position in the outlet table, the middle of the front edge.
+  const x = page.getByLabel("Outlet 1 x");
+  await x.fill("9");
+  await x.press("Tab");
+  await expect(fallLine).toHaveAttribute("data-state", "met");
+  await expect(page.getByTestId("live-one-outlet")).toHaveAttribute("data-state", "met");
+  await expect(page.getByTestId("live-fixed")).toHaveAttribute("data-state", "met");
+
+  // The server's grade agrees.
+  await page.getByRole("button", { name: "Submit answers and roof" }).click();
+  await expect(page.getByTestId("feedback-task-fall-line")).toContainText("Met");
+  await expect(page.getByTestId("feedback-task-one-outlet")).toContainText("Met");
+  await expect(page.getByTestId("score-summary")).not.toContainText("A required check was not met");
+});
