@@ -10,7 +10,13 @@ import {
 } from "react-router";
 import type { Route } from "./+types/root";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
+import { pickLocale } from "~/lib/when";
 import "./app.css";
+
+/** The reader's locale for dates, so server and browser write them alike. */
+export function loader({ request }: Route.LoaderArgs) {
+  return { locale: pickLocale(request.headers.get("accept-language")) };
+}
 
 export const links: Route.LinksFunction = () => [{ rel: "icon", href: "/favicon.ico" }];
 
