@@ -72,8 +72,9 @@ export default function AdminAudit() {
                 <tr key={r.id}>
                   <td className="whitespace-nowrap"><When iso={r.at} /></td>
                   <td className={r.action === "sign_in_failed" || r.action === "sign_in_limited" ? "text-bad" : undefined}>{AUDIT_ACTIONS[r.action] ?? r.action}</td>
-                  <td>{r.actorEmail ?? "—"}</td>
-                  <td>{r.subjectEmail ?? "—"}</td>
+                  {/* Addresses break only where they must (never at their hyphens): see .email in app.css. */}
+                  <td className="email">{r.actorEmail ?? "—"}</td>
+                  <td className="email">{r.subjectEmail ?? "—"}</td>
                   <td>{describe(r.detail, r.subjectEmail)}</td>
                   <td className="text-ink-soft">{r.ip ?? "—"}</td>
                 </tr>
