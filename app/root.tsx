@@ -1,13 +1,17 @@
 import { Links, Meta, Outlet, Scripts, ScrollRestoration } from "react-router";
 import type { Route } from "./+types/root";
 import { GeneralErrorBoundary, useMarkHydrated } from "~/components/error-boundary";
+import { pickLocale } from "~/lib/when";
 import "./app.css";
 
 export const links: Route.LinksFunction = () => [{ rel: "icon", href: "/favicon.ico" }];
 
-/** The page load's request id, which the error page quotes; it names the load, so it is never revalidated. */
-export function loader({ context }: Route.LoaderArgs) {
-  return { requestId: context?.requestId ?? null };
+/**
+ * The page load's request id, which the error page quotes (it names the load, so it is never
+ * revalidated), and the reader's locale for dates, so server and browser write them alike.
+ */
+export function loader({ request, context }: Route.LoaderArgs) {
+  return { requestId: context?.requestId ?? null, locale: pickLocale(request.headers.get("accept-language")) };
 }
 
 export function shouldRevalidate() {

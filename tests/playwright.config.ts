@@ -11,6 +11,8 @@ export default defineConfig({
   reporter: [["list"], ["json", { outputFile: `../${process.env.TEST_RESULTS_DIR ?? ".data/test-results"}/playwright.json` }]],
   use: {
     baseURL: process.env.E2E_BASE_URL ?? "http://127.0.0.1:3107",
+    // Dates follow the browser's language (app/lib/when.ts); one fixed locale keeps the tests' text fixed.
+    locale: "en-GB",
     trace: "retain-on-failure",
     screenshot: "only-on-failure",
     launchOptions: {

@@ -1,4 +1,4 @@
-import { format, parseISO } from "date-fns";
+import { formatDateRange as formatDateRangeIn, formatDay as formatDayIn } from "./when";
 import { z } from "zod";
 
 /** A real calendar day written yyyy-mm-dd (JavaScript alone would take 2027-02-30 as 2 March). */
@@ -43,15 +43,11 @@ export function parseClassDetails(form: FormData) {
   return { ok: false as const, errors, values };
 }
 
-/** Due dates and the like for people: "Mon 1 Mar 2027". */
-export function formatDay(iso: string | null | undefined): string {
-  if (!iso) return "";
-  return format(parseISO(iso.slice(0, 10)), "EEE d MMM yyyy");
+/** Due dates and the like for people, in the one date style of the app (app/lib/when.ts). */
+export function formatDay(iso: string | null | undefined, locale?: string): string {
+  return formatDayIn(iso, locale);
 }
 
-export function formatDateRange(from: string | null, to: string | null): string {
-  if (from && to) return from === to ? formatDay(from) : `${formatDay(from)} – ${formatDay(to)}`;
-  if (from) return `from ${formatDay(from)}`;
-  if (to) return `until ${formatDay(to)}`;
-  return "Dates not set";
+export function formatDateRange(from: string | null, to: string | null, locale?: string): string {
+  return formatDateRangeIn(from, to, locale) || "Dates not set";
 }

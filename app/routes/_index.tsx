@@ -1,10 +1,9 @@
+import { When, Day, DateRange } from "~/components/dates";
 import type { ReactNode } from "react";
 import { Link, useLoaderData } from "react-router";
 import type { Route } from "./+types/_index";
 import { getOptionalUser } from "~/lib/auth.server";
-import { formatDateRange, formatDay } from "~/lib/class-form";
 import { deskFor, type Desk } from "~/lib/desk.server";
-import { formatWhen } from "~/lib/when";
 
 export const meta: Route.MetaFunction = () => [
   { title: "Fallwright · shape parapet roofs to their outlets" },
@@ -49,7 +48,7 @@ function YourDesk({ desk }: { desk: Desk }) {
             <ul className="mt-1 divide-y divide-rule">
               {desk.todo.map((t) => (
                 <DeskItem key={`${t.className}-${t.slug}`} to={`/lessons/${t.slug}`} label={t.title}>
-                  {t.className} · {t.dueOn ? `due ${formatDay(t.dueOn)}` : "no due date"}
+                  {t.className} · {t.dueOn ? `due $<Day iso={t.dueOn} />` : "no due date"}
                   {t.tried ? " · tried, not passed yet" : ""}
                 </DeskItem>
               ))}
@@ -66,7 +65,7 @@ function YourDesk({ desk }: { desk: Desk }) {
             <ul className="mt-1 divide-y divide-rule">
               {desk.classes.map((c) => (
                 <DeskItem key={c.id} to={`/classes/${c.id}`} label={c.name}>
-                  {formatDateRange(c.startsOn, c.endsOn)}
+                  <DateRange from={c.startsOn} to={c.endsOn} />
                   {teaches ? ` · ${c.members} trainees${c.pending ? `, ${c.pending} invited` : ""}` : ""}
                 </DeskItem>
               ))}
@@ -84,7 +83,7 @@ function YourDesk({ desk }: { desk: Desk }) {
           <ul className="mt-1 divide-y divide-rule">
             {desk.roofs.map((r) => (
               <DeskItem key={r.id} to={`/roofs/${r.id}`} label={r.name}>
-                changed {formatWhen(r.updatedAt)}
+                changed <When iso={r.updatedAt} />
               </DeskItem>
             ))}
           </ul>

@@ -1,3 +1,4 @@
+import { When } from "~/components/dates";
 import { data, Form, redirect, useActionData, useLoaderData } from "react-router";
 import type { Route } from "./+types/account";
 import { z } from "zod";
@@ -7,7 +8,7 @@ import { ROLE_LABELS } from "~/lib/permissions";
 import { clientIp, retryAfterHeaders } from "~/lib/rate-limit.server";
 import { clearSessionCookie, destroyAllSessions, listSessions } from "~/lib/session.server";
 import { changeName, changePassword, changeUnits } from "~/lib/users.server";
-import { describeDevice, formatWhen } from "~/lib/when";
+import { describeDevice } from "~/lib/when";
 import { Field, FormError, FormNotice, SubmitButton } from "~/components/form-field";
 import { NewPasswordFields } from "~/components/new-password-fields";
 
@@ -127,8 +128,8 @@ export default function Account() {
                         {s.device}
                         {s.current ? <span className="ml-2 rounded bg-accent-wash px-1.5 py-0.5 text-xs font-medium text-accent-deep">this browser</span> : null}
                       </td>
-                      <td>{formatWhen(s.signedInAt)}</td>
-                      <td>{formatWhen(s.lastSeenAt)}</td>
+                      <td><When iso={s.signedInAt} /></td>
+                      <td><When iso={s.lastSeenAt} /></td>
                     </tr>
                   ))}
                 </tbody>

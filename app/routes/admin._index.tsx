@@ -8,7 +8,7 @@ import { appOrigin } from "~/lib/app-url";
 import { ROLE_LABELS, ROLES, type Role } from "~/lib/permissions";
 import { clientIp } from "~/lib/rate-limit.server";
 import { changeRole, listUsers, primaryOrganisation, setActive, setOpenSignup, type UserStatus } from "~/lib/users.server";
-import { formatWhen } from "~/lib/when";
+import { When } from "~/components/dates";
 import { Field, FormError, FormNotice, SubmitButton } from "~/components/form-field";
 
 export const meta: Route.MetaFunction = () => [{ title: "Users · Admin · Fallwright" }];
@@ -216,7 +216,7 @@ export default function AdminUsers() {
                       <td>
                         <span className={u.status === "active" ? "text-ok" : u.status === "invited" ? "text-warn" : "text-bad"}>{STATUSES[u.status]}</span>
                       </td>
-                      <td className="whitespace-nowrap">{u.lastSignInAt ? formatWhen(u.lastSignInAt) : "never"}</td>
+                      <td className="whitespace-nowrap">{u.lastSignInAt ? <When iso={u.lastSignInAt} /> : "never"}</td>
                       <td>
                         <div className="flex justify-end gap-1">
                           {u.status === "invited" ? (

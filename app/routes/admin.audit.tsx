@@ -1,10 +1,10 @@
+import { When } from "~/components/dates";
 import { Form, Link, useLoaderData } from "react-router";
 import type { Route } from "./+types/admin.audit";
 import { z } from "zod";
 import { AUDIT_ACTIONS, type AuditAction } from "~/lib/audit-actions";
 import { listAudit } from "~/lib/audit.server";
 import { requirePermission } from "~/lib/auth.server";
-import { formatWhen } from "~/lib/when";
 
 export const meta: Route.MetaFunction = () => [{ title: "Audit log · Admin · Fallwright" }];
 
@@ -71,10 +71,11 @@ export default function AdminAudit() {
             <tbody>
               {rows.map((r) => (
                 <tr key={r.id}>
-                  <td className="whitespace-nowrap">{formatWhen(r.at)}</td>
+                  <td className="whitespace-nowrap"><When iso={r.at} /></td>
                   <td className={r.action === "sign_in_failed" || r.action === "sign_in_limited" ? "text-bad" : undefined}>{AUDIT_ACTIONS[r.action] ?? r.action}</td>
-                  <td>{r.actorEmail ?? "—"}</td>
-                  <td>{r.subjectEmail ?? "—"}</td>
+                  {/* Addresses break only where they must (never at their hyphens): see .email in app.css. */}
+                  <td className="email">{r.actorEmail ?? "—"}</td>
+                  <td className="email">{r.subjectEmail ?? "—"}</td>
                   <td>{describe(r.detail, r.subjectEmail)}</td>
                   <td className="text-ink-soft">{r.ip ?? "—"}</td>
                 </tr>

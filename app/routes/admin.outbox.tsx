@@ -1,8 +1,8 @@
+import { When } from "~/components/dates";
 import { useLoaderData } from "react-router";
 import type { Route } from "./+types/admin.outbox";
 import { requirePermission } from "~/lib/auth.server";
 import { readOutbox } from "~/lib/outbox.server";
-import { formatWhen } from "~/lib/when";
 
 export const meta: Route.MetaFunction = () => [{ title: "Outbox · Admin · Fallwright" }];
 
@@ -35,7 +35,7 @@ export default function AdminOutbox() {
                 <summary className="flex cursor-pointer flex-wrap items-baseline gap-x-4 gap-y-1 px-4 py-3">
                   <span className="font-medium">{m.subject || "(no subject)"}</span>
                   <span className="text-sm text-ink-soft">to {m.to.join(", ")}</span>
-                  <span className="ml-auto text-sm text-ink-soft">{formatWhen(m.receivedAt)}</span>
+                  <span className="ml-auto text-sm text-ink-soft"><When iso={m.receivedAt} /></span>
                 </summary>
                 <div className="grid gap-4 border-t border-rule px-4 py-3 lg:grid-cols-2">
                   <div>

@@ -1,10 +1,10 @@
+import { When } from "~/components/dates";
 import { data, Form, Link, useActionData, useLoaderData } from "react-router";
 import { useState } from "react";
 import type { Route } from "./+types/attempts.$id.review";
 import { requirePermission, requireUser } from "~/lib/auth.server";
 import { getClassFor } from "~/lib/classes.server";
 import { formatScore } from "~/lib/gradebook";
-import { formatWhen } from "~/lib/when";
 import { appOrigin } from "~/lib/app-url";
 import { addReview, attemptFor, effectiveGrade, mayReview, parseReviewForm, reviewsForAttempt, type ReviewFields } from "~/lib/reviews.server";
 import { overrideProblem, readGrade } from "~/lib/lessons/grading-rule";
@@ -87,7 +87,7 @@ export default function AttemptReview() {
         <h1 className="text-display font-bold tracking-tight">{attempt.lessonTitle}</h1>
         <p className="mt-2 flex flex-wrap items-center gap-x-5 gap-y-1">
           <span><span className="text-ink-soft">Trainee:</span> <strong>{trainee.name || trainee.email}</strong></span>
-          <span className="text-ink-soft">Submitted {formatWhen(attempt.submittedAt)}</span>
+          <span className="text-ink-soft">Submitted <When iso={attempt.submittedAt} /></span>
           <span className="inline-flex items-center gap-2">
             <span className="text-ink-soft">Grade:</span>
             <GradeMark cell={{ attemptId: attempt.id, score: grade.score, passed: grade.passed, overridden: grade.overridden, reason: grade.reason, why: grade.why, attempts: 1, submittedAt: attempt.submittedAt }} />

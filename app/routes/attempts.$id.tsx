@@ -1,3 +1,4 @@
+import { When } from "~/components/dates";
 import { data, Link, useLoaderData } from "react-router";
 import type { Route } from "./+types/attempts.$id";
 import type { RoofSpec } from "~/engine";
@@ -7,7 +8,6 @@ import { getAttempt, maySeeTraineeAttempts } from "~/lib/lessons/attempts.server
 import { getLesson } from "~/lib/lessons/catalogue.server";
 import { effectiveGrade, reviewsForAttempt } from "~/lib/reviews.server";
 import { formatScore } from "~/lib/gradebook";
-import { formatWhen } from "~/lib/when";
 import { Caution } from "~/components/caution";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
 import { PassMark, ResultsTable, ScoreSummary } from "~/components/lessons/results";
@@ -44,7 +44,7 @@ export default function AttemptPage() {
         </p>
         <h1 className="text-display font-bold tracking-tight">{attempt.lessonTitle}</h1>
         <p className="text-sm text-ink-soft">
-          Submitted {formatWhen(attempt.submittedAt)} · time on the page {Math.round(attempt.timeSpentSeconds / 60)} min (measured in the browser, for information)
+          Submitted <When iso={attempt.submittedAt} /> · time on the page {Math.round(attempt.timeSpentSeconds / 60)} min (measured in the browser, for information)
           {outdated ? " · graded on an earlier version of this lesson" : ""}
         </p>
       </header>
@@ -64,7 +64,7 @@ export default function AttemptPage() {
           <h2 id="reviews-heading" className="text-lg font-bold">From your trainer</h2>
           {reviews.map((v) => (
             <div key={v.id} className="border-l-4 border-accent pl-3">
-              <p className="text-xs text-ink-soft">{v.reviewerName} · {formatWhen(v.at)}</p>
+              <p className="text-xs text-ink-soft">{v.reviewerName} · <When iso={v.at} /></p>
               {v.comment && <p className="whitespace-pre-wrap">{v.comment}</p>}
               {(v.overrideScore !== null || v.overridePassed !== null) && (
                 <p className="text-sm">

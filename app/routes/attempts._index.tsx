@@ -1,3 +1,4 @@
+import { useLocale, When } from "~/components/dates";
 import { Link, useLoaderData } from "react-router";
 import type { Route } from "./+types/attempts._index";
 import { requirePermission } from "~/lib/auth.server";
@@ -35,6 +36,7 @@ export async function loader({ request }: Route.LoaderArgs) {
 const minutes = (s: number) => (s < 60 ? `${s} s` : `${Math.round(s / 60)} min`);
 
 export default function MyAttempts() {
+  const locale = useLocale();
   const { attempts } = useLoaderData<typeof loader>();
   return (
     <div className="grid gap-6">
@@ -67,7 +69,7 @@ export default function MyAttempts() {
               {attempts.map((a) => (
                 <tr key={a.id} className="align-top">
                   <td><Link className="font-medium underline" to={`/lessons/${a.lesson}`}>{a.lessonTitle}</Link></td>
-                  <td className="whitespace-nowrap">{formatWhen(a.submittedAt)}</td>
+                  <td className="whitespace-nowrap"><When iso={a.submittedAt} /></td>
                   <td className="text-right font-medium" data-testid="attempt-score">{formatScore(a.grade?.score ?? a.score)}</td>
                   <td data-testid="attempt-result">
                     <span className="whitespace-nowrap"><PassMark passed={a.grade?.passed ?? a.passed} /></span>
@@ -82,7 +84,7 @@ export default function MyAttempts() {
                     ))}
                   </td>
                   <td className="whitespace-nowrap text-right" title="Measured in your browser; for information only">{minutes(a.timeSpentSeconds)}</td>
-                  <td><Link className="btn whitespace-nowrap" to={`/attempts/${a.id}`} aria-label={`Open the attempt at ${a.lessonTitle}, ${formatWhen(a.submittedAt)}`}>Open</Link></td>
+                  <td><Link className="btn whitespace-nowrap" to={`/attempts/${a.id}`} aria-label={`Open the attempt at ${a.lessonTitle}, ${formatWhen(a.submittedAt, locale)}`}>Open</Link></td>
                 </tr>
               ))}
             </tbody>

@@ -1,9 +1,9 @@
+import { DateRange } from "~/components/dates";
 import { Form, Link, useActionData, useLoaderData } from "react-router";
 import { BookOpenCheck, CalendarDays, MapPin, MonitorPlay, Radio, Table2 } from "lucide-react";
 import type { Route } from "./+types/classes.$id";
 import { requirePermission } from "~/lib/auth.server";
 import { handleClassAction } from "~/lib/class-actions.server";
-import { formatDateRange } from "~/lib/class-form";
 import { classAssignments, classRoster, findClassFor, listLessons, pendingInvitations } from "~/lib/classes.server";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
 import { AssignmentsForm } from "~/components/classes/assignments-form";
@@ -46,7 +46,7 @@ export default function ClassPage() {
           <p className="text-sm"><Link className="underline" to="/classes">Classes</Link></p>
           <h1 className="text-display font-bold tracking-tight">{cls.name}</h1>
           <p className="mt-2 flex flex-wrap gap-x-5 gap-y-1 text-ink-soft">
-            <span className="inline-flex items-center gap-1"><CalendarDays aria-hidden="true" className="h-4 w-4" />{formatDateRange(cls.starts_on, cls.ends_on)}</span>
+            <span className="inline-flex items-center gap-1"><CalendarDays aria-hidden="true" className="h-4 w-4" /><DateRange from={cls.starts_on} to={cls.ends_on} /></span>
             {cls.venue ? <span className="inline-flex items-center gap-1"><MapPin aria-hidden="true" className="h-4 w-4" />{cls.venue}</span> : null}
             <span>Trainer: {cls.trainer_name}</span>
           </p>

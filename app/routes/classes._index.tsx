@@ -1,9 +1,10 @@
+import { Day, DateRange } from "~/components/dates";
 import { data, Form, Link, redirect, useActionData, useLoaderData } from "react-router";
 import { CalendarDays, MapPin, Radio, Users } from "lucide-react";
 import type { Route } from "./+types/classes._index";
 import { requirePermission, requireUser } from "~/lib/auth.server";
 import { assignmentsForTrainee, createClass, listClassesFor, type ClassSummary, type MyAssignment } from "~/lib/classes.server";
-import { formatDateRange, formatDay, parseClassDetails } from "~/lib/class-form";
+import { parseClassDetails } from "~/lib/class-form";
 import { can } from "~/lib/permissions";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
 import { ClassDetailsFields } from "~/components/classes/class-details-fields";
@@ -92,7 +93,7 @@ function ClassTable({ classes, showTrainer }: { classes: ClassSummary[]; showTra
                 <Link className="underline" to={`/classes/${c.id}`}>{c.name}</Link>
               </th>
               {showTrainer ? <td>{c.trainer_name}</td> : null}
-              <td>{formatDateRange(c.starts_on, c.ends_on)}</td>
+              <td><DateRange from={c.starts_on} to={c.ends_on} /></td>
               <td>{c.venue || <span className="text-ink-soft">—</span>}</td>
               <td className="text-right">{c.members}</td>
               <td className="text-right">{c.pending}</td>
@@ -126,7 +127,7 @@ function TraineeClasses({ classes, assignments, today }: { classes: ClassSummary
             <div>
               <h2 id={`class-${c.id}`} className="text-xl font-bold">{c.name}</h2>
               <p className="mt-1 flex flex-wrap gap-x-4 gap-y-1 text-sm text-ink-soft">
-                <span className="inline-flex items-center gap-1"><CalendarDays aria-hidden="true" className="h-4 w-4" />{formatDateRange(c.starts_on, c.ends_on)}</span>
+                <span className="inline-flex items-center gap-1"><CalendarDays aria-hidden="true" className="h-4 w-4" /><DateRange from={c.starts_on} to={c.ends_on} /></span>
                 {c.venue ? <span className="inline-flex items-center gap-1"><MapPin aria-hidden="true" className="h-4 w-4" />{c.venue}</span> : null}
                 <span className="inline-flex items-center gap-1"><Users aria-hidden="true" className="h-4 w-4" />Trainer: {c.trainer_name}</span>
               </p>
@@ -152,7 +153,7 @@ function TraineeClasses({ classes, assignments, today }: { classes: ClassSummary
                     <tr key={a.slug}>
                       <td><Link className="underline" to={`/lessons/${a.slug}`}>{a.title}</Link></td>
                       <td className={late ? "font-medium text-bad" : undefined}>
-                        {a.dueOn ? formatDay(a.dueOn) : <span className="text-ink-soft">No due date</span>}
+                        {a.dueOn ? <Day iso={a.dueOn} /> : <span className="text-ink-soft">No due date</span>}
                         {late ? " · overdue" : null}
                       </td>
                       <td>

@@ -9,6 +9,7 @@ import { GeneralErrorBoundary } from "~/components/error-boundary";
 import { FallRatio } from "~/components/sandbox/fall-ratio";
 import { fallDetail as degreesAndPercent, useFormat } from "~/components/sandbox/format";
 import { RoofUnits } from "~/components/units";
+import { Day } from "~/components/dates";
 import { PlanDrawing } from "~/components/sandbox/plan-drawing";
 import { citation, RULE_KEY_NAMES } from "~/lib/pack/rule-keys";
 import { runAnalysis } from "~/components/sandbox/run-analysis";
@@ -127,7 +128,7 @@ function SheetBody({ spec, analysis }: { spec: RoofSpec; analysis: Analysis }) {
           <h1 className="text-2xl font-bold tracking-tight">Shaped parapet roof</h1>
           <p className="text-sm text-ink-soft">
             {spec.outline.length} edges, {spec.outlets.length} outlet{spec.outlets.length === 1 ? "" : "s"} · rule set: {analysis.ruleSet.name} · printed{" "}
-            {new Date().toISOString().slice(0, 10)}
+            <Day iso={new Date().toISOString()} />
           </p>
         </div>
         <span className="no-print flex gap-2">

@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { formatDateRange, isIsoDay, parseClassDetails } from "~/lib/class-form";
+import { formatDay, formatWhen, pickLocale } from "~/lib/when";
 
 const form = (fields: Record<string, string>) => {
   const f = new FormData();
@@ -32,8 +33,19 @@ describe("class details form", () => {
   });
 
   it("says the dates as people read them", () => {
-    expect(formatDateRange("2027-03-01", "2027-03-05")).toBe("Mon 1 Mar 2027 – Fri 5 Mar 2027");
-    expect(formatDateRange("2027-03-01", null)).toBe("from Mon 1 Mar 2027");
+    expect(formatDateRange("2027-03-01", "2027-03-05")).toBe("1 Mar 2027 – 5 Mar 2027");
+    expect(formatDateRange("2027-03-01", null)).toBe("from 1 Mar 2027");
     expect(formatDateRange(null, null)).toBe("Dates not set");
+  });
+
+  it("writes every date in one style, from the reader's locale (Accept-Language), the same for days and moments", () => {
+    expect(formatDateRange("2027-03-01", "2027-03-05", "en-US")).toBe("Mar 1, 2027 – Mar 5, 2027");
+    expect(formatDay("2027-03-01", "de-DE")).toBe("01.03.2027");
+    expect(formatWhen("2027-03-01T17:25:00Z", "en-GB")).toBe("1 Mar 2027, 17:25 UTC");
+    expect(formatWhen("2027-03-01T17:25:00Z", "en-GB").startsWith(formatDay("2027-03-01", "en-GB"))).toBe(true);
+    expect(pickLocale("de-DE,de;q=0.9,en;q=0.8")).toBe("de-DE");
+    expect(pickLocale("xx-invalid-tag-!!, fr-FR")).toBe("fr-FR");
+    expect(pickLocale(null)).toBe("en-GB");
+    expect(pickLocale("*")).toBe("en-GB");
   });
 });

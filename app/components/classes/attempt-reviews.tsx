@@ -1,6 +1,6 @@
+import { When } from "~/components/dates";
 import { MessageSquareText, PenLine } from "lucide-react";
 import { formatScore, type AttemptReview } from "~/lib/gradebook";
-import { formatWhen } from "~/lib/when";
 
 /**
  * Trainers' comments and grade changes on one attempt, newest first. The lessons pages can
@@ -18,7 +18,7 @@ export function AttemptReviews({ reviews, automatic }: { reviews: AttemptReview[
             <p className="flex flex-wrap items-center gap-x-2 text-sm">
               {overrides ? <PenLine aria-hidden="true" className="h-4 w-4" /> : <MessageSquareText aria-hidden="true" className="h-4 w-4" />}
               <strong>{r.reviewerName}</strong>
-              <time dateTime={r.at} className="text-ink-soft">{formatWhen(r.at)}</time>
+              <time dateTime={r.at} className="text-ink-soft"><When iso={r.at} /></time>
               {r.id === inForce ? <span className="rounded bg-ink px-1.5 text-xs text-sheet">grade in force</span> : null}
             </p>
             {r.comment ? <p className="mt-1 whitespace-pre-wrap">{r.comment}</p> : null}

@@ -1,3 +1,4 @@
+import { Day } from "~/components/dates";
 import { useMemo, useState } from "react";
 import { Link } from "react-router";
 import {
@@ -13,7 +14,6 @@ import {
 } from "@tanstack/react-table";
 import { ArrowDown, ArrowUp, ArrowUpDown, Search } from "lucide-react";
 import { cellStatus, formatScore, STATUS_LABELS, type CellStatus, type Gradebook, type GradebookRow } from "~/lib/gradebook";
-import { formatDay } from "~/lib/class-form";
 import { GradeMark } from "~/components/classes/grade-mark";
 
 type StatusFilter = CellStatus | "all";
@@ -70,7 +70,7 @@ export function GradebookTable({ book, classId }: { book: Gradebook; classId: st
           header: () => (
             <span className="block min-w-28 normal-case tracking-normal">
               <span className="block text-sm font-bold">{l.title}</span>
-              <span className="block text-xs font-normal text-ink-soft">{l.dueOn ? `due ${formatDay(l.dueOn)}` : "no due date"}</span>
+              <span className="block text-xs font-normal text-ink-soft">{l.dueOn ? `due $<Day iso={l.dueOn} />` : "no due date"}</span>
             </span>
           ),
           sortUndefined: "last",

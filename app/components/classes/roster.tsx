@@ -1,6 +1,6 @@
+import { Day } from "~/components/dates";
 import { Form } from "react-router";
 import { UserMinus } from "lucide-react";
-import { formatDay } from "~/lib/class-form";
 
 interface Member {
   id: string;
@@ -43,7 +43,7 @@ export function RosterTable({ members, className }: { members: Member[]; classNa
             <tr key={m.id}>
               <td className="font-medium">{m.name || <span className="text-ink-soft">(no name yet)</span>}</td>
               <td className="break-all">{m.email}</td>
-              <td className="whitespace-nowrap">{formatDay(m.joined_at)}</td>
+              <td className="whitespace-nowrap"><Day iso={m.joined_at} /></td>
               <td className="text-right">
                 <Form method="post" onSubmit={confirmFirst(`Remove ${m.name || m.email} from ${className}? Their attempts are kept.`)}>
                   <input type="hidden" name="intent" value="remove" />
@@ -70,8 +70,8 @@ export function PendingInvitations({ pending }: { pending: Pending[] }) {
           <span className="break-all">
             <span className="font-medium">{p.email}</span>
             <span className="block text-xs text-ink-soft">
-              Invited {formatDay(p.invited_at)} ·{" "}
-              {p.expired ? <strong className="text-bad">link expired: paste the address again to resend</strong> : <>link valid until {formatDay(p.expires_at)}</>}
+              Invited <Day iso={p.invited_at} /> ·{" "}
+              {p.expired ? <strong className="text-bad">link expired: paste the address again to resend</strong> : <>link valid until <Day iso={p.expires_at} /></>}
             </span>
           </span>
           {p.expired ? null : (

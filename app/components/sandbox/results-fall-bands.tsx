@@ -31,7 +31,7 @@ export function FallBands({ analysis }: { analysis: Analysis }) {
                 <td>
                   <span className="flex items-center gap-2">
                     <span className="h-2 rounded-sm bg-ink/70" style={{ width: `${Math.max(share * 100, 0.5)}%` }} aria-hidden="true" />
-                    <span className="text-xs text-ink-soft">{(share * 100).toFixed(0)} %</span>
+                    <span className="text-xs text-ink-soft">{(share * 100).toFixed(0)}&nbsp;%</span>
                   </span>
                 </td>
               </tr>

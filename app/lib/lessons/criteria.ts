@@ -36,7 +36,7 @@ export function formatLimit(kind: LimitKind, v: number | null): string {
     case "flow":
       return ls(v);
     case "percent":
-      return `${v.toFixed(1)} %`;
+      return `${v.toFixed(1)}\u00a0%`;
     case "count":
       return String(v);
     default:
@@ -141,7 +141,7 @@ export const CRITERION_KINDS = {
     measure: (a) => {
       const total = a.shaped.fallMap.area || a.area;
       const share = total > 0 ? (100 * a.shaped.fallMap.flatterThanMinimumArea) / total : 0;
-      return { value: share, text: `${share.toFixed(1)} % (${m2(a.shaped.fallMap.flatterThanMinimumArea)})` };
+      return { value: share, text: `${share.toFixed(1)}\u00a0% (${m2(a.shaped.fallMap.flatterThanMinimumArea)})` };
     },
   },
   catchmentFlowAtMost: {
