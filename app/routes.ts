@@ -39,6 +39,7 @@ export default [
     route("attempts/:id", "routes/attempts.$id.tsx"),
     route("roofs", "routes/roofs._index.tsx"),
     route("roofs/:id", "routes/roofs.$id.tsx"),
+    route("roofs/:id/sheet", "routes/roofs.$id.sheet.tsx"),
     route("classes", "routes/classes._index.tsx"),
     route("classes/:id", "routes/classes.$id.tsx"),
     route("classes/:id/gradebook", "routes/classes.$id.gradebook.tsx"),

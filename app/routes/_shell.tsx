@@ -1,4 +1,4 @@
-import { Form, Link, NavLink, Outlet, useLoaderData } from "react-router";
+import { Form, Link, NavLink, Outlet, useLoaderData, useMatches } from "react-router";
 import type { Route } from "./+types/_shell";
 import { getOptionalUser } from "~/lib/auth.server";
 import { can, ROLE_LABELS, type Permission } from "~/lib/permissions";
@@ -23,6 +23,8 @@ const NAV: { to: string; label: string; permission?: Permission; signedIn?: bool
 
 export default function Shell() {
   const { user } = useLoaderData<typeof loader>();
+  // A page that prints its own caution (the check sheet) keeps to one.
+  const ownCaution = useMatches().some((m) => (m.handle as { ownCaution?: boolean } | undefined)?.ownCaution);
   const items = NAV.filter((n) => (n.permission ? can(user?.role, n.permission) : n.signedIn ? !!user : true));
   return (
     <UnitsProvider saved={user?.units ?? null} signedIn={!!user}>
@@ -76,11 +78,13 @@ export default function Shell() {
       <main id="main" className="mx-auto w-full max-w-7xl flex-1 px-4 py-6">
         <Outlet />
       </main>
-      <footer className="no-print border-t border-rule bg-sheet/80">
-        <div className="mx-auto max-w-7xl px-4 py-3">
-          <Caution compact />
-        </div>
-      </footer>
+      {ownCaution ? null : (
+        <footer className="no-print border-t border-rule bg-sheet/80">
+          <div className="mx-auto max-w-7xl px-4 py-3">
+            <Caution compact />
+          </div>
+        </footer>
+      )}
     </div>
     </UnitsProvider>
   );

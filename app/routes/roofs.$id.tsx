@@ -220,7 +220,7 @@ function RoofEditor({ roof, underlay: initialUnderlay, underlayUrl: initialUrl, 
         </div>
       </header>
       {roof.canEdit ? <h1 className="sr-only">{name}</h1> : null}
-      <PackDownloads base={`/roofs/${roof.id}`} />
+      <PackDownloads base={`/roofs/${roof.id}`} sheetPage={`/roofs/${roof.id}/sheet`} />
       {roof.canEdit ? <ShareLinks links={shareLinks} /> : null}
 
       {notice ? <p role="status" className="rounded border border-ok/40 bg-sheet px-3 py-2 text-sm text-ok">{notice}</p> : null}

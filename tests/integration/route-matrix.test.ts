@@ -87,6 +87,10 @@ const MATRIX: Record<string, Case[]> = {
     { path: "/roofs/{uuid}/export", expect: SIGNED_IN(404) },
     { path: "/roofs/{designerRoof}/export", expect: SIGNED_IN(200) },
   ],
+  "/roofs/:id/sheet": [
+    { path: "/roofs/{uuid}/sheet", expect: SIGNED_IN(404) },
+    { path: "/roofs/{designerRoof}/sheet", expect: SIGNED_IN(200) },
+  ],
   "/roofs/:id/schedule.csv": [
     { path: "/roofs/{uuid}/schedule.csv", expect: SIGNED_IN(404) },
     { path: "/roofs/{designerRoof}/schedule.csv", expect: SIGNED_IN(200), why: "readable by whoever may read the roof" },

@@ -217,7 +217,7 @@ export async function sheetPdf(p: PackRoof, paper: PaperSize = "a4"): Promise<Ui
 
   w.heading("Key figures");
   for (const [k, v] of data.figures) {
-    const lines = w.wrap(v, 8.5, w.width * 0.58);
+    const lines = w.wrap(v, 8.5, w.width * 0.6, fonts.bold);
     w.ensure(lines.length * 11 + 2);
     w.y -= 11;
     w.text(k, MARGIN, w.y + 2, 8.5, fonts.regular, SOFT);
