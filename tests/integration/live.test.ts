@@ -46,7 +46,7 @@ function collector(hub: LiveHub, id: string) {
   return {
     got,
     ready: sub.ready,
-    async waitFor(pred: (s: LiveSnapshot) => boolean, ms = 1000) {
+    async waitFor(pred: (s: LiveSnapshot) => boolean, ms = 10_000) {
       const end = Date.now() + ms;
       while (Date.now() < end) {
         const hit = got.find(pred);
@@ -66,15 +66,14 @@ async function listenerPids(): Promise<number[]> {
 }
 
 describe("LISTEN/NOTIFY", () => {
-  it("a change published once reaches two separate listening connections within a second", async () => {
+  // Delivery time is the bench's to measure; the ceilings here only stop a hung test.
+  it("a change published once reaches two separate listening connections", async () => {
     const a = collector(newHub(), classId);
     const b = collector(newHub(), classId);
     await Promise.all([a.ready, b.ready]);
-    const t0 = Date.now();
     const seq = await publishLiveState(classId, content("two listeners"));
     expect(seq).toBeGreaterThan(0);
     const [ga, gb] = await Promise.all([a.waitFor((s) => s.seq === seq), b.waitFor((s) => s.seq === seq)]);
-    expect(Date.now() - t0).toBeLessThan(1000);
     expect(ga.state?.title).toBe("two listeners");
     expect(gb.state?.spec).toEqual({ ...SPEC, outlets: [{ at: [6, 0] }] });
     const row = await database.db()("classes").where({ id: classId }).first("live_seq", "live_state");
@@ -91,12 +90,15 @@ describe("LISTEN/NOTIFY", () => {
     expect(c.got[0].state).toMatchObject({ title: "at once", spec: { outlets: [{ at: [4, 0] }] } });
   });
 
-  it("a class nobody follows is not read, and other classes' subscribers hear nothing", async () => {
+  it("other classes' subscribers hear nothing", async () => {
     const hub = newHub();
     const other = collector(hub, "00000000-0000-4000-8000-000000000001");
-    await other.ready;
-    await publishLiveState(classId, content("not for you"));
-    await new Promise((r) => setTimeout(r, 300));
+    // A follower of the changed class on the same hub and connection: once the change reaches
+    // it, anything the change could have set off for the other class would be here too.
+    const followed = collector(hub, classId);
+    await Promise.all([other.ready, followed.ready]);
+    const seq = await publishLiveState(classId, content("not for you"));
+    await followed.waitFor((s) => s.seq === seq);
     expect(other.got).toEqual([]);
   });
 
@@ -141,11 +143,9 @@ describe("GET /classes/:id/live (server-sent events)", () => {
       headers: { cookie: trainer, "Content-Type": "application/json" },
       body: JSON.stringify({ spec: { ...SPEC, outlets: [{ at: [2, 0] }] }, title: "moved", source: "Test deck", deck: "test", step: { index: 0, count: 1 } }),
     });
-    const t0 = Date.now();
     const posted = await callRoute(live.action, post, { params: { id: classId } });
     expect(posted.status).toBe(200);
-    const next = await events.next(1000);
-    expect(Date.now() - t0).toBeLessThan(1000);
+    const next = await events.next(10_000);
     expect(next.id).toBe(String(now + 1));
     expect(JSON.parse(next.data).state).toMatchObject({ title: "moved", presenter: "Tomas Verrall", spec: { outlets: [{ at: [2, 0] }] } });
     ctrl.abort();
@@ -161,10 +161,11 @@ describe("GET /classes/:id/live (server-sent events)", () => {
 
     const current = open(trainee, String(now));
     const eventsCurrent = sseReader((await current.response).body!);
-    await expect(eventsCurrent.next(400)).rejects.toThrow(/no "state" event/);
-    expect(eventsCurrent.comments).toContain("up to date");
+    // The server says it has decided to send nothing; the next state event is the next change.
+    await eventsCurrent.comment("up to date", 10_000);
     const later = await publishLiveState(classId, content("after reconnect"));
-    expect((await eventsCurrent.next(1000)).id).toBe(String(later));
+    expect((await eventsCurrent.next(10_000)).id).toBe(String(later));
+    expect(eventsCurrent.waiting.filter((e) => e.event === "state")).toEqual([]);
     current.ctrl.abort();
     await eventsCurrent.cancel();
   });

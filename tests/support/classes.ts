@@ -110,23 +110,42 @@ export function sseReader(body: ReadableStream<Uint8Array>) {
       if (isEvent) queue.push(ev);
     }
   }
+  /** Reads the stream until `found` gives something, or fails after `timeoutMs`. */
+  async function readUntil<T>(found: () => T | undefined, timeoutMs: number, what: string): Promise<T> {
+    const end = Date.now() + timeoutMs;
+    for (;;) {
+      const hit = found();
+      if (hit !== undefined) return hit;
+      const left = end - Date.now();
+      if (left <= 0) throw new Error(`no ${what} within ${timeoutMs} ms`);
+      pending ??= reader.read();
+      const chunk = await Promise.race([pending, new Promise<null>((r) => setTimeout(() => r(null), left))]);
+      if (chunk === null) continue;
+      pending = null;
+      if (chunk.done) throw new Error("the stream ended");
+      buffer += decoder.decode(chunk.value, { stream: true });
+      parse();
+    }
+  }
   return {
     comments,
-    async next(timeoutMs = 2000, event = "state"): Promise<SseEvent> {
-      const end = Date.now() + timeoutMs;
-      for (;;) {
-        const i = queue.findIndex((e) => e.event === event);
-        if (i >= 0) return queue.splice(i, 1)[0];
-        const left = end - Date.now();
-        if (left <= 0) throw new Error(`no "${event}" event within ${timeoutMs} ms`);
-        pending ??= reader.read();
-        const chunk = await Promise.race([pending, new Promise<null>((r) => setTimeout(() => r(null), left))]);
-        if (chunk === null) continue;
-        pending = null;
-        if (chunk.done) throw new Error("the stream ended");
-        buffer += decoder.decode(chunk.value, { stream: true });
-        parse();
-      }
+    next(timeoutMs = 2000, event = "state"): Promise<SseEvent> {
+      return readUntil(
+        () => {
+          const i = queue.findIndex((e) => e.event === event);
+          return i >= 0 ? queue.splice(i, 1)[0] : undefined;
+        },
+        timeoutMs,
+        `"${event}" event`,
+      );
+    },
+    /** Waits for a comment line (": text"), such as the server's "up to date". */
+    comment(text: string, timeoutMs = 2000): Promise<string> {
+      return readUntil(() => comments.find((c) => c === text), timeoutMs, `": ${text}" comment`);
+    },
+    /** Events received but not yet taken by next(). */
+    get waiting(): readonly SseEvent[] {
+      return queue;
     },
     async cancel() {
       await reader.cancel().catch(() => {});
