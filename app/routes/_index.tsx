@@ -1,4 +1,4 @@
-import { When, Day, DateRange } from "~/components/dates";
+import { When, DateRange } from "~/components/dates";
 import type { ReactNode } from "react";
 import { Link, useLoaderData } from "react-router";
 import type { Route } from "./+types/_index";

@@ -1,5 +1,5 @@
 import type { Route } from "./+types/api.v1.analyses.as-built";
-import { AS_BUILT_LIMITS, asBuilt, parseSpec } from "~/engine";
+import { asBuilt, parseSpec } from "~/engine";
 import { jsonError, readJsonBody } from "~/lib/json-api.server";
 import { limitApiRequest } from "~/lib/rate-limit.server";
 import { ANALYSIS_BODY_LIMIT } from "./api.v1.analyses";

@@ -35,6 +35,43 @@ function CheckSheetOf({ spec, name }: { spec: RoofSpec; name: string }) {
   return <CheckSheet name={name} spec={spec} analysis={outcome.analysis} back={<Link className="btn" to="/sandbox">Back to the sandbox</Link>} />;
 }
 
+export default function CheckSheetPage() {
+  const loaded = useLoaderData<typeof loader>();
+  const [spec, setSpec] = useState<RoofSpec | null>(loaded.spec);
+  const [missing, setMissing] = useState(false);
+
+  // A long roof comes through the sandbox's sessionStorage, which only the browser has.
+  useEffect(() => {
+    if (loaded.spec || !loaded.fromSession) return;
+    try {
+      const parsed = parseSpec(JSON.parse(sessionStorage.getItem(SHEET_SESSION_KEY) ?? "null"));
+      if (parsed.ok) setSpec(parsed.spec);
+      else setMissing(true);
+    } catch {
+      setMissing(true);
+    }
+  }, [loaded]);
+
+  if (!spec) {
+    return (
+      <div className="card mx-auto max-w-xl">
+        <h1 className="text-xl font-bold">Check sheet</h1>
+        <p className="mt-2 text-sm">
+          {loaded.fromSession && !missing
+            ? "Reading the roof from the sandbox…"
+            : "There is no roof to print here. Open the sandbox and press “Check sheet”."}
+        </p>
+        <p className="mt-3">
+          <Link className="btn" to="/sandbox">
+            Open the sandbox
+          </Link>
+        </p>
+      </div>
+    );
+  }
+  return <CheckSheetOf spec={spec} name={loaded.name} />;
+}
+
 export function ErrorBoundary() {
   return <GeneralErrorBoundary />;
 }

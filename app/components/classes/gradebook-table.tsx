@@ -1,4 +1,3 @@
-import { Day } from "~/components/dates";
 import { useMemo, useState } from "react";
 import { Link } from "react-router";
 import {

@@ -53,7 +53,6 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
   const [cursor, setCursor] = useState<Point | null>(null);
   const locks = useSandbox((s) => s.locks);
   const outlineLocked = !!locks?.parts.includes("outline");
-  const edgesLocked = !!locks?.parts.includes("edges");
   const outletsLocked = !!locks?.parts.includes("outlets");
   /** A tap on a crowded spot: the handles under it, to choose from. */
   const [choice, setChoice] = useState<{ left: number; top: number; items: Focus[] } | null>(null);
