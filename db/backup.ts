@@ -9,9 +9,13 @@ import { arg, pgTool, targetUrl } from "./pg-tools.ts";
 
 export function backup(url: string, out: string) {
   fs.mkdirSync(path.dirname(out), { recursive: true });
-  const r = spawnSync(pgTool("pg_dump"), ["--format=custom", "--no-owner", "--no-privileges", "--file", out, "--dbname", url], {
-    encoding: "utf8",
-  });
+  const r = spawnSync(
+    pgTool("pg_dump"),
+    ["--format=custom", "--no-owner", "--no-privileges", "--file", out, "--dbname", url],
+    {
+      encoding: "utf8",
+    },
+  );
   if (r.status !== 0) throw new Error(`pg_dump failed: ${r.stderr}`);
   return out;
 }

@@ -19,5 +19,11 @@ export function targetUrl(): string {
 
 export function arg(name: string): string | undefined {
   const i = process.argv.indexOf(`--${name}`);
-  return i >= 0 ? process.argv[i + 1] : process.argv.find((a) => a.startsWith(`--${name}=`))?.split("=").slice(1).join("=");
+  return i >= 0
+    ? process.argv[i + 1]
+    : process.argv
+        .find((a) => a.startsWith(`--${name}=`))
+        ?.split("=")
+        .slice(1)
+        .join("=");
 }

@@ -8,7 +8,10 @@ export default defineConfig({
   retries: 0,
   timeout: 60_000,
   expect: { timeout: 10_000 },
-  reporter: [["list"], ["json", { outputFile: `../${process.env.TEST_RESULTS_DIR ?? ".data/test-results"}/playwright.json` }]],
+  reporter: [
+    ["list"],
+    ["json", { outputFile: `../${process.env.TEST_RESULTS_DIR ?? ".data/test-results"}/playwright.json` }],
+  ],
   use: {
     baseURL: process.env.E2E_BASE_URL ?? "http://127.0.0.1:3107",
     // Dates follow the browser's language (app/lib/when.ts); one fixed locale keeps the tests' text fixed.
@@ -17,7 +20,15 @@ export default defineConfig({
     screenshot: "only-on-failure",
     launchOptions: {
       executablePath: "/usr/bin/chromium",
-      args: ["--disable-quic", "--use-angle=swiftshader", "--enable-unsafe-swiftshader", "--ignore-gpu-blocklist", "--disable-background-networking", "--disable-component-update", "--disable-sync"],
+      args: [
+        "--disable-quic",
+        "--use-angle=swiftshader",
+        "--enable-unsafe-swiftshader",
+        "--ignore-gpu-blocklist",
+        "--disable-background-networking",
+        "--disable-component-update",
+        "--disable-sync",
+      ],
     },
   },
   projects: [

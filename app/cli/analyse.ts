@@ -32,15 +32,23 @@ export function report(a: Analysis, name: string): string {
   const lines: string[] = [];
   const add = (text = "") => lines.push(text);
   add(`${name}: ${m2(a.area)}, rule set "${a.ruleSet.name}"`);
-  add(`Base fall ${formatRatio(a.baseFall.ratio)} (${a.baseFall.degrees.toFixed(2)}°), minimum fall line ${formatRatio(a.minFall.ratio)}`);
+  add(
+    `Base fall ${formatRatio(a.baseFall.ratio)} (${a.baseFall.degrees.toFixed(2)}°), minimum fall line ${formatRatio(a.minFall.ratio)}`,
+  );
   add();
   add("Shaped roof");
   add(`  High level            ${mm(s.highLevel)} (${s.highLevelSource})`);
-  add(`  Joists                ${s.joists.length} at ${Math.round(s.setOut.spacing * 1000)} mm, direction ${directionDegrees(s.joistDirection).toFixed(1)}° from x, first at ${s.setOut.offset.toFixed(3)} m${s.setOut.fromOutlets ? " (set out from the outlets)" : ""}`);
-  for (const f of s.edgeFalls) add(`  Edge ${f.edge + 1} fall           ${formatRatio(f.ratio)} from ${pt(f.from)} to ${pt(f.to)}`);
+  add(
+    `  Joists                ${s.joists.length} at ${Math.round(s.setOut.spacing * 1000)} mm, direction ${directionDegrees(s.joistDirection).toFixed(1)}° from x, first at ${s.setOut.offset.toFixed(3)} m${s.setOut.fromOutlets ? " (set out from the outlets)" : ""}`,
+  );
+  for (const f of s.edgeFalls)
+    add(`  Edge ${f.edge + 1} fall           ${formatRatio(f.ratio)} from ${pt(f.from)} to ${pt(f.to)}`);
   const l = s.longestFallLine;
   const drainLabel = (id: string) => s.catchments.find((c) => c.drain === id)?.label ?? id;
-  if (l) add(`  Longest fall line     ${metres(l.length)} from ${pt(l.from)} to ${drainLabel(l.drain)}, drop ${mm(l.drop)}, ${formatRatio(l.ratio)}`);
+  if (l)
+    add(
+      `  Longest fall line     ${metres(l.length)} from ${pt(l.from)} to ${drainLabel(l.drain)}, drop ${mm(l.drop)}, ${formatRatio(l.ratio)}`,
+    );
   if (s.worstFallRatio !== null) add(`  Worst fall line       ${formatRatio(s.worstFallRatio)}`);
   add(`  Flatter than minimum  ${m2(s.fallMap.flatterThanMinimumArea)}`);
   for (const b of s.fallMap.areaByBand) add(`    ${b.label.padEnd(20)} ${m2(b.area)}`);
@@ -56,7 +64,9 @@ export function report(a: Analysis, name: string): string {
   if (a.gutter.comparable) {
     add(`  High level            ${mm(a.gutter.highLevel)} (lip ${mm(a.gutter.lipLevel)})`);
     add(`  Height saved          ${mm(a.comparison.heightSaved)} by shaping`);
-    add(`  Gutter                ${metres(a.gutter.gutterLength)} long, sole ${m2(a.gutter.soleArea)} at ${formatRatio(a.gutter.fall.ratio)}`);
+    add(
+      `  Gutter                ${metres(a.gutter.gutterLength)} long, sole ${m2(a.gutter.soleArea)} at ${formatRatio(a.gutter.fall.ratio)}`,
+    );
     add(`  Changes of plane      ${metres(a.gutter.detailLength)}`);
   } else {
     add(`  Not comparable: ${a.gutter.reason}`);
@@ -65,9 +75,14 @@ export function report(a: Analysis, name: string): string {
   add();
   add("Advice");
   const base = a.advice.minimumBaseFall;
-  add(`  Flattest base fall keeping every fall line at ${formatRatio(a.minFall.ratio)}: ${base ? formatRatio(base.ratio) : "none found"}`);
+  add(
+    `  Flattest base fall keeping every fall line at ${formatRatio(a.minFall.ratio)}: ${base ? formatRatio(base.ratio) : "none found"}`,
+  );
   const extra = a.advice.extraOutlet;
-  if (extra) add(`  One more outlet at ${pt(extra.at)} (edge ${extra.edge + 1}): worst fall line ${formatRatio(extra.currentLongestFallRatio)} → ${formatRatio(extra.longestFallRatio)}`);
+  if (extra)
+    add(
+      `  One more outlet at ${pt(extra.at)} (edge ${extra.edge + 1}): worst fall line ${formatRatio(extra.currentLongestFallRatio)} → ${formatRatio(extra.longestFallRatio)}`,
+    );
   add();
   add(a.warnings.length ? `Warnings (${a.warnings.length})` : "No warnings");
   for (const w of a.warnings) add(`  [${w.code}] ${w.message}`);
@@ -79,7 +94,11 @@ export function report(a: Analysis, name: string): string {
 export function main(argv: string[]): number {
   let parsed;
   try {
-    parsed = parseArgs({ args: argv, allowPositionals: true, options: { csv: { type: "string" }, help: { type: "boolean", short: "h" } } });
+    parsed = parseArgs({
+      args: argv,
+      allowPositionals: true,
+      options: { csv: { type: "string" }, help: { type: "boolean", short: "h" } },
+    });
   } catch (error) {
     process.stderr.write(`${(error as Error).message}\n\n${HELP}\n`);
     return 2;

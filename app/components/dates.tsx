@@ -21,7 +21,15 @@ export function Day({ iso }: { iso: string | null | undefined }) {
   return <time dateTime={iso.slice(0, 10)}>{formatDay(iso, locale)}</time>;
 }
 
-export function DateRange({ from, to, empty = "Dates not set" }: { from: string | null; to: string | null; empty?: string }) {
+export function DateRange({
+  from,
+  to,
+  empty = "Dates not set",
+}: {
+  from: string | null;
+  to: string | null;
+  empty?: string;
+}) {
   const locale = useLocale();
   return <>{formatDateRange(from, to, locale) || empty}</>;
 }

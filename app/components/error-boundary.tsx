@@ -19,11 +19,20 @@ function useErrorReference(): string {
 }
 
 const MESSAGES: Record<number, { title: string; body: string }> = {
-  400: { title: "That request did not make sense", body: "Something in the request was malformed. Go back and try again." },
-  403: { title: "Not yours to open", body: "Your account does not have access to this page. Ask a trainer or an admin if you think it should." },
+  400: {
+    title: "That request did not make sense",
+    body: "Something in the request was malformed. Go back and try again.",
+  },
+  403: {
+    title: "Not yours to open",
+    body: "Your account does not have access to this page. Ask a trainer or an admin if you think it should.",
+  },
   404: { title: "Nothing here", body: "We could not find that page. It may have been moved or deleted." },
   429: { title: "Slow down a little", body: "Too many attempts in a short time. Wait a minute and try again." },
-  503: { title: "Back in a moment", body: "The roof library is not answering right now. Your work in the page is kept; try again in a few seconds." },
+  503: {
+    title: "Back in a moment",
+    body: "The roof library is not answering right now. Your work in the page is kept; try again in a few seconds.",
+  },
 };
 
 /** One friendly error page for every route: known statuses get their own words; no stack traces in production. */
@@ -36,12 +45,16 @@ export function GeneralErrorBoundary() {
     status = error.status;
     // A route's own words add to the page's; the router's ("No route matches URL …") and a
     // repeat of the page's own text do not.
-    if (typeof error.data === "string" && error.data && status < 500 && !/^Error: No route matches/.test(error.data)) detail = error.data;
+    if (typeof error.data === "string" && error.data && status < 500 && !/^Error: No route matches/.test(error.data))
+      detail = error.data;
   } else if (import.meta.env.DEV && error instanceof Error) {
     stack = error.stack;
   }
   const reference = useErrorReference();
-  const msg = MESSAGES[status] ?? { title: "Something went wrong on our side", body: "The error has been logged. Try again, and tell your trainer or admin if it keeps happening." };
+  const msg = MESSAGES[status] ?? {
+    title: "Something went wrong on our side",
+    body: "The error has been logged. Try again, and tell your trainer or admin if it keeps happening.",
+  };
   if (detail && (detail.trim() === msg.body || detail.trim() === msg.title)) detail = undefined;
   return (
     <section className="card mx-auto max-w-2xl" role="alert" data-testid="error-page">
@@ -59,10 +72,20 @@ export function GeneralErrorBoundary() {
         <button type="button" className="btn min-h-11 sm:min-h-0" onClick={() => window.history.back()}>
           <ArrowLeft size={16} aria-hidden="true" /> Go back
         </button>
-        <Link className="btn-primary min-h-11 sm:min-h-0" to="/">Home</Link>
-        <Link className="btn min-h-11 sm:min-h-0" to="/sandbox">Sandbox</Link>
-        <Link className="btn min-h-11 sm:min-h-0" to="/lessons">Lessons</Link>
-        {status === 403 ? <Link className="btn min-h-11 sm:min-h-0" to="/account">Your account</Link> : null}
+        <Link className="btn-primary min-h-11 sm:min-h-0" to="/">
+          Home
+        </Link>
+        <Link className="btn min-h-11 sm:min-h-0" to="/sandbox">
+          Sandbox
+        </Link>
+        <Link className="btn min-h-11 sm:min-h-0" to="/lessons">
+          Lessons
+        </Link>
+        {status === 403 ? (
+          <Link className="btn min-h-11 sm:min-h-0" to="/account">
+            Your account
+          </Link>
+        ) : null}
       </nav>
     </section>
   );

@@ -13,12 +13,25 @@ export function Field({
   const describedBy = error ? `${id}-error` : hint ? `${id}-hint` : undefined;
   return (
     <div>
-      <label className="label" htmlFor={id}>{label}</label>
-      <input id={id} name={name} className="field" aria-invalid={error ? true : undefined} aria-describedby={describedBy} {...input} />
+      <label className="label" htmlFor={id}>
+        {label}
+      </label>
+      <input
+        id={id}
+        name={name}
+        className="field"
+        aria-invalid={error ? true : undefined}
+        aria-describedby={describedBy}
+        {...input}
+      />
       {error ? (
-        <p id={`${id}-error`} className="field-error">{error}</p>
+        <p id={`${id}-error`} className="field-error">
+          {error}
+        </p>
       ) : hint ? (
-        <p id={`${id}-hint`} className="mt-1 text-xs text-ink-soft">{hint}</p>
+        <p id={`${id}-hint`} className="mt-1 text-xs text-ink-soft">
+          {hint}
+        </p>
       ) : null}
     </div>
   );
@@ -60,7 +73,14 @@ export function SubmitButton({
   const pending =
     navigation.state === "submitting" && (intent === undefined || navigation.formData?.get("intent") === intent);
   return (
-    <button type="submit" className={className} name={intent ? "intent" : undefined} value={intent} disabled={pending} aria-busy={pending || undefined}>
+    <button
+      type="submit"
+      className={className}
+      name={intent ? "intent" : undefined}
+      value={intent}
+      disabled={pending}
+      aria-busy={pending || undefined}
+    >
       {pending ? pendingText : children}
     </button>
   );

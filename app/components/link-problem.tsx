@@ -18,8 +18,14 @@ export function LinkProblem({ state, kind }: { state: keyof typeof WHY; kind: "i
           : "Ask for a new link; it is sent to the same address."}
       </p>
       <p className="mt-5 flex flex-wrap gap-3">
-        {kind === "reset" ? <Link className="btn-primary" to="/forgot-password">Ask for a new link</Link> : null}
-        <Link className="btn" to="/login">Sign in</Link>
+        {kind === "reset" ? (
+          <Link className="btn-primary" to="/forgot-password">
+            Ask for a new link
+          </Link>
+        ) : null}
+        <Link className="btn" to="/login">
+          Sign in
+        </Link>
       </p>
     </AuthCard>
   );

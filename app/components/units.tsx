@@ -23,7 +23,15 @@ const UnitsContext = createContext<UnitsState>({ preference: null, system: "metr
  * The person's units for every page. A signed-in person's choice is saved with their account;
  * an anonymous visitor's is remembered in this browser (localStorage).
  */
-export function UnitsProvider({ saved, signedIn, children }: { saved: UnitsPreference | undefined; signedIn: boolean; children: ReactNode }) {
+export function UnitsProvider({
+  saved,
+  signedIn,
+  children,
+}: {
+  saved: UnitsPreference | undefined;
+  signedIn: boolean;
+  children: ReactNode;
+}) {
   const [preference, setLocal] = useState<UnitsPreference>(saved ?? null);
   const fetcher = useFetcher();
 
@@ -58,7 +66,10 @@ export function UnitsProvider({ saved, signedIn, children }: { saved: UnitsPrefe
     [signedIn, submit],
   );
 
-  const value = useMemo(() => ({ preference, system: systemFor(preference), setPreference }), [preference, setPreference]);
+  const value = useMemo(
+    () => ({ preference, system: systemFor(preference), setPreference }),
+    [preference, setPreference],
+  );
   return <UnitsContext.Provider value={value}>{children}</UnitsContext.Provider>;
 }
 

@@ -136,7 +136,13 @@ export async function ensureCluster(
   let info = opts.dataDir ? null : readClusterInfo(name);
   const dataDir = opts.dataDir ?? info?.dataDir ?? dataDirFor(name);
   if (!info || !fs.existsSync(path.join(dataDir, "PG_VERSION"))) {
-    info = { name, dataDir, port: await choosePort(preferredPort), user: "fallwright", password: randomBytes(18).toString("base64url") };
+    info = {
+      name,
+      dataDir,
+      port: await choosePort(preferredPort),
+      user: "fallwright",
+      password: randomBytes(18).toString("base64url"),
+    };
     log(`creating PostgreSQL cluster '${name}' in ${dataDir}`);
     fs.rmSync(dataDir, { recursive: true, force: true });
     fs.mkdirSync(dataDir, { recursive: true, mode: 0o700 });
@@ -147,7 +153,15 @@ export async function ensureCluster(
     }
     try {
       run(path.join(bin, "initdb"), [
-        "-D", dataDir, "-U", info.user, "--auth=scram-sha-256", `--pwfile=${pwfile}`, "-E", "UTF8", "--no-locale",
+        "-D",
+        dataDir,
+        "-U",
+        info.user,
+        "--auth=scram-sha-256",
+        `--pwfile=${pwfile}`,
+        "-E",
+        "UTF8",
+        "--no-locale",
       ]);
     } finally {
       fs.rmSync(pwfile, { force: true });
@@ -158,7 +172,9 @@ export async function ensureCluster(
   if (!running && !(await portFree(info.port))) {
     const taken = info.port;
     info.port = await choosePort(0);
-    log(`port ${taken} is held by another program (another checkout's database or a local PostgreSQL); cluster '${name}' now uses port ${info.port}`);
+    log(
+      `port ${taken} is held by another program (another checkout's database or a local PostgreSQL); cluster '${name}' now uses port ${info.port}`,
+    );
   }
   startCluster(info, opts.fast ?? false);
   if (!opts.dataDir) fs.writeFileSync(infoFile(name), JSON.stringify(info, null, 2), { mode: 0o600 });
@@ -187,9 +203,13 @@ export function startCluster(info: ClusterInfo, fast = false) {
   }
   // A postmaster killed a moment ago can linger: retry briefly.
   for (let attempt = 0; ; attempt++) {
-    const r = run(path.join(bin, "pg_ctl"), ["start", "-D", info.dataDir, "-l", logFile, "-w", "-t", "30", "-o", options], {
-      allowFail: true,
-    });
+    const r = run(
+      path.join(bin, "pg_ctl"),
+      ["start", "-D", info.dataDir, "-l", logFile, "-w", "-t", "30", "-o", options],
+      {
+        allowFail: true,
+      },
+    );
     if (r.status === 0) break;
     if (attempt >= 5) {
       const tail = fs.existsSync(logFile) ? fs.readFileSync(logFile, "utf8").split("\n").slice(-15).join("\n") : "";

@@ -10,7 +10,11 @@ if (!url) {
   console.error("DATABASE_URL is not set");
   process.exit(2);
 }
-const k = knex({ client: "pg", connection: { connectionString: url, connectionTimeoutMillis: 5000 }, ...migrationConfig });
+const k = knex({
+  client: "pg",
+  connection: { connectionString: url, connectionTimeoutMillis: 5000 },
+  ...migrationConfig,
+});
 try {
   await k.migrate.latest();
   if (!process.argv.includes("--no-seed")) await k.seed.run();

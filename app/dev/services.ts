@@ -72,7 +72,11 @@ export async function prepareDatabase(p: Profile, opts: { seed?: boolean } = {})
 }
 
 async function migrateAndSeed(url: string, opts: { seed?: boolean }) {
-  const k = knex({ client: "pg", connection: { connectionString: url, connectionTimeoutMillis: 5000 }, ...migrationConfig });
+  const k = knex({
+    client: "pg",
+    connection: { connectionString: url, connectionTimeoutMillis: 5000 },
+    ...migrationConfig,
+  });
   try {
     const [, done] = await k.migrate.latest();
     if (done.length) log(`migrated: ${done.join(", ")}`);
@@ -106,7 +110,11 @@ export async function waitForPort(port: number, timeoutMs = 30_000) {
 }
 
 /** Starts the SMTP and S3 fakes in a child process on the given ports, unless real services are configured. */
-export async function startFakes(p: Profile, env: Record<string, string>, ports: FakePorts): Promise<ChildProcess | null> {
+export async function startFakes(
+  p: Profile,
+  env: Record<string, string>,
+  ports: FakePorts,
+): Promise<ChildProcess | null> {
   if (process.env.SMTP_URL && process.env.S3_ENDPOINT) return null;
   const child = spawn(process.execPath, ["--import", "tsx", path.join(PROJECT_ROOT, "app/dev/fakes.ts")], {
     cwd: PROJECT_ROOT,

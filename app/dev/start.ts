@@ -21,7 +21,10 @@ function newestMtime(dir: string): number {
 
 function buildIfStale() {
   const built = path.join(PROJECT_ROOT, "build/server/index.js");
-  const sources = Math.max(newestMtime(path.join(PROJECT_ROOT, "app")), fs.statSync(path.join(PROJECT_ROOT, "package-lock.json")).mtimeMs);
+  const sources = Math.max(
+    newestMtime(path.join(PROJECT_ROOT, "app")),
+    fs.statSync(path.join(PROJECT_ROOT, "package-lock.json")).mtimeMs,
+  );
   if (fs.existsSync(built) && fs.statSync(built).mtimeMs > sources) {
     log("build is up to date");
     return;
@@ -41,12 +44,23 @@ const fakes = await startFakes(profile, env, ports);
 if (!dev) buildIfStale();
 
 const port = process.env.PORT ?? "3000";
-const server: ChildProcess = spawn(process.execPath, ["--import", "tsx", path.join(PROJECT_ROOT, "app/server/index.ts")], {
-  cwd: PROJECT_ROOT,
-  stdio: "inherit",
-  // Links in e-mail need APP_URL; on this machine it is the address printed below (a deployment sets its own).
-  env: { ...process.env, ...env, DATABASE_URL: databaseUrl, PORT: port, APP_URL: process.env.APP_URL || `http://localhost:${port}`, NODE_ENV: dev ? "development" : "production" },
-});
+const server: ChildProcess = spawn(
+  process.execPath,
+  ["--import", "tsx", path.join(PROJECT_ROOT, "app/server/index.ts")],
+  {
+    cwd: PROJECT_ROOT,
+    stdio: "inherit",
+    // Links in e-mail need APP_URL; on this machine it is the address printed below (a deployment sets its own).
+    env: {
+      ...process.env,
+      ...env,
+      DATABASE_URL: databaseUrl,
+      PORT: port,
+      APP_URL: process.env.APP_URL || `http://localhost:${port}`,
+      NODE_ENV: dev ? "development" : "production",
+    },
+  },
+);
 
 log(`open http://localhost:${port}`);
 log("demo sign-ins (password: fallwright-demo):");

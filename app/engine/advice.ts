@@ -61,7 +61,9 @@ export function bestExtraOutlet(
   spans: DrainSpan[],
   geodesic: Geodesic,
 ): { at: Point; edge: number; longestFallRatio: number; currentLongestFallRatio: number } | undefined {
-  const edges = [...new Set(roof.outlets.map((o) => o.edge))].filter((e) => !roof.eaves[e]).slice(0, MAX_CANDIDATE_EDGES);
+  const edges = [...new Set(roof.outlets.map((o) => o.edge))]
+    .filter((e) => !roof.eaves[e])
+    .slice(0, MAX_CANDIDATE_EDGES);
   if (edges.length === 0) return undefined;
   const H = levels.H;
   const targets: Target[] = roof.outlets.map((o) => ({ x: o.x, y: o.y, edge: -1, level: o.level }));
@@ -70,7 +72,10 @@ export function bestExtraOutlet(
   const straight = (sx: number, sy: number, t: Target) => {
     if (t.edge < 0) return Math.hypot(t.x - sx, t.y - sy);
     const q = (t.edge + 1) % roof.n;
-    const ax = roof.xs[t.edge], ay = roof.ys[t.edge], dx = roof.xs[q] - ax, dy = roof.ys[q] - ay;
+    const ax = roof.xs[t.edge],
+      ay = roof.ys[t.edge],
+      dx = roof.xs[q] - ax,
+      dy = roof.ys[q] - ay;
     const s = Math.min(1, Math.max(0, ((sx - ax) * dx + (sy - ay) * dy) / (dx * dx + dy * dy)));
     return Math.hypot(ax + s * dx - sx, ay + s * dy - sy);
   };
@@ -101,7 +106,8 @@ export function bestExtraOutlet(
 
   const base: { x: number; y: number; edge: number; reach: Reach | null }[] = [];
   for (const [x, y] of vertexStarts(roof, levels)) base.push({ x, y, edge: -1, reach: nearest(x, y, targets, H) });
-  for (let j = 0; j < roof.n; j++) for (const [x, y] of midpoints(roof, j, null)) base.push({ x, y, edge: j, reach: nearest(x, y, targets, H) });
+  for (let j = 0; j < roof.n; j++)
+    for (const [x, y] of midpoints(roof, j, null)) base.push({ x, y, edge: j, reach: nearest(x, y, targets, H) });
   const current = Math.max(0, ...base.map((b) => ratioOf(b.reach, H)));
 
   const slope = 1 / roof.baseFall.ratio;
@@ -137,7 +143,12 @@ export function bestExtraOutlet(
         worst = Math.max(worst, ratioOf(nearest(mx, my, [...targets, extra], high), high));
       }
       if (worst > 0 && worst < current - 1e-9 && (!best || worst < best.longestFallRatio)) {
-        best = { at: toPlan(roof, u, v), edge: roof.userEdge[e], longestFallRatio: worst, currentLongestFallRatio: current };
+        best = {
+          at: toPlan(roof, u, v),
+          edge: roof.userEdge[e],
+          longestFallRatio: worst,
+          currentLongestFallRatio: current,
+        };
       }
     }
   }
@@ -147,7 +158,8 @@ export function bestExtraOutlet(
 /** Perimeter vertices at H: starts of fall lines in every layout. */
 function vertexStarts(roof: Roof, levels: PerimeterLevels): [number, number][] {
   const starts: [number, number][] = [];
-  for (let i = 0; i < roof.n; i++) if (Math.abs(levels.vertex[i] - levels.H) <= 1e-12) starts.push([roof.xs[i], roof.ys[i]]);
+  for (let i = 0; i < roof.n; i++)
+    if (Math.abs(levels.vertex[i] - levels.H) <= 1e-12) starts.push([roof.xs[i], roof.ys[i]]);
   return starts;
 }
 

@@ -82,7 +82,9 @@ function analyseWithAdvice(memory: Arena, roof: Roof, options: AnalyseOptions): 
     bandEdges: options.bandEdges,
     maxMeshVertices: Math.min(options.maxMeshVertices ?? MAX_MESH_VERTICES, CANDIDATE_MESH_VERTICES),
   };
-  analysis.advice.joistDirections = joistDirectionAdvice(roof, analysis, (turned) => analyseWith(memory, turned, light, true));
+  analysis.advice.joistDirections = joistDirectionAdvice(roof, analysis, (turned) =>
+    analyseWith(memory, turned, light, true),
+  );
   return analysis;
 }
 
@@ -112,7 +114,9 @@ function analyseWith(memory: Arena, roof: Roof, options: AnalyseOptions, candida
   const joists = dropSchedule(roof, levels, joistU);
   const onJoists = outletJoists(roof, joistU, (u, v) => toPlan(roof, u, v));
   warnings.push(...trimWarnings(onJoists, roof.fromOutlets));
-  const sunk = joists.flatMap((j) => j.spans.filter((s) => s.ratio === null && Math.max(s.startDrop, s.endDrop) > 1e-9));
+  const sunk = joists.flatMap((j) =>
+    j.spans.filter((s) => s.ratio === null && Math.max(s.startDrop, s.endDrop) > 1e-9),
+  );
   if (sunk.length) {
     const s = sunk[Math.floor(sunk.length / 2)];
     warnings.push({
@@ -169,7 +173,11 @@ function analyseWith(memory: Arena, roof: Roof, options: AnalyseOptions, candida
     const [u, v] = toFrame(roof, p[0], p[1]);
     const level = levelAt(roof, levels, u, v);
     if (level === null)
-      warnings.push({ code: "probe-outside", message: `Probe ${pt(p)} is outside the outline${roof.holes.length ? " or in an opening" : ""}.`, at: p });
+      warnings.push({
+        code: "probe-outside",
+        message: `Probe ${pt(p)} is outside the outline${roof.holes.length ? " or in an opening" : ""}.`,
+        at: p,
+      });
     return { at: p, level };
   });
 
@@ -191,7 +199,12 @@ function analyseWith(memory: Arena, roof: Roof, options: AnalyseOptions, candida
     highLevel: H,
     highLevelSource: roof.highLevelGiven === null ? "derived" : "given",
     joistDirection: [roof.dx, roof.dy],
-    setOut: { spacing: roof.spacing, offset: joistU.length ? joistU[0] - roof.umin : 0, fromOutlets: roof.fromOutlets, outlets: onJoists },
+    setOut: {
+      spacing: roof.spacing,
+      offset: joistU.length ? joistU[0] - roof.umin : 0,
+      fromOutlets: roof.fromOutlets,
+      outlets: onJoists,
+    },
     edgeFalls: edgeFalls(roof, levels),
     longestFallLine: longest,
     worstFallRatio: worst ? worst.ratio : null,

@@ -1,5 +1,9 @@
 type Numeric = Float64Array | Int32Array | Uint32Array | Uint8Array;
-type Ctor<T extends Numeric> = { new (buffer: ArrayBuffer, byteOffset: number, length: number): T; new (length: number): T; BYTES_PER_ELEMENT: number };
+type Ctor<T extends Numeric> = {
+  new (buffer: ArrayBuffer, byteOffset: number, length: number): T;
+  new (length: number): T;
+  BYTES_PER_ELEMENT: number;
+};
 
 /** Largest working memory kept between analyses (a 10,000 m² roof at 0.4 m joists needs about 9 MB). */
 const KEEP_BYTES = 16 * 1024 * 1024;
@@ -20,7 +24,8 @@ export class Arena {
 
   /** Frees every array handed out since the last reset (their contents become garbage). */
   reset(): void {
-    if (this.wanted > this.buffer.byteLength && this.wanted <= KEEP_BYTES) this.buffer = new ArrayBuffer(Math.ceil(this.wanted * 1.25));
+    if (this.wanted > this.buffer.byteLength && this.wanted <= KEEP_BYTES)
+      this.buffer = new ArrayBuffer(Math.ceil(this.wanted * 1.25));
     this.used = 0;
     this.wanted = 0;
     this.busy = true;

@@ -96,9 +96,7 @@ export interface AsBuiltResult {
   tolerance: Tolerance;
 }
 
-export type AsBuiltAnswer =
-  | { ok: true; result: AsBuiltResult }
-  | { ok: false; status: 400 | 422; issues: SpecIssue[] };
+export type AsBuiltAnswer = { ok: true; result: AsBuiltResult } | { ok: false; status: 400 | 422; issues: SpecIssue[] };
 
 /** The design surface of a prepared roof: its level at any plan point, and its drop schedule. */
 function designOf(roof: Roof) {
@@ -123,7 +121,11 @@ export function asBuilt(spec: RoofSpec, points: SurveyPoint[], tolerance: Partia
   if (!prepared.ok) return prepared;
   const roof = prepared.roof;
   if (points.length > AS_BUILT_LIMITS.maxPoints) {
-    return { ok: false, status: 422, issues: [{ path: "points", message: `At most ${AS_BUILT_LIMITS.maxPoints} points.` }] };
+    return {
+      ok: false,
+      status: 422,
+      issues: [{ path: "points", message: `At most ${AS_BUILT_LIMITS.maxPoints} points.` }],
+    };
   }
   const design = designOf(roof);
   const tol: Tolerance = {
@@ -149,15 +151,28 @@ export function asBuilt(spec: RoofSpec, points: SurveyPoint[], tolerance: Partia
     const p = points[i];
     const d = inside(p.at[0], p.at[1]) ? design.level(p.at) : null;
     if (d === null) {
-      return { ok: false, status: 422, issues: [{ path: `points.${i}.at`, message: `Point (${p.at[0]}, ${p.at[1]}) is outside the roof outline.` }] };
+      return {
+        ok: false,
+        status: 422,
+        issues: [{ path: `points.${i}.at`, message: `Point (${p.at[0]}, ${p.at[1]}) is outside the roof outline.` }],
+      };
     }
-    deviations.push({ at: [p.at[0], p.at[1]], ...(p.label ? { label: p.label } : {}), design: d, measured: p.level, delta: p.level - d });
+    deviations.push({
+      at: [p.at[0], p.at[1]],
+      ...(p.label ? { label: p.label } : {}),
+      design: d,
+      measured: p.level,
+      delta: p.level - d,
+    });
   }
 
   // Nodes: measured points, then the corners and outlets nothing was measured beside.
-  const xs: number[] = [], ys: number[] = [], zs: number[] = [];
+  const xs: number[] = [],
+    ys: number[] = [],
+    zs: number[] = [];
   const near = (x: number, y: number) => {
-    for (let i = 0; i < points.length; i++) if (Math.hypot(points[i].at[0] - x, points[i].at[1] - y) <= AS_BUILT_LIMITS.merge) return i;
+    for (let i = 0; i < points.length; i++)
+      if (Math.hypot(points[i].at[0] - x, points[i].at[1] - y) <= AS_BUILT_LIMITS.merge) return i;
     return -1;
   };
   for (const p of points) {
@@ -199,8 +214,11 @@ export function asBuilt(spec: RoofSpec, points: SurveyPoint[], tolerance: Partia
   if (xs.length >= 3) {
     const del = new Delaunator(coords);
     for (let t = 0; t < del.triangles.length; t += 3) {
-      const a = del.triangles[t], b = del.triangles[t + 1], c = del.triangles[t + 2];
-      const cx = (xs[a] + xs[b] + xs[c]) / 3, cy = (ys[a] + ys[b] + ys[c]) / 3;
+      const a = del.triangles[t],
+        b = del.triangles[t + 1],
+        c = del.triangles[t + 2];
+      const cx = (xs[a] + xs[b] + xs[c]) / 3,
+        cy = (ys[a] + ys[b] + ys[c]) / 3;
       if (insidePolygon(ox, oy, cx, cy)) tri.push(a, b, c);
     }
   }
@@ -213,9 +231,15 @@ export function asBuilt(spec: RoofSpec, points: SurveyPoint[], tolerance: Partia
   const slope2 = new Float64Array(F);
   const catchArea = new Float64Array(drains.length);
   for (let f = 0; f < F; f++) {
-    const a = tri[3 * f], b = tri[3 * f + 1], c = tri[3 * f + 2];
-    const dx1 = xs[b] - xs[a], dy1 = ys[b] - ys[a], dz1 = zs[b] - zs[a];
-    const dx2 = xs[c] - xs[a], dy2 = ys[c] - ys[a], dz2 = zs[c] - zs[a];
+    const a = tri[3 * f],
+      b = tri[3 * f + 1],
+      c = tri[3 * f + 2];
+    const dx1 = xs[b] - xs[a],
+      dy1 = ys[b] - ys[a],
+      dz1 = zs[b] - zs[a];
+    const dx2 = xs[c] - xs[a],
+      dy2 = ys[c] - ys[a],
+      dz2 = zs[c] - zs[a];
     const cross = dx1 * dy2 - dx2 * dy1;
     area[f] = Math.abs(cross) / 2;
     if (cross !== 0) {
@@ -250,7 +274,10 @@ export function asBuilt(spec: RoofSpec, points: SurveyPoint[], tolerance: Partia
     const vs = [tri[3 * f], tri[3 * f + 1], tri[3 * f + 2]];
     const g = vs.map((v) => group[v]).find((x) => x >= 0);
     if (g === undefined) continue;
-    const wet = wetPart(vs.map((v) => [xs[v], ys[v], zs[v]] as [number, number, number]), ponds[g].level);
+    const wet = wetPart(
+      vs.map((v) => [xs[v], ys[v], zs[v]] as [number, number, number]),
+      ponds[g].level,
+    );
     ponds[g].area += wet.area;
     ponds[g].volume += wet.volume;
   }
@@ -313,7 +340,13 @@ export function asBuilt(spec: RoofSpec, points: SurveyPoint[], tolerance: Partia
         const d = deviations[best];
         const inPond = group[best] >= 0 && ponds[group[best]].depth > tol.pondDepth + 1e-9;
         if (Math.abs(d.delta) > tol.deviation + 1e-9 || (inPond && d.delta < 0)) {
-          fixes.push({ joist: j.index, span: si, end, at: [at[0], at[1]], change: Math.round(-d.delta * 10000) / 10000 });
+          fixes.push({
+            joist: j.index,
+            span: si,
+            end,
+            at: [at[0], at[1]],
+            change: Math.round(-d.delta * 10000) / 10000,
+          });
         }
       }
     });
@@ -336,7 +369,8 @@ function adjacency(n: number, tri: number[], z: number[]): Graph {
   const sets: Set<number>[] = Array.from({ length: n }, () => new Set());
   for (let t = 0; t < tri.length; t += 3) {
     for (let k = 0; k < 3; k++) {
-      const a = tri[t + k], b = tri[t + ((k + 1) % 3)];
+      const a = tri[t + k],
+        b = tri[t + ((k + 1) % 3)];
       sets[a].add(b);
       sets[b].add(a);
     }
@@ -375,8 +409,10 @@ function pathRatio(i: number, parent: Int32Array, filled: Float64Array, xs: numb
 export function wetPart(t: [number, number, number][], w: number): { area: number; volume: number } {
   const poly: [number, number, number][] = [];
   for (let k = 0; k < 3; k++) {
-    const a = t[k], b = t[(k + 1) % 3];
-    const aIn = a[2] < w, bIn = b[2] < w;
+    const a = t[k],
+      b = t[(k + 1) % 3];
+    const aIn = a[2] < w,
+      bIn = b[2] < w;
     if (aIn) poly.push(a);
     if (aIn !== bIn) {
       const s = (w - a[2]) / (b[2] - a[2]);
@@ -384,9 +420,12 @@ export function wetPart(t: [number, number, number][], w: number): { area: numbe
     }
   }
   if (poly.length < 3) return { area: 0, volume: 0 };
-  let area2 = 0, cx = 0, cy = 0;
+  let area2 = 0,
+    cx = 0,
+    cy = 0;
   for (let k = 0; k < poly.length; k++) {
-    const a = poly[k], b = poly[(k + 1) % poly.length];
+    const a = poly[k],
+      b = poly[(k + 1) % poly.length];
     const cr = a[0] * b[1] - b[0] * a[1];
     area2 += cr;
     cx += (a[0] + b[0]) * cr;
@@ -398,8 +437,12 @@ export function wetPart(t: [number, number, number][], w: number): { area: numbe
   const area = Math.abs(area2) / 2;
   // Terrain level at the centroid from the triangle's plane.
   const [p, q, r] = t;
-  const d1x = q[0] - p[0], d1y = q[1] - p[1], d1z = q[2] - p[2];
-  const d2x = r[0] - p[0], d2y = r[1] - p[1], d2z = r[2] - p[2];
+  const d1x = q[0] - p[0],
+    d1y = q[1] - p[1],
+    d1z = q[2] - p[2];
+  const d2x = r[0] - p[0],
+    d2y = r[1] - p[1],
+    d2z = r[2] - p[2];
   const cross = d1x * d2y - d2x * d1y;
   const gx = (d1z * d2y - d2z * d1y) / cross;
   const gy = (d1x * d2z - d2x * d1z) / cross;

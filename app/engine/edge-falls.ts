@@ -11,7 +11,10 @@ export function edgeFalls(roof: Roof, levels: PerimeterLevels): EdgeFall[] {
     const q = (j + 1) % roof.n;
     const at = (t: number): Point => {
       const s = t / roof.len[j];
-      return [roof.ox + roof.xs[j] + s * (roof.xs[q] - roof.xs[j]), roof.oy + roof.ys[j] + s * (roof.ys[q] - roof.ys[j])];
+      return [
+        roof.ox + roof.xs[j] + s * (roof.xs[q] - roof.xs[j]),
+        roof.oy + roof.ys[j] + s * (roof.ys[q] - roof.ys[j]),
+      ];
     };
     const kt = levels.t[j];
     const kz = levels.z[j];

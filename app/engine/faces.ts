@@ -16,7 +16,12 @@ export interface FaceData {
 }
 
 /** Every face's area, fall and drain in one pass over the faces: the fall map and catchments read these. */
-export function faceData(mesh: SurfaceMesh, vertexDrain: Int32Array, drainCount: number, memory: Memory = FRESH): FaceData {
+export function faceData(
+  mesh: SurfaceMesh,
+  vertexDrain: Int32Array,
+  drainCount: number,
+  memory: Memory = FRESH,
+): FaceData {
   const F = mesh.faceCount;
   const { u, v, z, tri } = mesh;
   const area = memory.take(Float64Array, F);
@@ -24,10 +29,18 @@ export function faceData(mesh: SurfaceMesh, vertexDrain: Int32Array, drainCount:
   const drain = memory.take(Int32Array, F);
   const drainArea = new Float64Array(drainCount);
   for (let f = 0; f < F; f++) {
-    const a = tri[3 * f], b = tri[3 * f + 1], c = tri[3 * f + 2];
-    const za = z[a], zb = z[b], zc = z[c];
-    const du1 = u[b] - u[a], dv1 = v[b] - v[a], dz1 = zb - za;
-    const du2 = u[c] - u[a], dv2 = v[c] - v[a], dz2 = zc - za;
+    const a = tri[3 * f],
+      b = tri[3 * f + 1],
+      c = tri[3 * f + 2];
+    const za = z[a],
+      zb = z[b],
+      zc = z[c];
+    const du1 = u[b] - u[a],
+      dv1 = v[b] - v[a],
+      dz1 = zb - za;
+    const du2 = u[c] - u[a],
+      dv2 = v[c] - v[a],
+      dz2 = zc - za;
     const det = du1 * dv2 - du2 * dv1;
     const A = det / 2;
     area[f] = A;
@@ -50,7 +63,8 @@ export function faceData(mesh: SurfaceMesh, vertexDrain: Int32Array, drainCount:
 export function nearestVertex(mesh: SurfaceMesh, u: number, v: number): number {
   const { lineU, lineStart } = mesh;
   const L = lineU.length;
-  let lo = 0, hi = L - 1;
+  let lo = 0,
+    hi = L - 1;
   while (hi - lo > 1) {
     const mid = (lo + hi) >>> 1;
     if (lineU[mid] <= u) lo = mid;
@@ -59,9 +73,11 @@ export function nearestVertex(mesh: SurfaceMesh, u: number, v: number): number {
   let best = -1;
   let bestD = Infinity;
   for (let j = Math.max(0, lo - 1); j <= Math.min(L - 1, hi + 1); j++) {
-    const s0 = lineStart[j], s1 = lineStart[j + 1];
+    const s0 = lineStart[j],
+      s1 = lineStart[j + 1];
     if (s1 <= s0) continue;
-    let a = s0, b = s1 - 1;
+    let a = s0,
+      b = s1 - 1;
     while (b - a > 1) {
       const mid = (a + b) >>> 1;
       if (mesh.v[mid] <= v) a = mid;

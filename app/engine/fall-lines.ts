@@ -16,13 +16,18 @@ import type { FallLine, Point } from "./types";
 export function fallLineStarts(roof: Roof, levels: PerimeterLevels): [number, number, number][] {
   const starts: [number, number, number][] = [];
   const H = levels.H;
-  for (let i = 0; i < roof.n; i++) if (Math.abs(levels.vertex[i] - H) <= 1e-12) starts.push([roof.xs[i], roof.ys[i], -1]);
+  for (let i = 0; i < roof.n; i++)
+    if (Math.abs(levels.vertex[i] - H) <= 1e-12) starts.push([roof.xs[i], roof.ys[i], -1]);
   for (let j = 0; j < roof.n; j++) {
     const q = (j + 1) % roof.n;
     for (let k = 0; k < levels.t[j].length; k++) {
       if (levels.kind[j][k] !== 2) continue;
       const s = levels.t[j][k] / roof.len[j];
-      starts.push([roof.xs[j] + s * (roof.xs[q] - roof.xs[j]), roof.ys[j] + s * (roof.ys[q] - roof.ys[j]), outletAt(roof, j, levels.t[j][k - 1])]);
+      starts.push([
+        roof.xs[j] + s * (roof.xs[q] - roof.xs[j]),
+        roof.ys[j] + s * (roof.ys[q] - roof.ys[j]),
+        outletAt(roof, j, levels.t[j][k - 1]),
+      ]);
     }
   }
   return starts;
@@ -34,7 +39,11 @@ function outletAt(roof: Roof, j: number, t: number | undefined): number {
   const q = (j + 1) % roof.n;
   const tol = 1e-9 * Math.max(1, roof.len[j]);
   return roof.outlets.findIndex((o) =>
-    o.vertex === j ? t <= tol : o.vertex === q ? Math.abs(t - roof.len[j]) <= tol : o.vertex < 0 && o.edge === j && Math.abs(o.t - t) <= tol,
+    o.vertex === j
+      ? t <= tol
+      : o.vertex === q
+        ? Math.abs(t - roof.len[j]) <= tol
+        : o.vertex < 0 && o.edge === j && Math.abs(o.t - t) <= tol,
   );
 }
 
@@ -106,7 +115,14 @@ export function fallLines(
 }
 
 /** Drains of the mesh vertices within `radius` of frame point (u, v), added to `out`. */
-function drainsWithin(mesh: SurfaceMesh, routing: Routing, u: number, v: number, radius: number, out: Set<number>): void {
+function drainsWithin(
+  mesh: SurfaceMesh,
+  routing: Routing,
+  u: number,
+  v: number,
+  radius: number,
+  out: Set<number>,
+): void {
   const { lineU, lineStart } = mesh;
   const r2 = radius * radius;
   for (let j = 0; j < lineU.length; j++) {

@@ -38,7 +38,11 @@ export function fallMap(faces: FaceData, minFallRatio: number, edges: readonly n
     const lo = b === 0 ? 0 : sorted[b - 1];
     const hi = b < sorted.length ? sorted[b] : null;
     const label =
-      b === 0 ? `steeper than ${formatRatio(hi!)}` : hi === null ? `flatter than ${formatRatio(lo)}` : `${formatRatio(lo)}-${formatRatio(hi)}`;
+      b === 0
+        ? `steeper than ${formatRatio(hi!)}`
+        : hi === null
+          ? `flatter than ${formatRatio(lo)}`
+          : `${formatRatio(lo)}-${formatRatio(hi)}`;
     bands.push({ label, minRatio: lo, maxRatio: hi, area: areas[b] });
   }
   return { faces: F, areaByBand: bands, flatterThanMinimumArea: flatter, area: total };

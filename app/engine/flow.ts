@@ -94,9 +94,15 @@ function steeper(s2: number, best2: number, to: number, current: number, u: Floa
  * down so far; a level edge is listed in `level` instead. Returns the new length of that list.
  */
 function visit(
-  a: number, b: number,
-  u: Float64Array, v: Float64Array, z: Float64Array,
-  best: Float64Array, receiver: Int32Array, level: Int32Array, nLevel: number,
+  a: number,
+  b: number,
+  u: Float64Array,
+  v: Float64Array,
+  z: Float64Array,
+  best: Float64Array,
+  receiver: Int32Array,
+  level: Int32Array,
+  nLevel: number,
 ): number {
   const dz = z[a] - z[b];
   if (dz <= FLAT && dz >= -FLAT) {
@@ -138,7 +144,8 @@ export function routeWater(roof: Roof, mesh: SurfaceMesh, memory: Memory = FRESH
   const level = memory.take(Int32Array, rungs.length + 2 * V);
   let nLevel = 0;
   // Every mesh edge once, in `meshEdges` order: the rungs, then the links along the lines.
-  for (let k = 0; k < rungs.length; k += 2) nLevel = visit(rungs[k], rungs[k + 1], u, v, z, best, receiver, level, nLevel);
+  for (let k = 0; k < rungs.length; k += 2)
+    nLevel = visit(rungs[k], rungs[k + 1], u, v, z, best, receiver, level, nLevel);
   for (let i = 1; i < V; i++) if (link[i]) nLevel = visit(i - 1, i, u, v, z, best, receiver, level, nLevel);
   // rootDrain: the drain a chain's last vertex is (-1 for a level vertex not yet settled).
   const rootDrain = drainMark;
@@ -165,7 +172,10 @@ export function routeWater(roof: Roof, mesh: SurfaceMesh, memory: Memory = FRESH
 class Chains {
   private readonly jump: Int32Array;
   /** `jump`: one slot per vertex, any contents (it is reset here). */
-  constructor(private readonly receiver: Int32Array, jump: Int32Array) {
+  constructor(
+    private readonly receiver: Int32Array,
+    jump: Int32Array,
+  ) {
     this.jump = jump.fill(-1);
   }
   end(i: number): number {
@@ -177,7 +187,7 @@ class Chains {
       else if (receiver[x] >= 0) x = receiver[x];
       else break;
     }
-    for (let y = i; y !== x; ) {
+    for (let y = i; y !== x;) {
       const next = jump[y] >= 0 ? jump[y] : receiver[y];
       jump[y] = x;
       y = next;
@@ -192,7 +202,13 @@ class Chains {
  * mesh order) until nothing changes (a wide level area takes one sweep per step across it, so
  * the sweeps are bounded); returns how many such vertices are left without a way out.
  */
-function levelPatches(edges: Int32Array, receiver: Int32Array, rootDrain: Int32Array, chains: Chains, open: number): number {
+function levelPatches(
+  edges: Int32Array,
+  receiver: Int32Array,
+  rootDrain: Int32Array,
+  chains: Chains,
+  open: number,
+): number {
   const MAX_SWEEPS = 64;
   const settle = (x: number, y: number) => {
     if (receiver[x] >= 0 || rootDrain[x] >= 0 || rootDrain[chains.end(y)] < 0) return 0;
@@ -214,7 +230,14 @@ function levelPatches(edges: Int32Array, receiver: Int32Array, rootDrain: Int32A
 }
 
 /** What is left: connected level patches (joined by level edges) with no way down, each a pit (ponding). */
-function markPits(V: number, z: Float64Array, edges: Int32Array, receiver: Int32Array, rootDrain: Int32Array, drains: Drain[]): void {
+function markPits(
+  V: number,
+  z: Float64Array,
+  edges: Int32Array,
+  receiver: Int32Array,
+  rootDrain: Int32Array,
+  drains: Drain[],
+): void {
   const degree = new Int32Array(V + 1);
   for (let k = 0; k < edges.length; k++) degree[edges[k] + 1]++;
   for (let i = 0; i < V; i++) degree[i + 1] += degree[i];

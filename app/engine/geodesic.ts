@@ -10,12 +10,17 @@ function inOpening(roof: Roof, x: number, y: number): boolean {
     const m = xs.length;
     let inside = false;
     for (let i = 0, j = m - 1; i < m; j = i++) {
-      const xi = xs[i], yi = ys[i], xj = xs[j], yj = ys[j];
-      const dx = xi - xj, dy = yi - yj;
+      const xi = xs[i],
+        yi = ys[i],
+        xj = xs[j],
+        yj = ys[j];
+      const dx = xi - xj,
+        dy = yi - yj;
       const len2 = dx * dx + dy * dy;
       let s = len2 > 0 ? ((x - xj) * dx + (y - yj) * dy) / len2 : 0;
       s = s < 0 ? 0 : s > 1 ? 1 : s;
-      const cx = xj + s * dx - x, cy = yj + s * dy - y;
+      const cx = xj + s * dx - x,
+        cy = yj + s * dy - y;
       if (cx * cx + cy * cy <= tol * tol) {
         inside = false;
         break;
@@ -96,7 +101,8 @@ export class Geodesic {
       const m = h.xs.length;
       const sign = signedArea(h.xs, h.ys) > 0 ? 1 : -1;
       for (let i = 0; i < m; i++) {
-        const a = (i + m - 1) % m, q = (i + 1) % m;
+        const a = (i + m - 1) % m,
+          q = (i + 1) % m;
         walls.push(h.xs[i], h.ys[i], h.xs[q], h.ys[q]);
         if (sign * orient(h.xs[a], h.ys[a], h.xs[i], h.ys[i], h.xs[q], h.ys[q]) > 0) {
           this.reflex.push(-1);
@@ -120,19 +126,30 @@ export class Geodesic {
     const L = Math.sqrt(ex * ex + ey * ey);
     if (L <= tol) return true;
     const eps = tol * L;
-    const loX = Math.min(ax, bx) - tol, hiX = Math.max(ax, bx) + tol;
-    const loY = Math.min(ay, by) - tol, hiY = Math.max(ay, by) + tol;
+    const loX = Math.min(ax, bx) - tol,
+      hiX = Math.max(ax, bx) + tol;
+    const loY = Math.min(ay, by) - tol,
+      hiY = Math.max(ay, by) + tol;
     let touches: number[] | null = null;
     for (let w = 0; w < walls.length; w += 4) {
-      const px = walls[w], py = walls[w + 1], qx = walls[w + 2], qy = walls[w + 3];
-      if ((px < loX && qx < loX) || (px > hiX && qx > hiX) || (py < loY && qy < loY) || (py > hiY && qy > hiY)) continue;
+      const px = walls[w],
+        py = walls[w + 1],
+        qx = walls[w + 2],
+        qy = walls[w + 3];
+      if ((px < loX && qx < loX) || (px > hiX && qx > hiX) || (py < loY && qy < loY) || (py > hiY && qy > hiY))
+        continue;
       const o1 = ex * (py - ay) - ey * (px - ax);
       const o2 = ex * (qy - ay) - ey * (qx - ax);
-      const fx = qx - px, fy = qy - py;
+      const fx = qx - px,
+        fy = qy - py;
       const o3 = fx * (ay - py) - fy * (ax - px);
       const o4 = fx * (by - py) - fy * (bx - px);
       const eps2 = tol * Math.sqrt(fx * fx + fy * fy);
-      if (((o1 > eps && o2 < -eps) || (o1 < -eps && o2 > eps)) && ((o3 > eps2 && o4 < -eps2) || (o3 < -eps2 && o4 > eps2))) return false;
+      if (
+        ((o1 > eps && o2 < -eps) || (o1 < -eps && o2 > eps)) &&
+        ((o3 > eps2 && o4 < -eps2) || (o3 < -eps2 && o4 > eps2))
+      )
+        return false;
       // A vertex on the segment splits it: each piece is then checked on its own.
       if (o1 <= eps && o1 >= -eps) {
         const s = ((px - ax) * ex + (py - ay) * ey) / (L * L);
@@ -154,12 +171,17 @@ export class Geodesic {
     const { xs, ys, n, tol } = this;
     let inside = false;
     for (let i = 0, j = n - 1; i < n; j = i++) {
-      const xi = xs[i], yi = ys[i], xj = xs[j], yj = ys[j];
-      const dx = xi - xj, dy = yi - yj;
+      const xi = xs[i],
+        yi = ys[i],
+        xj = xs[j],
+        yj = ys[j];
+      const dx = xi - xj,
+        dy = yi - yj;
       const len2 = dx * dx + dy * dy;
       let s = len2 > 0 ? ((x - xj) * dx + (y - yj) * dy) / len2 : 0;
       s = s < 0 ? 0 : s > 1 ? 1 : s;
-      const cx = xj + s * dx - x, cy = yj + s * dy - y;
+      const cx = xj + s * dx - x,
+        cy = yj + s * dy - y;
       if (cx * cx + cy * cy <= tol * tol) return true;
       if (yi > y !== yj > y && x < ((xj - xi) * (y - yi)) / (yj - yi) + xi) inside = !inside;
     }
@@ -225,7 +247,13 @@ export class Geodesic {
   toPoint(tx: number, ty: number): Destination {
     return this.destination(
       (x, y) => (this.visible(x, y, tx, ty) ? [tx, ty] : null),
-      (sx, sy) => (this.visible(sx, sy, tx, ty) ? [[sx, sy], [tx, ty]] : []),
+      (sx, sy) =>
+        this.visible(sx, sy, tx, ty)
+          ? [
+              [sx, sy],
+              [tx, ty],
+            ]
+          : [],
       (sx, sy) => (this.visible(sx, sy, tx, ty) ? Math.hypot(tx - sx, ty - sy) : -1),
     );
   }
@@ -233,15 +261,30 @@ export class Geodesic {
   /** An edge destination (an eaves edge): its nearest visible point, or else an end of it. */
   toEdge(e: number): Destination {
     const q = (e + 1) % this.n;
-    const ax = this.xs[e], ay = this.ys[e], bx = this.xs[q], by = this.ys[q];
+    const ax = this.xs[e],
+      ay = this.ys[e],
+      bx = this.xs[q],
+      by = this.ys[q];
     const leg = (x: number, y: number): [number, number] | null => {
-      const dx = bx - ax, dy = by - ay;
+      const dx = bx - ax,
+        dy = by - ay;
       let s = ((x - ax) * dx + (y - ay) * dy) / (dx * dx + dy * dy);
       s = s < 0 ? 0 : s > 1 ? 1 : s;
-      const cx = ax + s * dx, cy = ay + s * dy;
+      const cx = ax + s * dx,
+        cy = ay + s * dy;
       if (this.visible(x, y, cx, cy)) return [cx, cy];
-      const da = Math.hypot(ax - x, ay - y), db = Math.hypot(bx - x, by - y);
-      const ends: [number, number][] = da <= db ? [[ax, ay], [bx, by]] : [[bx, by], [ax, ay]];
+      const da = Math.hypot(ax - x, ay - y),
+        db = Math.hypot(bx - x, by - y);
+      const ends: [number, number][] =
+        da <= db
+          ? [
+              [ax, ay],
+              [bx, by],
+            ]
+          : [
+              [bx, by],
+              [ax, ay],
+            ];
       for (const [px, py] of ends) if (this.visible(x, y, px, py)) return [px, py];
       return null;
     };

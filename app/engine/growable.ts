@@ -5,7 +5,10 @@ type Ctor<T extends TypedArray> = { new (n: number): T };
 export class Growable<T extends TypedArray> {
   data: T;
   length = 0;
-  constructor(private readonly ctor: Ctor<T>, capacity: number) {
+  constructor(
+    private readonly ctor: Ctor<T>,
+    capacity: number,
+  ) {
     this.data = new ctor(Math.max(16, capacity));
   }
   push(value: number): void {

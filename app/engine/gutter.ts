@@ -44,7 +44,8 @@ export function gutterLayout(roof: Roof): Analysis["gutter"] {
     narrowGutterOutlets: [] as number[],
   };
   const edges = [...new Set(roof.outlets.map((o) => o.edge))].sort((a, b) => a - b);
-  if (edges.length === 0) return { ...base, reason: "There are no outlets: the roof drains to its eaves, so there is no gutter to compare." };
+  if (edges.length === 0)
+    return { ...base, reason: "There are no outlets: the roof drains to its eaves, so there is no gutter to compare." };
 
   const lines = edges.map((e) => edgeLine(roof, e));
   const first = lines[0];
@@ -61,7 +62,10 @@ export function gutterLayout(roof: Roof): Analysis["gutter"] {
     // Facing gutters: n2 = -n1, so the lines are n1·p = c1 and n1·p = -c2.
     fieldSpan = Math.abs(-other.c - first.c) / 2 - width;
   } else {
-    return { ...base, reason: "The outlets are on edges that are not parallel, so a simple gutter layout cannot be built." };
+    return {
+      ...base,
+      reason: "The outlets are on edges that are not parallel, so a simple gutter layout cannot be built.",
+    };
   }
 
   let highestSole = -Infinity;

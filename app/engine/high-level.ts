@@ -30,7 +30,8 @@ export function drainSpans(roof: Roof): DrainSpan[] {
       // the outline. Read the span from the joists half a spacing either side instead.
       for (const du of [-roof.spacing / 2, roof.spacing / 2]) {
         const u = Math.min(roof.umax, Math.max(roof.umin, o.u + du));
-        for (const side of [1, -1] as const) for (const k of chordsAt(roof, u, side)) span = Math.max(span, k.vB - k.vA);
+        for (const side of [1, -1] as const)
+          for (const k of chordsAt(roof, u, side)) span = Math.max(span, k.vB - k.vA);
       }
     }
     spans.push({ kind: "outlet", index: o.index, level: o.level, span });

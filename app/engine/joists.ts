@@ -84,9 +84,11 @@ export function dropSchedule(roof: Roof, levels: PerimeterLevels, positions: Flo
         // Trimmed round the openings (docs/roof-method-plans.md P2): the pieces left keep the
         // uncut span's levels at their ends.
         let v0 = from.v;
-        const at = (v: number) => (to.v > from.v ? from.z + ((to.z - from.z) * (v - from.v)) / (to.v - from.v) : from.z);
+        const at = (v: number) =>
+          to.v > from.v ? from.z + ((to.z - from.z) * (v - from.v)) / (to.v - from.v) : from.z;
         for (let c = 0; c < cuts.length; c += 2) {
-          const lo = cuts[c], hi = cuts[c + 1];
+          const lo = cuts[c],
+            hi = cuts[c + 1];
           if (hi <= v0 || lo >= to.v) continue;
           if (lo > v0) push(v0, at(v0), lo, at(lo));
           v0 = Math.max(v0, hi);
@@ -114,7 +116,8 @@ function holeIntervals(roof: Roof, u: number, side: 1 | -1): number[] {
     const vsAt: number[] = [];
     for (let i = 0; i < m; i++) {
       const q = i + 1 === m ? 0 : i + 1;
-      const ua = us[i], ub = us[q];
+      const ua = us[i],
+        ub = us[q];
       const crosses = side > 0 ? ua <= u !== ub <= u : ua < u !== ub < u;
       if (!crosses) continue;
       const s = Math.min(1, Math.max(0, (u - ua) / (ub - ua)));
@@ -165,7 +168,10 @@ function uncoveredWalls(roof: Roof, levels: PerimeterLevels, u: number, chords: 
     const kt = levels.t[e];
     for (const [a, b] of pieces) {
       const at = (v: number) => levelOnEdge(levels, e, Math.abs(v - vs[e]));
-      const breaks: Break[] = [{ v: a, z: at(a) }, { v: b, z: at(b) }];
+      const breaks: Break[] = [
+        { v: a, z: at(a) },
+        { v: b, z: at(b) },
+      ];
       for (let k = 1; k + 1 < kt.length; k++) {
         const v = vs[e] + dir * kt[k];
         if (v > a + roof.tol && v < b - roof.tol) breaks.push({ v, z: levels.z[e][k] });

@@ -39,8 +39,16 @@ export interface MeshOptions {
 }
 
 /** Sorted unique breakpoints: every vertex u exactly, outlet and half-way knots, then mesh joist lines. */
-function meshLines(roof: Roof, levels: PerimeterLevels, joists: Float64Array, stride: number, gap: number): Float64Array {
-  const hard = Float64Array.from(roof.holes.length ? [...roof.us, ...roof.holes.flatMap((h) => [...h.us])] : roof.us).sort();
+function meshLines(
+  roof: Roof,
+  levels: PerimeterLevels,
+  joists: Float64Array,
+  stride: number,
+  gap: number,
+): Float64Array {
+  const hard = Float64Array.from(
+    roof.holes.length ? [...roof.us, ...roof.holes.flatMap((h) => [...h.us])] : roof.us,
+  ).sort();
   const snap = 1e-6 * Math.max(1, roof.umax - roof.umin);
   const knots: number[] = [];
   for (let j = 0; j < roof.n; j++) {
@@ -87,7 +95,12 @@ function mergeAway(accepted: ArrayLike<number>, candidates: ArrayLike<number>, g
  * line; each trapezoid is zipped between its two sides, so triangle areas sum exactly to the
  * outline's area. Levels: perimeter level on the outline, the chord rule inside.
  */
-export function buildMesh(roof: Roof, levels: PerimeterLevels, joists: Float64Array, options: MeshOptions): SurfaceMesh {
+export function buildMesh(
+  roof: Roof,
+  levels: PerimeterLevels,
+  joists: Float64Array,
+  options: MeshOptions,
+): SurfaceMesh {
   const { n, len, spacing } = roof;
   // Every ring's edges: the outline's (0..n-1), then each opening's; edge e runs from vertex e to
   // vertex next[e]. The even-odd pairing of edges in a slab leaves the openings out.
@@ -101,7 +114,8 @@ export function buildMesh(roof: Roof, levels: PerimeterLevels, joists: Float64Ar
   const extentU = roof.umax - roof.umin;
   const extentV = roof.vmax - roof.vmin;
   const knots = levels.t.reduce((sum, kt) => sum + kt.length, 0);
-  const estimate = (stride: number, step: number) => (extentU / (spacing * stride) + 1 + n + knots) * (extentV / step + 2);
+  const estimate = (stride: number, step: number) =>
+    (extentU / (spacing * stride) + 1 + n + knots) * (extentV / step + 2);
   let factor = Math.max(1, Math.sqrt(estimate(1, spacing) / options.maxVertices));
   while (estimate(Math.ceil(factor - 1e-9), spacing * factor) > options.maxVertices) factor *= 1.25;
   const stride = Math.ceil(factor - 1e-9);
@@ -175,15 +189,18 @@ export function buildMesh(roof: Roof, levels: PerimeterLevels, joists: Float64Ar
     let best = outerStart[slab];
     let bestGap = Infinity;
     for (let k = outerStart[slab]; k < k1; k++) {
-      const vB = edgeV(oBots[k], u), vT = edgeV(oTops[k], u);
+      const vB = edgeV(oBots[k], u),
+        vT = edgeV(oTops[k], u);
       const gap = v < vB ? vB - v : v > vT ? v - vT : 0;
       if (gap < bestGap) {
         bestGap = gap;
         best = k;
       }
     }
-    const eB = oBots[best], eT = oTops[best];
-    const vB = edgeV(eB, u), vT = edgeV(eT, u);
+    const eB = oBots[best],
+      eT = oTops[best];
+    const vB = edgeV(eB, u),
+      vT = edgeV(eT, u);
     const zB = levelOnEdge(levels, eB, tOnEdge(us, len, next, eB, u));
     const zT = levelOnEdge(levels, eT, tOnEdge(us, len, next, eT, u));
     return vT - vB > 0 ? zB + ((zT - zB) * (v - vB)) / (vT - vB) : zB;
@@ -198,7 +215,8 @@ export function buildMesh(roof: Roof, levels: PerimeterLevels, joists: Float64Ar
   const sides = new Float64Array(4 * maxSides);
   const maxMarks = 2 * maxSides + levels.t.reduce((sum, kt) => sum + kt.length, 0) + 8;
   const marks = new Marks(maxMarks);
-  const coveredLo = new Float64Array(maxSides), coveredHi = new Float64Array(maxSides);
+  const coveredLo = new Float64Array(maxSides),
+    coveredHi = new Float64Array(maxSides);
   const along: number[] = [];
 
   const byStart = new Int32Array(maxSides);
@@ -216,9 +234,12 @@ export function buildMesh(roof: Roof, levels: PerimeterLevels, joists: Float64Ar
       const k0 = pass === 0 ? rightFrom : from;
       const k1 = pass === 0 ? rightTo : leftTo;
       for (let k = k0; k < k1; k++) {
-        const eB = bots[k], eT = tops[k];
-        const tB = tOnEdge(us, len, next, eB, u), tT = tOnEdge(us, len, next, eT, u);
-        const vB = vOnEdge(us, vs, next, eB, u), vT = vOnEdge(us, vs, next, eT, u);
+        const eB = bots[k],
+          eT = tops[k];
+        const tB = tOnEdge(us, len, next, eB, u),
+          tT = tOnEdge(us, len, next, eT, u);
+        const vB = vOnEdge(us, vs, next, eB, u),
+          vT = vOnEdge(us, vs, next, eT, u);
         const slab = pass === 0 ? j : j - 1;
         // An end on an opening's edge takes the deck's level there (docs/roof-method-plans.md
         // P2); its station is marked -2 - opening.
@@ -257,7 +278,8 @@ export function buildMesh(roof: Roof, levels: PerimeterLevels, joists: Float64Ar
     for (let i = 0; i < nSides; i++) {
       const vB = sides[4 * byStart[i]];
       const vT = sides[4 * byStart[i] + 1];
-      if (nCovered > 0 && vB <= coveredHi[nCovered - 1] + tolV) coveredHi[nCovered - 1] = Math.max(coveredHi[nCovered - 1], vT);
+      if (nCovered > 0 && vB <= coveredHi[nCovered - 1] + tolV)
+        coveredHi[nCovered - 1] = Math.max(coveredHi[nCovered - 1], vT);
       else {
         coveredLo[nCovered] = vB;
         coveredHi[nCovered++] = vT;
@@ -411,7 +433,10 @@ class Stations {
   /** 1 when a station and the one before it on the same line are joined inside the outline. */
   link: Uint8Array;
   count = 0;
-  constructor(memory: Memory, private cap: number) {
+  constructor(
+    memory: Memory,
+    private cap: number,
+  ) {
     this.u = memory.take(Float64Array, cap);
     this.v = memory.take(Float64Array, cap);
     this.z = memory.take(Float64Array, cap);
@@ -447,14 +472,31 @@ class Stations {
  * side from the larger-u slab first (sides [0, nRight)), as the probes do.
  */
 function emitLine(
-  out: Stations, u: number,
-  coveredLo: Float64Array, coveredHi: Float64Array, nCovered: number,
+  out: Stations,
+  u: number,
+  coveredLo: Float64Array,
+  coveredHi: Float64Array,
+  nCovered: number,
   marks: Marks,
-  sides: Float64Array, nRight: number, nSides: number,
-  vGrid0: number, step: number, minGap: number, tolV: number,
+  sides: Float64Array,
+  nRight: number,
+  nSides: number,
+  vGrid0: number,
+  step: number,
+  minGap: number,
+  tolV: number,
 ): void {
-  const U = out.u, V = out.v, Z = out.z, E = out.e, T = out.t, K = out.link;
-  const markV = marks.v, markZ = marks.z, markE = marks.e, markT = marks.t, nMarks = marks.count;
+  const U = out.u,
+    V = out.v,
+    Z = out.z,
+    E = out.e,
+    T = out.t,
+    K = out.link;
+  const markV = marks.v,
+    markZ = marks.z,
+    markE = marks.e,
+    markT = marks.t,
+    nMarks = marks.count;
   let vc = out.count;
   let m = 0;
   let lastV = -Infinity;
@@ -491,10 +533,14 @@ function emitLine(
         const from = pass === 0 ? 0 : nRight;
         const to = pass === 0 ? nRight : nSides;
         for (let k = from; k < to; k++) {
-          const vB = sides[4 * k], vT = sides[4 * k + 1];
+          const vB = sides[4 * k],
+            vT = sides[4 * k + 1];
           if (gridV < vB - tolV || gridV > vT + tolV) continue;
           const span = vT - vB;
-          z = span > 0 ? sides[4 * k + 2] + ((sides[4 * k + 3] - sides[4 * k + 2]) * (gridV - vB)) / span : sides[4 * k + 2];
+          z =
+            span > 0
+              ? sides[4 * k + 2] + ((sides[4 * k + 3] - sides[4 * k + 2]) * (gridV - vB)) / span
+              : sides[4 * k + 2];
           break;
         }
       }
@@ -512,7 +558,15 @@ function emitLine(
 }
 
 /** Grid stations that fall on an outline edge lying along the line take that edge's level. */
-function fixAlong(out: Stations, start: number, along: number[], vs: Float64Array, n: number, levels: PerimeterLevels, tol: number): void {
+function fixAlong(
+  out: Stations,
+  start: number,
+  along: number[],
+  vs: Float64Array,
+  n: number,
+  levels: PerimeterLevels,
+  tol: number,
+): void {
   for (let i = start; i < out.count; i++) {
     if (out.e[i] >= 0) continue;
     for (const e of along) {
@@ -548,7 +602,10 @@ function zipSlabs(
   const L = lineStart.length - 1;
   for (let j = 0; j + 1 < L; j++) {
     for (let k = slabStart[j]; k < slabStart[j + 1]; k++) {
-      const vBl = ends[4 * k], vTl = ends[4 * k + 1], vBr = ends[4 * k + 2], vTr = ends[4 * k + 3];
+      const vBl = ends[4 * k],
+        vTl = ends[4 * k + 1],
+        vBr = ends[4 * k + 2],
+        vTr = ends[4 * k + 3];
       const l0 = lowerBound(V, lineStart[j], lineStart[j + 1], vBl - tolV);
       const l1 = upperBound(V, lineStart[j], lineStart[j + 1], vTl + tolV) - 1;
       const r0 = lowerBound(V, lineStart[j + 1], lineStart[j + 2], vBr - tolV);
@@ -575,7 +632,8 @@ function zipSlabs(
       while (i < l1 || r < r1) {
         // Near-ties (equal fractions up to rounding, common on regular outlines) advance the
         // right side, as exact ties do, so a moved or turned spec meshes the same way.
-        const advanceLeft = i === l1 ? false : r === r1 ? true : (V[i + 1] - vBl) * invL < (V[r + 1] - vBr) * invR - 1e-9;
+        const advanceLeft =
+          i === l1 ? false : r === r1 ? true : (V[i + 1] - vBl) * invL < (V[r + 1] - vBr) * invR - 1e-9;
         tri[tc] = i;
         tri[tc + 1] = r;
         if (advanceLeft) tri[tc + 2] = ++i;

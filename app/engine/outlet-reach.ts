@@ -59,18 +59,17 @@ export function outletParallelWarnings(roof: Roof, levels: PerimeterLevels, catc
     const drained = catchments.find((c) => c.kind === "outlet" && c.index === o.index)?.area ?? 0;
     const q = (o.edge + 1) % roof.n;
     // Inward normal of the outlet's wall in plan (counter-clockwise outline: the edge turned left).
-    const direction: Point = [-(roof.ys[q] - roof.ys[o.edge]) / roof.len[o.edge] + 0, (roof.xs[q] - roof.xs[o.edge]) / roof.len[o.edge] + 0];
+    const direction: Point = [
+      -(roof.ys[q] - roof.ys[o.edge]) / roof.len[o.edge] + 0,
+      (roof.xs[q] - roof.xs[o.edge]) / roof.len[o.edge] + 0,
+    ];
     out.push({
       code: "outlet-parallel-to-joists",
       message: `Outlet ${o.index + 1} sits on a wall that runs along the joists: no joist ends on it, so it drains only ${drained.toFixed(1)} m² and the deck dips steeply beside it. Turn the joists to run toward that wall, move the outlet to a wall the joists end on, or divide the roof with a ridge so the outlet has an area of its own.`,
       at: toPlan(roof, o.u, o.v),
       outlet: o.index,
       drainedArea: drained,
-      fixes: [
-        { kind: "turn-joists", direction },
-        { kind: "move-outlet" },
-        { kind: "divide-roof" },
-      ],
+      fixes: [{ kind: "turn-joists", direction }, { kind: "move-outlet" }, { kind: "divide-roof" }],
     });
   }
   return out;

@@ -4,8 +4,7 @@ import { roofSpecSchema } from "./schema";
 import type { RoofSpec } from "./types";
 
 export type ParseSpecResult =
-  | { ok: true; spec: RoofSpec }
-  | { ok: false; status: 400 | 422; error: { message: string; issues: SpecIssue[] } };
+  { ok: true; spec: RoofSpec } | { ok: false; status: 400 | 422; error: { message: string; issues: SpecIssue[] } };
 
 /** parseSpec's answer with the roof it prepared, for `analyseRoof` (no second preparation). */
 export type ParseRoofResult = Exclude<ParseSpecResult, { ok: true }> | { ok: true; spec: RoofSpec; roof: Roof };

@@ -65,7 +65,11 @@ export function prepareRoof(spec: RoofSpec): Prepared {
   const unbuilt = spec as { ridges?: unknown[]; areas?: unknown[] };
   for (const key of ["ridges", "areas"] as const) {
     if (unbuilt[key]?.length)
-      return fail(422, key, "drainage areas divided by ridges are not built yet: analyse each area as a roof of its own for now");
+      return fail(
+        422,
+        key,
+        "drainage areas divided by ridges are not built yet: analyse each area as a roof of its own for now",
+      );
   }
   if (n > LIMITS.maxVertices) return fail(400, "outline", `allows at most ${LIMITS.maxVertices} vertices (got ${n})`);
   if (kinds && kinds.length !== n) return fail(400, "edges", `needs one kind per edge: ${n} (got ${kinds.length})`);
@@ -236,19 +240,47 @@ export function prepareRoof(spec: RoofSpec): Prepared {
   const minFall = spec.minFall !== undefined ? fallOr(spec.minFall, 100) : fallFromRatio(rule("fallLine")!.value);
   const gutterWidth = spec.gutter?.width ?? rule("gutterWidth")!.value;
   const gutterDepth = spec.gutter?.depth ?? rule("gutterDepth")!.value;
-  const gutterFall = spec.gutter?.fall !== undefined ? fallOr(spec.gutter.fall, 100) : fallFromRatio(rule("gutterFall")!.value);
+  const gutterFall =
+    spec.gutter?.fall !== undefined ? fallOr(spec.gutter.fall, 100) : fallFromRatio(rule("gutterFall")!.value);
   for (const key of ["pondingCheckBelow", "overflowOpening", "sumpDepth", "gutterRainfallFactor"] as const) {
     if (RULE_SETS[ruleSet].values[key]) rule(key);
   }
 
   const roof: Roof = {
-    n, xs, ys, ox, oy, userEdge, userVertex, eaves, len, area, perimeter, convex, reflex,
-    dx, dy, us, vs, umin, umax, vmin, vmax, outlets, baseFall, minFall,
+    n,
+    xs,
+    ys,
+    ox,
+    oy,
+    userEdge,
+    userVertex,
+    eaves,
+    len,
+    area,
+    perimeter,
+    convex,
+    reflex,
+    dx,
+    dy,
+    us,
+    vs,
+    umin,
+    umax,
+    vmin,
+    vmax,
+    outlets,
+    baseFall,
+    minFall,
     gutter: { width: gutterWidth, depth: gutterDepth, fall: gutterFall },
     rainfall: spec.rainfall
       ? { intensity: spec.rainfall.intensity, assumed: false }
       : { intensity: DEFAULTS.rainfallIntensity, assumed: true },
-    ruleSet, used, spacing, offset, fromOutlets, highLevelGiven,
+    ruleSet,
+    used,
+    spacing,
+    offset,
+    fromOutlets,
+    highLevelGiven,
     probes: (spec.probes ?? []).map((p) => [p[0], p[1]]),
     holes,
     holeArea: holes.reduce((sum, h) => sum + h.area, 0),
@@ -262,7 +294,13 @@ export function prepareRoof(spec: RoofSpec): Prepared {
  * (dx, dy); sets each outlet's u and v. Shared by preparation and the joist direction advice.
  */
 export function frameOf(
-  xs: Float64Array, ys: Float64Array, len: Float64Array, outlets: Outlet[], dx: number, dy: number, tol: number,
+  xs: Float64Array,
+  ys: Float64Array,
+  len: Float64Array,
+  outlets: Outlet[],
+  dx: number,
+  dy: number,
+  tol: number,
 ): { us: Float64Array; vs: Float64Array; umin: number; umax: number; vmin: number; vmax: number } {
   const n = xs.length;
   const us = new Float64Array(n);
@@ -277,7 +315,10 @@ export function frameOf(
   for (let k = 1; k < n; k++) {
     if (us[byU[k]] - us[byU[k - 1]] <= tol * 0.01) us[byU[k]] = us[byU[k - 1]];
   }
-  let umin = Infinity, umax = -Infinity, vmin = Infinity, vmax = -Infinity;
+  let umin = Infinity,
+    umax = -Infinity,
+    vmin = Infinity,
+    vmax = -Infinity;
   for (let j = 0; j < n; j++) {
     umin = Math.min(umin, us[j]);
     umax = Math.max(umax, us[j]);
@@ -341,30 +382,45 @@ function prepareHoles(spec: RoofSpec, outline: Point[], ox: number, oy: number):
   for (let i = 0; i < list.length; i++) {
     const path = `openings.${i}.outline`;
     let ring: Point[] = list[i].outline.map((p) => [p[0], p[1]]);
-    const a = ring[0], b = ring[ring.length - 1];
+    const a = ring[0],
+      b = ring[ring.length - 1];
     if (ring.length > 3 && Math.hypot(a[0] - b[0], a[1] - b[1]) <= LIMITS.minEdge) ring = ring.slice(0, -1);
     if (ring.length > 50) return fail(400, path, "allows at most 50 vertices");
     for (let k = 0; k < ring.length; k++) {
-      const p = ring[k], q = ring[(k + 1) % ring.length];
-      if (Math.hypot(q[0] - p[0], q[1] - p[1]) < LIMITS.minEdge) return fail(422, path, `opening ${i + 1}: edge ${k} has zero length`);
+      const p = ring[k],
+        q = ring[(k + 1) % ring.length];
+      if (Math.hypot(q[0] - p[0], q[1] - p[1]) < LIMITS.minEdge)
+        return fail(422, path, `opening ${i + 1}: edge ${k} has zero length`);
     }
     const crossing = findCrossing(ring);
     if (crossing) return fail(422, path, `opening ${i + 1}: ${crossing}`);
-    const area = Math.abs(signedArea(ring.map((p) => p[0]), ring.map((p) => p[1])));
+    const area = Math.abs(
+      signedArea(
+        ring.map((p) => p[0]),
+        ring.map((p) => p[1]),
+      ),
+    );
     if (area < 1e-6) return fail(422, path, `opening ${i + 1} encloses no area`);
     for (const p of ring) {
-      if (!insidePolygon(oxs, oys, p[0], p[1])) return fail(422, path, `opening ${i + 1} lies outside the roof outline at (${p[0]}, ${p[1]})`);
+      if (!insidePolygon(oxs, oys, p[0], p[1]))
+        return fail(422, path, `opening ${i + 1} lies outside the roof outline at (${p[0]}, ${p[1]})`);
     }
     for (let k = 0; k < ring.length; k++) {
-      const p = ring[k], q = ring[(k + 1) % ring.length];
+      const p = ring[k],
+        q = ring[(k + 1) % ring.length];
       for (let j = 0; j < n; j++) {
-        const c = outline[j], d = outline[(j + 1) % n];
+        const c = outline[j],
+          d = outline[(j + 1) % n];
         const near = Math.min(
           nearestOnSegment(c[0], c[1], d[0], d[1], p[0], p[1]).distance,
           nearestOnSegment(p[0], p[1], q[0], q[1], c[0], c[1]).distance,
         );
         if (segmentsTouch(p[0], p[1], q[0], q[1], c[0], c[1], d[0], d[1]) || near < LIMITS.minEdge)
-          return fail(422, path, `opening ${i + 1} crosses or touches the roof outline (outline edge ${j}): an opening must lie inside it`);
+          return fail(
+            422,
+            path,
+            `opening ${i + 1} crosses or touches the roof outline (outline edge ${j}): an opening must lie inside it`,
+          );
       }
     }
     for (let m = 0; m < rings.length; m++) {
@@ -377,9 +433,20 @@ function prepareHoles(spec: RoofSpec, outline: Point[], ox: number, oy: number):
         });
       });
       const inside =
-        insidePolygon(other.map((p) => p[0]), other.map((p) => p[1]), ring[0][0], ring[0][1]) ||
-        insidePolygon(ring.map((p) => p[0]), ring.map((p) => p[1]), other[0][0], other[0][1]);
-      if (touching || inside) return fail(422, path, `opening ${i + 1} overlaps or touches opening ${m + 1}: openings must stand apart`);
+        insidePolygon(
+          other.map((p) => p[0]),
+          other.map((p) => p[1]),
+          ring[0][0],
+          ring[0][1],
+        ) ||
+        insidePolygon(
+          ring.map((p) => p[0]),
+          ring.map((p) => p[1]),
+          other[0][0],
+          other[0][1],
+        );
+      if (touching || inside)
+        return fail(422, path, `opening ${i + 1} overlaps or touches opening ${m + 1}: openings must stand apart`);
     }
     rings.push(ring);
     holes.push({

@@ -75,15 +75,30 @@ export function priorityFlood(graph: Graph, seeds: readonly number[]): FloodResu
 export function gridGraph(z: ArrayLike<number>, width: number, height: number, connectivity: 4 | 8 = 8): Graph {
   const offsets: [number, number][] =
     connectivity === 8
-      ? [[-1, -1], [0, -1], [1, -1], [-1, 0], [1, 0], [-1, 1], [0, 1], [1, 1]]
-      : [[0, -1], [-1, 0], [1, 0], [0, 1]];
+      ? [
+          [-1, -1],
+          [0, -1],
+          [1, -1],
+          [-1, 0],
+          [1, 0],
+          [-1, 1],
+          [0, 1],
+          [1, 1],
+        ]
+      : [
+          [0, -1],
+          [-1, 0],
+          [1, 0],
+          [0, 1],
+        ];
   const start = new Int32Array(width * height + 1);
   const adj: number[] = [];
   for (let r = 0; r < height; r++) {
     for (let c = 0; c < width; c++) {
       start[r * width + c] = adj.length;
       for (const [dc, dr] of offsets) {
-        const cc = c + dc, rr = r + dr;
+        const cc = c + dc,
+          rr = r + dr;
         if (cc >= 0 && cc < width && rr >= 0 && rr < height) adj.push(rr * width + cc);
       }
     }

@@ -91,13 +91,18 @@ export function holeAt(roof: Roof, u: number, v: number): number {
     const m = us.length;
     let inside = false;
     for (let i = 0, j = m - 1; i < m; j = i++) {
-      const ui = us[i], vi = vs[i], uj = us[j], vj = vs[j];
+      const ui = us[i],
+        vi = vs[i],
+        uj = us[j],
+        vj = vs[j];
       // On the boundary: deck, not opening.
-      const du = ui - uj, dv = vi - vj;
+      const du = ui - uj,
+        dv = vi - vj;
       const len2 = du * du + dv * dv;
       let s = len2 > 0 ? ((u - uj) * du + (v - vj) * dv) / len2 : 0;
       s = s < 0 ? 0 : s > 1 ? 1 : s;
-      const cu = uj + s * du - u, cv = vj + s * dv - v;
+      const cu = uj + s * du - u,
+        cv = vj + s * dv - v;
       if (cu * cu + cv * cv <= roof.tol * roof.tol * 1e6) {
         inside = false;
         break;

@@ -30,13 +30,7 @@ export interface RuleValues {
   gutterRainfallFactor?: CitedValue;
 }
 
-export type RuleSetId =
-  | "common-practice"
-  | "us-ibc-2018"
-  | "au-ncc-2022"
-  | "nz-e2-as1"
-  | "de-din-18531"
-  | "uk-bs-6229";
+export type RuleSetId = "common-practice" | "us-ibc-2018" | "au-ncc-2022" | "nz-e2-as1" | "de-din-18531" | "uk-bs-6229";
 
 export interface RuleSet {
   id: RuleSetId;
@@ -298,4 +292,3 @@ function usedRule(v: CitedValue, key: keyof RuleValues, ruleSet: RuleSetId): Use
     ? { value, unit, document, clause, confidence, key, ruleSet }
     : { value, unit, document, clause, confidence, note, key, ruleSet };
 }
-

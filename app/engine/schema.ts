@@ -26,7 +26,9 @@ export const roofSpecSchema = z.object({
   outline: z
     .array(point, { error: "must be a list of [x, y] points" })
     .check(z.minLength(3, "needs at least 3 vertices"), z.maxLength(201, "allows at most 200 vertices")),
-  edges: z.optional(z.array(z.enum(["parapet", "eaves"], { error: 'must be "parapet" or "eaves"' })).check(z.maxLength(201))),
+  edges: z.optional(
+    z.array(z.enum(["parapet", "eaves"], { error: 'must be "parapet" or "eaves"' })).check(z.maxLength(201)),
+  ),
   outlets: z.optional(
     z
       .array(
@@ -71,7 +73,11 @@ export const roofSpecSchema = z.object({
           outline: z
             .array(point, { error: "must be a list of [x, y] points" })
             .check(z.minLength(3, "needs at least 3 vertices"), z.maxLength(51, "allows at most 50 vertices")),
-          kind: z.optional(z.enum(["rooflight", "hatch", "plant", "other"], { error: 'must be "rooflight", "hatch", "plant" or "other"' })),
+          kind: z.optional(
+            z.enum(["rooflight", "hatch", "plant", "other"], {
+              error: 'must be "rooflight", "hatch", "plant" or "other"',
+            }),
+          ),
           upstand: z.optional(limited(0, 2, "must be at least 0 m", "must be at most 2 m")),
         }),
         { error: "must be a list of openings {outline: [[x, y], ...]}" },
@@ -82,5 +88,7 @@ export const roofSpecSchema = z.object({
   // here so that preparation refuses them by name instead of dropping them unseen.
   ridges: z.optional(z.array(z.unknown()).check(z.maxLength(50))),
   areas: z.optional(z.array(z.unknown()).check(z.maxLength(50))),
-  ruleSet: z.optional(z.enum(RULE_SET_IDS as [string, ...string[]], { error: `must be one of ${RULE_SET_IDS.join(", ")}` })),
+  ruleSet: z.optional(
+    z.enum(RULE_SET_IDS as [string, ...string[]], { error: `must be one of ${RULE_SET_IDS.join(", ")}` }),
+  ),
 });

@@ -42,12 +42,17 @@ export function offsetFromOutlets(outlets: Outlet[], umin: number, umax: number,
 }
 
 /** Which joist (if any) lands on each outlet, and for the others the joists either side of it. */
-export function outletJoists(roof: Roof, positions: Float64Array, toPlan: (u: number, v: number) => Point): OutletJoist[] {
+export function outletJoists(
+  roof: Roof,
+  positions: Float64Array,
+  toPlan: (u: number, v: number) => Point,
+): OutletJoist[] {
   return [...roof.outlets]
     .sort((a, b) => a.index - b.index)
     .map((o) => {
       let nearest = 0;
-      for (let k = 1; k < positions.length; k++) if (Math.abs(positions[k] - o.u) < Math.abs(positions[nearest] - o.u)) nearest = k;
+      for (let k = 1; k < positions.length; k++)
+        if (Math.abs(positions[k] - o.u) < Math.abs(positions[nearest] - o.u)) nearest = k;
       const gap = Math.abs(positions[nearest] - o.u);
       const at = toPlan(o.u, o.v);
       if (gap <= ON_JOIST) return { outlet: o.index, at, joist: nearest + 1, between: null, gap: 0 };
@@ -68,7 +73,12 @@ export function trimWarnings(set: OutletJoist[], fromOutlets: boolean): Warning[
     .filter((s) => s.joist === null)
     .map((s) => {
       const [a, b] = s.between ?? [null, null];
-      const where = a !== null && b !== null ? `between joists ${a} and ${b}` : a !== null ? `beyond joist ${a}` : `before joist ${b}`;
+      const where =
+        a !== null && b !== null
+          ? `between joists ${a} and ${b}`
+          : a !== null
+            ? `beyond joist ${a}`
+            : `before joist ${b}`;
       const why = !fromOutlets
         ? " set the joists out from the outlets, or trim round it"
         : served.length

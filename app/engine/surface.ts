@@ -14,7 +14,13 @@ export function chordLevel(levels: PerimeterLevels, c: Chord, v: number): number
 }
 
 /** Perimeter level at (u, v) when the point lies on the outline (within tol), else null. */
-export function perimeterLevelAt(roof: Roof, levels: PerimeterLevels, u: number, v: number, tol: number): number | null {
+export function perimeterLevelAt(
+  roof: Roof,
+  levels: PerimeterLevels,
+  u: number,
+  v: number,
+  tol: number,
+): number | null {
   const { n, us, vs, len } = roof;
   let best = -1;
   let bestDistance = tol;

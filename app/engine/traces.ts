@@ -78,7 +78,8 @@ export function flowTraces(roof: Roof, mesh: SurfaceMesh, routing: Routing): Flo
       if (k % every === 0 || last) {
         // Traces are drawn, not measured: plan to the millimetre and levels to a tenth of one
         // keep the JSON small.
-        const u = mesh.u[y], v = mesh.v[y];
+        const u = mesh.u[y],
+          v = mesh.v[y];
         points[p++] = Math.round((ox + u * dy + v * dx) * 1e3) / 1e3;
         points[p++] = Math.round((oy - u * dx + v * dy) * 1e3) / 1e3;
         points[p++] = Math.round(mesh.z[y] * 1e4) / 1e4;

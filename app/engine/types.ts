@@ -78,10 +78,7 @@ export interface Cricket {
   height: number;
 }
 
-export type WarningFix =
-  | { kind: "turn-joists"; direction: Point }
-  | { kind: "move-outlet" }
-  | { kind: "divide-roof" };
+export type WarningFix = { kind: "turn-joists"; direction: Point } | { kind: "move-outlet" } | { kind: "divide-roof" };
 
 export interface EdgeFall {
   /** Edge index in the request's numbering. */

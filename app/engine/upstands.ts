@@ -14,7 +14,8 @@ function openingNear(roof: Roof, u: number, v: number, reach: number): number {
     const m = h.us.length;
     for (let i = 0; i < m; i++) {
       const q = (i + 1) % m;
-      const du = h.us[q] - h.us[i], dv = h.vs[q] - h.vs[i];
+      const du = h.us[q] - h.us[i],
+        dv = h.vs[q] - h.vs[i];
       const len2 = du * du + dv * dv;
       const s = Math.min(1, Math.max(0, len2 > 0 ? ((u - h.us[i]) * du + (v - h.vs[i]) * dv) / len2 : 0));
       const d = Math.hypot(h.us[i] + s * du - u, h.vs[i] + s * dv - v);
@@ -41,7 +42,8 @@ export function cricketFor(roof: Roof, levels: PerimeterLevels, h: number, u0: n
   let bestD = Infinity;
   for (let i = 0; i < m; i++) {
     const q = (i + 1) % m;
-    const du = hole.us[q] - hole.us[i], dv = hole.vs[q] - hole.vs[i];
+    const du = hole.us[q] - hole.us[i],
+      dv = hole.vs[q] - hole.vs[i];
     const len2 = du * du + dv * dv;
     const s = Math.min(1, Math.max(0, len2 > 0 ? ((u0 - hole.us[i]) * du + (v0 - hole.vs[i]) * dv) / len2 : 0));
     const d = Math.hypot(hole.us[i] + s * du - u0, hole.vs[i] + s * dv - v0);
@@ -79,7 +81,13 @@ export function cricketFor(roof: Roof, levels: PerimeterLevels, h: number, u0: n
  * `water-held-behind-upstand` (docs/roof-method-plans.md P3): every pit of the routing that sits
  * against an opening, with the area draining to it and the cricket that would shed it.
  */
-export function heldWaterWarnings(roof: Roof, levels: PerimeterLevels, mesh: SurfaceMesh, routing: Routing, faces: FaceData): Warning[] {
+export function heldWaterWarnings(
+  roof: Roof,
+  levels: PerimeterLevels,
+  mesh: SurfaceMesh,
+  routing: Routing,
+  faces: FaceData,
+): Warning[] {
   if (!roof.holes.length) return [];
   const out: Warning[] = [];
   const reach = Math.max(mesh.step, roof.spacing * mesh.stride) * 1.01;

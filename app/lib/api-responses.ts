@@ -186,12 +186,22 @@ export const analysisSchema = z
     }),
     area: z.number(),
   })
-  .meta({ id: "Analysis", description: "The analysis of a roof (docs/roof-method.md §9). Keys may be added; none listed is removed." });
+  .meta({
+    id: "Analysis",
+    description: "The analysis of a roof (docs/roof-method.md §9). Keys may be added; none listed is removed.",
+  });
 
 // ---- Roofs ----
 
 const roofSummary = z
-  .strictObject({ id: z.uuid(), name: z.string(), version: z.number().int(), shared: z.boolean(), updatedAt: isoTime, createdAt: isoTime })
+  .strictObject({
+    id: z.uuid(),
+    name: z.string(),
+    version: z.number().int(),
+    shared: z.boolean(),
+    updatedAt: isoTime,
+    createdAt: isoTime,
+  })
   .meta({ id: "RoofSummary" });
 
 export const roofListSchema = z.strictObject({ roofs: z.array(roofSummary) }).meta({ id: "RoofList" });
@@ -213,13 +223,18 @@ export const roofSchema = z
   .meta({ id: "Roof" });
 
 export const roofSavedSchema = z.strictObject({ id: z.uuid(), version: z.number().int() }).meta({ id: "RoofSaved" });
-export const roofDeletedSchema = z.strictObject({ id: z.string(), deleted: z.literal(true) }).meta({ id: "RoofDeleted" });
+export const roofDeletedSchema = z
+  .strictObject({ id: z.string(), deleted: z.literal(true) })
+  .meta({ id: "RoofDeleted" });
 export const roofConflictSchema = z
   .strictObject({
     error: apiErrorSchema.shape.error,
     current: z.strictObject({ version: z.number().int(), name: z.string(), spec: roofSpecRef }),
   })
-  .meta({ id: "RoofConflict", description: "Someone saved first: their version, name and spec. Nothing of yours was written." });
+  .meta({
+    id: "RoofConflict",
+    description: "Someone saved first: their version, name and spec. Nothing of yours was written.",
+  });
 
 // ---- Lessons ----
 
@@ -236,7 +251,13 @@ const lessonSummaryFields = {
 };
 
 const progress = z
-  .strictObject({ lesson: z.string(), attempts: z.number().int(), bestScore: z.number(), passed: z.boolean(), lastAt: isoTime })
+  .strictObject({
+    lesson: z.string(),
+    attempts: z.number().int(),
+    bestScore: z.number(),
+    passed: z.boolean(),
+    lastAt: isoTime,
+  })
   .meta({ id: "LessonProgress" });
 
 export const lessonListSchema = z
@@ -278,7 +299,9 @@ export const lessonSchema = z
         goalHtml: z.string(),
         start: roofSpecRef,
         editable: z.array(z.string()),
-        criteria: z.array(z.strictObject({ id: z.string(), label: z.string(), weight: z.number(), required: z.boolean() })),
+        criteria: z.array(
+          z.strictObject({ id: z.string(), label: z.string(), weight: z.number(), required: z.boolean() }),
+        ),
         hints: z.array(z.string()),
       }),
     }),

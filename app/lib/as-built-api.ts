@@ -1,7 +1,11 @@
 import { z } from "zod";
 import { AS_BUILT_LIMITS } from "~/engine";
 
-const metres = (what: string) => z.number({ error: `must be a finite number (${what})` }).gte(-1e7).lte(1e7);
+const metres = (what: string) =>
+  z
+    .number({ error: `must be a finite number (${what})` })
+    .gte(-1e7)
+    .lte(1e7);
 
 /** The request body besides the spec (docs/as-built.md); the spec is checked by the engine's parseSpec. */
 export const asBuiltBodySchema = z.object({
@@ -26,11 +30,19 @@ export const asBuiltBodySchema = z.object({
     .optional(),
 });
 
-
 /** The answer's top-level keys (docs/as-built.md); the parts inside may gain fields. */
 export const asBuiltAnswerSchema = z.looseObject({
-  deviations: z.array(z.looseObject({ at: z.array(z.number()), design: z.number(), measured: z.number(), delta: z.number() })),
-  surface: z.looseObject({ fallMap: z.unknown(), catchments: z.unknown(), ponds: z.array(z.looseObject({ at: z.array(z.number()), area: z.number(), depth: z.number(), volume: z.number() })) }),
-  verdict: z.looseObject({ passed: z.boolean(), failures: z.array(z.looseObject({ code: z.string(), message: z.string() })) }),
+  deviations: z.array(
+    z.looseObject({ at: z.array(z.number()), design: z.number(), measured: z.number(), delta: z.number() }),
+  ),
+  surface: z.looseObject({
+    fallMap: z.unknown(),
+    catchments: z.unknown(),
+    ponds: z.array(z.looseObject({ at: z.array(z.number()), area: z.number(), depth: z.number(), volume: z.number() })),
+  }),
+  verdict: z.looseObject({
+    passed: z.boolean(),
+    failures: z.array(z.looseObject({ code: z.string(), message: z.string() })),
+  }),
   fixes: z.array(z.looseObject({ joist: z.unknown(), end: z.unknown(), change: z.number() })),
 });

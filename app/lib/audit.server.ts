@@ -35,7 +35,12 @@ export interface AuditRow {
 }
 
 /** Newest first, `limit` entries older than `before` (an id), optionally one action only. */
-export async function listAudit(opts: { organisationId: string; before?: number; action?: AuditAction; limit?: number }): Promise<AuditRow[]> {
+export async function listAudit(opts: {
+  organisationId: string;
+  before?: number;
+  action?: AuditAction;
+  limit?: number;
+}): Promise<AuditRow[]> {
   const k = db();
   const q = k("audit_log as a")
     .leftJoin("users as actor", "actor.id", "a.actor_id")

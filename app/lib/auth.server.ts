@@ -13,7 +13,14 @@ import { hashPassword, needsRehash, verifyPassword } from "~/lib/password.server
 import { can, type Permission, type Role } from "~/lib/permissions";
 import { noteUser } from "~/lib/request-context.server";
 import { clearHits, clientIp, hit, LIMITS, peek, takeBackHits, waitPhrase } from "~/lib/rate-limit.server";
-import { clearSessionCookie, createSession, destroySession, findLiveSession, type LiveSession, type SessionUser } from "~/lib/session.server";
+import {
+  clearSessionCookie,
+  createSession,
+  destroySession,
+  findLiveSession,
+  type LiveSession,
+  type SessionUser,
+} from "~/lib/session.server";
 
 export type { SessionUser } from "~/lib/session.server";
 
@@ -28,18 +35,29 @@ export const authenticator = new Authenticator<SessionUser>();
 
 authenticator.use(
   new FormStrategy(async ({ form }) => {
-    const email = String(form.get("email") ?? "").trim().toLowerCase();
+    const email = String(form.get("email") ?? "")
+      .trim()
+      .toLowerCase();
     const password = String(form.get("password") ?? "");
-    const row = await db()("users")
-      .whereRaw("lower(email) = ?", [email])
-      .first<{ id: string; email: string; name: string; role: Role; organisation_id: string; password_hash: string | null; active: boolean } | undefined>(
-        "id", "email", "name", "role", "organisation_id", "password_hash", "active",
-      );
+    const row = await db()("users").whereRaw("lower(email) = ?", [email]).first<
+      | {
+          id: string;
+          email: string;
+          name: string;
+          role: Role;
+          organisation_id: string;
+          password_hash: string | null;
+          active: boolean;
+        }
+      | undefined
+    >("id", "email", "name", "role", "organisation_id", "password_hash", "active");
     // Always one bcrypt compare (a dummy one without a hash), so unknown addresses take as long.
     const matches = await verifyPassword(password, row?.password_hash);
     if (!row || !matches || !row.active) throw new InvalidCredentials(row?.id ?? null);
     if (row.password_hash && needsRehash(row.password_hash)) {
-      await db()("users").where({ id: row.id }).update({ password_hash: await hashPassword(password) });
+      await db()("users")
+        .where({ id: row.id })
+        .update({ password_hash: await hashPassword(password) });
     }
     return { id: row.id, email: row.email, name: row.name, role: row.role, organisationId: row.organisation_id };
   }),
@@ -166,7 +184,8 @@ export async function getOptionalUser(request: Request): Promise<SessionUser | n
     return (await getLiveSession(request))?.user ?? null;
   } catch (error) {
     // Every page asks this first: a database that is down becomes the friendly 503 page.
-    if (isDbUnavailable(error)) throw data("The database is not answering.", { status: 503, headers: { "Retry-After": "5" } });
+    if (isDbUnavailable(error))
+      throw data("The database is not answering.", { status: 503, headers: { "Retry-After": "5" } });
     throw error;
   }
 }

@@ -4,7 +4,15 @@ import type { SessionUser } from "~/lib/auth.server";
 import { inviteToClass } from "~/lib/class-invites.server";
 import type { InviteReport } from "~/lib/roster";
 import { isIsoDay, parseClassDetails, type ClassDetailsField, type ClassDetailsValues } from "~/lib/class-form";
-import { isUuid, listLessons, removeMember, saveAssignments, updateClass, withdrawInvitation, type ClassRow } from "~/lib/classes.server";
+import {
+  isUuid,
+  listLessons,
+  removeMember,
+  saveAssignments,
+  updateClass,
+  withdrawInvitation,
+  type ClassRow,
+} from "~/lib/classes.server";
 import { clientIp } from "~/lib/rate-limit.server";
 import { appOrigin } from "~/lib/app-url";
 import type { AppLoadContext } from "react-router";
@@ -23,7 +31,13 @@ export interface ClassActionResult {
 
 const reply = (result: ClassActionResult, status = 200) => data(result, { status });
 
-export async function handleClassAction(o: { request: Request; context: AppLoadContext; user: SessionUser; cls: ClassRow; form: FormData }) {
+export async function handleClassAction(o: {
+  request: Request;
+  context: AppLoadContext;
+  user: SessionUser;
+  cls: ClassRow;
+  form: FormData;
+}) {
   const { form, cls } = o;
   const intent = String(form.get("intent") ?? "");
   switch (intent) {
@@ -36,7 +50,8 @@ export async function handleClassAction(o: { request: Request; context: AppLoadC
     case "invite": {
       const text = String(form.get("addresses") ?? "");
       if (!text.trim()) return reply({ intent, error: "Paste at least one e-mail address.", text }, 400);
-      if (text.length > 50_000) return reply({ intent, error: "That list is too long; paste at most 200 addresses at a time.", text: "" }, 400);
+      if (text.length > 50_000)
+        return reply({ intent, error: "That list is too long; paste at most 200 addresses at a time.", text: "" }, 400);
       const report = await inviteToClass({
         classId: cls.id,
         text,
@@ -44,7 +59,12 @@ export async function handleClassAction(o: { request: Request; context: AppLoadC
         origin: appOrigin(),
         ip: clientIp(o.context),
       });
-      const nothingValid = !report.invited.length && !report.askedToJoin.length && !report.alreadyMember.length && !report.alreadyInvited.length && !report.refused.length;
+      const nothingValid =
+        !report.invited.length &&
+        !report.askedToJoin.length &&
+        !report.alreadyMember.length &&
+        !report.alreadyInvited.length &&
+        !report.refused.length;
       return reply({ intent, report, text: report.invalid.join("\n") }, nothingValid ? 400 : 200);
     }
     case "remove": {
@@ -61,7 +81,10 @@ export async function handleClassAction(o: { request: Request; context: AppLoadC
     }
     case "assignments": {
       const known = new Set((await listLessons()).map((l) => l.slug));
-      const chosen = form.getAll("assign").map(String).filter((s) => known.has(s));
+      const chosen = form
+        .getAll("assign")
+        .map(String)
+        .filter((s) => known.has(s));
       const errors: Record<string, string> = {};
       const items = chosen.map((slug) => {
         const due = String(form.get(`due:${slug}`) ?? "").trim();
@@ -70,7 +93,12 @@ export async function handleClassAction(o: { request: Request; context: AppLoadC
       });
       if (Object.keys(errors).length) return reply({ intent, assignmentErrors: errors }, 400);
       await saveAssignments(cls.id, [...new Map(items.map((i) => [i.slug, i])).values()]);
-      return reply({ intent, notice: items.length ? `${items.length} lesson${items.length === 1 ? "" : "s"} assigned.` : "No lessons are assigned now." });
+      return reply({
+        intent,
+        notice: items.length
+          ? `${items.length} lesson${items.length === 1 ? "" : "s"} assigned.`
+          : "No lessons are assigned now.",
+      });
     }
     default:
       return reply({ intent, error: "Unknown action." }, 400);

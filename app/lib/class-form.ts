@@ -23,7 +23,10 @@ const ClassDetails = z
     endsOn: isoDate,
     venue: z.string().trim().max(200, "Keep the venue under 200 characters."),
   })
-  .refine((c) => !c.startsOn || !c.endsOn || c.endsOn >= c.startsOn, { path: ["endsOn"], message: "The class cannot end before it starts." });
+  .refine((c) => !c.startsOn || !c.endsOn || c.endsOn >= c.startsOn, {
+    path: ["endsOn"],
+    message: "The class cannot end before it starts.",
+  });
 
 export type ClassDetailsField = "name" | "startsOn" | "endsOn" | "venue";
 export type ClassDetailsValues = Record<ClassDetailsField, string>;

@@ -32,7 +32,16 @@ export interface ClassRow {
 /** "manage": the class's trainer or an admin. "follow": those, or a member of the class. */
 export type ClassAccess = "manage" | "follow";
 
-const CLASS_COLUMNS = ["c.id", "c.name", "c.starts_on", "c.ends_on", "c.venue", "c.trainer_id", "c.organisation_id", "t.name as trainer_name"];
+const CLASS_COLUMNS = [
+  "c.id",
+  "c.name",
+  "c.starts_on",
+  "c.ends_on",
+  "c.venue",
+  "c.trainer_id",
+  "c.organisation_id",
+  "t.name as trainer_name",
+];
 
 export function canManageClass(user: SessionUser, cls: Pick<ClassRow, "trainer_id" | "organisation_id">): boolean {
   if (user.role === "admin") return cls.organisation_id === user.organisationId;
@@ -46,7 +55,10 @@ export async function isMember(classId: string, userId: string): Promise<boolean
 /** The class if this user may see it in the given way, else null (for resource routes). */
 export async function getClassFor(user: SessionUser, id: string, access: ClassAccess): Promise<ClassRow | null> {
   if (!isUuid(id)) return null;
-  const cls: ClassRow | undefined = await db()("classes as c").join("users as t", "t.id", "c.trainer_id").where("c.id", id).first(CLASS_COLUMNS);
+  const cls: ClassRow | undefined = await db()("classes as c")
+    .join("users as t", "t.id", "c.trainer_id")
+    .where("c.id", id)
+    .first(CLASS_COLUMNS);
   if (!cls) return null;
   if (canManageClass(user, cls)) return cls;
   if (access === "follow" && (await isMember(cls.id, user.id))) return cls;
@@ -111,7 +123,9 @@ export async function createClass(user: SessionUser, input: CreateClassInput): P
 }
 
 export async function updateClass(classId: string, input: CreateClassInput) {
-  await db()("classes").where({ id: classId }).update({ name: input.name, starts_on: input.startsOn, ends_on: input.endsOn, venue: input.venue });
+  await db()("classes")
+    .where({ id: classId })
+    .update({ name: input.name, starts_on: input.startsOn, ends_on: input.endsOn, venue: input.venue });
 }
 
 export interface Member {
@@ -142,22 +156,38 @@ export interface PendingInvitation {
 /** Unused invitation tokens for the class, one line per address (the latest). */
 export async function pendingInvitations(classId: string): Promise<PendingInvitation[]> {
   const rows = await db()
-    .select(db().raw(`distinct on (lower(email)) lower(email) as email, created_at, expires_at, expires_at <= now() as expired`))
+    .select(
+      db().raw(
+        `distinct on (lower(email)) lower(email) as email, created_at, expires_at, expires_at <= now() as expired`,
+      ),
+    )
     .from("tokens")
     .where({ class_id: classId, kind: "invitation" })
     .whereNull("used_at")
     .whereNotExists(
-      db()("class_members as m").join("users as u", "u.id", "m.user_id").where("m.class_id", classId).whereRaw("lower(u.email) = lower(tokens.email)"),
+      db()("class_members as m")
+        .join("users as u", "u.id", "m.user_id")
+        .where("m.class_id", classId)
+        .whereRaw("lower(u.email) = lower(tokens.email)"),
     )
     .orderByRaw("lower(email), created_at desc");
   return rows
-    .map((r) => ({ email: r.email, invited_at: new Date(r.created_at).toISOString(), expires_at: new Date(r.expires_at).toISOString(), expired: r.expired }))
+    .map((r) => ({
+      email: r.email,
+      invited_at: new Date(r.created_at).toISOString(),
+      expires_at: new Date(r.expires_at).toISOString(),
+      expired: r.expired,
+    }))
     .sort((a, b) => Number(a.expired) - Number(b.expired) || a.email.localeCompare(b.email));
 }
 
 /** Withdraws the class's unused invitations for one address: the links stop working at once. */
 export async function withdrawInvitation(classId: string, email: string): Promise<number> {
-  return db()("tokens").where({ class_id: classId, kind: "invitation" }).whereNull("used_at").whereRaw("lower(email) = ?", [email.toLowerCase()]).delete();
+  return db()("tokens")
+    .where({ class_id: classId, kind: "invitation" })
+    .whereNull("used_at")
+    .whereRaw("lower(email) = ?", [email.toLowerCase()])
+    .delete();
 }
 
 /** Takes someone out of the class (their attempts stay); returns the name shown, or null if they were not in it. */
@@ -175,7 +205,9 @@ export interface LessonOption {
 }
 
 export async function listLessons(): Promise<LessonOption[]> {
-  return db()("lessons").select("slug", "title", "position").orderBy([{ column: "position" }, { column: "slug" }]);
+  return db()("lessons")
+    .select("slug", "title", "position")
+    .orderBy([{ column: "position" }, { column: "slug" }]);
 }
 
 export interface Assignment {
@@ -216,7 +248,10 @@ export interface MyAssignment {
 }
 
 /** For a trainee's Classes page: each class's assignments with the trainee's best grade so far. */
-export async function assignmentsForTrainee(traineeId: string, classIds: string[]): Promise<Record<string, MyAssignment[]>> {
+export async function assignmentsForTrainee(
+  traineeId: string,
+  classIds: string[],
+): Promise<Record<string, MyAssignment[]>> {
   if (!classIds.length) return {};
   const rows = await db()("assignments as s")
     .join("lessons as l", "l.slug", "s.lesson_slug")
@@ -229,8 +264,17 @@ export async function assignmentsForTrainee(traineeId: string, classIds: string[
   for (const classId of classIds) {
     const mine = rows.filter((r) => r.class_id === classId);
     if (!mine.length) continue;
-    const grades = await bestGrades([traineeId], [...new Set(mine.map((r) => r.lesson_slug as string))], { trainerId: mine[0].trainer_id, organisationId: mine[0].organisation_id });
-    for (const r of mine) out[classId].push({ slug: r.lesson_slug, title: r.title, dueOn: r.due_on, cell: grades.get(cellKey(traineeId, r.lesson_slug)) ?? null });
+    const grades = await bestGrades([traineeId], [...new Set(mine.map((r) => r.lesson_slug as string))], {
+      trainerId: mine[0].trainer_id,
+      organisationId: mine[0].organisation_id,
+    });
+    for (const r of mine)
+      out[classId].push({
+        slug: r.lesson_slug,
+        title: r.title,
+        dueOn: r.due_on,
+        cell: grades.get(cellKey(traineeId, r.lesson_slug)) ?? null,
+      });
   }
   return out;
 }

@@ -15,7 +15,11 @@ export function db(): Knex {
     if (!connectionString) throw new Error("DATABASE_URL is not set");
     const instance = knex({
       client: "pg",
-      connection: { connectionString, connectionTimeoutMillis: 3000, statement_timeout: 15000 } as Knex.PgConnectionConfig,
+      connection: {
+        connectionString,
+        connectionTimeoutMillis: 3000,
+        statement_timeout: 15000,
+      } as Knex.PgConnectionConfig,
       acquireConnectionTimeout: 4000,
       pool: {
         min: 0,
@@ -38,7 +42,17 @@ export async function closeDb() {
   if (instance) await instance.destroy();
 }
 
-const UNAVAILABLE_CODES = new Set(["ECONNREFUSED", "ECONNRESET", "ETIMEDOUT", "57P01", "57P02", "57P03", "08006", "08001", "08003"]);
+const UNAVAILABLE_CODES = new Set([
+  "ECONNREFUSED",
+  "ECONNRESET",
+  "ETIMEDOUT",
+  "57P01",
+  "57P02",
+  "57P03",
+  "08006",
+  "08001",
+  "08003",
+]);
 
 /** True for errors that mean "the database is not answering" rather than a bug. */
 export function isDbUnavailable(error: unknown): boolean {
@@ -48,5 +62,7 @@ export function isDbUnavailable(error: unknown): boolean {
   if (e.name === "KnexTimeoutError") return true;
   if (Array.isArray(e.errors) && e.errors.some(isDbUnavailable)) return true;
   const msg = e.message ?? "";
-  return /Connection terminated|connect ECONNREFUSED|timeout exceeded when trying to connect|the database system is (starting up|shutting down)/i.test(msg);
+  return /Connection terminated|connect ECONNREFUSED|timeout exceeded when trying to connect|the database system is (starting up|shutting down)/i.test(
+    msg,
+  );
 }

@@ -37,7 +37,10 @@ export function gradebookCsv(book: Gradebook): string {
       const label = STATUS_LABELS[cellStatus(cell)].toLowerCase();
       // The same reading as the screen: result, then why it did not pass, in words (grading-rule.ts).
       const result = cell?.overridden ? `${label} (override)` : label;
-      return [cell ? formatScore(cell.score) : "", cell && !cell.passed && cell.reason ? `${result}: ${cell.reason}` : result];
+      return [
+        cell ? formatScore(cell.score) : "",
+        cell && !cell.passed && cell.reason ? `${result}: ${cell.reason}` : result,
+      ];
     }),
   ]);
   return Papa.unparse({ fields, data }, { escapeFormulae: true, newline: "\r\n" });

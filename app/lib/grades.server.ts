@@ -43,7 +43,17 @@ export function attemptsWithEffectiveGrade(scope?: OverrideScope) {
        ) o on true`,
       scope ? { trainerId: scope.trainerId, organisationId: scope.organisationId } : [],
     )
-    .select("a.id", "a.trainee_id", "a.lesson_slug", "a.score", "a.passed", "a.submitted_at", "o.override_score", "o.override_passed", "o.reason as override_reason")
+    .select(
+      "a.id",
+      "a.trainee_id",
+      "a.lesson_slug",
+      "a.score",
+      "a.passed",
+      "a.submitted_at",
+      "o.override_score",
+      "o.override_passed",
+      "o.reason as override_reason",
+    )
     .select(
       db().raw(`(a.results->>'passMark')::float8 as pass_mark`),
       // The labels of required items not met: the grading rule reads them (grading-rule.ts).
@@ -62,7 +72,9 @@ function toCell(r: AttemptGradeRow): GradeCell {
     passed: r.passed,
     passMark: r.pass_mark ?? 0,
     failedRequired: r.failed_required ?? [],
-    override: overridden ? { score: r.override_score ?? r.score, passed: r.override_passed ?? r.passed, reason: r.override_reason } : null,
+    override: overridden
+      ? { score: r.override_score ?? r.score, passed: r.override_passed ?? r.passed, reason: r.override_reason }
+      : null,
   });
   return {
     attemptId: r.id,
@@ -86,7 +98,11 @@ function better(a: GradeCell, b: GradeCell): boolean {
 export const cellKey = (traineeId: string, slug: string) => `${traineeId}|${slug}`;
 
 /** The best effective grade for each (trainee, lesson) pair that has attempts. */
-export async function bestGrades(traineeIds: string[], slugs: string[], scope?: OverrideScope): Promise<Map<string, GradeCell>> {
+export async function bestGrades(
+  traineeIds: string[],
+  slugs: string[],
+  scope?: OverrideScope,
+): Promise<Map<string, GradeCell>> {
   const out = new Map<string, GradeCell>();
   if (!traineeIds.length || !slugs.length) return out;
   const rows: AttemptGradeRow[] = await attemptsWithEffectiveGrade(scope)

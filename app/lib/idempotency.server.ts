@@ -19,7 +19,9 @@ function canonical(value: unknown): unknown {
 }
 
 export function requestHash(meaning: unknown): string {
-  return createHash("sha256").update(JSON.stringify(canonical(meaning)) ?? "null").digest("hex");
+  return createHash("sha256")
+    .update(JSON.stringify(canonical(meaning)) ?? "null")
+    .digest("hex");
 }
 
 /** True when a stored request (null: made before hashes were kept) is the same as this one. */

@@ -27,13 +27,21 @@ export type SniffResult =
 export async function sniffUnderlay(bytes: Uint8Array): Promise<SniffResult> {
   const found = await fileTypeFromBuffer(bytes);
   if (!found || !(found.mime in UNDERLAY_TYPES)) {
-    return { ok: false, status: 415, message: "Only PNG, JPEG or WebP images can be used as an underlay (the file's contents are something else)." };
+    return {
+      ok: false,
+      status: 415,
+      message: "Only PNG, JPEG or WebP images can be used as an underlay (the file's contents are something else).",
+    };
   }
   const mime = found.mime as UnderlayType;
   const size = imageSize(bytes, mime);
   if (!size) return { ok: false, status: 422, message: "The image header could not be read; the file may be damaged." };
   if (size.width > MAX_SIDE_PX || size.height > MAX_SIDE_PX) {
-    return { ok: false, status: 422, message: `The image is ${size.width} × ${size.height} px; at most ${MAX_SIDE_PX} px a side.` };
+    return {
+      ok: false,
+      status: 422,
+      message: `The image is ${size.width} × ${size.height} px; at most ${MAX_SIDE_PX} px a side.`,
+    };
   }
   const pixels = size.width * size.height;
   if (pixels > MAX_PIXELS) {
@@ -60,7 +68,10 @@ function imageSize(b: Uint8Array, mime: UnderlayType): { width: number; height: 
     while (at + 9 < b.length) {
       if (b[at] !== 0xff) return null;
       const marker = b[at + 1];
-      if (marker === 0xff) { at++; continue; }
+      if (marker === 0xff) {
+        at++;
+        continue;
+      }
       const length = v.getUint16(at + 2);
       if (marker >= 0xc0 && marker <= 0xcf && marker !== 0xc4 && marker !== 0xc8 && marker !== 0xcc) {
         return ok({ height: v.getUint16(at + 5), width: v.getUint16(at + 7) });

@@ -66,7 +66,11 @@ export function jsonProblem(value: unknown, base = "", maxDepth = MAX_JSON_DEPTH
       } else {
         for (const [k, child] of Object.entries(v)) {
           const p = textProblem(k);
-          if (p) return { path: join(path, k.replaceAll("\u0000", "�").replace(/[\uD800-\uDFFF]/g, "�")), message: `has a key that ${p}` };
+          if (p)
+            return {
+              path: join(path, k.replaceAll("\u0000", "�").replace(/[\uD800-\uDFFF]/g, "�")),
+              message: `has a key that ${p}`,
+            };
           stack.push({ v: child, path: join(path, k), depth: depth + 1 });
         }
       }

@@ -50,7 +50,8 @@ export async function createInvitation(o: {
   if (!parsed.success) return { status: "refused", message: "Enter a valid e-mail address." };
   const email = parsed.data;
   if (!ROLES.includes(o.role)) return { status: "refused", message: "Choose a role." };
-  if (!mayInvite(o.invitedBy.role, o.role)) return { status: "refused", message: `Your account cannot invite a ${ROLE_LABELS[o.role].toLowerCase()}.` };
+  if (!mayInvite(o.invitedBy.role, o.role))
+    return { status: "refused", message: `Your account cannot invite a ${ROLE_LABELS[o.role].toLowerCase()}.` };
 
   const k = db();
   let cls: { id: string; name: string } | undefined;
@@ -66,35 +67,80 @@ export async function createInvitation(o: {
     const existing = await trx("users")
       .whereRaw("lower(email) = ?", [email])
       .forUpdate()
-      .first<{ id: string; role: Role; organisation_id: string; password_hash: string | null; active: boolean } | undefined>(
-        "id", "role", "organisation_id", "password_hash", "active",
-      );
+      .first<
+        { id: string; role: Role; organisation_id: string; password_hash: string | null; active: boolean } | undefined
+      >("id", "role", "organisation_id", "password_hash", "active");
     if (existing && (existing.organisation_id !== o.invitedBy.organisationId || !existing.active)) {
-      return { status: "refused" as const, message: "That address belongs to an account that cannot be invited. Ask an admin." };
+      return {
+        status: "refused" as const,
+        message: "That address belongs to an account that cannot be invited. Ask an admin.",
+      };
     }
     if (existing?.password_hash) {
       if (cls && existing.role === "trainee") {
         const token = await issueToken(
-          { kind: "invitation", email, userId: existing.id, role: "trainee", classId: cls.id, createdBy: o.invitedBy.id, ttlSeconds: INVITATION_TTL_DAYS * 86400 },
+          {
+            kind: "invitation",
+            email,
+            userId: existing.id,
+            role: "trainee",
+            classId: cls.id,
+            createdBy: o.invitedBy.id,
+            ttlSeconds: INVITATION_TTL_DAYS * 86400,
+          },
           trx,
         );
-        await audit({ action: "invitation_sent", actorId: o.invitedBy.id, subjectId: existing.id, detail: { email, role: o.role, classId: cls.id, existing: true }, ip: o.ip }, trx);
+        await audit(
+          {
+            action: "invitation_sent",
+            actorId: o.invitedBy.id,
+            subjectId: existing.id,
+            detail: { email, role: o.role, classId: cls.id, existing: true },
+            ip: o.ip,
+          },
+          trx,
+        );
         return { status: "asked_to_join" as const, userId: existing.id, token };
       }
       return { status: "refused" as const, message: "There is already an account for that address." };
     }
     if (existing && existing.role !== o.role) {
-      if (o.invitedBy.role !== "admin") return { status: "refused" as const, message: "That address already has a pending invitation for another role. Ask an admin." };
+      if (o.invitedBy.role !== "admin")
+        return {
+          status: "refused" as const,
+          message: "That address already has a pending invitation for another role. Ask an admin.",
+        };
       await trx("users").where({ id: existing.id }).update({ role: o.role });
     }
     const userId =
       existing?.id ??
-      (await trx("users").insert({ organisation_id: o.invitedBy.organisationId, email, role: o.role, name: "" }).returning("id"))[0].id;
+      (
+        await trx("users")
+          .insert({ organisation_id: o.invitedBy.organisationId, email, role: o.role, name: "" })
+          .returning("id")
+      )[0].id;
     const token = await issueToken(
-      { kind: "invitation", email, userId, role: o.role, classId: cls?.id, createdBy: o.invitedBy.id, ttlSeconds: INVITATION_TTL_DAYS * 86400 },
+      {
+        kind: "invitation",
+        email,
+        userId,
+        role: o.role,
+        classId: cls?.id,
+        createdBy: o.invitedBy.id,
+        ttlSeconds: INVITATION_TTL_DAYS * 86400,
+      },
       trx,
     );
-    await audit({ action: "invitation_sent", actorId: o.invitedBy.id, subjectId: userId, detail: { email, role: o.role, classId: cls?.id ?? null }, ip: o.ip }, trx);
+    await audit(
+      {
+        action: "invitation_sent",
+        actorId: o.invitedBy.id,
+        subjectId: userId,
+        detail: { email, role: o.role, classId: cls?.id ?? null },
+        ip: o.ip,
+      },
+      trx,
+    );
     return { status: "sent" as const, userId, token };
   });
   if (outcome.status === "refused") return outcome;
@@ -136,12 +182,21 @@ export async function createInvitation(o: {
 }
 
 /** Sends a fresh link to a pending (not yet accepted) account. */
-export async function resendInvitation(o: { userId: string; invitedBy: Inviter; origin: string; ip?: string | null }): Promise<InvitationResult> {
+export async function resendInvitation(o: {
+  userId: string;
+  invitedBy: Inviter;
+  origin: string;
+  ip?: string | null;
+}): Promise<InvitationResult> {
   const user = await db()("users")
     .where({ id: o.userId, organisation_id: o.invitedBy.organisationId })
     .first<{ email: string; role: Role; password_hash: string | null } | undefined>("email", "role", "password_hash");
   if (!user) return { status: "refused", message: "No such user." };
-  if (user.password_hash) return { status: "refused", message: "That account is already set up; they can reset their password if they forgot it." };
+  if (user.password_hash)
+    return {
+      status: "refused",
+      message: "That account is already set up; they can reset their password if they forgot it.",
+    };
   return createInvitation({ email: user.email, role: user.role, invitedBy: o.invitedBy, origin: o.origin, ip: o.ip });
 }
 
@@ -166,9 +221,9 @@ export async function findInvitation(token: string): Promise<InvitationView> {
   const user = await k("users as u")
     .join("organisations as o", "o.id", "u.organisation_id")
     .where("u.id", found.row.user_id)
-    .first<{ email: string; role: Role; active: boolean; password_hash: string | null; organisation: string } | undefined>(
-      "u.email", "u.role", "u.active", "u.password_hash", "o.name as organisation",
-    );
+    .first<
+      { email: string; role: Role; active: boolean; password_hash: string | null; organisation: string } | undefined
+    >("u.email", "u.role", "u.active", "u.password_hash", "o.name as organisation");
   if (!user || !user.active) return { state: "used" };
   const cls = found.row.class_id ? await k("classes").where({ id: found.row.class_id }).first("name") : null;
   const existingAccount = !!user.password_hash;
@@ -191,25 +246,54 @@ export type JoinResult = { ok: true; classId: string } | { ok: false; status: 40
  * An existing account accepts a class invitation: only the invited account, signed in, can use
  * the link, and only once.
  */
-export async function joinClassByInvitation(token: string, user: Pick<SessionUser, "id">, ip?: string | null): Promise<JoinResult> {
+export async function joinClassByInvitation(
+  token: string,
+  user: Pick<SessionUser, "id">,
+  ip?: string | null,
+): Promise<JoinResult> {
   const found = await peekToken("invitation", token);
-  if (found.state !== "valid" || !found.row.class_id) return { ok: false, status: 410, message: "This invitation link has expired or was already used. Ask your trainer to send a new one." };
-  if (found.row.user_id !== user.id) return { ok: false, status: 403, message: "This invitation is for another account. Sign out and sign in as the invited address." };
+  if (found.state !== "valid" || !found.row.class_id)
+    return {
+      ok: false,
+      status: 410,
+      message: "This invitation link has expired or was already used. Ask your trainer to send a new one.",
+    };
+  if (found.row.user_id !== user.id)
+    return {
+      ok: false,
+      status: 403,
+      message: "This invitation is for another account. Sign out and sign in as the invited address.",
+    };
   const classId = await db().transaction(async (trx) => {
     const row = await consumeToken("invitation", token, trx);
     if (!row?.class_id || row.user_id !== user.id) return null;
     const cls = await trx("classes").where({ id: row.class_id }).first("id");
     if (!cls) return null;
-    await trx("class_members").insert({ class_id: cls.id, user_id: user.id }).onConflict(["class_id", "user_id"]).ignore();
-    await audit({ action: "invitation_accepted", actorId: user.id, subjectId: user.id, detail: { classIds: [cls.id] }, ip }, trx);
+    await trx("class_members")
+      .insert({ class_id: cls.id, user_id: user.id })
+      .onConflict(["class_id", "user_id"])
+      .ignore();
+    await audit(
+      { action: "invitation_accepted", actorId: user.id, subjectId: user.id, detail: { classIds: [cls.id] }, ip },
+      trx,
+    );
     return cls.id as string;
   });
-  if (!classId) return { ok: false, status: 410, message: "This invitation link has expired or was already used. Ask your trainer to send a new one." };
+  if (!classId)
+    return {
+      ok: false,
+      status: 410,
+      message: "This invitation link has expired or was already used. Ask your trainer to send a new one.",
+    };
   return { ok: true, classId };
 }
 
 /** Uses the invitation: sets name and password, joins the invited classes, signs in. */
-export async function acceptInvitation(request: Request, token: string, context?: AppLoadContext | null): Promise<PasswordFormResult> {
+export async function acceptInvitation(
+  request: Request,
+  token: string,
+  context?: AppLoadContext | null,
+): Promise<PasswordFormResult> {
   const form = await request.formData();
   const fields = newPasswordFields(form, { withName: true });
   if (!fields.ok) return fields.result;
@@ -218,7 +302,14 @@ export async function acceptInvitation(request: Request, token: string, context?
     { key: `token:ip:${ip}`, ...LIMITS.tokenIp },
     { key: `token:invitation:${sha256(token)}`, ...LIMITS.tokenUse },
   ]);
-  if (!limited.ok) return { ok: false, status: 429, retryAfter: limited.retryAfter, formError: `Too many attempts. Wait ${waitPhrase(limited.retryAfter)} and try again.`, values: fields.values };
+  if (!limited.ok)
+    return {
+      ok: false,
+      status: 429,
+      retryAfter: limited.retryAfter,
+      formError: `Too many attempts. Wait ${waitPhrase(limited.retryAfter)} and try again.`,
+      values: fields.values,
+    };
 
   const hash = await hashPassword(fields.password);
   const userId = await db().transaction(async (trx) => {
@@ -236,7 +327,11 @@ export async function acceptInvitation(request: Request, token: string, context?
       .whereNull("used_at")
       .update({ used_at: trx.fn.now() })
       .returning("class_id");
-    const classIds = [...new Set([row.class_id, ...others.map((t: { class_id: string | null }) => t.class_id)].filter((c): c is string => !!c))];
+    const classIds = [
+      ...new Set(
+        [row.class_id, ...others.map((t: { class_id: string | null }) => t.class_id)].filter((c): c is string => !!c),
+      ),
+    ];
     if (classIds.length) {
       const existing = await trx("classes").whereIn("id", classIds).pluck("id");
       if (existing.length) {
@@ -246,11 +341,19 @@ export async function acceptInvitation(request: Request, token: string, context?
           .ignore();
       }
     }
-    await audit({ action: "invitation_accepted", actorId: row.user_id, subjectId: row.user_id, detail: { classIds }, ip }, trx);
+    await audit(
+      { action: "invitation_accepted", actorId: row.user_id, subjectId: row.user_id, detail: { classIds }, ip },
+      trx,
+    );
     return row.user_id;
   });
   if (!userId) {
-    return { ok: false, status: 410, formError: "This invitation link has expired or was already used. Ask whoever invited you to send a new one.", values: fields.values };
+    return {
+      ok: false,
+      status: 410,
+      formError: "This invitation link has expired or was already used. Ask whoever invited you to send a new one.",
+      values: fields.values,
+    };
   }
   const setCookie = await createSession(request, userId);
   await audit({ action: "sign_in", actorId: userId, subjectId: userId, ip });

@@ -65,7 +65,12 @@ export async function readJsonBody(request: Request, limit: number): Promise<Jso
   try {
     return { ok: true, value: JSON.parse(UTF8.decode(bytes)) };
   } catch {
-    return { ok: false, response: jsonError(400, "The body is not valid JSON.", [{ path: "(body)", message: "could not be parsed as JSON" }]) };
+    return {
+      ok: false,
+      response: jsonError(400, "The body is not valid JSON.", [
+        { path: "(body)", message: "could not be parsed as JSON" },
+      ]),
+    };
   }
 }
 
@@ -90,7 +95,11 @@ export async function readFormCapped(request: Request, limit: number): Promise<C
   const raw = await readBodyCapped(request, limit);
   if (!raw) return { ok: false, status: 413 };
   try {
-    const form = await new Request(request.url, { method: "POST", headers: { "Content-Type": type }, body: raw as Uint8Array<ArrayBuffer> }).formData();
+    const form = await new Request(request.url, {
+      method: "POST",
+      headers: { "Content-Type": type },
+      body: raw as Uint8Array<ArrayBuffer>,
+    }).formData();
     return { ok: true, form };
   } catch {
     return { ok: false, status: 400 };

@@ -19,10 +19,18 @@ export type LiveUpdate = Omit<LiveContent, "presenter" | "at">;
 /** The presenter's POST body: only a roof the engine accepts goes out to the followers. */
 export function parseLiveUpdate(body: unknown): { ok: true; value: LiveUpdate } | { ok: false; response: Response } {
   const shaped = LiveUpdate.safeParse(body);
-  if (!shaped.success) return { ok: false, response: jsonError(400, "The live update is malformed.", zodIssues(shaped.error.issues)) };
+  if (!shaped.success)
+    return { ok: false, response: jsonError(400, "The live update is malformed.", zodIssues(shaped.error.issues)) };
   const spec = parseSpec(shaped.data.spec);
   if (!spec.ok) {
-    return { ok: false, response: jsonError(spec.status, spec.error.message, spec.error.issues.map((i) => ({ path: `spec.${i.path}`, message: i.message }))) };
+    return {
+      ok: false,
+      response: jsonError(
+        spec.status,
+        spec.error.message,
+        spec.error.issues.map((i) => ({ path: `spec.${i.path}`, message: i.message })),
+      ),
+    };
   }
   return { ok: true, value: { ...shaped.data, spec: spec.spec } };
 }

@@ -42,7 +42,9 @@ const frames = new WeakMap<LiveSnapshot, Uint8Array>();
 export function liveFrame(snap: LiveSnapshot): Uint8Array {
   let bytes = frames.get(snap);
   if (!bytes) {
-    bytes = encoder.encode(`id: ${snap.seq}\nevent: state\ndata: ${JSON.stringify({ seq: snap.seq, state: snap.state })}\n\n`);
+    bytes = encoder.encode(
+      `id: ${snap.seq}\nevent: state\ndata: ${JSON.stringify({ seq: snap.seq, state: snap.state })}\n\n`,
+    );
     frames.set(snap, bytes);
   }
   return bytes;
@@ -59,10 +61,10 @@ export async function readLiveState(classId: string): Promise<LiveSnapshot | nul
  */
 export async function publishLiveState(classId: string, content: LiveContent): Promise<number | null> {
   const seq = await db().transaction(async (trx) => {
-    const { rows } = await trx.raw(`update classes set live_state = ?::jsonb, live_seq = live_seq + 1 where id = ? returning live_seq`, [
-      JSON.stringify(content),
-      classId,
-    ]);
+    const { rows } = await trx.raw(
+      `update classes set live_state = ?::jsonb, live_seq = live_seq + 1 where id = ? returning live_seq`,
+      [JSON.stringify(content), classId],
+    );
     if (!rows.length) return null;
     const seq: number = rows[0].live_seq;
     await trx.raw(`select pg_notify(?, ?)`, [LIVE_CHANNEL, JSON.stringify({ classId, seq })]);
@@ -143,7 +145,11 @@ export class LiveHub {
   }
 
   private async connect(): Promise<void> {
-    const client = new pg.Client({ connectionString: this.options.connectionString(), connectionTimeoutMillis: 3000, keepAlive: true });
+    const client = new pg.Client({
+      connectionString: this.options.connectionString(),
+      connectionTimeoutMillis: 3000,
+      keepAlive: true,
+    });
     client.on("error", (err) => this.lost(client, err));
     client.on("end", () => this.lost(client, null));
     client.on("notification", (msg) => {

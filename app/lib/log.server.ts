@@ -7,14 +7,26 @@
 import pino, { type Logger } from "pino";
 
 declare global {
-   
   var __fallwrightLog: Logger | undefined;
 }
 
 export const REDACT_PATHS = [
-  "password", "*.password", "current", "*.current", "token", "*.token", "cookie", "*.cookie",
-  "headers.cookie", "headers.authorization", "*.headers.cookie", "*.headers.authorization",
-  "req.headers.cookie", "req.headers.authorization", "body", "*.body",
+  "password",
+  "*.password",
+  "current",
+  "*.current",
+  "token",
+  "*.token",
+  "cookie",
+  "*.cookie",
+  "headers.cookie",
+  "headers.authorization",
+  "*.headers.cookie",
+  "*.headers.authorization",
+  "req.headers.cookie",
+  "req.headers.authorization",
+  "body",
+  "*.body",
 ];
 
 export function log(): Logger {

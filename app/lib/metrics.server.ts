@@ -13,7 +13,6 @@ export interface AppMetrics {
 }
 
 declare global {
-   
   var __fallwrightMetrics: AppMetrics | undefined;
 }
 

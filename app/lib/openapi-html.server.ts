@@ -8,16 +8,28 @@ import type { OpenApiDocument } from "~/lib/openapi.server";
 const METHODS = ["get", "post", "put", "patch", "delete"] as const;
 
 const escapeHtml = (text: string) =>
-  text.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;").replace(/"/g, "&quot;").replace(/'/g, "&#39;");
+  text
+    .replace(/&/g, "&amp;")
+    .replace(/</g, "&lt;")
+    .replace(/>/g, "&gt;")
+    .replace(/"/g, "&quot;")
+    .replace(/'/g, "&#39;");
 
-const anchor = (text: string) => text.toLowerCase().replace(/[^a-z0-9]+/g, "-").replace(/^-|-$/g, "");
+const anchor = (text: string) =>
+  text
+    .toLowerCase()
+    .replace(/[^a-z0-9]+/g, "-")
+    .replace(/^-|-$/g, "");
 const schemaId = (name: string) => `schema-${anchor(name)}`;
 const REF = /^#\/components\/schemas\/(.+)$/;
 
 /** A schema as indented JSON, with every $ref a link to the schema's own section. */
 function schemaBlock(schema: unknown): string {
   const text = escapeHtml(JSON.stringify(schema, null, 2));
-  const linked = text.replace(/&quot;#\/components\/schemas\/([^&]+)&quot;/g, (_, name: string) => `<a href="#${schemaId(name)}">${name}</a>`);
+  const linked = text.replace(
+    /&quot;#\/components\/schemas\/([^&]+)&quot;/g,
+    (_, name: string) => `<a href="#${schemaId(name)}">${name}</a>`,
+  );
   return `<pre><code>${linked}</code></pre>`;
 }
 
@@ -52,9 +64,13 @@ function operationHtml(method: string, path: string, op: Operation): string {
   ];
   if (op.summary) parts.push(`<p class="summary">${escapeHtml(op.summary)}</p>`);
   if (op.description) parts.push(`<p>${escapeHtml(op.description)}</p>`);
-  parts.push(`<p class="auth">${op.security?.length ? "Needs a signed-in session (cookie <code>fw_session</code>)." : "Open to anyone."}</p>`);
+  parts.push(
+    `<p class="auth">${op.security?.length ? "Needs a signed-in session (cookie <code>fw_session</code>)." : "Open to anyone."}</p>`,
+  );
   if (op.parameters?.length) {
-    parts.push("<h4>Parameters</h4><table><thead><tr><th>name</th><th>in</th><th>required</th><th>schema</th><th>meaning</th></tr></thead><tbody>");
+    parts.push(
+      "<h4>Parameters</h4><table><thead><tr><th>name</th><th>in</th><th>required</th><th>schema</th><th>meaning</th></tr></thead><tbody>",
+    );
     for (const p of op.parameters) {
       parts.push(
         `<tr><td><code>${escapeHtml(p.name)}</code></td><td>${escapeHtml(p.in)}</td><td>${p.required ? "yes" : "no"}</td>` +
@@ -64,7 +80,10 @@ function operationHtml(method: string, path: string, op: Operation): string {
     parts.push("</tbody></table>");
   }
   for (const [type, media] of Object.entries(op.requestBody?.content ?? {})) {
-    parts.push(`<h4>Request body <small>${escapeHtml(type)}${op.requestBody?.required ? ", required" : ""}</small></h4>`, schemaSummary(media.schema));
+    parts.push(
+      `<h4>Request body <small>${escapeHtml(type)}${op.requestBody?.required ? ", required" : ""}</small></h4>`,
+      schemaSummary(media.schema),
+    );
   }
   parts.push("<h4>Answers</h4><dl>");
   for (const [status, response] of Object.entries(op.responses ?? {})) {

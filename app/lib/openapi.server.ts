@@ -72,7 +72,12 @@ function build(): OpenApiDocument {
     path: "/api/v1/openapi.json",
     summary: "This description, as OpenAPI 3.1 JSON",
     tags: ["Index"],
-    responses: { 200: answer("The OpenAPI document.", z.looseObject({ openapi: z.string(), info: z.looseObject({ title: z.string() }), paths: z.looseObject({}) })) },
+    responses: {
+      200: answer(
+        "The OpenAPI document.",
+        z.looseObject({ openapi: z.string(), info: z.looseObject({ title: z.string() }), paths: z.looseObject({}) }),
+      ),
+    },
   });
   registry.registerPath({
     method: "get",
@@ -102,7 +107,9 @@ function build(): OpenApiDocument {
       400: error("The spec is malformed (shape, type, range or an unreadable fall)."),
       413: E413,
       415: E415,
-      422: error("The spec is well formed but cannot be built (self-crossing outline, outlet off every parapet edge, too large)."),
+      422: error(
+        "The spec is well formed but cannot be built (self-crossing outline, outlet off every parapet edge, too large).",
+      ),
       429: error("Too many requests from this address; see Retry-After."),
     },
   });
@@ -110,7 +117,8 @@ function build(): OpenApiDocument {
     method: "post",
     path: "/api/v1/analyses/as-built",
     summary: "Check measured levels against the design (as-built check)",
-    description: "Open to anonymous callers, limited per client address like /api/v1/analyses. The method is docs/as-built.md.",
+    description:
+      "Open to anonymous callers, limited per client address like /api/v1/analyses. The method is docs/as-built.md.",
     tags: ["Analyses"],
     request: { body: { required: true, ...json(asBuiltBodySchema.extend({ spec: roofSpecRef })) } },
     responses: {
@@ -152,7 +160,9 @@ function build(): OpenApiDocument {
     tags: ["Roofs"],
     security: SESSION,
     request: {
-      headers: z.object({ "idempotency-key": idempotencyKeySchema.optional().describe("Makes a repeated save return the first roof.") }),
+      headers: z.object({
+        "idempotency-key": idempotencyKeySchema.optional().describe("Makes a repeated save return the first roof."),
+      }),
       body: { required: true, ...json(roofCreateBody) },
     },
     responses: {
@@ -271,7 +281,11 @@ function build(): OpenApiDocument {
     tags: ["Attempts"],
     security: SESSION,
     request: { params: idParam },
-    responses: { 200: answer("The attempt.", attemptSchema), 401: E401, 404: error("No such attempt that you may see.") },
+    responses: {
+      200: answer("The attempt.", attemptSchema),
+      401: E401,
+      404: error("No such attempt that you may see."),
+    },
   });
 
   const document = new OpenApiGeneratorV31(registry.definitions).generateDocument({
@@ -288,7 +302,7 @@ function build(): OpenApiDocument {
     servers: [{ url: "/" }],
   });
 
-  const schemas = (document.components ??= {}).schemas ??= {};
+  const schemas = ((document.components ??= {}).schemas ??= {});
   // The engine's schema as JSON Schema 2020-12, the dialect of OpenAPI 3.1; what a request carries.
   const { $schema: _dialect, ...spec } = z.toJSONSchema(roofSpecSchema, { target: "draft-2020-12", io: "input" });
   schemas.RoofSpec = {

@@ -17,7 +17,9 @@ export function spoolDir(): string | null {
 }
 
 /** Newest first. Files that cannot be read or parsed are skipped, not fatal. */
-export async function readOutbox(o: { limit?: number; to?: string } = {}): Promise<{ configured: boolean; total: number; messages: SpooledMessage[] }> {
+export async function readOutbox(
+  o: { limit?: number; to?: string } = {},
+): Promise<{ configured: boolean; total: number; messages: SpooledMessage[] }> {
   const dir = spoolDir();
   if (!dir) return { configured: false, total: 0, messages: [] };
   let names: string[];
@@ -35,7 +37,15 @@ export async function readOutbox(o: { limit?: number; to?: string } = {}): Promi
     try {
       const m = JSON.parse(await fs.readFile(path.join(dir, name), "utf8")) as SpooledMessage;
       if (want && !m.to.some((t) => t.toLowerCase() === want)) continue;
-      messages.push({ id: String(m.id), receivedAt: String(m.receivedAt), from: String(m.from ?? ""), to: (m.to ?? []).map(String), subject: String(m.subject ?? ""), text: String(m.text ?? ""), html: String(m.html ?? "") });
+      messages.push({
+        id: String(m.id),
+        receivedAt: String(m.receivedAt),
+        from: String(m.from ?? ""),
+        to: (m.to ?? []).map(String),
+        subject: String(m.subject ?? ""),
+        text: String(m.text ?? ""),
+        html: String(m.html ?? ""),
+      });
     } catch {
       // A message still being written, or not one of ours.
     }

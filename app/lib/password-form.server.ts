@@ -25,8 +25,12 @@ export const NAME_MAX = 100;
 export function newPasswordFields(
   form: FormData,
   opts: { withName?: boolean; email?: string } = {},
-): { ok: true; name: string; password: string; values: Record<string, string> } | { ok: false; result: PasswordFormFailure } {
-  const name = String(form.get("name") ?? "").trim().replace(/\s+/g, " ");
+):
+  | { ok: true; name: string; password: string; values: Record<string, string> }
+  | { ok: false; result: PasswordFormFailure } {
+  const name = String(form.get("name") ?? "")
+    .trim()
+    .replace(/\s+/g, " ");
   const password = String(form.get("password") ?? "");
   const confirm = String(form.get("confirm") ?? "");
   const values: Record<string, string> = opts.withName ? { name: name.slice(0, NAME_MAX) } : {};

@@ -13,5 +13,10 @@ export type PoolResult =
   | { kind: "analysis"; analysis: Analysis; ms: number }
   | { kind: "boolean"; value: boolean; ms: number }
   | { kind: "too-large"; bytes: number; ms: number }
-  | { kind: "refused"; status: number; error: { message: string; issues: { path: string; message: string }[] }; ms: number }
+  | {
+      kind: "refused";
+      status: number;
+      error: { message: string; issues: { path: string; message: string }[] };
+      ms: number;
+    }
   | { kind: "failed"; message: string; ms: number };

@@ -12,7 +12,6 @@ import type { PoolResult, PoolTask } from "~/lib/pool-tasks";
 export type PoolName = "engine" | "password";
 
 declare global {
-   
   var __fallwrightPools: Partial<Record<PoolName, Piscina<PoolTask, PoolResult>>> | undefined;
 }
 
@@ -61,7 +60,8 @@ export async function runInPool(name: PoolName, task: PoolTask, timeoutMs?: numb
   try {
     return await p.run(task, timeoutMs ? { signal: AbortSignal.timeout(timeoutMs) } : undefined);
   } catch (error) {
-    if ((error as Error)?.name === "AbortError" || /aborted/i.test(String((error as Error)?.message))) throw new PoolTimeout(timeoutMs ?? 0);
+    if ((error as Error)?.name === "AbortError" || /aborted/i.test(String((error as Error)?.message)))
+      throw new PoolTimeout(timeoutMs ?? 0);
     if (/queue is at limit/i.test(String((error as Error)?.message))) throw new PoolBusy();
     throw error;
   }

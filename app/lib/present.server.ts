@@ -28,8 +28,10 @@ export function lessonRoofs(content: LessonContent): DeckRoof[] {
   for (const b of content.blocks ?? []) {
     if (b.type === "roof" && b.figure?.spec) roofs.push({ caption: b.figure.caption ?? "Figure", spec: b.figure.spec });
   }
-  if (content.task?.start) roofs.push({ caption: `Task “${content.task.title ?? "task"}”: the starting roof`, spec: content.task.start });
-  if (content.task?.reference) roofs.push({ caption: `Task “${content.task.title ?? "task"}”: a roof that passes`, spec: content.task.reference });
+  if (content.task?.start)
+    roofs.push({ caption: `Task “${content.task.title ?? "task"}”: the starting roof`, spec: content.task.start });
+  if (content.task?.reference)
+    roofs.push({ caption: `Task “${content.task.title ?? "task"}”: a roof that passes`, spec: content.task.reference });
   return roofs;
 }
 
@@ -37,15 +39,31 @@ export function lessonRoofs(content: LessonContent): DeckRoof[] {
 export async function presenterDecks(trainerId: string, classId: string): Promise<Deck[]> {
   const [assigned, lessons, roofs] = await Promise.all([
     classAssignments(classId),
-    db()("lessons").select("slug", "title", "position", "content").orderBy([{ column: "position" }, { column: "slug" }]),
-    db()("roofs").where({ owner_id: trainerId }).whereNull("deleted_at").orderBy("updated_at", "desc").limit(50).select("name", "spec"),
+    db()("lessons")
+      .select("slug", "title", "position", "content")
+      .orderBy([{ column: "position" }, { column: "slug" }]),
+    db()("roofs")
+      .where({ owner_id: trainerId })
+      .whereNull("deleted_at")
+      .orderBy("updated_at", "desc")
+      .limit(50)
+      .select("name", "spec"),
   ]);
   const isAssigned = new Set(assigned.map((a) => a.lesson_slug));
   const decks: Deck[] = [];
-  for (const l of [...lessons.filter((x) => isAssigned.has(x.slug)), ...lessons.filter((x) => !isAssigned.has(x.slug))]) {
+  for (const l of [
+    ...lessons.filter((x) => isAssigned.has(x.slug)),
+    ...lessons.filter((x) => !isAssigned.has(x.slug)),
+  ]) {
     const deckRoofs = lessonRoofs(l.content as LessonContent);
-    if (deckRoofs.length) decks.push({ key: `lesson:${l.slug}`, title: `${l.position}. ${l.title}${isAssigned.has(l.slug) ? " (assigned)" : ""}`, roofs: deckRoofs });
+    if (deckRoofs.length)
+      decks.push({
+        key: `lesson:${l.slug}`,
+        title: `${l.position}. ${l.title}${isAssigned.has(l.slug) ? " (assigned)" : ""}`,
+        roofs: deckRoofs,
+      });
   }
-  if (roofs.length) decks.push({ key: "roofs", title: "My saved roofs", roofs: roofs.map((r) => ({ caption: r.name, spec: r.spec })) });
+  if (roofs.length)
+    decks.push({ key: "roofs", title: "My saved roofs", roofs: roofs.map((r) => ({ caption: r.name, spec: r.spec })) });
   return decks;
 }

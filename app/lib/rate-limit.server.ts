@@ -188,7 +188,12 @@ export async function limitApiRequest(context: AppLoadContext | undefined | null
   const r = hitInMemory(apiKey(context), LIMITS.api);
   if (r.ok) return null;
   return Response.json(
-    { error: { message: `Too many requests from this address. Wait ${waitPhrase(r.retryAfter)} and try again.`, issues: [] } },
+    {
+      error: {
+        message: `Too many requests from this address. Wait ${waitPhrase(r.retryAfter)} and try again.`,
+        issues: [],
+      },
+    },
     { status: 429, headers: { "Retry-After": String(r.retryAfter), "Cache-Control": "no-store" } },
   );
 }

@@ -12,7 +12,6 @@ export interface RequestInfo {
 }
 
 declare global {
-   
   var __fallwrightRequests: AsyncLocalStorage<RequestInfo> | undefined;
 }
 

@@ -21,7 +21,10 @@ export async function reviewsForAttempt(attemptId: string): Promise<ReviewView[]
   const rows = await db()("attempt_reviews as r")
     .join("users as u", "u.id", "r.reviewer_id")
     .where("r.attempt_id", attemptId)
-    .orderBy([{ column: "r.at", order: "desc" }, { column: "r.id", order: "desc" }])
+    .orderBy([
+      { column: "r.at", order: "desc" },
+      { column: "r.id", order: "desc" },
+    ])
     .select("r.id", "u.name", "u.email", "r.comment", "r.override_score", "r.override_passed", "r.reason", "r.at");
   return rows.map((r) => ({
     id: String(r.id),
@@ -40,14 +43,23 @@ export interface EffectiveGrade extends GradeReading {
 }
 
 /** The grade that counts, read by the grading rule: the latest override (reviews newest first), else the automatic one. */
-export function effectiveGrade(attempt: { score: number; passed: boolean; results: GradeResult }, reviews: ReviewView[]): EffectiveGrade {
+export function effectiveGrade(
+  attempt: { score: number; passed: boolean; results: GradeResult },
+  reviews: ReviewView[],
+): EffectiveGrade {
   const override = reviews.find((r) => r.overrideScore !== null || r.overridePassed !== null) ?? null;
   const reading = readGrade({
     score: attempt.score,
     passed: attempt.passed,
     passMark: attempt.results.passMark,
     failedRequired: failedRequiredOf(attempt.results),
-    override: override ? { score: override.overrideScore ?? attempt.score, passed: override.overridePassed ?? attempt.passed, reason: override.reason } : null,
+    override: override
+      ? {
+          score: override.overrideScore ?? attempt.score,
+          passed: override.overridePassed ?? attempt.passed,
+          reason: override.reason,
+        }
+      : null,
   });
   return { ...reading, override };
 }
@@ -68,7 +80,12 @@ const ReviewForm = z
         ctx.addIssue({ code: "custom", path: ["score"], message: "Give the new score as a number from 0 to 100." });
       }
       if (!f.passed) ctx.addIssue({ code: "custom", path: ["passed"], message: "Say whether the attempt passes." });
-      if (f.reason.length < 3) ctx.addIssue({ code: "custom", path: ["reason"], message: "Give a reason for changing the grade; the trainee will read it." });
+      if (f.reason.length < 3)
+        ctx.addIssue({
+          code: "custom",
+          path: ["reason"],
+          message: "Give a reason for changing the grade; the trainee will read it.",
+        });
       override = { score: Math.round(score * 10) / 10, passed: f.passed === "yes", reason: f.reason };
     } else if (!f.comment) {
       ctx.addIssue({ code: "custom", path: ["comment"], message: "Write a comment, or change the grade." });
@@ -79,7 +96,9 @@ const ReviewForm = z
 export type ReviewInput = z.output<typeof ReviewForm>;
 export type ReviewFields = "comment" | "score" | "passed" | "reason";
 
-export function parseReviewForm(form: FormData):
+export function parseReviewForm(
+  form: FormData,
+):
   | { ok: true; value: ReviewInput; raw: Record<string, string> }
   | { ok: false; errors: Partial<Record<ReviewFields, string>>; values: Record<string, string> } {
   const values = {
@@ -89,7 +108,11 @@ export function parseReviewForm(form: FormData):
     passed: String(form.get("passed") ?? ""),
     reason: String(form.get("reason") ?? ""),
   };
-  const parsed = ReviewForm.safeParse({ ...values, override: values.override === "on", passed: ["yes", "no"].includes(values.passed) ? values.passed : "" });
+  const parsed = ReviewForm.safeParse({
+    ...values,
+    override: values.override === "on",
+    passed: ["yes", "no"].includes(values.passed) ? values.passed : "",
+  });
   if (parsed.success) return { ok: true, value: parsed.data, raw: values };
   const errors: Partial<Record<ReviewFields, string>> = {};
   for (const issue of parsed.error.issues) errors[(issue.path[0] as ReviewFields) ?? "comment"] ??= issue.message;
@@ -105,7 +128,12 @@ export interface ReviewedAttempt {
 }
 
 /** Records a review and tells the trainee by e-mail. Returns whether the e-mail went out. */
-export async function addReview(o: { attempt: ReviewedAttempt; reviewer: SessionUser; input: ReviewInput; origin: string }): Promise<{ id: string; emailSent: boolean }> {
+export async function addReview(o: {
+  attempt: ReviewedAttempt;
+  reviewer: SessionUser;
+  input: ReviewInput;
+  origin: string;
+}): Promise<{ id: string; emailSent: boolean }> {
   const { attempt, reviewer, input } = o;
   const [row] = await db()("attempt_reviews")
     .insert({
@@ -139,7 +167,10 @@ export async function addReview(o: { attempt: ReviewedAttempt; reviewer: Session
     });
   } catch (error) {
     emailSent = false;
-    console.warn(`[mail] review notice for attempt ${attempt.id} not sent:`, error instanceof Error ? error.message : error);
+    console.warn(
+      `[mail] review notice for attempt ${attempt.id} not sent:`,
+      error instanceof Error ? error.message : error,
+    );
   }
   return { id: String(row.id), emailSent };
 }

@@ -36,14 +36,20 @@ export type RoofFileResult = { ok: true; file: RoofFile } | { ok: false; message
 
 /** Reads the envelope of a roof file (text). The spec inside is checked separately by parseSpec. */
 export function readRoofFile(text: string): RoofFileResult {
-  if (text.length > ROOF_FILE_MAX_BYTES) return { ok: false, message: `The file is over ${ROOF_FILE_MAX_BYTES / 1024} kB; a roof file is much smaller.` };
+  if (text.length > ROOF_FILE_MAX_BYTES)
+    return { ok: false, message: `The file is over ${ROOF_FILE_MAX_BYTES / 1024} kB; a roof file is much smaller.` };
   let raw: unknown;
   try {
     raw = JSON.parse(text);
   } catch {
     return { ok: false, message: "The file is not JSON. Choose a roof file exported from Fallwright (.json)." };
   }
-  if (!raw || typeof raw !== "object" || Array.isArray(raw) || (raw as { format?: unknown }).format !== ROOF_FILE_FORMAT) {
+  if (
+    !raw ||
+    typeof raw !== "object" ||
+    Array.isArray(raw) ||
+    (raw as { format?: unknown }).format !== ROOF_FILE_FORMAT
+  ) {
     return { ok: false, message: `This is not a Fallwright roof file: it needs "format": "${ROOF_FILE_FORMAT}".` };
   }
   const version = (raw as { version?: unknown }).version;
@@ -59,19 +65,36 @@ export function readRoofFile(text: string): RoofFileResult {
   const parsed = roofFileSchema.safeParse(raw);
   if (!parsed.success) {
     const first = parsed.error.issues[0];
-    return { ok: false, message: `The roof file is damaged: ${first.path.map(String).join(".") || "(file)"} ${first.message}.` };
+    return {
+      ok: false,
+      message: `The roof file is damaged: ${first.path.map(String).join(".") || "(file)"} ${first.message}.`,
+    };
   }
   return { ok: true, file: parsed.data };
 }
 
-export function writeRoofFile(roof: { name: string; spec: unknown; underlay?: UnderlaySettings | null }, now = new Date()): RoofFile {
-  const file: RoofFile = { format: ROOF_FILE_FORMAT, version: ROOF_FILE_VERSION, name: roof.name, exportedAt: now.toISOString(), spec: roof.spec };
+export function writeRoofFile(
+  roof: { name: string; spec: unknown; underlay?: UnderlaySettings | null },
+  now = new Date(),
+): RoofFile {
+  const file: RoofFile = {
+    format: ROOF_FILE_FORMAT,
+    version: ROOF_FILE_VERSION,
+    name: roof.name,
+    exportedAt: now.toISOString(),
+    spec: roof.spec,
+  };
   if (roof.underlay) file.underlay = roof.underlay;
   return file;
 }
 
 /** A safe file name for a download: letters, digits and dashes only. */
 export function roofFileName(name: string): string {
-  const stem = name.normalize("NFKD").replace(/[^A-Za-z0-9]+/g, "-").replace(/^-+|-+$/g, "").toLowerCase().slice(0, 60);
+  const stem = name
+    .normalize("NFKD")
+    .replace(/[^A-Za-z0-9]+/g, "-")
+    .replace(/^-+|-+$/g, "")
+    .toLowerCase()
+    .slice(0, 60);
   return `${stem || "roof"}.fallwright.json`;
 }

@@ -68,8 +68,22 @@ export type UpdateResult =
 
 const iso = (d: Date | string) => (d instanceof Date ? d.toISOString() : new Date(d).toISOString());
 
-function summary(r: { id: string; name: string; version: number; shared: boolean; updated_at: Date; created_at: Date }): RoofSummary {
-  return { id: r.id, name: r.name, version: r.version, shared: r.shared, updatedAt: iso(r.updated_at), createdAt: iso(r.created_at) };
+function summary(r: {
+  id: string;
+  name: string;
+  version: number;
+  shared: boolean;
+  updated_at: Date;
+  created_at: Date;
+}): RoofSummary {
+  return {
+    id: r.id,
+    name: r.name,
+    version: r.version,
+    shared: r.shared,
+    updatedAt: iso(r.updated_at),
+    createdAt: iso(r.created_at),
+  };
 }
 
 function readUnderlay(raw: unknown): UnderlaySettings | null {
@@ -98,7 +112,16 @@ export async function listSharedWithMe(user: SessionUser): Promise<SharedRoofSum
     .whereNull("r.deleted_at")
     .orderBy("r.updated_at", "desc")
     .limit(200)
-    .select("r.id", "r.name", "r.version", "r.shared", "r.updated_at", "r.created_at", "u.name as owner_name", "u.email as owner_email");
+    .select(
+      "r.id",
+      "r.name",
+      "r.version",
+      "r.shared",
+      "r.updated_at",
+      "r.created_at",
+      "u.name as owner_name",
+      "u.email as owner_email",
+    );
   return rows.map((r) => ({ ...summary(r), ownerName: r.owner_name || r.owner_email }));
 }
 
@@ -107,15 +130,31 @@ export async function listSharedWithMe(user: SessionUser): Promise<SharedRoofSum
  * it is shared. Anyone else gets null, which callers turn into 404 (never a hint it exists).
  * With `lock` (inside a transaction) the roof's row is locked FOR UPDATE until it ends.
  */
-export async function getRoofFor(user: SessionUser, id: string, trx: Knex = db(), o: { lock?: boolean } = {}): Promise<RoofDetail | null> {
+export async function getRoofFor(
+  user: SessionUser,
+  id: string,
+  trx: Knex = db(),
+  o: { lock?: boolean } = {},
+): Promise<RoofDetail | null> {
   if (!isUuid(id)) return null;
   const q = trx("roofs as r")
     .join("users as u", "u.id", "r.owner_id")
     .where("r.id", id)
     .whereNull("r.deleted_at")
     .first(
-      "r.id", "r.name", "r.version", "r.shared", "r.updated_at", "r.created_at", "r.owner_id", "r.spec",
-      "r.underlay_id", "r.underlay", "u.name as owner_name", "u.email as owner_email", "u.organisation_id",
+      "r.id",
+      "r.name",
+      "r.version",
+      "r.shared",
+      "r.updated_at",
+      "r.created_at",
+      "r.owner_id",
+      "r.spec",
+      "r.underlay_id",
+      "r.underlay",
+      "u.name as owner_name",
+      "u.email as owner_email",
+      "u.organisation_id",
     );
   const r = await (o.lock ? q.forUpdate("r") : q);
   if (!r) return null;
@@ -132,7 +171,12 @@ export async function getRoofFor(user: SessionUser, id: string, trx: Knex = db()
   };
 }
 
-export const idempotencyKeySchema = z.string().trim().min(8).max(100).regex(/^[A-Za-z0-9_.:-]+$/);
+export const idempotencyKeySchema = z
+  .string()
+  .trim()
+  .min(8)
+  .max(100)
+  .regex(/^[A-Za-z0-9_.:-]+$/);
 
 export type CreatedRoof = { id: string; version: number; repeated?: boolean };
 export type CreateRoofResult = CreatedRoof | { keyReused: string };
@@ -145,10 +189,17 @@ type NewRoof = { name: string; spec: unknown; underlay?: UnderlaySettings | null
  * first roof.
  */
 export async function createRoof(user: SessionUser, input: NewRoof): Promise<CreatedRoof>;
-export async function createRoof(user: SessionUser, input: NewRoof & { idempotencyKey: string | null | undefined }): Promise<CreateRoofResult>;
-export async function createRoof(user: SessionUser, input: NewRoof & { idempotencyKey?: string | null }): Promise<CreateRoofResult> {
+export async function createRoof(
+  user: SessionUser,
+  input: NewRoof & { idempotencyKey: string | null | undefined },
+): Promise<CreateRoofResult>;
+export async function createRoof(
+  user: SessionUser,
+  input: NewRoof & { idempotencyKey?: string | null },
+): Promise<CreateRoofResult> {
   const key = input.idempotencyKey ?? null;
-  const hash = key === null ? null : requestHash({ name: input.name, spec: input.spec, underlay: input.underlay ?? null });
+  const hash =
+    key === null ? null : requestHash({ name: input.name, spec: input.spec, underlay: input.underlay ?? null });
   return db().transaction(async (trx) => {
     const [roof] = await trx("roofs")
       .insert({
@@ -163,11 +214,20 @@ export async function createRoof(user: SessionUser, input: NewRoof & { idempoten
       .ignore()
       .returning(["id", "version"]);
     if (!roof) {
-      const first = await trx("roofs").where({ owner_id: user.id, idempotency_key: key }).first("id", "version", "idempotency_hash");
+      const first = await trx("roofs")
+        .where({ owner_id: user.id, idempotency_key: key })
+        .first("id", "version", "idempotency_hash");
       if (!sameRequest(first.idempotency_hash, hash!)) return { keyReused: key! };
       return { id: first.id as string, version: first.version as number, repeated: true };
     }
-    await trx("roof_versions").insert({ roof_id: roof.id, version: roof.version, name: input.name, spec: JSON.stringify(input.spec), saved_by: user.id, kind: "created" });
+    await trx("roof_versions").insert({
+      roof_id: roof.id,
+      version: roof.version,
+      name: input.name,
+      spec: JSON.stringify(input.spec),
+      saved_by: user.id,
+      kind: "created",
+    });
     return { id: roof.id as string, version: roof.version as number };
   });
 }
@@ -206,7 +266,10 @@ export async function updateRoof(
     if (!saved) {
       const found = await ownedForWrite(trx, user, id);
       if (found.status !== "ok") return { status: found.status };
-      return { status: "conflict", current: { version: found.roof.version, spec: found.roof.spec, name: found.roof.name } };
+      return {
+        status: "conflict",
+        current: { version: found.roof.version, spec: found.roof.spec, name: found.roof.name },
+      };
     }
     const kind: VersionKind = input.kind ?? (input.name !== undefined ? "named" : "auto");
     const row = { version: saved.version, name: saved.name, spec: JSON.stringify(saved.spec), saved_by: user.id, kind };
@@ -246,7 +309,11 @@ export async function restoreRoof(user: SessionUser, id: string): Promise<WriteS
 }
 
 /** A copy in my library of any roof I can see (mine or shared with me). */
-export async function duplicateRoof(user: SessionUser, id: string, name?: string): Promise<{ id: string; version: number } | null> {
+export async function duplicateRoof(
+  user: SessionUser,
+  id: string,
+  name?: string,
+): Promise<{ id: string; version: number } | null> {
   const roof = await getRoofFor(user, id);
   if (!roof) return null;
   const copyName = name ?? `${roof.name.slice(0, 112)} (copy)`;
@@ -270,11 +337,21 @@ export async function listVersions(roofId: string): Promise<RoofVersionRow[]> {
     .orderBy("v.version", "desc")
     .limit(HISTORY_LIMIT)
     .select("v.version", "v.name", "v.saved_at", "u.name as saved_by_name", "u.email as saved_by_email");
-  return rows.map((r) => ({ version: r.version, name: r.name, savedAt: iso(r.saved_at), savedBy: r.saved_by_name || r.saved_by_email || null }));
+  return rows.map((r) => ({
+    version: r.version,
+    name: r.name,
+    savedAt: iso(r.saved_at),
+    savedBy: r.saved_by_name || r.saved_by_email || null,
+  }));
 }
 
 /** Makes an old version the newest one (history is never rewritten). */
-export async function restoreVersion(user: SessionUser, id: string, version: number, expectedVersion: number): Promise<UpdateResult> {
+export async function restoreVersion(
+  user: SessionUser,
+  id: string,
+  version: number,
+  expectedVersion: number,
+): Promise<UpdateResult> {
   if (!isUuid(id)) return { status: "not-found" };
   const old = await db()("roof_versions").where({ roof_id: id, version }).first("name", "spec");
   if (!old) return { status: "not-found" };
@@ -303,7 +380,13 @@ export async function recordUpload(
   row: { ownerId: string; storageKey: string; contentType: string; size: number; originalName: string },
 ): Promise<string> {
   const [u] = await trx("uploads")
-    .insert({ owner_id: row.ownerId, storage_key: row.storageKey, content_type: row.contentType, size: row.size, original_name: row.originalName.slice(0, 200) })
+    .insert({
+      owner_id: row.ownerId,
+      storage_key: row.storageKey,
+      content_type: row.contentType,
+      size: row.size,
+      original_name: row.originalName.slice(0, 200),
+    })
     .returning("id");
   return u.id as string;
 }

@@ -28,7 +28,10 @@ export function parseAddressList(text: string): ParsedAddresses {
     const piece = raw.trim();
     if (!piece) continue;
     const bracketed = /<([^<>]*)>\s*$/.exec(piece);
-    const address = (bracketed ? bracketed[1] : piece).trim().replace(/^["']|["']$/g, "").toLowerCase();
+    const address = (bracketed ? bracketed[1] : piece)
+      .trim()
+      .replace(/^["']|["']$/g, "")
+      .toLowerCase();
     if (!Email.safeParse(address).success) {
       invalid.push(piece);
       continue;

@@ -73,7 +73,9 @@ export async function createSession(request: Request, userId: string): Promise<s
     await trx("sessions")
       .where({ user_id: userId })
       .andWhere((q) =>
-        q.where("expires_at", "<=", trx.fn.now()).orWhere("last_seen_at", "<=", trx.raw(`now() - make_interval(secs => ?)`, [IDLE_TIMEOUT_SECONDS])),
+        q
+          .where("expires_at", "<=", trx.fn.now())
+          .orWhere("last_seen_at", "<=", trx.raw(`now() - make_interval(secs => ?)`, [IDLE_TIMEOUT_SECONDS])),
       )
       .delete();
     await trx("sessions").insert({
@@ -110,7 +112,18 @@ export async function findLiveSession(request: Request): Promise<LiveSession | n
     .join("users as u", "u.id", "s.user_id")
     .where("s.id", id)
     .first<
-      | { id: string; email: string; name: string; role: Role; organisation_id: string; units: UnitsPreference; active: boolean; expired: boolean; idle: boolean; stale: boolean }
+      | {
+          id: string;
+          email: string;
+          name: string;
+          role: Role;
+          organisation_id: string;
+          units: UnitsPreference;
+          active: boolean;
+          expired: boolean;
+          idle: boolean;
+          stale: boolean;
+        }
       | undefined
     >(
       "u.id",
@@ -132,7 +145,14 @@ export async function findLiveSession(request: Request): Promise<LiveSession | n
   if (row.stale) await k("sessions").where({ id }).update({ last_seen_at: k.fn.now() });
   return {
     sessionId: id,
-    user: { id: row.id, email: row.email, name: row.name, role: row.role, organisationId: row.organisation_id, units: row.units ?? null },
+    user: {
+      id: row.id,
+      email: row.email,
+      name: row.name,
+      role: row.role,
+      organisationId: row.organisation_id,
+      units: row.units ?? null,
+    },
   };
 }
 

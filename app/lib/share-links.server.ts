@@ -33,25 +33,40 @@ export async function createShareLink(
 ): Promise<{ status: "ok"; token: string; id: string } | { status: "forbidden" | "not-found" | "too-many" }> {
   const owns = await ownsRoof(user, roofId);
   if (owns !== "ok") return { status: owns };
-  const active = await db()("share_links").where({ roof_id: roofId }).whereNull("revoked_at").count<{ count: string }[]>("id as count");
+  const active = await db()("share_links")
+    .where({ roof_id: roofId })
+    .whereNull("revoked_at")
+    .count<{ count: string }[]>("id as count");
   if (Number(active[0].count) >= MAX_LINKS_PER_ROOF) return { status: "too-many" };
   const token = randomToken();
-  const [row] = await db()("share_links").insert({ roof_id: roofId, token_hash: sha256(token), created_by: user.id }).returning("id");
+  const [row] = await db()("share_links")
+    .insert({ roof_id: roofId, token_hash: sha256(token), created_by: user.id })
+    .returning("id");
   return { status: "ok", token, id: row.id };
 }
 
 /** Revokes one of the owner's links (already revoked: nothing changes). */
-export async function revokeShareLink(user: SessionUser, roofId: string, linkId: string): Promise<"ok" | "forbidden" | "not-found"> {
+export async function revokeShareLink(
+  user: SessionUser,
+  roofId: string,
+  linkId: string,
+): Promise<"ok" | "forbidden" | "not-found"> {
   const owns = await ownsRoof(user, roofId);
   if (owns !== "ok") return owns;
   if (!isUuid(linkId)) return "not-found";
-  const n = await db()("share_links").where({ id: linkId, roof_id: roofId }).update({ revoked_at: db().raw("coalesce(revoked_at, now())") });
+  const n = await db()("share_links")
+    .where({ id: linkId, roof_id: roofId })
+    .update({ revoked_at: db().raw("coalesce(revoked_at, now())") });
   return n ? "ok" : "not-found";
 }
 
 /** The roof's links that still work, newest first. */
 export async function listShareLinks(roofId: string): Promise<ShareLinkRow[]> {
-  const rows = await db()("share_links").where({ roof_id: roofId }).whereNull("revoked_at").orderBy("created_at", "desc").select("id", "created_at");
+  const rows = await db()("share_links")
+    .where({ roof_id: roofId })
+    .whereNull("revoked_at")
+    .orderBy("created_at", "desc")
+    .select("id", "created_at");
   return rows.map((r) => ({ id: r.id, createdAt: new Date(r.created_at).toISOString() }));
 }
 

@@ -28,7 +28,15 @@ function client(): S3Client {
 const bucket = () => process.env.S3_BUCKET ?? "fallwright";
 
 export async function putObject(key: string, body: Uint8Array, contentType: string): Promise<void> {
-  await client().send(new PutObjectCommand({ Bucket: bucket(), Key: key, Body: body, ContentType: contentType, ContentLength: body.byteLength }));
+  await client().send(
+    new PutObjectCommand({
+      Bucket: bucket(),
+      Key: key,
+      Body: body,
+      ContentType: contentType,
+      ContentLength: body.byteLength,
+    }),
+  );
 }
 
 /** The object as a web stream, or null when the store has no such key. */

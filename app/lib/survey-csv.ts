@@ -93,21 +93,39 @@ export function parseSurveyCsv(text: string, options: SurveyOptions = {}): Surve
   if (header) {
     const names = first.map((h) => h.trim().toLowerCase());
     const find = (re: RegExp) => names.findIndex((n) => re.test(n));
-    const ix = [find(/^x\b|east/), find(/^y\b|north/), find(/level|height|^z\b|elev/), find(/label|name|joist|point|note/)];
+    const ix = [
+      find(/^x\b|east/),
+      find(/^y\b|north/),
+      find(/level|height|^z\b|elev/),
+      find(/label|name|joist|point|note/),
+    ];
     const missing = COLUMNS.slice(0, 3).filter((_, k) => ix[k] < 0);
     if (missing.length) {
-      return { ok: false, units: "m", header, points, issues: [{ row: 1, message: `The header has no ${missing.join(", ")} column (found: ${first.join(", ")}).` }] };
+      return {
+        ok: false,
+        units: "m",
+        header,
+        points,
+        issues: [{ row: 1, message: `The header has no ${missing.join(", ")} column (found: ${first.join(", ")}).` }],
+      };
     }
     order = ix;
   }
   const body = header ? rows.slice(1) : rows;
   const max = options.maxRows ?? 2000;
   if (body.length > max) {
-    return { ok: false, units: "m", header, points, issues: [{ row: (header ? 1 : 0) + max + 1, message: `At most ${max} rows; this file has ${body.length}.` }] };
+    return {
+      ok: false,
+      units: "m",
+      header,
+      points,
+      issues: [{ row: (header ? 1 : 0) + max + 1, message: `At most ${max} rows; this file has ${body.length}.` }],
+    };
   }
   const headerUnits = header && IMPERIAL.test(first.join(" ").replace(/\blabel\b|\bpoint\b/gi, "")) ? "ft-in" : null;
   const valuesImperial = body.some((r) => order.slice(0, 3).some((k) => /['"′″]|ft|in/i.test(r[k] ?? "")));
-  const units: SurveyUnits = options.units && options.units !== "auto" ? options.units : headerUnits ?? (valuesImperial ? "ft-in" : "m");
+  const units: SurveyUnits =
+    options.units && options.units !== "auto" ? options.units : (headerUnits ?? (valuesImperial ? "ft-in" : "m"));
   const read = units === "m" ? metres : feetInches;
   const unitWord = units === "m" ? "metres (e.g. 12.35)" : `feet and inches (e.g. 12' 6-1/2")`;
 
@@ -125,21 +143,36 @@ export function parseSurveyCsv(text: string, options: SurveyOptions = {}): Surve
       }
       const v = read(raw);
       if (v === null || !Number.isFinite(v)) {
-        const hint = units === "m" && feetInches(raw) !== null && /['"]/.test(raw) ? " It looks like feet and inches: choose that unit for the whole file." : "";
-        issues.push({ row, column: COLUMNS[c], message: `Row ${row}: ${COLUMNS[c]} "${raw.slice(0, 30)}" is not a length in ${unitWord}.${hint}` });
+        const hint =
+          units === "m" && feetInches(raw) !== null && /['"]/.test(raw)
+            ? " It looks like feet and inches: choose that unit for the whole file."
+            : "";
+        issues.push({
+          row,
+          column: COLUMNS[c],
+          message: `Row ${row}: ${COLUMNS[c]} "${raw.slice(0, 30)}" is not a length in ${unitWord}.${hint}`,
+        });
         bad = true;
       }
       values.push(v);
     }
     const labelRaw = order[3] >= 0 ? (r[order[3]] ?? "").trim() : "";
     if (labelRaw && options.labels && !options.labels.has(labelRaw)) {
-      issues.push({ row, column: "label", message: `Row ${row}: "${labelRaw.slice(0, 40)}" is not a joist end of this roof's drop schedule.` });
+      issues.push({
+        row,
+        column: "label",
+        message: `Row ${row}: "${labelRaw.slice(0, 40)}" is not a joist end of this roof's drop schedule.`,
+      });
       bad = true;
     }
     if (bad) return;
     const [x, y, level] = values as number[];
     if (units === "m" && Math.abs(level) >= 10) {
-      issues.push({ row, column: "level", message: `Row ${row}: level ${level} m is over 10 m: was it typed in millimetres? Give metres (${(level / 1000).toFixed(3)}).` });
+      issues.push({
+        row,
+        column: "level",
+        message: `Row ${row}: level ${level} m is over 10 m: was it typed in millimetres? Give metres (${(level / 1000).toFixed(3)}).`,
+      });
       return;
     }
     const design = options.designLevel?.([x, y]);
@@ -148,7 +181,11 @@ export function parseSurveyCsv(text: string, options: SurveyOptions = {}): Surve
       // 10× off: far from the design, yet within 10 mm of it once moved one decimal place.
       for (const f of [10, 0.1]) {
         if (off > 0.1 && Math.abs(level / f - design) <= 0.01) {
-          issues.push({ row, column: "level", message: `Row ${row}: level ${fmt(level)} is ${f === 10 ? "10× the" : "a tenth of the"} design level ${fmt(design)}: check the decimal point.` });
+          issues.push({
+            row,
+            column: "level",
+            message: `Row ${row}: level ${fmt(level)} is ${f === 10 ? "10× the" : "a tenth of the"} design level ${fmt(design)}: check the decimal point.`,
+          });
           return;
         }
       }

@@ -12,7 +12,6 @@ export function sha256(value: string): string {
   return createHash("sha256").update(value, "utf8").digest("hex");
 }
 
-
 export type TokenKind = "invitation" | "reset";
 
 export interface TokenRow {
@@ -29,7 +28,15 @@ export interface TokenRow {
 
 /** Stores the hash of a new single-use token and returns the token itself (it goes only into the e-mail). */
 export async function issueToken(
-  t: { kind: TokenKind; email: string; userId: string; role?: string | null; classId?: string | null; createdBy?: string | null; ttlSeconds: number },
+  t: {
+    kind: TokenKind;
+    email: string;
+    userId: string;
+    role?: string | null;
+    classId?: string | null;
+    createdBy?: string | null;
+    ttlSeconds: number;
+  },
   trx: Knex | Knex.Transaction = db(),
 ): Promise<string> {
   const token = randomToken();
@@ -61,7 +68,11 @@ export async function peekToken(kind: TokenKind, token: string): Promise<TokenSt
 }
 
 /** Marks a token used if it is still valid, atomically: two racing requests cannot both use it. */
-export async function consumeToken(kind: TokenKind, token: string, trx: Knex | Knex.Transaction): Promise<TokenRow | null> {
+export async function consumeToken(
+  kind: TokenKind,
+  token: string,
+  trx: Knex | Knex.Transaction,
+): Promise<TokenRow | null> {
   if (!/^[A-Za-z0-9_-]{20,100}$/.test(token)) return null;
   const [row] = await trx("tokens")
     .where({ hash: sha256(token), kind })

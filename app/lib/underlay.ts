@@ -11,7 +11,9 @@ export function underlayUrl(roofId: string, uploadId: string): string {
 
 function outlineOf(spec: unknown): [number, number][] {
   const outline = (spec as { outline?: unknown } | null)?.outline;
-  return Array.isArray(outline) ? outline.filter((p): p is [number, number] => Array.isArray(p) && p.length === 2 && p.every(Number.isFinite)) : [];
+  return Array.isArray(outline)
+    ? outline.filter((p): p is [number, number] => Array.isArray(p) && p.length === 2 && p.every(Number.isFinite))
+    : [];
 }
 
 /** A first placement before calibration: the image spans the roof's width, top-left at the roof's top-left. */
@@ -45,7 +47,10 @@ export type LengthResult = { ok: true; metres: number } | { ok: false; message: 
 /** A real distance as typed ("12 m", "12000 mm", "40 ft"); a bare number is metres. */
 export function parseLength(text: string): LengthResult {
   // "12,000 mm" groups thousands; "7,5 m" is a decimal comma.
-  const s = text.trim().replace(/,(?=\d{3}\b)/g, "").replace(/,/g, ".");
+  const s = text
+    .trim()
+    .replace(/,(?=\d{3}\b)/g, "")
+    .replace(/,/g, ".");
   if (!s) return { ok: false, message: "Type the real distance between the two points, such as 12 m or 12000 mm." };
   if (s.length > 40) return { ok: false, message: "That is too long for a distance." };
   let metres: number;
@@ -54,7 +59,8 @@ export function parseLength(text: string): LengthResult {
   } else {
     try {
       const u = math.unit(s);
-      if (!u.equalBase(math.unit("1 m"))) return { ok: false, message: `“${text.trim()}” is not a length. Use m, mm, cm or ft.` };
+      if (!u.equalBase(math.unit("1 m")))
+        return { ok: false, message: `“${text.trim()}” is not a length. Use m, mm, cm or ft.` };
       metres = u.toNumber("m");
     } catch {
       return { ok: false, message: `“${text.trim()}” is not a distance Fallwright can read. Try 12 m or 12000 mm.` };
@@ -66,7 +72,12 @@ export function parseLength(text: string): LengthResult {
 }
 
 /** New scale from two image points and the real distance between them; point A keeps its plan position. */
-export function calibrate(u: UnderlaySettings, a: [number, number], b: [number, number], metres: number): UnderlaySettings | null {
+export function calibrate(
+  u: UnderlaySettings,
+  a: [number, number],
+  b: [number, number],
+  metres: number,
+): UnderlaySettings | null {
   const px = Math.hypot(b[0] - a[0], b[1] - a[1]);
   if (!(px > 0)) return null;
   const metresPerPixel = metres / px;
@@ -105,5 +116,9 @@ export function retraceSpec(spec: unknown, outline: [number, number][]): Record<
     return [round(best[0]), round(best[1])] as [number, number];
   };
   delete base.edges;
-  return { ...base, outline: pts, outlets: outlets.filter((o) => Array.isArray(o?.at)).map((o) => ({ ...o, at: nearest(o.at) })) };
+  return {
+    ...base,
+    outline: pts,
+    outlets: outlets.filter((o) => Array.isArray(o?.at)).map((o) => ({ ...o, at: nearest(o.at) })),
+  };
 }

@@ -132,8 +132,11 @@ export function fallDetail(ratio: number | null | undefined, system: UnitSystem 
 /** What a length field shows for editing: a plain number in the metric unit, or feet and inches. */
 export function lengthInputText(metres: number | undefined, system: UnitSystem, kind: LengthKind): string {
   if (metres == null || !Number.isFinite(metres)) return "";
-  if (system === "metric") return kind === "level" ? String(Math.round(metres * 1000 * 10) / 10) : String(Number(metres.toFixed(3)));
-  return (kind === "level" ? formatLevel(metres, "us").replace(/\u00a0in$/, '"') : formatLength(metres, "us")).replace(/\u00a0/g, " ").replace("−", "-");
+  if (system === "metric")
+    return kind === "level" ? String(Math.round(metres * 1000 * 10) / 10) : String(Number(metres.toFixed(3)));
+  return (kind === "level" ? formatLevel(metres, "us").replace(/\u00a0in$/, '"') : formatLength(metres, "us"))
+    .replace(/\u00a0/g, " ")
+    .replace("−", "-");
 }
 
 /** A plan length (m, or ft and in) or a level (mm, or in): what a bare number means. */
@@ -161,7 +164,10 @@ const WORDS: [RegExp, string][] = [
 
 /** "1/4", "6 1/2" or "2.5" as a number, through mathjs's exact fractions. */
 function amount(text: string): number {
-  const t = text.replace(/\s*\/\s*/, "/").replace(/\s+/g, " ").trim();
+  const t = text
+    .replace(/\s*\/\s*/, "/")
+    .replace(/\s+/g, " ")
+    .trim();
   return t.includes("/") ? Number(math.fraction(t).valueOf()) : Number(t);
 }
 
@@ -202,7 +208,9 @@ export function parseLength(input: string, system: UnitSystem, kind: LengthKind)
   try {
     for (let i = 0; i < terms.length; i++) {
       const t = terms[i];
-      const unit = t.unit ?? (i > 0 && terms[i - 1].unit === "ft" ? "in" : terms.length === 1 ? bareUnit(system, kind) : undefined);
+      const unit =
+        t.unit ??
+        (i > 0 && terms[i - 1].unit === "ft" ? "in" : terms.length === 1 ? bareUnit(system, kind) : undefined);
       if (!unit) return { ok: false, error: "needs a unit on each part, such as 12 ft 6 in" };
       if (!Number.isFinite(t.value)) return { ok: false, error: "is not a finite length" };
       const q = math.unit(t.value, unit);

@@ -22,7 +22,13 @@ export interface UserListRow {
   lastSignInAt: string | null;
 }
 
-export async function listUsers(o: { organisationId: string; q?: string; role?: Role | null; status?: UserStatus | null; limit?: number }): Promise<{ rows: UserListRow[]; total: number }> {
+export async function listUsers(o: {
+  organisationId: string;
+  q?: string;
+  role?: Role | null;
+  status?: UserStatus | null;
+  limit?: number;
+}): Promise<{ rows: UserListRow[]; total: number }> {
   const k = db();
   const base = k("users as u").where("u.organisation_id", o.organisationId);
   if (o.q) {
@@ -42,7 +48,9 @@ export async function listUsers(o: { organisationId: string; q?: string; role?: 
       "u.email",
       "u.name",
       "u.role",
-      k.raw(`case when not u.active then 'deactivated' when u.password_hash is null then 'invited' else 'active' end as status`),
+      k.raw(
+        `case when not u.active then 'deactivated' when u.password_hash is null then 'invited' else 'active' end as status`,
+      ),
       k.raw(`to_char(u.created_at at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS"Z"') as "createdAt"`),
       k.raw(
         `(select to_char(max(a.at) at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS"Z"') from audit_log a where a.subject_id = u.id and a.action = 'sign_in') as "lastSignInAt"`,
@@ -68,36 +76,65 @@ async function otherActiveAdmins(actor: SessionUser, exceptId: string): Promise<
   return Number(n);
 }
 
-export async function changeRole(actor: SessionUser, userId: string, role: string, ip?: string | null): Promise<AdminResult> {
+export async function changeRole(
+  actor: SessionUser,
+  userId: string,
+  role: string,
+  ip?: string | null,
+): Promise<AdminResult> {
   if (!ROLES.includes(role as Role)) return { ok: false, message: "Choose one of the four roles." };
   const user = await targetUser(actor, userId);
   if (!user) return { ok: false, message: "No such user." };
   if (user.id === actor.id) return { ok: false, message: "You cannot change your own role; ask another admin." };
   if (user.role === role) return { ok: true, message: `${user.email} is already a ${role}.` };
-  if (user.role === "admin" && (await otherActiveAdmins(actor, user.id)) === 0) return { ok: false, message: "Keep at least one active admin." };
+  if (user.role === "admin" && (await otherActiveAdmins(actor, user.id)) === 0)
+    return { ok: false, message: "Keep at least one active admin." };
   await db().transaction(async (trx) => {
     await trx("users").where({ id: user.id }).update({ role });
-    await audit({ action: "role_changed", actorId: actor.id, subjectId: user.id, detail: { from: user.role, to: role }, ip }, trx);
+    await audit(
+      { action: "role_changed", actorId: actor.id, subjectId: user.id, detail: { from: user.role, to: role }, ip },
+      trx,
+    );
   });
   return { ok: true, message: `${user.email} is now a ${role}.` };
 }
 
 /** Deactivation ends every session at once and blocks sign-in; reactivation lets the old password work again. */
-export async function setActive(actor: SessionUser, userId: string, active: boolean, ip?: string | null): Promise<AdminResult> {
+export async function setActive(
+  actor: SessionUser,
+  userId: string,
+  active: boolean,
+  ip?: string | null,
+): Promise<AdminResult> {
   const user = await targetUser(actor, userId);
   if (!user) return { ok: false, message: "No such user." };
   if (user.id === actor.id) return { ok: false, message: "You cannot deactivate your own account." };
-  if (user.active === active) return { ok: true, message: `${user.email} is already ${active ? "active" : "deactivated"}.` };
+  if (user.active === active)
+    return { ok: true, message: `${user.email} is already ${active ? "active" : "deactivated"}.` };
   await db().transaction(async (trx) => {
     await trx("users").where({ id: user.id }).update({ active });
     const ended = active ? 0 : await destroyAllSessions(user.id, trx);
-    await audit({ action: active ? "user_reactivated" : "user_deactivated", actorId: actor.id, subjectId: user.id, detail: active ? {} : { sessionsEnded: ended }, ip }, trx);
+    await audit(
+      {
+        action: active ? "user_reactivated" : "user_deactivated",
+        actorId: actor.id,
+        subjectId: user.id,
+        detail: active ? {} : { sessionsEnded: ended },
+        ip,
+      },
+      trx,
+    );
   });
-  return { ok: true, message: active ? `${user.email} can sign in again.` : `${user.email} is deactivated and signed out everywhere.` };
+  return {
+    ok: true,
+    message: active ? `${user.email} can sign in again.` : `${user.email} is deactivated and signed out everywhere.`,
+  };
 }
 
 /** The organisation whose sign-up page this is: there is one per installation. */
-export async function primaryOrganisation(): Promise<{ id: string; name: string; open_designer_signup: boolean } | undefined> {
+export async function primaryOrganisation(): Promise<
+  { id: string; name: string; open_designer_signup: boolean } | undefined
+> {
   return db()("organisations").orderBy("created_at").first("id", "name", "open_designer_signup");
 }
 
@@ -123,17 +160,35 @@ export async function changeUnits(user: SessionUser, raw: unknown, ip?: string |
   const units = raw === "auto" || raw === "" ? null : isUnitSystem(raw) ? raw : undefined;
   if (units === undefined) return { ok: false, message: "Choose metric, US customary or the roof's rule set." };
   await db()("users").where({ id: user.id }).update({ units });
-  await audit({ action: "profile_changed", actorId: user.id, subjectId: user.id, detail: { units: units ?? "auto" }, ip });
+  await audit({
+    action: "profile_changed",
+    actorId: user.id,
+    subjectId: user.id,
+    detail: { units: units ?? "auto" },
+    ip,
+  });
   return { ok: true, message: "Your units are saved." };
 }
 
 /** Needs the current password; ends every session (other devices too) and keeps this browser signed in with a new one. */
-export async function changePassword(request: Request, user: SessionUser, form: FormData, context?: AppLoadContext | null): Promise<PasswordFormResult> {
+export async function changePassword(
+  request: Request,
+  user: SessionUser,
+  form: FormData,
+  context?: AppLoadContext | null,
+): Promise<PasswordFormResult> {
   const fields = newPasswordFields(form, { email: user.email });
   if (!fields.ok) return fields.result;
   const ip = clientIp(context);
   const limited = await hit(`password-change:${user.id}`, LIMITS.signInAccount);
-  if (!limited.ok) return { ok: false, status: 429, retryAfter: limited.retryAfter, formError: `Too many attempts. Wait ${waitPhrase(limited.retryAfter)} and try again.`, values: {} };
+  if (!limited.ok)
+    return {
+      ok: false,
+      status: 429,
+      retryAfter: limited.retryAfter,
+      formError: `Too many attempts. Wait ${waitPhrase(limited.retryAfter)} and try again.`,
+      values: {},
+    };
   const row = await db()("users").where({ id: user.id }).first("password_hash");
   if (!(await verifyPassword(String(form.get("current") ?? ""), row?.password_hash))) {
     return { ok: false, status: 400, fieldErrors: { current: "That is not your current password." }, values: {} };
@@ -142,7 +197,10 @@ export async function changePassword(request: Request, user: SessionUser, form: 
   await db().transaction(async (trx) => {
     await trx("users").where({ id: user.id }).update({ password_hash: hash, password_changed_at: trx.fn.now() });
     const ended = await destroyAllSessions(user.id, trx);
-    await audit({ action: "password_changed", actorId: user.id, subjectId: user.id, detail: { sessionsEnded: ended }, ip }, trx);
+    await audit(
+      { action: "password_changed", actorId: user.id, subjectId: user.id, detail: { sessionsEnded: ended }, ip },
+      trx,
+    );
   });
   const setCookie = await createSession(request, user.id);
   return { ok: true, userId: user.id, setCookie };
@@ -151,10 +209,16 @@ export async function changePassword(request: Request, user: SessionUser, form: 
 const SignUpEmail = z.email("Enter a valid e-mail address.").max(320);
 
 /** Open self sign-up for designers, when the admin has switched it on. */
-export async function signUpDesigner(request: Request, form: FormData, context?: AppLoadContext | null): Promise<PasswordFormResult> {
+export async function signUpDesigner(
+  request: Request,
+  form: FormData,
+  context?: AppLoadContext | null,
+): Promise<PasswordFormResult> {
   const org = await primaryOrganisation();
   if (!org?.open_designer_signup) return { ok: false, status: 404, formError: "Sign-up is closed.", values: {} };
-  const typedEmail = String(form.get("email") ?? "").trim().slice(0, 320);
+  const typedEmail = String(form.get("email") ?? "")
+    .trim()
+    .slice(0, 320);
   const email = SignUpEmail.safeParse(typedEmail.toLowerCase());
   const fields = newPasswordFields(form, { withName: true, email: typedEmail });
   const values = { email: typedEmail, ...(fields.ok ? fields.values : fields.result.values) };
@@ -165,19 +229,38 @@ export async function signUpDesigner(request: Request, form: FormData, context?:
   }
   const ip = clientIp(context);
   const limited = await hitAll([{ key: `signup:ip:${ip}`, ...LIMITS.signUpIp }]);
-  if (!limited.ok) return { ok: false, status: 429, retryAfter: limited.retryAfter, formError: `Too many sign-ups from this address. Wait ${waitPhrase(limited.retryAfter)} and try again.`, values };
+  if (!limited.ok)
+    return {
+      ok: false,
+      status: 429,
+      retryAfter: limited.retryAfter,
+      formError: `Too many sign-ups from this address. Wait ${waitPhrase(limited.retryAfter)} and try again.`,
+      values,
+    };
   const hash = await hashPassword(fields.password);
   const userId = await db().transaction(async (trx) => {
     const taken = await trx("users").whereRaw("lower(email) = ?", [email.data]).first("id");
     if (taken) return null;
     const [row] = await trx("users")
-      .insert({ organisation_id: org.id, email: email.data, name: fields.name, role: "designer", password_hash: hash, password_changed_at: trx.fn.now() })
+      .insert({
+        organisation_id: org.id,
+        email: email.data,
+        name: fields.name,
+        role: "designer",
+        password_hash: hash,
+        password_changed_at: trx.fn.now(),
+      })
       .returning("id");
     await audit({ action: "signed_up", actorId: row.id, subjectId: row.id, detail: { role: "designer" }, ip }, trx);
     return row.id as string;
   });
   if (!userId) {
-    return { ok: false, status: 400, fieldErrors: { email: "There is already an account for that address. Sign in, or reset your password." }, values };
+    return {
+      ok: false,
+      status: 400,
+      fieldErrors: { email: "There is already an account for that address. Sign in, or reset your password." },
+      values,
+    };
   }
   const setCookie = await createSession(request, userId);
   await audit({ action: "sign_in", actorId: userId, subjectId: userId, ip });

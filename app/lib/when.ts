@@ -49,7 +49,8 @@ export function formatDay(iso: string | Date | null | undefined, locale: string 
 }
 
 export function formatDateRange(from: string | null, to: string | null, locale: string = DEFAULT_LOCALE): string {
-  if (from && to) return from === to ? formatDay(from, locale) : `${formatDay(from, locale)} – ${formatDay(to, locale)}`;
+  if (from && to)
+    return from === to ? formatDay(from, locale) : `${formatDay(from, locale)} – ${formatDay(to, locale)}`;
   if (from) return `from ${formatDay(from, locale)}`;
   if (to) return `until ${formatDay(to, locale)}`;
   return "";
@@ -58,8 +59,26 @@ export function formatDateRange(from: string | null, to: string | null, locale: 
 /** "Firefox on Linux" from a User-Agent header, or "Unknown device". */
 export function describeDevice(userAgent: string | null | undefined): string {
   const ua = userAgent ?? "";
-  const browser = /Edg\//.test(ua) ? "Edge" : /Firefox\//.test(ua) ? "Firefox" : /Chrom(e|ium)\//.test(ua) ? "Chrome" : /Safari\//.test(ua) ? "Safari" : null;
-  const os = /Android/.test(ua) ? "Android" : /iPhone|iPad/.test(ua) ? "iOS" : /Windows/.test(ua) ? "Windows" : /Mac OS X/.test(ua) ? "macOS" : /Linux/.test(ua) ? "Linux" : null;
+  const browser = /Edg\//.test(ua)
+    ? "Edge"
+    : /Firefox\//.test(ua)
+      ? "Firefox"
+      : /Chrom(e|ium)\//.test(ua)
+        ? "Chrome"
+        : /Safari\//.test(ua)
+          ? "Safari"
+          : null;
+  const os = /Android/.test(ua)
+    ? "Android"
+    : /iPhone|iPad/.test(ua)
+      ? "iOS"
+      : /Windows/.test(ua)
+        ? "Windows"
+        : /Mac OS X/.test(ua)
+          ? "macOS"
+          : /Linux/.test(ua)
+            ? "Linux"
+            : null;
   if (browser && os) return `${browser} on ${os}`;
   return browser ?? os ?? (ua ? ua.slice(0, 40) : "Unknown device");
 }

@@ -54,7 +54,9 @@ function YourDesk({ desk }: { desk: Desk }) {
               ))}
             </ul>
           ) : (
-            <p className="mt-1 text-sm text-ink-soft">Nothing assigned is waiting: every lesson your classes set is passed, or none is set yet.</p>
+            <p className="mt-1 text-sm text-ink-soft">
+              Nothing assigned is waiting: every lesson your classes set is passed, or none is set yet.
+            </p>
           )}
         </div>
       ) : null}
@@ -72,7 +74,11 @@ function YourDesk({ desk }: { desk: Desk }) {
             </ul>
           ) : (
             <p className="mt-1 text-sm text-ink-soft">
-              No classes yet. <Link className="underline" to="/classes">Create one</Link> and invite trainees by e-mail.
+              No classes yet.{" "}
+              <Link className="underline" to="/classes">
+                Create one
+              </Link>{" "}
+              and invite trainees by e-mail.
             </p>
           )}
         </div>
@@ -89,7 +95,11 @@ function YourDesk({ desk }: { desk: Desk }) {
           </ul>
         ) : (
           <p className="mt-1 text-sm text-ink-soft">
-            None saved yet. Shape one in the <Link className="underline" to="/sandbox">sandbox</Link> and save it to your library.
+            None saved yet. Shape one in the{" "}
+            <Link className="underline" to="/sandbox">
+              sandbox
+            </Link>{" "}
+            and save it to your library.
           </p>
         )}
       </div>
@@ -101,8 +111,21 @@ function YourDesk({ desk }: { desk: Desk }) {
 function ShapedRoofSketch() {
   const lines = Array.from({ length: 9 }, (_, i) => 20 + i * 40);
   return (
-    <svg viewBox="0 0 360 220" className="h-auto w-full" role="img" aria-label="Plan of a roof inside parapets with fall lines running to one outlet on the front edge">
-      <rect x="10" y="10" width="340" height="200" fill="var(--color-sheet)" stroke="var(--color-ink)" strokeWidth="3" />
+    <svg
+      viewBox="0 0 360 220"
+      className="h-auto w-full"
+      role="img"
+      aria-label="Plan of a roof inside parapets with fall lines running to one outlet on the front edge"
+    >
+      <rect
+        x="10"
+        y="10"
+        width="340"
+        height="200"
+        fill="var(--color-sheet)"
+        stroke="var(--color-ink)"
+        strokeWidth="3"
+      />
       {lines.map((x) => (
         <line key={x} x1={x} y1="14" x2={x} y2="206" stroke="var(--color-rule)" strokeWidth="1" strokeDasharray="3 4" />
       ))}
@@ -117,16 +140,35 @@ function ShapedRoofSketch() {
         />
       ))}
       {[30, 100, 260, 330].map((x) => (
-        <path key={x} d={`M ${x} 30 Q ${(x + 180) / 2} 120 178 200`} fill="none" stroke="var(--color-accent)" strokeWidth="1.6" markerEnd="url(#arrow)" />
+        <path
+          key={x}
+          d={`M ${x} 30 Q ${(x + 180) / 2} 120 178 200`}
+          fill="none"
+          stroke="var(--color-accent)"
+          strokeWidth="1.6"
+          markerEnd="url(#arrow)"
+        />
       ))}
       <defs>
-        <marker id="arrow" viewBox="0 0 10 10" refX="8" refY="5" markerWidth="6" markerHeight="6" orient="auto-start-reverse">
+        <marker
+          id="arrow"
+          viewBox="0 0 10 10"
+          refX="8"
+          refY="5"
+          markerWidth="6"
+          markerHeight="6"
+          orient="auto-start-reverse"
+        >
           <path d="M 0 0 L 10 5 L 0 10 z" fill="var(--color-accent)" />
         </marker>
       </defs>
       <circle cx="180" cy="206" r="7" fill="var(--color-accent)" stroke="var(--color-ink)" strokeWidth="2" />
-      <text x="194" y="200" fontSize="11" fill="var(--color-ink)">outlet</text>
-      <text x="16" y="26" fontSize="11" fill="var(--color-ink-soft)">level rim at H</text>
+      <text x="194" y="200" fontSize="11" fill="var(--color-ink)">
+        outlet
+      </text>
+      <text x="16" y="26" fontSize="11" fill="var(--color-ink-soft)">
+        level rim at H
+      </text>
     </svg>
   );
 }
@@ -137,18 +179,19 @@ export default function Home() {
     <div className="grid gap-8 lg:grid-cols-[1.2fr_1fr]">
       <section>
         <p className="text-sm font-medium uppercase tracking-widest text-accent">Fallwright</p>
-        <h1 className="mt-2 text-display font-bold tracking-tight">
-          Shape the roof, not a gutter.
-        </h1>
+        <h1 className="mt-2 text-display font-bold tracking-tight">Shape the roof, not a gutter.</h1>
         <p className="mt-4 max-w-prose text-lg text-ink-soft">
-          Keep the parapet rim level, drop each joist a little more toward the outlet, and a flat
-          membrane roof becomes a gently warped surface that sheds its water. Fallwright builds that
-          surface joist by joist, colours it by fall, traces the water, sets it beside an internal
-          gutter layout, and gives the builder a drop schedule.
+          Keep the parapet rim level, drop each joist a little more toward the outlet, and a flat membrane roof becomes
+          a gently warped surface that sheds its water. Fallwright builds that surface joist by joist, colours it by
+          fall, traces the water, sets it beside an internal gutter layout, and gives the builder a drop schedule.
         </p>
         <div className="mt-6 flex flex-wrap gap-3">
-          <Link className="btn-primary" to="/sandbox">Open the sandbox</Link>
-          <Link className="btn" to="/lessons">Browse the lessons</Link>
+          <Link className="btn-primary" to="/sandbox">
+            Open the sandbox
+          </Link>
+          <Link className="btn" to="/lessons">
+            Browse the lessons
+          </Link>
         </div>
         {desk ? (
           <YourDesk desk={desk} />
@@ -166,8 +209,8 @@ export default function Home() {
       <section className="card self-start">
         <ShapedRoofSketch />
         <p className="mt-3 text-sm text-ink-soft">
-          A level rim, one outlet, straight joists: the warp does the work a gutter would, without
-          the extra height or the folds in the membrane.
+          A level rim, one outlet, straight joists: the warp does the work a gutter would, without the extra height or
+          the folds in the membrane.
         </p>
       </section>
     </div>

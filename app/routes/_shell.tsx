@@ -28,64 +28,76 @@ export default function Shell() {
   const items = NAV.filter((n) => (n.permission ? can(user?.role, n.permission) : n.signedIn ? !!user : true));
   return (
     <UnitsProvider saved={user?.units ?? null} signedIn={!!user}>
-    <div className="flex min-h-screen flex-col">
-      <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:bg-sheet focus:p-2">
-        Skip to content
-      </a>
-      <header className="no-print border-b-2 border-ink bg-sheet/90">
-        <div className="mx-auto flex max-w-7xl flex-wrap items-center gap-x-6 gap-y-2 px-4 py-3">
-          <Link to="/" className="flex items-center gap-2 text-lg font-bold tracking-tight">
-            <svg width="28" height="20" viewBox="0 0 28 20" aria-hidden="true">
-              <path d="M1 3 L14 17 L27 3" fill="none" stroke="currentColor" strokeWidth="2" />
-              <circle cx="14" cy="17" r="2.5" className="fill-accent" />
-            </svg>
-            Fallwright
-          </Link>
-          <nav aria-label="Main" className="flex flex-wrap gap-1 text-sm">
-            {items.map((n) => (
-              <NavLink
-                key={n.to}
-                to={n.to}
-                end={n.to === "/"}
-                className={({ isActive }) =>
-                  `rounded px-2 py-1 ${isActive ? "bg-ink text-sheet" : "hover:bg-paper-deep"}`
-                }
-              >
-                {n.label}
-              </NavLink>
-            ))}
-          </nav>
-          <div className="ml-auto flex flex-wrap items-center gap-3 text-sm">
-            <UnitsSwitch />
-            {user ? (
-              <>
-                <span>
-                  {user.name || user.email} <span className="text-ink-soft">· {ROLE_LABELS[user.role]}</span>
-                </span>
-                <NavLink to="/account" className={({ isActive }) => `rounded px-2 py-1 ${isActive ? "bg-ink text-sheet" : "hover:bg-paper-deep"}`}>
-                  Account
+      <div className="flex min-h-screen flex-col">
+        <a
+          href="#main"
+          className="sr-only focus:not-sr-only focus:absolute focus:left-2 focus:top-2 focus:bg-sheet focus:p-2"
+        >
+          Skip to content
+        </a>
+        <header className="no-print border-b-2 border-ink bg-sheet/90">
+          <div className="mx-auto flex max-w-7xl flex-wrap items-center gap-x-6 gap-y-2 px-4 py-3">
+            <Link to="/" className="flex items-center gap-2 text-lg font-bold tracking-tight">
+              <svg width="28" height="20" viewBox="0 0 28 20" aria-hidden="true">
+                <path d="M1 3 L14 17 L27 3" fill="none" stroke="currentColor" strokeWidth="2" />
+                <circle cx="14" cy="17" r="2.5" className="fill-accent" />
+              </svg>
+              Fallwright
+            </Link>
+            <nav aria-label="Main" className="flex flex-wrap gap-1 text-sm">
+              {items.map((n) => (
+                <NavLink
+                  key={n.to}
+                  to={n.to}
+                  end={n.to === "/"}
+                  className={({ isActive }) =>
+                    `rounded px-2 py-1 ${isActive ? "bg-ink text-sheet" : "hover:bg-paper-deep"}`
+                  }
+                >
+                  {n.label}
                 </NavLink>
-                <Form method="post" action="/logout">
-                  <button className="btn" type="submit">Sign out</button>
-                </Form>
-              </>
-            ) : (
-              <Link className="btn-primary" to="/login">Sign in</Link>
-            )}
+              ))}
+            </nav>
+            <div className="ml-auto flex flex-wrap items-center gap-3 text-sm">
+              <UnitsSwitch />
+              {user ? (
+                <>
+                  <span>
+                    {user.name || user.email} <span className="text-ink-soft">· {ROLE_LABELS[user.role]}</span>
+                  </span>
+                  <NavLink
+                    to="/account"
+                    className={({ isActive }) =>
+                      `rounded px-2 py-1 ${isActive ? "bg-ink text-sheet" : "hover:bg-paper-deep"}`
+                    }
+                  >
+                    Account
+                  </NavLink>
+                  <Form method="post" action="/logout">
+                    <button className="btn" type="submit">
+                      Sign out
+                    </button>
+                  </Form>
+                </>
+              ) : (
+                <Link className="btn-primary" to="/login">
+                  Sign in
+                </Link>
+              )}
+            </div>
           </div>
-        </div>
-      </header>
-      <main id="main" className="mx-auto w-full max-w-7xl flex-1 px-4 py-6">
-        <Outlet />
-      </main>
-      {ownCaution ? null : (
-        <footer className="no-print border-t border-rule bg-sheet/80">
-          <div className="mx-auto max-w-7xl px-4 py-3">
-            <Caution compact />
-          </div>
-        </footer>
-      )}
-    </div>
+        </header>
+        <main id="main" className="mx-auto w-full max-w-7xl flex-1 px-4 py-6">
+          <Outlet />
+        </main>
+        {ownCaution ? null : (
+          <footer className="no-print border-t border-rule bg-sheet/80">
+            <div className="mx-auto max-w-7xl px-4 py-3">
+              <Caution compact />
+            </div>
+          </footer>
+        )}
+      </div>
     </UnitsProvider>
   );
 }

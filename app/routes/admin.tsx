@@ -25,7 +25,9 @@ export default function AdminLayout() {
               key={t.to}
               to={t.to}
               end={t.end}
-              className={({ isActive }) => `rounded-t border border-b-0 px-3 py-1.5 ${isActive ? "border-ink bg-sheet font-medium" : "border-transparent hover:bg-paper-deep"}`}
+              className={({ isActive }) =>
+                `rounded-t border border-b-0 px-3 py-1.5 ${isActive ? "border-ink bg-sheet font-medium" : "border-transparent hover:bg-paper-deep"}`
+              }
             >
               {t.label}
             </NavLink>

@@ -28,13 +28,28 @@ export async function action({ request, context }: Route.ActionArgs) {
   try {
     body = await readJsonBody(request, ANALYSIS_BODY_LIMIT);
   } catch {
-    return jsonError(400, "The request body could not be read.", [{ path: "(body)", message: "could not be read" }], NO_STORE);
+    return jsonError(
+      400,
+      "The request body could not be read.",
+      [{ path: "(body)", message: "could not be read" }],
+      NO_STORE,
+    );
   }
   if (!body.ok) return body.response;
   const shaped = bodySchema.safeParse(body.value);
   if (!shaped.success) {
-    const issues = shaped.error.issues.slice(0, 50).map((i) => ({ path: i.path.length ? i.path.map(String).join(".") : "(body)", message: i.message }));
-    return jsonError(400, `The as-built request is malformed: ${issues.slice(0, 3).map((i) => `${i.path}: ${i.message}`).join("; ")}`, issues, NO_STORE);
+    const issues = shaped.error.issues
+      .slice(0, 50)
+      .map((i) => ({ path: i.path.length ? i.path.map(String).join(".") : "(body)", message: i.message }));
+    return jsonError(
+      400,
+      `The as-built request is malformed: ${issues
+        .slice(0, 3)
+        .map((i) => `${i.path}: ${i.message}`)
+        .join("; ")}`,
+      issues,
+      NO_STORE,
+    );
   }
   const spec = parseSpec(shaped.data.spec);
   if (!spec.ok) {
@@ -44,12 +59,22 @@ export async function action({ request, context }: Route.ActionArgs) {
   try {
     const answer = asBuilt(spec.spec, shaped.data.points, shaped.data.tolerance ?? {});
     if (!answer.ok) {
-      return jsonError(answer.status, answer.issues.map((i) => `${i.path}: ${i.message}`).join("; "), answer.issues, NO_STORE);
+      return jsonError(
+        answer.status,
+        answer.issues.map((i) => `${i.path}: ${i.message}`).join("; "),
+        answer.issues,
+        NO_STORE,
+      );
     }
     const { deviations, surface, verdict, fixes, tolerance } = answer.result;
     return Response.json({ deviations, surface, verdict, fixes, tolerance }, { headers: NO_STORE });
   } catch (error) {
     console.error("as-built check failed for input that passed validation", error);
-    return jsonError(422, "The survey passed validation but could not be checked. Check the points and try again.", [], NO_STORE);
+    return jsonError(
+      422,
+      "The survey passed validation but could not be checked. Check the points and try again.",
+      [],
+      NO_STORE,
+    );
   }
 }

@@ -41,17 +41,29 @@ export async function action({ request, context }: Route.ActionArgs) {
   try {
     body = await readJsonBody(request, ANALYSIS_BODY_LIMIT);
   } catch {
-    return jsonError(400, "The request body could not be read.", [{ path: "(body)", message: "could not be read" }], NO_STORE);
+    return jsonError(
+      400,
+      "The request body could not be read.",
+      [{ path: "(body)", message: "could not be read" }],
+      NO_STORE,
+    );
   }
   if (!body.ok) return body.response;
   const query = new URL(request.url).searchParams;
   const started = performance.now();
-  const observe = (outcome: string) => metrics().analysisDuration.observe({ kind: "api", outcome }, (performance.now() - started) / 1000);
+  const observe = (outcome: string) =>
+    metrics().analysisDuration.observe({ kind: "api", outcome }, (performance.now() - started) / 1000);
   let result;
   try {
     result = await runInPool(
       "engine",
-      { kind: "analyse", spec: body.value, mesh: query.get("mesh") === "true", traces: query.get("traces") === "true", maxBytes: ANALYSIS_ANSWER_MAX_BYTES },
+      {
+        kind: "analyse",
+        spec: body.value,
+        mesh: query.get("mesh") === "true",
+        traces: query.get("traces") === "true",
+        maxBytes: ANALYSIS_ANSWER_MAX_BYTES,
+      },
       ANALYSIS_TIMEOUT_MS,
     );
   } catch (error) {
@@ -70,7 +82,9 @@ export async function action({ request, context }: Route.ActionArgs) {
   switch (result.kind) {
     case "bytes":
       observe("ok");
-      return new Response(result.bytes as Uint8Array<ArrayBuffer>, { headers: { ...NO_STORE, "Content-Type": "application/json; charset=utf-8" } });
+      return new Response(result.bytes as Uint8Array<ArrayBuffer>, {
+        headers: { ...NO_STORE, "Content-Type": "application/json; charset=utf-8" },
+      });
     case "refused":
       observe("refused");
       return Response.json({ error: result.error }, { status: result.status, headers: NO_STORE });
@@ -84,7 +98,15 @@ export async function action({ request, context }: Route.ActionArgs) {
       );
     default:
       observe("failed");
-      log().error({ reqId: currentRequest()?.id, reason: result.kind === "failed" ? result.message : result.kind }, "analysis failed for a spec that passed validation");
-      return jsonError(422, "The roof passed validation but could not be analysed. Simplify the outline and try again.", [], NO_STORE);
+      log().error(
+        { reqId: currentRequest()?.id, reason: result.kind === "failed" ? result.message : result.kind },
+        "analysis failed for a spec that passed validation",
+      );
+      return jsonError(
+        422,
+        "The roof passed validation but could not be analysed. Simplify the outline and try again.",
+        [],
+        NO_STORE,
+      );
   }
 }

@@ -7,6 +7,7 @@ import { getAttempt, maySeeTraineeAttempts } from "~/lib/lessons/attempts.server
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireApiPermission(request, "lessons:take");
   const attempt = await getAttempt(db(), params.id);
-  if (!attempt || !(await maySeeTraineeAttempts(db(), user, attempt.traineeId))) return jsonError(404, "No attempt with that id that you may see.");
+  if (!attempt || !(await maySeeTraineeAttempts(db(), user, attempt.traineeId)))
+    return jsonError(404, "No attempt with that id that you may see.");
   return Response.json({ attempt });
 }

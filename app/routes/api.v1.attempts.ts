@@ -16,10 +16,13 @@ export async function loader({ request }: Route.LoaderArgs) {
   const trainee = url.searchParams.get("trainee");
   const lesson = url.searchParams.get("lesson") ?? undefined;
   if (trainee === null && url.searchParams.get("mine") === null) {
-    return jsonError(400, "Say whose attempts: ?mine=1, or ?trainee=<id> for a trainee of your class.", [{ path: "mine", message: "is required without trainee" }]);
+    return jsonError(400, "Say whose attempts: ?mine=1, or ?trainee=<id> for a trainee of your class.", [
+      { path: "mine", message: "is required without trainee" },
+    ]);
   }
   const who = trainee ?? user.id;
-  if (!(await maySeeTraineeAttempts(db(), user, who))) return jsonError(403, "You may only see attempts of trainees in your own classes.");
+  if (!(await maySeeTraineeAttempts(db(), user, who)))
+    return jsonError(403, "You may only see attempts of trainees in your own classes.");
   return Response.json({ attempts: await listAttempts(db(), who, { lesson: lesson?.slice(0, 100) }) });
 }
 
@@ -31,7 +34,10 @@ export async function action({ request }: Route.ActionArgs) {
   if (!body.ok) return body.response;
   const outcome = await submitAttempt(user, body.value);
   if ("attempt" in outcome) {
-    return Response.json({ attempt: outcome.attempt }, { status: outcome.status, headers: { Location: `/api/v1/attempts/${outcome.attempt.id}` } });
+    return Response.json(
+      { attempt: outcome.attempt },
+      { status: outcome.status, headers: { Location: `/api/v1/attempts/${outcome.attempt.id}` } },
+    );
   }
   return jsonError(outcome.status, outcome.message, "issues" in outcome ? (outcome.issues ?? []) : []);
 }

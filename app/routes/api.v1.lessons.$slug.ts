@@ -12,7 +12,9 @@ export async function loader({ params }: Route.LoaderArgs) {
     lesson: {
       ...view,
       // Figures as their specs: clients draw them with the analysis API.
-      blocks: view.blocks.map((b) => (b.type === "roof" ? { type: "roof", caption: b.figure.caption, view: b.figure.view, spec: b.figure.spec } : b)),
+      blocks: view.blocks.map((b) =>
+        b.type === "roof" ? { type: "roof", caption: b.figure.caption, view: b.figure.view, spec: b.figure.spec } : b,
+      ),
     },
   });
 }

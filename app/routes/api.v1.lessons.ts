@@ -10,6 +10,9 @@ export async function loader({ request }: Route.LoaderArgs) {
   const user = await getOptionalUser(request);
   const progress = user ? await progressOf(db(), user.id) : null;
   return Response.json({
-    lessons: allLessons().map((l) => ({ ...lessonSummary(l), progress: progress ? (progress[l.slug] ?? null) : undefined })),
+    lessons: allLessons().map((l) => ({
+      ...lessonSummary(l),
+      progress: progress ? (progress[l.slug] ?? null) : undefined,
+    })),
   });
 }

@@ -38,7 +38,10 @@ export async function action({ request, params }: Route.ActionArgs) {
     case "conflict":
       return Response.json(
         {
-          error: { message: `Someone saved this roof first (now version ${result.current.version}). Nothing of yours was written.`, issues: [] },
+          error: {
+            message: `Someone saved this roof first (now version ${result.current.version}). Nothing of yours was written.`,
+            issues: [],
+          },
           current: result.current,
         },
         { status: 409 },

@@ -20,9 +20,15 @@ export async function action({ request }: Route.ActionArgs) {
   if (!input.ok) return input.response;
   const rawKey = request.headers.get("idempotency-key");
   const key = rawKey === null ? null : idempotencyKeySchema.safeParse(rawKey);
-  if (key && !key.success) return jsonError(400, "The Idempotency-Key header must be 8-100 letters, digits or -_.:", [{ path: "(header) Idempotency-Key", message: "is malformed" }]);
+  if (key && !key.success)
+    return jsonError(400, "The Idempotency-Key header must be 8-100 letters, digits or -_.:", [
+      { path: "(header) Idempotency-Key", message: "is malformed" },
+    ]);
   const result = await createRoof(user, { name: input.name!, spec: input.spec, idempotencyKey: key?.data });
-  if ("keyReused" in result) return jsonError(422, keyReusedMessage(result.keyReused), [{ path: "(header) Idempotency-Key", message: "was already used for a different request" }]);
+  if ("keyReused" in result)
+    return jsonError(422, keyReusedMessage(result.keyReused), [
+      { path: "(header) Idempotency-Key", message: "was already used for a different request" },
+    ]);
   const { repeated, ...created } = result;
   const headers: Record<string, string> = { Location: `/api/v1/roofs/${created.id}` };
   if (repeated) headers["Idempotent-Replayed"] = "true";

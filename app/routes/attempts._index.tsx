@@ -41,14 +41,23 @@ export default function MyAttempts() {
   return (
     <div className="grid gap-6">
       <header>
-        <p className="text-sm"><Link to="/lessons" className="underline">Lessons</Link></p>
+        <p className="text-sm">
+          <Link to="/lessons" className="underline">
+            Lessons
+          </Link>
+        </p>
         <h1 className="text-display font-bold tracking-tight">My attempts</h1>
-        <p className="mt-2 max-w-prose text-ink-soft">Every attempt you submitted, newest first, graded on the server. Open one to see each answer and criterion and to turn your roof in 3D.</p>
+        <p className="mt-2 max-w-prose text-ink-soft">
+          Every attempt you submitted, newest first, graded on the server. Open one to see each answer and criterion and
+          to turn your roof in 3D.
+        </p>
       </header>
       {attempts.length === 0 ? (
         <div className="card">
           <p>No attempts yet. Pick a lesson, answer its questions, shape its roof and submit.</p>
-          <Link className="btn-primary mt-3" to="/lessons">Go to the lessons</Link>
+          <Link className="btn-primary mt-3" to="/lessons">
+            Go to the lessons
+          </Link>
         </div>
       ) : (
         <div className="card overflow-x-auto p-0">
@@ -58,33 +67,69 @@ export default function MyAttempts() {
               <tr>
                 <th scope="col">Lesson</th>
                 <th scope="col">Submitted</th>
-                <th scope="col" className="text-right">Score</th>
+                <th scope="col" className="text-right">
+                  Score
+                </th>
                 <th scope="col">Result</th>
                 <th scope="col">Not met</th>
-                <th scope="col" className="text-right">Time</th>
-                <th scope="col"><span className="sr-only">Open</span></th>
+                <th scope="col" className="text-right">
+                  Time
+                </th>
+                <th scope="col">
+                  <span className="sr-only">Open</span>
+                </th>
               </tr>
             </thead>
             <tbody>
               {attempts.map((a) => (
                 <tr key={a.id} className="align-top">
-                  <td><Link className="font-medium underline" to={`/lessons/${a.lesson}`}>{a.lessonTitle}</Link></td>
-                  <td className="whitespace-nowrap"><When iso={a.submittedAt} /></td>
-                  <td className="text-right font-medium" data-testid="attempt-score">{formatScore(a.grade?.score ?? a.score)}</td>
+                  <td>
+                    <Link className="font-medium underline" to={`/lessons/${a.lesson}`}>
+                      {a.lessonTitle}
+                    </Link>
+                  </td>
+                  <td className="whitespace-nowrap">
+                    <When iso={a.submittedAt} />
+                  </td>
+                  <td className="text-right font-medium" data-testid="attempt-score">
+                    {formatScore(a.grade?.score ?? a.score)}
+                  </td>
                   <td data-testid="attempt-result">
-                    <span className="whitespace-nowrap"><PassMark passed={a.grade?.passed ?? a.passed} /></span>
-                    {a.grade?.overridden ? <span className="ml-1 text-xs text-ink-soft">(changed by your trainer)</span> : null}
-                    {a.grade && !a.grade.passed && a.grade.why ? <div className="text-xs text-bad" title={a.grade.reason ?? undefined}>{WHY_SHORT[a.grade.why]}</div> : null}
+                    <span className="whitespace-nowrap">
+                      <PassMark passed={a.grade?.passed ?? a.passed} />
+                    </span>
+                    {a.grade?.overridden ? (
+                      <span className="ml-1 text-xs text-ink-soft">(changed by your trainer)</span>
+                    ) : null}
+                    {a.grade && !a.grade.passed && a.grade.why ? (
+                      <div className="text-xs text-bad" title={a.grade.reason ?? undefined}>
+                        {WHY_SHORT[a.grade.why]}
+                      </div>
+                    ) : null}
                   </td>
                   <td className="max-w-sm text-xs text-ink-soft">
                     {!a.missedQuestions.length && !a.missedCriteria.length ? "nothing" : null}
-                    {a.missedQuestions.length > 0 && <div>{a.missedQuestions.length === 1 ? "question" : "questions"} {a.missedQuestions.join(", ")}</div>}
+                    {a.missedQuestions.length > 0 && (
+                      <div>
+                        {a.missedQuestions.length === 1 ? "question" : "questions"} {a.missedQuestions.join(", ")}
+                      </div>
+                    )}
                     {a.missedCriteria.map((c) => (
                       <div key={c}>{c}</div>
                     ))}
                   </td>
-                  <td className="whitespace-nowrap text-right" title="Measured in your browser; for information only">{minutes(a.timeSpentSeconds)}</td>
-                  <td><Link className="btn whitespace-nowrap" to={`/attempts/${a.id}`} aria-label={`Open the attempt at ${a.lessonTitle}, ${formatWhen(a.submittedAt, locale)}`}>Open</Link></td>
+                  <td className="whitespace-nowrap text-right" title="Measured in your browser; for information only">
+                    {minutes(a.timeSpentSeconds)}
+                  </td>
+                  <td>
+                    <Link
+                      className="btn whitespace-nowrap"
+                      to={`/attempts/${a.id}`}
+                      aria-label={`Open the attempt at ${a.lessonTitle}, ${formatWhen(a.submittedAt, locale)}`}
+                    >
+                      Open
+                    </Link>
+                  </td>
                 </tr>
               ))}
             </tbody>

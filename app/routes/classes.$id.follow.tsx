@@ -11,7 +11,9 @@ import { LiveStatus } from "~/components/classes/live-status";
 import { RoofSummary } from "~/components/classes/roof-summary";
 import { useLiveFeed } from "~/components/classes/use-live-feed";
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: `Follow live · ${data?.cls.name ?? "Class"} · Fallwright` }];
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: `Follow live · ${data?.cls.name ?? "Class"} · Fallwright` },
+];
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUser(request);
@@ -30,7 +32,12 @@ export default function Follow() {
     <div className="grid gap-4">
       <header className="flex flex-wrap items-end justify-between gap-3">
         <div>
-          <p className="text-sm"><Link className="underline" to="/classes">Classes</Link> / {cls.name}</p>
+          <p className="text-sm">
+            <Link className="underline" to="/classes">
+              Classes
+            </Link>{" "}
+            / {cls.name}
+          </p>
           <h1 className="text-display font-bold tracking-tight">Follow live</h1>
         </div>
         <LiveStatus status={feed.status} />
@@ -39,10 +46,13 @@ export default function Follow() {
         <section aria-labelledby="live-title" className="grid gap-3" data-seq={seq}>
           <div className="flex flex-wrap items-end justify-between gap-3">
             <div>
-              <h2 id="live-title" className="text-2xl font-bold">{state.title || "Untitled roof"}</h2>
+              <h2 id="live-title" className="text-2xl font-bold">
+                {state.title || "Untitled roof"}
+              </h2>
               <p className="text-ink-soft">
                 {state.source}
-                {state.step ? ` · step ${state.step.index + 1} of ${state.step.count}` : ""} · presented by {state.presenter}
+                {state.step ? ` · step ${state.step.index + 1} of ${state.step.count}` : ""} · presented by{" "}
+                {state.presenter}
               </p>
             </div>
             <button type="button" className="btn-primary" onClick={() => navigate(sandboxHrefFor(state.spec))}>
@@ -54,7 +64,8 @@ export default function Follow() {
         </section>
       ) : (
         <p className="card text-lg text-ink-soft">
-          Nothing is being presented yet. When {cls.trainer} starts presenting, the roof appears here by itself; keep this page open.
+          Nothing is being presented yet. When {cls.trainer} starts presenting, the roof appears here by itself; keep
+          this page open.
         </p>
       )}
       <Caution />

@@ -6,7 +6,9 @@ import { classGradebook } from "~/lib/gradebook.server";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
 import { GradebookView } from "~/components/classes/gradebook-view";
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: `Gradebook · ${data?.cls.name ?? "Class"} · Fallwright` }];
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: `Gradebook · ${data?.cls.name ?? "Class"} · Fallwright` },
+];
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requirePermission(request, "gradebook:view");
@@ -20,7 +22,13 @@ export default function ClassGradebook() {
     <div className="grid gap-4">
       <header>
         <p className="text-sm">
-          <Link className="underline" to="/classes">Classes</Link> / <Link className="underline" to={`/classes/${cls.id}`}>{cls.name}</Link>
+          <Link className="underline" to="/classes">
+            Classes
+          </Link>{" "}
+          /{" "}
+          <Link className="underline" to={`/classes/${cls.id}`}>
+            {cls.name}
+          </Link>
         </p>
         <h1 className="text-display font-bold tracking-tight">Gradebook</h1>
       </header>

@@ -100,7 +100,11 @@ export async function action({ request, params }: Route.ActionArgs) {
   if (!body.ok) return body.response;
   const update = parseLiveUpdate(body.value);
   if (!update.ok) return update.response;
-  const seq = await publishLiveState(cls.id, { ...update.value, presenter: user.name || user.email, at: new Date().toISOString() });
+  const seq = await publishLiveState(cls.id, {
+    ...update.value,
+    presenter: user.name || user.email,
+    at: new Date().toISOString(),
+  });
   if (seq === null) return jsonError(404, "No such class among yours.");
   return Response.json({ seq });
 }

@@ -12,7 +12,9 @@ import { LiveRoof } from "~/components/classes/live-roof";
 import { PublishState } from "~/components/classes/publish-state";
 import { useLivePublisher } from "~/components/classes/use-live-publisher";
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: `Present · ${data?.cls.name ?? "Class"} · Fallwright` }];
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: `Present · ${data?.cls.name ?? "Class"} · Fallwright` },
+];
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requirePermission(request, "classes:manage");
@@ -96,28 +98,61 @@ export default function Present() {
     },
     [publish, content],
   );
-  const deckOptions = useMemo(() => decks.map((d) => ({ key: d.key, title: `${d.title} · ${d.roofs.length} roof${d.roofs.length === 1 ? "" : "s"}` })), [decks]);
+  const deckOptions = useMemo(
+    () =>
+      decks.map((d) => ({
+        key: d.key,
+        title: `${d.title} · ${d.roofs.length} roof${d.roofs.length === 1 ? "" : "s"}`,
+      })),
+    [decks],
+  );
 
   return (
     <div className="flex min-h-screen flex-col bg-sheet text-ink">
       <header className="flex items-center gap-6 bg-ink px-6 py-3 text-sheet">
         <div className="min-w-0 flex-1">
           <p className="text-sm uppercase tracking-widest text-sheet/80">Presenting · {cls.name}</p>
-          <h1 className="line-clamp-2 text-2xl font-bold leading-tight xl:text-3xl" aria-live="polite" title={roof?.caption}>{roof?.caption ?? "No roofs to present"}</h1>
+          <h1
+            className="line-clamp-2 text-2xl font-bold leading-tight xl:text-3xl"
+            aria-live="polite"
+            title={roof?.caption}
+          >
+            {roof?.caption ?? "No roofs to present"}
+          </h1>
         </div>
         <nav aria-label="Steps" className="flex shrink-0 items-center gap-3">
-          <button type="button" className={BIG_BUTTON} onClick={() => goTo(deck, index - 1)} disabled={index <= 0} aria-label="Previous roof (left arrow)">
+          <button
+            type="button"
+            className={BIG_BUTTON}
+            onClick={() => goTo(deck, index - 1)}
+            disabled={index <= 0}
+            aria-label="Previous roof (left arrow)"
+          >
             <ChevronLeft aria-hidden="true" className="h-7 w-7" /> Back
           </button>
-          <span className="min-w-24 text-center text-2xl font-bold tabular-nums" aria-label={`Step ${index + 1} of ${count}`}>
+          <span
+            className="min-w-24 text-center text-2xl font-bold tabular-nums"
+            aria-label={`Step ${index + 1} of ${count}`}
+          >
             {count ? `${index + 1} / ${count}` : "—"}
           </span>
-          <button type="button" className={BIG_BUTTON} onClick={() => goTo(deck, index + 1)} disabled={index >= count - 1} aria-label="Next roof (right arrow)">
+          <button
+            type="button"
+            className={BIG_BUTTON}
+            onClick={() => goTo(deck, index + 1)}
+            disabled={index >= count - 1}
+            aria-label="Next roof (right arrow)"
+          >
             Next <ChevronRight aria-hidden="true" className="h-7 w-7" />
           </button>
         </nav>
         <div className="flex shrink-0 items-center gap-2">
-          <button type="button" className={BIG_BUTTON} onClick={() => void document.documentElement.requestFullscreen?.().catch(() => {})} aria-label="Full screen">
+          <button
+            type="button"
+            className={BIG_BUTTON}
+            onClick={() => void document.documentElement.requestFullscreen?.().catch(() => {})}
+            aria-label="Full screen"
+          >
             <Maximize aria-hidden="true" className="h-6 w-6" />
           </button>
           <Link to={`/classes/${cls.id}`} className={BIG_BUTTON} aria-label="Stop presenting">
@@ -131,11 +166,18 @@ export default function Present() {
           <select
             className="rounded border-2 border-ink bg-sheet px-2 py-1 text-lg"
             value={deck?.key ?? ""}
-            onChange={(e) => goTo(decks.find((d) => d.key === e.target.value), 0)}
+            onChange={(e) =>
+              goTo(
+                decks.find((d) => d.key === e.target.value),
+                0,
+              )
+            }
             disabled={!decks.length}
           >
             {deckOptions.map((d) => (
-              <option key={d.key} value={d.key}>{d.title}</option>
+              <option key={d.key} value={d.key}>
+                {d.title}
+              </option>
             ))}
           </select>
         </label>
@@ -149,7 +191,11 @@ export default function Present() {
           <LiveRoof spec={spec} version={version} onSpecChange={onSpecChange} />
         ) : (
           <p className="text-2xl">
-            There are no roofs to present yet: lessons appear here once synced, and your saved roofs under <Link className="underline" to="/roofs">Roofs</Link>.
+            There are no roofs to present yet: lessons appear here once synced, and your saved roofs under{" "}
+            <Link className="underline" to="/roofs">
+              Roofs
+            </Link>
+            .
           </p>
         )}
         <Caution compact />

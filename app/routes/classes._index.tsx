@@ -3,7 +3,13 @@ import { data, Form, Link, redirect, useActionData, useLoaderData } from "react-
 import { CalendarDays, MapPin, Radio, Users } from "lucide-react";
 import type { Route } from "./+types/classes._index";
 import { requirePermission, requireUser } from "~/lib/auth.server";
-import { assignmentsForTrainee, createClass, listClassesFor, type ClassSummary, type MyAssignment } from "~/lib/classes.server";
+import {
+  assignmentsForTrainee,
+  createClass,
+  listClassesFor,
+  type ClassSummary,
+  type MyAssignment,
+} from "~/lib/classes.server";
 import { parseClassDetails } from "~/lib/class-form";
 import { can } from "~/lib/permissions";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
@@ -17,7 +23,12 @@ export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request);
   const classes = await listClassesFor(user);
   const manages = can(user.role, "classes:manage");
-  const assignments = manages ? {} : await assignmentsForTrainee(user.id, classes.map((c) => c.id));
+  const assignments = manages
+    ? {}
+    : await assignmentsForTrainee(
+        user.id,
+        classes.map((c) => c.id),
+      );
   return { role: user.role, manages, classes, assignments, today: new Date().toISOString().slice(0, 10) };
 }
 
@@ -49,9 +60,13 @@ export default function Classes() {
         <>
           <ClassTable classes={classes} showTrainer={role === "admin"} />
           <section className="card max-w-2xl" aria-labelledby="new-class">
-            <h2 id="new-class" className="text-lg font-bold">New class</h2>
+            <h2 id="new-class" className="text-lg font-bold">
+              New class
+            </h2>
             <Form method="post" className="mt-4 grid gap-4" noValidate>
-              {result?.errors && Object.keys(result.errors).length ? <FormError message="Check the highlighted fields." /> : null}
+              {result?.errors && Object.keys(result.errors).length ? (
+                <FormError message="Check the highlighted fields." />
+              ) : null}
               <ClassDetailsFields values={result?.values} errors={result?.errors} />
               <div>
                 <SubmitButton pendingText="Creating…">Create class</SubmitButton>
@@ -68,7 +83,11 @@ export default function Classes() {
 
 function ClassTable({ classes, showTrainer }: { classes: ClassSummary[]; showTrainer: boolean }) {
   if (!classes.length) {
-    return <p className="card max-w-2xl text-ink-soft">No classes yet. Create the first one below; you can invite trainees straight after.</p>;
+    return (
+      <p className="card max-w-2xl text-ink-soft">
+        No classes yet. Create the first one below; you can invite trainees straight after.
+      </p>
+    );
   }
   return (
     <div className="overflow-x-auto">
@@ -80,28 +99,47 @@ function ClassTable({ classes, showTrainer }: { classes: ClassSummary[]; showTra
             {showTrainer ? <th scope="col">Trainer</th> : null}
             <th scope="col">Dates</th>
             <th scope="col">Venue</th>
-            <th scope="col" className="text-right">Trainees</th>
-            <th scope="col" className="text-right">Invited</th>
-            <th scope="col" className="text-right">Lessons</th>
-            <th scope="col"><span className="sr-only">Open</span></th>
+            <th scope="col" className="text-right">
+              Trainees
+            </th>
+            <th scope="col" className="text-right">
+              Invited
+            </th>
+            <th scope="col" className="text-right">
+              Lessons
+            </th>
+            <th scope="col">
+              <span className="sr-only">Open</span>
+            </th>
           </tr>
         </thead>
         <tbody>
           {classes.map((c) => (
             <tr key={c.id}>
-              <th scope="row" className="border-b border-rule px-2 py-1 text-left text-sm font-medium normal-case tracking-normal">
-                <Link className="underline" to={`/classes/${c.id}`}>{c.name}</Link>
+              <th
+                scope="row"
+                className="border-b border-rule px-2 py-1 text-left text-sm font-medium normal-case tracking-normal"
+              >
+                <Link className="underline" to={`/classes/${c.id}`}>
+                  {c.name}
+                </Link>
               </th>
               {showTrainer ? <td>{c.trainer_name}</td> : null}
-              <td><DateRange from={c.starts_on} to={c.ends_on} /></td>
+              <td>
+                <DateRange from={c.starts_on} to={c.ends_on} />
+              </td>
               <td>{c.venue || <span className="text-ink-soft">—</span>}</td>
               <td className="text-right">{c.members}</td>
               <td className="text-right">{c.pending}</td>
               <td className="text-right">{c.assignments}</td>
               <td className="whitespace-nowrap text-right">
-                <Link className="underline" to={`/classes/${c.id}/gradebook`}>Gradebook</Link>
+                <Link className="underline" to={`/classes/${c.id}/gradebook`}>
+                  Gradebook
+                </Link>
                 {" · "}
-                <Link className="underline" to={`/classes/${c.id}/present`}>Present</Link>
+                <Link className="underline" to={`/classes/${c.id}/present`}>
+                  Present
+                </Link>
               </td>
             </tr>
           ))}
@@ -111,7 +149,15 @@ function ClassTable({ classes, showTrainer }: { classes: ClassSummary[]; showTra
   );
 }
 
-function TraineeClasses({ classes, assignments, today }: { classes: ClassSummary[]; assignments: Record<string, MyAssignment[]>; today: string }) {
+function TraineeClasses({
+  classes,
+  assignments,
+  today,
+}: {
+  classes: ClassSummary[];
+  assignments: Record<string, MyAssignment[]>;
+  today: string;
+}) {
   if (!classes.length) {
     return (
       <p className="card max-w-2xl text-ink-soft">
@@ -125,11 +171,24 @@ function TraineeClasses({ classes, assignments, today }: { classes: ClassSummary
         <section key={c.id} className="card" aria-labelledby={`class-${c.id}`}>
           <div className="flex flex-wrap items-start justify-between gap-3">
             <div>
-              <h2 id={`class-${c.id}`} className="text-xl font-bold">{c.name}</h2>
+              <h2 id={`class-${c.id}`} className="text-xl font-bold">
+                {c.name}
+              </h2>
               <p className="mt-1 flex flex-wrap gap-x-4 gap-y-1 text-sm text-ink-soft">
-                <span className="inline-flex items-center gap-1"><CalendarDays aria-hidden="true" className="h-4 w-4" /><DateRange from={c.starts_on} to={c.ends_on} /></span>
-                {c.venue ? <span className="inline-flex items-center gap-1"><MapPin aria-hidden="true" className="h-4 w-4" />{c.venue}</span> : null}
-                <span className="inline-flex items-center gap-1"><Users aria-hidden="true" className="h-4 w-4" />Trainer: {c.trainer_name}</span>
+                <span className="inline-flex items-center gap-1">
+                  <CalendarDays aria-hidden="true" className="h-4 w-4" />
+                  <DateRange from={c.starts_on} to={c.ends_on} />
+                </span>
+                {c.venue ? (
+                  <span className="inline-flex items-center gap-1">
+                    <MapPin aria-hidden="true" className="h-4 w-4" />
+                    {c.venue}
+                  </span>
+                ) : null}
+                <span className="inline-flex items-center gap-1">
+                  <Users aria-hidden="true" className="h-4 w-4" />
+                  Trainer: {c.trainer_name}
+                </span>
               </p>
             </div>
             <Link className="btn" to={`/classes/${c.id}/follow`}>
@@ -151,13 +210,23 @@ function TraineeClasses({ classes, assignments, today }: { classes: ClassSummary
                   const late = a.dueOn && a.dueOn < today && !a.cell?.passed;
                   return (
                     <tr key={a.slug}>
-                      <td><Link className="underline" to={`/lessons/${a.slug}`}>{a.title}</Link></td>
+                      <td>
+                        <Link className="underline" to={`/lessons/${a.slug}`}>
+                          {a.title}
+                        </Link>
+                      </td>
                       <td className={late ? "font-medium text-bad" : undefined}>
                         {a.dueOn ? <Day iso={a.dueOn} /> : <span className="text-ink-soft">No due date</span>}
                         {late ? " · overdue" : null}
                       </td>
                       <td>
-                        {a.cell ? <Link className="no-underline hover:underline" to={`/attempts/${a.cell.attemptId}`}><GradeMark cell={a.cell} /></Link> : <GradeMark cell={null} />}
+                        {a.cell ? (
+                          <Link className="no-underline hover:underline" to={`/attempts/${a.cell.attemptId}`}>
+                            <GradeMark cell={a.cell} />
+                          </Link>
+                        ) : (
+                          <GradeMark cell={null} />
+                        )}
                       </td>
                     </tr>
                   );

@@ -17,21 +17,36 @@ export async function action({ request, context }: Route.ActionArgs) {
 export default function ForgotPassword() {
   const result = useActionData<typeof action>();
   return (
-    <AuthCard title="Forgot your password?" lead="Enter the address you sign in with and we will e-mail you a link to choose a new password.">
+    <AuthCard
+      title="Forgot your password?"
+      lead="Enter the address you sign in with and we will e-mail you a link to choose a new password."
+    >
       {result?.message ? (
         <div className="grid gap-4">
           <FormNotice message={result.message} />
           <p className="text-sm">
-            <Link className="underline" to="/login">Back to sign in</Link>
+            <Link className="underline" to="/login">
+              Back to sign in
+            </Link>
           </p>
         </div>
       ) : (
         <Form method="post" className="grid gap-4" noValidate>
           <FormError message={result?.formError} />
-          <Field label="E-mail" name="email" type="email" autoComplete="username" required autoFocus defaultValue={result?.email ?? ""} />
+          <Field
+            label="E-mail"
+            name="email"
+            type="email"
+            autoComplete="username"
+            required
+            autoFocus
+            defaultValue={result?.email ?? ""}
+          />
           <div className="flex flex-wrap items-center justify-between gap-3">
             <SubmitButton pendingText="Sending…">Send the link</SubmitButton>
-            <Link className="text-sm underline" to="/login">Back to sign in</Link>
+            <Link className="text-sm underline" to="/login">
+              Back to sign in
+            </Link>
           </div>
         </Form>
       )}

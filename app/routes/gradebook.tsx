@@ -16,7 +16,11 @@ export async function loader({ request }: Route.LoaderArgs) {
   const selected = classes.find((c) => isUuid(asked) && c.id === asked) ?? classes[0] ?? null;
   const cls = selected ? await getClassFor(user, selected.id, "manage") : null;
   const book = cls ? await classGradebook(cls) : null;
-  return { classes: classes.map((c) => ({ id: c.id, name: c.name })), selected: selected ? { id: selected.id, name: selected.name } : null, book };
+  return {
+    classes: classes.map((c) => ({ id: c.id, name: c.name })),
+    selected: selected ? { id: selected.id, name: selected.name } : null,
+    book,
+  };
 }
 
 export default function GradebookPage() {
@@ -29,27 +33,41 @@ export default function GradebookPage() {
         {classes.length > 1 ? (
           <Form method="get" className="flex items-end gap-2" onChange={(e) => submit(e.currentTarget)}>
             <div>
-              <label className="label" htmlFor="gb-class">Class</label>
+              <label className="label" htmlFor="gb-class">
+                Class
+              </label>
               <select key={selected?.id} id="gb-class" name="class" className="field" defaultValue={selected?.id}>
                 {classes.map((c) => (
-                  <option key={c.id} value={c.id}>{c.name}</option>
+                  <option key={c.id} value={c.id}>
+                    {c.name}
+                  </option>
                 ))}
               </select>
             </div>
-            <noscript><button className="btn" type="submit">Show</button></noscript>
+            <noscript>
+              <button className="btn" type="submit">
+                Show
+              </button>
+            </noscript>
           </Form>
         ) : null}
       </header>
       {selected && book ? (
         <>
           <p className="text-lg">
-            <Link className="underline" to={`/classes/${selected.id}`}>{selected.name}</Link>
+            <Link className="underline" to={`/classes/${selected.id}`}>
+              {selected.name}
+            </Link>
           </p>
           <GradebookView book={book} classId={selected.id} className={selected.name} />
         </>
       ) : (
         <p className="card max-w-2xl text-ink-soft">
-          No classes yet, so no grades. <Link className="underline" to="/classes">Create a class</Link>, invite trainees and assign lessons.
+          No classes yet, so no grades.{" "}
+          <Link className="underline" to="/classes">
+            Create a class
+          </Link>
+          , invite trainees and assign lessons.
         </p>
       )}
     </div>

@@ -38,12 +38,19 @@ export async function action({ request, params }: Route.ActionArgs) {
   const user = await requirePermission(request, "lessons:take");
   if (!getLesson(params.slug)) throw data("No lesson with that name.", { status: 404 });
   const read = await readFormCapped(request, 512 * 1024);
-  if (!read.ok) return data({ attempt: null, error: "The submission could not be read. Try again." }, { status: read.status });
+  if (!read.ok)
+    return data({ attempt: null, error: "The submission could not be read. Try again." }, { status: read.status });
   const outcome = await submitAttempt(user, submissionFromForm(params.slug, read.form));
   // The next submit is a new attempt: its key comes with this answer, since the page's own data
   // (and the key it carries) may reload only after the trainee has already changed the roof.
   if ("attempt" in outcome) return { attempt: outcome.attempt, error: null, nextKey: crypto.randomUUID() };
-  const detail = "issues" in outcome && outcome.issues?.length ? ` (${outcome.issues.slice(0, 2).map((i) => `${i.path}: ${i.message}`).join("; ")})` : "";
+  const detail =
+    "issues" in outcome && outcome.issues?.length
+      ? ` (${outcome.issues
+          .slice(0, 2)
+          .map((i) => `${i.path}: ${i.message}`)
+          .join("; ")})`
+      : "";
   const roofProblem = outcome.issues?.some((i) => i.path.startsWith("spec"));
   const message = roofProblem
     ? `Your roof could not be checked: ${outcome.message} Use "Starting roof" to go back to the task's roof.`
@@ -88,24 +95,33 @@ export default function LessonPlayer() {
     <div className="grid gap-8">
       <header className="grid gap-2">
         <p className="text-sm">
-          <Link to="/lessons" className="underline">Lessons</Link> <span className="text-ink-soft">/ lesson {lesson.position}</span>
+          <Link to="/lessons" className="underline">
+            Lessons
+          </Link>{" "}
+          <span className="text-ink-soft">/ lesson {lesson.position}</span>
         </p>
         <h1 className="text-display font-bold tracking-tight">{lesson.title}</h1>
         <p className="max-w-prose text-lg text-ink-soft">{lesson.summary}</p>
         <p className="flex flex-wrap items-center gap-x-4 gap-y-1 text-sm text-ink-soft">
-          <span className="inline-flex items-center gap-1"><Clock aria-hidden="true" className="h-4 w-4" />about {lesson.minutes} min</span>
+          <span className="inline-flex items-center gap-1">
+            <Clock aria-hidden="true" className="h-4 w-4" />
+            about {lesson.minutes} min
+          </span>
           <span>{lesson.quiz.length} questions and a roof task</span>
           <span>pass mark {lesson.passMark} of 100</span>
           {progress && (
             <span data-testid="lesson-progress">
-              your best {Math.round(progress.bestScore * 10) / 10} · {progress.passed ? "passed" : "not passed yet"} · {progress.attempts} {progress.attempts === 1 ? "attempt" : "attempts"}
+              your best {Math.round(progress.bestScore * 10) / 10} · {progress.passed ? "passed" : "not passed yet"} ·{" "}
+              {progress.attempts} {progress.attempts === 1 ? "attempt" : "attempts"}
             </span>
           )}
         </p>
       </header>
 
       <section className="card" aria-labelledby="objectives-heading">
-        <h2 id="objectives-heading" className="font-bold">After this lesson you can</h2>
+        <h2 id="objectives-heading" className="font-bold">
+          After this lesson you can
+        </h2>
         <ul className="mt-2 list-disc space-y-1 pl-6">
           {lesson.objectives.map((o) => (
             <li key={o}>{o}</li>
@@ -114,7 +130,9 @@ export default function LessonPlayer() {
       </section>
 
       <section className="card" aria-labelledby="grading-heading" data-testid="grading-rule">
-        <h2 id="grading-heading" className="font-bold">How this lesson is graded</h2>
+        <h2 id="grading-heading" className="font-bold">
+          How this lesson is graded
+        </h2>
         <ul className="mt-2 list-disc space-y-1 pl-6 text-sm">
           {GRADING_RULE_LINES(lesson.passMark).map((line) => (
             <li key={line}>{line}</li>
@@ -128,7 +146,9 @@ export default function LessonPlayer() {
             <RoofFigure key={i} f={b.figure} />
           ) : b.type === "caution" ? (
             <aside key={i} role="note" className="my-4 rounded border-l-4 border-warn bg-accent-wash px-4 py-3">
-              <p className="!mt-0 text-xs font-bold uppercase tracking-wide text-warn">Caution: this work can hurt people</p>
+              <p className="!mt-0 text-xs font-bold uppercase tracking-wide text-warn">
+                Caution: this work can hurt people
+              </p>
               <div dangerouslySetInnerHTML={{ __html: b.html }} />
             </aside>
           ) : (
@@ -147,7 +167,11 @@ export default function LessonPlayer() {
           if (specInput.current && latestSpec.current) specInput.current.value = JSON.stringify(latestSpec.current);
         }}
       >
-        <input type="hidden" name="idempotencyKey" value={(result && "nextKey" in result ? result.nextKey : null) ?? idempotencyKey} />
+        <input
+          type="hidden"
+          name="idempotencyKey"
+          value={(result && "nextKey" in result ? result.nextKey : null) ?? idempotencyKey}
+        />
         <input type="hidden" name="version" value={lesson.version} />
         <input type="hidden" name="timeSpentSeconds" ref={timeInput} defaultValue="0" />
         <input type="hidden" name="spec" ref={specInput} defaultValue={JSON.stringify(lesson.task.start)} />
@@ -155,8 +179,12 @@ export default function LessonPlayer() {
         <section aria-labelledby="quiz-heading" className="grid gap-3">
           <div>
             <p className="text-xs font-medium uppercase tracking-widest text-accent">Quiz</p>
-            <h2 id="quiz-heading" className="text-2xl font-bold tracking-tight">Check your understanding</h2>
-            <p className="text-sm text-ink-soft">Give numbers with their unit (150 mm, 0.15 m and 15 cm all count); write ratios as 1:N.</p>
+            <h2 id="quiz-heading" className="text-2xl font-bold tracking-tight">
+              Check your understanding
+            </h2>
+            <p className="text-sm text-ink-soft">
+              Give numbers with their unit (150 mm, 0.15 m and 15 cm all count); write ratios as 1:N.
+            </p>
           </div>
           <ol className="grid gap-3">
             {lesson.quiz.map((q, i) => (
@@ -180,12 +208,21 @@ export default function LessonPlayer() {
             </div>
             <div className="flex flex-wrap items-center gap-3">
               {signedIn ? (
-                <button type="submit" form={FORM_ID} className="btn-primary" disabled={submitting} aria-busy={submitting || undefined}>
+                <button
+                  type="submit"
+                  form={FORM_ID}
+                  className="btn-primary"
+                  disabled={submitting}
+                  aria-busy={submitting || undefined}
+                >
                   <Send aria-hidden="true" className="h-4 w-4" />
                   {submitting ? "Checking your answers and roof…" : graded ? "Submit again" : "Submit answers and roof"}
                 </button>
               ) : (
-                <Link className="btn-primary" to={`/login?${new URLSearchParams({ redirectTo: `/lessons/${lesson.slug}` })}`}>
+                <Link
+                  className="btn-primary"
+                  to={`/login?${new URLSearchParams({ redirectTo: `/lessons/${lesson.slug}` })}`}
+                >
                   Sign in to submit
                 </Link>
               )}
@@ -194,8 +231,13 @@ export default function LessonPlayer() {
                   Open this attempt
                 </Link>
               )}
-              <Link className="text-sm underline" to="/attempts">My attempts</Link>
-              <p className="text-xs text-ink-soft">Sends your quiz answers above and the roof below. The server runs the roof engine again and marks everything; nothing is marked in the browser.</p>
+              <Link className="text-sm underline" to="/attempts">
+                My attempts
+              </Link>
+              <p className="text-xs text-ink-soft">
+                Sends your quiz answers above and the roof below. The server runs the roof engine again and marks
+                everything; nothing is marked in the browser.
+              </p>
             </div>
           </section>
         }

@@ -10,7 +10,11 @@ import { GeneralErrorBoundary } from "~/components/error-boundary";
 
 export const meta: Route.MetaFunction = () => [
   { title: "Lessons · Fallwright" },
-  { name: "description", content: "A course on shaping parapet roofs to their outlets: falls, ponding, outlets, gutters, fall lines, drop schedules and the height budget." },
+  {
+    name: "description",
+    content:
+      "A course on shaping parapet roofs to their outlets: falls, ponding, outlets, gutters, fall lines, drop schedules and the height budget.",
+  },
 ];
 
 export async function loader({ request }: Route.LoaderArgs) {
@@ -23,9 +27,26 @@ export async function loader({ request }: Route.LoaderArgs) {
 }
 
 function Status({ p }: { p: Progress | null }) {
-  if (!p) return <span className="inline-flex items-center gap-1 text-ink-soft"><Minus aria-hidden="true" className="h-4 w-4" />Not started</span>;
-  if (p.passed) return <span className="inline-flex items-center gap-1 font-medium text-ok"><Check aria-hidden="true" className="h-4 w-4" strokeWidth={3} />Passed</span>;
-  return <span className="inline-flex items-center gap-1 font-medium text-bad"><X aria-hidden="true" className="h-4 w-4" strokeWidth={3} />Not passed yet</span>;
+  if (!p)
+    return (
+      <span className="inline-flex items-center gap-1 text-ink-soft">
+        <Minus aria-hidden="true" className="h-4 w-4" />
+        Not started
+      </span>
+    );
+  if (p.passed)
+    return (
+      <span className="inline-flex items-center gap-1 font-medium text-ok">
+        <Check aria-hidden="true" className="h-4 w-4" strokeWidth={3} />
+        Passed
+      </span>
+    );
+  return (
+    <span className="inline-flex items-center gap-1 font-medium text-bad">
+      <X aria-hidden="true" className="h-4 w-4" strokeWidth={3} />
+      Not passed yet
+    </span>
+  );
 }
 
 export default function Lessons() {
@@ -38,43 +59,71 @@ export default function Lessons() {
         <div>
           <h1 className="text-display font-bold tracking-tight">Lessons</h1>
           <p className="mt-2 max-w-prose text-ink-soft">
-            {lessons.length} short lessons on getting the water off a roof inside parapets. Each one explains, asks a few questions,
-            and gives you a roof to shape in the sandbox; the server checks your roof and marks it.
+            {lessons.length} short lessons on getting the water off a roof inside parapets. Each one explains, asks a
+            few questions, and gives you a roof to shape in the sandbox; the server checks your roof and marks it.
           </p>
         </div>
         {signedIn ? (
           <div className="text-right">
             <p className="text-sm text-ink-soft">Your progress</p>
-            <p className="text-2xl font-bold tabular-nums" data-testid="course-progress">{passed} of {lessons.length} passed</p>
+            <p className="text-2xl font-bold tabular-nums" data-testid="course-progress">
+              {passed} of {lessons.length} passed
+            </p>
             <p className="mt-1 flex flex-wrap justify-end gap-3 text-sm">
-              {next && <Link to={`/lessons/${next.slug}`} className="btn-primary">Next: lesson {next.position}</Link>}
-              <Link to="/attempts" className="btn">My attempts</Link>
+              {next && (
+                <Link to={`/lessons/${next.slug}`} className="btn-primary">
+                  Next: lesson {next.position}
+                </Link>
+              )}
+              <Link to="/attempts" className="btn">
+                My attempts
+              </Link>
             </p>
           </div>
         ) : (
           <p className="card max-w-sm text-sm">
-            You can read every lesson and try every roof. <Link className="font-medium underline" to="/login?redirectTo=%2Flessons">Sign in</Link> to submit your
-            answers and keep your progress.
+            You can read every lesson and try every roof.{" "}
+            <Link className="font-medium underline" to="/login?redirectTo=%2Flessons">
+              Sign in
+            </Link>{" "}
+            to submit your answers and keep your progress.
           </p>
         )}
       </header>
       <ol className="grid gap-3">
         {lessons.map((l) => (
-          <li key={l.slug} className="card grid gap-3 sm:grid-cols-[auto_1fr_auto] sm:items-center" data-testid={`lesson-${l.slug}`}>
-            <span className="flex h-10 w-10 items-center justify-center rounded-full border-2 border-ink text-lg font-bold tabular-nums" aria-hidden="true">
+          <li
+            key={l.slug}
+            className="card grid gap-3 sm:grid-cols-[auto_1fr_auto] sm:items-center"
+            data-testid={`lesson-${l.slug}`}
+          >
+            <span
+              className="flex h-10 w-10 items-center justify-center rounded-full border-2 border-ink text-lg font-bold tabular-nums"
+              aria-hidden="true"
+            >
               {l.position}
             </span>
             <div className="min-w-0">
               <h2 className="text-lg font-bold">
                 <Link to={`/lessons/${l.slug}`} className="hover:underline">
-                  <span className="sr-only">Lesson {l.position}: </span>{l.title}
+                  <span className="sr-only">Lesson {l.position}: </span>
+                  {l.title}
                 </Link>
               </h2>
               <p className="text-sm text-ink-soft">{l.summary}</p>
               <p className="mt-1 flex flex-wrap gap-x-4 gap-y-1 text-xs text-ink-soft">
-                <span className="inline-flex items-center gap-1"><Clock aria-hidden="true" className="h-3.5 w-3.5" />about {l.minutes} min</span>
-                <span className="inline-flex items-center gap-1"><BookOpen aria-hidden="true" className="h-3.5 w-3.5" />{l.questions} questions</span>
-                <span className="inline-flex items-center gap-1"><ListChecks aria-hidden="true" className="h-3.5 w-3.5" />roof task, {l.criteria} checks</span>
+                <span className="inline-flex items-center gap-1">
+                  <Clock aria-hidden="true" className="h-3.5 w-3.5" />
+                  about {l.minutes} min
+                </span>
+                <span className="inline-flex items-center gap-1">
+                  <BookOpen aria-hidden="true" className="h-3.5 w-3.5" />
+                  {l.questions} questions
+                </span>
+                <span className="inline-flex items-center gap-1">
+                  <ListChecks aria-hidden="true" className="h-3.5 w-3.5" />
+                  roof task, {l.criteria} checks
+                </span>
                 <span>pass mark {l.passMark}</span>
               </p>
             </div>
@@ -83,7 +132,8 @@ export default function Lessons() {
                 <Status p={l.progress} />
                 {l.progress && (
                   <p className="text-xs text-ink-soft tabular-nums">
-                    best {Math.round(l.progress.bestScore * 10) / 10} · {l.progress.attempts} {l.progress.attempts === 1 ? "attempt" : "attempts"}
+                    best {Math.round(l.progress.bestScore * 10) / 10} · {l.progress.attempts}{" "}
+                    {l.progress.attempts === 1 ? "attempt" : "attempts"}
                   </p>
                 )}
               </div>

@@ -74,14 +74,21 @@ export default function Login() {
         />
         <div className="flex flex-wrap items-center justify-between gap-3">
           <SubmitButton pendingText="Signing in…">Sign in</SubmitButton>
-          <Link className="text-sm underline" to="/forgot-password">Forgot your password?</Link>
+          <Link className="text-sm underline" to="/forgot-password">
+            Forgot your password?
+          </Link>
         </div>
       </Form>
       <p className="mt-6 border-t border-rule pt-4 text-sm text-ink-soft">
         New here? Accounts come by invitation from a trainer or an admin.
         {signupOpen ? (
           <>
-            {" "}Designers can also <Link className="underline" to="/signup">create an account</Link>.
+            {" "}
+            Designers can also{" "}
+            <Link className="underline" to="/signup">
+              create an account
+            </Link>
+            .
           </>
         ) : null}
       </p>

@@ -6,7 +6,10 @@ import { AuthCard, FormError, SubmitButton } from "~/components/form-field";
 import { LINK_STATUS, LinkProblem } from "~/components/link-problem";
 import { NewPasswordFields } from "~/components/new-password-fields";
 
-export const meta: Route.MetaFunction = () => [{ title: "Choose a new password · Fallwright" }, { name: "referrer", content: "no-referrer" }];
+export const meta: Route.MetaFunction = () => [
+  { title: "Choose a new password · Fallwright" },
+  { name: "referrer", content: "no-referrer" },
+];
 
 export async function loader({ params }: Route.LoaderArgs) {
   const found = await findResetToken(params.token);
@@ -25,7 +28,14 @@ export default function ResetPassword() {
   const result = useActionData<typeof action>();
   if (state !== "valid") return <LinkProblem state={state} kind="reset" />;
   return (
-    <AuthCard title="Choose a new password" lead={<>For <strong>{email}</strong>. Every device signed in to this account will be signed out.</>}>
+    <AuthCard
+      title="Choose a new password"
+      lead={
+        <>
+          For <strong>{email}</strong>. Every device signed in to this account will be signed out.
+        </>
+      }
+    >
       <Form method="post" className="grid gap-4" noValidate>
         <FormError message={result?.formError} />
         <input type="hidden" name="username" autoComplete="username" value={email ?? ""} />

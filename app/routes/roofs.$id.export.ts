@@ -7,7 +7,8 @@ import { getRoofFor } from "~/lib/roofs.server";
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requirePermission(request, "roofs:own");
   const roof = await getRoofFor(user, params.id);
-  if (!roof) return new Response("Not found", { status: 404, headers: { "Content-Type": "text/plain; charset=utf-8" } });
+  if (!roof)
+    return new Response("Not found", { status: 404, headers: { "Content-Type": "text/plain; charset=utf-8" } });
   const file = writeRoofFile(roof);
   return new Response(JSON.stringify(file, null, 2) + "\n", {
     headers: {

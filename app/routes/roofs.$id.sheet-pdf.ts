@@ -5,5 +5,9 @@ import { roofPackResponse } from "~/lib/pack/download.server";
 export async function loader({ request, params }: Route.LoaderArgs) {
   // Loaded on first use, so the server starts without the PDF library.
   const { SHEET_PDF, SHEET_PDF_LETTER } = await import("~/components/pack/sheet-pdf");
-  return roofPackResponse(request, params.id, new URL(request.url).searchParams.get("paper") === "letter" ? SHEET_PDF_LETTER : SHEET_PDF);
+  return roofPackResponse(
+    request,
+    params.id,
+    new URL(request.url).searchParams.get("paper") === "letter" ? SHEET_PDF_LETTER : SHEET_PDF,
+  );
 }

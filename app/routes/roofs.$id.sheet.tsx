@@ -26,8 +26,25 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 export default function RoofSheet() {
   const { id, name, spec } = useLoaderData<typeof loader>();
   const outcome = useMemo(() => runAnalysis(spec), [spec]);
-  if (!outcome.ok) return <p role="alert" className="card mx-auto max-w-xl">{outcome.error.message}</p>;
-  return <CheckSheet name={name} spec={spec} analysis={outcome.analysis} pdfHref={`/roofs/${id}/sheet.pdf`} back={<Link className="btn" to={`/roofs/${id}`}>Back to the roof</Link>} />;
+  if (!outcome.ok)
+    return (
+      <p role="alert" className="card mx-auto max-w-xl">
+        {outcome.error.message}
+      </p>
+    );
+  return (
+    <CheckSheet
+      name={name}
+      spec={spec}
+      analysis={outcome.analysis}
+      pdfHref={`/roofs/${id}/sheet.pdf`}
+      back={
+        <Link className="btn" to={`/roofs/${id}`}>
+          Back to the roof
+        </Link>
+      }
+    />
+  );
 }
 
 export function ErrorBoundary() {

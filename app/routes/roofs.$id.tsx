@@ -6,7 +6,15 @@ import type { Route } from "./+types/roofs.$id";
 import { requirePermission } from "~/lib/auth.server";
 import { pgInt } from "~/lib/input";
 import { underlaySettingsSchema, type UnderlaySettings } from "~/lib/roof-file";
-import { duplicateRoof, getRoofFor, listVersions, restoreVersion, roofNameSchema, setShared, setUnderlay } from "~/lib/roofs.server";
+import {
+  duplicateRoof,
+  getRoofFor,
+  listVersions,
+  restoreVersion,
+  roofNameSchema,
+  setShared,
+  setUnderlay,
+} from "~/lib/roofs.server";
 import { underlayUrl } from "~/lib/underlay";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
 import { RelativeTime } from "~/components/roofs/relative-time";
@@ -27,7 +35,15 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const roof = await getRoofFor(user, params.id);
   if (!roof) throw data("No roof with that id in your library.", { status: 404 });
   return {
-    roof: { id: roof.id, name: roof.name, version: roof.version, shared: roof.shared, canEdit: roof.canEdit, ownerName: roof.ownerName, spec: roof.spec },
+    roof: {
+      id: roof.id,
+      name: roof.name,
+      version: roof.version,
+      shared: roof.shared,
+      canEdit: roof.canEdit,
+      ownerName: roof.ownerName,
+      spec: roof.spec,
+    },
     underlay: roof.underlay,
     underlayUrl: roof.underlayId ? underlayUrl(roof.id, roof.underlayId) : null,
     versions: roof.canEdit ? await listVersions(roof.id) : [],
@@ -38,7 +54,11 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 const intentSchema = z.discriminatedUnion("intent", [
   z.object({ intent: z.literal("share"), shared: z.enum(["true", "false"]) }),
   z.object({ intent: z.literal("underlay"), settings: z.string().max(2000) }),
-  z.object({ intent: z.literal("restore-version"), version: pgInt({ coerce: true }), expected: pgInt({ coerce: true }) }),
+  z.object({
+    intent: z.literal("restore-version"),
+    version: pgInt({ coerce: true }),
+    expected: pgInt({ coerce: true }),
+  }),
   z.object({ intent: z.literal("duplicate"), name: roofNameSchema.optional() }),
   z.object({ intent: z.literal("share-link-create") }),
   z.object({ intent: z.literal("share-link-revoke"), linkId: z.string().max(100) }),
@@ -49,14 +69,18 @@ export async function action({ request, params }: Route.ActionArgs) {
   const parsed = intentSchema.safeParse(Object.fromEntries(await request.formData()));
   if (!parsed.success) {
     const issue = parsed.error.issues[0];
-    return data({ error: `That request was malformed: the field "${String(issue.path[0] ?? "intent")}" ${issue.message}.` }, { status: 400 });
+    return data(
+      { error: `That request was malformed: the field "${String(issue.path[0] ?? "intent")}" ${issue.message}.` },
+      { status: 400 },
+    );
   }
   const input = parsed.data;
   const notFound = () => data("No roof with that id in your library.", { status: 404 });
   switch (input.intent) {
     case "share": {
       const result = await setShared(user, params.id, input.shared === "true");
-      if (result !== "ok") throw result === "forbidden" ? data("Only the owner can share this roof.", { status: 403 }) : notFound();
+      if (result !== "ok")
+        throw result === "forbidden" ? data("Only the owner can share this roof.", { status: 403 }) : notFound();
       return { shared: input.shared === "true" };
     }
     case "underlay": {
@@ -67,7 +91,8 @@ export async function action({ request, params }: Route.ActionArgs) {
         return data({ error: "The underlay placement was not valid." }, { status: 400 });
       }
       const result = await setUnderlay(user, params.id, { settings });
-      if (result !== "ok") throw result === "forbidden" ? data("Only the owner can move the underlay.", { status: 403 }) : notFound();
+      if (result !== "ok")
+        throw result === "forbidden" ? data("Only the owner can move the underlay.", { status: 403 }) : notFound();
       return { underlay: settings };
     }
     case "restore-version": {
@@ -82,13 +107,18 @@ export async function action({ request, params }: Route.ActionArgs) {
       const made = await createShareLink(user, params.id);
       if (made.status === "forbidden") throw data("Only the owner can share this roof by link.", { status: 403 });
       if (made.status === "not-found") throw notFound();
-      if (made.status !== "ok") return data({ error: `A roof can have at most ${MAX_LINKS_PER_ROOF} links at once: revoke one first.` }, { status: 409 });
+      if (made.status !== "ok")
+        return data(
+          { error: `A roof can have at most ${MAX_LINKS_PER_ROOF} links at once: revoke one first.` },
+          { status: 409 },
+        );
       return { shareLink: { id: made.id, path: `/s/${made.token}` } };
     }
     case "share-link-revoke": {
       const result = await revokeShareLink(user, params.id, input.linkId);
       if (result === "forbidden") throw data("Only the owner can revoke this roof's links.", { status: 403 });
-      if (result === "not-found") return data({ error: "That link was not found; it may have been revoked already." }, { status: 404 });
+      if (result === "not-found")
+        return data({ error: "That link was not found; it may have been revoked already." }, { status: 404 });
       return { revoked: input.linkId };
     }
     case "duplicate": {
@@ -113,7 +143,13 @@ export default function RoofPage({ loaderData }: Route.ComponentProps) {
   return <RoofEditor key={loaderData.roof.id} {...loaderData} />;
 }
 
-function RoofEditor({ roof, underlay: initialUnderlay, underlayUrl: initialUrl, versions, shareLinks }: Route.ComponentProps["loaderData"]) {
+function RoofEditor({
+  roof,
+  underlay: initialUnderlay,
+  underlayUrl: initialUrl,
+  versions,
+  shareLinks,
+}: Route.ComponentProps["loaderData"]) {
   const navigate = useNavigate();
   const [params] = useSearchParams();
   const autosave = useAutosave(roof.id, roof.version, { enabled: roof.canEdit });
@@ -153,7 +189,12 @@ function RoofEditor({ roof, underlay: initialUnderlay, underlayUrl: initialUrl, 
 
   function rename(value: string) {
     setName(value);
-    const checked = z.string().trim().min(1, "The name must not be empty.").max(120, "The name must be at most 120 characters.").safeParse(value);
+    const checked = z
+      .string()
+      .trim()
+      .min(1, "The name must not be empty.")
+      .max(120, "The name must be at most 120 characters.")
+      .safeParse(value);
     setNameError(checked.success ? null : checked.error.issues[0].message);
     if (checked.success) autosave.queue({ name: checked.data });
   }
@@ -185,17 +226,30 @@ function RoofEditor({ roof, underlay: initialUnderlay, underlayUrl: initialUrl, 
     else setCopyError(body?.error?.message ?? "The copy could not be saved. Your changes are still here; try again.");
   }
 
-  const notice = params.has("saved") ? "Saved to your roofs." : params.has("imported") ? "Imported into your roofs." : params.has("copied") ? "This is your copy." : null;
+  const notice = params.has("saved")
+    ? "Saved to your roofs."
+    : params.has("imported")
+      ? "Imported into your roofs."
+      : params.has("copied")
+        ? "This is your copy."
+        : null;
   const underlayProp = underlay && imageUrl ? { url: imageUrl, ...underlay } : undefined;
 
   return (
     <div className="space-y-4">
       <header className="flex flex-wrap items-end justify-between gap-3">
         <div className="min-w-72 flex-1">
-          <p className="text-sm text-ink-soft"><Link className="underline" to="/roofs">My roofs</Link> /</p>
+          <p className="text-sm text-ink-soft">
+            <Link className="underline" to="/roofs">
+              My roofs
+            </Link>{" "}
+            /
+          </p>
           {roof.canEdit ? (
             <div>
-              <label htmlFor="roof-name" className="sr-only">Roof name</label>
+              <label htmlFor="roof-name" className="sr-only">
+                Roof name
+              </label>
               <input
                 id="roof-name"
                 value={name}
@@ -205,7 +259,11 @@ function RoofEditor({ roof, underlay: initialUnderlay, underlayUrl: initialUrl, 
                 aria-describedby={nameError ? "roof-name-error" : undefined}
                 className="w-full max-w-2xl rounded border border-transparent bg-transparent px-1 text-3xl font-bold tracking-tight hover:border-rule focus:border-ink focus:bg-sheet"
               />
-              {nameError ? <p id="roof-name-error" className="field-error">{nameError}</p> : null}
+              {nameError ? (
+                <p id="roof-name-error" className="field-error">
+                  {nameError}
+                </p>
+              ) : null}
             </div>
           ) : (
             <h1 className="text-3xl font-bold tracking-tight">{roof.name}</h1>
@@ -223,33 +281,44 @@ function RoofEditor({ roof, underlay: initialUnderlay, underlayUrl: initialUrl, 
       <PackDownloads base={`/roofs/${roof.id}`} sheetPage={`/roofs/${roof.id}/sheet`} />
       {roof.canEdit ? <ShareLinks links={shareLinks} /> : null}
 
-      {notice ? <p role="status" className="rounded border border-ok/40 bg-sheet px-3 py-2 text-sm text-ok">{notice}</p> : null}
+      {notice ? (
+        <p role="status" className="rounded border border-ok/40 bg-sheet px-3 py-2 text-sm text-ok">
+          {notice}
+        </p>
+      ) : null}
       {!roof.canEdit ? <ReadOnlyBanner owner={roof.ownerName} name={roof.name} /> : null}
-      {conflict ? <ConflictBanner current={conflict} onReload={() => reloadTheirs(conflict)} onKeepMine={() => void keepMineAsCopy()} error={copyError} /> : null}
+      {conflict ? (
+        <ConflictBanner
+          current={conflict}
+          onReload={() => reloadTheirs(conflict)}
+          onKeepMine={() => void keepMineAsCopy()}
+          error={copyError}
+        />
+      ) : null}
 
       <div className="grid items-start gap-4 lg:grid-cols-[3fr_2fr]">
         {roof.canEdit || imageUrl ? (
-        <UnderlayPanel
-          roofId={roof.id}
-          settings={underlay}
-          imageUrl={imageUrl}
-          outline={outline}
-          canEdit={roof.canEdit}
-          onSettings={saveUnderlay}
-          onUploaded={(settings, url) => {
-            setUnderlayState(settings);
-            setImageUrl(url);
-          }}
-          onTrace={(traced) => {
-            const spec = retraceSpec(current.current, traced);
-            // An undoable edit in the workspace when it is there; onSpecChange then saves it.
-            if (store.current) store.current.getState().replaceSpec(spec as unknown as RoofSpec);
-            else {
-              replaceSpec(spec);
-              autosave.queue({ spec });
-            }
-          }}
-        />
+          <UnderlayPanel
+            roofId={roof.id}
+            settings={underlay}
+            imageUrl={imageUrl}
+            outline={outline}
+            canEdit={roof.canEdit}
+            onSettings={saveUnderlay}
+            onUploaded={(settings, url) => {
+              setUnderlayState(settings);
+              setImageUrl(url);
+            }}
+            onTrace={(traced) => {
+              const spec = retraceSpec(current.current, traced);
+              // An undoable edit in the workspace when it is there; onSpecChange then saves it.
+              if (store.current) store.current.getState().replaceSpec(spec as unknown as RoofSpec);
+              else {
+                replaceSpec(spec);
+                autosave.queue({ spec });
+              }
+            }}
+          />
         ) : null}
         {roof.canEdit ? (
           <VersionHistory
@@ -265,7 +334,14 @@ function RoofEditor({ roof, underlay: initialUnderlay, underlayUrl: initialUrl, 
         ) : null}
       </div>
 
-      <RoofWorkspace key={mounted.epoch} initialSpec={mounted.spec} onSpecChange={onSpecChange} readOnly={!roof.canEdit} underlay={underlayProp} onStore={onStore} />
+      <RoofWorkspace
+        key={mounted.epoch}
+        initialSpec={mounted.spec}
+        onSpecChange={onSpecChange}
+        readOnly={!roof.canEdit}
+        underlay={underlayProp}
+        onStore={onStore}
+      />
     </div>
   );
 }
@@ -294,8 +370,15 @@ function ShareControls({ shared }: { shared: boolean }) {
       <fetcher.Form method="post">
         <input type="hidden" name="intent" value="share" />
         <input type="hidden" name="shared" value={isShared ? "false" : "true"} />
-        <button type="submit" className={isShared ? "btn-primary" : "btn"} role="switch" aria-checked={isShared} title="Colleagues in your organisation can open it read-only at this page's address">
-          <Share2 aria-hidden="true" className="h-4 w-4" /> {isShared ? "Shared in organisation" : "Share in organisation"}
+        <button
+          type="submit"
+          className={isShared ? "btn-primary" : "btn"}
+          role="switch"
+          aria-checked={isShared}
+          title="Colleagues in your organisation can open it read-only at this page's address"
+        >
+          <Share2 aria-hidden="true" className="h-4 w-4" />{" "}
+          {isShared ? "Shared in organisation" : "Share in organisation"}
         </button>
       </fetcher.Form>
       {isShared ? (
@@ -303,7 +386,11 @@ function ShareControls({ shared }: { shared: boolean }) {
           <Link2 aria-hidden="true" className="h-4 w-4" /> {copied === "yes" ? "Link copied" : "Copy link"}
         </button>
       ) : null}
-      {copied === "failed" ? <span role="alert" className="text-xs text-bad">Copy this address from the address bar.</span> : null}
+      {copied === "failed" ? (
+        <span role="alert" className="text-xs text-bad">
+          Copy this address from the address bar.
+        </span>
+      ) : null}
     </div>
   );
 }
@@ -338,26 +425,58 @@ function ShareLinks({ links }: { links: Route.ComponentProps["loaderData"]["shar
         </make.Form>
       </div>
       <p className="mt-1 text-sm text-ink-soft">
-        Anyone with a link sees this roof, its figures and its downloads without signing in, and cannot change it. Revoke a link to stop it working.
+        Anyone with a link sees this roof, its figures and its downloads without signing in, and cannot change it.
+        Revoke a link to stop it working.
       </p>
-      {make.data?.error ? <p role="alert" className="mt-2 text-sm text-bad">{make.data.error}</p> : null}
+      {make.data?.error ? (
+        <p role="alert" className="mt-2 text-sm text-bad">
+          {make.data.error}
+        </p>
+      ) : null}
       {url ? (
-        <div className="mt-2 flex flex-wrap items-center gap-2 rounded border border-ok/40 bg-sheet px-3 py-2" role="status">
-          <label htmlFor="share-link-url" className="text-sm">New link (shown once; copy it now):</label>
-          <input id="share-link-url" readOnly value={url} className="field min-w-72 flex-1 font-mono text-xs" data-testid="share-link-url" onFocus={(e) => e.currentTarget.select()} />
-          <button type="button" className="btn" onClick={() => void copy()}>{copied ? "Copied" : "Copy"}</button>
+        <div
+          className="mt-2 flex flex-wrap items-center gap-2 rounded border border-ok/40 bg-sheet px-3 py-2"
+          role="status"
+        >
+          <label htmlFor="share-link-url" className="text-sm">
+            New link (shown once; copy it now):
+          </label>
+          <input
+            id="share-link-url"
+            readOnly
+            value={url}
+            className="field min-w-72 flex-1 font-mono text-xs"
+            data-testid="share-link-url"
+            onFocus={(e) => e.currentTarget.select()}
+          />
+          <button type="button" className="btn" onClick={() => void copy()}>
+            {copied ? "Copied" : "Copy"}
+          </button>
         </div>
       ) : null}
-      {revoke.data?.error ? <p role="alert" className="mt-2 text-sm text-bad">{revoke.data.error}</p> : null}
+      {revoke.data?.error ? (
+        <p role="alert" className="mt-2 text-sm text-bad">
+          {revoke.data.error}
+        </p>
+      ) : null}
       {links.length ? (
         <ul className="mt-2 divide-y divide-rule text-sm" data-testid="share-link-list">
           {links.map((l) => (
             <li key={l.id} className="flex items-center justify-between gap-2 py-1.5">
-              <span>Link made <RelativeTime iso={l.createdAt} /></span>
+              <span>
+                Link made <RelativeTime iso={l.createdAt} />
+              </span>
               <revoke.Form method="post">
                 <input type="hidden" name="intent" value="share-link-revoke" />
                 <input type="hidden" name="linkId" value={l.id} />
-                <button type="submit" className="btn py-0.5 text-xs" disabled={revoke.state !== "idle"} data-testid="share-link-revoke">Revoke</button>
+                <button
+                  type="submit"
+                  className="btn py-0.5 text-xs"
+                  disabled={revoke.state !== "idle"}
+                  data-testid="share-link-revoke"
+                >
+                  Revoke
+                </button>
               </revoke.Form>
             </li>
           ))}
@@ -374,12 +493,15 @@ function ReadOnlyBanner({ owner, name }: { owner: string; name: string }) {
   return (
     <div className="flex flex-wrap items-center justify-between gap-3 rounded border border-rule bg-paper-deep px-4 py-3">
       <p>
-        <strong>Read-only.</strong> {owner} shared this roof with your organisation. You can look around; make your own copy to change it.
+        <strong>Read-only.</strong> {owner} shared this roof with your organisation. You can look around; make your own
+        copy to change it.
       </p>
       <fetcher.Form method="post">
         <input type="hidden" name="intent" value="duplicate" />
         <input type="hidden" name="name" value={`${name.slice(0, 112)} (copy)`} />
-        <button className="btn-primary" type="submit" disabled={fetcher.state !== "idle"}>{fetcher.state !== "idle" ? "Copying…" : "Copy to my roofs"}</button>
+        <button className="btn-primary" type="submit" disabled={fetcher.state !== "idle"}>
+          {fetcher.state !== "idle" ? "Copying…" : "Copy to my roofs"}
+        </button>
       </fetcher.Form>
     </div>
   );
@@ -417,23 +539,45 @@ function VersionHistory({
     <details className="card group">
       <summary className="flex cursor-pointer list-none items-center justify-between gap-2">
         <h2 id="history-title" className="flex items-center gap-2 text-lg font-bold">
-          <span aria-hidden="true" className="inline-block transition-transform group-open:rotate-90">▸</span>
+          <span aria-hidden="true" className="inline-block transition-transform group-open:rotate-90">
+            ▸
+          </span>
           <History aria-hidden="true" className="h-5 w-5" /> Version history
         </h2>
-        <span className="text-sm text-ink-soft">{versions.length} {versions.length === 1 ? "version" : "versions"}{versions.length >= 30 ? " (latest 30)" : ""}</span>
+        <span className="text-sm text-ink-soft">
+          {versions.length} {versions.length === 1 ? "version" : "versions"}
+          {versions.length >= 30 ? " (latest 30)" : ""}
+        </span>
       </summary>
       <div className="my-2 flex justify-end">
-        <button type="button" className="btn" onClick={() => void revalidator.revalidate()} disabled={revalidator.state !== "idle"}>
+        <button
+          type="button"
+          className="btn"
+          onClick={() => void revalidator.revalidate()}
+          disabled={revalidator.state !== "idle"}
+        >
           {revalidator.state !== "idle" ? "Refreshing…" : "Refresh"}
         </button>
       </div>
-      {restoredFrom ? <p role="status" className="mb-2 text-sm text-ok">Version {restoredFrom} restored as a new version.</p> : null}
-      {fetcher.data?.conflict ? <p role="alert" className="mb-2 text-sm text-bad">The roof changed elsewhere; refresh and try again.</p> : null}
+      {restoredFrom ? (
+        <p role="status" className="mb-2 text-sm text-ok">
+          Version {restoredFrom} restored as a new version.
+        </p>
+      ) : null}
+      {fetcher.data?.conflict ? (
+        <p role="alert" className="mb-2 text-sm text-bad">
+          The roof changed elsewhere; refresh and try again.
+        </p>
+      ) : null}
       <ol className="max-h-80 divide-y divide-rule overflow-y-auto text-sm">
         {versions.map((v, i) => (
           <li key={v.version} className="flex items-center justify-between gap-2 py-1.5">
             <span>
-              <strong>v{v.version}</strong> · {v.name} <span className="text-ink-soft">· <RelativeTime iso={v.savedAt} />{v.savedBy ? ` · ${v.savedBy}` : ""}</span>
+              <strong>v{v.version}</strong> · {v.name}{" "}
+              <span className="text-ink-soft">
+                · <RelativeTime iso={v.savedAt} />
+                {v.savedBy ? ` · ${v.savedBy}` : ""}
+              </span>
             </span>
             {i === 0 ? (
               <span className="text-xs text-ink-soft">latest</span>
@@ -442,13 +586,17 @@ function VersionHistory({
                 <input type="hidden" name="intent" value="restore-version" />
                 <input type="hidden" name="version" value={v.version} />
                 <input type="hidden" name="expected" value={expected()} />
-                <button className="btn py-0.5 text-xs" type="submit" disabled={busy || fetcher.state !== "idle"}>Restore<span className="sr-only"> version {v.version}</span></button>
+                <button className="btn py-0.5 text-xs" type="submit" disabled={busy || fetcher.state !== "idle"}>
+                  Restore<span className="sr-only"> version {v.version}</span>
+                </button>
               </fetcher.Form>
             )}
           </li>
         ))}
       </ol>
-      <p className="mt-2 text-xs text-ink-soft">Every save is a version; restoring one makes it the newest, and nothing is overwritten.</p>
+      <p className="mt-2 text-xs text-ink-soft">
+        Every save is a version; restoring one makes it the newest, and nothing is overwritten.
+      </p>
     </details>
   );
 }

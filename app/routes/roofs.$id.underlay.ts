@@ -24,13 +24,19 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await getOptionalUser(request);
   const roof = user ? await getRoofFor(user, params.id) : null;
   const upload = roof?.underlayId ? await getUpload(roof.underlayId) : null;
-  if (!roof || !upload) return new Response("Not found", { status: 404, headers: { "Content-Type": "text/plain; charset=utf-8" } });
+  if (!roof || !upload)
+    return new Response("Not found", { status: 404, headers: { "Content-Type": "text/plain; charset=utf-8" } });
   const object = await getObjectStream(upload.storageKey).catch((error: Error) => {
     console.warn("[underlay] object store unavailable:", error.message);
     return "down" as const;
   });
-  if (object === "down") return new Response(STORE_DOWN, { status: 503, headers: { "Content-Type": "text/plain; charset=utf-8", "Retry-After": "30" } });
-  if (!object) return new Response("Not found", { status: 404, headers: { "Content-Type": "text/plain; charset=utf-8" } });
+  if (object === "down")
+    return new Response(STORE_DOWN, {
+      status: 503,
+      headers: { "Content-Type": "text/plain; charset=utf-8", "Retry-After": "30" },
+    });
+  if (!object)
+    return new Response("Not found", { status: 404, headers: { "Content-Type": "text/plain; charset=utf-8" } });
   const ext = UNDERLAY_TYPES[upload.contentType as UnderlayType] ?? "bin";
   return new Response(object.body, {
     headers: {
@@ -43,7 +49,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
-  if (request.method !== "POST" && request.method !== "DELETE") return jsonError(405, "Use GET, POST or DELETE here.", [], { Allow: "GET, POST, DELETE" });
+  if (request.method !== "POST" && request.method !== "DELETE")
+    return jsonError(405, "Use GET, POST or DELETE here.", [], { Allow: "GET, POST, DELETE" });
   const user = await requireApiPermission(request, "roofs:own");
   const roof = await getRoofFor(user, params.id);
   if (!roof) return jsonError(404, NOT_FOUND);
@@ -59,11 +66,14 @@ export async function action({ request, params }: Route.ActionArgs) {
   const read = await readFormCapped(request, UNDERLAY_MAX_BYTES + MULTIPART_SLACK);
   if (!read.ok) {
     if (read.status === 413) return jsonError(413, TOO_LARGE);
-    if (read.status === 415) return jsonError(415, "Send the image as multipart/form-data with the field \"file\".");
-    return jsonError(400, "The upload could not be read as a form.", [{ path: "file", message: "missing or malformed" }]);
+    if (read.status === 415) return jsonError(415, 'Send the image as multipart/form-data with the field "file".');
+    return jsonError(400, "The upload could not be read as a form.", [
+      { path: "file", message: "missing or malformed" },
+    ]);
   }
   const file = read.form.get("file");
-  if (!(file instanceof File) || file.size === 0) return jsonError(400, "Choose an image file to upload.", [{ path: "file", message: "is required" }]);
+  if (!(file instanceof File) || file.size === 0)
+    return jsonError(400, "Choose an image file to upload.", [{ path: "file", message: "is required" }]);
   if (file.size > UNDERLAY_MAX_BYTES) return jsonError(413, TOO_LARGE);
   const bytes = new Uint8Array(await file.arrayBuffer());
   const sniffed = await sniffUnderlay(bytes);
@@ -77,13 +87,22 @@ export async function action({ request, params }: Route.ActionArgs) {
     console.warn("[underlay] object store unavailable:", (error as Error).message);
     return jsonError(503, STORE_DOWN, [], { "Retry-After": "30" });
   }
-  const keep = roof.underlay && roof.underlay.widthPx === sniffed.widthPx && roof.underlay.heightPx === sniffed.heightPx;
+  const keep =
+    roof.underlay && roof.underlay.widthPx === sniffed.widthPx && roof.underlay.heightPx === sniffed.heightPx;
   const settings = keep ? roof.underlay! : defaultUnderlaySettings(roof.spec, sniffed.widthPx, sniffed.heightPx);
   let uploadId: string;
   try {
     uploadId = await db().transaction(async (trx) => {
-      const id = await recordUpload(trx, { ownerId: user.id, storageKey: key, contentType: sniffed.mime, size: bytes.byteLength, originalName: file.name });
-      await trx("roofs").where({ id: roof.id, owner_id: user.id }).update({ underlay_id: id, underlay: JSON.stringify(settings) });
+      const id = await recordUpload(trx, {
+        ownerId: user.id,
+        storageKey: key,
+        contentType: sniffed.mime,
+        size: bytes.byteLength,
+        originalName: file.name,
+      });
+      await trx("roofs")
+        .where({ id: roof.id, owner_id: user.id })
+        .update({ underlay_id: id, underlay: JSON.stringify(settings) });
       return id;
     });
   } catch (error) {
@@ -91,11 +110,17 @@ export async function action({ request, params }: Route.ActionArgs) {
     throw error;
   }
   if (previous) await forget(roof.underlayId!, previous.storageKey);
-  return Response.json({ underlay: settings, url: underlayUrl(roof.id, uploadId), keptCalibration: !!keep }, { status: 201 });
+  return Response.json(
+    { underlay: settings, url: underlayUrl(roof.id, uploadId), keptCalibration: !!keep },
+    { status: 201 },
+  );
 }
 
 /** Best effort: an orphaned object costs storage, never correctness. */
 async function forget(uploadId: string, key: string) {
-  await db()("uploads").where({ id: uploadId }).delete().catch(() => {});
+  await db()("uploads")
+    .where({ id: uploadId })
+    .delete()
+    .catch(() => {});
   await deleteObject(key).catch((e: Error) => console.warn("[underlay] could not delete", key, e.message));
 }

@@ -8,7 +8,17 @@ import { readFormCapped } from "~/lib/json-api.server";
 import { readRoofFile, ROOF_FILE_MAX_BYTES } from "~/lib/roof-file";
 import { pgInt, uuid } from "~/lib/input";
 import { parseRoofWrite } from "~/lib/roofs-api.server";
-import { createRoof, duplicateRoof, idempotencyKeySchema, listMyRoofs, listSharedWithMe, restoreRoof, roofNameSchema, softDeleteRoof, updateRoof } from "~/lib/roofs.server";
+import {
+  createRoof,
+  duplicateRoof,
+  idempotencyKeySchema,
+  listMyRoofs,
+  listSharedWithMe,
+  restoreRoof,
+  roofNameSchema,
+  softDeleteRoof,
+  updateRoof,
+} from "~/lib/roofs.server";
 import { keyReusedMessage } from "~/lib/idempotency.server";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
 import { RelativeTime } from "~/components/roofs/relative-time";
@@ -25,7 +35,12 @@ const intentSchema = z.discriminatedUnion("intent", [
   z.object({ intent: z.literal("duplicate"), id: uuid("a roof id") }),
   z.object({ intent: z.literal("delete"), id: uuid("a roof id") }),
   z.object({ intent: z.literal("restore"), id: uuid("a roof id") }),
-  z.object({ intent: z.literal("rename"), id: uuid("a roof id"), name: roofNameSchema, version: pgInt({ coerce: true }) }),
+  z.object({
+    intent: z.literal("rename"),
+    id: uuid("a roof id"),
+    name: roofNameSchema,
+    version: pgInt({ coerce: true }),
+  }),
   z.object({ intent: z.literal("import") }),
 ]);
 
@@ -35,7 +50,8 @@ export async function action({ request }: Route.ActionArgs) {
   const user = await requirePermission(request, "roofs:own");
   const read = await readFormCapped(request, ROOF_FILE_MAX_BYTES + 16 * 1024);
   if (!read.ok) {
-    const error = read.status === 413 ? "That file is over 256 kB; a roof file is much smaller." : "The request could not be read.";
+    const error =
+      read.status === 413 ? "That file is over 256 kB; a roof file is much smaller." : "The request could not be read.";
     return data<ActionResult>({ intent: "import", error }, { status: read.status });
   }
   const form = read.form;
@@ -62,7 +78,8 @@ export async function action({ request }: Route.ActionArgs) {
     }
     case "delete":
     case "restore": {
-      const result = input.intent === "delete" ? await softDeleteRoof(user, input.id) : await restoreRoof(user, input.id);
+      const result =
+        input.intent === "delete" ? await softDeleteRoof(user, input.id) : await restoreRoof(user, input.id);
       if (result !== "ok") throw data("No such roof", { status: result === "forbidden" ? 403 : 404 });
       return data<ActionResult>({ intent: input.intent, id: input.id, ok: true });
     }
@@ -70,7 +87,15 @@ export async function action({ request }: Route.ActionArgs) {
       const result = await updateRoof(user, input.id, { name: input.name, version: input.version });
       if (result.status === "not-found" || result.status === "forbidden") throw data("No such roof", { status: 404 });
       if (result.status === "conflict") {
-        return data<ActionResult>({ intent: "rename", id: input.id, name: input.name, error: "This roof was changed elsewhere a moment ago; the list is now up to date. Try the rename again." }, { status: 409 });
+        return data<ActionResult>(
+          {
+            intent: "rename",
+            id: input.id,
+            name: input.name,
+            error: "This roof was changed elsewhere a moment ago; the list is now up to date. Try the rename again.",
+          },
+          { status: 409 },
+        );
       }
       return data<ActionResult>({ intent: "rename", id: input.id, ok: true });
     }
@@ -79,18 +104,30 @@ export async function action({ request }: Route.ActionArgs) {
   }
 }
 
-async function importRoof(user: Awaited<ReturnType<typeof requirePermission>>, file: FormDataEntryValue | null, idempotencyKey: FormDataEntryValue | null) {
-  if (!(file instanceof File) || file.size === 0) return data<ActionResult>({ intent: "import", error: "Choose a roof file (.json) to import." }, { status: 400 });
+async function importRoof(
+  user: Awaited<ReturnType<typeof requirePermission>>,
+  file: FormDataEntryValue | null,
+  idempotencyKey: FormDataEntryValue | null,
+) {
+  if (!(file instanceof File) || file.size === 0)
+    return data<ActionResult>({ intent: "import", error: "Choose a roof file (.json) to import." }, { status: 400 });
   const envelope = readRoofFile(await file.text());
-  if (!envelope.ok) return data<ActionResult>({ intent: "import", error: `${file.name}: ${envelope.message}` }, { status: 422 });
+  if (!envelope.ok)
+    return data<ActionResult>({ intent: "import", error: `${file.name}: ${envelope.message}` }, { status: 422 });
   const checked = parseRoofWrite({ name: envelope.file.name, spec: envelope.file.spec }, "create");
   if (!checked.ok) {
     const body = (await checked.response.json()) as { error: { message: string } };
     return data<ActionResult>({ intent: "import", error: `${file.name}: ${body.error.message}` }, { status: 422 });
   }
   const key = idempotencyKeySchema.safeParse(idempotencyKey);
-  const created = await createRoof(user, { name: checked.name!, spec: checked.spec, underlay: envelope.file.underlay ?? null, idempotencyKey: key.success ? key.data : null });
-  if ("keyReused" in created) return data<ActionResult>({ intent: "import", error: keyReusedMessage(created.keyReused) }, { status: 422 });
+  const created = await createRoof(user, {
+    name: checked.name!,
+    spec: checked.spec,
+    underlay: envelope.file.underlay ?? null,
+    idempotencyKey: key.success ? key.data : null,
+  });
+  if ("keyReused" in created)
+    return data<ActionResult>({ intent: "import", error: keyReusedMessage(created.keyReused) }, { status: 422 });
   return redirect(`/roofs/${created.id}?imported=1`);
 }
 
@@ -107,7 +144,9 @@ export default function RoofsPage({ loaderData }: Route.ComponentProps) {
     const q = query.trim().toLowerCase();
     const found = q ? mine.filter((r) => r.name.toLowerCase().includes(q)) : mine;
     return [...found].sort((a, b) =>
-      sort.key === "name" ? a.name.localeCompare(b.name, undefined, { sensitivity: "base" }) * sort.dir : (a.updatedAt < b.updatedAt ? -1 : a.updatedAt > b.updatedAt ? 1 : 0) * sort.dir,
+      sort.key === "name"
+        ? a.name.localeCompare(b.name, undefined, { sensitivity: "base" }) * sort.dir
+        : (a.updatedAt < b.updatedAt ? -1 : a.updatedAt > b.updatedAt ? 1 : 0) * sort.dir,
     );
   }, [mine, query, sort]);
 
@@ -121,7 +160,7 @@ export default function RoofsPage({ loaderData }: Route.ComponentProps) {
     <button
       type="button"
       className="inline-flex items-center gap-1 uppercase"
-      onClick={() => setSort((s) => ({ key, dir: s.key === key ? ((-s.dir) as 1 | -1) : key === "name" ? 1 : -1 }))}
+      onClick={() => setSort((s) => ({ key, dir: s.key === key ? (-s.dir as 1 | -1) : key === "name" ? 1 : -1 }))}
     >
       {label}
       <span aria-hidden="true">{sort.key === key ? (sort.dir === 1 ? "▲" : "▼") : "↕"}</span>
@@ -134,30 +173,49 @@ export default function RoofsPage({ loaderData }: Route.ComponentProps) {
       <header className="flex flex-wrap items-end justify-between gap-4">
         <div>
           <h1 className="text-3xl font-bold tracking-tight">My roofs</h1>
-          <p className="mt-1 text-ink-soft">Roofs you saved from the sandbox. Each save keeps a version you can go back to.</p>
+          <p className="mt-1 text-ink-soft">
+            Roofs you saved from the sandbox. Each save keeps a version you can go back to.
+          </p>
         </div>
         <div className="flex flex-wrap items-start gap-3">
-          <Link className="btn-primary" to="/sandbox">Draw a new roof</Link>
+          <Link className="btn-primary" to="/sandbox">
+            Draw a new roof
+          </Link>
           <ImportForm idempotencyKey={loaderData.importKey} />
         </div>
       </header>
 
       {mine.length === 0 ? (
         <section className="card text-center" aria-labelledby="empty-title">
-          <h2 id="empty-title" className="text-xl font-bold">No saved roofs yet</h2>
+          <h2 id="empty-title" className="text-xl font-bold">
+            No saved roofs yet
+          </h2>
           <p className="mx-auto mt-2 max-w-prose text-ink-soft">
-            Draw a roof in the sandbox and press <strong>Save to my roofs</strong>, or import a roof file someone exported for you.
+            Draw a roof in the sandbox and press <strong>Save to my roofs</strong>, or import a roof file someone
+            exported for you.
           </p>
-          <p className="mt-4"><Link className="btn-primary" to="/sandbox">Open the sandbox</Link></p>
+          <p className="mt-4">
+            <Link className="btn-primary" to="/sandbox">
+              Open the sandbox
+            </Link>
+          </p>
         </section>
       ) : (
         <section aria-labelledby="mine-title" className="card overflow-x-auto">
           <div className="mb-3 flex flex-wrap items-center justify-between gap-3">
-            <h2 id="mine-title" className="text-lg font-bold">Saved roofs <span className="font-normal text-ink-soft">({mine.length})</span></h2>
+            <h2 id="mine-title" className="text-lg font-bold">
+              Saved roofs <span className="font-normal text-ink-soft">({mine.length})</span>
+            </h2>
             <label className="relative block w-full max-w-xs">
               <span className="sr-only">Search my roofs by name</span>
               <Search aria-hidden="true" className="pointer-events-none absolute left-2 top-2 h-4 w-4 text-ink-soft" />
-              <input type="search" className="field pl-8" placeholder="Search by name" value={query} onChange={(e) => setQuery(e.target.value)} />
+              <input
+                type="search"
+                className="field pl-8"
+                placeholder="Search by name"
+                value={query}
+                onChange={(e) => setQuery(e.target.value)}
+              />
             </label>
           </div>
           {rows.length === 0 ? (
@@ -187,21 +245,36 @@ export default function RoofsPage({ loaderData }: Route.ComponentProps) {
         <h2 id="shared-title" className="mb-1 flex items-center gap-2 text-lg font-bold">
           <Users aria-hidden="true" className="h-5 w-5" /> Shared with me
         </h2>
-        <p className="mb-3 text-sm text-ink-soft">Roofs colleagues in your organisation have shared. You can look and make your own copy.</p>
+        <p className="mb-3 text-sm text-ink-soft">
+          Roofs colleagues in your organisation have shared. You can look and make your own copy.
+        </p>
         {shared.length === 0 ? (
           <p className="text-sm text-ink-soft">Nothing shared with you yet.</p>
         ) : (
           <table className="data-table w-full">
             <thead>
-              <tr><th>Name</th><th>Owner</th><th>Last saved</th><th className="text-right">Actions</th></tr>
+              <tr>
+                <th>Name</th>
+                <th>Owner</th>
+                <th>Last saved</th>
+                <th className="text-right">Actions</th>
+              </tr>
             </thead>
             <tbody>
               {shared.map((r) => (
                 <tr key={r.id}>
-                  <td><Link className="font-medium underline" to={`/roofs/${r.id}`}>{r.name}</Link></td>
+                  <td>
+                    <Link className="font-medium underline" to={`/roofs/${r.id}`}>
+                      {r.name}
+                    </Link>
+                  </td>
                   <td>{r.ownerName}</td>
-                  <td><RelativeTime iso={r.updatedAt} /></td>
-                  <td className="text-right"><DuplicateButton id={r.id} name={r.name} label="Copy to my roofs" /></td>
+                  <td>
+                    <RelativeTime iso={r.updatedAt} />
+                  </td>
+                  <td className="text-right">
+                    <DuplicateButton id={r.id} name={r.name} label="Copy to my roofs" />
+                  </td>
                 </tr>
               ))}
             </tbody>
@@ -210,21 +283,34 @@ export default function RoofsPage({ loaderData }: Route.ComponentProps) {
       </section>
 
       {deleted ? (
-        <div role="status" className="fixed bottom-4 left-1/2 z-20 flex -translate-x-1/2 items-center gap-4 rounded border-2 border-ink bg-sheet px-4 py-3 shadow-[3px_3px_0_0_var(--color-ink)]">
+        <div
+          role="status"
+          className="fixed bottom-4 left-1/2 z-20 flex -translate-x-1/2 items-center gap-4 rounded border-2 border-ink bg-sheet px-4 py-3 shadow-[3px_3px_0_0_var(--color-ink)]"
+        >
           <span>Deleted “{deleted.name}”.</span>
           <undo.Form method="post" onSubmit={() => setTimeout(() => setDeleted(null), 0)}>
             <input type="hidden" name="intent" value="restore" />
             <input type="hidden" name="id" value={deleted.id} />
-            <button className="btn" type="submit" autoFocus>Undo</button>
+            <button className="btn" type="submit" autoFocus>
+              Undo
+            </button>
           </undo.Form>
-          <button type="button" className="text-sm underline" onClick={() => setDeleted(null)}>Dismiss</button>
+          <button type="button" className="text-sm underline" onClick={() => setDeleted(null)}>
+            Dismiss
+          </button>
         </div>
       ) : null}
     </div>
   );
 }
 
-function RoofRow({ roof, onDeleted }: { roof: Route.ComponentProps["loaderData"]["mine"][number]; onDeleted: () => void }) {
+function RoofRow({
+  roof,
+  onDeleted,
+}: {
+  roof: Route.ComponentProps["loaderData"]["mine"][number];
+  onDeleted: () => void;
+}) {
   const [renaming, setRenaming] = useState(false);
   const rename = useFetcher<ActionResult>();
   const remove = useFetcher<ActionResult>();
@@ -243,12 +329,18 @@ function RoofRow({ roof, onDeleted }: { roof: Route.ComponentProps["loaderData"]
     <tr className={remove.state !== "idle" ? "opacity-40" : undefined}>
       <td className="min-w-64">
         {renaming ? (
-          <rename.Form method="post" className="flex items-start gap-2" onKeyDown={(e) => e.key === "Escape" && setRenaming(false)}>
+          <rename.Form
+            method="post"
+            className="flex items-start gap-2"
+            onKeyDown={(e) => e.key === "Escape" && setRenaming(false)}
+          >
             <input type="hidden" name="intent" value="rename" />
             <input type="hidden" name="id" value={roof.id} />
             <input type="hidden" name="version" value={roof.version} />
             <div className="flex-1">
-              <label className="sr-only" htmlFor={`name-${roof.id}`}>New name for {roof.name}</label>
+              <label className="sr-only" htmlFor={`name-${roof.id}`}>
+                New name for {roof.name}
+              </label>
               <input
                 ref={input}
                 id={`name-${roof.id}`}
@@ -259,18 +351,36 @@ function RoofRow({ roof, onDeleted }: { roof: Route.ComponentProps["loaderData"]
                 aria-invalid={failed ? true : undefined}
                 aria-describedby={failed ? `name-error-${roof.id}` : undefined}
               />
-              {failed ? <p id={`name-error-${roof.id}`} className="field-error">{failed.error}</p> : null}
+              {failed ? (
+                <p id={`name-error-${roof.id}`} className="field-error">
+                  {failed.error}
+                </p>
+              ) : null}
             </div>
-            <button className="btn-primary" type="submit">Save</button>
-            <button className="btn" type="button" onClick={() => setRenaming(false)}>Cancel</button>
+            <button className="btn-primary" type="submit">
+              Save
+            </button>
+            <button className="btn" type="button" onClick={() => setRenaming(false)}>
+              Cancel
+            </button>
           </rename.Form>
         ) : (
-          <Link className="font-medium underline" to={`/roofs/${roof.id}`}>{typeof pendingName === "string" ? pendingName : roof.name}</Link>
+          <Link className="font-medium underline" to={`/roofs/${roof.id}`}>
+            {typeof pendingName === "string" ? pendingName : roof.name}
+          </Link>
         )}
       </td>
-      <td><RelativeTime iso={roof.updatedAt} /></td>
+      <td>
+        <RelativeTime iso={roof.updatedAt} />
+      </td>
       <td>v{roof.version}</td>
-      <td>{roof.shared ? <span className="rounded bg-accent-wash px-1.5 py-0.5 text-xs font-medium">Shared</span> : <span className="text-ink-soft">Private</span>}</td>
+      <td>
+        {roof.shared ? (
+          <span className="rounded bg-accent-wash px-1.5 py-0.5 text-xs font-medium">Shared</span>
+        ) : (
+          <span className="text-ink-soft">Private</span>
+        )}
+      </td>
       <td>
         <div className="flex justify-end gap-1">
           <button type="button" className="btn" onClick={() => setRenaming(true)} disabled={renaming}>
@@ -313,7 +423,9 @@ function ImportForm({ idempotencyKey }: { idempotencyKey: string }) {
     <Form method="post" encType="multipart/form-data" className="max-w-sm">
       <input type="hidden" name="intent" value="import" />
       <input type="hidden" name="idempotencyKey" value={idempotencyKey} />
-      <label className="label" htmlFor="import-file">Import a roof file</label>
+      <label className="label" htmlFor="import-file">
+        Import a roof file
+      </label>
       <div className="flex gap-2">
         <input
           id="import-file"
@@ -329,7 +441,11 @@ function ImportForm({ idempotencyKey }: { idempotencyKey: string }) {
           <FileUp aria-hidden="true" className="h-4 w-4" /> {busy ? "Importing…" : "Import"}
         </button>
       </div>
-      {error ? <p id="import-error" role="alert" className="field-error">{error}</p> : null}
+      {error ? (
+        <p id="import-error" role="alert" className="field-error">
+          {error}
+        </p>
+      ) : null}
     </Form>
   );
 }

@@ -20,7 +20,8 @@ export async function action({ request }: Route.ActionArgs) {
   const user = await requirePermission(request, "roofs:own");
   const read = await readFormCapped(request, ROOF_BODY_LIMIT);
   if (!read.ok) {
-    const message = read.status === 413 ? "This roof is too large to save (over 256 kB)." : "The save request could not be read.";
+    const message =
+      read.status === 413 ? "This roof is too large to save (over 256 kB)." : "The save request could not be read.";
     return data({ error: { message, issues: [] }, name: "" }, { status: read.status });
   }
   const name = String(read.form.get("name") ?? "").trim() || "Untitled roof";
@@ -28,17 +29,41 @@ export async function action({ request }: Route.ActionArgs) {
   try {
     spec = JSON.parse(String(read.form.get("spec") ?? ""));
   } catch {
-    return data({ error: { message: "The roof could not be read (spec is not JSON).", issues: [{ path: "spec", message: "is not JSON" }] }, name }, { status: 400 });
+    return data(
+      {
+        error: {
+          message: "The roof could not be read (spec is not JSON).",
+          issues: [{ path: "spec", message: "is not JSON" }],
+        },
+        name,
+      },
+      { status: 400 },
+    );
   }
   const input = parseRoofWrite({ name, spec }, "create");
   if (!input.ok) {
-    const body = (await input.response.json()) as { error: { message: string; issues: { path: string; message: string }[] } };
+    const body = (await input.response.json()) as {
+      error: { message: string; issues: { path: string; message: string }[] };
+    };
     return data({ ...body, name }, { status: input.response.status });
   }
   const key = idempotencyKeySchema.safeParse(read.form.get("idempotencyKey"));
-  const created = await createRoof(user, { name: input.name!, spec: input.spec, idempotencyKey: key.success ? key.data : null });
+  const created = await createRoof(user, {
+    name: input.name!,
+    spec: input.spec,
+    idempotencyKey: key.success ? key.data : null,
+  });
   if ("keyReused" in created) {
-    return data({ error: { message: keyReusedMessage(created.keyReused), issues: [{ path: "idempotencyKey", message: "was already used for a different roof" }] }, name }, { status: 422 });
+    return data(
+      {
+        error: {
+          message: keyReusedMessage(created.keyReused),
+          issues: [{ path: "idempotencyKey", message: "was already used for a different roof" }],
+        },
+        name,
+      },
+      { status: 422 },
+    );
   }
   return redirect(`/roofs/${created.id}?saved=1`);
 }

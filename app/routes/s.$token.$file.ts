@@ -3,7 +3,8 @@ import type { Route } from "./+types/s.$token.$file";
 import { savedSpecResponse, SCHEDULE_CSV, PLAN_DXF, type PackWriter } from "~/lib/pack/download.server";
 import { findSharedRoof } from "~/lib/share-links.server";
 
-const notFound = () => new Response("Not found", { status: 404, headers: { "Content-Type": "text/plain; charset=utf-8" } });
+const notFound = () =>
+  new Response("Not found", { status: 404, headers: { "Content-Type": "text/plain; charset=utf-8" } });
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const letter = new URL(request.url).searchParams.get("paper") === "letter";

@@ -22,7 +22,12 @@ export async function loader({ params }: Route.LoaderArgs) {
   const shared = await findSharedRoof(params.token);
   if (!shared) throw data("This link does not work: it was never made, or its owner has revoked it.", { status: 404 });
   const parsed = parseSpec(shared.spec);
-  return { name: shared.name, token: params.token, spec: parsed.ok ? parsed.spec : null, problem: parsed.ok ? null : parsed.error.message };
+  return {
+    name: shared.name,
+    token: params.token,
+    spec: parsed.ok ? parsed.spec : null,
+    problem: parsed.ok ? null : parsed.error.message,
+  };
 }
 
 export default function SharedRoof() {
@@ -40,7 +45,9 @@ export default function SharedRoof() {
       {spec ? (
         <SandboxWorkspace initialSpec={spec} readOnly restore={false} />
       ) : (
-        <p role="alert" className="card">This roof cannot be shown as saved: {problem}</p>
+        <p role="alert" className="card">
+          This roof cannot be shown as saved: {problem}
+        </p>
       )}
     </div>
   );

@@ -8,7 +8,9 @@ import { GeneralErrorBoundary } from "~/components/error-boundary";
 import { runAnalysis } from "~/components/sandbox/run-analysis";
 import { SHEET_SESSION_KEY } from "~/components/sandbox/sheet-link";
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.name ?? "Check sheet"} · check sheet · Fallwright` }];
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: `${data?.name ?? "Check sheet"} · check sheet · Fallwright` },
+];
 
 /** The sheet carries its own caution: the page footer leaves its copy out (one caution per sheet). */
 export const handle = { ownCaution: true };
@@ -32,7 +34,18 @@ function CheckSheetOf({ spec, name }: { spec: RoofSpec; name: string }) {
       </div>
     );
   }
-  return <CheckSheet name={name} spec={spec} analysis={outcome.analysis} back={<Link className="btn" to="/sandbox">Back to the sandbox</Link>} />;
+  return (
+    <CheckSheet
+      name={name}
+      spec={spec}
+      analysis={outcome.analysis}
+      back={
+        <Link className="btn" to="/sandbox">
+          Back to the sandbox
+        </Link>
+      }
+    />
+  );
 }
 
 export default function CheckSheetPage() {

@@ -34,7 +34,10 @@ import type { loader as shellLoader } from "./_shell";
 
 export const meta: Route.MetaFunction = () => [
   { title: "Sandbox · Fallwright" },
-  { name: "description", content: "Draw a parapet roof, place its outlets and see the warped surface, its falls and its water in 3D." },
+  {
+    name: "description",
+    content: "Draw a parapet roof, place its outlets and see the warped surface, its falls and its water in 3D.",
+  },
 ];
 
 export async function loader({ request }: Route.LoaderArgs) {
@@ -56,7 +59,8 @@ function SavedNote() {
   const shell = useRouteLoaderData<typeof shellLoader>("routes/_shell");
   const user = shell?.user;
   let text = "Nothing here is saved on the server. Sign in to keep roofs in your library.";
-  if (user && can(user.role, "roofs:own")) text = "This roof is kept in this browser tab only until you press “Save to my roofs”.";
+  if (user && can(user.role, "roofs:own"))
+    text = "This roof is kept in this browser tab only until you press “Save to my roofs”.";
   else if (user) text = "This roof is kept in this browser tab only; your role has no roof library.";
   return (
     <p className="text-sm text-ink-soft" data-testid="sandbox-saved-note">

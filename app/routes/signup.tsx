@@ -11,7 +11,8 @@ export const meta: Route.MetaFunction = () => [{ title: "Create a designer accou
 export async function loader({ request }: Route.LoaderArgs) {
   await requireAnonymous(request);
   const org = await primaryOrganisation();
-  if (!org?.open_designer_signup) return data({ open: false as const, organisationName: org?.name ?? "" }, { status: 404 });
+  if (!org?.open_designer_signup)
+    return data({ open: false as const, organisationName: org?.name ?? "" }, { status: 404 });
   return { open: true as const, organisationName: org.name };
 }
 
@@ -30,21 +31,50 @@ export default function SignUp() {
       <AuthCard title="Sign-up is closed">
         <p>Accounts on this Fallwright are made by invitation. Ask a trainer or an admin to invite you.</p>
         <p className="mt-5">
-          <Link className="btn" to="/login">Sign in</Link>
+          <Link className="btn" to="/login">
+            Sign in
+          </Link>
         </p>
       </AuthCard>
     );
   }
   return (
-    <AuthCard title="Create a designer account" lead={<>Designers can join <strong>{organisationName}</strong> on their own to check parapet roofs before detailing them.</>}>
+    <AuthCard
+      title="Create a designer account"
+      lead={
+        <>
+          Designers can join <strong>{organisationName}</strong> on their own to check parapet roofs before detailing
+          them.
+        </>
+      }
+    >
       <Form method="post" className="grid gap-4" noValidate>
         <FormError message={result?.formError} />
-        <Field label="E-mail" name="email" type="email" autoComplete="username" required autoFocus defaultValue={result?.values?.email ?? ""} error={result?.fieldErrors?.email} />
-        <Field label="Your name" name="name" autoComplete="name" required maxLength={100} defaultValue={result?.values?.name ?? ""} error={result?.fieldErrors?.name} />
+        <Field
+          label="E-mail"
+          name="email"
+          type="email"
+          autoComplete="username"
+          required
+          autoFocus
+          defaultValue={result?.values?.email ?? ""}
+          error={result?.fieldErrors?.email}
+        />
+        <Field
+          label="Your name"
+          name="name"
+          autoComplete="name"
+          required
+          maxLength={100}
+          defaultValue={result?.values?.name ?? ""}
+          error={result?.fieldErrors?.name}
+        />
         <NewPasswordFields errors={result?.fieldErrors} />
         <div className="flex flex-wrap items-center justify-between gap-3">
           <SubmitButton pendingText="Creating…">Create my account</SubmitButton>
-          <Link className="text-sm underline" to="/login">I have an account</Link>
+          <Link className="text-sm underline" to="/login">
+            I have an account
+          </Link>
         </div>
       </Form>
     </AuthCard>

@@ -77,7 +77,12 @@ app.use((req: Request, res: Response, next: NextFunction) => {
 });
 
 app.get("/metrics", metricsEndpoint());
-app.use(compression({ filter: (req, res) => !String(res.getHeader("Content-Type") ?? "").includes("text/event-stream") && compression.filter(req, res) }));
+app.use(
+  compression({
+    filter: (req, res) =>
+      !String(res.getHeader("Content-Type") ?? "").includes("text/event-stream") && compression.filter(req, res),
+  }),
+);
 app.use(securityHeaders({ production }));
 app.use(refuseCrossSite());
 app.use(capBodySize());
@@ -92,7 +97,8 @@ if (production) {
   const vite = await import("vite");
   const viteServer = await vite.createServer({ root, server: { middlewareMode: true } });
   app.use(viteServer.middlewares);
-  build = async () => guardInput((await viteServer.ssrLoadModule("virtual:react-router/server-build")) as ServerBuild, BODY_CAPS.upload);
+  build = async () =>
+    guardInput((await viteServer.ssrLoadModule("virtual:react-router/server-build")) as ServerBuild, BODY_CAPS.upload);
   labelFor = routeLabeller(null);
 }
 
@@ -114,7 +120,10 @@ app.use((error: unknown, req: Request, res: Response, _next: NextFunction) => {
   const id = res.locals.requestId as string | undefined;
   logger.error({ reqId: id, err: error, route: labelFor(req.path) }, "request failed outside the app");
   if (res.headersSent) return res.end();
-  res.status(500).type("text/plain").send(`Something went wrong on our side. Quote this reference if you report it: ${id}`);
+  res
+    .status(500)
+    .type("text/plain")
+    .send(`Something went wrong on our side. Quote this reference if you report it: ${id}`);
 });
 
 const server = app.listen(port, host, () => {
@@ -123,7 +132,10 @@ const server = app.listen(port, host, () => {
     pool("engine");
     pool("password");
   }, 500).unref();
-  logger.info({ url: `http://${host === "0.0.0.0" ? "localhost" : host}:${port}` }, `Fallwright is serving on http://${host === "0.0.0.0" ? "localhost" : host}:${port}`);
+  logger.info(
+    { url: `http://${host === "0.0.0.0" ? "localhost" : host}:${port}` },
+    `Fallwright is serving on http://${host === "0.0.0.0" ? "localhost" : host}:${port}`,
+  );
 });
 server.keepAliveTimeout = 65_000;
 

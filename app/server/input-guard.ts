@@ -17,7 +17,11 @@ const JSON_TYPE = /^application\/(.+\+)?json/i;
 
 function fieldProblem(name: string, value: string): InputProblem | null {
   const inName = textProblem(name);
-  if (inName) return { path: name.replaceAll("\u0000", "�").replace(/[\uD800-\uDFFF]/g, "�"), message: `is a field name that ${inName}` };
+  if (inName)
+    return {
+      path: name.replaceAll("\u0000", "�").replace(/[\uD800-\uDFFF]/g, "�"),
+      message: `is a field name that ${inName}`,
+    };
   const inValue = textProblem(value);
   if (inValue) return { path: name, message: inValue };
   if (ID_FIELDS.has(name) && value !== "" && !isUuid(value)) return { path: name, message: "must be an id (a UUID)" };
@@ -35,12 +39,16 @@ function fieldProblem(name: string, value: string): InputProblem | null {
   return null;
 }
 
-function urlProblem(url: URL, params: Record<string, string | undefined>): { status: 400 | 404; problem: InputProblem } | null {
+function urlProblem(
+  url: URL,
+  params: Record<string, string | undefined>,
+): { status: 400 | 404; problem: InputProblem } | null {
   for (const [name, value] of Object.entries(params)) {
     if (value === undefined) continue;
     const p = textProblem(value);
     if (p) return { status: 404, problem: { path: `:${name}`, message: p } };
-    if (name === "id" && !isUuid(value)) return { status: 404, problem: { path: ":id", message: "is not an id (a UUID)" } };
+    if (name === "id" && !isUuid(value))
+      return { status: 404, problem: { path: ":id", message: "is not an id (a UUID)" } };
   }
   for (const [name, value] of url.searchParams) {
     const p = fieldProblem(name, value);
@@ -74,12 +82,20 @@ async function readAtMost(body: ReadableStream<Uint8Array>, limit: number): Prom
 }
 
 /** Bodies are read here once (within the host's cap), checked, and handed on as a fresh Request. */
-async function bodyProblem(request: Request, limit: number): Promise<{ request: Request; problem: InputProblem | null; tooLarge?: boolean }> {
+async function bodyProblem(
+  request: Request,
+  limit: number,
+): Promise<{ request: Request; problem: InputProblem | null; tooLarge?: boolean }> {
   const type = request.headers.get("content-type") ?? "";
   if (!request.body || !(FORM.test(type) || JSON_TYPE.test(type))) return { request, problem: null };
   const bytes = await readAtMost(request.body, limit);
   if (!bytes) return { request, problem: null, tooLarge: true };
-  const copy = new Request(request.url, { method: request.method, headers: request.headers, body: bytes as Uint8Array<ArrayBuffer>, signal: request.signal });
+  const copy = new Request(request.url, {
+    method: request.method,
+    headers: request.headers,
+    body: bytes as Uint8Array<ArrayBuffer>,
+    signal: request.signal,
+  });
   if (JSON_TYPE.test(type)) {
     let value: unknown;
     try {
@@ -96,7 +112,13 @@ async function bodyProblem(request: Request, limit: number): Promise<{ request: 
     return { request: copy, problem: null }; // the route answers "could not be read"
   }
   for (const [name, value] of form) {
-    const p = typeof value === "string" ? fieldProblem(name, value) : fieldProblem(name, "") ?? (textProblem(value.name) ? { path: name, message: `has a file name that ${textProblem(value.name)}` } : null);
+    const p =
+      typeof value === "string"
+        ? fieldProblem(name, value)
+        : (fieldProblem(name, "") ??
+          (textProblem(value.name)
+            ? { path: name, message: `has a file name that ${textProblem(value.name)}` }
+            : null));
     if (p) return { request: copy, problem: p };
   }
   return { request: copy, problem: null };

@@ -33,7 +33,10 @@ export function metricsEndpoint() {
   return async (req: Request, res: Response) => {
     res.setHeader("Cache-Control", "no-store");
     if (!isLocalCaller(req) && !tokenMatches(req, process.env.METRICS_TOKEN)) {
-      res.status(403).type("text/plain").send("Metrics are served to this machine only, or with the configured token (METRICS_TOKEN).");
+      res
+        .status(403)
+        .type("text/plain")
+        .send("Metrics are served to this machine only, or with the configured token (METRICS_TOKEN).");
       return;
     }
     const { registry } = metrics();

@@ -15,8 +15,14 @@ export function routeLabeller(build: ServerBuild | null): (path: string) => stri
   };
   const patterns = [...new Set(Object.keys(routes).map((id) => full(id) || "/"))].map((pattern) => {
     const segments = pattern.split("/").filter(Boolean);
-    const source = segments.map((s) => (s === "*" ? ".*" : s.startsWith(":") ? "[^/]+" : s.replace(/[.*+?^${}()|[\]\\]/g, "\\$&"))).join("/");
-    return { pattern, re: new RegExp(`^/${source}/?$`), statics: segments.filter((s) => !s.startsWith(":") && s !== "*").length };
+    const source = segments
+      .map((s) => (s === "*" ? ".*" : s.startsWith(":") ? "[^/]+" : s.replace(/[.*+?^${}()|[\]\\]/g, "\\$&")))
+      .join("/");
+    return {
+      pattern,
+      re: new RegExp(`^/${source}/?$`),
+      statics: segments.filter((s) => !s.startsWith(":") && s !== "*").length,
+    };
   });
   patterns.sort((a, b) => b.statics - a.statics);
   return (rawPath: string) => {

@@ -124,7 +124,8 @@ export function capBodySize(caps: BodyCaps = BODY_CAPS) {
     });
     // A client that goes away mid-body: the app's reader gets an error instead of waiting forever.
     req.once("close", () => {
-      if (!req.readableEnded && !counted.destroyed) counted.destroy(new Error("the client closed the request before its body ended"));
+      if (!req.readableEnded && !counted.destroyed)
+        counted.destroy(new Error("the client closed the request before its body ended"));
     });
     req.pipe(counted);
     res.locals.body = counted;
@@ -132,7 +133,25 @@ export function capBodySize(caps: BodyCaps = BODY_CAPS) {
   };
 }
 
-const STREAM_KEYS = new Set<PropertyKey>(["on", "once", "off", "addListener", "removeListener", "removeAllListeners", "pause", "resume", "readable", "destroy", "readableHighWaterMark", "pipe", "unpipe", "read", "isPaused", "readableEnded", Symbol.asyncIterator]);
+const STREAM_KEYS = new Set<PropertyKey>([
+  "on",
+  "once",
+  "off",
+  "addListener",
+  "removeListener",
+  "removeAllListeners",
+  "pause",
+  "resume",
+  "readable",
+  "destroy",
+  "readableHighWaterMark",
+  "pipe",
+  "unpipe",
+  "read",
+  "isPaused",
+  "readableEnded",
+  Symbol.asyncIterator,
+]);
 
 /**
  * The request as React Router's adapter should see it: every property the request's own, except

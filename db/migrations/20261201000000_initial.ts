@@ -178,9 +178,22 @@ export async function up(knex: Knex): Promise<void> {
 
 export async function down(knex: Knex): Promise<void> {
   for (const table of [
-    "attempt_reviews", "attempts", "assignments", "class_members", "classes", "lesson_versions",
-    "lessons", "roof_versions", "roofs", "uploads", "audit_log", "rate_limits", "tokens", "sessions",
-    "users", "organisations",
+    "attempt_reviews",
+    "attempts",
+    "assignments",
+    "class_members",
+    "classes",
+    "lesson_versions",
+    "lessons",
+    "roof_versions",
+    "roofs",
+    "uploads",
+    "audit_log",
+    "rate_limits",
+    "tokens",
+    "sessions",
+    "users",
+    "organisations",
   ]) {
     await knex.schema.dropTableIfExists(table);
   }

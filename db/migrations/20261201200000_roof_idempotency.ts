@@ -5,7 +5,9 @@ export async function up(knex: Knex): Promise<void> {
   await knex.schema.alterTable("roofs", (t) => {
     t.text("idempotency_key");
   });
-  await knex.raw(`create unique index roofs_owner_idempotency on roofs (owner_id, idempotency_key) where idempotency_key is not null`);
+  await knex.raw(
+    `create unique index roofs_owner_idempotency on roofs (owner_id, idempotency_key) where idempotency_key is not null`,
+  );
 }
 
 export async function down(knex: Knex): Promise<void> {

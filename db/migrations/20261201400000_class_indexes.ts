@@ -10,7 +10,13 @@ export async function up(knex: Knex): Promise<void> {
 }
 
 export async function down(knex: Knex): Promise<void> {
-  for (const name of ["attempt_reviews_attempt_at", "attempts_trainee_lesson", "tokens_pending_class", "class_members_user", "classes_trainer"]) {
+  for (const name of [
+    "attempt_reviews_attempt_at",
+    "attempts_trainee_lesson",
+    "tokens_pending_class",
+    "class_members_user",
+    "classes_trainer",
+  ]) {
     await knex.raw(`drop index if exists ${name}`);
   }
 }

@@ -25,7 +25,12 @@ export const DEMO_ROOFS = [
     name: "Library annex, Harrow Lane",
     owner: "designer@tidemark.example",
     spec: {
-      outline: [[0, 0], [18, 0], [18, 9], [0, 9]],
+      outline: [
+        [0, 0],
+        [18, 0],
+        [18, 9],
+        [0, 9],
+      ],
       outlets: [{ at: [9, 0] }],
       baseFall: "1:60",
       joists: { spacing: 0.4 },
@@ -36,7 +41,12 @@ export const DEMO_ROOFS = [
     name: "Shop roofs 4-8, Quayside Row",
     owner: "designer@tidemark.example",
     spec: {
-      outline: [[0, 0], [24, 0], [24, 7.5], [0, 7.5]],
+      outline: [
+        [0, 0],
+        [24, 0],
+        [24, 7.5],
+        [0, 7.5],
+      ],
       outlets: [{ at: [6, 0] }, { at: [18, 0] }],
       baseFall: "1:60",
       joists: { spacing: 0.4 },
@@ -46,7 +56,14 @@ export const DEMO_ROOFS = [
     name: "L-shaped clinic, Fernbrook",
     owner: "trainer@tidemark.example",
     spec: {
-      outline: [[0, 0], [20, 0], [20, 8], [8, 8], [8, 16], [0, 16]],
+      outline: [
+        [0, 0],
+        [20, 0],
+        [20, 8],
+        [8, 8],
+        [8, 16],
+        [0, 16],
+      ],
       outlets: [{ at: [4, 0] }, { at: [16, 0] }],
       baseFall: "1:60",
       joists: { spacing: 0.4 },
@@ -56,7 +73,12 @@ export const DEMO_ROOFS = [
     name: "Deck over garage, 11 Saltmarsh Close",
     owner: "trainee@tidemark.example",
     spec: {
-      outline: [[0, 0], [6, 0], [6, 5], [0, 5]],
+      outline: [
+        [0, 0],
+        [6, 0],
+        [6, 5],
+        [0, 5],
+      ],
       edges: ["parapet", "parapet", "eaves", "parapet"],
       outlets: [],
       baseFall: "1:60",
@@ -91,7 +113,13 @@ export async function seed(knex: Knex): Promise<void> {
       const [roof] = await trx("roofs")
         .insert({ owner_id: ownerId, name: r.name, spec: JSON.stringify(r.spec), shared: true })
         .returning("id");
-      await trx("roof_versions").insert({ roof_id: roof.id, version: 1, name: r.name, spec: JSON.stringify(r.spec), saved_by: ownerId });
+      await trx("roof_versions").insert({
+        roof_id: roof.id,
+        version: 1,
+        name: r.name,
+        spec: JSON.stringify(r.spec),
+        saved_by: ownerId,
+      });
     });
   }
 
@@ -110,6 +138,9 @@ export async function seed(knex: Knex): Promise<void> {
       .returning("*");
   }
   for (const email of ["trainee@tidemark.example", "trainee2@tidemark.example", "trainee3@tidemark.example"]) {
-    await knex("class_members").insert({ class_id: cls.id, user_id: ids[email] }).onConflict(["class_id", "user_id"]).ignore();
+    await knex("class_members")
+      .insert({ class_id: cls.id, user_id: ids[email] })
+      .onConflict(["class_id", "user_id"])
+      .ignore();
   }
 }

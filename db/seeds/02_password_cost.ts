@@ -17,6 +17,7 @@ export async function seed(knex: Knex): Promise<void> {
   if (!rows.length) return;
   const hash = await bcrypt.hash(DEMO_PASSWORD, COST);
   for (const r of rows) {
-    if (await bcrypt.compare(DEMO_PASSWORD, r.password_hash)) await knex("users").where({ id: r.id }).update({ password_hash: hash });
+    if (await bcrypt.compare(DEMO_PASSWORD, r.password_hash))
+      await knex("users").where({ id: r.id }).update({ password_hash: hash });
   }
 }

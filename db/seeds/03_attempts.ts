@@ -10,16 +10,72 @@ import { loadLessons } from "../../app/lib/lessons/load.server.ts";
 import type { Lesson } from "../../app/lib/lessons/schema.ts";
 import { courseDir } from "./02_lessons.ts";
 
-type Plan = { key: string; trainee: string; lesson: string; answers: "right" | "half"; roof: "start" | "reference"; at: string; minutes: number };
+type Plan = {
+  key: string;
+  trainee: string;
+  lesson: string;
+  answers: "right" | "half";
+  roof: "start" | "reference";
+  at: string;
+  minutes: number;
+};
 
 // Invented history: Tess passes lesson 1 and needs two goes at lesson 2; Marco and Priya have started.
 const PLANS: Plan[] = [
-  { key: "demo-tess-01-a", trainee: "trainee@tidemark.example", lesson: "reading-falls", answers: "right", roof: "reference", at: "2027-03-01T10:20:00Z", minutes: 18 },
-  { key: "demo-tess-02-a", trainee: "trainee@tidemark.example", lesson: "why-water-stands", answers: "half", roof: "start", at: "2027-03-02T09:40:00Z", minutes: 12 },
-  { key: "demo-tess-02-b", trainee: "trainee@tidemark.example", lesson: "why-water-stands", answers: "right", roof: "reference", at: "2027-03-02T10:05:00Z", minutes: 9 },
-  { key: "demo-marco-01-a", trainee: "trainee2@tidemark.example", lesson: "reading-falls", answers: "half", roof: "start", at: "2027-03-01T11:02:00Z", minutes: 22 },
-  { key: "demo-marco-03-a", trainee: "trainee2@tidemark.example", lesson: "outlets-and-overflows", answers: "right", roof: "reference", at: "2027-03-03T14:15:00Z", minutes: 26 },
-  { key: "demo-priya-05-a", trainee: "trainee3@tidemark.example", lesson: "shaping-to-an-outlet", answers: "right", roof: "reference", at: "2027-03-04T13:30:00Z", minutes: 31 },
+  {
+    key: "demo-tess-01-a",
+    trainee: "trainee@tidemark.example",
+    lesson: "reading-falls",
+    answers: "right",
+    roof: "reference",
+    at: "2027-03-01T10:20:00Z",
+    minutes: 18,
+  },
+  {
+    key: "demo-tess-02-a",
+    trainee: "trainee@tidemark.example",
+    lesson: "why-water-stands",
+    answers: "half",
+    roof: "start",
+    at: "2027-03-02T09:40:00Z",
+    minutes: 12,
+  },
+  {
+    key: "demo-tess-02-b",
+    trainee: "trainee@tidemark.example",
+    lesson: "why-water-stands",
+    answers: "right",
+    roof: "reference",
+    at: "2027-03-02T10:05:00Z",
+    minutes: 9,
+  },
+  {
+    key: "demo-marco-01-a",
+    trainee: "trainee2@tidemark.example",
+    lesson: "reading-falls",
+    answers: "half",
+    roof: "start",
+    at: "2027-03-01T11:02:00Z",
+    minutes: 22,
+  },
+  {
+    key: "demo-marco-03-a",
+    trainee: "trainee2@tidemark.example",
+    lesson: "outlets-and-overflows",
+    answers: "right",
+    roof: "reference",
+    at: "2027-03-03T14:15:00Z",
+    minutes: 26,
+  },
+  {
+    key: "demo-priya-05-a",
+    trainee: "trainee3@tidemark.example",
+    lesson: "shaping-to-an-outlet",
+    answers: "right",
+    roof: "reference",
+    at: "2027-03-04T13:30:00Z",
+    minutes: 31,
+  },
 ];
 
 /** The author's answers, or every other one left blank. */

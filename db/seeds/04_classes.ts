@@ -27,15 +27,27 @@ async function userId(knex: Knex, email: string): Promise<string | null> {
 }
 
 async function assign(knex: Knex, classId: string, items: { slug: string; due: string }[]) {
-  const known = new Set<string>(await knex("lessons").whereIn("slug", items.map((i) => i.slug)).pluck("slug"));
+  const known = new Set<string>(
+    await knex("lessons")
+      .whereIn(
+        "slug",
+        items.map((i) => i.slug),
+      )
+      .pluck("slug"),
+  );
   for (const i of items.filter((x) => known.has(x.slug))) {
-    await knex("assignments").insert({ class_id: classId, lesson_slug: i.slug, due_on: i.due }).onConflict(["class_id", "lesson_slug"]).ignore();
+    await knex("assignments")
+      .insert({ class_id: classId, lesson_slug: i.slug, due_on: i.due })
+      .onConflict(["class_id", "lesson_slug"])
+      .ignore();
   }
 }
 
 export async function seed(knex: Knex): Promise<void> {
   const springTrainer = await userId(knex, SPRING.trainer);
-  const spring = springTrainer ? await knex("classes").where({ trainer_id: springTrainer, name: SPRING.name }).first("id", "organisation_id") : null;
+  const spring = springTrainer
+    ? await knex("classes").where({ trainer_id: springTrainer, name: SPRING.name }).first("id", "organisation_id")
+    : null;
   if (!spring) return;
   await assign(knex, spring.id, SPRING_ASSIGNMENTS);
 
@@ -44,7 +56,14 @@ export async function seed(knex: Knex): Promise<void> {
     let autumn = await knex("classes").where({ trainer_id: autumnTrainer, name: AUTUMN.name }).first("id");
     if (!autumn) {
       [autumn] = await knex("classes")
-        .insert({ organisation_id: spring.organisation_id, trainer_id: autumnTrainer, name: AUTUMN.name, starts_on: AUTUMN.starts_on, ends_on: AUTUMN.ends_on, venue: AUTUMN.venue })
+        .insert({
+          organisation_id: spring.organisation_id,
+          trainer_id: autumnTrainer,
+          name: AUTUMN.name,
+          starts_on: AUTUMN.starts_on,
+          ends_on: AUTUMN.ends_on,
+          venue: AUTUMN.venue,
+        })
         .returning("id");
     }
     await assign(knex, autumn.id, AUTUMN.assignments);
@@ -52,12 +71,19 @@ export async function seed(knex: Knex): Promise<void> {
 
   // Tess's first go at lesson 2 (03_attempts.ts) gets a comment from her trainer.
   const tess = await userId(knex, "trainee@tidemark.example");
-  const attempt = tess ? await knex("attempts").where({ trainee_id: tess, idempotency_key: "demo-tess-02-a" }).first("id") : null;
-  if (attempt && springTrainer && !(await knex("attempt_reviews").where({ attempt_id: attempt.id, reviewer_id: springTrainer }).first("id"))) {
+  const attempt = tess
+    ? await knex("attempts").where({ trainee_id: tess, idempotency_key: "demo-tess-02-a" }).first("id")
+    : null;
+  if (
+    attempt &&
+    springTrainer &&
+    !(await knex("attempt_reviews").where({ attempt_id: attempt.id, reviewer_id: springTrainer }).first("id"))
+  ) {
     await knex("attempt_reviews").insert({
       attempt_id: attempt.id,
       reviewer_id: springTrainer,
-      comment: "Good start on the quiz. On the roof, look at where the water stands before you change the fall: the outlet is the problem, not the slope.",
+      comment:
+        "Good start on the quiz. On the roof, look at where the water stands before you change the fall: the outlet is the problem, not the slope.",
       at: "2027-03-02T09:55:00Z",
     });
   }

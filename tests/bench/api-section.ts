@@ -21,7 +21,8 @@ function pin(pid: number, core: number): boolean {
 
 async function rps(url: string, init: { method: "GET" | "POST"; headers?: Record<string, string>; body?: string }) {
   const r = await autocannon({ url, connections: 10, duration: Math.max(1, SECONDS / ROUNDS), ...init });
-  if (r.errors || r.timeouts || r.non2xx) throw new Error(`${init.method} ${url}: ${r.errors} errors, ${r.timeouts} timeouts, ${r.non2xx} non-2xx`);
+  if (r.errors || r.timeouts || r.non2xx)
+    throw new Error(`${init.method} ${url}: ${r.errors} errors, ${r.timeouts} timeouts, ${r.non2xx} non-2xx`);
   return { rps: r.requests.average, p99: r.latency.p99 };
 }
 
@@ -39,16 +40,35 @@ export const apiSection: Section = {
       // Warm up both routes first, as the engine section does, so neither figure includes the
       // JIT compiling its code.
       await warmUp(`${server.url}/api/v1`, { method: "GET" });
-      await warmUp(`${server.url}/api/v1/analyses`, { method: "POST", headers: json, body: JSON.stringify(SMALL_ROOF) });
+      await warmUp(`${server.url}/api/v1/analyses`, {
+        method: "POST",
+        headers: json,
+        body: JSON.stringify(SMALL_ROOF),
+      });
       const trivials: Awaited<ReturnType<typeof rps>>[] = [];
       const leans: typeof trivials = [];
       const fulls: typeof trivials = [];
       for (let round = 0; round < ROUNDS; round++) {
         trivials.push(await rps(`${server.url}/api/v1`, { method: "GET" }));
-        leans.push(await rps(`${server.url}/api/v1/analyses`, { method: "POST", headers: json, body: JSON.stringify(SMALL_ROOF) }));
-        fulls.push(await rps(`${server.url}/api/v1/analyses?mesh=true&traces=true`, { method: "POST", headers: json, body: JSON.stringify(SMALL_ROOF) }));
+        leans.push(
+          await rps(`${server.url}/api/v1/analyses`, {
+            method: "POST",
+            headers: json,
+            body: JSON.stringify(SMALL_ROOF),
+          }),
+        );
+        fulls.push(
+          await rps(`${server.url}/api/v1/analyses?mesh=true&traces=true`, {
+            method: "POST",
+            headers: json,
+            body: JSON.stringify(SMALL_ROOF),
+          }),
+        );
       }
-      const mid = (xs: Awaited<ReturnType<typeof rps>>[]) => ({ rps: median(xs.map((x) => x.rps)), p99: median(xs.map((x) => x.p99)) });
+      const mid = (xs: Awaited<ReturnType<typeof rps>>[]) => ({
+        rps: median(xs.map((x) => x.rps)),
+        p99: median(xs.map((x) => x.p99)),
+      });
       const trivial = mid(trivials);
       const lean = mid(leans);
       const full = mid(fulls);
@@ -59,9 +79,33 @@ export const apiSection: Section = {
       const spread = `${ROUNDS} rounds, middle half ${quartile(0.25)}–${quartile(0.75)}, all ${ratios[0].toFixed(2)}–${ratios[ratios.length - 1].toFixed(2)}`;
       const note = pinned ? "server on core 0, load on core 1" : "not pinned (taskset unavailable)";
       return [
-        { name: "GET /api/v1 (trivial JSON)", value: trivial.rps, unit: "req/s", score: 1, target: "baseline", pass: true, note: `p99 ${trivial.p99} ms; ${note}` },
-        { name: "POST /api/v1/analyses", value: lean.rps, unit: "req/s", score: leanRatio, target: "≥ 0.5 of baseline", pass: leanRatio >= 0.5, note: `p99 ${lean.p99} ms; the default answer (figures, no mesh); ${spread}` },
-        { name: "…?mesh=true&traces=true", value: full.rps, unit: "req/s", score: fullRatio, target: "reported", pass: true, note: `p99 ${full.p99} ms; with the 3D mesh and flow traces` },
+        {
+          name: "GET /api/v1 (trivial JSON)",
+          value: trivial.rps,
+          unit: "req/s",
+          score: 1,
+          target: "baseline",
+          pass: true,
+          note: `p99 ${trivial.p99} ms; ${note}`,
+        },
+        {
+          name: "POST /api/v1/analyses",
+          value: lean.rps,
+          unit: "req/s",
+          score: leanRatio,
+          target: "≥ 0.5 of baseline",
+          pass: leanRatio >= 0.5,
+          note: `p99 ${lean.p99} ms; the default answer (figures, no mesh); ${spread}`,
+        },
+        {
+          name: "…?mesh=true&traces=true",
+          value: full.rps,
+          unit: "req/s",
+          score: fullRatio,
+          target: "reported",
+          pass: true,
+          note: `p99 ${full.p99} ms; with the 3D mesh and flow traces`,
+        },
       ];
     } finally {
       await stop();

@@ -30,14 +30,31 @@ export const BENCH_ROOFS: { name: string; area: number; frames: number; spec: Ro
     name: "small (15 × 10 m, 150 m²)",
     area: 150,
     frames: 0.1,
-    spec: { outline: [[0, 0], [15, 0], [15, 10], [0, 10]], outlets: [{ at: [7.5, 0] }], baseFall: "1:60", joists: { spacing: 0.4 } },
+    spec: {
+      outline: [
+        [0, 0],
+        [15, 0],
+        [15, 10],
+        [0, 10],
+      ],
+      outlets: [{ at: [7.5, 0] }],
+      baseFall: "1:60",
+      joists: { spacing: 0.4 },
+    },
   },
   {
     name: "medium (L-shape, 1,500 m²)",
     area: 1500,
     frames: 0.5,
     spec: {
-      outline: [[0, 0], [50, 0], [50, 21], [30, 21], [30, 36], [0, 36]],
+      outline: [
+        [0, 0],
+        [50, 0],
+        [50, 21],
+        [30, 21],
+        [30, 36],
+        [0, 36],
+      ],
       outlets: [{ at: [12.5, 0] }, { at: [37.5, 0] }],
       baseFall: "1:50",
       joists: { spacing: 0.4 },
@@ -49,16 +66,63 @@ export const BENCH_ROOFS: { name: string; area: number; frames: number; spec: Ro
     frames: 0.5,
     // The medium L with three rooflights, a hatch and a plant base (one across a fall line).
     spec: {
-      outline: [[0, 0], [50, 0], [50, 21], [30, 21], [30, 36], [0, 36]],
+      outline: [
+        [0, 0],
+        [50, 0],
+        [50, 21],
+        [30, 21],
+        [30, 36],
+        [0, 36],
+      ],
       outlets: [{ at: [12.5, 0] }, { at: [37.5, 0] }],
       baseFall: "1:50",
       joists: { spacing: 0.4 },
       openings: [
-        { outline: [[4, 8], [7, 8], [7, 11], [4, 11]], kind: "rooflight" },
-        { outline: [[18, 8], [21, 8], [21, 11], [18, 11]], kind: "rooflight" },
-        { outline: [[40, 10], [43, 10], [43, 13], [40, 13]], kind: "rooflight" },
-        { outline: [[8, 25], [9.5, 25], [9.5, 26.5], [8, 26.5]], kind: "hatch" },
-        { outline: [[10, 14], [15, 14], [15, 17], [10, 17]], kind: "plant" },
+        {
+          outline: [
+            [4, 8],
+            [7, 8],
+            [7, 11],
+            [4, 11],
+          ],
+          kind: "rooflight",
+        },
+        {
+          outline: [
+            [18, 8],
+            [21, 8],
+            [21, 11],
+            [18, 11],
+          ],
+          kind: "rooflight",
+        },
+        {
+          outline: [
+            [40, 10],
+            [43, 10],
+            [43, 13],
+            [40, 13],
+          ],
+          kind: "rooflight",
+        },
+        {
+          outline: [
+            [8, 25],
+            [9.5, 25],
+            [9.5, 26.5],
+            [8, 26.5],
+          ],
+          kind: "hatch",
+        },
+        {
+          outline: [
+            [10, 14],
+            [15, 14],
+            [15, 17],
+            [10, 17],
+          ],
+          kind: "plant",
+        },
       ],
     },
   },
@@ -68,7 +132,12 @@ export const BENCH_ROOFS: { name: string; area: number; frames: number; spec: Ro
     frames: 3,
     // Outlets on facing edges are staggered: facing ones would leave a level joist between them.
     spec: {
-      outline: [[0, 0], [100, 0], [100, 100], [0, 100]],
+      outline: [
+        [0, 0],
+        [100, 0],
+        [100, 100],
+        [0, 100],
+      ],
       outlets: [{ at: [25, 0] }, { at: [75, 0] }, { at: [50, 100] }],
       baseFall: "1:60",
       joists: { spacing: 0.4 },
@@ -87,7 +156,11 @@ const cpuMs = () => {
  * Median wall time of `fn` over a fixed time budget, after a warm-up; also the median CPU time
  * of this process per run, which other work on a shared machine disturbs less.
  */
-export function timeIt(fn: () => unknown, budgetMs = 1500, minRuns = 15): { median: number; cpu: number; runs: number } {
+export function timeIt(
+  fn: () => unknown,
+  budgetMs = 1500,
+  minRuns = 15,
+): { median: number; cpu: number; runs: number } {
   const warmEnd = performance.now() + budgetMs / 4;
   while (performance.now() < warmEnd) fn();
   const times: number[] = [];
@@ -108,7 +181,11 @@ export const engineSection: Section = {
   title: "Engine: build and analyse a roof (median, share of a 16.7 ms frame)",
   run() {
     return BENCH_ROOFS.map((roof) => {
-      const { median: ms, cpu, runs } = timeIt(() => {
+      const {
+        median: ms,
+        cpu,
+        runs,
+      } = timeIt(() => {
         const parsed = parseSpec(roof.spec);
         if (!parsed.ok) throw new Error(parsed.error.message);
         return analyse(parsed.spec);
@@ -143,7 +220,9 @@ function printRows(title: string, rows: BenchRow[]): void {
 export async function main(sections: Section[] = SECTIONS): Promise<boolean> {
   let ok = true;
   const [load] = loadavg();
-  console.log(`Load average ${load.toFixed(2)} on this machine: figures are wall-clock medians, which other work slows.`);
+  console.log(
+    `Load average ${load.toFixed(2)} on this machine: figures are wall-clock medians, which other work slows.`,
+  );
   for (const section of sections) {
     const rows = await section.run();
     printRows(section.title, rows);

@@ -46,11 +46,19 @@ export async function signIn(base: string, email: string, password = "fallwright
     body: new URLSearchParams({ email, password }),
   });
   if (res.status !== 302) throw new Error(`sign-in as ${email} answered ${res.status}`);
-  return res.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
+  return res.headers
+    .getSetCookie()
+    .map((c) => c.split(";")[0])
+    .join("; ");
 }
 
 export const SMALL_ROOF = {
-  outline: [[0, 0], [15, 0], [15, 10], [0, 10]],
+  outline: [
+    [0, 0],
+    [15, 0],
+    [15, 10],
+    [0, 10],
+  ],
   outlets: [{ at: [7.5, 0] }],
   baseFall: "1:60",
   joists: { spacing: 0.4 },

@@ -37,19 +37,36 @@ try {
       ...Array.from({ length: 3 }, () => [
         { method: "POST" as const, path: "/api/v1/analyses", headers: json, body: JSON.stringify(SMALL_ROOF) },
         { method: "GET" as const, path: `/api/v1/roofs/${roof.id}`, headers: { cookie: designer } },
-        { method: "POST" as const, path: "/api/v1/analyses", headers: json, body: JSON.stringify({ ...SMALL_ROOF, baseFall: "1:40" }) },
+        {
+          method: "POST" as const,
+          path: "/api/v1/analyses",
+          headers: json,
+          body: JSON.stringify({ ...SMALL_ROOF, baseFall: "1:40" }),
+        },
         { method: "GET" as const, path: "/api/v1/roofs", headers: { cookie: designer } },
         { method: "GET" as const, path: "/gradebook", headers: { cookie: trainer } },
       ]).flat(),
-      { method: "POST", path: "/api/v1/roofs", headers: { ...json, cookie: designer }, body: JSON.stringify({ name: "Load save", spec: SMALL_ROOF }) },
-      { method: "POST", path: "/login", headers: { "Content-Type": "application/x-www-form-urlencoded", Origin: base }, body: signInBody },
+      {
+        method: "POST",
+        path: "/api/v1/roofs",
+        headers: { ...json, cookie: designer },
+        body: JSON.stringify({ name: "Load save", spec: SMALL_ROOF }),
+      },
+      {
+        method: "POST",
+        path: "/login",
+        headers: { "Content-Type": "application/x-www-form-urlencoded", Origin: base },
+        body: signInBody,
+      },
     ],
   });
   const errors = result.errors + result.timeouts + result.non2xx - (result["3xx"] ?? 0);
   console.log(`\nload: ${connections} clients for ${seconds} s, mixed workload (analyses, gradebook, roofs, sign-in)`);
   console.log(`requests: ${result.requests.total}, ${result.requests.average.toFixed(0)} req/s`);
   console.log(`latency: p50 ${result.latency.p50} ms, p99 ${result.latency.p99} ms, max ${result.latency.max} ms`);
-  console.log(`errors: ${result.errors}, timeouts: ${result.timeouts}, non-2xx/3xx: ${result.non2xx - (result["3xx"] ?? 0)}`);
+  console.log(
+    `errors: ${result.errors}, timeouts: ${result.timeouts}, non-2xx/3xx: ${result.non2xx - (result["3xx"] ?? 0)}`,
+  );
   console.log(`status codes: ${JSON.stringify(result.statusCodeStats)}`);
   if (errors > 0) {
     console.log("FAIL: the load run saw errors");

@@ -57,7 +57,15 @@ export const responsivenessSection: Section = {
       const worst = Math.max(...during);
       const added = median(during) - median(idle);
       return [
-        { name: "GET /healthz, idle", value: median(idle), unit: "ms", score: median(idle), target: "reported", pass: true, note: `median of ${idle.length}; max ${Math.max(...idle).toFixed(1)} ms` },
+        {
+          name: "GET /healthz, idle",
+          value: median(idle),
+          unit: "ms",
+          score: median(idle),
+          target: "reported",
+          pass: true,
+          note: `median of ${idle.length}; max ${Math.max(...idle).toFixed(1)} ms`,
+        },
         {
           name: "GET /healthz, heavy analysis running",
           value: median(during),

@@ -32,13 +32,16 @@ async function scriptsOf(page: Page, path: string) {
   await page.waitForLoadState("networkidle");
   // Scripts a worker imports count as the worker's.
   for (const w of page.workers()) {
-    for (const url of await w.evaluate(() => performance.getEntriesByType("resource").map((e) => e.name))) workers.add(url);
+    for (const url of await w.evaluate(() => performance.getEntriesByType("resource").map((e) => e.name)))
+      workers.add(url);
   }
   return { scripts, workers };
 }
 
 for (const b of BUDGETS) {
-  test(`JavaScript for ${b.path} stays within ${b.kb} kB gzip (workers included)${b.three ? "" : " and has no three.js"}`, async ({ page }) => {
+  test(`JavaScript for ${b.path} stays within ${b.kb} kB gzip (workers included)${b.three ? "" : " and has no three.js"}`, async ({
+    page,
+  }) => {
     const { scripts, workers } = await scriptsOf(page, b.path);
     expect(scripts.size).toBeGreaterThan(0);
     let main = 0;
@@ -47,14 +50,21 @@ for (const b of BUDGETS) {
     const rows: string[] = [];
     for (const [url, body] of scripts) {
       const size = gzipSync(body).length;
-      rows.push(`${(size / 1024).toFixed(1).padStart(7)} kB ${workers.has(url) ? "worker" : "main  "} ${new URL(url).pathname}`);
+      rows.push(
+        `${(size / 1024).toFixed(1).padStart(7)} kB ${workers.has(url) ? "worker" : "main  "} ${new URL(url).pathname}`,
+      );
       if (workers.has(url)) worker += size;
       else main += size;
       if (body.includes("WebGLRenderer")) hasThree = true;
     }
-    test.info().annotations.push({ type: "gzip kB", description: `main ${(main / 1024).toFixed(1)}, worker ${(worker / 1024).toFixed(1)}` });
+    test.info().annotations.push({
+      type: "gzip kB",
+      description: `main ${(main / 1024).toFixed(1)}, worker ${(worker / 1024).toFixed(1)}`,
+    });
     console.log(rows.sort().reverse().slice(0, 12).join("\n"));
-    console.log(`${b.path}: main thread ${(main / 1024).toFixed(1)} kB gzip, worker ${(worker / 1024).toFixed(1)} kB gzip`);
+    console.log(
+      `${b.path}: main thread ${(main / 1024).toFixed(1)} kB gzip, worker ${(worker / 1024).toFixed(1)} kB gzip`,
+    );
     if (b.path === "/sandbox") expect(worker).toBeGreaterThan(0);
     expect((main + worker) / 1024).toBeLessThanOrEqual(b.kb);
     expect(hasThree).toBe(b.three);

@@ -31,7 +31,13 @@ async function mailTo(to: string, subject: RegExp): Promise<Spooled> {
   await expect
     .poll(
       () => {
-        const names = fs.existsSync(dir) ? fs.readdirSync(dir).filter((n) => n.endsWith(".json")).sort().reverse() : [];
+        const names = fs.existsSync(dir)
+          ? fs
+              .readdirSync(dir)
+              .filter((n) => n.endsWith(".json"))
+              .sort()
+              .reverse()
+          : [];
         for (const n of names) {
           try {
             const m = JSON.parse(fs.readFileSync(path.join(dir, n), "utf8")) as Spooled;
@@ -108,7 +114,14 @@ test("trainer runs a class end to end: invite, join, attempt, gradebook, overrid
   await expect(a.page.getByText("5 Oct 2027")).toBeVisible();
   const lesson = await (await a.page.request.get(`/api/v1/lessons/${LESSON.slug}`)).json();
   const submitted = await a.page.request.post("/api/v1/attempts", {
-    data: { lesson: LESSON.slug, version: lesson.lesson.version, answers: {}, spec: lesson.lesson.task.start, idempotencyKey: `e2e-${tag}`, timeSpentSeconds: 60 },
+    data: {
+      lesson: LESSON.slug,
+      version: lesson.lesson.version,
+      answers: {},
+      spec: lesson.lesson.task.start,
+      idempotencyKey: `e2e-${tag}`,
+      timeSpentSeconds: 60,
+    },
   });
   expect(submitted.status()).toBe(201);
   const attempt = (await submitted.json()).attempt;
@@ -130,7 +143,9 @@ test("trainer runs a class end to end: invite, join, attempt, gradebook, overrid
   await expect(page).toHaveURL(new RegExp(`/attempts/${attempt.id}/review`));
   await expect(page.getByRole("heading", { name: "Automatic grading" })).toBeVisible();
   await expect(page.getByTestId("sandbox-workspace")).toBeVisible();
-  await page.getByLabel("Comment to the trainee").fill("Your outlet placement is right; the figures slipped. Counted as a pass.");
+  await page
+    .getByLabel("Comment to the trainee")
+    .fill("Your outlet placement is right; the figures slipped. Counted as a pass.");
   await page.getByLabel(/Change the grade/).check();
   await page.getByLabel("Score (0-100)").fill("86");
   await page.getByLabel("Passed", { exact: true }).check();

@@ -57,16 +57,25 @@ function watchLanding(sceneBefore: string) {
   w.__landed = { roof: 0, scene: 0, drawn: 0 };
   const observer = new MutationObserver(() => {
     const now = Date.now();
-    if (!w.__landed.roof && document.querySelector("[data-seq]")?.getAttribute("data-seq") !== seqBefore) w.__landed.roof = now;
+    if (!w.__landed.roof && document.querySelector("[data-seq]")?.getAttribute("data-seq") !== seqBefore)
+      w.__landed.roof = now;
     const scene = document.querySelector('[data-testid="scene-summary"]')?.textContent;
     if (!w.__landed.scene && scene != null && scene !== sceneBefore) w.__landed.scene = now;
     if (!w.__landed.drawn && w.__landed.scene && view() !== drawnBefore) w.__landed.drawn = now;
     if (w.__landed.roof && w.__landed.scene && w.__landed.drawn) observer.disconnect();
   });
-  observer.observe(document.body, { subtree: true, childList: true, characterData: true, attributes: true, attributeFilter: ["data-seq", "data-drawn"] });
+  observer.observe(document.body, {
+    subtree: true,
+    childList: true,
+    characterData: true,
+    attributes: true,
+    attributeFilter: ["data-seq", "data-drawn"],
+  });
 }
 
-test("a follower sees the presenter's outlet move within a second, and catches up after a dropped connection", async ({ browser }) => {
+test("a follower sees the presenter's outlet move within a second, and catches up after a dropped connection", async ({
+  browser,
+}) => {
   test.setTimeout(120_000);
   const trainer = await signedIn(browser, "trainer@tidemark.example");
   await trainer.page.goto("/classes");
@@ -105,10 +114,15 @@ test("a follower sees the presenter's outlet move within a second, and catches u
   await outletX(trainer.page).fill(newX);
   await expect(outletX(follower)).toHaveValue(newX, { timeout: 5000 });
   await expect(scene).not.toHaveText(sceneBefore, { timeout: 5000 });
-  await expect.poll(() => follower.evaluate(() => (window as unknown as LandingWindow).__landed.drawn), { timeout: 5000 }).toBeGreaterThan(0);
+  await expect
+    .poll(() => follower.evaluate(() => (window as unknown as LandingWindow).__landed.drawn), { timeout: 5000 })
+    .toBeGreaterThan(0);
   const landed = await follower.evaluate(() => (window as unknown as LandingWindow).__landed);
   const [inStore, inScene, inCanvas] = [landed.roof - t0, landed.scene - t0, landed.drawn - t0];
-  test.info().annotations.push({ type: "live latency ms (roof, scene summary, canvas)", description: `${inStore}, ${inScene}, ${inCanvas}` });
+  test.info().annotations.push({
+    type: "live latency ms (roof, scene summary, canvas)",
+    description: `${inStore}, ${inScene}, ${inCanvas}`,
+  });
   console.log(`live latency ms: roof ${inStore}, scene summary ${inScene}, canvas ${inCanvas}`);
   expect(inScene).toBeLessThan(1000);
   expect(inCanvas).toBeLessThan(1000);

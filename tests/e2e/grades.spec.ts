@@ -5,7 +5,11 @@ import { expect, test, type Browser } from "@playwright/test";
 
 // Issue 16, item 1: one attempt's grade reads the same on the result, the attempts list, the
 // gradebook and its CSV; a failed required check is said first, in words, and caps the score.
-const LESSON = { slug: "outlets-and-overflows", file: "03-outlets-and-overflows.md", title: "Outlets, overflows and scuppers" };
+const LESSON = {
+  slug: "outlets-and-overflows",
+  file: "03-outlets-and-overflows.md",
+  title: "Outlets, overflows and scuppers",
+};
 const TRAINEE = { email: "trainee3@tidemark.example", name: "Priya Santhorn" };
 
 async function signedIn(browser: Browser, email: string) {
@@ -19,13 +23,16 @@ async function signedIn(browser: Browser, email: string) {
   return page;
 }
 
-test("a failed required check reads the same on the result, the attempts list, the gradebook and the CSV", async ({ browser }) => {
+test("a failed required check reads the same on the result, the attempts list, the gradebook and the CSV", async ({
+  browser,
+}) => {
   test.setTimeout(120_000);
   // The author's answers and reference roof, with the outline (fixed by the task) moved: every
   // point is earned, but the required check "Keep what the task fixes" fails.
   const { data } = matter(fs.readFileSync(path.join(process.cwd(), "lessons", LESSON.file), "utf8"));
   const answers: Record<string, string | string[]> = {};
-  for (const q of data.quiz as { id: string; kind: string; answer?: string; correct?: string | string[] }[]) answers[q.id] = q.kind === "choice" ? q.correct! : q.answer!;
+  for (const q of data.quiz as { id: string; kind: string; answer?: string; correct?: string | string[] }[])
+    answers[q.id] = q.kind === "choice" ? q.correct! : q.answer!;
   const spec = structuredClone(data.task.reference);
   spec.outline = spec.outline.map(([x, y]: [number, number]) => [x, y === 0 ? 0 : y + 0.5]);
 
@@ -35,7 +42,9 @@ test("a failed required check reads the same on the result, the attempts list, t
   await expect(rule).toContainText(`You pass at ${data.passMark} or more`);
   await expect(rule).toContainText(`capped at ${data.passMark - 1}`);
 
-  const posted = await trainee.request.post("/api/v1/attempts", { data: { lesson: LESSON.slug, answers, spec, idempotencyKey: `grades-e2e-${Date.now()}` } });
+  const posted = await trainee.request.post("/api/v1/attempts", {
+    data: { lesson: LESSON.slug, answers, spec, idempotencyKey: `grades-e2e-${Date.now()}` },
+  });
   expect(posted.status()).toBe(201);
   const { attempt } = await posted.json();
   expect(attempt).toMatchObject({ score: data.passMark - 1, passed: false });
@@ -44,7 +53,9 @@ test("a failed required check reads the same on the result, the attempts list, t
   // The result: the reason first, then the capped score and Not passed.
   await trainee.goto(`/attempts/${attempt.id}`);
   const summary = trainee.getByTestId("score-summary");
-  await expect(summary.getByTestId("grade-reason")).toHaveText(/^A required check was not met: “Keep what the task fixes”/);
+  await expect(summary.getByTestId("grade-reason")).toHaveText(
+    /^A required check was not met: “Keep what the task fixes”/,
+  );
   await expect(summary.getByTestId("grade-score")).toHaveText(`${shown} / 100`);
   await expect(summary).toContainText("Not passed");
   await expect(summary).not.toContainText("100 / 100");
@@ -63,7 +74,9 @@ test("a failed required check reads the same on the result, the attempts list, t
   const classId = /\/classes\/([0-9a-f-]{36})/.exec(href ?? "")?.[1];
   expect(classId).toBeTruthy();
   await trainer.goto(`/classes/${classId}/gradebook`);
-  const cellLink = trainer.getByRole("link", { name: new RegExp(`^${TRAINEE.name}, ${LESSON.title}: ${shown} Not passed\\. A required check was not met`) });
+  const cellLink = trainer.getByRole("link", {
+    name: new RegExp(`^${TRAINEE.name}, ${LESSON.title}: ${shown} Not passed\\. A required check was not met`),
+  });
   await expect(cellLink).toBeVisible();
   await expect(cellLink).toContainText("Not passed: required check not met");
   const csv = await (await trainer.request.get(`/classes/${classId}/gradebook.csv`)).text();

@@ -1,6 +1,9 @@
 import { expect, test } from "@playwright/test";
 
-test("home page names Fallwright and every request stays on the local server, fonts included", async ({ page, baseURL }) => {
+test("home page names Fallwright and every request stays on the local server, fonts included", async ({
+  page,
+  baseURL,
+}) => {
   const origin = new URL(baseURL!).origin;
   const requests: string[] = [];
   page.on("request", (r) => requests.push(r.url()));
@@ -11,7 +14,10 @@ test("home page names Fallwright and every request stays on the local server, fo
   // The bundled Space Grotesk face is really in use, not a fallback.
   const fontLoaded = await page.evaluate(async () => {
     await document.fonts.ready;
-    return document.fonts.check('16px "Space Grotesk"') && [...document.fonts].some((f) => f.family.includes("Space Grotesk") && f.status === "loaded");
+    return (
+      document.fonts.check('16px "Space Grotesk"') &&
+      [...document.fonts].some((f) => f.family.includes("Space Grotesk") && f.status === "loaded")
+    );
   });
   expect(fontLoaded).toBe(true);
   expect(requests.some((u) => /\.woff2?(\?|$)/.test(u))).toBe(true);

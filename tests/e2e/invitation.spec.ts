@@ -14,7 +14,11 @@ async function linkFromSpool(to: string, prefix: string): Promise<string> {
   throw new Error(`no e-mail to ${to}`);
 }
 
-test("an admin invites a designer; the e-mailed link sets name and password and lands signed in", async ({ page, browser, baseURL }) => {
+test("an admin invites a designer; the e-mailed link sets name and password and lands signed in", async ({
+  page,
+  browser,
+  baseURL,
+}) => {
   const email = `e2e-designer-${Date.now().toString(36)}@fallwright-test.example`;
 
   await page.goto("/login");

@@ -12,7 +12,9 @@ async function signIn(page: Page, email: string) {
   await expect(page).toHaveURL(new RegExp(`/lessons/${LESSON.slug}$`));
 }
 
-test("a trainee passes the quiz, fails the roof task, moves the outlet and passes; both attempts are kept with their feedback", async ({ page }) => {
+test("a trainee passes the quiz, fails the roof task, moves the outlet and passes; both attempts are kept with their feedback", async ({
+  page,
+}) => {
   test.setTimeout(120_000);
   await signIn(page, "trainee@tidemark.example");
   await expect(page.getByRole("heading", { level: 1, name: LESSON.title })).toBeVisible();
@@ -23,7 +25,11 @@ test("a trainee passes the quiz, fails the roof task, moves the outlet and passe
   await page.getByTestId("question-scupper-min").getByRole("textbox").fill("4 in");
   await page.getByTestId("question-weir-flow").getByRole("textbox").fill("0.0039 m^3/s");
   await page.getByLabel("At least the design flow of the outlet it backs up.").check();
-  for (const option of ["Its membrane laps and corners sit in water for long periods.", "Leaves and grit settle in it and block the outlet.", "The water it holds is an extra load on the structure."]) {
+  for (const option of [
+    "Its membrane laps and corners sit in water for long periods.",
+    "Leaves and grit settle in it and block the outlet.",
+    "The water it holds is an extra load on the structure.",
+  ]) {
     await page.getByLabel(option).check();
   }
 
@@ -72,10 +78,15 @@ test("a trainee passes the quiz, fails the roof task, moves the outlet and passe
   await expect(rows.nth(1)).toContainText("Longest fall line no flatter than 1:100");
 
   // The failed attempt reopens with its feedback and its roof in the read-only sandbox.
-  await rows.nth(1).getByRole("link", { name: /^Open the attempt/ }).click();
+  await rows
+    .nth(1)
+    .getByRole("link", { name: /^Open the attempt/ })
+    .click();
   await expect(page).toHaveURL(/\/attempts\/[0-9a-f-]{36}$/);
   await expect(page.getByTestId("score-summary")).toContainText("Not passed");
-  await expect(page.getByRole("row", { name: /Longest fall line no flatter than 1:100/ })).toContainText("Measured: 1:134.2 over 20.1 m");
+  await expect(page.getByRole("row", { name: /Longest fall line no flatter than 1:100/ })).toContainText(
+    "Measured: 1:134.2 over 20.1 m",
+  );
   await expect(page.getByTestId("sandbox-workspace")).toContainText("view only");
 });
 

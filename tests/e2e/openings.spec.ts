@@ -6,7 +6,9 @@ import { expect, test } from "@playwright/test";
 // its high side y = 4.5 the deck is lowest at x = 6, so water is held there
 // (docs/roof-method-plans.md P3). Moved 1 m right (6.5..7.5) it lies off the fall line and holds none.
 
-test("sandbox: a rooflight added by mouse and moved by keyboard; held water comes and goes; the check sheet lists it", async ({ page }) => {
+test("sandbox: a rooflight added by mouse and moved by keyboard; held water comes and goes; the check sheet lists it", async ({
+  page,
+}) => {
   await page.goto("/sandbox");
   await page.evaluate(() => sessionStorage.clear());
   await page.reload();

@@ -21,7 +21,8 @@ async function renderPdf(page: Page, pdf: Buffer): Promise<Buffer> {
   await page.route("**/__render/**", async (route) => {
     const url = route.request().url();
     if (url.endsWith("/pdf.mjs")) return route.fulfill({ body: readFileSync(PDFJS), contentType: "text/javascript" });
-    if (url.endsWith("/worker.mjs")) return route.fulfill({ body: readFileSync(WORKER), contentType: "text/javascript" });
+    if (url.endsWith("/worker.mjs"))
+      return route.fulfill({ body: readFileSync(WORKER), contentType: "text/javascript" });
     if (url.endsWith("/sheet.pdf")) return route.fulfill({ body: pdf, contentType: "application/pdf" });
     return route.fulfill({
       contentType: "text/html",
@@ -43,11 +44,26 @@ async function renderPdf(page: Page, pdf: Buffer): Promise<Buffer> {
   return page.locator("#c").screenshot();
 }
 
-test("a shared link opens without signing in, shows the roof and its PDF, and stops working when revoked", async ({ page, browser }, testInfo) => {
+test("a shared link opens without signing in, shows the roof and its PDF, and stops working when revoked", async ({
+  page,
+  browser,
+}, testInfo) => {
   test.setTimeout(300_000);
   await signIn(page);
   const name = `Depot north bay ${unique()}`;
-  const spec = { outline: [[0, 0], [14, 0], [14, 9], [6, 9], [6, 5], [0, 5]], outlets: [{ at: [4, 0] }, { at: [14, 7] }], baseFall: "1:60", joists: { spacing: 0.4, fromOutlets: true } };
+  const spec = {
+    outline: [
+      [0, 0],
+      [14, 0],
+      [14, 9],
+      [6, 9],
+      [6, 5],
+      [0, 5],
+    ],
+    outlets: [{ at: [4, 0] }, { at: [14, 7] }],
+    baseFall: "1:60",
+    joists: { spacing: 0.4, fromOutlets: true },
+  };
   const res = await page.request.post("/api/v1/roofs", { data: { name, spec } });
   expect(res.status()).toBe(201);
   const id = (await res.json()).id;
@@ -67,7 +83,9 @@ test("a shared link opens without signing in, shows the roof and its PDF, and st
   expect(opened?.status()).toBe(200);
   await expect(visitor.getByRole("heading", { name })).toBeVisible();
   await expect(visitor.getByRole("note").filter({ hasText: "designer of record" }).first()).toBeVisible();
-  await expect(visitor.getByTestId("key-figures").or(visitor.getByTestId("drop-schedule")).first()).toBeVisible({ timeout: 30_000 });
+  await expect(visitor.getByTestId("key-figures").or(visitor.getByTestId("drop-schedule")).first()).toBeVisible({
+    timeout: 30_000,
+  });
   await expect(visitor.getByRole("link", { name: "Sign in" })).toBeVisible();
 
   // Its PDF, drawn with pdf.js and looked at (saved beside the test results).
@@ -86,18 +104,32 @@ test("a shared link opens without signing in, shows the roof and its PDF, and st
   await page.waitForLoadState("networkidle");
   await page.getByTestId("share-link-revoke").first().click();
   await expect(page.getByTestId("share-link-list")).toHaveCount(0, { timeout: 60_000 });
-  await expect.poll(async () => (await visitor.goto(link, { waitUntil: "commit" }))?.status(), { timeout: 60_000 }).toBe(404);
+  await expect
+    .poll(async () => (await visitor.goto(link, { waitUntil: "commit" }))?.status(), { timeout: 60_000 })
+    .toBe(404);
   // A guessed token is a 404 as well.
   const guessed = await visitor.goto(`/s/${"Q".repeat(43)}`, { waitUntil: "commit" });
   expect(guessed?.status()).toBe(404);
   await guest.close();
 });
 
-test("the check sheet is titled with the roof's name, has one caution and the whole schedule on the page", async ({ page }) => {
+test("the check sheet is titled with the roof's name, has one caution and the whole schedule on the page", async ({
+  page,
+}) => {
   test.setTimeout(150_000);
   await signIn(page);
   const name = `Annex east ${unique()}`;
-  const spec = { outline: [[0, 0], [12, 0], [12, 8], [0, 8]], outlets: [{ at: [6, 0] }], baseFall: "2°", joists: { spacing: 0.4 } };
+  const spec = {
+    outline: [
+      [0, 0],
+      [12, 0],
+      [12, 8],
+      [0, 8],
+    ],
+    outlets: [{ at: [6, 0] }],
+    baseFall: "2°",
+    joists: { spacing: 0.4 },
+  };
   const id = (await (await page.request.post("/api/v1/roofs", { data: { name, spec } })).json()).id;
   await page.goto(`/roofs/${id}/sheet`);
   await expect(page.getByRole("heading", { level: 1, name })).toBeVisible();
@@ -107,6 +139,12 @@ test("the check sheet is titled with the roof's name, has one caution and the wh
   await expect(page.getByText("Loading the schedule")).toHaveCount(0);
   await expect(page.getByText(/90\.0° from x/)).toBeVisible();
   await page.getByTestId("sheet-paper").selectOption("letter");
-  await expect.poll(() => page.evaluate(() => [...document.querySelectorAll("style")].some((st) => st.textContent?.includes("size: letter")))).toBe(true);
+  await expect
+    .poll(() =>
+      page.evaluate(() =>
+        [...document.querySelectorAll("style")].some((st) => st.textContent?.includes("size: letter")),
+      ),
+    )
+    .toBe(true);
   await page.screenshot({ path: test.info().outputPath("roof-sheet.png"), fullPage: true });
 });

@@ -25,7 +25,17 @@ async function roofJson(page: Page, id: string) {
   return res.json();
 }
 
-const RECT = (w: number, h: number) => ({ outline: [[0, 0], [w, 0], [w, h], [0, h]], outlets: [{ at: [w / 2, 0] }], baseFall: "1:60", joists: { spacing: 0.4 } });
+const RECT = (w: number, h: number) => ({
+  outline: [
+    [0, 0],
+    [w, 0],
+    [w, h],
+    [0, h],
+  ],
+  outlets: [{ at: [w / 2, 0] }],
+  baseFall: "1:60",
+  joists: { spacing: 0.4 },
+});
 const unique = () => Math.random().toString(36).slice(2, 8);
 
 test("save a roof from the sandbox, reload, and it is back", async ({ page }) => {
@@ -33,7 +43,17 @@ test("save a roof from the sandbox, reload, and it is back", async ({ page }) =>
   await page.goto("/sandbox");
   await expect(page.getByTestId("sandbox-workspace")).toBeVisible();
   const name = `Saved from sandbox ${unique()}`;
-  const spec = { outline: [[0, 0], [14, 0], [14, 8], [0, 8]], outlets: [{ at: [7, 0] }], baseFall: "1:50", joists: { spacing: 0.45 } };
+  const spec = {
+    outline: [
+      [0, 0],
+      [14, 0],
+      [14, 8],
+      [0, 8],
+    ],
+    outlets: [{ at: [7, 0] }],
+    baseFall: "1:50",
+    joists: { spacing: 0.45 },
+  };
   // What the sandbox's "Save to my roofs" button posts: a form to /roofs/new.
   await page.evaluate(
     ({ name, spec }) => {
@@ -72,18 +92,31 @@ test("upload a plan image, set its scale by two clicks and a typed distance, tra
   await page.getByText("Plan underlay").click();
 
   // A white sheet with a black rectangle 600 × 300 px: it will be 12 m × 6 m.
-  const png = makePng(800, 500, (x, y) => ((x >= 98 && x <= 102) || (x >= 698 && x <= 702) ? (y >= 98 && y <= 402 ? 0 : 255) : (y >= 98 && y <= 102) || (y >= 398 && y <= 402) ? (x >= 98 && x <= 702 ? 0 : 255) : 255));
+  const png = makePng(800, 500, (x, y) =>
+    (x >= 98 && x <= 102) || (x >= 698 && x <= 702)
+      ? y >= 98 && y <= 402
+        ? 0
+        : 255
+      : (y >= 98 && y <= 102) || (y >= 398 && y <= 402)
+        ? x >= 98 && x <= 702
+          ? 0
+          : 255
+        : 255,
+  );
   await page.getByLabel(/Upload a plan image/).setInputFiles({ name: "plan.png", mimeType: "image/png", buffer: png });
   await expect(page.getByText("Image uploaded. Now set its scale")).toBeVisible();
 
   const canvas = page.getByTestId("underlay-canvas");
   const clickImage = async (x: number, y: number) => {
     // Image pixel → position inside the drawn <svg> (it is scaled to the panel's width).
-    const position = await canvas.evaluate((svg, [x, y]) => {
-      const p = new DOMPoint(x, y).matrixTransform((svg as SVGSVGElement).getScreenCTM()!);
-      const box = svg.getBoundingClientRect();
-      return { x: p.x - box.left, y: p.y - box.top };
-    }, [x, y] as const);
+    const position = await canvas.evaluate(
+      (svg, [x, y]) => {
+        const p = new DOMPoint(x, y).matrixTransform((svg as SVGSVGElement).getScreenCTM()!);
+        const box = svg.getBoundingClientRect();
+        return { x: p.x - box.left, y: p.y - box.top };
+      },
+      [x, y] as const,
+    );
     await canvas.click({ position });
   };
   await clickImage(100, 400);
@@ -93,12 +126,22 @@ test("upload a plan image, set its scale by two clicks and a typed distance, tra
   await expect(page.getByText(/Scale set: 6\d\d\.\d px = 12\.00 m/)).toBeVisible();
 
   await page.getByRole("button", { name: "Trace outline" }).click();
-  for (const [x, y] of [[100, 400], [700, 400], [700, 100], [100, 100]]) await clickImage(x, y);
+  for (const [x, y] of [
+    [100, 400],
+    [700, 400],
+    [700, 100],
+    [100, 100],
+  ])
+    await clickImage(x, y);
   await expect(page.getByText(/Traced edge 1: 1[12]\.\d\d m/)).toBeVisible();
   await page.getByRole("button", { name: "Use as outline" }).click();
 
   // The roof's outline edge, read back from the panel and from the saved roof, is the typed 12 m.
-  const edgeText = await page.getByRole("list", { name: "Outline edge lengths" }).getByRole("listitem").first().textContent();
+  const edgeText = await page
+    .getByRole("list", { name: "Outline edge lengths" })
+    .getByRole("listitem")
+    .first()
+    .textContent();
   expect(Math.abs(Number(/([\d.]+) m/.exec(edgeText!)![1]) - 12)).toBeLessThanOrEqual(0.03);
   await expect(page.getByTestId("save-status")).toHaveText("Saved · v2", { timeout: 15_000 });
   const saved = await roofJson(page, id);
@@ -113,7 +156,9 @@ test("upload a plan image, set its scale by two clicks and a typed distance, tra
   expect(Buffer.from(await image.body()).equals(png)).toBe(true);
 });
 
-test("a page of a PDF drawing becomes the underlay, drawn in the browser at 3000 px on its long side", async ({ page }) => {
+test("a page of a PDF drawing becomes the underlay, drawn in the browser at 3000 px on its long side", async ({
+  page,
+}) => {
   await signIn(page);
   const id = await newRoof(page, `PDF underlay ${unique()}`, RECT(12, 6));
   await page.goto(`/roofs/${id}`);
@@ -125,7 +170,9 @@ test("a page of a PDF drawing becomes the underlay, drawn in the browser at 3000
     { width: 600, height: 400, content: "0 G 2 w 100 100 400 200 re S" },
     { width: 300, height: 600, content: "0 G 4 w 50 100 200 400 re S" },
   ]);
-  await page.getByLabel(/Upload a plan image/).setInputFiles({ name: "annex-drawings.pdf", mimeType: "application/pdf", buffer: pdf });
+  await page
+    .getByLabel(/Upload a plan image/)
+    .setInputFiles({ name: "annex-drawings.pdf", mimeType: "application/pdf", buffer: pdf });
   const chooser = page.getByRole("group", { name: "Choose a page of the PDF" });
   await expect(chooser).toContainText("annex-drawings.pdf has 2 pages");
   await chooser.getByLabel("Page").fill("3");
@@ -154,7 +201,9 @@ test("a page of a PDF drawing becomes the underlay, drawn in the browser at 3000
   expect(shades.inside).toBeGreaterThan(200);
 
   // Bytes that are not a PDF, whatever the name says, get a clear message and nothing uploads.
-  await page.getByLabel(/Upload a plan image/).setInputFiles({ name: "not-really.pdf", mimeType: "application/pdf", buffer: Buffer.from("hello, plan") });
+  await page
+    .getByLabel(/Upload a plan image/)
+    .setInputFiles({ name: "not-really.pdf", mimeType: "application/pdf", buffer: Buffer.from("hello, plan") });
   await expect(page.getByRole("alert")).toContainText("not-really.pdf is not a PDF file");
   await expect(page.getByText("1500 × 3000 px")).toBeVisible();
 });
@@ -170,7 +219,9 @@ async function openAs(browser: Browser, url?: string) {
   return { context, page };
 }
 
-test("two tabs edit one roof: one saves, the other gets the 409 banner and keeps its work as a copy", async ({ browser }) => {
+test("two tabs edit one roof: one saves, the other gets the 409 banner and keeps its work as a copy", async ({
+  browser,
+}) => {
   test.slow(); // three signed-in 3D pages at once, drawn by software WebGL
   const setup = await openAs(browser);
   const base = `Two tabs ${unique()}`;
@@ -209,7 +260,9 @@ test("a save that cannot reach the server says so, keeps the edit and retries on
   const id = await newRoof(page, base, RECT(8, 5));
   await page.goto(`/roofs/${id}`);
   await expect(page.getByTestId("save-status")).toHaveText("Saved · v1");
-  await page.route(`**/api/v1/roofs/${id}`, (route) => (route.request().method() === "PUT" ? route.abort("internetdisconnected") : route.continue()));
+  await page.route(`**/api/v1/roofs/${id}`, (route) =>
+    route.request().method() === "PUT" ? route.abort("internetdisconnected") : route.continue(),
+  );
   await page.getByLabel("Roof name").fill(`${base} renamed offline`);
   await expect(page.getByTestId("save-status")).toHaveText("Offline, will retry");
   expect((await roofJson(page, id)).name).toBe(base);
@@ -227,7 +280,10 @@ test("the library: search, rename inline, duplicate, delete and undo", async ({ 
   const rows = page.locator("table").first().locator("tbody tr");
   await expect(rows).toHaveCount(1);
 
-  await rows.first().getByRole("button", { name: /Rename/ }).click();
+  await rows
+    .first()
+    .getByRole("button", { name: /Rename/ })
+    .click();
   const field = page.getByLabel(`New name for Porch ${tag}`);
   await field.fill("");
   await field.press("Enter");
@@ -236,7 +292,10 @@ test("the library: search, rename inline, duplicate, delete and undo", async ({ 
   await field.press("Enter");
   await expect(page.getByRole("link", { name: `Porch ${tag} renamed` })).toBeVisible();
 
-  await rows.first().getByRole("button", { name: /Duplicate/ }).click();
+  await rows
+    .first()
+    .getByRole("button", { name: /Duplicate/ })
+    .click();
   await expect(page.getByRole("link", { name: `Porch ${tag} renamed (copy)` })).toBeVisible();
 
   await page.getByRole("button", { name: `Delete Porch ${tag} renamed (copy)` }).click();

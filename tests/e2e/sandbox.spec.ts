@@ -44,15 +44,20 @@ async function drawnShare(page: Page, container: string) {
     });
   let last = { background: 0, drawn: 0 };
   await expect
-    .poll(async () => {
-      last = await read();
-      return last.background > 0.03 && last.drawn > 0.15;
-    }, { timeout: 30_000 })
+    .poll(
+      async () => {
+        last = await read();
+        return last.background > 0.03 && last.drawn > 0.15;
+      },
+      { timeout: 30_000 },
+    )
     .toBe(true);
   return last;
 }
 
-test("sandbox: edit by keyboard and table, place an outlet on an edge, the 3D view draws, figures follow", async ({ page }) => {
+test("sandbox: edit by keyboard and table, place an outlet on an edge, the 3D view draws, figures follow", async ({
+  page,
+}) => {
   await openSandbox(page);
   await drawnShare(page, "view-3d");
 
@@ -93,7 +98,9 @@ test("sandbox: edit by keyboard and table, place an outlet on an edge, the 3D vi
   await drawnShare(page, "view-3d");
 });
 
-test("sandbox: dragging a corner snaps to the grid, carries the outlet on its edge, and undoes in one step", async ({ page }) => {
+test("sandbox: dragging a corner snaps to the grid, carries the outlet on its edge, and undoes in one step", async ({
+  page,
+}) => {
   await openSandbox(page);
   const edge = (await page.getByTestId("edge-0").boundingBox())!;
   const perMetre = edge.width / 12;
@@ -118,7 +125,9 @@ test("sandbox: the drop schedule downloads as CSV with the levels of the demo ro
   expect(download.suggestedFilename()).toBe("drop-schedule.csv");
   const text = fs.readFileSync((await download.path())!, "utf8").replace(/^\uFEFF/, "");
   const [header, ...rows] = text.trim().split(/\r?\n/);
-  expect(header).toBe("joist,offset_m,span,start_x_m,start_y_m,end_x_m,end_y_m,length_m,start_level_mm,end_level_mm,start_drop_below_H_mm,end_drop_below_H_mm,fall");
+  expect(header).toBe(
+    "joist,offset_m,span,start_x_m,start_y_m,end_x_m,end_y_m,length_m,start_level_mm,end_level_mm,start_drop_below_H_mm,end_drop_below_H_mm,fall",
+  );
   expect(rows).toHaveLength(31);
   // The joist through the outlet (x = 6 m) runs 0 → 279 mm over 8 m: exactly the base fall, 2° = 1:28.6.
   expect(rows).toContain("16,6,1,6,0,6,8,8,0,279,279,0,1:28.6");
@@ -169,5 +178,9 @@ test("three.js is loaded by the sandbox only, not by the home or sign-in pages",
   };
   expect(await loadsThree("/")).toBe(false);
   expect(await loadsThree("/login")).toBe(false);
-  expect(await loadsThree("/sandbox", (page) => expect(page.getByTestId("view-3d").locator("canvas")).toBeVisible({ timeout: 30_000 }))).toBe(true);
+  expect(
+    await loadsThree("/sandbox", (page) =>
+      expect(page.getByTestId("view-3d").locator("canvas")).toBeVisible({ timeout: 30_000 }),
+    ),
+  ).toBe(true);
 });

@@ -1,6 +1,9 @@
 import { expect, test } from "@playwright/test";
 
-test("sign-in keeps the typed e-mail on a wrong password, then signs in, and sign-out ends the session", async ({ page, context }) => {
+test("sign-in keeps the typed e-mail on a wrong password, then signs in, and sign-out ends the session", async ({
+  page,
+  context,
+}) => {
   await page.goto("/login");
   await page.getByLabel("E-mail").fill("trainer@tidemark.example");
   await page.getByLabel("Password").fill("not-the-password");

@@ -19,7 +19,9 @@ async function centre(page: Page, testId: string) {
   return { x: box.x + box.width / 2, y: box.y + box.height / 2 };
 }
 
-test("lesson 3: the locked outline stays put by mouse and keyboard; a tap on the crowded corner offers the outlet, which moves as the hints say; the live checks turn met", async ({ page }) => {
+test("lesson 3: the locked outline stays put by mouse and keyboard; a tap on the crowded corner offers the outlet, which moves as the hints say; the live checks turn met", async ({
+  page,
+}) => {
   test.setTimeout(300_000);
   await signIn(page, "trainee4@tidemark.example");
   const plan = page.getByTestId("plan");

@@ -5,7 +5,9 @@ test.describe.configure({ timeout: 150_000 });
 // Demo roof: 12 m × 8 m, outlet at (6, 0), base fall 2°, so H = 8 m × tan 2° = 279 mm (ROOF-METHOD.md §3/§4).
 // In inches (1 in = 25.4 mm exactly, NIST SP 811): 279.37 mm / 25.4 = 10.999 in → 11 in to 1/16.
 
-test("units: an anonymous visitor picks US customary; figures and inputs follow, typing either system works, and the choice is remembered", async ({ page }) => {
+test("units: an anonymous visitor picks US customary; figures and inputs follow, typing either system works, and the choice is remembered", async ({
+  page,
+}) => {
   await page.goto("/sandbox");
   await page.evaluate(() => {
     sessionStorage.clear();
@@ -27,7 +29,9 @@ test("units: an anonymous visitor picks US customary; figures and inputs follow,
 
   // A fall the way US roofers write it.
   await page.getByTestId("base-fall").fill("1/4:12");
-  await expect(page.locator("#" + (await page.getByTestId("base-fall").getAttribute("aria-describedby")))).toContainText("1/4 in per ft (1:48)");
+  await expect(
+    page.locator("#" + (await page.getByTestId("base-fall").getAttribute("aria-describedby"))),
+  ).toContainText("1/4 in per ft (1:48)");
   await expect(page.getByTestId("worst-fall-figure")).toContainText("in per ft");
 
   // Remembered in this browser.

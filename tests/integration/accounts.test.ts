@@ -1,7 +1,18 @@
 import bcrypt from "bcryptjs";
 import { describe, expect, it } from "vitest";
 import { useTestDatabase } from "../support/db";
-import { callRoute, cookiePair, DEMO_PASSWORD, formPost, get, linkIn, sessionCookie, uniqueAddress, userIdOf, waitForMail } from "../support/accounts";
+import {
+  callRoute,
+  cookiePair,
+  DEMO_PASSWORD,
+  formPost,
+  get,
+  linkIn,
+  sessionCookie,
+  uniqueAddress,
+  userIdOf,
+  waitForMail,
+} from "../support/accounts";
 import * as login from "~/routes/login";
 import * as adminUsers from "~/routes/admin._index";
 import * as invite from "~/routes/invite.$token";
@@ -30,7 +41,10 @@ describe("invitation by e-mail", () => {
   it("admin invites a designer → e-mail with a link → accept sets name and password → signed in; the link works once", async () => {
     const admin = await sessionCookie("admin@tidemark.example");
     const email = uniqueAddress("designer-invite");
-    const sent = await callRoute(adminUsers.action, formPost("/admin", { intent: "invite", email, role: "designer" }, admin));
+    const sent = await callRoute(
+      adminUsers.action,
+      formPost("/admin", { intent: "invite", email, role: "designer" }, admin),
+    );
     expect(sent.status).toBe(200);
     expect(sent.data).toMatchObject({ ok: true, message: `Invitation sent to ${email}.` });
 
@@ -48,9 +62,17 @@ describe("invitation by e-mail", () => {
 
     const page = await callRoute(invite.loader, get(link.pathname), { params: { token } });
     expect(page.status).toBe(200);
-    expect(page.data.invitation).toMatchObject({ email, role: "designer", organisationName: "Tidemark Membrane School" });
+    expect(page.data.invitation).toMatchObject({
+      email,
+      role: "designer",
+      organisationName: "Tidemark Membrane School",
+    });
 
-    const accepted = await callRoute(invite.action, formPost(link.pathname, { name: "Ines Falkirk", password: NEW_PASSWORD, confirm: NEW_PASSWORD }), { params: { token } });
+    const accepted = await callRoute(
+      invite.action,
+      formPost(link.pathname, { name: "Ines Falkirk", password: NEW_PASSWORD, confirm: NEW_PASSWORD }),
+      { params: { token } },
+    );
     expect(accepted.status).toBe(302);
     expect(accepted.location).toBe("/");
     const user = await whoIs(cookiePair(accepted.headers.get("set-cookie")));
@@ -59,7 +81,11 @@ describe("invitation by e-mail", () => {
     const row = await database.db()("users").where({ email }).first("password_hash");
     expect(row.password_hash).toMatch(/^\$2[ab]\$12\$/);
 
-    const again = await callRoute(invite.action, formPost(link.pathname, { name: "Someone Else", password: NEW_PASSWORD, confirm: NEW_PASSWORD }), { params: { token } });
+    const again = await callRoute(
+      invite.action,
+      formPost(link.pathname, { name: "Someone Else", password: NEW_PASSWORD, confirm: NEW_PASSWORD }),
+      { params: { token } },
+    );
     expect(again.status).toBe(410);
     expect((await callRoute(invite.loader, get(link.pathname), { params: { token } })).status).toBe(410);
     expect((await signIn(email, NEW_PASSWORD)).status).toBe(302);
@@ -69,13 +95,21 @@ describe("invitation by e-mail", () => {
   });
 
   it("keeps what was typed and says what is wrong when the new password is refused", async () => {
-    const trainer = { id: await userIdOf("trainer@tidemark.example"), role: "trainer" as const, organisationId: (await database.db()("organisations").first("id")).id };
+    const trainer = {
+      id: await userIdOf("trainer@tidemark.example"),
+      role: "trainer" as const,
+      organisationId: (await database.db()("organisations").first("id")).id,
+    };
     const email = uniqueAddress("weak-password");
     const r = await createInvitation({ email, role: "trainee", invitedBy: trainer, origin: "http://localhost" });
     expect(r).toMatchObject({ status: "sent", emailSent: true });
-    const token = linkIn(await waitForMail(email), "/invite/").pathname.split("/").pop()!;
+    const token = linkIn(await waitForMail(email), "/invite/")
+      .pathname.split("/")
+      .pop()!;
     const post = (password: string, confirm = password) =>
-      callRoute(invite.action, formPost(`/invite/${token}`, { name: "Oren Pike", password, confirm }), { params: { token } });
+      callRoute(invite.action, formPost(`/invite/${token}`, { name: "Oren Pike", password, confirm }), {
+        params: { token },
+      });
 
     const short = await post("short1");
     expect(short.status).toBe(400);
@@ -98,38 +132,90 @@ describe("invitation by e-mail", () => {
     const other = { id: await userIdOf("trainer2@tidemark.example"), role: "trainer" as const, organisationId: org };
     const cls = await k("classes").where({ trainer_id: trainer.id }).first("id", "name");
 
-    expect(await createInvitation({ email: uniqueAddress("x"), role: "designer", invitedBy: trainer, origin: "http://localhost" })).toMatchObject({ status: "refused" });
-    expect(await createInvitation({ email: uniqueAddress("x"), role: "trainee", classId: cls.id, invitedBy: other, origin: "http://localhost" })).toMatchObject({
+    expect(
+      await createInvitation({
+        email: uniqueAddress("x"),
+        role: "designer",
+        invitedBy: trainer,
+        origin: "http://localhost",
+      }),
+    ).toMatchObject({ status: "refused" });
+    expect(
+      await createInvitation({
+        email: uniqueAddress("x"),
+        role: "trainee",
+        classId: cls.id,
+        invitedBy: other,
+        origin: "http://localhost",
+      }),
+    ).toMatchObject({
       status: "refused",
       message: "That class is not one of yours.",
     });
 
     const email = uniqueAddress("class-invite");
-    expect(await createInvitation({ email, role: "trainee", classId: cls.id, invitedBy: trainer, origin: "http://localhost" })).toMatchObject({ status: "sent" });
+    expect(
+      await createInvitation({
+        email,
+        role: "trainee",
+        classId: cls.id,
+        invitedBy: trainer,
+        origin: "http://localhost",
+      }),
+    ).toMatchObject({ status: "sent" });
     const mail = await waitForMail(email);
     expect(mail.text).toContain(cls.name);
     const token = linkIn(mail, "/invite/").pathname.split("/").pop()!;
-    const res = await callRoute(invite.action, formPost(`/invite/${token}`, { name: "Lale Brandt", password: NEW_PASSWORD, confirm: NEW_PASSWORD }), { params: { token } });
+    const res = await callRoute(
+      invite.action,
+      formPost(`/invite/${token}`, { name: "Lale Brandt", password: NEW_PASSWORD, confirm: NEW_PASSWORD }),
+      { params: { token } },
+    );
     expect(res.status).toBe(302);
     const userId = await userIdOf(email);
     expect(await k("class_members").where({ class_id: cls.id, user_id: userId }).first()).toBeTruthy();
 
     // An existing trainee account is asked by e-mail and is not a member until it accepts (issue 13, defect 3).
-    const existing = await createInvitation({ email: "trainee4@tidemark.example", role: "trainee", classId: cls.id, invitedBy: trainer, origin: "http://localhost" });
+    const existing = await createInvitation({
+      email: "trainee4@tidemark.example",
+      role: "trainee",
+      classId: cls.id,
+      invitedBy: trainer,
+      origin: "http://localhost",
+    });
     expect(existing).toMatchObject({ status: "asked_to_join", emailSent: true });
-    expect(await k("class_members").where({ class_id: cls.id, user_id: await userIdOf("trainee4@tidemark.example") }).first()).toBeUndefined();
+    expect(
+      await k("class_members")
+        .where({ class_id: cls.id, user_id: await userIdOf("trainee4@tidemark.example") })
+        .first(),
+    ).toBeUndefined();
   });
 
   it("an unknown invitation link answers 404 with a way forward, and an expired one 410", async () => {
     const unknown = "A".repeat(43);
-    expect((await callRoute(invite.loader, get(`/invite/${unknown}`), { params: { token: unknown } })).status).toBe(404);
-    const trainer = { id: await userIdOf("admin@tidemark.example"), role: "admin" as const, organisationId: (await database.db()("organisations").first("id")).id };
+    expect((await callRoute(invite.loader, get(`/invite/${unknown}`), { params: { token: unknown } })).status).toBe(
+      404,
+    );
+    const trainer = {
+      id: await userIdOf("admin@tidemark.example"),
+      role: "admin" as const,
+      organisationId: (await database.db()("organisations").first("id")).id,
+    };
     const email = uniqueAddress("expired");
     await createInvitation({ email, role: "designer", invitedBy: trainer, origin: "http://localhost" });
-    const token = linkIn(await waitForMail(email), "/invite/").pathname.split("/").pop()!;
-    await database.db()("tokens").where({ email }).update({ expires_at: database.db().raw("now() - interval '1 second'") });
+    const token = linkIn(await waitForMail(email), "/invite/")
+      .pathname.split("/")
+      .pop()!;
+    await database
+      .db()("tokens")
+      .where({ email })
+      .update({ expires_at: database.db().raw("now() - interval '1 second'") });
     expect((await callRoute(invite.loader, get(`/invite/${token}`), { params: { token } })).status).toBe(410);
-    const post = await callRoute(invite.action, formPost(`/invite/${token}`, { name: "Late Comer", password: NEW_PASSWORD, confirm: NEW_PASSWORD }), { params: { token } });
+    const post = await callRoute(
+      invite.action,
+      formPost(`/invite/${token}`, { name: "Late Comer", password: NEW_PASSWORD, confirm: NEW_PASSWORD }),
+      { params: { token } },
+    );
     expect(post.status).toBe(410);
   });
 });
@@ -152,25 +238,40 @@ describe("password reset by e-mail", () => {
 
     const form = await callRoute(reset.loader, get(link.pathname), { params: { token } });
     expect(form.data).toMatchObject({ state: "valid", email });
-    const done = await callRoute(reset.action, formPost(link.pathname, { password: NEW_PASSWORD, confirm: NEW_PASSWORD }), { params: { token } });
+    const done = await callRoute(
+      reset.action,
+      formPost(link.pathname, { password: NEW_PASSWORD, confirm: NEW_PASSWORD }),
+      { params: { token } },
+    );
     expect(done.status).toBe(302);
     const fresh = cookiePair(done.headers.get("set-cookie"));
 
     expect(await whoIs(phone)).toBeNull();
     expect(await whoIs(laptop)).toBeNull();
     expect(await whoIs(fresh)).toMatchObject({ email });
-    expect(await database.db()("sessions").where({ user_id: await userIdOf(email) }).count<{ count: string }[]>()).toEqual([{ count: "1" }]);
+    expect(
+      await database
+        .db()("sessions")
+        .where({ user_id: await userIdOf(email) })
+        .count<{ count: string }[]>(),
+    ).toEqual([{ count: "1" }]);
 
     expect((await signIn(email, DEMO_PASSWORD, "192.0.2.23")).status).toBe(400);
     expect((await signIn(email, NEW_PASSWORD, "192.0.2.23")).status).toBe(302);
-    const reuse = await callRoute(reset.action, formPost(link.pathname, { password: "another fine pass", confirm: "another fine pass" }), { params: { token } });
+    const reuse = await callRoute(
+      reset.action,
+      formPost(link.pathname, { password: "another fine pass", confirm: "another fine pass" }),
+      { params: { token } },
+    );
     expect(reuse.status).toBe(410);
   });
 
   it("answers an unknown address exactly like a known one, and sends nothing", async () => {
     const unknown = uniqueAddress("nobody");
     const a = await callRoute(forgot.action, formPost("/forgot-password", { email: unknown }), { ip: "192.0.2.30" });
-    const b = await callRoute(forgot.action, formPost("/forgot-password", { email: "trainee3@tidemark.example" }), { ip: "192.0.2.31" });
+    const b = await callRoute(forgot.action, formPost("/forgot-password", { email: "trainee3@tidemark.example" }), {
+      ip: "192.0.2.31",
+    });
     expect(a.status).toBe(b.status);
     expect({ ...a.data, email: "" }).toEqual({ ...b.data, email: "" });
     expect(a.data.email).toBe(unknown); // the form keeps what was typed
@@ -186,7 +287,11 @@ describe("sign-in", () => {
     const compare = { calls: () => (tasksRun.compare ?? 0) - before };
     const unknown = await signIn("nobody@tidemark.example", "wrong-password-1", "192.0.2.40");
     expect(compare.calls()).toBe(1);
-    const wrong = await signIn("nobody@tidemark.example".replace("nobody", "designer"), "wrong-password-1", "192.0.2.41");
+    const wrong = await signIn(
+      "nobody@tidemark.example".replace("nobody", "designer"),
+      "wrong-password-1",
+      "192.0.2.41",
+    );
     expect(compare.calls()).toBe(2);
     expect(unknown.status).toBe(400);
     expect(wrong.status).toBe(unknown.status);
@@ -215,7 +320,13 @@ describe("sign-in", () => {
 
   // Defect 9: the per-address limit used to count every failure, so ten typos in one classroom
   // refused everyone's correct password there for a minute or two.
-  const CLASS = ["trainee@tidemark.example", "trainee3@tidemark.example", "trainee4@tidemark.example", "designer@tidemark.example", "trainer@tidemark.example"];
+  const CLASS = [
+    "trainee@tidemark.example",
+    "trainee3@tidemark.example",
+    "trainee4@tidemark.example",
+    "designer@tidemark.example",
+    "trainer@tidemark.example",
+  ];
 
   it("lets a class behind one address keep signing in: typos put right are taken back from the address's count", async () => {
     const ip = "203.0.113.7";
@@ -233,7 +344,8 @@ describe("sign-in", () => {
   it("stops spraying from one address (30 failures across accounts), but an account that signed in from there before still gets in", async () => {
     const ip = "203.0.113.9";
     expect((await signIn("trainee4@tidemark.example", DEMO_PASSWORD, ip)).status).toBe(302);
-    for (let i = 0; i < 30; i++) expect((await signIn(`sprayed${i}@tidemark.example`, "Summer2026!", ip)).status, `attempt ${i + 1}`).toBe(400);
+    for (let i = 0; i < 30; i++)
+      expect((await signIn(`sprayed${i}@tidemark.example`, "Summer2026!", ip)).status, `attempt ${i + 1}`).toBe(400);
     // A new account from the spraying address: refused before bcrypt runs, right password or not.
     const before = tasksRun.compare ?? 0;
     const refused = await signIn("admin@tidemark.example", DEMO_PASSWORD, ip);
@@ -251,7 +363,9 @@ describe("sign-in", () => {
   it("refuses a password longer than 72 bytes even when bcrypt would accept its first 72", async () => {
     const k = database.db();
     const exact = "x".repeat(72);
-    await k("users").where({ email: "trainee3@tidemark.example" }).update({ password_hash: await bcrypt.hash(exact, 12) });
+    await k("users")
+      .where({ email: "trainee3@tidemark.example" })
+      .update({ password_hash: await bcrypt.hash(exact, 12) });
     expect(await bcrypt.compare(exact + "tail", await bcrypt.hash(exact, 4))).toBe(true); // the trap
     expect((await signIn("trainee3@tidemark.example", exact + "tail", "192.0.2.50")).status).toBe(400);
     expect((await signIn("trainee3@tidemark.example", exact, "192.0.2.50")).status).toBe(302);
@@ -260,13 +374,28 @@ describe("sign-in", () => {
   it("keeps the typed e-mail and names the empty field", async () => {
     const r = await signIn("designer@tidemark.example", "");
     expect(r.status).toBe(400);
-    expect(r.data).toMatchObject({ email: "designer@tidemark.example", fieldErrors: { password: "Enter your password." } });
+    expect(r.data).toMatchObject({
+      email: "designer@tidemark.example",
+      fieldErrors: { password: "Enter your password." },
+    });
   });
 
   it("only follows same-site redirectTo targets", async () => {
-    const ok = await callRoute(login.action, formPost("/login", { email: "designer@tidemark.example", password: DEMO_PASSWORD, redirectTo: "/roofs?x=1" }), { ip: "192.0.2.60" });
+    const ok = await callRoute(
+      login.action,
+      formPost("/login", { email: "designer@tidemark.example", password: DEMO_PASSWORD, redirectTo: "/roofs?x=1" }),
+      { ip: "192.0.2.60" },
+    );
     expect(ok.location).toBe("/roofs?x=1");
-    const evil = await callRoute(login.action, formPost("/login", { email: "designer@tidemark.example", password: DEMO_PASSWORD, redirectTo: "//evil.example/" }), { ip: "192.0.2.60" });
+    const evil = await callRoute(
+      login.action,
+      formPost("/login", {
+        email: "designer@tidemark.example",
+        password: DEMO_PASSWORD,
+        redirectTo: "//evil.example/",
+      }),
+      { ip: "192.0.2.60" },
+    );
     expect(evil.location).toBe("/");
   });
 

@@ -20,7 +20,9 @@ function nodes(plan: PlanNode): PlanNode[] {
 describe("admin users list query plan", () => {
   it("finds each user's last sign-in through an index by subject, never by walking audit_log", async () => {
     const k = database.db();
-    const { organisation_id: organisationId } = await k("users").where({ email: "admin@tidemark.example" }).first("organisation_id");
+    const { organisation_id: organisationId } = await k("users")
+      .where({ email: "admin@tidemark.example" })
+      .first("organisation_id");
     // A log of a busy year: 60,000 entries over the organisation's users, a third of them sign-ins.
     await k.raw(
       `insert into audit_log (subject_id, actor_id, action, ip, at)
@@ -46,21 +48,30 @@ describe("admin users list query plan", () => {
     // The same SQL (already in PostgreSQL's $n form) and values, through the driver.
     const native = query!.sql;
     const scansOfLog = async () => {
-      const conn = (await k.client.acquireConnection()) as { query: (sql: string, values: unknown[]) => Promise<{ rows: Record<string, unknown>[] }> };
+      const conn = (await k.client.acquireConnection()) as {
+        query: (sql: string, values: unknown[]) => Promise<{ rows: Record<string, unknown>[] }>;
+      };
       try {
         const { rows: explained } = await conn.query(`explain (format json) ${native}`, query!.bindings);
         const plan = (explained[0]["QUERY PLAN"] as { Plan: PlanNode }[])[0].Plan;
         // How each read of the log finds its rows: by subject through an index, or by walking it.
         return nodes(plan)
           .filter((n) => n["Relation Name"] === "audit_log")
-          .map((n) => (n["Node Type"].startsWith("Index") && /subject_id/.test(n["Index Cond"] ?? "") ? "by subject" : `walks the log (${n["Node Type"]})`));
+          .map((n) =>
+            n["Node Type"].startsWith("Index") && /subject_id/.test(n["Index Cond"] ?? "")
+              ? "by subject"
+              : `walks the log (${n["Node Type"]})`,
+          );
       } finally {
         await k.client.releaseConnection(conn);
       }
     };
     const withIndex = await scansOfLog();
     expect(withIndex.length).toBeGreaterThan(0);
-    expect(withIndex.every((s) => s === "by subject"), withIndex.join(", ")).toBe(true);
+    expect(
+      withIndex.every((s) => s === "by subject"),
+      withIndex.join(", "),
+    ).toBe(true);
     // The check itself can fail: without the index (as before it) the plan walks the log, in
     // a sequential scan or backwards through the index on `at` until a user's sign-in turns up.
     await k.raw("drop index audit_log_subject_action_at");

@@ -35,7 +35,17 @@ describe("db:backup and db:restore", () => {
     // Add a row after the template so the dump holds something the template does not.
     const k = knex({ client: "pg", connection: source });
     const owner = await k("users").where({ email: "designer@tidemark.example" }).first();
-    await k("roofs").insert({ owner_id: owner.id, name: "Backup check roof", spec: JSON.stringify({ outline: [[0, 0], [4, 0], [4, 3]] }) });
+    await k("roofs").insert({
+      owner_id: owner.id,
+      name: "Backup check roof",
+      spec: JSON.stringify({
+        outline: [
+          [0, 0],
+          [4, 0],
+          [4, 3],
+        ],
+      }),
+    });
     await k.destroy();
 
     const file = path.join(fs.mkdtempSync(path.join(os.tmpdir(), "fw-backup-")), "db.dump");

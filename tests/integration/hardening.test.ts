@@ -15,18 +15,41 @@ import { getRoofFor } from "~/lib/roofs.server";
 const database = useTestDatabase();
 let server: RunningServer;
 const cookies: Record<string, string> = {};
-const SPEC = { outline: [[0, 0], [18, 0], [18, 9], [0, 9]], outlets: [{ at: [9, 0] }], baseFall: "1:60" };
+const SPEC = {
+  outline: [
+    [0, 0],
+    [18, 0],
+    [18, 9],
+    [0, 9],
+  ],
+  outlets: [{ at: [9, 0] }],
+  baseFall: "1:60",
+};
 
 beforeAll(async () => {
   server = await startServer(database.url());
-  for (const who of ["admin", "trainer", "trainee", "designer"]) cookies[who] = await sessionCookie(`${who}@tidemark.example`);
+  for (const who of ["admin", "trainer", "trainee", "designer"])
+    cookies[who] = await sessionCookie(`${who}@tidemark.example`);
 }, 120_000);
 afterAll(async () => {
   await server?.stop();
 });
 
-function send(method: string, path: string, o: { cookie?: string; json?: unknown; form?: Record<string, string> | URLSearchParams; headers?: Record<string, string> } = {}) {
-  const headers: Record<string, string> = { Origin: server.url, ...(o.cookie ? { cookie: o.cookie } : {}), ...o.headers };
+function send(
+  method: string,
+  path: string,
+  o: {
+    cookie?: string;
+    json?: unknown;
+    form?: Record<string, string> | URLSearchParams;
+    headers?: Record<string, string>;
+  } = {},
+) {
+  const headers: Record<string, string> = {
+    Origin: server.url,
+    ...(o.cookie ? { cookie: o.cookie } : {}),
+    ...o.headers,
+  };
   let body: string | undefined;
   if (o.json !== undefined) {
     headers["Content-Type"] = "application/json";
@@ -45,7 +68,10 @@ const nested = (levels: number): unknown => {
 };
 
 async function newRoof(): Promise<{ id: string; version: number }> {
-  const res = await send("POST", "/api/v1/roofs", { cookie: cookies.designer, json: { name: "Probe target", spec: SPEC } });
+  const res = await send("POST", "/api/v1/roofs", {
+    cookie: cookies.designer,
+    json: { name: "Probe target", spec: SPEC },
+  });
   expect(res.status).toBe(201);
   return res.json();
 }
@@ -54,11 +80,20 @@ describe("1. e-mail links come from APP_URL, never from the request", () => {
   it("a reset asked for with Host: attacker.example mails a link to APP_URL", async () => {
     const email = uniqueAddress("host-header");
     const org = await database.db()("organisations").first("id");
-    await database.db()("users").insert({ organisation_id: org.id, email, name: "Ida Marsh", role: "trainee", password_hash: "x" });
+    await database
+      .db()("users")
+      .insert({ organisation_id: org.id, email, name: "Ida Marsh", role: "trainee", password_hash: "x" });
     const status = await new Promise<number>((resolve, reject) => {
       const req = http.request(
         `${server.url}/forgot-password`,
-        { method: "POST", headers: { Host: "attacker.example", Origin: "http://attacker.example", "Content-Type": "application/x-www-form-urlencoded" } },
+        {
+          method: "POST",
+          headers: {
+            Host: "attacker.example",
+            Origin: "http://attacker.example",
+            "Content-Type": "application/x-www-form-urlencoded",
+          },
+        },
         (res) => {
           res.resume();
           resolve(res.statusCode ?? 0);
@@ -75,20 +110,34 @@ describe("1. e-mail links come from APP_URL, never from the request", () => {
 
   it("the production server refuses to start without APP_URL, and says so", async () => {
     await expect(startServer(database.url(), { APP_URL: "" })).rejects.toThrow(/APP_URL is not set/);
-    await expect(startServer(database.url(), { APP_URL: "attacker.example" })).rejects.toThrow(/APP_URL .* is not a URL/);
+    await expect(startServer(database.url(), { APP_URL: "attacker.example" })).rejects.toThrow(
+      /APP_URL .* is not a URL/,
+    );
   }, 60_000);
 });
 
 describe("2. a redirect target is a same-origin path or nothing", () => {
-  for (const target of ["/\t/evil.example", "/\n/evil.example", "/\\evil.example", "//evil.example", "/.//evil.example", "https://evil.example/", "/\r\n/evil.example"]) {
+  for (const target of [
+    "/\t/evil.example",
+    "/\n/evil.example",
+    "/\\evil.example",
+    "//evil.example",
+    "/.//evil.example",
+    "https://evil.example/",
+    "/\r\n/evil.example",
+  ]) {
     it(`GET and POST /login with redirectTo=${JSON.stringify(target)} stay on the site`, async () => {
-      const get = await send("GET", `/login?${new URLSearchParams({ redirectTo: target })}`, { cookie: cookies.trainee });
+      const get = await send("GET", `/login?${new URLSearchParams({ redirectTo: target })}`, {
+        cookie: cookies.trainee,
+      });
       expect(get.status).toBe(302);
       const there = new URL(get.headers.get("location")!, server.url);
       expect(there.origin).toBe(server.url);
       expect(there.pathname).not.toMatch(/^\/\//);
 
-      const post = await send("POST", "/login", { form: { email: "designer@tidemark.example", password: "fallwright-demo", redirectTo: target } });
+      const post = await send("POST", "/login", {
+        form: { email: "designer@tidemark.example", password: "fallwright-demo", redirectTo: target },
+      });
       expect(post.status).toBe(302);
       expect(new URL(post.headers.get("location")!, server.url).origin).toBe(server.url);
       expect(post.headers.get("location")).toBe("/");
@@ -96,7 +145,9 @@ describe("2. a redirect target is a same-origin path or nothing", () => {
   }
 
   it("a genuine path with its query comes through", async () => {
-    const res = await send("GET", `/login?${new URLSearchParams({ redirectTo: "/roofs?sort=name#top" })}`, { cookie: cookies.trainee });
+    const res = await send("GET", `/login?${new URLSearchParams({ redirectTo: "/roofs?sort=name#top" })}`, {
+      cookie: cookies.trainee,
+    });
     expect(res.headers.get("location")).toBe("/roofs?sort=name#top");
   });
 });
@@ -115,7 +166,10 @@ describe("5. NUL (U+0000) in any text input is a 400 naming the field", () => {
   });
 
   it("in a JSON body (roof name), with the field as the issue's path", async () => {
-    const res = await send("POST", "/api/v1/roofs", { cookie: cookies.designer, json: { name: "Roof\u0000", spec: SPEC } });
+    const res = await send("POST", "/api/v1/roofs", {
+      cookie: cookies.designer,
+      json: { name: "Roof\u0000", spec: SPEC },
+    });
     expect(res.status).toBe(400);
     const body = await res.json();
     expect(body.error.issues).toEqual([{ path: "name", message: expect.stringContaining("NUL") }]);
@@ -124,10 +178,16 @@ describe("5. NUL (U+0000) in any text input is a 400 naming the field", () => {
   it("in a JSON key, a nested string and a lone surrogate (which jsonb refuses too)", async () => {
     const key = await send("POST", "/api/v1/analyses", { json: { ...SPEC, "bad\u0000": 1 } });
     expect(key.status).toBe(400);
-    const deep = await send("POST", "/api/v1/attempts", { cookie: cookies.trainee, json: { lesson: "x", answers: { q1: "a\u0000" }, idempotencyKey: "abcdefgh12" } });
+    const deep = await send("POST", "/api/v1/attempts", {
+      cookie: cookies.trainee,
+      json: { lesson: "x", answers: { q1: "a\u0000" }, idempotencyKey: "abcdefgh12" },
+    });
     expect(deep.status).toBe(400);
     expect((await deep.json()).error.issues[0].path).toBe("answers.q1");
-    const surrogate = await send("POST", "/api/v1/roofs", { cookie: cookies.designer, json: '{"name":"Roof \\ud800","spec":{}}' });
+    const surrogate = await send("POST", "/api/v1/roofs", {
+      cookie: cookies.designer,
+      json: '{"name":"Roof \\ud800","spec":{}}',
+    });
     expect(surrogate.status).toBe(400);
     expect((await surrogate.json()).error.issues[0].path).toBe("name");
   });
@@ -142,7 +202,11 @@ describe("5. NUL (U+0000) in any text input is a 400 naming the field", () => {
     const roof = await newRoof();
     const form = new FormData();
     form.append("file", new Blob([new Uint8Array(makePng(4, 4))], { type: "image/png" }), "plan\u0000.png");
-    const res = await fetch(`${server.url}/roofs/${roof.id}/underlay`, { method: "POST", headers: { Origin: server.url, cookie: cookies.designer }, body: form });
+    const res = await fetch(`${server.url}/roofs/${roof.id}/underlay`, {
+      method: "POST",
+      headers: { Origin: server.url, cookie: cookies.designer },
+      body: form,
+    });
     expect(res.status).toBe(400);
     expect((await res.json()).error.issues[0].path).toBe("file");
   });
@@ -150,7 +214,10 @@ describe("5. NUL (U+0000) in any text input is a 400 naming the field", () => {
 
 describe("6. deep nesting is a 400 everywhere, by one rule", () => {
   it("in POST /api/v1/attempts spec (2,000 levels)", async () => {
-    const res = await send("POST", "/api/v1/attempts", { cookie: cookies.trainee, json: { lesson: "outlets-and-overflows", answers: {}, spec: nested(2000), idempotencyKey: "deep-nest-01" } });
+    const res = await send("POST", "/api/v1/attempts", {
+      cookie: cookies.trainee,
+      json: { lesson: "outlets-and-overflows", answers: {}, spec: nested(2000), idempotencyKey: "deep-nest-01" },
+    });
     expect(res.status).toBe(400);
     const body = await res.json();
     expect(body.error.message).toMatch(/deeper than 64/);
@@ -158,7 +225,10 @@ describe("6. deep nesting is a 400 everywhere, by one rule", () => {
   });
 
   it("in the lesson form's spec field", async () => {
-    const res = await send("POST", "/lessons/outlets-and-overflows", { cookie: cookies.trainee, form: { idempotencyKey: "deep-nest-02", spec: JSON.stringify(nested(2000)) } });
+    const res = await send("POST", "/lessons/outlets-and-overflows", {
+      cookie: cookies.trainee,
+      form: { idempotencyKey: "deep-nest-02", spec: JSON.stringify(nested(2000)) },
+    });
     expect(res.status).toBe(400);
     expect(await res.text()).toContain("deeper than 64");
   });
@@ -172,17 +242,26 @@ describe("6. deep nesting is a 400 everywhere, by one rule", () => {
 describe("7. integers outside PostgreSQL's range are refused, naming the field", () => {
   it("version: 10000000000 in PUT /api/v1/roofs/:id", async () => {
     const roof = await newRoof();
-    const res = await send("PUT", `/api/v1/roofs/${roof.id}`, { cookie: cookies.designer, json: { name: "Renamed", version: 10_000_000_000 } });
+    const res = await send("PUT", `/api/v1/roofs/${roof.id}`, {
+      cookie: cookies.designer,
+      json: { name: "Renamed", version: 10_000_000_000 },
+    });
     expect(res.status).toBe(400);
     expect((await res.json()).error.issues).toContainEqual({ path: "version", message: "must be at most 2147483647" });
   });
 
   it("restore-version and rename intents", async () => {
     const roof = await newRoof();
-    const restore = await send("POST", `/roofs/${roof.id}?index`, { cookie: cookies.designer, form: { intent: "restore-version", version: "10000000000", expected: "1" } });
+    const restore = await send("POST", `/roofs/${roof.id}?index`, {
+      cookie: cookies.designer,
+      form: { intent: "restore-version", version: "10000000000", expected: "1" },
+    });
     expect(restore.status).toBe(400);
     expect(await restore.text()).toContain("version");
-    const rename = await send("POST", "/roofs?index", { cookie: cookies.designer, form: { intent: "rename", id: roof.id, name: "New name", version: "10000000000" } });
+    const rename = await send("POST", "/roofs?index", {
+      cookie: cookies.designer,
+      form: { intent: "rename", id: roof.id, name: "New name", version: "10000000000" },
+    });
     expect(rename.status).toBe(400);
     expect(await rename.text()).toContain("version");
   });
@@ -198,7 +277,10 @@ describe("8. ids that are not UUIDs never reach a query", () => {
   });
 
   it("admin intent=resend&userId=not-a-uuid", async () => {
-    const res = await send("POST", "/admin?index", { cookie: cookies.admin, form: { intent: "resend", userId: "not-a-uuid" } });
+    const res = await send("POST", "/admin?index", {
+      cookie: cookies.admin,
+      form: { intent: "resend", userId: "not-a-uuid" },
+    });
     expect(res.status).toBe(400);
     expect(await res.text()).toContain("userId");
   });
@@ -217,7 +299,15 @@ function bombPng(width: number, height: number): Buffer {
   ihdr.writeUInt32BE(height, 8);
   const crc = Buffer.alloc(4);
   crc.writeUInt32BE(crc32(ihdr) >>> 0);
-  return Buffer.concat([png.subarray(0, 12), ihdr, crc, png.subarray(33, png.length - 12), Buffer.from([0, 0, 0, 0]), Buffer.from("IEND"), Buffer.from([0xae, 0x42, 0x60, 0x82])]);
+  return Buffer.concat([
+    png.subarray(0, 12),
+    ihdr,
+    crc,
+    png.subarray(33, png.length - 12),
+    Buffer.from([0, 0, 0, 0]),
+    Buffer.from("IEND"),
+    Buffer.from([0xae, 0x42, 0x60, 0x82]),
+  ]);
 }
 
 describe("11. decompression bombs are refused as underlays", () => {
@@ -227,7 +317,11 @@ describe("11. decompression bombs are refused as underlays", () => {
     expect(bomb.length).toBeLessThan(200);
     const form = new FormData();
     form.append("file", new Blob([new Uint8Array(bomb)], { type: "image/png" }), "plan.png");
-    const res = await fetch(`${server.url}/roofs/${roof.id}/underlay`, { method: "POST", headers: { Origin: server.url, cookie: cookies.designer }, body: form });
+    const res = await fetch(`${server.url}/roofs/${roof.id}/underlay`, {
+      method: "POST",
+      headers: { Origin: server.url, cookie: cookies.designer },
+      body: form,
+    });
     expect(res.status).toBe(422);
     const body = await res.json();
     expect(body.error.message).toContain("20000 × 20000");
@@ -239,7 +333,11 @@ describe("11. decompression bombs are refused as underlays", () => {
     const roof = await newRoof();
     const form = new FormData();
     form.append("file", new Blob([new Uint8Array(bombPng(8192, 8192))], { type: "image/png" }), "plan.png");
-    const res = await fetch(`${server.url}/roofs/${roof.id}/underlay`, { method: "POST", headers: { Origin: server.url, cookie: cookies.designer }, body: form });
+    const res = await fetch(`${server.url}/roofs/${roof.id}/underlay`, {
+      method: "POST",
+      headers: { Origin: server.url, cookie: cookies.designer },
+      body: form,
+    });
     expect(res.status).toBe(201);
   });
 });
@@ -247,26 +345,49 @@ describe("11. decompression bombs are refused as underlays", () => {
 describe("12. an idempotency key reused with a different body is a 422 naming the key", () => {
   it("POST /api/v1/roofs with the same Idempotency-Key: same body replays, another body is refused", async () => {
     const key = `probe-${Date.now()}`;
-    const first = await send("POST", "/api/v1/roofs", { cookie: cookies.designer, json: { name: "Keyed", spec: SPEC }, headers: { "Idempotency-Key": key } });
+    const first = await send("POST", "/api/v1/roofs", {
+      cookie: cookies.designer,
+      json: { name: "Keyed", spec: SPEC },
+      headers: { "Idempotency-Key": key },
+    });
     expect(first.status).toBe(201);
-    const again = await send("POST", "/api/v1/roofs", { cookie: cookies.designer, json: { name: "Keyed", spec: SPEC }, headers: { "Idempotency-Key": key } });
+    const again = await send("POST", "/api/v1/roofs", {
+      cookie: cookies.designer,
+      json: { name: "Keyed", spec: SPEC },
+      headers: { "Idempotency-Key": key },
+    });
     expect(again.status).toBe(201);
     expect(again.headers.get("idempotent-replayed")).toBe("true");
     expect((await again.json()).id).toBe((await first.json()).id);
-    const other = await send("POST", "/api/v1/roofs", { cookie: cookies.designer, json: { name: "Something else", spec: SPEC }, headers: { "Idempotency-Key": key } });
+    const other = await send("POST", "/api/v1/roofs", {
+      cookie: cookies.designer,
+      json: { name: "Something else", spec: SPEC },
+      headers: { "Idempotency-Key": key },
+    });
     expect(other.status).toBe(422);
     expect((await other.json()).error.message).toContain(`"${key}"`);
   });
 
   it("POST /api/v1/attempts with the same key and other answers", async () => {
     const key = `attempt-${Date.now()}`;
-    const { lesson } = (await send("GET", "/api/v1/lessons/outlets-and-overflows").then((r) => r.json())) as { lesson: { task: { start: unknown } } };
+    const { lesson } = (await send("GET", "/api/v1/lessons/outlets-and-overflows").then((r) => r.json())) as {
+      lesson: { task: { start: unknown } };
+    };
     const spec = lesson.task.start;
-    const first = await send("POST", "/api/v1/attempts", { cookie: cookies.trainee, json: { lesson: "outlets-and-overflows", answers: {}, spec, idempotencyKey: key } });
+    const first = await send("POST", "/api/v1/attempts", {
+      cookie: cookies.trainee,
+      json: { lesson: "outlets-and-overflows", answers: {}, spec, idempotencyKey: key },
+    });
     expect(first.status).toBe(201);
-    const same = await send("POST", "/api/v1/attempts", { cookie: cookies.trainee, json: { lesson: "outlets-and-overflows", answers: {}, spec, idempotencyKey: key, timeSpentSeconds: 5 } });
+    const same = await send("POST", "/api/v1/attempts", {
+      cookie: cookies.trainee,
+      json: { lesson: "outlets-and-overflows", answers: {}, spec, idempotencyKey: key, timeSpentSeconds: 5 },
+    });
     expect(same.status).toBe(200);
-    const other = await send("POST", "/api/v1/attempts", { cookie: cookies.trainee, json: { lesson: "outlets-and-overflows", answers: { anything: "else" }, spec, idempotencyKey: key } });
+    const other = await send("POST", "/api/v1/attempts", {
+      cookie: cookies.trainee,
+      json: { lesson: "outlets-and-overflows", answers: { anything: "else" }, spec, idempotencyKey: key },
+    });
     expect(other.status).toBe(422);
     const body = await other.json();
     expect(body.error.message).toContain(`"${key}"`);
@@ -282,7 +403,9 @@ describe("comments that now hold", () => {
     const user = { id: u.id, email: u.email, name: u.name, role: u.role, organisationId: u.organisation_id };
     await k.transaction(async (trx) => {
       expect(await getRoofFor(user, roof.id, trx, { lock: true })).not.toBeNull();
-      await expect(k("roofs").where({ id: roof.id }).forUpdate().noWait().first("id")).rejects.toThrow(/could not obtain lock/);
+      await expect(k("roofs").where({ id: roof.id }).forUpdate().noWait().first("id")).rejects.toThrow(
+        /could not obtain lock/,
+      );
     });
     expect(await k("roofs").where({ id: roof.id }).forUpdate().noWait().first("id")).toEqual({ id: roof.id });
   });
@@ -293,4 +416,3 @@ describe("afterwards", () => {
     expect((await fetch(`${server.url}/healthz`)).status).toBe(200);
   });
 });
-

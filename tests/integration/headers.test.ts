@@ -62,7 +62,10 @@ describe("security headers", () => {
   });
 
   it("refuses cross-site writes with 403 before they reach a route", async () => {
-    const foreignOrigin = await fetch(server.url + "/", { method: "POST", headers: { Origin: "https://elsewhere.example" } });
+    const foreignOrigin = await fetch(server.url + "/", {
+      method: "POST",
+      headers: { Origin: "https://elsewhere.example" },
+    });
     expect(foreignOrigin.status).toBe(403);
     const crossSite = await fetch(server.url + "/", { method: "POST", headers: { "Sec-Fetch-Site": "cross-site" } });
     expect(crossSite.status).toBe(403);

@@ -29,13 +29,30 @@ interface Probe {
   multipart?: boolean;
 }
 
-const SPEC = { outline: [[0, 0], [18, 0], [18, 9], [0, 9]], outlets: [{ at: [9, 0] }], baseFall: "1:60" };
+const SPEC = {
+  outline: [
+    [0, 0],
+    [18, 0],
+    [18, 9],
+    [0, 9],
+  ],
+  outlets: [{ at: [9, 0] }],
+  baseFall: "1:60",
+};
 const SPEC_TEXT = JSON.stringify(SPEC);
 
 const SWEEP: Record<string, Probe[]> = {
   "/healthz": [{ who: "anonymous", method: "GET", path: "/healthz", query: { probe: "1" } }],
   "/api/v1": [{ who: "anonymous", method: "GET", path: "/api/v1", query: { probe: "1" } }],
-  "/api/v1/analyses": [{ who: "anonymous", method: "POST", path: "/api/v1/analyses", query: { mesh: "true", traces: "true" }, json: { ...SPEC, minFall: "1:80", probes: [[5, 5]], joists: { spacing: 0.6 } } }],
+  "/api/v1/analyses": [
+    {
+      who: "anonymous",
+      method: "POST",
+      path: "/api/v1/analyses",
+      query: { mesh: "true", traces: "true" },
+      json: { ...SPEC, minFall: "1:80", probes: [[5, 5]], joists: { spacing: 0.6 } },
+    },
+  ],
   "/api/v1/roofs": [
     { who: "designer", method: "GET", path: "/api/v1/roofs", query: { probe: "1" } },
     { who: "designer", method: "POST", path: "/api/v1/roofs", json: { name: "Sweep roof", spec: SPEC } },
@@ -43,7 +60,12 @@ const SWEEP: Record<string, Probe[]> = {
   "/api/v1/roofs/:id": [
     { who: "designer", method: "GET", path: "/api/v1/roofs/{roof}" },
     // A version far ahead: every well-formed write is a 409, so the sweep never changes the roof.
-    { who: "designer", method: "PUT", path: "/api/v1/roofs/{roof}", json: { name: "Sweep rename", spec: SPEC, version: 999_999 } },
+    {
+      who: "designer",
+      method: "PUT",
+      path: "/api/v1/roofs/{roof}",
+      json: { name: "Sweep rename", spec: SPEC, version: 999_999 },
+    },
   ],
   "/api/v1/lessons": [{ who: "anonymous", method: "GET", path: "/api/v1/lessons", query: { probe: "1" } }],
   "/api/v1/lessons/:slug": [{ who: "anonymous", method: "GET", path: "/api/v1/lessons/{lesson}" }],
@@ -58,13 +80,35 @@ const SWEEP: Record<string, Probe[]> = {
     },
   ],
   "/api/v1/attempts/:id": [{ who: "trainee", method: "GET", path: "/api/v1/attempts/{attempt}" }],
-  "/roofs/:id/underlay": [{ who: "designer", method: "POST", path: "/roofs/{roof}/underlay", form: { file: "not an image" }, multipart: true }],
-  "/roofs/new": [{ who: "designer", method: "POST", path: "/roofs/new", form: { name: "Sweep save", spec: SPEC_TEXT, idempotencyKey: "{fresh}" } }],
+  "/roofs/:id/underlay": [
+    {
+      who: "designer",
+      method: "POST",
+      path: "/roofs/{roof}/underlay",
+      form: { file: "not an image" },
+      multipart: true,
+    },
+  ],
+  "/roofs/new": [
+    {
+      who: "designer",
+      method: "POST",
+      path: "/roofs/new",
+      form: { name: "Sweep save", spec: SPEC_TEXT, idempotencyKey: "{fresh}" },
+    },
+  ],
   "/roofs/:id/export": [{ who: "designer", method: "GET", path: "/roofs/{roof}/export" }],
   "/logout": [{ who: "anonymous", method: "POST", path: "/logout", form: { probe: "1" } }],
-  "/sandbox/schedule.csv": [{ who: "anonymous", method: "POST", path: "/sandbox/schedule.csv", form: { spec: SPEC_TEXT } }],
+  "/sandbox/schedule.csv": [
+    { who: "anonymous", method: "POST", path: "/sandbox/schedule.csv", form: { spec: SPEC_TEXT } },
+  ],
   "/classes/:id/live": [
-    { who: "trainer", method: "POST", path: "/classes/{class}/live", json: { spec: SPEC, title: "Sweep", source: "sandbox", deck: "", step: { index: 0, count: 1 } } },
+    {
+      who: "trainer",
+      method: "POST",
+      path: "/classes/{class}/live",
+      json: { spec: SPEC, title: "Sweep", source: "sandbox", deck: "", step: { index: 0, count: 1 } },
+    },
   ],
   "/classes/:id/gradebook.csv": [{ who: "trainer", method: "GET", path: "/classes/{class}/gradebook.csv" }],
   "/classes/:id/present": [{ who: "trainer", method: "GET", path: "/classes/{class}/present" }],
@@ -73,53 +117,156 @@ const SWEEP: Record<string, Probe[]> = {
   "/sandbox/sheet": [{ who: "anonymous", method: "GET", path: "/sandbox/sheet", query: { from: "session" } }],
   "/lessons": [{ who: "anonymous", method: "GET", path: "/lessons", query: { probe: "1" } }],
   "/lessons/:slug": [
-    { who: "trainee", method: "POST", path: "/lessons/{lesson}", form: { "q:q1": "a", spec: SPEC_TEXT, idempotencyKey: "{fresh}", version: "", timeSpentSeconds: "12" } },
+    {
+      who: "trainee",
+      method: "POST",
+      path: "/lessons/{lesson}",
+      form: { "q:q1": "a", spec: SPEC_TEXT, idempotencyKey: "{fresh}", version: "", timeSpentSeconds: "12" },
+    },
   ],
   "/attempts": [{ who: "trainee", method: "GET", path: "/attempts", query: { probe: "1" } }],
   "/attempts/:id": [{ who: "trainee", method: "GET", path: "/attempts/{attempt}" }],
   "/attempts/:id/review": [
     { who: "trainer", method: "GET", path: "/attempts/{attempt}/review", query: { class: "{class}" } },
-    { who: "trainer", method: "POST", path: "/attempts/{attempt}/review", form: { comment: "Good work", override: "on", score: "80", passed: "yes", reason: "Checked by hand" } },
+    {
+      who: "trainer",
+      method: "POST",
+      path: "/attempts/{attempt}/review",
+      form: { comment: "Good work", override: "on", score: "80", passed: "yes", reason: "Checked by hand" },
+    },
   ],
   "/roofs": [
-    { who: "designer", method: "POST", path: "/roofs?index", form: { intent: "rename", id: "{roof}", name: "Sweep rename", version: "999999" } },
+    {
+      who: "designer",
+      method: "POST",
+      path: "/roofs?index",
+      form: { intent: "rename", id: "{roof}", name: "Sweep rename", version: "999999" },
+    },
     { who: "designer", method: "POST", path: "/roofs?index", form: { intent: "duplicate", id: "{roof}" } },
-    { who: "designer", method: "POST", path: "/roofs?index", form: { intent: "import", file: '{"format":"fallwright-roof"}', idempotencyKey: "{fresh}" }, multipart: true },
+    {
+      who: "designer",
+      method: "POST",
+      path: "/roofs?index",
+      form: { intent: "import", file: '{"format":"fallwright-roof"}', idempotencyKey: "{fresh}" },
+      multipart: true,
+    },
   ],
   "/roofs/:id": [
-    { who: "designer", method: "POST", path: "/roofs/{roof}", form: { intent: "restore-version", version: "1", expected: "999999" } },
-    { who: "designer", method: "POST", path: "/roofs/{roof}", form: { intent: "underlay", settings: '{"opacity":0.5}' } },
+    {
+      who: "designer",
+      method: "POST",
+      path: "/roofs/{roof}",
+      form: { intent: "restore-version", version: "1", expected: "999999" },
+    },
+    {
+      who: "designer",
+      method: "POST",
+      path: "/roofs/{roof}",
+      form: { intent: "underlay", settings: '{"opacity":0.5}' },
+    },
     { who: "designer", method: "POST", path: "/roofs/{roof}", form: { intent: "share", shared: "true" } },
     { who: "designer", method: "POST", path: "/roofs/{roof}", form: { intent: "duplicate", name: "Sweep copy" } },
   ],
-  "/classes": [{ who: "trainer", method: "POST", path: "/classes?index", form: { name: "Sweep class", startsOn: "2027-03-01", endsOn: "2027-03-31", venue: "Hall B" } }],
-  "/classes/:id": [
-    { who: "trainer", method: "POST", path: "/classes/{class}", form: { intent: "details", name: "Sweep class", startsOn: "2027-03-01", endsOn: "2027-03-31", venue: "Hall B" } },
-    { who: "trainer", method: "POST", path: "/classes/{class}", form: { intent: "invite", addresses: "sweep-invitee@fallwright-test.example" } },
-    { who: "trainer", method: "POST", path: "/classes/{class}", form: { intent: "remove", userId: "{traineeId}" } },
-    { who: "trainer", method: "POST", path: "/classes/{class}", form: { intent: "withdraw", email: "nobody@fallwright-test.example" } },
-    { who: "trainer", method: "POST", path: "/classes/{class}", form: { intent: "assignments", assign: "{lesson}", "due:{lesson}": "2027-04-01" } },
+  "/classes": [
+    {
+      who: "trainer",
+      method: "POST",
+      path: "/classes?index",
+      form: { name: "Sweep class", startsOn: "2027-03-01", endsOn: "2027-03-31", venue: "Hall B" },
+    },
   ],
-  "/classes/:id/gradebook": [{ who: "trainer", method: "GET", path: "/classes/{class}/gradebook", query: { probe: "1" } }],
+  "/classes/:id": [
+    {
+      who: "trainer",
+      method: "POST",
+      path: "/classes/{class}",
+      form: { intent: "details", name: "Sweep class", startsOn: "2027-03-01", endsOn: "2027-03-31", venue: "Hall B" },
+    },
+    {
+      who: "trainer",
+      method: "POST",
+      path: "/classes/{class}",
+      form: { intent: "invite", addresses: "sweep-invitee@fallwright-test.example" },
+    },
+    { who: "trainer", method: "POST", path: "/classes/{class}", form: { intent: "remove", userId: "{traineeId}" } },
+    {
+      who: "trainer",
+      method: "POST",
+      path: "/classes/{class}",
+      form: { intent: "withdraw", email: "nobody@fallwright-test.example" },
+    },
+    {
+      who: "trainer",
+      method: "POST",
+      path: "/classes/{class}",
+      form: { intent: "assignments", assign: "{lesson}", "due:{lesson}": "2027-04-01" },
+    },
+  ],
+  "/classes/:id/gradebook": [
+    { who: "trainer", method: "GET", path: "/classes/{class}/gradebook", query: { probe: "1" } },
+  ],
   "/classes/:id/follow": [{ who: "trainee", method: "GET", path: "/classes/{class}/follow", query: { probe: "1" } }],
   "/gradebook": [{ who: "trainer", method: "GET", path: "/gradebook", query: { class: "{class}" } }],
   "/login": [
     { who: "trainee", method: "GET", path: "/login", query: { redirectTo: "/roofs", notice: "signed-out" } },
-    { who: "anonymous", method: "POST", path: "/login", form: { email: "designer@tidemark.example", password: "not the password", redirectTo: "/roofs" } },
+    {
+      who: "anonymous",
+      method: "POST",
+      path: "/login",
+      form: { email: "designer@tidemark.example", password: "not the password", redirectTo: "/roofs" },
+    },
   ],
-  "/signup": [{ who: "anonymous", method: "POST", path: "/signup", form: { name: "Sweep Person", email: "sweep-signup@fallwright-test.example", password: "slate gutter heron 42", confirm: "slate gutter heron 42" } }],
-  "/forgot-password": [{ who: "anonymous", method: "POST", path: "/forgot-password", form: { email: "designer@tidemark.example" } }],
-  "/reset-password/:token": [{ who: "anonymous", method: "POST", path: "/reset-password/{resetToken}", form: { password: "x", confirm: "y" } }],
-  "/invite/:token": [{ who: "anonymous", method: "POST", path: "/invite/{inviteToken}", form: { name: "Sweep Invitee", password: "x", confirm: "y" } }],
+  "/signup": [
+    {
+      who: "anonymous",
+      method: "POST",
+      path: "/signup",
+      form: {
+        name: "Sweep Person",
+        email: "sweep-signup@fallwright-test.example",
+        password: "slate gutter heron 42",
+        confirm: "slate gutter heron 42",
+      },
+    },
+  ],
+  "/forgot-password": [
+    { who: "anonymous", method: "POST", path: "/forgot-password", form: { email: "designer@tidemark.example" } },
+  ],
+  "/reset-password/:token": [
+    { who: "anonymous", method: "POST", path: "/reset-password/{resetToken}", form: { password: "x", confirm: "y" } },
+  ],
+  "/invite/:token": [
+    {
+      who: "anonymous",
+      method: "POST",
+      path: "/invite/{inviteToken}",
+      form: { name: "Sweep Invitee", password: "x", confirm: "y" },
+    },
+  ],
   "/account": [
     { who: "designer", method: "GET", path: "/account", query: { notice: "password-reset" } },
     { who: "designer", method: "POST", path: "/account", form: { intent: "name", name: "Dana Designer" } },
-    { who: "designer", method: "POST", path: "/account", form: { intent: "password", current: "wrong", password: "x", confirm: "y" } },
+    {
+      who: "designer",
+      method: "POST",
+      path: "/account",
+      form: { intent: "password", current: "wrong", password: "x", confirm: "y" },
+    },
   ],
   "/admin": [
     { who: "admin", method: "GET", path: "/admin?index", query: { q: "tidemark", role: "trainee", status: "active" } },
-    { who: "admin", method: "POST", path: "/admin?index", form: { intent: "invite", email: "sweep-admin-invite@fallwright-test.example", role: "designer" } },
-    { who: "admin", method: "POST", path: "/admin?index", form: { intent: "role", userId: "{designerId}", role: "designer" } },
+    {
+      who: "admin",
+      method: "POST",
+      path: "/admin?index",
+      form: { intent: "invite", email: "sweep-admin-invite@fallwright-test.example", role: "designer" },
+    },
+    {
+      who: "admin",
+      method: "POST",
+      path: "/admin?index",
+      form: { intent: "role", userId: "{designerId}", role: "designer" },
+    },
     { who: "admin", method: "POST", path: "/admin?index", form: { intent: "resend", userId: "{designerId}" } },
     { who: "admin", method: "POST", path: "/admin?index", form: { intent: "signup", open: "off" } },
   ],
@@ -137,7 +284,11 @@ const nested = (levels: number): unknown => {
 const HOSTILE: { name: string; text: string; json: unknown }[] = [
   { name: "NUL", text: "a\u0000b", json: "a\u0000b" },
   { name: "over-long", text: "x".repeat(100_000), json: "x".repeat(100_000) },
-  { name: "control characters", text: "\u0001\u0008\u001b[31m\u007f\r\n\t\u2028\ufeff", json: "\u0001\u0008\u001b[31m\u007f\r\n\t\u2028\ufeff" },
+  {
+    name: "control characters",
+    text: "\u0001\u0008\u001b[31m\u007f\r\n\t\u2028\ufeff",
+    json: "\u0001\u0008\u001b[31m\u007f\r\n\t\u2028\ufeff",
+  },
   { name: "integer out of range", text: "10000000000", json: 10_000_000_000 },
   { name: "huge number", text: "1e400", json: 1e308 },
   { name: "negative", text: "-2147483649", json: -2_147_483_649 },
@@ -154,7 +305,8 @@ const values: Record<string, string> = {};
 
 beforeAll(async () => {
   server = await startServer(database.url());
-  for (const who of ["admin", "trainer", "trainee", "designer"] as const) cookies[who] = await sessionCookie(`${who}@tidemark.example`);
+  for (const who of ["admin", "trainer", "trainee", "designer"] as const)
+    cookies[who] = await sessionCookie(`${who}@tidemark.example`);
   const k = database.db();
   values.roof = (await k("roofs").where({ name: "Library annex, Harrow Lane" }).first("id")).id;
   values.class = (await k("classes").where({ name: "Parapet roofs, spring cohort" }).first("id")).id;
@@ -166,12 +318,26 @@ beforeAll(async () => {
     headers: { "Content-Type": "application/json", Origin: server.url, cookie: cookies.trainee! },
     body: JSON.stringify({ lesson: values.lesson, answers: {}, spec: SPEC, idempotencyKey: "sweep-setup-attempt" }),
   });
-  values.attempt = made.ok ? (await made.json()).attempt.id : (await k("attempts").where({ trainee_id: values.traineeId }).first("id")).id;
+  values.attempt = made.ok
+    ? (await made.json()).attempt.id
+    : (await k("attempts").where({ trainee_id: values.traineeId }).first("id")).id;
   const org = await k("organisations").first("id");
-  values.resetToken = await issueToken({ kind: "reset", email: "designer@tidemark.example", userId: values.designerId, ttlSeconds: 3600 });
+  values.resetToken = await issueToken({
+    kind: "reset",
+    email: "designer@tidemark.example",
+    userId: values.designerId,
+    ttlSeconds: 3600,
+  });
   const invitee = uniqueAddress("sweep-invite");
-  await createInvitation({ email: invitee, role: "trainee", invitedBy: { id: await userIdOf("admin@tidemark.example"), role: "admin", organisationId: org.id }, origin: "http://localhost" });
-  values.inviteToken = linkIn(await waitForMail(invitee), "/invite/").pathname.split("/").pop()!;
+  await createInvitation({
+    email: invitee,
+    role: "trainee",
+    invitedBy: { id: await userIdOf("admin@tidemark.example"), role: "admin", organisationId: org.id },
+    origin: "http://localhost",
+  });
+  values.inviteToken = linkIn(await waitForMail(invitee), "/invite/")
+    .pathname.split("/")
+    .pop()!;
 }, 120_000);
 afterAll(async () => {
   await server?.stop();
@@ -179,7 +345,10 @@ afterAll(async () => {
 
 /** Placeholders: seed ids and tokens from `values`; {fresh} is a new idempotency key each time, so no request replays another. */
 let serial = 0;
-const fill = (s: string) => s.replace(/\{(\w+)\}/g, (_, name: string) => (name === "fresh" ? `sweep-${Date.now().toString(36)}-${serial++}` : (values[name] ?? `{${name}}`)));
+const fill = (s: string) =>
+  s.replace(/\{(\w+)\}/g, (_, name: string) =>
+    name === "fresh" ? `sweep-${Date.now().toString(36)}-${serial++}` : (values[name] ?? `{${name}}`),
+  );
 
 /** One request: the probe with `field` (in `where`) set to a hostile value. */
 type Where = "path" | "query" | "form" | "json";
@@ -187,7 +356,12 @@ type Where = "path" | "query" | "form" | "json";
 /** Node refuses request heads over 16 kB itself (431); in a URL "over-long" stays under that to reach the app. */
 const inUrl = (h: (typeof HOSTILE)[number]) => (h.name === "over-long" ? h.text.slice(0, 8000) : h.text);
 
-function request(p: Probe, where: Where, field: string, h: (typeof HOSTILE)[number]): { url: string; init: RequestInit } {
+function request(
+  p: Probe,
+  where: Where,
+  field: string,
+  h: (typeof HOSTILE)[number],
+): { url: string; init: RequestInit } {
   const path = where === "path" ? p.path.replace(`{${field}}`, encodeURIComponent(inUrl(h))) : p.path;
   const url = new URL(fill(path), server.url);
   const query = Object.entries(p.query ?? {}).map(([k, v]) => [fill(k), fill(v)] as [string, string]);
@@ -198,7 +372,10 @@ function request(p: Probe, where: Where, field: string, h: (typeof HOSTILE)[numb
     return h.name === "array for a scalar" ? [...rest, [field, "a"], [field, "b"]] : [...rest, [field, text]];
   };
   for (const [k, v] of where === "query" ? put(query) : query) url.searchParams.append(k, v);
-  const headers: Record<string, string> = { Origin: server.url, ...(cookies[p.who as Exclude<Who, "anonymous">] ? { cookie: cookies[p.who as Exclude<Who, "anonymous">]! } : {}) };
+  const headers: Record<string, string> = {
+    Origin: server.url,
+    ...(cookies[p.who as Exclude<Who, "anonymous">] ? { cookie: cookies[p.who as Exclude<Who, "anonymous">]! } : {}),
+  };
   let body: BodyInit | undefined;
   if (p.json) {
     const json = JSON.parse(fill(JSON.stringify(p.json))) as Record<string, unknown>;
@@ -210,7 +387,12 @@ function request(p: Probe, where: Where, field: string, h: (typeof HOSTILE)[numb
     if (p.multipart) {
       const fd = new FormData();
       for (const [k, v] of entries) {
-        if (k === "file") fd.append(k, new Blob([v], { type: "application/octet-stream" }), where === "form" && field === "file" ? `${h.text.slice(0, 200)}.png` : "plan.png");
+        if (k === "file")
+          fd.append(
+            k,
+            new Blob([v], { type: "application/octet-stream" }),
+            where === "form" && field === "file" ? `${h.text.slice(0, 200)}.png` : "plan.png",
+          );
         else fd.append(k, v);
       }
       body = fd;
@@ -226,7 +408,10 @@ const routes = [...new Map(allRoutePaths().map((r) => [r.path, r])).values()];
 
 describe("hostile-input sweep over every route", () => {
   it("covers every route in app/routes.ts, and none that are gone", () => {
-    expect(routes.filter((r) => !SWEEP[r.path]).map((r) => r.path), "add these routes to SWEEP in tests/integration/hostile-input.test.ts").toEqual([]);
+    expect(
+      routes.filter((r) => !SWEEP[r.path]).map((r) => r.path),
+      "add these routes to SWEEP in tests/integration/hostile-input.test.ts",
+    ).toEqual([]);
     expect(Object.keys(SWEEP).filter((p) => !routes.some((r) => r.path === p))).toEqual([]);
   });
 
@@ -246,7 +431,9 @@ describe("hostile-input sweep over every route", () => {
           for (const h of HOSTILE) {
             const { url, init } = request(p, where, field, h);
             const res = await fetch(url, init);
-            const text = (res.headers.get("content-type") ?? "").includes("event-stream") ? "(stream)" : await res.text();
+            const text = (res.headers.get("content-type") ?? "").includes("event-stream")
+              ? "(stream)"
+              : await res.text();
             if (res.body && text === "(stream)") await res.body.cancel();
             const what = `${p.method} ${p.path} ${where} ${field} = ${h.name} → ${res.status}`;
             if (res.status >= 500) failures.push(`${what}: ${text.slice(0, 300)}`);

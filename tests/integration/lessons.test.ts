@@ -15,7 +15,8 @@ import type { Lesson } from "~/lib/lessons/schema";
 const { db } = useTestDatabase();
 
 const OUTLETS = getLesson("outlets-and-overflows")!;
-const rightAnswers = (l: Lesson) => Object.fromEntries(l.quiz.map((q) => [q.id, q.kind === "choice" ? q.correct : q.answer]));
+const rightAnswers = (l: Lesson) =>
+  Object.fromEntries(l.quiz.map((q) => [q.id, q.kind === "choice" ? q.correct : q.answer]));
 const body = (over: Record<string, unknown> = {}) => ({
   lesson: OUTLETS.slug,
   answers: rightAnswers(OUTLETS),
@@ -24,7 +25,8 @@ const body = (over: Record<string, unknown> = {}) => ({
   timeSpentSeconds: 95,
   ...over,
 });
-const post = (b: unknown, cookie?: string, headers?: Record<string, string>) => call(attemptsApi.action, jsonRequest("POST", "/api/v1/attempts", b, cookie, headers));
+const post = (b: unknown, cookie?: string, headers?: Record<string, string>) =>
+  call(attemptsApi.action, jsonRequest("POST", "/api/v1/attempts", b, cookie, headers));
 
 describe("lessons in the database", () => {
   it("are synced by the seed: one row per lesson file, the current version in lesson_versions", async () => {
@@ -43,7 +45,10 @@ describe("lessons in the database", () => {
     expect((await syncLessons(db(), [edited])).changed).toEqual([edited.slug]);
     const after = await db()("lesson_versions").count<{ count: string }[]>("* as count");
     expect(Number(after[0].count)).toBe(Number(before[0].count) + 1);
-    expect(await db()("lessons").where({ slug: edited.slug }).first("title", "version")).toEqual({ title: "Edited title", version: "f".repeat(64) });
+    expect(await db()("lessons").where({ slug: edited.slug }).first("title", "version")).toEqual({
+      title: "Edited title",
+      version: "f".repeat(64),
+    });
     await syncLessons(db(), [allLessons()[0]]);
     expect(await db()("lessons").where({ slug: edited.slug }).first("title")).toEqual({ title: allLessons()[0].title });
   });
@@ -66,12 +71,21 @@ describe("lessons in the database", () => {
 describe("one attempt row per idempotency key", () => {
   it("two concurrent submits with one key make one row and both answer with it", async () => {
     const trainee = await userId("trainee4@tidemark.example");
-    const sub = { ...body(), answers: rightAnswers(OUTLETS), version: undefined, timeSpentSeconds: 10 } as Parameters<typeof createAttempt>[2];
-    const [a, b] = await Promise.all([createAttempt(db(), trainee, sub, getLesson), createAttempt(db(), trainee, sub, getLesson)]);
+    const sub = { ...body(), answers: rightAnswers(OUTLETS), version: undefined, timeSpentSeconds: 10 } as Parameters<
+      typeof createAttempt
+    >[2];
+    const [a, b] = await Promise.all([
+      createAttempt(db(), trainee, sub, getLesson),
+      createAttempt(db(), trainee, sub, getLesson),
+    ]);
     if (!("attempt" in a) || !("attempt" in b)) throw new Error("not created");
     expect(a.attempt.id).toBe(b.attempt.id);
     expect([a.status, b.status].sort()).toEqual([200, 201]);
-    expect(await db()("attempts").where({ trainee_id: trainee, idempotency_key: sub.idempotencyKey }).count<{ count: string }[]>("* as count")).toEqual([{ count: "1" }]);
+    expect(
+      await db()("attempts")
+        .where({ trainee_id: trainee, idempotency_key: sub.idempotencyKey })
+        .count<{ count: string }[]>("* as count"),
+    ).toEqual([{ count: "1" }]);
   });
 
   it("through the API: 201 then 200 with the same attempt; five racing posts still one row", async () => {
@@ -89,20 +103,38 @@ describe("one attempt row per idempotency key", () => {
     const ids = new Set(await Promise.all(all.map(async (r) => (await r.json()).attempt.id)));
     expect(ids.size).toBe(1);
     expect(all.filter((r) => r.status === 201)).toHaveLength(1);
-    expect(await db()("attempts").where({ idempotency_key: race.idempotencyKey }).count<{ count: string }[]>("* as count")).toEqual([{ count: "1" }]);
+    expect(
+      await db()("attempts").where({ idempotency_key: race.idempotencyKey }).count<{ count: string }[]>("* as count"),
+    ).toEqual([{ count: "1" }]);
   });
 
   it("the player's form double submit makes one attempt too", async () => {
     const cookie = await cookieFor("trainee2@tidemark.example");
-    const fields = new URLSearchParams({ idempotencyKey: "form-key-0001", version: OUTLETS.version, spec: JSON.stringify(OUTLETS.task.reference), timeSpentSeconds: "61" });
-    for (const [id, v] of Object.entries(rightAnswers(OUTLETS))) for (const x of [v].flat()) fields.append(`q:${id}`, x as string);
+    const fields = new URLSearchParams({
+      idempotencyKey: "form-key-0001",
+      version: OUTLETS.version,
+      spec: JSON.stringify(OUTLETS.task.reference),
+      timeSpentSeconds: "61",
+    });
+    for (const [id, v] of Object.entries(rightAnswers(OUTLETS)))
+      for (const x of [v].flat()) fields.append(`q:${id}`, x as string);
     const submit = () =>
-      call(player.action, new Request(`http://localhost/lessons/${OUTLETS.slug}`, { method: "POST", headers: { "Content-Type": "application/x-www-form-urlencoded", cookie }, body: fields }), { slug: OUTLETS.slug });
+      call(
+        player.action,
+        new Request(`http://localhost/lessons/${OUTLETS.slug}`, {
+          method: "POST",
+          headers: { "Content-Type": "application/x-www-form-urlencoded", cookie },
+          body: fields,
+        }),
+        { slug: OUTLETS.slug },
+      );
     const [x, y] = await Promise.all([submit(), submit()]);
     const [dx, dy] = [await x.json(), await y.json()];
     expect(dx.attempt.id).toBe(dy.attempt.id);
     expect(dx.attempt).toMatchObject({ passed: true, score: 100, timeSpentSeconds: 61 });
-    expect(await db()("attempts").where({ idempotency_key: "form-key-0001" }).count<{ count: string }[]>("* as count")).toEqual([{ count: "1" }]);
+    expect(
+      await db()("attempts").where({ idempotency_key: "form-key-0001" }).count<{ count: string }[]>("* as count"),
+    ).toEqual([{ count: "1" }]);
   });
 });
 
@@ -115,7 +147,10 @@ describe("attempts API: grading on the server and statuses", () => {
     expect(failed.passed).toBe(false);
     const fallLine = failed.results.task.find((i: { id: string }) => i.id === "fall-line");
     // CHECK: docs/roof-method.md §3 and §7 by hand - H = 9 m / 60 = 150 mm; corner outlet to the far corner 20.12 m → 1:134.2.
-    expect(fallLine).toMatchObject({ passed: false, measured: expect.stringMatching(/^1:134\.2 over 20\.1 m, drop 150 mm$/) });
+    expect(fallLine).toMatchObject({
+      passed: false,
+      measured: expect.stringMatching(/^1:134\.2 over 20\.1 m, drop 150 mm$/),
+    });
     expect(failed.results.quiz.every((q: { passed: boolean }) => q.passed)).toBe(true);
     // Quiz 4 of 4 + criteria 0 of 3, 1 of 1, 1 of 1: 6 of 9 points.
     expect(failed.score).toBeCloseTo(66.7, 1);
@@ -141,7 +176,21 @@ describe("attempts API: grading on the server and statuses", () => {
     expect((await post(body({ version: "0".repeat(64) }), cookie)).status).toBe(409);
     const malformed = await post(body({ spec: { outline: "square" } }), cookie);
     expect(malformed.status).toBe(400);
-    const unbuildable = await post(body({ spec: { outline: [[0, 0], [10, 10], [10, 0], [0, 10]], outlets: [], baseFall: "1:60" } }), cookie);
+    const unbuildable = await post(
+      body({
+        spec: {
+          outline: [
+            [0, 0],
+            [10, 10],
+            [10, 0],
+            [0, 10],
+          ],
+          outlets: [],
+          baseFall: "1:60",
+        },
+      }),
+      cookie,
+    );
     expect(unbuildable.status).toBe(422);
     expect((await unbuildable.json()).error.message).toMatch(/cannot be built/);
     for (const junk of [null, 42, [], "x", { lesson: 1 }, body({ timeSpentSeconds: -1 }), body({ spec: null })]) {
@@ -152,7 +201,12 @@ describe("attempts API: grading on the server and statuses", () => {
 
   it("grades an attempt on the lesson version it names, if that version is stored", async () => {
     const cookie = await cookieFor("trainee@tidemark.example");
-    const old = { ...OUTLETS, version: "a".repeat(64), passMark: 10, task: { ...OUTLETS.task, criteria: OUTLETS.task.criteria.slice(1) } };
+    const old = {
+      ...OUTLETS,
+      version: "a".repeat(64),
+      passMark: 10,
+      task: { ...OUTLETS.task, criteria: OUTLETS.task.criteria.slice(1) },
+    };
     await db()("lesson_versions").insert({ slug: old.slug, version: old.version, content: JSON.stringify(old) });
     const r = await post(body({ version: old.version }), cookie);
     expect(r.status).toBe(201);
@@ -164,7 +218,8 @@ describe("attempts API: grading on the server and statuses", () => {
 
   it("lists my attempts; trainers see their own classes' trainees only; others get 403", async () => {
     const tess = await userId("trainee@tidemark.example");
-    const list = async (q: string, email: string) => call(attemptsApi.loader, getRequest(`/api/v1/attempts${q}`, await cookieFor(email)));
+    const list = async (q: string, email: string) =>
+      call(attemptsApi.loader, getRequest(`/api/v1/attempts${q}`, await cookieFor(email)));
     const mine = await list("?mine=1", "trainee@tidemark.example");
     expect(mine.status).toBe(200);
     const attempts = (await mine.json()).attempts;
@@ -183,12 +238,14 @@ describe("attempts API: grading on the server and statuses", () => {
   it("shows one attempt to its trainee and their trainer, and 404 to anyone else", async () => {
     const tess = await userId("trainee@tidemark.example");
     const row = await db()("attempts").where({ trainee_id: tess }).first("id");
-    const one = async (email: string) => call(attemptApi.loader, getRequest(`/api/v1/attempts/${row.id}`, await cookieFor(email)), { id: row.id });
+    const one = async (email: string) =>
+      call(attemptApi.loader, getRequest(`/api/v1/attempts/${row.id}`, await cookieFor(email)), { id: row.id });
     expect((await one("trainee@tidemark.example")).status).toBe(200);
     expect((await one("trainer@tidemark.example")).status).toBe(200);
     expect((await one("trainee2@tidemark.example")).status).toBe(404);
     expect((await one("trainer2@tidemark.example")).status).toBe(404);
-    const page = async (email: string) => call(attemptPage.loader, getRequest(`/attempts/${row.id}`, await cookieFor(email)), { id: row.id });
+    const page = async (email: string) =>
+      call(attemptPage.loader, getRequest(`/attempts/${row.id}`, await cookieFor(email)), { id: row.id });
     expect((await page("trainee@tidemark.example")).status).toBe(200);
     expect((await page("trainee3@tidemark.example")).status).toBe(404);
   });
@@ -197,8 +254,13 @@ describe("attempts API: grading on the server and statuses", () => {
     const listed = await (await call(lessonsApi.loader, getRequest("/api/v1/lessons"))).json();
     expect(listed.lessons.map((l: { slug: string }) => l.slug)).toEqual(allLessons().map((l) => l.slug));
     expect(listed.lessons[0].progress).toBeUndefined();
-    const withProgress = await (await call(lessonsApi.loader, getRequest("/api/v1/lessons", await cookieFor("trainee@tidemark.example")))).json();
-    expect(withProgress.lessons.find((l: { slug: string }) => l.slug === "reading-falls").progress).toMatchObject({ passed: true, bestScore: 100 });
+    const withProgress = await (
+      await call(lessonsApi.loader, getRequest("/api/v1/lessons", await cookieFor("trainee@tidemark.example")))
+    ).json();
+    expect(withProgress.lessons.find((l: { slug: string }) => l.slug === "reading-falls").progress).toMatchObject({
+      passed: true,
+      bestScore: 100,
+    });
     const res = await call(lessonApi.loader, getRequest(`/api/v1/lessons/${OUTLETS.slug}`), { slug: OUTLETS.slug });
     expect(res.status).toBe(200);
     const text = await res.text();

@@ -32,7 +32,10 @@ async function cookieFor(server: RunningServer, email: string) {
     body: new URLSearchParams({ email, password: "fallwright-demo" }),
   });
   expect(res.status).toBe(302);
-  return res.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
+  return res.headers
+    .getSetCookie()
+    .map((c) => c.split(";")[0])
+    .join("; ");
 }
 
 describe("classroom mode on two app processes", () => {
@@ -40,7 +43,10 @@ describe("classroom mode on two app processes", () => {
     const trainer = await cookieFor(a, "trainer@tidemark.example");
     const trainee = await cookieFor(b, "trainee@tidemark.example");
     const ctrl = new AbortController();
-    const stream = await fetch(`${b.url}/classes/${classId}/live`, { headers: { cookie: trainee, Accept: "text/event-stream" }, signal: ctrl.signal });
+    const stream = await fetch(`${b.url}/classes/${classId}/live`, {
+      headers: { cookie: trainee, Accept: "text/event-stream" },
+      signal: ctrl.signal,
+    });
     expect(stream.status).toBe(200);
     expect(stream.headers.get("content-type")).toMatch(/^text\/event-stream/);
     expect(stream.headers.get("content-encoding")).toBeNull();
@@ -52,14 +58,23 @@ describe("classroom mode on two app processes", () => {
       const posted = await fetch(`${a.url}/classes/${classId}/live`, {
         method: "POST",
         headers: { cookie: trainer, "Content-Type": "application/json", Origin: a.url },
-        body: JSON.stringify({ spec: { ...SPEC, outlets: [{ at: [x, 0] }] }, title: `outlet at ${x}`, source: "Two processes", deck: "test", step: null }),
+        body: JSON.stringify({
+          spec: { ...SPEC, outlets: [{ at: [x, 0] }] },
+          title: `outlet at ${x}`,
+          source: "Two processes",
+          deck: "test",
+          step: null,
+        }),
       });
       expect(posted.status).toBe(200);
       const { seq } = await posted.json();
       const got = await events.next(10_000);
       expect(Number(got.id)).toBe(seq);
       expect(seq).toBeGreaterThan(first.seq);
-      expect(JSON.parse(got.data).state).toMatchObject({ title: `outlet at ${x}`, spec: { outlets: [{ at: [x, 0] }] } });
+      expect(JSON.parse(got.data).state).toMatchObject({
+        title: `outlet at ${x}`,
+        spec: { outlets: [{ at: [x, 0] }] },
+      });
     }
     ctrl.abort();
     await events.cancel();
@@ -68,7 +83,10 @@ describe("classroom mode on two app processes", () => {
   it("a server shutting down ends its open streams instead of waiting on them", async () => {
     const trainee = await cookieFor(b, "trainee@tidemark.example");
     const ctrl = new AbortController();
-    const stream = await fetch(`${b.url}/classes/${classId}/live`, { headers: { cookie: trainee }, signal: ctrl.signal });
+    const stream = await fetch(`${b.url}/classes/${classId}/live`, {
+      headers: { cookie: trainee },
+      signal: ctrl.signal,
+    });
     const events = sseReader(stream.body!);
     await events.next(3000);
     // Generous ceiling: a server that waited on the open stream would never stop.

@@ -4,7 +4,15 @@ import { useTestDatabase } from "../support/db";
 import { callRoute, ORIGIN, sessionCookie } from "../support/accounts";
 import { demoClassId, SPEC, sseReader } from "../support/classes";
 import * as live from "~/routes/classes.$id.live";
-import { closeListeners, LiveHub, liveHub, publishLiveState, readLiveState, type LiveContent, type LiveSnapshot } from "~/lib/live.server";
+import {
+  closeListeners,
+  LiveHub,
+  liveHub,
+  publishLiveState,
+  readLiveState,
+  type LiveContent,
+  type LiveSnapshot,
+} from "~/lib/live.server";
 
 // Classroom mode (docs/product.md capability 6): LISTEN/NOTIFY through PostgreSQL reaches every app process.
 const database = useTestDatabase();
@@ -59,9 +67,11 @@ function collector(hub: LiveHub, id: string) {
 }
 
 async function listenerPids(): Promise<number[]> {
-  const { rows } = await database.db().raw(
-    `select pid from pg_stat_activity where datname = current_database() and pid <> pg_backend_pid() and (query ilike 'listen class_live%' or query = 'select 1')`,
-  );
+  const { rows } = await database
+    .db()
+    .raw(
+      `select pid from pg_stat_activity where datname = current_database() and pid <> pg_backend_pid() and (query ilike 'listen class_live%' or query = 'select 1')`,
+    );
   return rows.map((r: { pid: number }) => r.pid);
 }
 
@@ -124,7 +134,10 @@ describe("GET /classes/:id/live (server-sent events)", () => {
     const headers: Record<string, string> = { cookie };
     if (lastEventId !== undefined) headers["Last-Event-ID"] = lastEventId;
     const request = new Request(`${ORIGIN}/classes/${classId}/live`, { headers, signal: ctrl.signal });
-    return { ctrl, response: live.loader({ request, params: { id: classId }, context: {} } as never) as Promise<Response> };
+    return {
+      ctrl,
+      response: live.loader({ request, params: { id: classId }, context: {} } as never) as Promise<Response>,
+    };
   }
 
   it("sends the current state at once with its seq as the event id, then every change", async () => {
@@ -141,13 +154,23 @@ describe("GET /classes/:id/live (server-sent events)", () => {
     const post = new Request(`${ORIGIN}/classes/${classId}/live`, {
       method: "POST",
       headers: { cookie: trainer, "Content-Type": "application/json" },
-      body: JSON.stringify({ spec: { ...SPEC, outlets: [{ at: [2, 0] }] }, title: "moved", source: "Test deck", deck: "test", step: { index: 0, count: 1 } }),
+      body: JSON.stringify({
+        spec: { ...SPEC, outlets: [{ at: [2, 0] }] },
+        title: "moved",
+        source: "Test deck",
+        deck: "test",
+        step: { index: 0, count: 1 },
+      }),
     });
     const posted = await callRoute(live.action, post, { params: { id: classId } });
     expect(posted.status).toBe(200);
     const next = await events.next(10_000);
     expect(next.id).toBe(String(now + 1));
-    expect(JSON.parse(next.data).state).toMatchObject({ title: "moved", presenter: "Tomas Verrall", spec: { outlets: [{ at: [2, 0] }] } });
+    expect(JSON.parse(next.data).state).toMatchObject({
+      title: "moved",
+      presenter: "Tomas Verrall",
+      spec: { outlets: [{ at: [2, 0] }] },
+    });
     ctrl.abort();
     await events.cancel();
   });
@@ -172,34 +195,75 @@ describe("GET /classes/:id/live (server-sent events)", () => {
 
   it("the presenter's update is checked: JSON only, a roof the engine accepts", async () => {
     const send = (body: string, type = "application/json") =>
-      callRoute(live.action, new Request(`${ORIGIN}/classes/${classId}/live`, { method: "POST", headers: { cookie: trainer, "Content-Type": type }, body }), { params: { id: classId } });
+      callRoute(
+        live.action,
+        new Request(`${ORIGIN}/classes/${classId}/live`, {
+          method: "POST",
+          headers: { cookie: trainer, "Content-Type": type },
+          body,
+        }),
+        { params: { id: classId } },
+      );
     const seq = (await readLiveState(classId))!.seq;
     expect((await send("spec=1", "application/x-www-form-urlencoded")).status).toBe(415);
     expect((await send("{not json")).status).toBe(400);
     expect((await send(JSON.stringify({ spec: { outline: "square" } }))).status).toBe(400);
-    const crossing = await send(JSON.stringify({ spec: { ...SPEC, outline: [[0, 0], [10, 10], [10, 0], [0, 10]] } }));
+    const crossing = await send(
+      JSON.stringify({
+        spec: {
+          ...SPEC,
+          outline: [
+            [0, 0],
+            [10, 10],
+            [10, 0],
+            [0, 10],
+          ],
+        },
+      }),
+    );
     expect([400, 422]).toContain(crossing.status);
     expect((await send(JSON.stringify({ spec: SPEC, title: "x".repeat(500) }))).status).toBe(400);
     expect((await readLiveState(classId))!.seq).toBe(seq);
-    const get = await callRoute(live.action, new Request(`${ORIGIN}/classes/${classId}/live`, { method: "PUT", headers: { cookie: trainer } }), { params: { id: classId } });
+    const get = await callRoute(
+      live.action,
+      new Request(`${ORIGIN}/classes/${classId}/live`, { method: "PUT", headers: { cookie: trainer } }),
+      { params: { id: classId } },
+    );
     expect(get.status).toBe(405);
   });
 
   it("never answers 500 to random or hostile bodies (docs/quality.md, Reliability → Bad input)", async () => {
-    const num = fc.oneof(fc.constantFrom(0, -0, 1e308, -1e308, 5e-324, -1), fc.double({ noNaN: true, noDefaultInfinity: true }));
+    const num = fc.oneof(
+      fc.constantFrom(0, -0, 1e308, -1e308, 5e-324, -1),
+      fc.double({ noNaN: true, noDefaultInfinity: true }),
+    );
     const specLike = fc.record(
-      { outline: fc.oneof(fc.array(fc.tuple(num, num), { maxLength: 8 }), fc.anything()), outlets: fc.anything(), baseFall: fc.oneof(fc.string(), num), joists: fc.anything() },
+      {
+        outline: fc.oneof(fc.array(fc.tuple(num, num), { maxLength: 8 }), fc.anything()),
+        outlets: fc.anything(),
+        baseFall: fc.oneof(fc.string(), num),
+        joists: fc.anything(),
+      },
       { requiredKeys: [] },
     );
     const body = fc.oneof(
       fc.anything().map((v) => JSON.stringify(v) ?? "null"),
-      fc.record({ spec: specLike, title: fc.anything(), source: fc.anything(), deck: fc.anything(), step: fc.anything() }, { requiredKeys: [] }).map((v) => JSON.stringify(v)),
+      fc
+        .record(
+          { spec: specLike, title: fc.anything(), source: fc.anything(), deck: fc.anything(), step: fc.anything() },
+          { requiredKeys: [] },
+        )
+        .map((v) => JSON.stringify(v)),
       fc.string(),
     );
     const allowed = new Set([200, 400, 413, 415, 422]);
     await fc.assert(
       fc.asyncProperty(body, async (payload) => {
-        const request = new Request(`${ORIGIN}/classes/${classId}/live`, { method: "POST", headers: { cookie: trainer, "Content-Type": "application/json" }, body: payload });
+        const request = new Request(`${ORIGIN}/classes/${classId}/live`, {
+          method: "POST",
+          headers: { cookie: trainer, "Content-Type": "application/json" },
+          body: payload,
+        });
         const res = await callRoute(live.action, request, { params: { id: classId } });
         expect(allowed.has(res.status), `${res.status} for ${payload.slice(0, 200)}`).toBe(true);
       }),

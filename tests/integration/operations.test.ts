@@ -25,11 +25,18 @@ afterAll(async () => {
  * Sends `total` bytes chunked (no Content-Length) in 64 kB writes, as fast as the socket takes
  * them, and resolves with the status and how much had been written when the answer came.
  */
-function sendChunked(path: string, contentType: string, total: number): Promise<{ status: number; sentWhenAnswered: number }> {
+function sendChunked(
+  path: string,
+  contentType: string,
+  total: number,
+): Promise<{ status: number; sentWhenAnswered: number }> {
   return new Promise((resolve, reject) => {
     let sent = 0;
     let answered = false;
-    const req = http.request(`${server.url}${path}`, { method: "POST", headers: { "Content-Type": contentType, "Transfer-Encoding": "chunked" } });
+    const req = http.request(`${server.url}${path}`, {
+      method: "POST",
+      headers: { "Content-Type": contentType, "Transfer-Encoding": "chunked" },
+    });
     req.on("response", (res) => {
       answered = true;
       const sentWhenAnswered = sent;
@@ -61,12 +68,16 @@ describe("request bodies are capped while they stream (defect 4)", () => {
     ["/sandbox/schedule.csv", "application/x-www-form-urlencoded"],
     ["/forgot-password", "application/x-www-form-urlencoded"],
     ["/api/v1/analyses", "application/json"],
-  ])("30 MB chunked to %s gets 413 long before it is all sent", async (path, type) => {
-    const r = await sendChunked(path, type, MB30);
-    expect(r.status).toBe(413);
-    // The cap is 1 MB (512 kB for /api/); the answer comes while the client is still sending.
-    expect(r.sentWhenAnswered).toBeLessThan(8 * 1024 * 1024);
-  }, 60_000);
+  ])(
+    "30 MB chunked to %s gets 413 long before it is all sent",
+    async (path, type) => {
+      const r = await sendChunked(path, type, MB30);
+      expect(r.status).toBe(413);
+      // The cap is 1 MB (512 kB for /api/); the answer comes while the client is still sending.
+      expect(r.sentWhenAnswered).toBeLessThan(8 * 1024 * 1024);
+    },
+    60_000,
+  );
 
   it("still serves after refusing, and a body under the cap goes through", async () => {
     const alive = await fetch(`${server.url}/healthz`);
@@ -74,7 +85,16 @@ describe("request bodies are capped while they stream (defect 4)", () => {
     const r = await fetch(`${server.url}/api/v1/analyses`, {
       method: "POST",
       headers: { "Content-Type": "application/json", "X-Forwarded-For": "198.51.100.40" },
-      body: JSON.stringify({ outline: [[0, 0], [15, 0], [15, 10], [0, 10]], outlets: [{ at: [7.5, 0] }], baseFall: "1:60" }),
+      body: JSON.stringify({
+        outline: [
+          [0, 0],
+          [15, 0],
+          [15, 10],
+          [0, 10],
+        ],
+        outlets: [{ at: [7.5, 0] }],
+        baseFall: "1:60",
+      }),
     });
     expect(r.status).toBe(200);
     expect((await r.json()).shaped.joists.length).toBeGreaterThan(0);
@@ -111,9 +131,22 @@ describe("heavy analyses (defect 10)", () => {
   }, 90_000);
 
   it("charges the address's budget by work done: after the heavy one, a small analysis waits", async () => {
-    const small = { outline: [[0, 0], [15, 0], [15, 10], [0, 10]], outlets: [{ at: [7.5, 0] }], baseFall: "1:60" };
+    const small = {
+      outline: [
+        [0, 0],
+        [15, 0],
+        [15, 10],
+        [0, 10],
+      ],
+      outlets: [{ at: [7.5, 0] }],
+      baseFall: "1:60",
+    };
     const post = (ip: string) =>
-      fetch(`${server.url}/api/v1/analyses`, { method: "POST", headers: { "Content-Type": "application/json", "X-Forwarded-For": ip }, body: JSON.stringify(small) });
+      fetch(`${server.url}/api/v1/analyses`, {
+        method: "POST",
+        headers: { "Content-Type": "application/json", "X-Forwarded-For": ip },
+        body: JSON.stringify(small),
+      });
     // 198.51.100.7 spent well over 100 units (one per 10 ms of engine time) on the heavy roof.
     const spent = await post("198.51.100.7");
     expect(spent.status).toBe(429);
@@ -151,7 +184,10 @@ describe("request log", () => {
   const form = (fields: Record<string, string>) => ({
     method: "POST",
     redirect: "manual" as const,
-    headers: { "Content-Type": "application/x-www-form-urlencoded", Cookie: "fw_session=cookie-value-that-must-not-appear" },
+    headers: {
+      "Content-Type": "application/x-www-form-urlencoded",
+      Cookie: "fw_session=cookie-value-that-must-not-appear",
+    },
     body: new URLSearchParams(fields),
   });
 
@@ -225,9 +261,13 @@ describe("/metrics", () => {
     const remote = await fetch(`${server.url}/metrics`, { headers: { "X-Forwarded-For": "203.0.113.9" } });
     expect(remote.status).toBe(403);
     expect(await remote.text()).not.toContain("fallwright_");
-    const wrong = await fetch(`${server.url}/metrics`, { headers: { "X-Forwarded-For": "203.0.113.9", Authorization: "Bearer nope" } });
+    const wrong = await fetch(`${server.url}/metrics`, {
+      headers: { "X-Forwarded-For": "203.0.113.9", Authorization: "Bearer nope" },
+    });
     expect(wrong.status).toBe(403);
-    const withToken = await fetch(`${server.url}/metrics`, { headers: { "X-Forwarded-For": "203.0.113.9", Authorization: `Bearer ${METRICS_TOKEN}` } });
+    const withToken = await fetch(`${server.url}/metrics`, {
+      headers: { "X-Forwarded-For": "203.0.113.9", Authorization: `Bearer ${METRICS_TOKEN}` },
+    });
     expect(withToken.status).toBe(200);
   });
 });

@@ -3,7 +3,14 @@ import os from "node:os";
 import path from "node:path";
 import { spawnSync } from "node:child_process";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { clusterUrl, ensureCluster, ensureDatabase, startCluster, stopCluster, type ClusterInfo } from "../../app/dev/cluster";
+import {
+  clusterUrl,
+  ensureCluster,
+  ensureDatabase,
+  startCluster,
+  stopCluster,
+  type ClusterInfo,
+} from "../../app/dev/cluster";
 import { ROOT } from "../support/build";
 import { freePort, startServer, type RunningServer } from "../support/server";
 
@@ -43,7 +50,10 @@ async function signIn(): Promise<string> {
     body: new URLSearchParams({ email: "trainer@tidemark.example", password: "fallwright-demo" }),
   });
   expect(res.status).toBe(302);
-  const cookie = res.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
+  const cookie = res.headers
+    .getSetCookie()
+    .map((c) => c.split(";")[0])
+    .join("; ");
   expect(cookie).not.toBe("");
   return cookie;
 }

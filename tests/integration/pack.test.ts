@@ -52,9 +52,13 @@ describe("a saved roof's files", () => {
 
     const dxf = await call(dxfRoute.loader, getRequest(`/roofs/${id}/plan.dxf`, owner), { id });
     expect(dxf.headers.get("content-disposition")).toContain(`${stem}-plan-${today()}.dxf`);
-    const parsed = new DxfParser().parseSync(await dxf.text()) as unknown as { entities: { layer: string; type: string }[] };
+    const parsed = new DxfParser().parseSync(await dxf.text()) as unknown as {
+      entities: { layer: string; type: string }[];
+    };
     const joistLines = parsed.entities.filter((e) => e.layer === "JOISTS" && e.type === "LINE");
-    expect(joistLines).toHaveLength(screen.shaped.joists.reduce((n: number, j: { spans: unknown[] }) => n + j.spans.length, 0));
+    expect(joistLines).toHaveLength(
+      screen.shaped.joists.reduce((n: number, j: { spans: unknown[] }) => n + j.spans.length, 0),
+    );
 
     const glb = await call(glbRoute.loader, getRequest(`/roofs/${id}/roof.glb`, owner), { id });
     expect(glb.headers.get("content-type")).toBe("model/gltf-binary");
@@ -71,7 +75,9 @@ describe("a saved roof's files", () => {
   it("answers 422 with the reason for a stored roof the engine can no longer shape, never 500", async () => {
     const owner = await cookieFor("designer@tidemark.example");
     const id = await roofFor(owner, "Will break");
-    await db()("roofs").where({ id }).update({ spec: JSON.stringify({ ...SMALL_SPEC, baseFall: "steep" }) });
+    await db()("roofs")
+      .where({ id })
+      .update({ spec: JSON.stringify({ ...SMALL_SPEC, baseFall: "steep" }) });
     const res = await call(csvRoute.loader, getRequest(`/roofs/${id}/schedule.csv`, owner), { id });
     expect(res.status).toBe(422);
     expect(await res.text()).toMatch(/baseFall/);
@@ -96,7 +102,9 @@ describe("read-only share links", () => {
     const file = await call(shareFile.loader, getRequest(`/s/${token}/schedule.csv`), { token, file: "schedule.csv" });
     expect(file.status).toBe(200);
     expect(await file.text()).toContain("roof,Shared annex");
-    expect((await call(shareFile.loader, getRequest(`/s/${token}/secrets.txt`), { token, file: "secrets.txt" })).status).toBe(404);
+    expect(
+      (await call(shareFile.loader, getRequest(`/s/${token}/secrets.txt`), { token, file: "secrets.txt" })).status,
+    ).toBe(404);
 
     const listed = await (await call(editor.loader, getRequest(`/roofs/${id}`, owner), { id })).json();
     expect(listed.shareLinks.map((l: { id: string }) => l.id)).toEqual([shareLink.id]);
@@ -104,21 +112,41 @@ describe("read-only share links", () => {
     // Someone else cannot make or revoke links on it.
     const colleague = await cookieFor("trainee@tidemark.example");
     await call(editor.action, form(`/roofs/${id}`, { intent: "share", shared: "true" }, owner), { id });
-    expect((await call(editor.action, form(`/roofs/${id}`, { intent: "share-link-create" }, colleague), { id })).status).toBe(403);
-    expect((await call(editor.action, form(`/roofs/${id}`, { intent: "share-link-revoke", linkId: shareLink.id }, colleague), { id })).status).toBe(403);
+    expect(
+      (await call(editor.action, form(`/roofs/${id}`, { intent: "share-link-create" }, colleague), { id })).status,
+    ).toBe(403);
+    expect(
+      (
+        await call(
+          editor.action,
+          form(`/roofs/${id}`, { intent: "share-link-revoke", linkId: shareLink.id }, colleague),
+          { id },
+        )
+      ).status,
+    ).toBe(403);
 
-    const revoked = await call(editor.action, form(`/roofs/${id}`, { intent: "share-link-revoke", linkId: shareLink.id }, owner), { id });
+    const revoked = await call(
+      editor.action,
+      form(`/roofs/${id}`, { intent: "share-link-revoke", linkId: shareLink.id }, owner),
+      { id },
+    );
     expect(revoked.status).toBe(200);
     expect((await call(sharePage.loader, getRequest(`/s/${token}`), { token })).status).toBe(404);
-    expect((await call(shareFile.loader, getRequest(`/s/${token}/sheet.pdf`), { token, file: "sheet.pdf" })).status).toBe(404);
+    expect(
+      (await call(shareFile.loader, getRequest(`/s/${token}/sheet.pdf`), { token, file: "sheet.pdf" })).status,
+    ).toBe(404);
   });
 
   it("answers 404 for a guessed or malformed token, and stops a deleted roof's links", async () => {
-    expect((await call(sharePage.loader, getRequest(`/s/${"A".repeat(43)}`), { token: "A".repeat(43) })).status).toBe(404);
+    expect((await call(sharePage.loader, getRequest(`/s/${"A".repeat(43)}`), { token: "A".repeat(43) })).status).toBe(
+      404,
+    );
     expect((await call(sharePage.loader, getRequest(`/s/x'--`), { token: "x'--" })).status).toBe(404);
     const owner = await cookieFor("designer@tidemark.example");
     const id = await roofFor(owner, "Soon gone");
-    const { shareLink } = await (await call(editor.action, form(`/roofs/${id}`, { intent: "share-link-create" }, owner), { id })).json();
+    const { shareLink } = await (
+      await call(editor.action, form(`/roofs/${id}`, { intent: "share-link-create" }, owner), { id })
+    ).json();
     const token = shareLink.path.slice(3);
     await db()("roofs").where({ id }).update({ deleted_at: new Date() });
     expect((await call(sharePage.loader, getRequest(`/s/${token}`), { token })).status).toBe(404);

@@ -25,7 +25,11 @@ beforeAll(async () => {
   admin = await sessionCookie("admin@tidemark.example");
   classId = await demoClassId();
   await ensureLesson(LESSON, TITLE);
-  await database.db()("assignments").insert({ class_id: classId, lesson_slug: LESSON }).onConflict(["class_id", "lesson_slug"]).ignore();
+  await database
+    .db()("assignments")
+    .insert({ class_id: classId, lesson_slug: LESSON })
+    .onConflict(["class_id", "lesson_slug"])
+    .ignore();
   traineeEmail = uniqueAddress("review-trainee");
   traineeId = await makeTrainee(traineeEmail, "Rhea Tollan", classId);
 });
@@ -34,10 +38,16 @@ const post = (attemptId: string, fields: Record<string, string>, cookie = traine
   callRoute(review.action, formPost(`/attempts/${attemptId}/review`, fields, cookie), { params: { id: attemptId } });
 
 async function csvRows() {
-  const response = await gradebookCsv.loader({ request: get(`/classes/${classId}/gradebook.csv`, trainer), params: { id: classId }, context: {} } as never);
+  const response = await gradebookCsv.loader({
+    request: get(`/classes/${classId}/gradebook.csv`, trainer),
+    params: { id: classId },
+    context: {},
+  } as never);
   expect(response.status).toBe(200);
   expect(response.headers.get("content-type")).toBe("text/csv; charset=utf-8");
-  expect(response.headers.get("content-disposition")).toMatch(/^attachment; filename="parapet-roofs-spring-cohort-gradebook\.csv"$/);
+  expect(response.headers.get("content-disposition")).toMatch(
+    /^attachment; filename="parapet-roofs-spring-cohort-gradebook\.csv"$/,
+  );
   const text = (await response.text()).replace(/^\uFEFF/, "");
   return Papa.parse<Record<string, string>>(text.trim(), { header: true }).data;
 }
@@ -50,15 +60,27 @@ describe("reviewing an attempt", () => {
     expect(r.status).toBe(200);
     expect(r.data.notice).toMatch(/told by e-mail/);
     const [row] = await database.db()("attempt_reviews").where({ attempt_id: attemptId });
-    expect(row).toMatchObject({ reviewer_id: await userIdOf("trainer@tidemark.example"), comment: "Move the outlet toward the long side and try again.", override_score: null, override_passed: null });
+    expect(row).toMatchObject({
+      reviewer_id: await userIdOf("trainer@tidemark.example"),
+      comment: "Move the outlet toward the long side and try again.",
+      override_score: null,
+      override_passed: null,
+    });
     expect(new Date(row.at).getTime()).toBeGreaterThanOrEqual(before - 1000);
     const mail = await waitForMail(traineeEmail, { subject: new RegExp(TITLE) });
     expect(mail.text).toContain("Move the outlet toward the long side");
     // The link opens the trainee's own attempt page, which shows the comment (lessons module).
     expect(mail.text).toMatch(new RegExp(`https?://\\S+/attempts/${attemptId}(\\s|$)`));
     // The trainee sees it on their attempt.
-    const own = await callRoute(review.loader, get(`/attempts/${attemptId}/review`, await sessionCookie(traineeEmail)), { params: { id: attemptId } });
-    expect(own.data.reviews[0]).toMatchObject({ reviewerName: "Tomas Verrall", comment: "Move the outlet toward the long side and try again." });
+    const own = await callRoute(
+      review.loader,
+      get(`/attempts/${attemptId}/review`, await sessionCookie(traineeEmail)),
+      { params: { id: attemptId } },
+    );
+    expect(own.data.reviews[0]).toMatchObject({
+      reviewerName: "Tomas Verrall",
+      comment: "Move the outlet toward the long side and try again.",
+    });
     expect(own.data.grade).toMatchObject({ score: 55, passed: false, override: null });
   });
 
@@ -71,34 +93,57 @@ describe("reviewing an attempt", () => {
     expect(bad.status).toBe(400);
     expect(Object.keys(bad.data.errors).sort()).toEqual(["passed", "reason", "score"]);
     expect(bad.data.values).toMatchObject({ comment: "Close call", score: "130", override: "on" });
-    expect(await database.db()("attempt_reviews").where({ attempt_id: attemptId }).count("* as n").first()).toMatchObject({ n: "0" });
+    expect(
+      await database.db()("attempt_reviews").where({ attempt_id: attemptId }).count("* as n").first(),
+    ).toMatchObject({ n: "0" });
   });
 
   it("an override adds a row, never touches the attempt, and is what the gradebook and the CSV show", async () => {
     const attemptId = await insertAttempt(traineeId, LESSON, { score: 62, passed: false });
     const original = await database.db()("attempts").where({ id: attemptId }).first();
 
-    const r = await post(attemptId, { comment: "The fall line is fine on site drawings.", override: "on", score: "78", passed: "yes", reason: "Measured fall line 1:98 is within drawing tolerance" });
+    const r = await post(attemptId, {
+      comment: "The fall line is fine on site drawings.",
+      override: "on",
+      score: "78",
+      passed: "yes",
+      reason: "Measured fall line 1:98 is within drawing tolerance",
+    });
     expect(r.status).toBe(200);
     const after = await database.db()("attempts").where({ id: attemptId }).first();
     expect(after).toEqual(original);
     const rows = await database.db()("attempt_reviews").where({ attempt_id: attemptId });
     expect(rows).toHaveLength(1);
-    expect(rows[0]).toMatchObject({ reviewer_id: await userIdOf("trainer@tidemark.example"), override_score: 78, override_passed: true, reason: "Measured fall line 1:98 is within drawing tolerance" });
+    expect(rows[0]).toMatchObject({
+      reviewer_id: await userIdOf("trainer@tidemark.example"),
+      override_score: 78,
+      override_passed: true,
+      reason: "Measured fall line 1:98 is within drawing tolerance",
+    });
     expect(rows[0].at).toBeInstanceOf(Date);
 
     const mail = await waitForMail(traineeEmail, { subject: new RegExp(TITLE) });
     expect(mail.text).toMatch(/now 78\/100, passed \(the automatic grade was 62\/100, not passed\)/);
 
-    const book = await callRoute(classGradebook.loader, get(`/classes/${classId}/gradebook`, trainer), { params: { id: classId } });
+    const book = await callRoute(classGradebook.loader, get(`/classes/${classId}/gradebook`, trainer), {
+      params: { id: classId },
+    });
     const row = book.data.book.rows.find((x: { traineeId: string }) => x.traineeId === traineeId);
     expect(row.cells[LESSON]).toMatchObject({ attemptId, score: 78, passed: true, overridden: true });
 
     const csv = (await csvRows()).find((x) => x["E-mail"] === traineeEmail)!;
-    expect(csv).toMatchObject({ Trainee: "Rhea Tollan", [`${TITLE} (score)`]: "78", [`${TITLE} (result)`]: "passed (override)" });
+    expect(csv).toMatchObject({
+      Trainee: "Rhea Tollan",
+      [`${TITLE} (score)`]: "78",
+      [`${TITLE} (result)`]: "passed (override)",
+    });
 
     // A later override by someone else wins; both stay on record.
-    const second = await post(attemptId, { comment: "", override: "on", score: "74.5", passed: "yes", reason: "Rounded the wrong way" }, admin);
+    const second = await post(
+      attemptId,
+      { comment: "", override: "on", score: "74.5", passed: "yes", reason: "Rounded the wrong way" },
+      admin,
+    );
     expect(second.status).toBe(200);
     const history = await reviewsForAttempt(attemptId);
     expect(history.map((h) => [h.reviewerName, h.overrideScore])).toEqual([
@@ -111,7 +156,7 @@ describe("reviewing an attempt", () => {
 
   it("the CSV escapes cells a spreadsheet would run as formulas", async () => {
     const email = uniqueAddress("csv-formula");
-    await makeTrainee(email, "=HYPERLINK(\"http://example.org\")", classId);
+    await makeTrainee(email, '=HYPERLINK("http://example.org")', classId);
     const row = (await csvRows()).find((x) => x["E-mail"] === email)!;
     expect(row.Trainee.startsWith("'=")).toBe(true);
     expect(row[`${TITLE} (result)`]).toBe("not attempted");

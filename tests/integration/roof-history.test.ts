@@ -6,10 +6,22 @@ import { AUTOSAVE_COALESCE_MINUTES, createRoof, restoreVersion, updateRoof } fro
 // Issue 13: every autosave used to add a full roof_versions row forever.
 const database = useTestDatabase();
 
-const spec = (fall: string) => ({ outline: [[0, 0], [12, 0], [12, 8], [0, 8]], outlets: [{ at: [6, 0] }], baseFall: fall });
+const spec = (fall: string) => ({
+  outline: [
+    [0, 0],
+    [12, 0],
+    [12, 8],
+    [0, 8],
+  ],
+  outlets: [{ at: [6, 0] }],
+  baseFall: fall,
+});
 
 async function designer(): Promise<SessionUser> {
-  const u = await database.db()("users").where({ email: "designer@tidemark.example" }).first("id", "email", "name", "role", "organisation_id");
+  const u = await database
+    .db()("users")
+    .where({ email: "designer@tidemark.example" })
+    .first("id", "email", "name", "role", "organisation_id");
   return { id: u.id, email: u.email, name: u.name, role: u.role, organisationId: u.organisation_id };
 }
 
@@ -40,10 +52,18 @@ describe("roof history", () => {
     await save({ name: "Depot canopy, scheme B" });
     await save({ spec: spec("1:45") });
     await save({ spec: spec("1:44") });
-    expect((await history(id)).map((r) => [r.version, r.kind])).toEqual([[1, "created"], [13, "auto"], [14, "named"], [16, "auto"]]);
+    expect((await history(id)).map((r) => [r.version, r.kind])).toEqual([
+      [1, "created"],
+      [13, "auto"],
+      [14, "named"],
+      [16, "auto"],
+    ]);
 
     // An autosave more than the window after the last one is a new version.
-    await database.db()("roof_versions").where({ roof_id: id, version: 16 }).update({ saved_at: database.db().raw(`now() - make_interval(mins => ?)`, [AUTOSAVE_COALESCE_MINUTES + 1]) });
+    await database
+      .db()("roof_versions")
+      .where({ roof_id: id, version: 16 })
+      .update({ saved_at: database.db().raw(`now() - make_interval(mins => ?)`, [AUTOSAVE_COALESCE_MINUTES + 1]) });
     await save({ spec: spec("1:43") });
     expect((await history(id)).map((r) => r.version)).toEqual([1, 13, 14, 16, 17]);
 
@@ -52,6 +72,14 @@ describe("roof history", () => {
     expect(restored.status).toBe("ok");
     if (restored.status === "ok") version = restored.version;
     await save({ spec: spec("1:42") });
-    expect((await history(id)).map((r) => [r.version, r.kind])).toEqual([[1, "created"], [13, "auto"], [14, "named"], [16, "auto"], [17, "auto"], [18, "restored"], [19, "auto"]]);
+    expect((await history(id)).map((r) => [r.version, r.kind])).toEqual([
+      [1, "created"],
+      [13, "auto"],
+      [14, "named"],
+      [16, "auto"],
+      [17, "auto"],
+      [18, "restored"],
+      [19, "auto"],
+    ]);
   });
 });

@@ -19,10 +19,16 @@ async function get(id: string, cookie?: string) {
   return call(one.loader, getRequest(`/api/v1/roofs/${id}`, cookie), { id });
 }
 async function del(id: string, cookie?: string) {
-  return call(one.action, new Request(`http://localhost/api/v1/roofs/${id}`, { method: "DELETE", headers: cookie ? { cookie } : {} }), { id });
+  return call(
+    one.action,
+    new Request(`http://localhost/api/v1/roofs/${id}`, { method: "DELETE", headers: cookie ? { cookie } : {} }),
+    { id },
+  );
 }
 async function sessionUser(email: string): Promise<SessionUser> {
-  const u = await db()("users").where({ id: await userId(email) }).first();
+  const u = await db()("users")
+    .where({ id: await userId(email) })
+    .first();
   return { id: u.id, email: u.email, name: u.name, role: u.role, organisationId: u.organisation_id };
 }
 
@@ -49,7 +55,13 @@ describe("roofs JSON API: statuses", () => {
     const mine = await (await call(list.loader, getRequest("/api/v1/roofs", cookie))).json();
     expect(mine.roofs.map((r: { id: string }) => r.id)).toContain(id);
     const back = await (await get(id, cookie)).json();
-    expect(back).toMatchObject({ id, name: "Workshop roof", version: 1, canEdit: true, spec: { outline: SMALL_SPEC.outline, baseFall: "1:60" } });
+    expect(back).toMatchObject({
+      id,
+      name: "Workshop roof",
+      version: 1,
+      canEdit: true,
+      spec: { outline: SMALL_SPEC.outline, baseFall: "1:60" },
+    });
     const versions = await db()("roof_versions").where({ roof_id: id });
     expect(versions).toHaveLength(1);
   });
@@ -65,14 +77,32 @@ describe("roofs JSON API: statuses", () => {
     const noName = await post({ spec: SMALL_SPEC }, cookie);
     expect(noName.status).toBe(400);
     expect((await noName.json()).error.issues[0].path).toBe("name");
-    const bowtie = await post({ name: "x", spec: { ...SMALL_SPEC, outline: [[0, 0], [10, 10], [10, 0], [0, 10]], outlets: [] } }, cookie);
+    const bowtie = await post(
+      {
+        name: "x",
+        spec: {
+          ...SMALL_SPEC,
+          outline: [
+            [0, 0],
+            [10, 10],
+            [10, 0],
+            [0, 10],
+          ],
+          outlets: [],
+        },
+      },
+      cookie,
+    );
     expect(bowtie.status).toBe(422);
     const b422 = await bowtie.json();
     expect(b422.error.message).toMatch(/cannot be built/);
     expect(b422.error.issues.length).toBeGreaterThan(0);
     const textPlain = await post({ name: "x", spec: SMALL_SPEC }, cookie, { "Content-Type": "text/plain" });
     expect(textPlain.status).toBe(415);
-    const huge = await post({ name: "x", spec: { ...SMALL_SPEC, probes: Array.from({ length: 30_000 }, (_, i) => [i, i]) } }, cookie);
+    const huge = await post(
+      { name: "x", spec: { ...SMALL_SPEC, probes: Array.from({ length: 30_000 }, (_, i) => [i, i]) } },
+      cookie,
+    );
     expect(huge.status).toBe(413);
     const count = await db()("roofs").where({ name: "x" }).count<{ count: string }[]>("* as count");
     expect(Number(count[0].count)).toBe(0);
@@ -112,15 +142,24 @@ describe("roofs JSON API: statuses", () => {
   it("makes one roof for repeats of a save with the same Idempotency-Key", async () => {
     const cookie = await cookieFor("designer@tidemark.example");
     const key = { "Idempotency-Key": "copy-5b7e2c1d-0000-4000-8000-000000000001" };
-    const [first, second] = await Promise.all([post({ name: "Clicked twice", spec: SMALL_SPEC }, cookie, key), post({ name: "Clicked twice", spec: SMALL_SPEC }, cookie, key)]);
+    const [first, second] = await Promise.all([
+      post({ name: "Clicked twice", spec: SMALL_SPEC }, cookie, key),
+      post({ name: "Clicked twice", spec: SMALL_SPEC }, cookie, key),
+    ]);
     expect([first.status, second.status]).toEqual([201, 201]);
     const [a, b] = [await first.json(), await second.json()];
     expect(a.id).toBe(b.id);
-    expect([first.headers.get("idempotent-replayed"), second.headers.get("idempotent-replayed")].sort()).toEqual(["true", null].sort());
+    expect([first.headers.get("idempotent-replayed"), second.headers.get("idempotent-replayed")].sort()).toEqual(
+      ["true", null].sort(),
+    );
     expect(await db()("roofs").where({ name: "Clicked twice" })).toHaveLength(1);
     expect(await db()("roof_versions").where({ roof_id: a.id })).toHaveLength(1);
     // The same key from another user is another user's business.
-    const other = await post({ name: "Clicked twice", spec: SMALL_SPEC }, await cookieFor("trainer@tidemark.example"), key);
+    const other = await post(
+      { name: "Clicked twice", spec: SMALL_SPEC },
+      await cookieFor("trainer@tidemark.example"),
+      key,
+    );
     expect((await other.json()).id).not.toBe(a.id);
     const bad = await post({ name: "x", spec: SMALL_SPEC }, cookie, { "Idempotency-Key": "no spaces allowed" });
     expect(bad.status).toBe(400);
@@ -158,7 +197,12 @@ describe("roofs JSON API: who may see and change what", () => {
     expect((await del(id, colleague)).status).toBe(403);
 
     const [org] = await db()("organisations").insert({ name: "Elsewhere Roofing Academy (test)" }).returning("id");
-    await db()("users").insert({ organisation_id: org.id, email: "outsider@elsewhere.example", name: "Out Sider", role: "designer" });
+    await db()("users").insert({
+      organisation_id: org.id,
+      email: "outsider@elsewhere.example",
+      name: "Out Sider",
+      role: "designer",
+    });
     const outsider = await cookieFor("outsider@elsewhere.example");
     expect((await get(id, outsider)).status).toBe(404);
     expect((await put(id, { version: 1, name: "x" }, outsider)).status).toBe(404);
@@ -172,7 +216,10 @@ describe("two tabs, one roof", () => {
     const { id } = await (await post({ name: "Two tabs", spec: SMALL_SPEC }, cookie)).json();
     const tabA = { ...SMALL_SPEC, baseFall: "1:40" };
     const tabB = { ...SMALL_SPEC, baseFall: "1:80", joists: { spacing: 0.6 } };
-    const [ra, rb] = await Promise.all([put(id, { version: 1, spec: tabA }, cookie), put(id, { version: 1, spec: tabB }, cookie)]);
+    const [ra, rb] = await Promise.all([
+      put(id, { version: 1, spec: tabA }, cookie),
+      put(id, { version: 1, spec: tabB }, cookie),
+    ]);
     const statuses = [ra.status, rb.status].sort();
     expect(statuses).toEqual([200, 409]);
     const [winner, loser, loserSpec, winnerSpec] = ra.status === 200 ? [ra, rb, tabB, tabA] : [rb, ra, tabA, tabB];
@@ -187,7 +234,9 @@ describe("two tabs, one roof", () => {
     expect(copied.spec.baseFall).toBe(loserSpec.baseFall);
     const original = await (await get(id, cookie)).json();
     expect(original.spec.baseFall).toBe(winnerSpec.baseFall);
-    expect(await db()("roof_versions").where({ roof_id: id }).count<{ count: string }[]>("* as count")).toEqual([{ count: "2" }]);
+    expect(await db()("roof_versions").where({ roof_id: id }).count<{ count: string }[]>("* as count")).toEqual([
+      { count: "2" },
+    ]);
   });
 });
 
@@ -196,10 +245,14 @@ describe("transactions", () => {
     // A trigger makes the second insert of each write (the roof_versions row) fail.
     await db().raw(`create function fail_halfway() returns trigger language plpgsql as $$
       begin if new.name like 'FAIL-HALFWAY%' then raise exception 'forced failure half-way'; end if; return new; end $$`);
-    await db().raw(`create trigger fail_halfway before insert on roof_versions for each row execute function fail_halfway()`);
+    await db().raw(
+      `create trigger fail_halfway before insert on roof_versions for each row execute function fail_halfway()`,
+    );
     try {
       const user = await sessionUser("designer@tidemark.example");
-      await expect(createRoof(user, { name: "FAIL-HALFWAY create", spec: SMALL_SPEC })).rejects.toThrow(/forced failure/);
+      await expect(createRoof(user, { name: "FAIL-HALFWAY create", spec: SMALL_SPEC })).rejects.toThrow(
+        /forced failure/,
+      );
       expect(await db()("roofs").where({ name: "FAIL-HALFWAY create" })).toHaveLength(0);
 
       const { id } = await createRoof(user, { name: "Steady", spec: SMALL_SPEC });

@@ -9,8 +9,13 @@ import { createRoof } from "~/lib/roofs.server";
 const { db } = useTestDatabase();
 
 async function roofOf(email: string, shared = false) {
-  const u = await db()("users").where({ id: await userId(email) }).first();
-  const { id } = await createRoof({ id: u.id, email: u.email, name: u.name, role: u.role, organisationId: u.organisation_id }, { name: `Underlay test ${Math.random()}`, spec: SMALL_SPEC });
+  const u = await db()("users")
+    .where({ id: await userId(email) })
+    .first();
+  const { id } = await createRoof(
+    { id: u.id, email: u.email, name: u.name, role: u.role, organisationId: u.organisation_id },
+    { name: `Underlay test ${Math.random()}`, spec: SMALL_SPEC },
+  );
   if (shared) await db()("roofs").where({ id }).update({ shared: true });
   return id;
 }
@@ -18,7 +23,11 @@ async function roofOf(email: string, shared = false) {
 function upload(id: string, bytes: Uint8Array, filename: string, cookie?: string, type = "image/png") {
   const form = new FormData();
   form.set("file", new File([bytes as Uint8Array<ArrayBuffer>], filename, { type }));
-  return call(underlay.action, new Request(`${BASE}/roofs/${id}/underlay`, { method: "POST", body: form, headers: cookie ? { cookie } : {} }), { id });
+  return call(
+    underlay.action,
+    new Request(`${BASE}/roofs/${id}/underlay`, { method: "POST", body: form, headers: cookie ? { cookie } : {} }),
+    { id },
+  );
 }
 
 function fetchImage(id: string, cookie?: string) {
@@ -37,7 +46,10 @@ describe("underlay upload", () => {
     expect(body.underlay).toMatchObject({ widthPx: 200, heightPx: 120, opacity: 0.5 });
     // Default placement spans the roof's 10 m width.
     expect(body.underlay.metresPerPixel).toBeCloseTo(10 / 200, 9);
-    const row = await db()("roofs as r").join("uploads as u", "u.id", "r.underlay_id").where("r.id", id).first("u.storage_key", "u.content_type", "u.size");
+    const row = await db()("roofs as r")
+      .join("uploads as u", "u.id", "r.underlay_id")
+      .where("r.id", id)
+      .first("u.storage_key", "u.content_type", "u.size");
     expect(row.storage_key).toMatch(/^underlays\/[0-9a-f-]{36}\.png$/);
     expect(row.storage_key).not.toContain("passwd");
     expect(row).toMatchObject({ content_type: "image/png", size: png.length });
@@ -66,11 +78,23 @@ describe("underlay upload", () => {
     expect(bigRes.status).toBe(413);
     expect((await db()("roofs").where({ id }).first()).underlay_id).toBeNull();
     expect(await db()("uploads").whereIn("original_name", ["plan.png", "huge.png"])).toHaveLength(0);
-    const wrongType = await call(underlay.action, new Request(`${BASE}/roofs/${id}/underlay`, { method: "POST", body: "{}", headers: { cookie, "Content-Type": "application/json" } }), { id });
+    const wrongType = await call(
+      underlay.action,
+      new Request(`${BASE}/roofs/${id}/underlay`, {
+        method: "POST",
+        body: "{}",
+        headers: { cookie, "Content-Type": "application/json" },
+      }),
+      { id },
+    );
     expect(wrongType.status).toBe(415);
     const noFile = new FormData();
     noFile.set("note", "no file here");
-    const empty = await call(underlay.action, new Request(`${BASE}/roofs/${id}/underlay`, { method: "POST", body: noFile, headers: { cookie } }), { id });
+    const empty = await call(
+      underlay.action,
+      new Request(`${BASE}/roofs/${id}/underlay`, { method: "POST", body: noFile, headers: { cookie } }),
+      { id },
+    );
     expect(empty.status).toBe(400);
   });
 
@@ -102,15 +126,30 @@ describe("underlay upload", () => {
     const id = await roofOf("designer@tidemark.example");
     await upload(id, makePng(80, 60), "first.png", cookie);
     const calibrated = { opacity: 0.3, originX: -2, originY: 9, metresPerPixel: 0.125, widthPx: 80, heightPx: 60 };
-    await db()("roofs").where({ id }).update({ underlay: JSON.stringify(calibrated) });
-    const firstKey = (await db()("roofs as r").join("uploads as u", "u.id", "r.underlay_id").where("r.id", id).first("u.storage_key")).storage_key;
-    const again = await (await upload(id, makePng(80, 60, () => 128), "second.png", cookie)).json();
+    await db()("roofs")
+      .where({ id })
+      .update({ underlay: JSON.stringify(calibrated) });
+    const firstKey = (
+      await db()("roofs as r").join("uploads as u", "u.id", "r.underlay_id").where("r.id", id).first("u.storage_key")
+    ).storage_key;
+    const again = await (
+      await upload(
+        id,
+        makePng(80, 60, () => 128),
+        "second.png",
+        cookie,
+      )
+    ).json();
     expect(again.keptCalibration).toBe(true);
     expect(again.underlay).toEqual(calibrated);
     expect(await db()("uploads").where({ storage_key: firstKey })).toHaveLength(0);
     const other = await (await upload(id, makePng(90, 60), "third.png", cookie)).json();
     expect(other.keptCalibration).toBe(false);
-    const removed = await call(underlay.action, new Request(`${BASE}/roofs/${id}/underlay`, { method: "DELETE", headers: { cookie } }), { id });
+    const removed = await call(
+      underlay.action,
+      new Request(`${BASE}/roofs/${id}/underlay`, { method: "DELETE", headers: { cookie } }),
+      { id },
+    );
     expect(removed.status).toBe(200);
     expect((await fetchImage(id, cookie)).status).toBe(404);
   });
@@ -125,7 +164,11 @@ describe("underlay through the real host", () => {
     try {
       const form = new FormData();
       form.set("file", new File([makePng(64, 48) as Uint8Array<ArrayBuffer>], "plan.png", { type: "image/png" }));
-      const up = await fetch(`${server.url}/roofs/${id}/underlay`, { method: "POST", body: form, headers: { cookie: ownerCookie, Origin: server.url } });
+      const up = await fetch(`${server.url}/roofs/${id}/underlay`, {
+        method: "POST",
+        body: form,
+        headers: { cookie: ownerCookie, Origin: server.url },
+      });
       expect(up.status).toBe(201);
       const mine = await fetch(`${server.url}/roofs/${id}/underlay`, { headers: { cookie: ownerCookie } });
       expect(mine.status).toBe(200);

@@ -26,7 +26,13 @@ const EMAIL: Record<Exclude<Who, "anonymous">, string> = {
 
 type Expect = Record<Who, number>;
 /** Statuses in the order anonymous, admin, trainer, trainee, designer. */
-const s = (anonymous: number, admin: number, trainer: number, trainee: number, designer: number): Expect => ({ anonymous, admin, trainer, trainee, designer });
+const s = (anonymous: number, admin: number, trainer: number, trainee: number, designer: number): Expect => ({
+  anonymous,
+  admin,
+  trainer,
+  trainee,
+  designer,
+});
 const ALL = (status: number) => s(status, status, status, status, status);
 const SIGNED_IN = (status: number) => s(302, status, status, status, status);
 
@@ -61,19 +67,35 @@ const MATRIX: Record<string, Case[]> = {
     { path: "/api/v1/roofs/{uuid}", expect: s(401, 404, 404, 404, 404) },
     { path: "/api/v1/roofs/{designerRoof}", expect: s(401, 200, 200, 200, 200), why: "demo roofs are shared" },
   ],
-  "/api/v1/analyses": [{ path: "/api/v1/analyses", expect: ALL(405), why: "roofs are POSTed to be analysed; anyone may, within the per-address limit" }],
-  "/api/v1/analyses/as-built": [{ path: "/api/v1/analyses/as-built", expect: ALL(405), why: "surveys are POSTed to be checked; anyone may, within the per-address limit" }],
+  "/api/v1/analyses": [
+    {
+      path: "/api/v1/analyses",
+      expect: ALL(405),
+      why: "roofs are POSTed to be analysed; anyone may, within the per-address limit",
+    },
+  ],
+  "/api/v1/analyses/as-built": [
+    {
+      path: "/api/v1/analyses/as-built",
+      expect: ALL(405),
+      why: "surveys are POSTed to be checked; anyone may, within the per-address limit",
+    },
+  ],
   "/api/v1/lessons": [{ path: "/api/v1/lessons", expect: ALL(200) }],
   "/api/v1/lessons/:slug": [
     { path: "/api/v1/lessons/{uuid}", expect: ALL(404) },
     { path: "/api/v1/lessons/{lessonSlug}", expect: ALL(200), why: "lessons are public to read" },
   ],
-  "/api/v1/attempts": [{ path: "/api/v1/attempts", expect: s(401, 400, 400, 400, 400), why: "GET needs a lesson to list attempts of" }],
+  "/api/v1/attempts": [
+    { path: "/api/v1/attempts", expect: s(401, 400, 400, 400, 400), why: "GET needs a lesson to list attempts of" },
+  ],
   "/api/v1/attempts/:id": [{ path: "/api/v1/attempts/{uuid}", expect: s(401, 404, 404, 404, 404) }],
   // Sandbox and roofs
   "/sandbox": [{ path: "/sandbox", expect: ALL(200) }],
   "/sandbox/sheet": [{ path: "/sandbox/sheet", expect: ALL(200) }],
-  "/sandbox/schedule.csv": [{ path: "/sandbox/schedule.csv", expect: ALL(405), why: "the schedule is POSTed from the sandbox" }],
+  "/sandbox/schedule.csv": [
+    { path: "/sandbox/schedule.csv", expect: ALL(405), why: "the schedule is POSTed from the sandbox" },
+  ],
   "/sandbox/sheet.pdf": [{ path: "/sandbox/sheet.pdf", expect: ALL(405), why: "the roof on screen is POSTed" }],
   "/sandbox/plan.dxf": [{ path: "/sandbox/plan.dxf", expect: ALL(405), why: "the roof on screen is POSTed" }],
   "/sandbox/roof.glb": [{ path: "/sandbox/roof.glb", expect: ALL(405), why: "the roof on screen is POSTed" }],
@@ -93,7 +115,11 @@ const MATRIX: Record<string, Case[]> = {
   ],
   "/roofs/:id/schedule.csv": [
     { path: "/roofs/{uuid}/schedule.csv", expect: SIGNED_IN(404) },
-    { path: "/roofs/{designerRoof}/schedule.csv", expect: SIGNED_IN(200), why: "readable by whoever may read the roof" },
+    {
+      path: "/roofs/{designerRoof}/schedule.csv",
+      expect: SIGNED_IN(200),
+      why: "readable by whoever may read the roof",
+    },
   ],
   "/roofs/:id/sheet.pdf": [
     { path: "/roofs/{uuid}/sheet.pdf", expect: SIGNED_IN(404) },
@@ -107,14 +133,20 @@ const MATRIX: Record<string, Case[]> = {
     { path: "/roofs/{uuid}/roof.glb", expect: SIGNED_IN(404) },
     { path: "/roofs/{designerRoof}/roof.glb", expect: SIGNED_IN(200) },
   ],
-  "/s/:token": [{ path: "/s/{token}", expect: ALL(404), why: "no account needed; an unknown or revoked link is 404 for everyone" }],
+  "/s/:token": [
+    { path: "/s/{token}", expect: ALL(404), why: "no account needed; an unknown or revoked link is 404 for everyone" },
+  ],
   "/s/:token/:file": [
     { path: "/s/{token}/schedule.csv", expect: ALL(404) },
     { path: "/s/{token}/anything", expect: ALL(404) },
   ],
   "/roofs/:id/underlay": [
     { path: "/roofs/{uuid}/underlay", expect: ALL(404) },
-    { path: "/roofs/{designerRoof}/underlay", expect: ALL(404), why: "no underlay uploaded; unknown and hidden look the same" },
+    {
+      path: "/roofs/{designerRoof}/underlay",
+      expect: ALL(404),
+      why: "no underlay uploaded; unknown and hidden look the same",
+    },
   ],
   // Lessons and attempts
   "/lessons": [{ path: "/lessons", expect: ALL(200) }],
@@ -129,7 +161,11 @@ const MATRIX: Record<string, Case[]> = {
   "/classes": [{ path: "/classes", expect: SIGNED_IN(200) }],
   "/classes/:id": [
     { path: "/classes/{uuid}", expect: s(302, 404, 404, 403, 403) },
-    { path: "/classes/{trainerClass}", expect: s(302, 200, 200, 403, 403), why: "trainees follow a class, they do not manage it" },
+    {
+      path: "/classes/{trainerClass}",
+      expect: s(302, 200, 200, 403, 403),
+      why: "trainees follow a class, they do not manage it",
+    },
   ],
   "/classes/:id/gradebook": [
     { path: "/classes/{uuid}/gradebook", expect: s(302, 404, 404, 403, 403) },
@@ -145,7 +181,11 @@ const MATRIX: Record<string, Case[]> = {
   ],
   "/classes/:id/follow": [
     { path: "/classes/{uuid}/follow", expect: SIGNED_IN(404) },
-    { path: "/classes/{trainerClass}/follow", expect: s(302, 200, 200, 200, 404), why: "members and staff follow; others do not see the class" },
+    {
+      path: "/classes/{trainerClass}/follow",
+      expect: s(302, 200, 200, 200, 404),
+      why: "members and staff follow; others do not see the class",
+    },
   ],
   "/classes/:id/live": [
     { path: "/classes/{uuid}/live", expect: s(401, 404, 404, 404, 404) },
@@ -189,7 +229,10 @@ async function statuses(path: string): Promise<Expect> {
   const out = {} as Expect;
   await Promise.all(
     WHO.map(async (who) => {
-      const res = await fetch(server.url + path, { redirect: "manual", headers: cookies[who] ? { cookie: cookies[who]! } : {} });
+      const res = await fetch(server.url + path, {
+        redirect: "manual",
+        headers: cookies[who] ? { cookie: cookies[who]! } : {},
+      });
       // The JSON API's answers, whoever asks, are the ones its OpenAPI document describes.
       if (path.startsWith("/api/v1")) await checkApiResponse("GET", path, res);
       await res.body?.cancel(); // event streams never end; the status is all we need
@@ -226,7 +269,9 @@ describe("route × role matrix", () => {
       for (const c of MATRIX[r.path]) {
         const path = concrete(c.path);
         const seen = await statuses(path);
-        expect.soft(seen, `GET ${c.path} (${path}) answered ${asArgs(seen)}${c.why ? ` — ${c.why}` : ""}`).toEqual(c.expect);
+        expect
+          .soft(seen, `GET ${c.path} (${path}) answered ${asArgs(seen)}${c.why ? ` — ${c.why}` : ""}`)
+          .toEqual(c.expect);
       }
     });
   }

@@ -1,6 +1,15 @@
 import { afterEach, describe, expect, it } from "vitest";
 import { useTestDatabase } from "../support/db";
-import { callRoute, cookiePair, DEMO_PASSWORD, formPost, get, sessionCookie, uniqueAddress, userIdOf } from "../support/accounts";
+import {
+  callRoute,
+  cookiePair,
+  DEMO_PASSWORD,
+  formPost,
+  get,
+  sessionCookie,
+  uniqueAddress,
+  userIdOf,
+} from "../support/accounts";
 import * as login from "~/routes/login";
 import * as logout from "~/routes/logout";
 import * as account from "~/routes/account";
@@ -42,11 +51,17 @@ describe("the session cookie", () => {
     const value = header.split(";")[0].split("=")[1];
     expect(value).toMatch(/^[A-Za-z0-9_-]{43}$/);
     expect(await k()("sessions").where({ id: value }).first()).toBeUndefined();
-    expect(await k()("sessions").where({ id: sha256(value) }).first()).toBeTruthy();
+    expect(
+      await k()("sessions")
+        .where({ id: sha256(value) })
+        .first(),
+    ).toBeTruthy();
   });
 
   it("is Secure over https and when HTTPS=1", async () => {
-    const overTls = await signIn("designer@tidemark.example", DEMO_PASSWORD, { url: "https://fallwright.example/login" });
+    const overTls = await signIn("designer@tidemark.example", DEMO_PASSWORD, {
+      url: "https://fallwright.example/login",
+    });
     expect(overTls.headers.get("set-cookie")).toMatch(/;\s*Secure/i);
     process.env.HTTPS = "1";
     const flagged = await signIn("designer@tidemark.example");
@@ -55,10 +70,16 @@ describe("the session cookie", () => {
 
   it("gets a new id at sign-in; the session the browser brought along is ended", async () => {
     const before = cookiePair((await signIn("trainee@tidemark.example")).headers.get("set-cookie"));
-    const after = cookiePair((await signIn("trainee@tidemark.example", DEMO_PASSWORD, { cookie: before })).headers.get("set-cookie"));
+    const after = cookiePair(
+      (await signIn("trainee@tidemark.example", DEMO_PASSWORD, { cookie: before })).headers.get("set-cookie"),
+    );
     expect(after).not.toBe(before);
     expect(await whoIs(before)).toBeNull();
-    expect(await k()("sessions").where({ id: sessionId(before) }).first()).toBeUndefined();
+    expect(
+      await k()("sessions")
+        .where({ id: sessionId(before) })
+        .first(),
+    ).toBeUndefined();
     expect(await whoIs(after)).toMatchObject({ email: "trainee@tidemark.example" });
   });
 
@@ -72,21 +93,35 @@ describe("the session cookie", () => {
 describe("session lifetime", () => {
   it("ends after 2 hours idle, and the row is removed", async () => {
     const cookie = await sessionCookie("trainee@tidemark.example");
-    await k()("sessions").where({ id: sessionId(cookie) }).update({ last_seen_at: k().raw("now() - interval '2 hours 1 minute'") });
+    await k()("sessions")
+      .where({ id: sessionId(cookie) })
+      .update({ last_seen_at: k().raw("now() - interval '2 hours 1 minute'") });
     expect(await whoIs(cookie)).toBeNull();
-    expect(await k()("sessions").where({ id: sessionId(cookie) }).first()).toBeUndefined();
+    expect(
+      await k()("sessions")
+        .where({ id: sessionId(cookie) })
+        .first(),
+    ).toBeUndefined();
   });
 
   it("slides: use within 2 hours keeps it alive and moves last_seen_at, at most once a minute", async () => {
     const cookie = await sessionCookie("trainee@tidemark.example");
     const id = sessionId(cookie);
-    await k()("sessions").where({ id }).update({ last_seen_at: k().raw("now() - interval '90 minutes'") });
+    await k()("sessions")
+      .where({ id })
+      .update({ last_seen_at: k().raw("now() - interval '90 minutes'") });
     expect(await whoIs(cookie)).toMatchObject({ email: "trainee@tidemark.example" });
-    const { age } = await k()("sessions").where({ id }).first(k().raw("extract(epoch from now() - last_seen_at)::float8 as age"));
+    const { age } = await k()("sessions")
+      .where({ id })
+      .first(k().raw("extract(epoch from now() - last_seen_at)::float8 as age"));
     expect(age).toBeLessThan(5);
-    await k()("sessions").where({ id }).update({ last_seen_at: k().raw("now() - interval '30 seconds'") });
+    await k()("sessions")
+      .where({ id })
+      .update({ last_seen_at: k().raw("now() - interval '30 seconds'") });
     await whoIs(cookie);
-    const { age: later } = await k()("sessions").where({ id }).first(k().raw("extract(epoch from now() - last_seen_at)::float8 as age"));
+    const { age: later } = await k()("sessions")
+      .where({ id })
+      .first(k().raw("extract(epoch from now() - last_seen_at)::float8 as age"));
     expect(later).toBeGreaterThanOrEqual(29); // not rewritten within the minute
   });
 
@@ -94,9 +129,13 @@ describe("session lifetime", () => {
     const res = await signIn("trainee@tidemark.example");
     const cookie = cookiePair(res.headers.get("set-cookie"));
     expect(res.headers.get("set-cookie")).toMatch(/Max-Age=604800/);
-    const row = await k()("sessions").where({ id: sessionId(cookie) }).first(k().raw("extract(epoch from expires_at - created_at)::float8 as life"));
+    const row = await k()("sessions")
+      .where({ id: sessionId(cookie) })
+      .first(k().raw("extract(epoch from expires_at - created_at)::float8 as life"));
     expect(row.life).toBeCloseTo(7 * 86400, -1);
-    await k()("sessions").where({ id: sessionId(cookie) }).update({ expires_at: k().raw("now() - interval '1 second'"), last_seen_at: k().fn.now() });
+    await k()("sessions")
+      .where({ id: sessionId(cookie) })
+      .update({ expires_at: k().raw("now() - interval '1 second'"), last_seen_at: k().fn.now() });
     expect(await whoIs(cookie)).toBeNull();
   });
 });
@@ -110,7 +149,11 @@ describe("ending sessions", () => {
     const out = await callRoute(logout.action, formPost("/logout", {}, cookie));
     expect(out.status).toBe(302);
     expect(out.headers.get("set-cookie")).toMatch(/fw_session=;.*Max-Age=0/);
-    expect(await k()("sessions").where({ id: sessionId(cookie) }).first()).toBeUndefined();
+    expect(
+      await k()("sessions")
+        .where({ id: sessionId(cookie) })
+        .first(),
+    ).toBeUndefined();
     expect(await whoIs(cookie)).toBeNull();
   });
 
@@ -132,11 +175,30 @@ describe("ending sessions", () => {
   it("changing the password ends the other sessions and keeps this browser signed in with a new id", async () => {
     const here = await sessionCookie("trainee4@tidemark.example");
     const there = await sessionCookie("trainee4@tidemark.example");
-    const wrong = await callRoute(account.action, formPost("/account", { intent: "password", current: "not-my-password", password: "tern gravel lintel", confirm: "tern gravel lintel" }, here));
+    const wrong = await callRoute(
+      account.action,
+      formPost(
+        "/account",
+        {
+          intent: "password",
+          current: "not-my-password",
+          password: "tern gravel lintel",
+          confirm: "tern gravel lintel",
+        },
+        here,
+      ),
+    );
     expect(wrong.status).toBe(400);
     expect(wrong.data.fieldErrors.current).toMatch(/not your current password/);
     expect(await whoIs(there)).not.toBeNull();
-    const ok = await callRoute(account.action, formPost("/account", { intent: "password", current: DEMO_PASSWORD, password: "tern gravel lintel", confirm: "tern gravel lintel" }, here));
+    const ok = await callRoute(
+      account.action,
+      formPost(
+        "/account",
+        { intent: "password", current: DEMO_PASSWORD, password: "tern gravel lintel", confirm: "tern gravel lintel" },
+        here,
+      ),
+    );
     expect(ok.status).toBe(200);
     const renewed = cookiePair(ok.headers.get("set-cookie"));
     expect(await whoIs(there)).toBeNull();
@@ -168,7 +230,9 @@ describe("guards", () => {
     expect(anon.location).toBe("/login?redirectTo=%2Fadmin%3Frole%3Dtrainer");
     const trainee = await sessionCookie("trainee@tidemark.example");
     expect((await callRoute(adminUsers.loader, get("/admin", trainee))).status).toBe(403);
-    expect((await callRoute(adminUsers.action, formPost("/admin", { intent: "signup", open: "on" }, trainee))).status).toBe(403);
+    expect(
+      (await callRoute(adminUsers.action, formPost("/admin", { intent: "signup", open: "on" }, trainee))).status,
+    ).toBe(403);
     await expect(requirePermission(get("/", trainee), "users:manage")).rejects.toMatchObject({ init: { status: 403 } });
     await expect(requireRole(get("/", trainee), "trainee")).resolves.toMatchObject({ role: "trainee" });
   });
@@ -196,15 +260,24 @@ describe("admin", () => {
     expect(odd.data.users).toEqual([]);
 
     const designer = await userIdOf("designer@tidemark.example");
-    const changed = await callRoute(adminUsers.action, formPost("/admin", { intent: "role", userId: designer, role: "trainer" }, admin));
+    const changed = await callRoute(
+      adminUsers.action,
+      formPost("/admin", { intent: "role", userId: designer, role: "trainer" }, admin),
+    );
     expect(changed.data).toMatchObject({ ok: true });
     expect((await k()("users").where({ id: designer }).first("role")).role).toBe("trainer");
     const logged = await k()("audit_log").where({ action: "role_changed", subject_id: designer }).first("detail");
     expect(logged.detail).toEqual({ from: "designer", to: "trainer" });
 
-    const self = await callRoute(adminUsers.action, formPost("/admin", { intent: "role", userId: await userIdOf("admin@tidemark.example"), role: "trainee" }, admin));
+    const self = await callRoute(
+      adminUsers.action,
+      formPost("/admin", { intent: "role", userId: await userIdOf("admin@tidemark.example"), role: "trainee" }, admin),
+    );
     expect(self.status).toBe(400);
-    const bad = await callRoute(adminUsers.action, formPost("/admin", { intent: "role", userId: "not-a-uuid", role: "trainer" }, admin));
+    const bad = await callRoute(
+      adminUsers.action,
+      formPost("/admin", { intent: "role", userId: "not-a-uuid", role: "trainer" }, admin),
+    );
     expect(bad.status).toBe(400);
     const nonsense = await callRoute(adminUsers.action, formPost("/admin", { intent: "explode" }, admin));
     expect(nonsense.status).toBe(400);
@@ -214,13 +287,28 @@ describe("admin", () => {
     const admin = await sessionCookie("admin@tidemark.example");
     const email = uniqueAddress("resend");
     await callRoute(adminUsers.action, formPost("/admin", { intent: "invite", email, role: "trainer" }, admin));
-    const pending = await callRoute(adminUsers.loader, get(`/admin?status=invited&q=${encodeURIComponent(email)}`, admin));
+    const pending = await callRoute(
+      adminUsers.loader,
+      get(`/admin?status=invited&q=${encodeURIComponent(email)}`, admin),
+    );
     expect(pending.data.users).toMatchObject([{ email, status: "invited", role: "trainer" }]);
-    const again = await callRoute(adminUsers.action, formPost("/admin", { intent: "resend", userId: pending.data.users[0].id }, admin));
+    const again = await callRoute(
+      adminUsers.action,
+      formPost("/admin", { intent: "resend", userId: pending.data.users[0].id }, admin),
+    );
     expect(again.data).toMatchObject({ ok: true });
-    expect(await k()("tokens").where({ email, kind: "invitation" }).whereNull("used_at").count<{ count: string }[]>()).toEqual([{ count: "2" }]);
-    const dup = await callRoute(adminUsers.action, formPost("/admin", { intent: "invite", email: "designer@tidemark.example", role: "designer" }, admin));
-    expect(dup.data).toMatchObject({ ok: false, message: "There is already an account for that address.", email: "designer@tidemark.example" });
+    expect(
+      await k()("tokens").where({ email, kind: "invitation" }).whereNull("used_at").count<{ count: string }[]>(),
+    ).toEqual([{ count: "2" }]);
+    const dup = await callRoute(
+      adminUsers.action,
+      formPost("/admin", { intent: "invite", email: "designer@tidemark.example", role: "designer" }, admin),
+    );
+    expect(dup.data).toMatchObject({
+      ok: false,
+      message: "There is already an account for that address.",
+      email: "designer@tidemark.example",
+    });
   });
 
   it("shows the audit log of sign-ins, failures and role changes, filterable, to admins only", async () => {
@@ -233,22 +321,32 @@ describe("admin", () => {
     expect(failed.data.rows.every((r: { action: string }) => r.action === "sign_in_failed")).toBe(true);
     expect(failed.data.rows[0]).toMatchObject({ ip: "192.0.2.90", subjectEmail: "trainer@tidemark.example" });
     expect((await callRoute(adminAudit.loader, get("/admin/audit?action=nope&before=-4", admin))).status).toBe(200);
-    expect((await callRoute(adminAudit.loader, get("/admin/audit", await sessionCookie("trainer@tidemark.example")))).status).toBe(403);
+    expect(
+      (await callRoute(adminAudit.loader, get("/admin/audit", await sessionCookie("trainer@tidemark.example")))).status,
+    ).toBe(403);
   });
 
   it("lists the mail the SMTP fake kept in the Outbox, to admins only", async () => {
     const admin = await sessionCookie("admin@tidemark.example");
     const box = await callRoute(adminOutbox.loader, get("/admin/outbox", admin));
     expect(box.data.configured).toBe(true);
-    const invitation = box.data.messages.find((m: { subject: string; to: string[] }) => /invited/.test(m.subject) && m.to.some((t) => t.startsWith("resend-")));
+    const invitation = box.data.messages.find(
+      (m: { subject: string; to: string[] }) => /invited/.test(m.subject) && m.to.some((t) => t.startsWith("resend-")),
+    );
     expect(invitation).toBeTruthy();
     expect(invitation.text).toContain("/invite/");
     expect(invitation.html).toContain("<a href=");
-    expect((await callRoute(adminOutbox.loader, get("/admin/outbox", await sessionCookie("designer@tidemark.example")))).status).toBe(403);
+    expect(
+      (await callRoute(adminOutbox.loader, get("/admin/outbox", await sessionCookie("designer@tidemark.example"))))
+        .status,
+    ).toBe(403);
     const saved = process.env.MAIL_SPOOL_DIR;
     delete process.env.MAIL_SPOOL_DIR;
     try {
-      expect((await callRoute(adminOutbox.loader, get("/admin/outbox", admin))).data).toMatchObject({ configured: false, messages: [] });
+      expect((await callRoute(adminOutbox.loader, get("/admin/outbox", admin))).data).toMatchObject({
+        configured: false,
+        messages: [],
+      });
     } finally {
       process.env.MAIL_SPOOL_DIR = saved;
     }
@@ -259,20 +357,41 @@ describe("designer self sign-up", () => {
   it("is closed (404) until an admin opens it, then makes a designer account and signs in", async () => {
     expect((await callRoute(signup.loader, get("/signup"))).status).toBe(404);
     const email = uniqueAddress("self-signup");
-    const closed = await callRoute(signup.action, formPost("/signup", { email, name: "Noor Ashby", password: "quarry lantern 7", confirm: "quarry lantern 7" }));
+    const closed = await callRoute(
+      signup.action,
+      formPost("/signup", { email, name: "Noor Ashby", password: "quarry lantern 7", confirm: "quarry lantern 7" }),
+    );
     expect(closed.status).toBe(404);
 
     const admin = await sessionCookie("admin@tidemark.example");
     await callRoute(adminUsers.action, formPost("/admin", { intent: "signup", open: "on" }, admin));
     expect((await callRoute(signup.loader, get("/signup"))).status).toBe(200);
-    const bad = await callRoute(signup.action, formPost("/signup", { email: "not-an-address", name: "", password: "short", confirm: "short" }));
+    const bad = await callRoute(
+      signup.action,
+      formPost("/signup", { email: "not-an-address", name: "", password: "short", confirm: "short" }),
+    );
     expect(bad.status).toBe(400);
     expect(Object.keys(bad.data.fieldErrors).sort()).toEqual(["email", "name", "password"]);
     expect(bad.data.values.email).toBe("not-an-address");
-    const made = await callRoute(signup.action, formPost("/signup", { email, name: "Noor Ashby", password: "quarry lantern 7", confirm: "quarry lantern 7" }));
+    const made = await callRoute(
+      signup.action,
+      formPost("/signup", { email, name: "Noor Ashby", password: "quarry lantern 7", confirm: "quarry lantern 7" }),
+    );
     expect(made.status).toBe(302);
-    expect(await whoIs(cookiePair(made.headers.get("set-cookie")))).toMatchObject({ email, role: "designer", name: "Noor Ashby" });
-    const twice = await callRoute(signup.action, formPost("/signup", { email: email.toUpperCase(), name: "Noor Ashby", password: "quarry lantern 7", confirm: "quarry lantern 7" }));
+    expect(await whoIs(cookiePair(made.headers.get("set-cookie")))).toMatchObject({
+      email,
+      role: "designer",
+      name: "Noor Ashby",
+    });
+    const twice = await callRoute(
+      signup.action,
+      formPost("/signup", {
+        email: email.toUpperCase(),
+        name: "Noor Ashby",
+        password: "quarry lantern 7",
+        confirm: "quarry lantern 7",
+      }),
+    );
     expect(twice.status).toBe(400);
     await callRoute(adminUsers.action, formPost("/admin", { intent: "signup", open: "off" }, admin));
     expect((await callRoute(signup.loader, get("/signup"))).status).toBe(404);

@@ -30,10 +30,17 @@ describe("two app processes on one database", () => {
   it("a session made on one is honoured and ended on the other", async () => {
     const res = await login(a, "designer@tidemark.example", "fallwright-demo");
     expect(res.status).toBe(302);
-    const cookie = res.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
+    const cookie = res.headers
+      .getSetCookie()
+      .map((c) => c.split(";")[0])
+      .join("; ");
     const onB = await fetch(`${b.url}/roofs`, { headers: { cookie }, redirect: "manual" });
     expect(onB.status).toBe(200);
-    const out = await fetch(`${b.url}/logout`, { method: "POST", headers: { cookie, Origin: b.url }, redirect: "manual" });
+    const out = await fetch(`${b.url}/logout`, {
+      method: "POST",
+      headers: { cookie, Origin: b.url },
+      redirect: "manual",
+    });
     expect(out.status).toBe(302);
     const onA = await fetch(`${a.url}/roofs`, { headers: { cookie }, redirect: "manual" });
     expect(onA.status).toBe(302); // back to sign-in: the row is gone for both
@@ -56,5 +63,4 @@ describe("two app processes on one database", () => {
     expect(statuses.slice(0, 10).every((s) => s !== 429)).toBe(true);
     expect(statuses[10]).toBe(429);
   });
-
 });

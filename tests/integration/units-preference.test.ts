@@ -28,7 +28,12 @@ describe("units preference (per user; roofs stay in metres)", () => {
     const cookie = await sessionCookie("trainee@tidemark.example");
     const bad = await callRoute(account.action, formPost("/account", { intent: "units", units: "imperial" }, cookie));
     expect(bad.status).toBe(400);
-    expect(bad.data).toMatchObject({ intent: "units", fieldErrors: { units: expect.stringMatching(/metric|US customary/) } });
-    await expect(database.db()("users").whereRaw("lower(email) = ?", ["trainee@tidemark.example"]).update({ units: "imperial" })).rejects.toThrow(/users_units_check/);
+    expect(bad.data).toMatchObject({
+      intent: "units",
+      fieldErrors: { units: expect.stringMatching(/metric|US customary/) },
+    });
+    await expect(
+      database.db()("users").whereRaw("lower(email) = ?", ["trainee@tidemark.example"]).update({ units: "imperial" }),
+    ).rejects.toThrow(/users_units_check/);
   });
 });

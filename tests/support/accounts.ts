@@ -22,7 +22,11 @@ type RouteFn = (args: never) => unknown;
  * Runs a loader or action with a Request, params and a load context (client IP), and folds
  * every way it can answer (return, `data()`, thrown redirect or Response) into one shape.
  */
-export async function callRoute(fn: RouteFn, request: Request, o: { params?: Record<string, string>; ip?: string } = {}): Promise<Outcome> {
+export async function callRoute(
+  fn: RouteFn,
+  request: Request,
+  o: { params?: Record<string, string>; ip?: string } = {},
+): Promise<Outcome> {
   const context: AppLoadContext = { clientIp: o.ip ?? "192.0.2.10" };
   let out: unknown;
   try {
@@ -79,13 +83,18 @@ export function uniqueAddress(tag: string): string {
 /** Waits for the SMTP fake to keep a message to `to` (and matching `subject`), newest first. */
 const LOADED_AT = Date.now() - 1000;
 
-export async function waitForMail(to: string, o: { subject?: RegExp; timeoutMs?: number } = {}): Promise<SpooledMessage> {
+export async function waitForMail(
+  to: string,
+  o: { subject?: RegExp; timeoutMs?: number } = {},
+): Promise<SpooledMessage> {
   const end = Date.now() + (o.timeoutMs ?? 10_000);
   for (;;) {
     const { configured, messages } = await readOutbox({ to, limit: 20 });
     if (!configured) throw new Error("MAIL_SPOOL_DIR is not set: run through `npm test`");
     // The spool outlives a run: only messages sent since this test file started count.
-    const found = messages.find((m) => Date.parse(m.receivedAt) >= LOADED_AT && (!o.subject || o.subject.test(m.subject)));
+    const found = messages.find(
+      (m) => Date.parse(m.receivedAt) >= LOADED_AT && (!o.subject || o.subject.test(m.subject)),
+    );
     if (found) return found;
     if (Date.now() > end) throw new Error(`no e-mail to ${to} within ${o.timeoutMs ?? 10_000} ms`);
     await new Promise((r) => setTimeout(r, 100));

@@ -17,7 +17,12 @@ export async function demoClassId(): Promise<string> {
 }
 
 export const SPEC = {
-  outline: [[0, 0], [12, 0], [12, 8], [0, 8]],
+  outline: [
+    [0, 0],
+    [12, 0],
+    [12, 8],
+    [0, 8],
+  ],
   outlets: [{ at: [6, 0] }],
   baseFall: "1:60",
   joists: { spacing: 0.4 },
@@ -41,15 +46,39 @@ export const RESULTS = {
   score: 55,
   passed: false,
   passMark: 70,
-  quiz: [{ id: "q1", section: "quiz", label: "Convert 1:40 to %", passed: true, score: 1, weight: 1, feedback: "Right: 2.5 %.", measured: "2.5 %" }],
+  quiz: [
+    {
+      id: "q1",
+      section: "quiz",
+      label: "Convert 1:40 to %",
+      passed: true,
+      score: 1,
+      weight: 1,
+      feedback: "Right: 2.5 %.",
+      measured: "2.5 %",
+    },
+  ],
   task: [
-    { id: "fall-line", section: "task", label: "Longest fall line no flatter than 1:100", passed: false, score: 0, weight: 2, feedback: "1:140 is flatter than 1:100.", measured: "1:140" },
+    {
+      id: "fall-line",
+      section: "task",
+      label: "Longest fall line no flatter than 1:100",
+      passed: false,
+      score: 0,
+      weight: 2,
+      feedback: "1:140 is flatter than 1:100.",
+      measured: "1:140",
+    },
   ],
   roof: null,
 };
 
 /** An attempt row as the lesson player would leave it (graded 55, not passed, unless told). */
-export async function insertAttempt(traineeId: string, lessonSlug: string, o: { score?: number; passed?: boolean } = {}): Promise<string> {
+export async function insertAttempt(
+  traineeId: string,
+  lessonSlug: string,
+  o: { score?: number; passed?: boolean } = {},
+): Promise<string> {
   const [row] = await db()("attempts")
     .insert({
       trainee_id: traineeId,
@@ -69,7 +98,9 @@ export async function insertAttempt(traineeId: string, lessonSlug: string, o: { 
 /** A trainee account with an address of our own (mail to it is ours alone), in the given class. */
 export async function makeTrainee(email: string, name: string, classId?: string): Promise<string> {
   const org = await db()("organisations").first("id");
-  const [u] = await db()("users").insert({ organisation_id: org.id, email, name, role: "trainee", password_hash: "x" }).returning("id");
+  const [u] = await db()("users")
+    .insert({ organisation_id: org.id, email, name, role: "trainee", password_hash: "x" })
+    .returning("id");
   if (classId) await db()("class_members").insert({ class_id: classId, user_id: u.id });
   return u.id;
 }

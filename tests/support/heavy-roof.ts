@@ -14,7 +14,12 @@ export function heavyRoofSpec() {
   const probes: [number, number][] = [];
   for (let i = 0; i < 1000; i++) probes.push([0.5 + (i % 100) * 9.85, 5 + Math.floor(i / 100) * 9.5]);
   return {
-    outline: [[0, 0], [990, 0], [990, 100], [0, 100]] as [number, number][],
+    outline: [
+      [0, 0],
+      [990, 0],
+      [990, 100],
+      [0, 100],
+    ] as [number, number][],
     outlets,
     probes,
     baseFall: "1:60",

@@ -9,7 +9,8 @@ import addFormatsModule from "ajv-formats";
 import { openApiDocument, type OpenApiDocument } from "~/lib/openapi.server";
 
 // ajv-formats is CommonJS: its function is the default export's default under some loaders.
-const addFormats = ((addFormatsModule as unknown as { default?: typeof addFormatsModule }).default ?? addFormatsModule) as typeof addFormatsModule;
+const addFormats = ((addFormatsModule as unknown as { default?: typeof addFormatsModule }).default ??
+  addFormatsModule) as typeof addFormatsModule;
 
 interface Media {
   schema?: unknown;
@@ -20,7 +21,11 @@ interface ResponseObject {
 }
 type Operation = { responses?: Record<string, ResponseObject> };
 
-let state: { doc: OpenApiDocument; ajv: Ajv2020; templates: { path: string; pattern: RegExp; params: number }[] } | null = null;
+let state: {
+  doc: OpenApiDocument;
+  ajv: Ajv2020;
+  templates: { path: string; pattern: RegExp; params: number }[];
+} | null = null;
 
 function load() {
   if (state) return state;
@@ -57,22 +62,32 @@ export async function checkApiResponse(method: string, url: string, res: Respons
   if (!pathname.startsWith("/api/v1")) return;
   const { doc, ajv } = load();
   const template = documentedPath(pathname);
-  if (!template) throw new Error(`${method} ${pathname}: no path in the OpenAPI document matches it (add it to app/lib/openapi.server.ts)`);
+  if (!template)
+    throw new Error(
+      `${method} ${pathname}: no path in the OpenAPI document matches it (add it to app/lib/openapi.server.ts)`,
+    );
   const verb = method.toLowerCase() === "head" ? "get" : method.toLowerCase();
   const operation = (doc.paths![template] as Record<string, Operation | undefined>)[verb];
   if (!operation) {
     if (res.status === 405) return;
-    throw new Error(`${method} ${template} is not in the OpenAPI document, yet it answered ${res.status} (document it, or answer 405)`);
+    throw new Error(
+      `${method} ${template} is not in the OpenAPI document, yet it answered ${res.status} (document it, or answer 405)`,
+    );
   }
   const status = String(res.status);
   const response = operation.responses?.[status] ?? operation.responses?.default;
   if (!response) {
-    throw new Error(`${method} ${template} answered ${status}, which the OpenAPI document does not list (it lists ${Object.keys(operation.responses ?? {}).join(", ")})`);
+    throw new Error(
+      `${method} ${template} answered ${status}, which the OpenAPI document does not list (it lists ${Object.keys(operation.responses ?? {}).join(", ")})`,
+    );
   }
   const documented = Object.keys(response.content ?? {});
   if (!documented.length) return;
   const type = (res.headers.get("content-type") ?? "").split(";")[0].trim().toLowerCase();
-  if (!documented.includes(type)) throw new Error(`${method} ${template} ${status}: content type "${type}", the document says ${documented.join(" or ")}`);
+  if (!documented.includes(type))
+    throw new Error(
+      `${method} ${template} ${status}: content type "${type}", the document says ${documented.join(" or ")}`,
+    );
   if (type !== "application/json") return;
   const body: unknown = await res.clone().json();
   const key = `${template} ${verb} ${status}`;
@@ -84,7 +99,11 @@ export async function checkApiResponse(method: string, url: string, res: Respons
     validators.set(key, validate);
   }
   if (!validate(body)) {
-    const problems = (validate.errors ?? []).slice(0, 8).map((e) => `${e.instancePath || "(body)"} ${e.message}${e.params ? ` ${JSON.stringify(e.params)}` : ""}`);
-    throw new Error(`${method} ${template} ${status}: the body does not match the OpenAPI document:\n  ${problems.join("\n  ")}\nbody: ${JSON.stringify(body).slice(0, 400)}`);
+    const problems = (validate.errors ?? [])
+      .slice(0, 8)
+      .map((e) => `${e.instancePath || "(body)"} ${e.message}${e.params ? ` ${JSON.stringify(e.params)}` : ""}`);
+    throw new Error(
+      `${method} ${template} ${status}: the body does not match the OpenAPI document:\n  ${problems.join("\n  ")}\nbody: ${JSON.stringify(body).slice(0, 400)}`,
+    );
   }
 }

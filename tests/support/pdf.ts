@@ -8,7 +8,9 @@ export function makePdf(pages: { width: number; height: number; content: string 
     `<< /Type /Pages /Kids [${pages.map((_, i) => `${3 + i * 2} 0 R`).join(" ")}] /Count ${pages.length} >>`,
   ];
   pages.forEach((p, i) => {
-    objects.push(`<< /Type /Page /Parent 2 0 R /MediaBox [0 0 ${p.width} ${p.height}] /Contents ${4 + i * 2} 0 R /Resources << >> >>`);
+    objects.push(
+      `<< /Type /Page /Parent 2 0 R /MediaBox [0 0 ${p.width} ${p.height}] /Contents ${4 + i * 2} 0 R /Resources << >> >>`,
+    );
     objects.push(`<< /Length ${Buffer.byteLength(p.content, "latin1")} >>\nstream\n${p.content}\nendstream`);
   });
   let out = "%PDF-1.4\n";

@@ -40,11 +40,18 @@ async function run(fn: RouteFn, request: Request, params: Record<string, string>
   }
   if (out instanceof Response) return out;
   const d = out as { type?: string; data?: unknown; init?: ResponseInit | null };
-  if (d?.type === "DataWithResponseInit") return Response.json(d.data, { status: d.init?.status ?? 200, headers: d.init?.headers });
+  if (d?.type === "DataWithResponseInit")
+    return Response.json(d.data, { status: d.init?.status ?? 200, headers: d.init?.headers });
   return Response.json(out);
 }
 
-export function jsonRequest(method: string, path: string, body: unknown, cookie?: string, headers: Record<string, string> = {}): Request {
+export function jsonRequest(
+  method: string,
+  path: string,
+  body: unknown,
+  cookie?: string,
+  headers: Record<string, string> = {},
+): Request {
   return new Request(BASE + path, {
     method,
     headers: { "Content-Type": "application/json", ...(cookie ? { cookie } : {}), ...headers },
@@ -57,7 +64,12 @@ export function getRequest(path: string, cookie?: string): Request {
 }
 
 export const SMALL_SPEC = {
-  outline: [[0, 0], [10, 0], [10, 6], [0, 6]],
+  outline: [
+    [0, 0],
+    [10, 0],
+    [10, 6],
+    [0, 6],
+  ],
   outlets: [{ at: [5, 0] }],
   baseFall: "1:60",
   joists: { spacing: 0.4 },

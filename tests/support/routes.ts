@@ -12,7 +12,11 @@ export function allRoutePaths(): RoutePath[] {
   const out: RoutePath[] = [];
   const walk = (entries: RouteConfigEntry[], prefix: string) => {
     for (const e of entries) {
-      const joined = e.index ? prefix || "/" : e.path !== undefined ? `${prefix}/${e.path}`.replace(/\/+/g, "/") : prefix;
+      const joined = e.index
+        ? prefix || "/"
+        : e.path !== undefined
+          ? `${prefix}/${e.path}`.replace(/\/+/g, "/")
+          : prefix;
       if (e.index || e.path !== undefined) {
         out.push({ path: joined || "/", file: e.file, hasChildren: !!e.children?.length });
       }

@@ -8,8 +8,23 @@
 import { execFileSync, spawn, spawnSync, type ChildProcess } from "node:child_process";
 import fs from "node:fs";
 import path from "node:path";
-import { choosePort, log, PROJECT_ROOT, readClusterInfo, clusterUrl, ensureDatabase, dropDatabase } from "../../app/dev/cluster.ts";
-import { chooseFakePorts, PROFILES, prepareDatabase, serviceEnv, startFakes, waitForPort } from "../../app/dev/services.ts";
+import {
+  choosePort,
+  log,
+  PROJECT_ROOT,
+  readClusterInfo,
+  clusterUrl,
+  ensureDatabase,
+  dropDatabase,
+} from "../../app/dev/cluster.ts";
+import {
+  chooseFakePorts,
+  PROFILES,
+  prepareDatabase,
+  serviceEnv,
+  startFakes,
+  waitForPort,
+} from "../../app/dev/services.ts";
 
 const only = process.argv.find((a) => a.startsWith("--only="))?.split("=")[1];
 const profile = PROFILES.test;
@@ -67,15 +82,20 @@ async function main() {
   if (fakes) children.push(fakes);
 
   if (!only || only === "typecheck") {
-    const a = stage("typecheck", process.execPath, [path.join(PROJECT_ROOT, "node_modules/@react-router/dev/bin.js"), "typegen"]);
+    const a = stage("typecheck", process.execPath, [
+      path.join(PROJECT_ROOT, "node_modules/@react-router/dev/bin.js"),
+      "typegen",
+    ]);
     const b = a === 0 ? stage("typecheck", bin("tsc"), ["--noEmit"]) : 1;
     if (a === 0 && b === 0) passed++;
     else failed++;
   }
 
-
   if (!only || only === "build" || only === "e2e" || only === "vitest") {
-    if (stage("build", process.execPath, [path.join(PROJECT_ROOT, "node_modules/@react-router/dev/bin.js"), "build"]) !== 0) {
+    if (
+      stage("build", process.execPath, [path.join(PROJECT_ROOT, "node_modules/@react-router/dev/bin.js"), "build"]) !==
+      0
+    ) {
       failed++;
       return;
     }
@@ -104,8 +124,19 @@ async function main() {
     await ensureDatabase(info, e2eDb, profile.database);
     const server = spawn(process.execPath, ["--import", "tsx", "app/server/index.ts"], {
       cwd: PROJECT_ROOT,
-      stdio: ["ignore", fs.openSync(path.join(results, "e2e-server.log"), "w"), fs.openSync(path.join(results, "e2e-server.log"), "a")],
-      env: { ...process.env, ...env, NODE_ENV: "production", PORT: String(port), APP_URL: `http://127.0.0.1:${port}`, DATABASE_URL: clusterUrl(info, e2eDb) },
+      stdio: [
+        "ignore",
+        fs.openSync(path.join(results, "e2e-server.log"), "w"),
+        fs.openSync(path.join(results, "e2e-server.log"), "a"),
+      ],
+      env: {
+        ...process.env,
+        ...env,
+        NODE_ENV: "production",
+        PORT: String(port),
+        APP_URL: `http://127.0.0.1:${port}`,
+        DATABASE_URL: clusterUrl(info, e2eDb),
+      },
     });
     children.push(server);
     await waitForPort(port, 90_000); // a loaded shared machine can take over 30 s to load the build
@@ -119,7 +150,10 @@ async function main() {
     if (fs.existsSync(file)) {
       const r = JSON.parse(fs.readFileSync(file, "utf8"));
       passed += r.stats.expected + (r.stats.flaky ?? 0);
-      if (r.stats.flaky) console.log(`[fallwright] ${r.stats.flaky} end-to-end test(s) passed only on retry (flaky): see the Playwright list above`);
+      if (r.stats.flaky)
+        console.log(
+          `[fallwright] ${r.stats.flaky} end-to-end test(s) passed only on retry (flaky): see the Playwright list above`,
+        );
       failed += r.stats.unexpected + (r.stats.skipped ?? 0);
       if (r.errors?.length) failed += r.errors.length;
     } else {

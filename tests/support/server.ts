@@ -30,7 +30,15 @@ export async function startServer(databaseUrl: string, env: Record<string, strin
   const proc = spawn(process.execPath, ["--import", "tsx", path.join(ROOT, "app/server/index.ts")], {
     cwd: ROOT,
     // APP_URL: links in e-mail point at this server (a test may pass its own, or "" for none).
-    env: { ...process.env, NODE_ENV: "production", PORT: String(port), APP_URL: `http://127.0.0.1:${port}`, DATABASE_URL: databaseUrl, FALLWRIGHT_BUILD_DIR: buildDir, ...env },
+    env: {
+      ...process.env,
+      NODE_ENV: "production",
+      PORT: String(port),
+      APP_URL: `http://127.0.0.1:${port}`,
+      DATABASE_URL: databaseUrl,
+      FALLWRIGHT_BUILD_DIR: buildDir,
+      ...env,
+    },
     stdio: ["ignore", "pipe", "pipe"],
   });
   proc.stdout!.on("data", (d) => (out += d));

@@ -21,7 +21,10 @@ describe("text PostgreSQL can store", () => {
 
 describe("jsonProblem", () => {
   it("names the path of the first bad string or key", () => {
-    expect(jsonProblem({ spec: { outlets: [{ name: "ok" }, { name: "x\u0000" }] } })).toEqual({ path: "spec.outlets.1.name", message: expect.stringMatching(/NUL/) });
+    expect(jsonProblem({ spec: { outlets: [{ name: "ok" }, { name: "x\u0000" }] } })).toEqual({
+      path: "spec.outlets.1.name",
+      message: expect.stringMatching(/NUL/),
+    });
     expect(jsonProblem({ "k\u0000": 1 })?.message).toMatch(/key/);
     expect(jsonProblem("a\u0000", "email")?.path).toBe("email");
   });
@@ -52,7 +55,17 @@ describe("ids and integers", () => {
 describe("safeRedirect", () => {
   it("keeps same-origin paths and drops everything a browser would read as another host", () => {
     expect(safeRedirect("/roofs?sort=name#top")).toBe("/roofs?sort=name#top");
-    for (const bad of ["/\t/evil.example", "/\n/evil.example", "//evil.example", "/\\evil.example", "/.//evil.example", "https://evil.example", "javascript:alert(1)", "", null]) {
+    for (const bad of [
+      "/\t/evil.example",
+      "/\n/evil.example",
+      "//evil.example",
+      "/\\evil.example",
+      "/.//evil.example",
+      "https://evil.example",
+      "javascript:alert(1)",
+      "",
+      null,
+    ]) {
       expect(safeRedirect(bad), JSON.stringify(bad)).toBe("/");
     }
   });

@@ -19,7 +19,17 @@ describe("live feed frames", () => {
     const state = {
       toJSON() {
         serialised += 1;
-        return { title: "Warehouse roof", spec: { outline: [[0, 0], [10, 0], [10, 6], [0, 6]] } };
+        return {
+          title: "Warehouse roof",
+          spec: {
+            outline: [
+              [0, 0],
+              [10, 0],
+              [10, 6],
+              [0, 6],
+            ],
+          },
+        };
       },
     };
     const snap = { classId: "class-1", seq: 7, state } as unknown as LiveSnapshot;
@@ -27,7 +37,9 @@ describe("live feed frames", () => {
     expect(received).toHaveLength(40);
     expect(serialised).toBe(1);
     const text = new TextDecoder().decode(received[0]);
-    expect(text).toBe(`id: 7\nevent: state\ndata: {"seq":7,"state":{"title":"Warehouse roof","spec":{"outline":[[0,0],[10,0],[10,6],[0,6]]}}}\n\n`);
+    expect(text).toBe(
+      `id: 7\nevent: state\ndata: {"seq":7,"state":{"title":"Warehouse roof","spec":{"outline":[[0,0],[10,0],[10,6],[0,6]]}}}\n\n`,
+    );
     expect(new Set(received.map((b) => new TextDecoder().decode(b))).size).toBe(1);
 
     // The next update is serialised again, once.

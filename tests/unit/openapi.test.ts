@@ -17,7 +17,16 @@ const ROOF = {
   shared: false,
   canEdit: true,
   owner: { id: "5b0b8c59-0d8e-4a7e-8f0e-6a2f3f1b9c11", name: "Dana Example" },
-  spec: { outline: [[0, 0], [10, 0], [10, 6], [0, 6]], outlets: [{ at: [5, 0] }], baseFall: "1:60" },
+  spec: {
+    outline: [
+      [0, 0],
+      [10, 0],
+      [10, 6],
+      [0, 6],
+    ],
+    outlets: [{ at: [5, 0] }],
+    baseFall: "1:60",
+  },
   underlay: null,
   hasUnderlayImage: false,
   createdAt: "2026-12-01T10:00:00.000Z",
@@ -31,7 +40,10 @@ describe("the OpenAPI document", () => {
     expect(api.openapi).toBe("3.1.0");
     expect(Object.keys(api.paths ?? {}).length).toBeGreaterThanOrEqual(10);
     // The same parser refuses a broken copy, so the pass above means something.
-    const broken = structuredClone(doc) as unknown as { info: { title?: string }; paths: Record<string, Record<string, { parameters?: unknown }>> };
+    const broken = structuredClone(doc) as unknown as {
+      info: { title?: string };
+      paths: Record<string, Record<string, { parameters?: unknown }>>;
+    };
     delete broken.info.title;
     await expect(SwaggerParser.validate(broken as never)).rejects.toThrow();
     broken.info.title = "Fallwright API";
@@ -50,7 +62,15 @@ describe("the OpenAPI document", () => {
     const ajv = new Ajv2020({ strict: false });
     const validate = ajv.compile(doc.components!.schemas!.RoofSpec as object);
     expect(validate(ROOF.spec)).toBe(true);
-    expect(validate({ ...ROOF.spec, outline: [[0, 0], [1, 1]] })).toBe(false); // the engine's 3-vertex minimum
+    expect(
+      validate({
+        ...ROOF.spec,
+        outline: [
+          [0, 0],
+          [1, 1],
+        ],
+      }),
+    ).toBe(false); // the engine's 3-vertex minimum
     expect(validate({ ...ROOF.spec, joists: { spacing: 0.01 } })).toBe(false); // and its 0.05 m spacing minimum
     expect(validate({ outline: ROOF.spec.outline })).toBe(false); // baseFall is required
   });
@@ -69,7 +89,8 @@ describe("the OpenAPI document", () => {
     for (const [path, item] of Object.entries(doc.paths ?? {})) {
       for (const method of Object.keys(item as object)) expect(html).toContain(`${method.toUpperCase()} ${path}`);
     }
-    for (const name of Object.keys(doc.components?.schemas ?? {})) expect(html).toContain(`id="schema-${name.toLowerCase()}"`);
+    for (const name of Object.keys(doc.components?.schemas ?? {}))
+      expect(html).toContain(`id="schema-${name.toLowerCase()}"`);
     expect(html).not.toMatch(/<script|<link|src="http|href="http/i);
     expect(html).toContain('<a href="#schema-roofspec">RoofSpec</a>');
   });
@@ -85,21 +106,33 @@ describe("checkApiResponse holds real answers to the document", () => {
   it("fails an answer missing a documented key, or with one the document does not know", async () => {
     const { canEdit: _gone, ...missing } = ROOF;
     await expect(checkApiResponse("GET", `/api/v1/roofs/${ROOF.id}`, asJson(missing))).rejects.toThrow(/canEdit/);
-    await expect(checkApiResponse("GET", `/api/v1/roofs/${ROOF.id}`, asJson({ ...ROOF, colour: "red" }))).rejects.toThrow(/additional/);
-    await expect(checkApiResponse("GET", `/api/v1/roofs/${ROOF.id}`, asJson({ ...ROOF, version: "2" }))).rejects.toThrow(/version/);
+    await expect(
+      checkApiResponse("GET", `/api/v1/roofs/${ROOF.id}`, asJson({ ...ROOF, colour: "red" })),
+    ).rejects.toThrow(/additional/);
+    await expect(
+      checkApiResponse("GET", `/api/v1/roofs/${ROOF.id}`, asJson({ ...ROOF, version: "2" })),
+    ).rejects.toThrow(/version/);
   });
 
   it("fails a status, content type or method the document does not list", async () => {
     await expect(checkApiResponse("GET", "/api/v1/roofs", asJson({ roofs: [] }, 418))).rejects.toThrow(/418/);
-    await expect(checkApiResponse("GET", "/api/v1/roofs", new Response("{}", { headers: { "Content-Type": "text/plain" } }))).rejects.toThrow(/content type/);
+    await expect(
+      checkApiResponse("GET", "/api/v1/roofs", new Response("{}", { headers: { "Content-Type": "text/plain" } })),
+    ).rejects.toThrow(/content type/);
     await expect(checkApiResponse("PATCH", "/api/v1/roofs", asJson({}))).rejects.toThrow(/not in the OpenAPI document/);
     await expect(checkApiResponse("GET", "/api/v1/nowhere", asJson({}))).rejects.toThrow(/no path/);
   });
 
   it("accepts 405 for a method the document does not list, and errors in the one error shape", async () => {
-    await expect(checkApiResponse("PATCH", "/api/v1/roofs", asJson({ error: { message: "no", issues: [] } }, 405))).resolves.toBeUndefined();
-    await expect(checkApiResponse("GET", "/api/v1/roofs", asJson({ error: { message: "Sign in first.", issues: [] } }, 401))).resolves.toBeUndefined();
-    await expect(checkApiResponse("GET", "/api/v1/roofs", asJson({ message: "Sign in first." }, 401))).rejects.toThrow(/error/);
+    await expect(
+      checkApiResponse("PATCH", "/api/v1/roofs", asJson({ error: { message: "no", issues: [] } }, 405)),
+    ).resolves.toBeUndefined();
+    await expect(
+      checkApiResponse("GET", "/api/v1/roofs", asJson({ error: { message: "Sign in first.", issues: [] } }, 401)),
+    ).resolves.toBeUndefined();
+    await expect(checkApiResponse("GET", "/api/v1/roofs", asJson({ message: "Sign in first." }, 401))).rejects.toThrow(
+      /error/,
+    );
   });
 
   it("leaves the caller's body readable", async () => {

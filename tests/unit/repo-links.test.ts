@@ -10,7 +10,15 @@ import { describe, expect, it } from "vitest";
 const ROOT = path.resolve(import.meta.dirname, "../..");
 const SELF = path.relative(ROOT, import.meta.filename);
 
-const SKIP_DIRS = new Set(["node_modules", "build", ".git", ".data", ".react-router", "test-results", "playwright-report"]);
+const SKIP_DIRS = new Set([
+  "node_modules",
+  "build",
+  ".git",
+  ".data",
+  ".react-router",
+  "test-results",
+  "playwright-report",
+]);
 const TEXT = /\.(ts|tsx|mts|mjs|cjs|js|md|json|ya?ml|css|html|sh|txt)$/;
 
 function projectFiles(dir = ROOT, out: string[] = []): string[] {
@@ -19,7 +27,8 @@ function projectFiles(dir = ROOT, out: string[] = []): string[] {
     const full = path.join(dir, entry.name);
     const rel = path.relative(ROOT, full);
     if (entry.isDirectory()) projectFiles(full, out);
-    else if ((TEXT.test(entry.name) || rel === path.join(".ci", "run")) && entry.name !== "package-lock.json") out.push(rel);
+    else if ((TEXT.test(entry.name) || rel === path.join(".ci", "run")) && entry.name !== "package-lock.json")
+      out.push(rel);
   }
   return out;
 }
@@ -68,7 +77,8 @@ describe("pointers stay inside the repository", () => {
         .forEach((text, i) => {
           for (const m of text.matchAll(/(?<![\w.])(?:\.\.\/)+[\w@.-]*/g)) {
             const target = path.resolve(ROOT, path.dirname(file), m[0]);
-            if (target !== ROOT && !target.startsWith(ROOT + path.sep)) climbing.push({ file, line: i + 1, text: text.trim().slice(0, 160) });
+            if (target !== ROOT && !target.startsWith(ROOT + path.sep))
+              climbing.push({ file, line: i + 1, text: text.trim().slice(0, 160) });
           }
         });
     }
@@ -78,7 +88,10 @@ describe("pointers stay inside the repository", () => {
   it("no file names a specification file that is not in the repository", () => {
     // The upper-case names of the design notes the project started from; their content is in docs/.
     const bare = find(/(?<![\w/-])(?:ROOF-METHOD|CHECK-VALUES|QUALITY|PRODUCT|STYLE|STACK)(?:\.md\b|\b(?=\s*[§)]))/);
-    expect(show(bare), "cite docs/roof-method.md, docs/check-values.md, docs/quality.md, docs/security.md or docs/product.md").toEqual([]);
+    expect(
+      show(bare),
+      "cite docs/roof-method.md, docs/check-values.md, docs/quality.md, docs/security.md or docs/product.md",
+    ).toEqual([]);
   });
 
   it("every docs/….md that a file cites exists, and so does each § it names", () => {
@@ -99,7 +112,8 @@ describe("pointers stay inside the repository", () => {
             const body = fs.readFileSync(target, "utf8");
             for (const s of sections) {
               // A numbered heading: "## 4. The surface", "### §4 ...", "## 4) ...".
-              if (!new RegExp(`^#{2,4}\\s*§?\\s*${s}(?:[.):]|\\s)`, "m").test(body)) missing.push(`${file}:${i + 1}: docs/${m[1]} has no section §${s}`);
+              if (!new RegExp(`^#{2,4}\\s*§?\\s*${s}(?:[.):]|\\s)`, "m").test(body))
+                missing.push(`${file}:${i + 1}: docs/${m[1]} has no section §${s}`);
             }
           }
         });
@@ -109,10 +123,13 @@ describe("pointers stay inside the repository", () => {
   });
 
   it("the citation pattern reads sections as people write them", () => {
-    const sections = (s: string) => [...s.matchAll(DOC_CITE)].map((m) => [m[1], [...(m[2] ?? "").matchAll(/\d+/g)].map((d) => d[0])]);
+    const sections = (s: string) =>
+      [...s.matchAll(DOC_CITE)].map((m) => [m[1], [...(m[2] ?? "").matchAll(/\d+/g)].map((d) => d[0])]);
     expect(sections("(docs/roof-method.md §3, §7): H")).toEqual([["roof-method.md", ["3", "7"]]]);
     expect(sections("docs/roof-method.md §3/§4: H")).toEqual([["roof-method.md", ["3", "4"]]]);
-    expect(sections("see docs/decisions/0003-reused-arena-memory.md.")).toEqual([["decisions/0003-reused-arena-memory.md", []]]);
+    expect(sections("see docs/decisions/0003-reused-arena-memory.md.")).toEqual([
+      ["decisions/0003-reused-arena-memory.md", []],
+    ]);
     expect(sections("my-docs/x.md")).toEqual([]);
   });
 
@@ -120,7 +137,10 @@ describe("pointers stay inside the repository", () => {
     const index = read(path.join("docs", "README.md"));
     const pages = fs.readdirSync(path.join(ROOT, "docs")).filter((f) => f.endsWith(".md") && f !== "README.md");
     const decisions = fs.readdirSync(path.join(ROOT, "docs", "decisions")).filter((f) => f.endsWith(".md"));
-    const unlisted = [...pages.filter((p) => !index.includes(`(${p})`)), ...decisions.filter((d) => !index.includes(`(decisions/${d})`))];
+    const unlisted = [
+      ...pages.filter((p) => !index.includes(`(${p})`)),
+      ...decisions.filter((d) => !index.includes(`(decisions/${d})`)),
+    ];
     expect(unlisted, "add these to docs/README.md").toEqual([]);
     expect(decisions.length).toBeGreaterThanOrEqual(7);
   });

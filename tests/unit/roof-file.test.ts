@@ -3,11 +3,25 @@ import { readRoofFile, roofFileName, writeRoofFile } from "~/lib/roof-file";
 import { calibrate, parseLength, pixelToPlan, planToPixel, retraceSpec } from "~/lib/underlay";
 
 describe("roof file format", () => {
-  const spec = { outline: [[0, 0], [5, 0], [5, 4], [0, 4]], baseFall: "1:60" };
+  const spec = {
+    outline: [
+      [0, 0],
+      [5, 0],
+      [5, 4],
+      [0, 4],
+    ],
+    baseFall: "1:60",
+  };
 
   it("round-trips a roof, with or without underlay placement", () => {
     const file = writeRoofFile({ name: "Porch", spec }, new Date("2027-01-02T03:04:05Z"));
-    expect(file).toEqual({ format: "fallwright-roof", version: 1, name: "Porch", exportedAt: "2027-01-02T03:04:05.000Z", spec });
+    expect(file).toEqual({
+      format: "fallwright-roof",
+      version: 1,
+      name: "Porch",
+      exportedAt: "2027-01-02T03:04:05.000Z",
+      spec,
+    });
     const back = readRoofFile(JSON.stringify(file));
     expect(back).toEqual({ ok: true, file });
     const u = { opacity: 0.5, originX: 1, originY: 2, metresPerPixel: 0.01, widthPx: 100, heightPx: 80 };
@@ -17,15 +31,31 @@ describe("roof file format", () => {
 
   it("names what is wrong: not JSON, not ours, an unknown version, a damaged envelope", () => {
     expect(readRoofFile("{")).toMatchObject({ ok: false, message: expect.stringMatching(/not JSON/) });
-    expect(readRoofFile("[1,2]")).toMatchObject({ ok: false, message: expect.stringMatching(/not a Fallwright roof file/) });
+    expect(readRoofFile("[1,2]")).toMatchObject({
+      ok: false,
+      message: expect.stringMatching(/not a Fallwright roof file/),
+    });
     expect(readRoofFile(JSON.stringify({ format: "fallwright-roof", version: 3, name: "x", spec }))).toMatchObject({
       ok: false,
       message: "This roof file is format version 3; this Fallwright reads version 1 only.",
     });
-    expect(readRoofFile(JSON.stringify({ format: "fallwright-roof", name: "x", spec }))).toMatchObject({ ok: false, message: expect.stringMatching(/no format version/) });
-    expect(readRoofFile(JSON.stringify({ format: "fallwright-roof", version: 1, name: "", spec }))).toMatchObject({ ok: false, message: expect.stringMatching(/damaged: name/) });
-    expect(readRoofFile(JSON.stringify({ format: "fallwright-roof", version: 1, name: "x", spec, underlay: { opacity: 3 } }))).toMatchObject({ ok: false, message: expect.stringMatching(/damaged: underlay/) });
-    expect(readRoofFile("x".repeat(300 * 1024))).toMatchObject({ ok: false, message: expect.stringMatching(/over 256 kB/) });
+    expect(readRoofFile(JSON.stringify({ format: "fallwright-roof", name: "x", spec }))).toMatchObject({
+      ok: false,
+      message: expect.stringMatching(/no format version/),
+    });
+    expect(readRoofFile(JSON.stringify({ format: "fallwright-roof", version: 1, name: "", spec }))).toMatchObject({
+      ok: false,
+      message: expect.stringMatching(/damaged: name/),
+    });
+    expect(
+      readRoofFile(
+        JSON.stringify({ format: "fallwright-roof", version: 1, name: "x", spec, underlay: { opacity: 3 } }),
+      ),
+    ).toMatchObject({ ok: false, message: expect.stringMatching(/damaged: underlay/) });
+    expect(readRoofFile("x".repeat(300 * 1024))).toMatchObject({
+      ok: false,
+      message: expect.stringMatching(/over 256 kB/),
+    });
   });
 
   it("makes safe download names", () => {
@@ -67,9 +97,33 @@ describe("underlay scale", () => {
   });
 
   it("retracing keeps the other settings, resets edge kinds and moves outlets onto the new outline", () => {
-    const spec = { outline: [[0, 0], [24, 0], [24, 7.5], [0, 7.5]], edges: ["parapet", "eaves", "parapet", "parapet"], outlets: [{ at: [12, 0], size: 0.1 }], baseFall: "1:60" };
-    const traced = retraceSpec(spec, [[3, -4.5], [15, -4.5], [15, 1.5], [3, 1.5]]);
-    expect(traced).toEqual({ outline: [[3, -4.5], [15, -4.5], [15, 1.5], [3, 1.5]], outlets: [{ at: [12, 1.5], size: 0.1 }], baseFall: "1:60" });
+    const spec = {
+      outline: [
+        [0, 0],
+        [24, 0],
+        [24, 7.5],
+        [0, 7.5],
+      ],
+      edges: ["parapet", "eaves", "parapet", "parapet"],
+      outlets: [{ at: [12, 0], size: 0.1 }],
+      baseFall: "1:60",
+    };
+    const traced = retraceSpec(spec, [
+      [3, -4.5],
+      [15, -4.5],
+      [15, 1.5],
+      [3, 1.5],
+    ]);
+    expect(traced).toEqual({
+      outline: [
+        [3, -4.5],
+        [15, -4.5],
+        [15, 1.5],
+        [3, 1.5],
+      ],
+      outlets: [{ at: [12, 1.5], size: 0.1 }],
+      baseFall: "1:60",
+    });
     expect(spec.outline).toHaveLength(4);
     expect(spec.edges).toHaveLength(4);
   });

@@ -3,8 +3,16 @@ import { MAX_ADDRESSES, parseAddressList } from "~/lib/roster";
 
 describe("parseAddressList (pasted invitation lists)", () => {
   it("splits on commas, semicolons, tabs and new lines, and lower-cases", () => {
-    const r = parseAddressList("Ana@Example.org, ben@example.org;cleo@example.org\n\tdev@example.org\r\neve@example.org");
-    expect(r.valid).toEqual(["ana@example.org", "ben@example.org", "cleo@example.org", "dev@example.org", "eve@example.org"]);
+    const r = parseAddressList(
+      "Ana@Example.org, ben@example.org;cleo@example.org\n\tdev@example.org\r\neve@example.org",
+    );
+    expect(r.valid).toEqual([
+      "ana@example.org",
+      "ben@example.org",
+      "cleo@example.org",
+      "dev@example.org",
+      "eve@example.org",
+    ]);
     expect(r.invalid).toEqual([]);
   });
 
@@ -14,7 +22,9 @@ describe("parseAddressList (pasted invitation lists)", () => {
   });
 
   it("reports invalid entries as typed and keeps going", () => {
-    const r = parseAddressList("ana@example.org, not-an-address, bob@, @example.org, two words@example.org, ok@example.org");
+    const r = parseAddressList(
+      "ana@example.org, not-an-address, bob@, @example.org, two words@example.org, ok@example.org",
+    );
     expect(r.valid).toEqual(["ana@example.org", "ok@example.org"]);
     expect(r.invalid).toEqual(["not-an-address", "bob@", "@example.org", "two words@example.org"]);
   });

@@ -21,7 +21,11 @@ export function AssignmentsForm({
   const initial = new Map(assigned.map((a) => [a.lesson_slug, a.due_on ?? ""]));
   const [ticked, setTicked] = useState(() => new Set(initial.keys()));
   if (!lessons.length) {
-    return <p className="text-sm text-ink-soft">No lessons are loaded yet. They appear here once the course files are synced at start-up.</p>;
+    return (
+      <p className="text-sm text-ink-soft">
+        No lessons are loaded yet. They appear here once the course files are synced at start-up.
+      </p>
+    );
   }
   const toggle = (slug: string, on: boolean) =>
     setTicked((prev) => {
@@ -38,9 +42,13 @@ export function AssignmentsForm({
           <caption className="sr-only">Lessons to assign</caption>
           <thead>
             <tr>
-              <th scope="col" className="w-16">Assign</th>
+              <th scope="col" className="w-16">
+                Assign
+              </th>
               <th scope="col">Lesson</th>
-              <th scope="col" className="w-48">Due on</th>
+              <th scope="col" className="w-48">
+                Due on
+              </th>
             </tr>
           </thead>
           <tbody>
@@ -50,7 +58,15 @@ export function AssignmentsForm({
               return (
                 <tr key={l.slug} className={on ? "bg-accent-wash/40" : undefined}>
                   <td>
-                    <input id={id} type="checkbox" name="assign" value={l.slug} checked={on} onChange={(e) => toggle(l.slug, e.target.checked)} className="h-4 w-4" />
+                    <input
+                      id={id}
+                      type="checkbox"
+                      name="assign"
+                      value={l.slug}
+                      checked={on}
+                      onChange={(e) => toggle(l.slug, e.target.checked)}
+                      className="h-4 w-4"
+                    />
                   </td>
                   <td>
                     <label htmlFor={id}>
@@ -76,8 +92,12 @@ export function AssignmentsForm({
         </table>
       </div>
       <div className="flex items-center gap-3">
-        <SubmitButton intent="assignments" pendingText="Saving…">Save assignments</SubmitButton>
-        <span className="text-sm text-ink-soft">{ticked.size} of {lessons.length} ticked</span>
+        <SubmitButton intent="assignments" pendingText="Saving…">
+          Save assignments
+        </SubmitButton>
+        <span className="text-sm text-ink-soft">
+          {ticked.size} of {lessons.length} ticked
+        </span>
       </div>
     </Form>
   );

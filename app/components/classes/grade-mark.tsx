@@ -16,7 +16,10 @@ export function GradeMark({ cell, compact = false }: { cell: GradeCell | null | 
         {cell && !cell.passed && cell.why ? `: ${WHY_SHORT[cell.why]}` : null}
       </span>
       {cell?.overridden ? (
-        <span className="inline-flex items-center gap-0.5 rounded border border-ink-soft px-1 text-[10px] uppercase tracking-wide text-ink-soft" title="The trainer changed this grade">
+        <span
+          className="inline-flex items-center gap-0.5 rounded border border-ink-soft px-1 text-[10px] uppercase tracking-wide text-ink-soft"
+          title="The trainer changed this grade"
+        >
           <PenLine aria-hidden="true" className="h-3 w-3" />
           override
         </span>

@@ -12,7 +12,14 @@ import {
   type SortingState,
 } from "@tanstack/react-table";
 import { ArrowDown, ArrowUp, ArrowUpDown, Search } from "lucide-react";
-import { cellStatus, formatScore, STATUS_LABELS, type CellStatus, type Gradebook, type GradebookRow } from "~/lib/gradebook";
+import {
+  cellStatus,
+  formatScore,
+  STATUS_LABELS,
+  type CellStatus,
+  type Gradebook,
+  type GradebookRow,
+} from "~/lib/gradebook";
 import { GradeMark } from "~/components/classes/grade-mark";
 
 type StatusFilter = CellStatus | "all";
@@ -69,7 +76,9 @@ export function GradebookTable({ book, classId }: { book: Gradebook; classId: st
           header: () => (
             <span className="block min-w-28 normal-case tracking-normal">
               <span className="block text-sm font-bold">{l.title}</span>
-              <span className="block text-xs font-normal text-ink-soft">{l.dueOn ? `due $<Day iso={l.dueOn} />` : "no due date"}</span>
+              <span className="block text-xs font-normal text-ink-soft">
+                {l.dueOn ? `due $<Day iso={l.dueOn} />` : "no due date"}
+              </span>
             </span>
           ),
           sortUndefined: "last",
@@ -85,7 +94,9 @@ export function GradebookTable({ book, classId }: { book: Gradebook; classId: st
                 aria-label={`${who}, ${l.title}: ${formatScore(cell.score)} ${STATUS_LABELS[cellStatus(cell)]}${cell.overridden ? " (override)" : ""}${cell.reason && !cell.passed ? `. ${cell.reason}` : "."} Open the review`}
               >
                 <GradeMark cell={cell} />
-                <span className="block text-[11px] text-ink-soft">{cell.attempts} attempt{cell.attempts === 1 ? "" : "s"}</span>
+                <span className="block text-[11px] text-ink-soft">
+                  {cell.attempts} attempt{cell.attempts === 1 ? "" : "s"}
+                </span>
               </Link>
             );
           },
@@ -110,15 +121,31 @@ export function GradebookTable({ book, classId }: { book: Gradebook; classId: st
     <div className="grid gap-3">
       <div className="flex flex-wrap items-end gap-3" role="search" aria-label="Filter the gradebook">
         <div>
-          <label className="label" htmlFor="gb-search">Search trainees</label>
+          <label className="label" htmlFor="gb-search">
+            Search trainees
+          </label>
           <div className="relative">
             <Search aria-hidden="true" className="pointer-events-none absolute left-2 top-2 h-4 w-4 text-ink-soft" />
-            <input id="gb-search" type="search" className="field pl-8" placeholder="Name or e-mail" value={filter.q} onChange={(e) => setFilter({ ...filter, q: e.target.value })} />
+            <input
+              id="gb-search"
+              type="search"
+              className="field pl-8"
+              placeholder="Name or e-mail"
+              value={filter.q}
+              onChange={(e) => setFilter({ ...filter, q: e.target.value })}
+            />
           </div>
         </div>
         <div>
-          <label className="label" htmlFor="gb-status">Show</label>
-          <select id="gb-status" className="field" value={filter.status} onChange={(e) => setFilter({ ...filter, status: e.target.value as StatusFilter })}>
+          <label className="label" htmlFor="gb-status">
+            Show
+          </label>
+          <select
+            id="gb-status"
+            className="field"
+            value={filter.status}
+            onChange={(e) => setFilter({ ...filter, status: e.target.value as StatusFilter })}
+          >
             <option value="all">Everyone</option>
             <option value="passed">Passed</option>
             <option value="failed">Not passed</option>
@@ -126,11 +153,21 @@ export function GradebookTable({ book, classId }: { book: Gradebook; classId: st
           </select>
         </div>
         <div>
-          <label className="label" htmlFor="gb-lesson">In</label>
-          <select id="gb-lesson" className="field" value={filter.lesson} onChange={(e) => setFilter({ ...filter, lesson: e.target.value })} disabled={filter.status === "all"}>
+          <label className="label" htmlFor="gb-lesson">
+            In
+          </label>
+          <select
+            id="gb-lesson"
+            className="field"
+            value={filter.lesson}
+            onChange={(e) => setFilter({ ...filter, lesson: e.target.value })}
+            disabled={filter.status === "all"}
+          >
             <option value="">any assigned lesson</option>
             {book.lessons.map((l) => (
-              <option key={l.slug} value={l.slug}>{l.title}</option>
+              <option key={l.slug} value={l.slug}>
+                {l.title}
+              </option>
             ))}
           </select>
         </div>
@@ -141,7 +178,9 @@ export function GradebookTable({ book, classId }: { book: Gradebook; classId: st
 
       <div className="max-h-[70vh] overflow-auto rounded border border-rule bg-sheet">
         <table className="data-table w-full border-separate border-spacing-0">
-          <caption className="sr-only">Gradebook: trainees by assigned lesson, best grade in each. Column headers sort.</caption>
+          <caption className="sr-only">
+            Gradebook: trainees by assigned lesson, best grade in each. Column headers sort.
+          </caption>
           <thead>
             {table.getHeaderGroups().map((hg) => (
               <tr key={hg.id}>
@@ -155,7 +194,11 @@ export function GradebookTable({ book, classId }: { book: Gradebook; classId: st
                       aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : "none"}
                       className={`sticky top-0 z-10 bg-sheet align-bottom ${i === 0 ? "left-0 z-20" : ""}`}
                     >
-                      <button type="button" className="inline-flex items-end gap-1 text-left uppercase" onClick={h.column.getToggleSortingHandler()}>
+                      <button
+                        type="button"
+                        className="inline-flex items-end gap-1 text-left uppercase"
+                        onClick={h.column.getToggleSortingHandler()}
+                      >
                         {flexRender(h.column.columnDef.header, h.getContext())}
                         <Icon aria-hidden="true" className={`h-3.5 w-3.5 shrink-0 ${sorted ? "" : "opacity-40"}`} />
                       </button>
@@ -170,7 +213,11 @@ export function GradebookTable({ book, classId }: { book: Gradebook; classId: st
               <tr key={row.id} className="hover:bg-paper/60">
                 {row.getVisibleCells().map((cell, i) =>
                   i === 0 ? (
-                    <th key={cell.id} scope="row" className="sticky left-0 z-[1] border-b border-rule bg-sheet px-2 py-1 text-left text-sm font-normal normal-case tracking-normal">
+                    <th
+                      key={cell.id}
+                      scope="row"
+                      className="sticky left-0 z-[1] border-b border-rule bg-sheet px-2 py-1 text-left text-sm font-normal normal-case tracking-normal"
+                    >
                       {flexRender(cell.column.columnDef.cell, cell.getContext())}
                     </th>
                   ) : (

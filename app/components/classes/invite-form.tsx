@@ -24,14 +24,24 @@ export function InviteReportView({ report }: { report: InviteReport }) {
   return (
     <div role="status" className="grid gap-2 rounded border border-rule bg-paper px-3 py-2 text-sm">
       <Group title="Invitation e-mailed" items={report.invited} tone="ok" />
-      <Group title="Already had an account: asked by e-mail to join (they join when they accept)" items={report.askedToJoin} tone="ok" />
+      <Group
+        title="Already had an account: asked by e-mail to join (they join when they accept)"
+        items={report.askedToJoin}
+        tone="ok"
+      />
       <Group title="Not valid e-mail addresses (left in the box to fix)" items={report.invalid} tone="bad" />
       <Group title="Refused" items={report.refused.map((r) => `${r.email}: ${r.message}`)} tone="bad" />
-      <Group title="E-mail could not be sent (the invitation stands; resend later)" items={report.mailFailed} tone="bad" />
+      <Group
+        title="E-mail could not be sent (the invitation stands; resend later)"
+        items={report.mailFailed}
+        tone="bad"
+      />
       <Group title="Already in the class (skipped)" items={report.alreadyMember} />
       <Group title="Already invited and not yet answered (skipped)" items={report.alreadyInvited} />
       <Group title="Pasted more than once (invited once)" items={report.repeated} />
-      {report.truncated ? <p className="text-bad">Only the first 200 addresses were taken. Paste the rest again.</p> : null}
+      {report.truncated ? (
+        <p className="text-bad">Only the first 200 addresses were taken. Paste the rest again.</p>
+      ) : null}
     </div>
   );
 }
@@ -46,7 +56,9 @@ export function InviteForm({ report, text, error }: { report?: InviteReport; tex
     <Form method="post" className="grid gap-3" noValidate>
       <input type="hidden" name="intent" value="invite" />
       <div>
-        <label className="label" htmlFor="addresses">E-mail addresses</label>
+        <label className="label" htmlFor="addresses">
+          E-mail addresses
+        </label>
         <textarea
           ref={box}
           id="addresses"
@@ -65,7 +77,9 @@ export function InviteForm({ report, text, error }: { report?: InviteReport; tex
       <FormError message={error} />
       {report ? <InviteReportView report={report} /> : null}
       <div>
-        <SubmitButton intent="invite" pendingText="Sending invitations…">Send invitations</SubmitButton>
+        <SubmitButton intent="invite" pendingText="Sending invitations…">
+          Send invitations
+        </SubmitButton>
       </div>
     </Form>
   );

@@ -16,7 +16,10 @@ export function LiveStatus({ status, large = false }: { status: LiveFeed["status
       data-status={status}
       className={`inline-flex items-center gap-2 rounded-full border-2 px-3 py-1 font-medium ${large ? "text-lg" : "text-sm"} ${live ? "border-ok text-ok" : "border-warn text-warn"}`}
     >
-      <span aria-hidden="true" className={`inline-block h-2.5 w-2.5 rounded-full border-2 ${live ? "border-ok bg-ok" : "animate-pulse border-warn"}`} />
+      <span
+        aria-hidden="true"
+        className={`inline-block h-2.5 w-2.5 rounded-full border-2 ${live ? "border-ok bg-ok" : "animate-pulse border-warn"}`}
+      />
       {LABELS[status]}
     </span>
   );

@@ -11,7 +11,12 @@ export function PublishState({ status }: { status: PublishStatus }) {
           ? `Live · the class sees this (update ${status.seq})`
           : "Live · waiting for your first change";
   return (
-    <span role="status" aria-live="polite" data-state={status.state} className={`ml-auto font-medium ${status.state === "error" ? "text-bad" : "text-ok"}`}>
+    <span
+      role="status"
+      aria-live="polite"
+      data-state={status.state}
+      className={`ml-auto font-medium ${status.state === "error" ? "text-bad" : "text-ok"}`}
+    >
       <span aria-hidden="true">{status.state === "error" ? "⚠ " : "● "}</span>
       {text}
     </span>

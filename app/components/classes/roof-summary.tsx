@@ -22,7 +22,8 @@ function Summary({ s, className }: { s: Partial<RoofSpec> & Pick<RoofSpec, "outl
   const outlets = Array.isArray(s.outlets) ? s.outlets : [];
   return (
     <p className={`text-sm ${className}`} data-testid="roof-summary">
-      <span className="font-medium">Plan</span> {m(Math.max(...xs) - Math.min(...xs))} × {m(Math.max(...ys) - Math.min(...ys))}, {s.outline.length} edges ·{" "}
+      <span className="font-medium">Plan</span> {m(Math.max(...xs) - Math.min(...xs))} ×{" "}
+      {m(Math.max(...ys) - Math.min(...ys))}, {s.outline.length} edges ·{" "}
       <span className="font-medium">{outlets.length === 1 ? "Outlet" : `${outlets.length} outlets`}</span>{" "}
       {outlets.length ? outlets.map((o) => `at (${at(o.at[0])}, ${at(o.at[1])})`).join(", ") : "none"} ·{" "}
       <span className="font-medium">Base fall</span> {String(s.baseFall ?? "—")}

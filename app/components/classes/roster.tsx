@@ -24,7 +24,11 @@ function confirmFirst(message: string) {
 
 export function RosterTable({ members, className }: { members: Member[]; className: string }) {
   if (!members.length) {
-    return <p className="text-sm text-ink-soft">Nobody has joined yet. Invite trainees below; they appear here once they accept.</p>;
+    return (
+      <p className="text-sm text-ink-soft">
+        Nobody has joined yet. Invite trainees below; they appear here once they accept.
+      </p>
+    );
   }
   return (
     <div className="overflow-x-auto">
@@ -35,7 +39,9 @@ export function RosterTable({ members, className }: { members: Member[]; classNa
             <th scope="col">Name</th>
             <th scope="col">E-mail</th>
             <th scope="col">Joined</th>
-            <th scope="col"><span className="sr-only">Remove</span></th>
+            <th scope="col">
+              <span className="sr-only">Remove</span>
+            </th>
           </tr>
         </thead>
         <tbody>
@@ -43,9 +49,14 @@ export function RosterTable({ members, className }: { members: Member[]; classNa
             <tr key={m.id}>
               <td className="font-medium">{m.name || <span className="text-ink-soft">(no name yet)</span>}</td>
               <td className="break-all">{m.email}</td>
-              <td className="whitespace-nowrap"><Day iso={m.joined_at} /></td>
+              <td className="whitespace-nowrap">
+                <Day iso={m.joined_at} />
+              </td>
               <td className="text-right">
-                <Form method="post" onSubmit={confirmFirst(`Remove ${m.name || m.email} from ${className}? Their attempts are kept.`)}>
+                <Form
+                  method="post"
+                  onSubmit={confirmFirst(`Remove ${m.name || m.email} from ${className}? Their attempts are kept.`)}
+                >
                   <input type="hidden" name="intent" value="remove" />
                   <input type="hidden" name="userId" value={m.id} />
                   <button type="submit" className="btn" aria-label={`Remove ${m.name || m.email}`}>
@@ -71,14 +82,25 @@ export function PendingInvitations({ pending }: { pending: Pending[] }) {
             <span className="font-medium">{p.email}</span>
             <span className="block text-xs text-ink-soft">
               Invited <Day iso={p.invited_at} /> ·{" "}
-              {p.expired ? <strong className="text-bad">link expired: paste the address again to resend</strong> : <>link valid until <Day iso={p.expires_at} /></>}
+              {p.expired ? (
+                <strong className="text-bad">link expired: paste the address again to resend</strong>
+              ) : (
+                <>
+                  link valid until <Day iso={p.expires_at} />
+                </>
+              )}
             </span>
           </span>
           {p.expired ? null : (
-            <Form method="post" onSubmit={confirmFirst(`Withdraw the invitation to ${p.email}? The link stops working.`)}>
+            <Form
+              method="post"
+              onSubmit={confirmFirst(`Withdraw the invitation to ${p.email}? The link stops working.`)}
+            >
               <input type="hidden" name="intent" value="withdraw" />
               <input type="hidden" name="email" value={p.email} />
-              <button type="submit" className="btn" aria-label={`Withdraw the invitation to ${p.email}`}>Withdraw</button>
+              <button type="submit" className="btn" aria-label={`Withdraw the invitation to ${p.email}`}>
+                Withdraw
+              </button>
             </Form>
           )}
         </li>

@@ -23,7 +23,11 @@ const MIN_INTERVAL_MS = 100;
  * `liveSeq`: what is already live when the page opens (a presenter who reloaded).
  */
 export function useLivePublisher(classId: string, liveSeq: number | null = null) {
-  const [status, setStatus] = useState<PublishStatus>({ state: liveSeq === null ? "idle" : "sent", seq: liveSeq, message: null });
+  const [status, setStatus] = useState<PublishStatus>({
+    state: liveSeq === null ? "idle" : "sent",
+    seq: liveSeq,
+    message: null,
+  });
   const pending = useRef<LiveUpdateBody | null>(null);
   const busy = useRef(false);
   const lastSent = useRef(0);
@@ -52,9 +56,18 @@ export function useLivePublisher(classId: string, liveSeq: number | null = null)
       });
       const json = (await res.json().catch(() => null)) as { seq?: number; error?: { message?: string } } | null;
       if (res.ok && typeof json?.seq === "number") setStatus({ state: "sent", seq: json.seq, message: null });
-      else setStatus((s) => ({ ...s, state: "error", message: json?.error?.message ?? `The server answered ${res.status}.` }));
+      else
+        setStatus((s) => ({
+          ...s,
+          state: "error",
+          message: json?.error?.message ?? `The server answered ${res.status}.`,
+        }));
     } catch {
-      setStatus((s) => ({ ...s, state: "error", message: "No connection to the server. Changes are sent again when it is back." }));
+      setStatus((s) => ({
+        ...s,
+        state: "error",
+        message: "No connection to the server. Changes are sent again when it is back.",
+      }));
       pending.current ??= body;
       timer.current ??= setTimeout(() => {
         timer.current = null;

@@ -20,8 +20,12 @@ export function LiveCriteria({ task }: { task: TaskView }) {
   return (
     <section className="card mb-4" aria-labelledby="live-criteria-heading" data-testid="live-criteria">
       <div className="flex flex-wrap items-baseline justify-between gap-2">
-        <h3 id="live-criteria-heading" className="font-bold">Checks while you work</h3>
-        <span className="text-xs text-ink-soft">{computing ? "measuring…" : "measured in your browser; the grade comes from the server when you submit"}</span>
+        <h3 id="live-criteria-heading" className="font-bold">
+          Checks while you work
+        </h3>
+        <span className="text-xs text-ink-soft">
+          {computing ? "measuring…" : "measured in your browser; the grade comes from the server when you submit"}
+        </span>
       </div>
       <ul className="mt-2 grid gap-1 text-sm" aria-live="polite">
         {task.criteria.map((c) => {
@@ -37,7 +41,10 @@ export function LiveCriteria({ task }: { task: TaskView }) {
                 <Circle aria-hidden="true" className="mt-0.5 h-4 w-4 shrink-0 text-ink-soft" />
               )}
               <span>
-                <span className="font-medium">{state === "met" ? "Met" : state === "not-met" ? "Not met" : "Not measured yet"}:</span> {c.label}
+                <span className="font-medium">
+                  {state === "met" ? "Met" : state === "not-met" ? "Not met" : "Not measured yet"}:
+                </span>{" "}
+                {c.label}
                 {result ? <span className="text-ink-soft"> · {result.measured.text}</span> : null}
                 {c.required ? <span className="text-xs text-ink-soft"> (required)</span> : null}
               </span>
@@ -45,7 +52,11 @@ export function LiveCriteria({ task }: { task: TaskView }) {
           );
         })}
         <li className="flex items-start gap-2" data-testid="live-fixed" data-state={changed.length ? "not-met" : "met"}>
-          {changed.length ? <X aria-hidden="true" className="mt-0.5 h-4 w-4 shrink-0 text-bad" strokeWidth={3} /> : <Check aria-hidden="true" className="mt-0.5 h-4 w-4 shrink-0 text-ok" strokeWidth={3} />}
+          {changed.length ? (
+            <X aria-hidden="true" className="mt-0.5 h-4 w-4 shrink-0 text-bad" strokeWidth={3} />
+          ) : (
+            <Check aria-hidden="true" className="mt-0.5 h-4 w-4 shrink-0 text-ok" strokeWidth={3} />
+          )}
           <span>
             <span className="font-medium">{changed.length ? "Not met" : "Met"}:</span> Keep what the task fixes
             {changed.length ? <span className="text-ink-soft"> · changed: {changed.join(", ")}</span> : null}

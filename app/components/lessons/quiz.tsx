@@ -5,7 +5,17 @@ import { ItemFeedback } from "./results";
 type Question = LessonView["quiz"][number];
 
 /** One quiz question as form fields named `q:<id>`; keeps what was typed after a submit. */
-export function QuizQuestion({ q, index, result, disabled }: { q: Question; index: number; result?: ItemResult; disabled?: boolean }) {
+export function QuizQuestion({
+  q,
+  index,
+  result,
+  disabled,
+}: {
+  q: Question;
+  index: number;
+  result?: ItemResult;
+  disabled?: boolean;
+}) {
   const name = `q:${q.id}`;
   const promptId = `prompt-${q.id}`;
   return (
@@ -13,14 +23,22 @@ export function QuizQuestion({ q, index, result, disabled }: { q: Question; inde
       <fieldset disabled={disabled} aria-describedby={result ? `result-${q.id}` : undefined}>
         <legend id={promptId} className="font-medium">
           <span className="mr-2 text-ink-soft">{index + 1}.</span>
-          <span className="[&_code]:rounded [&_code]:bg-paper-deep [&_code]:px-1" dangerouslySetInnerHTML={{ __html: q.promptHtml }} />
+          <span
+            className="[&_code]:rounded [&_code]:bg-paper-deep [&_code]:px-1"
+            dangerouslySetInnerHTML={{ __html: q.promptHtml }}
+          />
         </legend>
         {q.kind === "choice" ? (
           <div className="mt-3 grid gap-1.5">
             {q.multiple && <p className="text-xs text-ink-soft">Pick every answer that applies.</p>}
             {q.options!.map((o) => (
               <label key={o.id} className="flex cursor-pointer items-start gap-2 rounded px-2 py-1 hover:bg-paper-deep">
-                <input type={q.multiple ? "checkbox" : "radio"} name={name} value={o.id} className="mt-1 accent-[var(--color-accent)]" />
+                <input
+                  type={q.multiple ? "checkbox" : "radio"}
+                  name={name}
+                  value={o.id}
+                  className="mt-1 accent-[var(--color-accent)]"
+                />
                 <span dangerouslySetInnerHTML={{ __html: o.html }} />
               </label>
             ))}
@@ -41,7 +59,9 @@ export function QuizQuestion({ q, index, result, disabled }: { q: Question; inde
               placeholder={q.placeholder}
               aria-labelledby={`${promptId} answer-label-${q.id}`}
             />
-            <span id={`answer-label-${q.id}`} className="sr-only">{q.kind === "ratio" ? "answer as 1:N" : "answer with its unit"}</span>
+            <span id={`answer-label-${q.id}`} className="sr-only">
+              {q.kind === "ratio" ? "answer as 1:N" : "answer with its unit"}
+            </span>
           </div>
         )}
       </fieldset>

@@ -22,9 +22,23 @@ export function PassMark({ passed, label }: { passed: boolean; label?: string })
 /** One graded question or criterion: mark, feedback, what was measured. */
 export function ItemFeedback({ item }: { item: ItemResult }) {
   return (
-    <div className={`mt-2 rounded border px-3 py-2 text-sm ${item.passed ? "border-ok/40 bg-ok/5" : "border-bad/40 bg-bad/5"}`} data-testid={`feedback-${item.section}-${item.id}`}>
+    <div
+      className={`mt-2 rounded border px-3 py-2 text-sm ${item.passed ? "border-ok/40 bg-ok/5" : "border-bad/40 bg-bad/5"}`}
+      data-testid={`feedback-${item.section}-${item.id}`}
+    >
       <div className="flex flex-wrap items-center justify-between gap-2">
-        <PassMark passed={item.passed} label={item.passed ? (item.section === "quiz" ? "Right" : "Met") : item.section === "quiz" ? "Not right" : "Not met"} />
+        <PassMark
+          passed={item.passed}
+          label={
+            item.passed
+              ? item.section === "quiz"
+                ? "Right"
+                : "Met"
+              : item.section === "quiz"
+                ? "Not right"
+                : "Not met"
+          }
+        />
         <span className="text-xs tabular-nums text-ink-soft">
           {fmt(item.score)} / {fmt(item.weight)} {item.weight === 1 ? "point" : "points"}
           {item.required ? " · required" : ""}
@@ -38,10 +52,19 @@ export function ItemFeedback({ item }: { item: ItemResult }) {
 /** The headline of a graded attempt: total score against the pass mark, and each part's share. */
 export function ScoreSummary({ result, heading = "Your result" }: { result: GradeResult; heading?: string }) {
   const part = (items: ItemResult[]) => `${items.filter((i) => i.passed).length} of ${items.length}`;
-  const grade = readGrade({ score: result.score, passed: result.passed, passMark: result.passMark, failedRequired: failedRequiredOf(result) });
+  const grade = readGrade({
+    score: result.score,
+    passed: result.passed,
+    passMark: result.passMark,
+    failedRequired: failedRequiredOf(result),
+  });
   const points = result.rawScore ?? result.score;
   return (
-    <div className={`rounded border-2 px-4 py-3 ${grade.passed ? "border-ok bg-ok/5" : "border-bad bg-bad/5"}`} role="status" data-testid="score-summary">
+    <div
+      className={`rounded border-2 px-4 py-3 ${grade.passed ? "border-ok bg-ok/5" : "border-bad bg-bad/5"}`}
+      role="status"
+      data-testid="score-summary"
+    >
       <p className="text-xs font-medium uppercase tracking-wide text-ink-soft">{heading}</p>
       {grade.reason ? (
         <p className="mt-1 font-medium text-bad" data-testid="grade-reason">
@@ -49,12 +72,17 @@ export function ScoreSummary({ result, heading = "Your result" }: { result: Grad
         </p>
       ) : null}
       <p className="mt-1 flex flex-wrap items-baseline gap-x-4 gap-y-1">
-        <span className="text-3xl font-bold tabular-nums" data-testid="grade-score">{fmt(grade.score)}<span className="text-base font-normal text-ink-soft"> / 100</span></span>
+        <span className="text-3xl font-bold tabular-nums" data-testid="grade-score">
+          {fmt(grade.score)}
+          <span className="text-base font-normal text-ink-soft"> / 100</span>
+        </span>
         <PassMark passed={grade.passed} label={grade.passed ? "Passed" : `Not passed (pass mark ${result.passMark})`} />
       </p>
       <p className="mt-1 text-sm text-ink-soft">
         Quiz: {part(result.quiz)} right · Roof task: {part(result.task)} criteria met
-        {grade.why === "required" && points !== grade.score ? ` · points earned ${fmt(points)}, capped at ${fmt(grade.score)}` : ""}
+        {grade.why === "required" && points !== grade.score
+          ? ` · points earned ${fmt(points)}, capped at ${fmt(grade.score)}`
+          : ""}
       </p>
     </div>
   );
@@ -71,7 +99,9 @@ export function ResultsTable({ result }: { result: GradeResult }) {
           <th scope="col">Part</th>
           <th scope="col">Item</th>
           <th scope="col">Result</th>
-          <th scope="col" className="text-right">Points</th>
+          <th scope="col" className="text-right">
+            Points
+          </th>
         </tr>
       </thead>
       <tbody>
@@ -79,11 +109,18 @@ export function ResultsTable({ result }: { result: GradeResult }) {
           <tr key={`${i.section}-${i.id}`} className="align-top">
             <td className="whitespace-nowrap">{i.section === "quiz" ? "Quiz" : "Roof task"}</td>
             <td>
-              <div className="font-medium">{i.label}{i.required ? <span className="ml-1 text-xs text-ink-soft">(required)</span> : null}</div>
+              <div className="font-medium">
+                {i.label}
+                {i.required ? <span className="ml-1 text-xs text-ink-soft">(required)</span> : null}
+              </div>
               <div className="text-xs text-ink-soft">{i.feedback}</div>
             </td>
-            <td className="whitespace-nowrap"><PassMark passed={i.passed} label={i.passed ? "Met" : "Not met"} /></td>
-            <td className="whitespace-nowrap text-right">{fmt(i.score)} / {fmt(i.weight)}</td>
+            <td className="whitespace-nowrap">
+              <PassMark passed={i.passed} label={i.passed ? "Met" : "Not met"} />
+            </td>
+            <td className="whitespace-nowrap text-right">
+              {fmt(i.score)} / {fmt(i.weight)}
+            </td>
           </tr>
         ))}
       </tbody>

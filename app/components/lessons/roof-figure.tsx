@@ -14,12 +14,29 @@ function PlanSvg({ f }: { f: FigureData }) {
   // The fall grid is drawn in cell units, so its hatch is sized in cells too.
   const hatchSize = f.grid ? (u * 1.2) / f.grid.cell : u * 1.2;
   const gridTransform = f.grid ? `translate(${f.grid.x} ${f.grid.y}) scale(${f.grid.cell})` : undefined;
-  const label = f.view === "catchments" ? "Plan of the roof coloured by catchment, with its outlets" : "Plan of the roof coloured by fall, faces flatter than the minimum hatched, with outlets and the longest fall line";
+  const label =
+    f.view === "catchments"
+      ? "Plan of the roof coloured by catchment, with its outlets"
+      : "Plan of the roof coloured by fall, faces flatter than the minimum hatched, with outlets and the longest fall line";
   return (
     <svg viewBox={f.viewBox} className="h-auto max-h-[26rem] w-full" role="img" aria-label={label}>
       <defs>
-        <pattern id={hatch} width={hatchSize} height={hatchSize} patternUnits="userSpaceOnUse" patternTransform="rotate(45)">
-          <line x1="0" y1="0" x2="0" y2={hatchSize} stroke="#1f2933" strokeWidth={hatchSize * 0.15} strokeOpacity="0.55" />
+        <pattern
+          id={hatch}
+          width={hatchSize}
+          height={hatchSize}
+          patternUnits="userSpaceOnUse"
+          patternTransform="rotate(45)"
+        >
+          <line
+            x1="0"
+            y1="0"
+            x2="0"
+            y2={hatchSize}
+            stroke="#1f2933"
+            strokeWidth={hatchSize * 0.15}
+            strokeOpacity="0.55"
+          />
         </pattern>
         <clipPath id={clip}>
           <polygon points={f.outline} />
@@ -35,13 +52,36 @@ function PlanSvg({ f }: { f: FigureData }) {
         {f.flat && <path d={f.flat} fill={`url(#${hatch})`} transform={gridTransform} />}
       </g>
       {f.edges.map((e, i) => (
-        <path key={i} d={e.d} stroke="var(--color-ink)" strokeWidth={e.eaves ? u * 0.25 : u * 0.6} strokeDasharray={e.eaves ? `${u} ${u * 0.6}` : undefined} strokeLinecap="square" fill="none" />
+        <path
+          key={i}
+          d={e.d}
+          stroke="var(--color-ink)"
+          strokeWidth={e.eaves ? u * 0.25 : u * 0.6}
+          strokeDasharray={e.eaves ? `${u} ${u * 0.6}` : undefined}
+          strokeLinecap="square"
+          fill="none"
+        />
       ))}
       {f.view !== "catchments" && f.longest && (
-        <path d={f.longest.d} stroke="var(--color-accent)" strokeWidth={u * 0.45} strokeDasharray={`${u * 1.4} ${u * 0.7}`} fill="none" strokeLinecap="round" />
+        <path
+          d={f.longest.d}
+          stroke="var(--color-accent)"
+          strokeWidth={u * 0.45}
+          strokeDasharray={`${u * 1.4} ${u * 0.7}`}
+          fill="none"
+          strokeLinecap="round"
+        />
       )}
       {f.outlets.map(([x, y], i) => (
-        <circle key={i} cx={x} cy={y} r={u * 1.1} fill="var(--color-accent)" stroke="var(--color-ink)" strokeWidth={u * 0.3} />
+        <circle
+          key={i}
+          cx={x}
+          cy={y}
+          r={u * 1.1}
+          fill="var(--color-accent)"
+          stroke="var(--color-ink)"
+          strokeWidth={u * 0.3}
+        />
       ))}
     </svg>
   );
@@ -64,14 +104,32 @@ function CatchmentKey({ f }: { f: FigureData }) {
   const { area, flow, system } = useFormat();
   return (
     <table className="data-table w-full">
-      <caption className="pb-1 text-left text-xs text-ink-soft">Design flow Q = i·A/3600 at {system === "us" ? `${(f.intensity / 25.4).toFixed(2)} in/h` : `${f.intensity} mm/h`}</caption>
+      <caption className="pb-1 text-left text-xs text-ink-soft">
+        Design flow Q = i·A/3600 at{" "}
+        {system === "us" ? `${(f.intensity / 25.4).toFixed(2)} in/h` : `${f.intensity} mm/h`}
+      </caption>
       <thead>
-        <tr><th scope="col">Drain</th><th scope="col" className="text-right">Area</th><th scope="col" className="text-right">Flow</th></tr>
+        <tr>
+          <th scope="col">Drain</th>
+          <th scope="col" className="text-right">
+            Area
+          </th>
+          <th scope="col" className="text-right">
+            Flow
+          </th>
+        </tr>
       </thead>
       <tbody>
         {f.catchments.map((c) => (
           <tr key={c.label}>
-            <td><span className="mr-2 inline-block h-3 w-3 rounded-sm border border-ink/40 align-middle" style={{ background: c.fill }} aria-hidden="true" />{c.label}</td>
+            <td>
+              <span
+                className="mr-2 inline-block h-3 w-3 rounded-sm border border-ink/40 align-middle"
+                style={{ background: c.fill }}
+                aria-hidden="true"
+              />
+              {c.label}
+            </td>
             <td className="text-right">{area(c.area)}</td>
             <td className="text-right">{flow(c.flow)}</td>
           </tr>
@@ -90,10 +148,18 @@ function Schedule({ f }: { f: FigureData }) {
         <thead className="sticky top-0 bg-sheet">
           <tr>
             <th scope="col">Joist</th>
-            <th scope="col" className="text-right">Length</th>
-            <th scope="col" className="text-right">Drop at start</th>
-            <th scope="col" className="text-right">Drop at end</th>
-            <th scope="col" className="text-right">Fall</th>
+            <th scope="col" className="text-right">
+              Length
+            </th>
+            <th scope="col" className="text-right">
+              Drop at start
+            </th>
+            <th scope="col" className="text-right">
+              Drop at end
+            </th>
+            <th scope="col" className="text-right">
+              Fall
+            </th>
           </tr>
         </thead>
         <tbody>
@@ -123,23 +189,47 @@ function Compare({ f }: { f: FigureData }) {
   const max = Math.max(...rows.map((r) => r.h ?? 0), 0.001);
   return (
     <div className="grid gap-2">
-      <svg viewBox="0 0 320 110" className="h-auto w-full max-w-xl" role="img" aria-label="High level of each layout as a bar">
+      <svg
+        viewBox="0 0 320 110"
+        className="h-auto w-full max-w-xl"
+        role="img"
+        aria-label="High level of each layout as a bar"
+      >
         {rows.map((r, i) => (
           <g key={r.label} transform={`translate(0 ${i * 36})`}>
-            <text x="0" y="14" fontSize="11" fill="var(--color-ink)">{r.label}</text>
+            <text x="0" y="14" fontSize="11" fill="var(--color-ink)">
+              {r.label}
+            </text>
             {r.h != null ? (
               <>
-                <rect x="0" y="18" height="10" width={(220 * r.h) / max} fill={i === 0 ? "var(--color-accent)" : "var(--color-ink-soft)"} />
-                <text x={(220 * r.h) / max + 6} y="27" fontSize="11" fill="var(--color-ink)">{mm(r.h)}</text>
+                <rect
+                  x="0"
+                  y="18"
+                  height="10"
+                  width={(220 * r.h) / max}
+                  fill={i === 0 ? "var(--color-accent)" : "var(--color-ink-soft)"}
+                />
+                <text x={(220 * r.h) / max + 6} y="27" fontSize="11" fill="var(--color-ink)">
+                  {mm(r.h)}
+                </text>
               </>
             ) : (
-              <text x="0" y="28" fontSize="11" fill="var(--color-ink-soft)">not comparable: {c.reason}</text>
+              <text x="0" y="28" fontSize="11" fill="var(--color-ink-soft)">
+                not comparable: {c.reason}
+              </text>
             )}
           </g>
         ))}
       </svg>
       <p className="text-sm">
-        {c.saved != null ? <>Shaping saves <strong>{mm(c.saved)}</strong> of height against the gutter layout, and about {metres(c.detailLength, 0)} of membrane changes of plane along {metres(c.gutterLength, 1)} of gutter.</> : <>The gutter layout is not comparable here: {c.reason}.</>}
+        {c.saved != null ? (
+          <>
+            Shaping saves <strong>{mm(c.saved)}</strong> of height against the gutter layout, and about{" "}
+            {metres(c.detailLength, 0)} of membrane changes of plane along {metres(c.gutterLength, 1)} of gutter.
+          </>
+        ) : (
+          <>The gutter layout is not comparable here: {c.reason}.</>
+        )}
       </p>
     </div>
   );
@@ -149,7 +239,11 @@ function Compare({ f }: { f: FigureData }) {
 export function RoofFigure({ f }: { f: FigureData }) {
   const [live, setLive] = useState(false);
   if (f.error) {
-    return <p role="alert" className="rounded border border-bad/40 px-3 py-2 text-sm text-bad">This figure could not be drawn: {f.error}</p>;
+    return (
+      <p role="alert" className="rounded border border-bad/40 px-3 py-2 text-sm text-bad">
+        This figure could not be drawn: {f.error}
+      </p>
+    );
   }
   return (
     <figure className="card my-4 grid gap-3" data-testid="roof-figure">

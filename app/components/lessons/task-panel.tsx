@@ -69,7 +69,9 @@ export function TaskPanel({
     <section aria-labelledby="task-heading" className="grid gap-4">
       <div>
         <p className="text-xs font-medium uppercase tracking-widest text-accent">Roof task</p>
-        <h2 id="task-heading" className="text-2xl font-bold tracking-tight">{task.title}</h2>
+        <h2 id="task-heading" className="text-2xl font-bold tracking-tight">
+          {task.title}
+        </h2>
       </div>
       <div className="grid items-start gap-4 lg:grid-cols-[3fr_2fr]">
         <div className={`card ${PROSE}`} dangerouslySetInnerHTML={{ __html: task.goalHtml }} />
@@ -81,7 +83,8 @@ export function TaskPanel({
                 <li key={c.id} data-testid={`criterion-${c.id}`}>
                   <span className="font-medium">{c.label}</span>
                   <span className="ml-1 text-xs text-ink-soft">
-                    ({c.weight} {c.weight === 1 ? "point" : "points"}{c.required ? ", required" : ""})
+                    ({c.weight} {c.weight === 1 ? "point" : "points"}
+                    {c.required ? ", required" : ""})
                   </span>
                   {byId.get(c.id) && <ItemFeedback item={byId.get(c.id)!} />}
                 </li>
@@ -90,7 +93,8 @@ export function TaskPanel({
             {fixed && <ItemFeedback item={fixed} />}
           </div>
           <p className="text-sm text-ink-soft">
-            You may change {task.editable.map((e) => EDITABLE_WORDS[e] ?? e).join(", ")}. Everything else must stay as the task gives it.
+            You may change {task.editable.map((e) => EDITABLE_WORDS[e] ?? e).join(", ")}. Everything else must stay as
+            the task gives it.
           </p>
           <details className="text-sm">
             <summary className="cursor-pointer font-medium">Hints ({task.hints.length})</summary>

@@ -18,11 +18,23 @@ const printCss = (paper: Paper) => `
   .sheet-table tr { break-inside: avoid; }
 }`;
 
-function Block({ title, children, whole = true, testId }: { title: string; children: React.ReactNode; whole?: boolean; testId?: string }) {
+function Block({
+  title,
+  children,
+  whole = true,
+  testId,
+}: {
+  title: string;
+  children: React.ReactNode;
+  whole?: boolean;
+  testId?: string;
+}) {
   // A long table may break between rows (its heading repeats); everything else stays whole.
   return (
     <section className={`${whole ? "sheet-block" : ""} mt-5`} data-testid={testId}>
-      <h2 className="mb-1.5 break-after-avoid border-b-2 border-ink pb-0.5 text-sm font-bold uppercase tracking-wide">{title}</h2>
+      <h2 className="mb-1.5 break-after-avoid border-b-2 border-ink pb-0.5 text-sm font-bold uppercase tracking-wide">
+        {title}
+      </h2>
       {children}
     </section>
   );
@@ -33,11 +45,23 @@ function Table({ t, testId }: { t: SheetTable; testId?: string }) {
     <>
       <table className="data-table sheet-table w-full" data-testid={testId}>
         <thead>
-          <tr>{t.header.map((h, i) => <th key={i} className={t.numeric[i] ? "text-right" : ""}>{h}</th>)}</tr>
+          <tr>
+            {t.header.map((h, i) => (
+              <th key={i} className={t.numeric[i] ? "text-right" : ""}>
+                {h}
+              </th>
+            ))}
+          </tr>
         </thead>
         <tbody>
           {t.rows.map((r, k) => (
-            <tr key={k}>{r.map((c, i) => <td key={i} className={t.numeric[i] ? "text-right tabular-nums" : ""}>{c}</td>)}</tr>
+            <tr key={k}>
+              {r.map((c, i) => (
+                <td key={i} className={t.numeric[i] ? "text-right tabular-nums" : ""}>
+                  {c}
+                </td>
+              ))}
+            </tr>
           ))}
         </tbody>
       </table>
@@ -52,12 +76,27 @@ function Table({ t, testId }: { t: SheetTable; testId?: string }) {
  * loaded later, so print and full-page captures keep it), the rule set and its sources; A4 or
  * US Letter. The same words and tables as the PDF (app/lib/pack/sheet-data.ts).
  */
-export function CheckSheet({ name, spec, analysis, back, pdfHref }: { name: string; spec: RoofSpec; analysis: Analysis; back: React.ReactNode; pdfHref?: string }) {
+export function CheckSheet({
+  name,
+  spec,
+  analysis,
+  back,
+  pdfHref,
+}: {
+  name: string;
+  spec: RoofSpec;
+  analysis: Analysis;
+  back: React.ReactNode;
+  pdfHref?: string;
+}) {
   const [paper, setPaper] = useState<Paper>("A4");
   const data = useMemo(() => sheetData({ name, date: new Date(), spec, analysis }), [name, spec, analysis]);
   const schedule = data.tables[data.tables.length - 1];
   return (
-    <article className="mx-auto max-w-4xl bg-sheet p-6 shadow-[2px_2px_0_0_var(--color-rule)] print:max-w-none print:bg-white print:p-0 print:shadow-none" data-testid="check-sheet">
+    <article
+      className="mx-auto max-w-4xl bg-sheet p-6 shadow-[2px_2px_0_0_var(--color-rule)] print:max-w-none print:bg-white print:p-0 print:shadow-none"
+      data-testid="check-sheet"
+    >
       <style>{printCss(paper)}</style>
       <header className="flex flex-wrap items-start justify-between gap-3 border-b-2 border-ink pb-2">
         <div>
@@ -69,12 +108,21 @@ export function CheckSheet({ name, spec, analysis, back, pdfHref }: { name: stri
           {back}
           <label className="flex items-center gap-1 text-sm">
             Paper
-            <select className="field w-auto px-1 py-0.5" value={paper} onChange={(e) => setPaper(e.target.value as Paper)} data-testid="sheet-paper">
+            <select
+              className="field w-auto px-1 py-0.5"
+              value={paper}
+              onChange={(e) => setPaper(e.target.value as Paper)}
+              data-testid="sheet-paper"
+            >
               <option value="A4">A4</option>
               <option value="letter">US Letter</option>
             </select>
           </label>
-          {pdfHref && <a className="btn" href={`${pdfHref}${paper === "letter" ? "?paper=letter" : ""}`} download>PDF</a>}
+          {pdfHref && (
+            <a className="btn" href={`${pdfHref}${paper === "letter" ? "?paper=letter" : ""}`} download>
+              PDF
+            </a>
+          )}
           <button type="button" className="btn-primary" onClick={() => window.print()}>
             <Printer size={16} aria-hidden="true" /> Print
           </button>
@@ -88,7 +136,8 @@ export function CheckSheet({ name, spec, analysis, back, pdfHref }: { name: stri
         <figure>
           <PlanFigureSvg name={name} spec={spec} analysis={analysis} className="h-auto w-full border border-rule" />
           <figcaption className="mt-1 text-xs text-ink-soft">
-            Plan. Levels in mm above datum at corners and outlets (O1, O2…); dashed: the longest fall line; thin lines: joists.
+            Plan. Levels in mm above datum at corners and outlets (O1, O2…); dashed: the longest fall line; thin lines:
+            joists.
           </figcaption>
         </figure>
         <dl className="grid content-start gap-y-1 text-sm">
@@ -109,7 +158,9 @@ export function CheckSheet({ name, spec, analysis, back, pdfHref }: { name: stri
 
       <Block title="Warnings and advice">
         <ul className="list-disc pl-5 text-sm">
-          {data.warnings.map((w, i) => <li key={i}>{w}</li>)}
+          {data.warnings.map((w, i) => (
+            <li key={i}>{w}</li>
+          ))}
           {data.warnings.length === 0 && <li>No warnings.</li>}
         </ul>
       </Block>
@@ -121,9 +172,15 @@ export function CheckSheet({ name, spec, analysis, back, pdfHref }: { name: stri
       <Block title={data.ruleSet.title}>
         <p className="text-sm font-medium">{data.ruleSet.name}</p>
         <ul className="mt-1 list-disc pl-5 text-sm">
-          {data.ruleSet.lines.map((l) => <li key={l}>{l}</li>)}
+          {data.ruleSet.lines.map((l) => (
+            <li key={l}>{l}</li>
+          ))}
         </ul>
-        {data.ruleSet.notes.map((n) => <p key={n} className="mt-1 text-xs text-ink-soft">{n}</p>)}
+        {data.ruleSet.notes.map((n) => (
+          <p key={n} className="mt-1 text-xs text-ink-soft">
+            {n}
+          </p>
+        ))}
       </Block>
     </article>
   );

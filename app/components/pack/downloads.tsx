@@ -10,9 +10,21 @@ export const PACK_LINKS = [
 ] as const;
 
 /** Links to a saved roof's (or a share link's) files: `base` is /roofs/<id> or /s/<token>. */
-export function PackDownloads({ base, sheetPage, className = "" }: { base: string; sheetPage?: string; className?: string }) {
+export function PackDownloads({
+  base,
+  sheetPage,
+  className = "",
+}: {
+  base: string;
+  sheetPage?: string;
+  className?: string;
+}) {
   return (
-    <nav aria-label="Downloads" className={`flex flex-wrap items-center gap-2 ${className}`} data-testid="pack-downloads">
+    <nav
+      aria-label="Downloads"
+      className={`flex flex-wrap items-center gap-2 ${className}`}
+      data-testid="pack-downloads"
+    >
       <span className="flex items-center gap-1 text-sm font-bold">
         <FileDown aria-hidden="true" className="h-4 w-4" /> Builder's pack:
       </span>
@@ -22,7 +34,13 @@ export function PackDownloads({ base, sheetPage, className = "" }: { base: strin
         </a>
       ) : null}
       {PACK_LINKS.map((l) => (
-        <a key={l.file} className="btn py-1 text-sm" href={`${base}/${l.file}`} download data-testid={`download-${l.file.replace(/\?.*$/, "").replace(".", "-")}${l.file.includes("letter") ? "-letter" : ""}`}>
+        <a
+          key={l.file}
+          className="btn py-1 text-sm"
+          href={`${base}/${l.file}`}
+          download
+          data-testid={`download-${l.file.replace(/\?.*$/, "").replace(".", "-")}${l.file.includes("letter") ? "-letter" : ""}`}
+        >
           <l.icon aria-hidden="true" className="h-4 w-4" /> {l.label}
         </a>
       ))}

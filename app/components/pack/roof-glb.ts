@@ -48,7 +48,15 @@ export function surfaceMesh(s: SurfaceInput, name: string, shiftX = 0): THREE.Me
   geometry.setAttribute("position", new THREE.BufferAttribute(pos, 3));
   geometry.setAttribute("color", new THREE.BufferAttribute(col, 3));
   geometry.computeVertexNormals();
-  const mesh = new THREE.Mesh(geometry, new THREE.MeshStandardMaterial({ vertexColors: true, side: THREE.DoubleSide, roughness: 0.9, name: `${name}-fall-colours` }));
+  const mesh = new THREE.Mesh(
+    geometry,
+    new THREE.MeshStandardMaterial({
+      vertexColors: true,
+      side: THREE.DoubleSide,
+      roughness: 0.9,
+      name: `${name}-fall-colours`,
+    }),
+  );
   mesh.name = name;
   return mesh;
 }
@@ -71,7 +79,9 @@ export function packScene(p: PackRoof): THREE.Scene {
     date: isoDate(p.date),
     units: "metres; y is the level above datum, x and -z the plan",
     datum: datumText(p),
-    layout: gutter ? "shaped-roof at the plan's place; gutter-layout beside it, shifted along x" : "shaped-roof only (the gutter layout is not comparable)",
+    layout: gutter
+      ? "shaped-roof at the plan's place; gutter-layout beside it, shifted along x"
+      : "shaped-roof only (the gutter layout is not comparable)",
     caution: CAUTION_LINE,
   };
   return scene;
@@ -97,11 +107,14 @@ function ensureFileReader() {
       );
     }
     readAsDataURL(blob: Blob) {
-      blob.arrayBuffer().then((buffer) => {
-        this.result = `data:${blob.type || "application/octet-stream"};base64,${Buffer.from(buffer).toString("base64")}`;
-        this.onload?.({ target: this });
-        this.onloadend?.({ target: this });
-      }, (error) => this.onerror?.(error));
+      blob.arrayBuffer().then(
+        (buffer) => {
+          this.result = `data:${blob.type || "application/octet-stream"};base64,${Buffer.from(buffer).toString("base64")}`;
+          this.onload?.({ target: this });
+          this.onloadend?.({ target: this });
+        },
+        (error) => this.onerror?.(error),
+      );
     }
   }
   (globalThis as unknown as { FileReader: unknown }).FileReader = NodeFileReader;
@@ -121,4 +134,11 @@ export async function roofGlb(p: PackRoof): Promise<Uint8Array> {
   return new Uint8Array(out as ArrayBuffer);
 }
 
-export const ROOF_GLB: PackWriter = { file: "roof.glb", what: "roof", ext: "glb", type: "model/gltf-binary", mesh: true, write: roofGlb };
+export const ROOF_GLB: PackWriter = {
+  file: "roof.glb",
+  what: "roof",
+  ext: "glb",
+  type: "model/gltf-binary",
+  mesh: true,
+  write: roofGlb,
+};

@@ -95,7 +95,12 @@ class Writer {
     this.y -= 10;
     this.y -= 13;
     this.text(s, MARGIN, this.y + 3, 10.5, this.fonts.bold);
-    this.page.drawLine({ start: { x: MARGIN, y: this.y }, end: { x: MARGIN + this.width, y: this.y }, thickness: 1.2, color: INK });
+    this.page.drawLine({
+      start: { x: MARGIN, y: this.y },
+      end: { x: MARGIN + this.width, y: this.y },
+      thickness: 1.2,
+      color: INK,
+    });
     this.y -= 3;
   }
 }
@@ -107,31 +112,48 @@ function drawPlan(w: Writer, f: PlanFigure, box: { x: number; y: number; width: 
   const oy = box.y + (box.height - (e.maxY - e.minY) * scale) / 2;
   const P = (p: readonly [number, number]) => ({ x: ox + (p[0] - e.minX) * scale, y: oy + (p[1] - e.minY) * scale });
   const page = w.page;
-  const line = (a: readonly [number, number], b: readonly [number, number], thickness: number, color: RGB, dash?: number[]) =>
-    page.drawLine({ start: P(a), end: P(b), thickness, color, dashArray: dash });
+  const line = (
+    a: readonly [number, number],
+    b: readonly [number, number],
+    thickness: number,
+    color: RGB,
+    dash?: number[],
+  ) => page.drawLine({ start: P(a), end: P(b), thickness, color, dashArray: dash });
   // Deck fill as an SVG path (drawSvgPath's y runs down from its origin).
   const top = oy + (e.maxY - e.minY) * scale;
-  const d = f.corners.map((c, i) => `${i ? "L" : "M"}${(c[0] - e.minX) * scale} ${top - oy - (c[1] - e.minY) * scale}`).join("") + "Z";
+  const d =
+    f.corners
+      .map((c, i) => `${i ? "L" : "M"}${(c[0] - e.minX) * scale} ${top - oy - (c[1] - e.minY) * scale}`)
+      .join("") + "Z";
   page.drawSvgPath(d, { x: ox, y: top, color: rgb(1, 0.99, 0.97), borderWidth: 0 });
   for (const [a, b] of f.joists) line(a, b, 0.3, rgb(0.7, 0.73, 0.76));
   for (const o of f.openings) o.forEach((p, i) => line(p, o[(i + 1) % o.length], 0.9, INK));
   for (const r of f.ridges) r.slice(1).forEach((p, i) => line(r[i], p, 0.9, ACCENT, [2, 2]));
   if (f.fallLine) f.fallLine.slice(1).forEach((p, i) => line(f.fallLine![i], p, 1.2, ACCENT, [4, 2]));
-  for (const ed of f.edges) line(ed.from, ed.to, ed.kind === "eaves" ? 0.6 : 1.6, INK, ed.kind === "eaves" ? [3, 2] : undefined);
+  for (const ed of f.edges)
+    line(ed.from, ed.to, ed.kind === "eaves" ? 0.6 : 1.6, INK, ed.kind === "eaves" ? [3, 2] : undefined);
   for (const c of f.corners) page.drawCircle({ ...P(c), size: f.u * 0.35 * scale, color: INK });
-  for (const o of f.outlets) page.drawCircle({ ...P(o.at), size: o.r * scale, color: ACCENT, borderColor: INK, borderWidth: 0.6 });
+  for (const o of f.outlets)
+    page.drawCircle({ ...P(o.at), size: o.r * scale, color: ACCENT, borderColor: INK, borderWidth: 0.6 });
   for (const l of f.labels) {
     const size = l.size * scale;
     const font = l.kind === "edge" ? w.fonts.regular : w.fonts.bold;
     const text = w.clean(l.text);
     const width = font.widthOfTextAtSize(text, size);
     const at = P(l.centre);
-    page.drawText(text, { x: at.x - width / 2, y: at.y - size * 0.35, size, font, color: l.kind === "outlet" ? ACCENT : l.kind === "edge" ? SOFT : INK });
+    page.drawText(text, {
+      x: at.x - width / 2,
+      y: at.y - size * 0.35,
+      size,
+      font,
+      color: l.kind === "outlet" ? ACCENT : l.kind === "edge" ? SOFT : INK,
+    });
   }
   const s0 = P(f.scale.at);
   const s1 = P([f.scale.at[0] + f.scale.length, f.scale.at[1]]);
   page.drawLine({ start: s0, end: s1, thickness: 1.2, color: INK });
-  for (const s of [s0, s1]) page.drawLine({ start: { x: s.x, y: s.y - 3 }, end: { x: s.x, y: s.y + 3 }, thickness: 0.8, color: INK });
+  for (const s of [s0, s1])
+    page.drawLine({ start: { x: s.x, y: s.y - 3 }, end: { x: s.x, y: s.y + 3 }, thickness: 0.8, color: INK });
   w.text(`${f.scale.length} m`, s1.x + 4, s1.y - 3, 8);
 }
 
@@ -139,7 +161,13 @@ function drawTable(w: Writer, t: SheetTable) {
   const size = 8;
   const rowH = 11.5;
   const font = w.fonts.regular;
-  const widths = t.header.map((h, c) => Math.max(font.widthOfTextAtSize(w.clean(h), size), ...t.rows.map((r) => font.widthOfTextAtSize(w.clean(r[c] ?? ""), size))) + 8);
+  const widths = t.header.map(
+    (h, c) =>
+      Math.max(
+        font.widthOfTextAtSize(w.clean(h), size),
+        ...t.rows.map((r) => font.widthOfTextAtSize(w.clean(r[c] ?? ""), size)),
+      ) + 8,
+  );
   const total = widths.reduce((a, b) => a + b, 0);
   // Squeeze the widest (text) column when the table is wider than the page, wrapping none: cells are short.
   const k = total > w.width ? w.width / total : 1;
@@ -159,7 +187,12 @@ function drawTable(w: Writer, t: SheetTable) {
       w.text(text, t.numeric[c] ? x + cols[c] - 4 - tw : x + 2, w.y + 3, size, w.fonts.bold, SOFT);
       x += cols[c];
     });
-    w.page.drawLine({ start: { x: MARGIN, y: w.y }, end: { x: MARGIN + w.width, y: w.y }, thickness: 0.6, color: RULE });
+    w.page.drawLine({
+      start: { x: MARGIN, y: w.y },
+      end: { x: MARGIN + w.width, y: w.y },
+      thickness: 0.6,
+      color: RULE,
+    });
   };
   head(false);
   for (const r of t.rows) {
@@ -175,7 +208,12 @@ function drawTable(w: Writer, t: SheetTable) {
       w.text(text, t.numeric[c] ? x + cols[c] - 4 - tw : x + 2, w.y + 3, size);
       x += cols[c];
     });
-    w.page.drawLine({ start: { x: MARGIN, y: w.y }, end: { x: MARGIN + w.width, y: w.y }, thickness: 0.3, color: RULE });
+    w.page.drawLine({
+      start: { x: MARGIN, y: w.y },
+      end: { x: MARGIN + w.width, y: w.y },
+      thickness: 0.3,
+      color: RULE,
+    });
   }
   if (t.note) w.paragraph(t.note, 7.5, { color: SOFT });
 }
@@ -190,7 +228,10 @@ export async function sheetPdf(p: PackRoof, paper: PaperSize = "a4"): Promise<Ui
   doc.setProducer("Fallwright (pdf-lib)");
   doc.setCreationDate(p.date);
   doc.setModificationDate(p.date);
-  const fonts = { regular: await doc.embedFont(StandardFonts.Helvetica), bold: await doc.embedFont(StandardFonts.HelveticaBold) };
+  const fonts = {
+    regular: await doc.embedFont(StandardFonts.Helvetica),
+    bold: await doc.embedFont(StandardFonts.HelveticaBold),
+  };
   const w = new Writer(doc, PAPER[paper], fonts, data.title);
 
   w.y -= 10;
@@ -204,16 +245,34 @@ export async function sheetPdf(p: PackRoof, paper: PaperSize = "a4"): Promise<Ui
   // The one caution, boxed.
   const cautionLines = w.wrap(CAUTION_LINE, 8.5, w.width - 12);
   const cautionH = cautionLines.length * 11 + 8;
-  w.page.drawRectangle({ x: MARGIN, y: w.y - cautionH, width: w.width, height: cautionH, borderColor: ACCENT, borderWidth: 0.8, color: rgb(0.99, 0.95, 0.9) });
-  cautionLines.forEach((l, i) => w.text(l, MARGIN + 6, w.y - 12 - i * 11, 8.5, i === 0 ? fonts.regular : fonts.regular));
+  w.page.drawRectangle({
+    x: MARGIN,
+    y: w.y - cautionH,
+    width: w.width,
+    height: cautionH,
+    borderColor: ACCENT,
+    borderWidth: 0.8,
+    color: rgb(0.99, 0.95, 0.9),
+  });
+  cautionLines.forEach((l, i) =>
+    w.text(l, MARGIN + 6, w.y - 12 - i * 11, 8.5, i === 0 ? fonts.regular : fonts.regular),
+  );
   w.y -= cautionH + 10;
 
   const sampler = p.analysis.shaped.mesh ? new MeshSampler(p.analysis.shaped.mesh) : null;
-  const figure = planLabels(p, (text, size) => fonts.regular.widthOfTextAtSize(w.clean(text), 1) * size * 1.05, (x, y) => sampler?.levelAt(x, y) ?? null);
+  const figure = planLabels(
+    p,
+    (text, size) => fonts.regular.widthOfTextAtSize(w.clean(text), 1) * size * 1.05,
+    (x, y) => sampler?.levelAt(x, y) ?? null,
+  );
   const planH = Math.min(w.room * 0.55, w.width * 0.75);
   drawPlan(w, figure, { x: MARGIN, y: w.y - planH, width: w.width, height: planH });
   w.y -= planH + 4;
-  w.paragraph("Plan. Levels in mm above datum at corners and outlets (O1, O2…); dashed: the longest fall line; thin lines: joists.", 7.5, { color: SOFT, gap: 4 });
+  w.paragraph(
+    "Plan. Levels in mm above datum at corners and outlets (O1, O2…); dashed: the longest fall line; thin lines: joists.",
+    7.5,
+    { color: SOFT, gap: 4 },
+  );
 
   w.heading("Key figures");
   for (const [k, v] of data.figures) {
@@ -244,5 +303,16 @@ export async function sheetPdf(p: PackRoof, paper: PaperSize = "a4"): Promise<Ui
   return doc.save();
 }
 
-export const SHEET_PDF: PackWriter = { file: "sheet.pdf", what: "check-sheet", ext: "pdf", type: "application/pdf", mesh: true, write: (p) => sheetPdf(p, "a4") };
-export const SHEET_PDF_LETTER: PackWriter = { ...SHEET_PDF, what: "check-sheet-letter", write: (p) => sheetPdf(p, "letter") };
+export const SHEET_PDF: PackWriter = {
+  file: "sheet.pdf",
+  what: "check-sheet",
+  ext: "pdf",
+  type: "application/pdf",
+  mesh: true,
+  write: (p) => sheetPdf(p, "a4"),
+};
+export const SHEET_PDF_LETTER: PackWriter = {
+  ...SHEET_PDF,
+  what: "check-sheet-letter",
+  write: (p) => sheetPdf(p, "letter"),
+};

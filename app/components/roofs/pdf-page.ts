@@ -15,7 +15,12 @@ export async function openPdf(file: File): Promise<PDFDocumentProxy> {
 }
 
 function toPng(canvas: HTMLCanvasElement): Promise<Blob> {
-  return new Promise((resolve, reject) => canvas.toBlob((b) => (b ? resolve(b) : reject(new Error("The page could not be turned into an image."))), "image/png"));
+  return new Promise((resolve, reject) =>
+    canvas.toBlob(
+      (b) => (b ? resolve(b) : reject(new Error("The page could not be turned into an image."))),
+      "image/png",
+    ),
+  );
 }
 
 /**

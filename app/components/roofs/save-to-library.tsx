@@ -46,7 +46,9 @@ export function SaveToLibrary() {
         (form.elements.namedItem("idempotencyKey") as HTMLInputElement).value = keyRef.current;
       }}
     >
-      <label htmlFor={inputId} className="sr-only">Roof name</label>
+      <label htmlFor={inputId} className="sr-only">
+        Roof name
+      </label>
       <input
         id={inputId}
         name="name"

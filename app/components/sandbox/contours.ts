@@ -3,7 +3,12 @@
  * interval, the segment where it crosses each face. Returns segment end points x, y, z in plan
  * metres, two points per segment, in one flat array for a single line draw.
  */
-export function contourSegments(positions: ArrayLike<number>, indices: ArrayLike<number>, interval: number, maxSegments = 200_000): Float32Array {
+export function contourSegments(
+  positions: ArrayLike<number>,
+  indices: ArrayLike<number>,
+  interval: number,
+  maxSegments = 200_000,
+): Float32Array {
   if (!(interval > 0)) return new Float32Array(0);
   const out: number[] = [];
   const faces = indices.length / 3;
@@ -22,9 +27,13 @@ export function contourSegments(positions: ArrayLike<number>, indices: ArrayLike
       let found = 0;
       const pts: number[] = [];
       const cross = (i: number, j: number, zi: number, zj: number) => {
-        if ((zi < level) === (zj < level)) return;
+        if (zi < level === zj < level) return;
         const t = (level - zi) / (zj - zi);
-        pts.push(positions[i] + t * (positions[j] - positions[i]), positions[i + 1] + t * (positions[j + 1] - positions[i + 1]), level);
+        pts.push(
+          positions[i] + t * (positions[j] - positions[i]),
+          positions[i + 1] + t * (positions[j + 1] - positions[i + 1]),
+          level,
+        );
         found++;
       };
       cross(ia, ib, za, zb);

@@ -23,25 +23,17 @@ export function DropSchedule() {
   const analysis = useSandbox((s) => s.analysis);
   const spec = useSandbox((s) => s.analysedSpec);
   const [anchor, near] = useNearViewport();
-  const rows = useMemo(
-    () => (analysis ? scheduleRows(analysis.shaped.joists) : []),
-    [analysis],
-  );
+  const rows = useMemo(() => (analysis ? scheduleRows(analysis.shaped.joists) : []), [analysis]);
   if (!analysis) return null;
   return (
-    <section
-      aria-labelledby="drop-schedule-title"
-      className="card"
-      data-testid="drop-schedule"
-    >
+    <section aria-labelledby="drop-schedule-title" className="card" data-testid="drop-schedule">
       <div className="mb-3 flex flex-wrap items-center gap-3">
         <h2 id="drop-schedule-title" className="text-lg font-bold">
           Drop schedule
         </h2>
         <p className="text-sm text-ink-soft">
-          {analysis.shaped.joists.length} joists, {rows.length} spans. High
-          level H = {mm(analysis.shaped.highLevel)}; drops are measured down
-          from H at each bearing.
+          {analysis.shaped.joists.length} joists, {rows.length} spans. High level H = {mm(analysis.shaped.highLevel)};
+          drops are measured down from H at each bearing.
         </p>
         <form
           method="post"
@@ -58,7 +50,12 @@ export function DropSchedule() {
           <button type="submit" className="btn" formAction="/sandbox/sheet.pdf" data-testid="download-pdf">
             <FileText size={16} aria-hidden="true" /> PDF (A4)
           </button>
-          <button type="submit" className="btn" formAction="/sandbox/sheet.pdf?paper=letter" data-testid="download-pdf-letter">
+          <button
+            type="submit"
+            className="btn"
+            formAction="/sandbox/sheet.pdf?paper=letter"
+            data-testid="download-pdf-letter"
+          >
             <FileText size={16} aria-hidden="true" /> PDF (Letter)
           </button>
           <button type="submit" className="btn" formAction="/sandbox/plan.dxf" data-testid="download-dxf">

@@ -5,9 +5,17 @@ export function EngineErrorNote() {
   const error = useSandbox((s) => s.engineError);
   if (!error) return null;
   return (
-    <div role="alert" className="rounded border border-bad/50 bg-accent-wash px-3 py-2 text-sm" data-testid="engine-error">
+    <div
+      role="alert"
+      className="rounded border border-bad/50 bg-accent-wash px-3 py-2 text-sm"
+      data-testid="engine-error"
+    >
       <p className="font-medium text-bad">
-        {error.status === 422 ? "This roof cannot be built yet" : error.status === 400 ? "Something in the roof is not valid" : "The engine stopped"}
+        {error.status === 422
+          ? "This roof cannot be built yet"
+          : error.status === 400
+            ? "Something in the roof is not valid"
+            : "The engine stopped"}
         : the views show the last roof that worked.
       </p>
       <ul className="mt-1 list-disc pl-5">

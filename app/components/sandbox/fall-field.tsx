@@ -24,7 +24,10 @@ export function FallField({ label, value, onCommit, optional, placeholder, disab
   const engine = useSandbox((s) => s.engine);
   const { fall } = useFormat();
   const [text, setText] = useState(value == null ? "" : String(value));
-  const [reading, setReading] = useState<{ error: string | null; detail: string | null }>({ error: null, detail: null });
+  const [reading, setReading] = useState<{ error: string | null; detail: string | null }>({
+    error: null,
+    detail: null,
+  });
   const ask = useRef(0);
   const current = useRef({ value, onCommit });
   current.current = { value, onCommit };

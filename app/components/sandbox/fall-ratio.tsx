@@ -5,7 +5,11 @@ export function FallRatio({ ratio, className }: { ratio: number | null | undefin
   const { fall, fallDetail } = useFormat();
   const detail = fallDetail(ratio);
   return (
-    <abbr title={detail} aria-label={`${fall(ratio)} (${detail})`} className={`cursor-help whitespace-nowrap no-underline tabular-nums ${className ?? ""}`}>
+    <abbr
+      title={detail}
+      aria-label={`${fall(ratio)} (${detail})`}
+      className={`cursor-help whitespace-nowrap no-underline tabular-nums ${className ?? ""}`}
+    >
       {fall(ratio)}
     </abbr>
   );

@@ -1,16 +1,28 @@
 /** Display helpers. The engine works in metres; people read levels and drops in millimetres or inches. */
 import { useMemo } from "react";
 import { useUnits } from "~/components/units";
-import { fallDetail as unitsFallDetail, formatArea, formatFall, formatFlow, formatLength, formatLevel, formatPoint, type UnitSystem } from "~/lib/units";
+import {
+  fallDetail as unitsFallDetail,
+  formatArea,
+  formatFall,
+  formatFlow,
+  formatLength,
+  formatLevel,
+  formatPoint,
+  type UnitSystem,
+} from "~/lib/units";
 
-export const mm = (metres: number | null | undefined) => (metres == null || !Number.isFinite(metres) ? "–" : `${Math.round(metres * 1000)} mm`);
+export const mm = (metres: number | null | undefined) =>
+  metres == null || !Number.isFinite(metres) ? "–" : `${Math.round(metres * 1000)} mm`;
 
 export const metres = (value: number | null | undefined, digits = 2) =>
   value == null || !Number.isFinite(value) ? "–" : `${value.toFixed(digits)} m`;
 
-export const area = (value: number | null | undefined) => (value == null || !Number.isFinite(value) ? "–" : `${value.toFixed(1)} m²`);
+export const area = (value: number | null | undefined) =>
+  value == null || !Number.isFinite(value) ? "–" : `${value.toFixed(1)} m²`;
 
-export const flow = (value: number | null | undefined) => (value == null || !Number.isFinite(value) ? "–" : `${value.toFixed(2)} L/s`);
+export const flow = (value: number | null | undefined) =>
+  value == null || !Number.isFinite(value) ? "–" : `${value.toFixed(2)} L/s`;
 
 export const point = (p: [number, number]) => `(${p[0].toFixed(2)}, ${p[1].toFixed(2)})`;
 

@@ -2,7 +2,17 @@ import { useSandbox } from "./store";
 import { FallRatio } from "./fall-ratio";
 import { useFormat } from "./format";
 
-function Figure({ label, children, testId, tone }: { label: string; children: React.ReactNode; testId?: string; tone?: "bad" | "ok" }) {
+function Figure({
+  label,
+  children,
+  testId,
+  tone,
+}: {
+  label: string;
+  children: React.ReactNode;
+  testId?: string;
+  tone?: "bad" | "ok";
+}) {
   return (
     <div className="min-w-0 px-3 py-2">
       <dt className="text-[11px] font-medium uppercase tracking-wide text-ink-soft">{label}</dt>
@@ -30,22 +40,37 @@ export function KeyFigures() {
   const worst = shaped.worstFallRatio;
   const tooFlat = worst != null && worst > minFall.ratio * (1 + 1e-9);
   return (
-    <dl className={`grid grid-cols-2 divide-rule sm:grid-cols-4 sm:divide-x ${stale ? "opacity-60" : ""}`} aria-live="polite" data-testid="key-figures">
-      <Figure label={`High level (${shaped.highLevelSource})`} testId="high-level-figure">{mm(shaped.highLevel)}</Figure>
+    <dl
+      className={`grid grid-cols-2 divide-rule sm:grid-cols-4 sm:divide-x ${stale ? "opacity-60" : ""}`}
+      aria-live="polite"
+      data-testid="key-figures"
+    >
+      <Figure label={`High level (${shaped.highLevelSource})`} testId="high-level-figure">
+        {mm(shaped.highLevel)}
+      </Figure>
       <Figure label="Longest fall line" testId="longest-fall-figure">
         {shaped.longestFallLine ? (
           <>
-            {metres(shaped.longestFallLine.length, 1)} <span className="text-base font-medium">at <FallRatio ratio={shaped.longestFallLine.ratio} /></span>
+            {metres(shaped.longestFallLine.length, 1)}{" "}
+            <span className="text-base font-medium">
+              at <FallRatio ratio={shaped.longestFallLine.ratio} />
+            </span>
           </>
         ) : (
           "–"
         )}
       </Figure>
-      <Figure label={`Flattest fall line (min ${`1:${Math.round(minFall.ratio)}`})`} testId="worst-fall-figure" tone={tooFlat ? "bad" : undefined}>
+      <Figure
+        label={`Flattest fall line (min ${`1:${Math.round(minFall.ratio)}`})`}
+        testId="worst-fall-figure"
+        tone={tooFlat ? "bad" : undefined}
+      >
         <FallRatio ratio={worst} />
         {tooFlat && <span className="sr-only"> (flatter than the minimum)</span>}
       </Figure>
-      <Figure label="Flatter than minimum" testId="flat-area-figure">{area(shaped.fallMap.flatterThanMinimumArea)}</Figure>
+      <Figure label="Flatter than minimum" testId="flat-area-figure">
+        {area(shaped.fallMap.flatterThanMinimumArea)}
+      </Figure>
     </dl>
   );
 }

@@ -42,7 +42,7 @@ export function clipPolygon(poly: Poly, f: (p: Point) => number): Poly {
     const fa = f(a);
     const fb = f(b);
     if (fa >= 0) out.push(a);
-    if ((fa >= 0) !== (fb >= 0)) {
+    if (fa >= 0 !== fb >= 0) {
       const t = fa / (fa - fb);
       out.push([a[0] + t * (b[0] - a[0]), a[1] + t * (b[1] - a[1])]);
     }
@@ -76,7 +76,10 @@ class Builder {
     if (poly.length < 3) return;
     const base = this.positions.length / 3;
     for (const p of poly) this.positions.push(p[0], p[1], z(p));
-    const tris = ShapeUtils.triangulateShape(poly.map(([x, y]) => new Vector2(x, y)), []);
+    const tris = ShapeUtils.triangulateShape(
+      poly.map(([x, y]) => new Vector2(x, y)),
+      [],
+    );
     for (const [a, b, c] of tris) this.face(base + a, base + b, base + c);
   }
 
@@ -86,7 +89,10 @@ class Builder {
     this.positions.push(p[0], p[1], bottom(p), q[0], q[1], bottom(q), q[0], q[1], top, p[0], p[1], top);
     this.indices.push(base, base + 1, base + 2, base, base + 2, base + 3);
     this.faceRatio.push(WALL_FACE, WALL_FACE);
-    this.lines.push([[p[0], p[1], top], [q[0], q[1], top]]);
+    this.lines.push([
+      [p[0], p[1], top],
+      [q[0], q[1], top],
+    ]);
   }
 
   private face(a: number, b: number, c: number) {
@@ -125,10 +131,19 @@ export function gutterSurface(spec: RoofSpec, analysis: Analysis): LayoutSurface
     list.push([t * edgeLength(outline, edge), o.level ?? 0]);
     byEdge.set(edge, list);
   });
-  const gutters = [...byEdge.entries()].map(([edge, outlets]) => ({ edge, outlets, line: inwardLine(outline, edge, ccw) }));
+  const gutters = [...byEdge.entries()].map(([edge, outlets]) => ({
+    edge,
+    outlets,
+    line: inwardLine(outline, edge, ccw),
+  }));
   const lines: Line[] = [];
   for (const { line } of gutters) {
-    if (!lines.some((l) => Math.abs(l.nx - line.nx) < 1e-9 && Math.abs(l.ny - line.ny) < 1e-9 && Math.abs(l.c - line.c) < 1e-3)) lines.push(line);
+    if (
+      !lines.some(
+        (l) => Math.abs(l.nx - line.nx) < 1e-9 && Math.abs(l.ny - line.ny) < 1e-9 && Math.abs(l.c - line.c) < 1e-3,
+      )
+    )
+      lines.push(line);
   }
   const nearest = (p: Point) => Math.min(...lines.map((l) => dist(l, p)));
   const fieldLevel = (p: Point) => lip + Math.max(0, nearest(p) - width) * fieldSlope;
@@ -178,18 +193,20 @@ export function gutterSurface(spec: RoofSpec, analysis: Analysis): LayoutSurface
       for (let i = 0; i < piece.length; i++) {
         const p = piece[i];
         const q = piece[(i + 1) % piece.length];
-        if (Math.abs(dist(gutter.line, p) - width) < 1e-7 && Math.abs(dist(gutter.line, q) - width) < 1e-7) b.wall(p, q, levelAlong, lip);
+        if (Math.abs(dist(gutter.line, p) - width) < 1e-7 && Math.abs(dist(gutter.line, q) - width) < 1e-7)
+          b.wall(p, q, levelAlong, lip);
       }
     }
   }
 
-  const inGutter = (p: Point) => gutters.find((gt) => {
-    const d = dist(gt.line, p);
-    const [a, e] = edgeEnds(outline, gt.edge);
-    const len = edgeLength(outline, gt.edge);
-    const t = ((p[0] - a[0]) * (e[0] - a[0]) + (p[1] - a[1]) * (e[1] - a[1])) / len;
-    return d <= width + 1e-9 && t >= -1e-9 && t <= len + 1e-9;
-  });
+  const inGutter = (p: Point) =>
+    gutters.find((gt) => {
+      const d = dist(gt.line, p);
+      const [a, e] = edgeEnds(outline, gt.edge);
+      const len = edgeLength(outline, gt.edge);
+      const t = ((p[0] - a[0]) * (e[0] - a[0]) + (p[1] - a[1]) * (e[1] - a[1])) / len;
+      return d <= width + 1e-9 && t >= -1e-9 && t <= len + 1e-9;
+    });
   const levelAt = (x: number, y: number) => {
     const p: Point = [x, y];
     const gt = inGutter(p);
@@ -217,7 +234,15 @@ export function openEdgeSurface(spec: RoofSpec, analysis: Analysis): LayoutSurfa
   const levelAt = (x: number, y: number) => Math.max(0, dist(line, [x, y])) * slope;
   const b = new Builder();
   b.polygon(outline, (p) => levelAt(p[0], p[1]));
-  return { positions: b.positions, indices: b.indices, faceRatio: b.faceRatio, levelAt, high: analysis.openEdge.highLevel, low: 0, lines: [] };
+  return {
+    positions: b.positions,
+    indices: b.indices,
+    faceRatio: b.faceRatio,
+    levelAt,
+    high: analysis.openEdge.highLevel,
+    low: 0,
+    lines: [],
+  };
 }
 
 /** The edges of the outline, turned to eaves where the open-edge option lets water off. */

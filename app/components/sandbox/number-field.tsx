@@ -1,6 +1,14 @@
 import { useId, useState } from "react";
 import { useUnits } from "~/components/units";
-import { bareUnit, formatLength, formatLevel, lengthInputText, parseLength, type LengthKind, type UnitSystem } from "~/lib/units";
+import {
+  bareUnit,
+  formatLength,
+  formatLevel,
+  lengthInputText,
+  parseLength,
+  type LengthKind,
+  type UnitSystem,
+} from "~/lib/units";
 
 interface Props {
   label: string;
@@ -34,12 +42,23 @@ function show(value: number | undefined, scale: number, digits: number) {
   return String(Number(v.toFixed(digits)));
 }
 
-function showIn(value: number | undefined, scale: number, digits: number, length: LengthKind | undefined, system: UnitSystem) {
+function showIn(
+  value: number | undefined,
+  scale: number,
+  digits: number,
+  length: LengthKind | undefined,
+  system: UnitSystem,
+) {
   return length ? lengthInputText(value, system, length) : show(value, scale, digits);
 }
 
 /** The typed text as the stored value, or why it is not one. */
-function read(text: string, scale: number, length: LengthKind | undefined, system: UnitSystem): { value: number } | { error: string } {
+function read(
+  text: string,
+  scale: number,
+  length: LengthKind | undefined,
+  system: UnitSystem,
+): { value: number } | { error: string } {
   if (length) {
     const r = parseLength(text, system, length);
     return r.ok ? { value: r.metres } : { error: r.error };
@@ -52,7 +71,23 @@ function read(text: string, scale: number, length: LengthKind | undefined, syste
  * A number typed by hand. Valid input is committed as it is typed; invalid input stays in the
  * box with the reason beside it, and the roof keeps its last good value.
  */
-export function NumberField({ label, value, onCommit, unit: metricUnit, scale = 1, min, max, digits = 3, optional, placeholder, disabled, compact, hint, testId, length }: Props) {
+export function NumberField({
+  label,
+  value,
+  onCommit,
+  unit: metricUnit,
+  scale = 1,
+  min,
+  max,
+  digits = 3,
+  optional,
+  placeholder,
+  disabled,
+  compact,
+  hint,
+  testId,
+  length,
+}: Props) {
   const id = useId();
   const system = useUnits();
   const unit = length ? (system === "us" && length === "length" ? "ft, in" : bareUnit(system, length)) : metricUnit;
@@ -69,7 +104,9 @@ export function NumberField({ label, value, onCommit, unit: metricUnit, scale = 
     const typed = "value" in r ? r.value : Number.NaN;
     // What is shown rounds (to 1/16 in): a value within that of the typed text is the same.
     const tolerance = length && system === "us" ? 0.0254 / 32 : 1e-9;
-    const same = !(systemChanged && length) && (typed === value || (typed != null && value != null && Math.abs(typed - value) < tolerance));
+    const same =
+      !(systemChanged && length) &&
+      (typed === value || (typed != null && value != null && Math.abs(typed - value) < tolerance));
     if (!same) {
       setText(showIn(value, scale, digits, length, system));
       setError(null);
@@ -78,7 +115,10 @@ export function NumberField({ label, value, onCommit, unit: metricUnit, scale = 
 
   const limit = (v: number) => {
     if (!length) return `${v}${unit ? ` ${unit}` : ""}`;
-    return (length === "level" ? formatLevel(v / scale, system) : formatLength(v / scale, system)).replace(/\u00a0/g, " ");
+    return (length === "level" ? formatLevel(v / scale, system) : formatLength(v / scale, system)).replace(
+      /\u00a0/g,
+      " ",
+    );
   };
 
   function change(next: string) {

@@ -17,8 +17,8 @@ export function OutletTable() {
   if (spec.outlets.length === 0) {
     return (
       <p className="rounded border border-dashed border-rule p-3 text-sm text-ink-soft" data-testid="no-outlets">
-        No outlets yet. Click a parapet edge on the plan (or use “+ outlet” in the outline table) to place one.
-        Without an outlet or an eaves edge the water has nowhere to go.
+        No outlets yet. Click a parapet edge on the plan (or use “+ outlet” in the outline table) to place one. Without
+        an outlet or an eaves edge the water has nowhere to go.
       </p>
     );
   }
@@ -34,36 +34,85 @@ export function OutletTable() {
             <th scope="col">edge</th>
             <th scope="col">level ({levelUnit})</th>
             <th scope="col">size ({levelUnit})</th>
-            <th scope="col"><span className="sr-only">actions</span></th>
+            <th scope="col">
+              <span className="sr-only">actions</span>
+            </th>
           </tr>
         </thead>
         <tbody>
           {spec.outlets.map((o, k) => (
-            <tr key={k} className={selection?.kind === "outlet" && selection.index === k ? "bg-accent-wash" : undefined}>
-              <th scope="row" className="border-b border-rule text-sm font-medium normal-case">O{k + 1}</th>
+            <tr
+              key={k}
+              className={selection?.kind === "outlet" && selection.index === k ? "bg-accent-wash" : undefined}
+            >
+              <th scope="row" className="border-b border-rule text-sm font-medium normal-case">
+                O{k + 1}
+              </th>
               <td className="w-24">
-                <NumberField compact label={`Outlet O${k + 1} x`} value={o.at[0]} length="length" disabled={readOnly} min={-1e6} max={1e6}
-                  onCommit={(v) => v != null && edit((s) => setOutlet(s, k, { at: [v, s.outlets[k].at[1]] }))} />
+                <NumberField
+                  compact
+                  label={`Outlet O${k + 1} x`}
+                  value={o.at[0]}
+                  length="length"
+                  disabled={readOnly}
+                  min={-1e6}
+                  max={1e6}
+                  onCommit={(v) => v != null && edit((s) => setOutlet(s, k, { at: [v, s.outlets[k].at[1]] }))}
+                />
               </td>
               <td className="w-24">
-                <NumberField compact label={`Outlet O${k + 1} y`} value={o.at[1]} length="length" disabled={readOnly} min={-1e6} max={1e6}
-                  onCommit={(v) => v != null && edit((s) => setOutlet(s, k, { at: [s.outlets[k].at[0], v] }))} />
+                <NumberField
+                  compact
+                  label={`Outlet O${k + 1} y`}
+                  value={o.at[1]}
+                  length="length"
+                  disabled={readOnly}
+                  min={-1e6}
+                  max={1e6}
+                  onCommit={(v) => v != null && edit((s) => setOutlet(s, k, { at: [s.outlets[k].at[0], v] }))}
+                />
               </td>
               <td className="text-ink-soft">{attachOutlet(spec, o.at).edge + 1}</td>
               <td className="w-24">
-                <NumberField compact label={`Outlet O${k + 1} level`} value={o.level} length="level" scale={1000} digits={0} optional placeholder="0"
-                  min={-1000} max={1000} disabled={readOnly}
-                  onCommit={(v) => edit((s) => setOutlet(s, k, { level: v }))} />
+                <NumberField
+                  compact
+                  label={`Outlet O${k + 1} level`}
+                  value={o.level}
+                  length="level"
+                  scale={1000}
+                  digits={0}
+                  optional
+                  placeholder="0"
+                  min={-1000}
+                  max={1000}
+                  disabled={readOnly}
+                  onCommit={(v) => edit((s) => setOutlet(s, k, { level: v }))}
+                />
               </td>
               <td className="w-24">
-                <NumberField compact label={`Outlet O${k + 1} size`} value={o.size} length="level" scale={1000} digits={0} optional placeholder={system === "us" ? "4" : "100"}
-                  min={10} max={2000} disabled={readOnly}
-                  onCommit={(v) => edit((s) => setOutlet(s, k, { size: v }))} />
+                <NumberField
+                  compact
+                  label={`Outlet O${k + 1} size`}
+                  value={o.size}
+                  length="level"
+                  scale={1000}
+                  digits={0}
+                  optional
+                  placeholder={system === "us" ? "4" : "100"}
+                  min={10}
+                  max={2000}
+                  disabled={readOnly}
+                  onCommit={(v) => edit((s) => setOutlet(s, k, { size: v }))}
+                />
               </td>
               <td className="text-right">
                 {!readOnly && (
-                  <button type="button" className="btn px-1.5 py-0.5 text-xs" aria-label={`Delete outlet O${k + 1}`}
-                    onClick={() => edit((s) => deleteOutlet(s, k))}>
+                  <button
+                    type="button"
+                    className="btn px-1.5 py-0.5 text-xs"
+                    aria-label={`Delete outlet O${k + 1}`}
+                    onClick={() => edit((s) => deleteOutlet(s, k))}
+                  >
                     <Trash2 size={14} aria-hidden="true" />
                   </button>
                 )}

@@ -2,7 +2,16 @@ import { Plus, Trash2 } from "lucide-react";
 import type { EdgeKind } from "~/engine";
 import { useFormat } from "./format";
 import { NumberField } from "./number-field";
-import { addOutlet, deleteVertex, edgeKindsOf, edgeLength, insertVertex, moveVertex, outletsOnEdge, setEdgeKind } from "./spec-edit";
+import {
+  addOutlet,
+  deleteVertex,
+  edgeKindsOf,
+  edgeLength,
+  insertVertex,
+  moveVertex,
+  outletsOnEdge,
+  setEdgeKind,
+} from "./spec-edit";
 import { useSandbox, useSandboxStore } from "./store";
 
 /** The outline as numbers: each vertex's x and y, and the edge that leaves it (kind, length, outlet, split). */
@@ -22,7 +31,11 @@ export function OutlineTable() {
   function changeKind(edge: number, kind: EdgeKind) {
     const lost = kind === "eaves" ? outletsOnEdge(spec, edge) : 0;
     edit((s) => setEdgeKind(s, edge, kind));
-    store.getState().setNotice(`Edge ${edge + 1} is now ${kind}${lost ? `; ${lost} outlet${lost > 1 ? "s" : ""} on it removed (undo brings ${lost > 1 ? "them" : "it"} back)` : ""}.`);
+    store
+      .getState()
+      .setNotice(
+        `Edge ${edge + 1} is now ${kind}${lost ? `; ${lost} outlet${lost > 1 ? "s" : ""} on it removed (undo brings ${lost > 1 ? "them" : "it"} back)` : ""}.`,
+      );
   }
 
   return (
@@ -36,28 +49,58 @@ export function OutlineTable() {
             <th scope="col">y ({lengthUnit})</th>
             <th scope="col">edge to next</th>
             <th scope="col">length</th>
-            <th scope="col"><span className="sr-only">actions</span></th>
+            <th scope="col">
+              <span className="sr-only">actions</span>
+            </th>
           </tr>
         </thead>
         <tbody>
           {spec.outline.map((p, i) => {
             const selected =
-              (selection?.kind === "vertex" && selection.index === i) || (selection?.kind === "edge" && selection.index === i);
+              (selection?.kind === "vertex" && selection.index === i) ||
+              (selection?.kind === "edge" && selection.index === i);
             return (
               <tr key={i} className={selected ? "bg-accent-wash" : undefined}>
-                <th scope="row" className="w-8 border-b border-rule text-sm font-medium normal-case">{i + 1}</th>
+                <th scope="row" className="w-8 border-b border-rule text-sm font-medium normal-case">
+                  {i + 1}
+                </th>
                 <td className="w-24">
-                  <NumberField compact label={`Vertex ${i + 1} x`} value={p[0]} length="length" min={-1e6} max={1e6} disabled={readOnly || outlineLocked}
-                    onCommit={(v) => v != null && edit((s) => moveVertex(s, i, [v, s.outline[i][1]]))} testId={`vertex-${i}-x`} />
+                  <NumberField
+                    compact
+                    label={`Vertex ${i + 1} x`}
+                    value={p[0]}
+                    length="length"
+                    min={-1e6}
+                    max={1e6}
+                    disabled={readOnly || outlineLocked}
+                    onCommit={(v) => v != null && edit((s) => moveVertex(s, i, [v, s.outline[i][1]]))}
+                    testId={`vertex-${i}-x`}
+                  />
                 </td>
                 <td className="w-24">
-                  <NumberField compact label={`Vertex ${i + 1} y`} value={p[1]} length="length" min={-1e6} max={1e6} disabled={readOnly || outlineLocked}
-                    onCommit={(v) => v != null && edit((s) => moveVertex(s, i, [s.outline[i][0], v]))} testId={`vertex-${i}-y`} />
+                  <NumberField
+                    compact
+                    label={`Vertex ${i + 1} y`}
+                    value={p[1]}
+                    length="length"
+                    min={-1e6}
+                    max={1e6}
+                    disabled={readOnly || outlineLocked}
+                    onCommit={(v) => v != null && edit((s) => moveVertex(s, i, [s.outline[i][0], v]))}
+                    testId={`vertex-${i}-y`}
+                  />
                 </td>
                 <td>
-                  <label className="sr-only" htmlFor={`edge-kind-${i}`}>Edge {i + 1} to {((i + 1) % n) + 1} kind</label>
-                  <select id={`edge-kind-${i}`} className="field px-1.5 py-1" value={kinds[i]} disabled={readOnly || edgesLocked}
-                    onChange={(e) => changeKind(i, e.target.value as EdgeKind)}>
+                  <label className="sr-only" htmlFor={`edge-kind-${i}`}>
+                    Edge {i + 1} to {((i + 1) % n) + 1} kind
+                  </label>
+                  <select
+                    id={`edge-kind-${i}`}
+                    className="field px-1.5 py-1"
+                    value={kinds[i]}
+                    disabled={readOnly || edgesLocked}
+                    onChange={(e) => changeKind(i, e.target.value as EdgeKind)}
+                  >
                     <option value="parapet">parapet</option>
                     <option value="eaves">eaves</option>
                   </select>
@@ -66,18 +109,32 @@ export function OutlineTable() {
                 <td className="whitespace-nowrap text-right">
                   {!readOnly && (
                     <span className="inline-flex gap-1">
-                      <button type="button" className="btn px-1.5 py-0.5 text-xs" disabled={kinds[i] === "eaves"}
+                      <button
+                        type="button"
+                        className="btn px-1.5 py-0.5 text-xs"
+                        disabled={kinds[i] === "eaves"}
                         title={kinds[i] === "eaves" ? "Outlets go on parapet edges" : undefined}
                         aria-label={`Add an outlet half-way along edge ${i + 1}`}
-                        onClick={() => edit((s) => addOutlet(s, i, 0.5))}>
+                        onClick={() => edit((s) => addOutlet(s, i, 0.5))}
+                      >
                         + outlet
                       </button>
-                      <button type="button" className="btn px-1.5 py-0.5 text-xs" aria-label={`Add a vertex half-way along edge ${i + 1}`}
-                        onClick={() => edit((s) => insertVertex(s, i))} disabled={n >= 200}>
+                      <button
+                        type="button"
+                        className="btn px-1.5 py-0.5 text-xs"
+                        aria-label={`Add a vertex half-way along edge ${i + 1}`}
+                        onClick={() => edit((s) => insertVertex(s, i))}
+                        disabled={n >= 200}
+                      >
                         <Plus size={14} aria-hidden="true" /> vertex
                       </button>
-                      <button type="button" className="btn px-1.5 py-0.5 text-xs" aria-label={`Delete vertex ${i + 1}`} disabled={n <= 3}
-                        onClick={() => edit((s) => deleteVertex(s, i))}>
+                      <button
+                        type="button"
+                        className="btn px-1.5 py-0.5 text-xs"
+                        aria-label={`Delete vertex ${i + 1}`}
+                        disabled={n <= 3}
+                        onClick={() => edit((s) => deleteVertex(s, i))}
+                      >
                         <Trash2 size={14} aria-hidden="true" />
                       </button>
                     </span>

@@ -61,7 +61,9 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
   useEffect(() => {
     const svg = svgRef.current;
     if (!svg || typeof ResizeObserver === "undefined") return;
-    const observer = new ResizeObserver(([entry]) => setSize({ w: entry.contentRect.width || 1, h: entry.contentRect.height || 1 }));
+    const observer = new ResizeObserver(([entry]) =>
+      setSize({ w: entry.contentRect.width || 1, h: entry.contentRect.height || 1 }),
+    );
     observer.observe(svg);
     return () => observer.disconnect();
   }, []);
@@ -114,7 +116,10 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
     e.stopPropagation();
     setChoice(null);
     store.getState().select(target);
-    const at = target.kind === "outlet" ? store.getState().spec.outlets[target.index]?.at : store.getState().spec.outline[target.index];
+    const at =
+      target.kind === "outlet"
+        ? store.getState().spec.outlets[target.index]?.at
+        : store.getState().spec.outline[target.index];
     pressed.current = { x: e.clientX, y: e.clientY, moved: false, crowd: at ? handlesAt(at) : [] };
     if (readOnly || e.button !== 0) return;
     if (target.kind === "vertex" && outlineLocked) return;
@@ -134,17 +139,22 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
     }
     const p = toPlan(e.clientX, e.clientY);
     if (d.kind === "vertex") {
-      store.getState().edit((s) => moveVertex(s, d.index, snapVertex(p, s.outline, d.index, snap)), { gesture: `vertex-${d.index}` });
+      store
+        .getState()
+        .edit((s) => moveVertex(s, d.index, snapVertex(p, s.outline, d.index, snap)), { gesture: `vertex-${d.index}` });
     } else {
-      store.getState().edit((s) => {
-        // The outlet follows the pointer along the nearest parapet edge, so it can turn a corner.
-        const edge = nearestParapetEdge(s.outline, edgeKindsOf(s), p);
-        if (edge < 0) return s;
-        const [a, b] = edgeEnds(s.outline, edge);
-        const len = edgeLength(s.outline, edge);
-        const along = snapAlong(projectOnSegment(p, a, b).t * len, len, snap);
-        return placeOutlet(s, d.index, edge, len > 0 ? along / len : 0);
-      }, { gesture: `outlet-${d.index}` });
+      store.getState().edit(
+        (s) => {
+          // The outlet follows the pointer along the nearest parapet edge, so it can turn a corner.
+          const edge = nearestParapetEdge(s.outline, edgeKindsOf(s), p);
+          if (edge < 0) return s;
+          const [a, b] = edgeEnds(s.outline, edge);
+          const len = edgeLength(s.outline, edge);
+          const along = snapAlong(projectOnSegment(p, a, b).t * len, len, snap);
+          return placeOutlet(s, d.index, edge, len > 0 ? along / len : 0);
+        },
+        { gesture: `outlet-${d.index}` },
+      );
     }
   }
 
@@ -166,7 +176,9 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
     const s = store.getState().spec;
     if (edgeKindsOf(s)[edge] === "eaves") {
       store.getState().select({ kind: "edge", index: edge });
-      announce(`Edge ${edge + 1} is an eaves edge: water leaves along all of it. Set it to parapet to put an outlet there.`);
+      announce(
+        `Edge ${edge + 1} is an eaves edge: water leaves along all of it. Set it to parapet to put an outlet there.`,
+      );
       return;
     }
     const [a, b] = edgeEnds(s.outline, edge);
@@ -218,7 +230,11 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
     if (dir) {
       e.preventDefault();
       const step = keyStep(e);
-      store.getState().edit((s) => moveVertex(s, i, [s.outline[i][0] + dir[0] * step, s.outline[i][1] + dir[1] * step]), { gesture: `key-vertex-${i}` });
+      store
+        .getState()
+        .edit((s) => moveVertex(s, i, [s.outline[i][0] + dir[0] * step, s.outline[i][1] + dir[1] * step]), {
+          gesture: `key-vertex-${i}`,
+        });
     } else if (e.key === "Delete" || e.key === "Backspace") {
       e.preventDefault();
       if (store.getState().spec.outline.length <= 3) return announce("A roof needs at least 3 vertices.");
@@ -285,7 +301,10 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
   return (
     <div className="relative">
       {locks && lockedWords.length ? (
-        <p className="mb-2 flex items-start gap-2 rounded border border-rule bg-paper px-2 py-1 text-sm" data-testid="task-locks">
+        <p
+          className="mb-2 flex items-start gap-2 rounded border border-rule bg-paper px-2 py-1 text-sm"
+          data-testid="task-locks"
+        >
           <Lock aria-hidden="true" className="mt-0.5 h-4 w-4 shrink-0" />
           <span>
             <strong>Fixed by this task:</strong> {lockedWords.join(", ")}. {locks.why}
@@ -340,7 +359,16 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
                 strokeLinecap="square"
                 pointerEvents="none"
               />
-              {selected && <path d={d} stroke="var(--color-accent)" strokeWidth={7} strokeOpacity={0.45} vectorEffect="non-scaling-stroke" pointerEvents="none" />}
+              {selected && (
+                <path
+                  d={d}
+                  stroke="var(--color-accent)"
+                  strokeWidth={7}
+                  strokeOpacity={0.45}
+                  vectorEffect="non-scaling-stroke"
+                  pointerEvents="none"
+                />
+              )}
               <text
                 x={mx + nx * font * 1.2}
                 y={-(my + ny * font * 1.2)}
@@ -350,7 +378,8 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
                 fill="var(--color-ink-soft)"
                 pointerEvents="none"
               >
-                {len_(len)}{eaves ? " · eaves" : ""}
+                {len_(len)}
+                {eaves ? " · eaves" : ""}
               </text>
               <path
                 d={d}
@@ -397,20 +426,45 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
               onKeyUp={keyUp}
               data-testid={`vertex-${i}`}
             >
-              <rect x={x - handle * 1.6} y={y - handle * 1.6} width={handle * 3.2} height={handle * 3.2} fill="transparent" />
+              <rect
+                x={x - handle * 1.6}
+                y={y - handle * 1.6}
+                width={handle * 3.2}
+                height={handle * 3.2}
+                fill="transparent"
+              />
               <rect
                 x={x - handle}
                 y={y - handle}
                 width={handle * 2}
                 height={handle * 2}
-                fill={selected ? "var(--color-accent)" : outlineLocked ? "var(--color-paper-deep)" : "var(--color-sheet)"}
+                fill={
+                  selected ? "var(--color-accent)" : outlineLocked ? "var(--color-paper-deep)" : "var(--color-sheet)"
+                }
                 stroke={outlineLocked ? "var(--color-ink-soft)" : "var(--color-ink)"}
                 strokeWidth={2}
                 strokeDasharray={outlineLocked ? "2 2" : undefined}
                 vectorEffect="non-scaling-stroke"
               />
-              {outlineLocked ? <Lock x={x - handle * 0.8} y={y - handle * 0.8} width={handle * 1.6} height={handle * 1.6} strokeWidth={3} color="var(--color-ink-soft)" aria-hidden="true" /> : null}
-              <text x={x - handle * 1.4} y={y - handle * 1.4} fontSize={font} textAnchor="end" fill="var(--color-ink)" pointerEvents="none">
+              {outlineLocked ? (
+                <Lock
+                  x={x - handle * 0.8}
+                  y={y - handle * 0.8}
+                  width={handle * 1.6}
+                  height={handle * 1.6}
+                  strokeWidth={3}
+                  color="var(--color-ink-soft)"
+                  aria-hidden="true"
+                />
+              ) : null}
+              <text
+                x={x - handle * 1.4}
+                y={y - handle * 1.4}
+                fontSize={font}
+                textAnchor="end"
+                fill="var(--color-ink)"
+                pointerEvents="none"
+              >
                 {i + 1}
               </text>
             </g>
@@ -439,18 +493,37 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
               data-testid={`outlet-${k}`}
             >
               {selected && <circle cx={x} cy={y} r={outletR * 1.8} fill="var(--color-accent)" fillOpacity={0.25} />}
-              <circle cx={x} cy={y} r={outletR} fill="var(--color-accent)" stroke="var(--color-ink)" strokeWidth={2} vectorEffect="non-scaling-stroke" />
+              <circle
+                cx={x}
+                cy={y}
+                r={outletR}
+                fill="var(--color-accent)"
+                stroke="var(--color-ink)"
+                strokeWidth={2}
+                vectorEffect="non-scaling-stroke"
+              />
               <circle cx={x} cy={y} r={outletR * 0.35} fill="var(--color-ink)" />
-              <text x={x + outletR * 1.4} y={y - outletR * 1.2} fontSize={font} fill="var(--color-accent-deep)" fontWeight={700} pointerEvents="none">
+              <text
+                x={x + outletR * 1.4}
+                y={y - outletR * 1.2}
+                fontSize={font}
+                fill="var(--color-accent-deep)"
+                fontWeight={700}
+                pointerEvents="none"
+              >
                 O{k + 1}
               </text>
             </g>
           );
         })}
-
       </svg>
-      <div className="pointer-events-none absolute bottom-1 left-2 text-[11px] tabular-nums text-ink-soft" aria-hidden="true">
-        {cursor ? `x ${len_(cursor[0])} · y ${len_(cursor[1])}` : `grid ${view.gridStep >= 1 ? len_(view.gridStep) : level_(view.gridStep)}`}
+      <div
+        className="pointer-events-none absolute bottom-1 left-2 text-[11px] tabular-nums text-ink-soft"
+        aria-hidden="true"
+      >
+        {cursor
+          ? `x ${len_(cursor[0])} · y ${len_(cursor[1])}`
+          : `grid ${view.gridStep >= 1 ? len_(view.gridStep) : level_(view.gridStep)}`}
       </div>
       {choice ? (
         <div
@@ -484,13 +557,17 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
           </button>
         </div>
       ) : null}
-      <button type="button" className="btn absolute right-2 top-2 px-2 py-0.5 text-xs" onClick={() => setFit((f) => f + 1)}>
+      <button
+        type="button"
+        className="btn absolute right-2 top-2 px-2 py-0.5 text-xs"
+        onClick={() => setFit((f) => f + 1)}
+      >
         Fit
       </button>
       <p id={helpId} className="sr-only">
-        Tab moves between vertices, edges and outlets. Arrow keys move a vertex or slide an outlet by the grid step (Shift: four
-        steps, Alt: 10 mm). Delete removes it. On an edge: Enter places an outlet at its middle, E switches parapet and eaves,
-        plus adds a vertex. Ctrl+Z undoes, Ctrl+Shift+Z redoes.
+        Tab moves between vertices, edges and outlets. Arrow keys move a vertex or slide an outlet by the grid step
+        (Shift: four steps, Alt: 10 mm). Delete removes it. On an edge: Enter places an outlet at its middle, E switches
+        parapet and eaves, plus adds a vertex. Ctrl+Z undoes, Ctrl+Shift+Z redoes.
       </p>
     </div>
   );
@@ -520,4 +597,3 @@ function nearestParapetEdge(outline: Point[], kinds: string[], p: Point): number
   }
   return best;
 }
-

@@ -28,7 +28,12 @@ function padded(outline: Point[], underlay?: Underlay): PlanFrame {
  * The plan's visible window. It holds still while a vertex is dragged (a moving frame would move
  * the vertex under the pointer) and refits afterwards when the outline has left it or shrunk a lot.
  */
-export function usePlanFrame(outline: Point[], underlay: Underlay | undefined, dragging: boolean, fitRequest: number): PlanFrame {
+export function usePlanFrame(
+  outline: Point[],
+  underlay: Underlay | undefined,
+  dragging: boolean,
+  fitRequest: number,
+): PlanFrame {
   const ref = useRef<{ frame: PlanFrame; fit: number; underlay?: Underlay } | null>(null);
   const wanted = padded(outline, underlay);
   const current = ref.current;
@@ -38,7 +43,8 @@ export function usePlanFrame(outline: Point[], underlay: Underlay | undefined, d
     const f = current.frame;
     const b = bounds(outline);
     const outside = b.minX < f.minX || b.minY < f.minY || b.maxX > f.maxX || b.maxY > f.maxY;
-    const shrunk = (wanted.maxX - wanted.minX) < 0.4 * (f.maxX - f.minX) && (wanted.maxY - wanted.minY) < 0.4 * (f.maxY - f.minY);
+    const shrunk =
+      wanted.maxX - wanted.minX < 0.4 * (f.maxX - f.minX) && wanted.maxY - wanted.minY < 0.4 * (f.maxY - f.minY);
     if (outside || shrunk) ref.current = { ...current, frame: wanted };
   }
   return ref.current!.frame;

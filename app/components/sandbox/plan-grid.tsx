@@ -23,12 +23,30 @@ export const PlanGrid = memo(function PlanGrid({ frame, step }: { frame: Frame; 
   for (let y = y0; y <= frame.y + frame.height; y += fine) {
     lines.push({ d: `M${frame.x} ${y}H${frame.x + frame.width}`, strong: isMajor(y) });
   }
-  const weak = lines.filter((l) => !l.strong).map((l) => l.d).join("");
-  const strong = lines.filter((l) => l.strong).map((l) => l.d).join("");
+  const weak = lines
+    .filter((l) => !l.strong)
+    .map((l) => l.d)
+    .join("");
+  const strong = lines
+    .filter((l) => l.strong)
+    .map((l) => l.d)
+    .join("");
   return (
     <g aria-hidden="true" pointerEvents="none">
-      <path d={weak} stroke="var(--color-rule)" strokeOpacity={0.35} strokeWidth={1} vectorEffect="non-scaling-stroke" />
-      <path d={strong} stroke="var(--color-rule)" strokeOpacity={0.9} strokeWidth={1} vectorEffect="non-scaling-stroke" />
+      <path
+        d={weak}
+        stroke="var(--color-rule)"
+        strokeOpacity={0.35}
+        strokeWidth={1}
+        vectorEffect="non-scaling-stroke"
+      />
+      <path
+        d={strong}
+        stroke="var(--color-rule)"
+        strokeOpacity={0.9}
+        strokeWidth={1}
+        vectorEffect="non-scaling-stroke"
+      />
     </g>
   );
 });

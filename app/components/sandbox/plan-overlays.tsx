@@ -9,7 +9,9 @@ export const PlanOverlays = memo(function PlanOverlays({ px }: { px: number }) {
   const stale = useSandbox((s) => s.analysedSpec !== s.spec);
   const showJoists = useSandbox((s) => s.view.showJoists);
   const highlight = useSandbox((s) => s.view.highlightFallLine);
-  const section = useSandbox((s) => (s.view.camera === "section" && s.analysis ? sectionJoistIndex(s.analysis.shaped.joists, s.view.sectionJoist) : -1));
+  const section = useSandbox((s) =>
+    s.view.camera === "section" && s.analysis ? sectionJoistIndex(s.analysis.shaped.joists, s.view.sectionJoist) : -1,
+  );
   const openings = useSandbox((s) => s.spec.openings);
   if (!analysis) return openings?.length ? <Openings openings={openings} /> : null;
   return (
@@ -33,8 +35,19 @@ function Openings({ openings }: { openings: NonNullable<RoofSpec["openings"]> })
         const [x0, x1, y0, y1] = [Math.min(...xs), Math.max(...xs), Math.min(...ys), Math.max(...ys)];
         return (
           <g key={i} data-testid={`plan-opening-${i}`}>
-            <path d={d} fill="var(--color-sheet)" stroke="var(--color-ink)" strokeWidth={2} vectorEffect="non-scaling-stroke" />
-            <path d={`M${x0} ${-y0}L${x1} ${-y1}M${x0} ${-y1}L${x1} ${-y0}`} stroke="var(--color-ink-soft)" strokeWidth={1} vectorEffect="non-scaling-stroke" />
+            <path
+              d={d}
+              fill="var(--color-sheet)"
+              stroke="var(--color-ink)"
+              strokeWidth={2}
+              vectorEffect="non-scaling-stroke"
+            />
+            <path
+              d={`M${x0} ${-y0}L${x1} ${-y1}M${x0} ${-y1}L${x1} ${-y0}`}
+              stroke="var(--color-ink-soft)"
+              strokeWidth={1}
+              vectorEffect="non-scaling-stroke"
+            />
             <title>{`Opening ${i + 1}: ${o.kind ?? "other"}, upstand ${Math.round((o.upstand ?? 0.15) * 1000)} mm`}</title>
           </g>
         );
@@ -46,14 +59,25 @@ function Openings({ openings }: { openings: NonNullable<RoofSpec["openings"]> })
 function JoistLines({ joists }: { joists: Analysis["shaped"]["joists"] }) {
   let d = "";
   for (const j of joists) for (const s of j.spans) d += `M${s.start[0]} ${-s.start[1]}L${s.end[0]} ${-s.end[1]}`;
-  return <path d={d} stroke="var(--color-ink-soft)" strokeOpacity={0.35} strokeWidth={1} vectorEffect="non-scaling-stroke" data-testid="plan-joists" />;
+  return (
+    <path
+      d={d}
+      stroke="var(--color-ink-soft)"
+      strokeOpacity={0.35}
+      strokeWidth={1}
+      vectorEffect="non-scaling-stroke"
+      data-testid="plan-joists"
+    />
+  );
 }
 
 function SectionJoist({ joists, index }: { joists: Analysis["shaped"]["joists"]; index: number }) {
   const j = joists[Math.min(index, joists.length - 1)];
   if (!j) return null;
   const d = j.spans.map((s) => `M${s.start[0]} ${-s.start[1]}L${s.end[0]} ${-s.end[1]}`).join("");
-  return <path d={d} stroke="var(--color-ink)" strokeWidth={3} strokeDasharray="2 3" vectorEffect="non-scaling-stroke" />;
+  return (
+    <path d={d} stroke="var(--color-ink)" strokeWidth={3} strokeDasharray="2 3" vectorEffect="non-scaling-stroke" />
+  );
 }
 
 function FallLinePath({ line, px }: { line: NonNullable<Analysis["shaped"]["longestFallLine"]>; px: number }) {
@@ -73,7 +97,14 @@ function FallLinePath({ line, px }: { line: NonNullable<Analysis["shaped"]["long
   return (
     <g data-testid="plan-fall-line">
       <path d={d} stroke="var(--color-sheet)" strokeWidth={5} fill="none" vectorEffect="non-scaling-stroke" />
-      <path d={d} stroke="var(--color-accent)" strokeWidth={2.5} strokeDasharray="8 4" fill="none" vectorEffect="non-scaling-stroke" />
+      <path
+        d={d}
+        stroke="var(--color-accent)"
+        strokeWidth={2.5}
+        strokeDasharray="8 4"
+        fill="none"
+        vectorEffect="non-scaling-stroke"
+      />
       <polygon points={head} fill="var(--color-accent)" />
     </g>
   );

@@ -2,7 +2,15 @@ import { useSandboxStore } from "~/components/sandbox/store";
 import type { RoofSpec } from "~/engine";
 
 /** Toolbar button that puts a given roof back in the editor (one undoable step) and says so. */
-export function ResetRoofButton({ spec, notice, children }: { spec: RoofSpec; notice: string; children: React.ReactNode }) {
+export function ResetRoofButton({
+  spec,
+  notice,
+  children,
+}: {
+  spec: RoofSpec;
+  notice: string;
+  children: React.ReactNode;
+}) {
   const store = useSandboxStore();
   return (
     <button

@@ -24,7 +24,8 @@ export function Advice({ analysis }: { analysis: Analysis }) {
   const ruleWins = !!(minimumBaseFall && field && minimumBaseFall.ratio > field.value * (1 + 1e-9));
   const target = minimumBaseFall ? (ruleWins && field ? field.value : minimumBaseFall.ratio) : null;
   const suggested = target ? steeperRound(target) : null;
-  const worthChanging = target != null && Math.abs(currentBase - target) / target > 0.01 && suggested !== formatRatio(currentBase);
+  const worthChanging =
+    target != null && Math.abs(currentBase - target) / target > 0.01 && suggested !== formatRatio(currentBase);
   return (
     <ResultsSection title="Advice" id="advice">
       <ul className="grid gap-3 text-sm">
@@ -33,38 +34,53 @@ export function Advice({ analysis }: { analysis: Analysis }) {
             <>
               <p>
                 The flattest base fall that keeps every fall line at <FallRatio ratio={min} /> or steeper is{" "}
-                <FallRatio ratio={minimumBaseFall.ratio} className="font-bold" /> (now <FallRatio ratio={currentBase} />).
+                <FallRatio ratio={minimumBaseFall.ratio} className="font-bold" /> (now <FallRatio ratio={currentBase} />
+                ).
                 {ruleWins && field && (
-                  <> The rule set asks for at least <FallRatio ratio={field.value} /> in the field, which wins.</>
+                  <>
+                    {" "}
+                    The rule set asks for at least <FallRatio ratio={field.value} /> in the field, which wins.
+                  </>
                 )}
                 {!worthChanging && " The base fall is right where it should be."}
               </p>
               {!readOnly && worthChanging && (
-                <button type="button" className="btn mt-1" data-testid="apply-base-fall"
+                <button
+                  type="button"
+                  className="btn mt-1"
+                  data-testid="apply-base-fall"
                   onClick={() => {
                     store.getState().edit((s) => ({ ...s, baseFall: suggested }));
                     store.getState().setNotice(`Base fall set to ${suggested}.`);
-                  }}>
+                  }}
+                >
                   Set base fall to {suggested}
                 </button>
               )}
             </>
           ) : (
-            <p className="text-ink-soft">No base fall keeps every fall line at the minimum with these outlets: add an outlet or move one.</p>
+            <p className="text-ink-soft">
+              No base fall keeps every fall line at the minimum with these outlets: add an outlet or move one.
+            </p>
           )}
         </li>
         {extraOutlet && (
           <li>
             <p>
-              One more outlet at {point(extraOutlet.at)} on edge {extraOutlet.edge + 1} would take the longest fall line from{" "}
-              <FallRatio ratio={extraOutlet.currentLongestFallRatio} /> to <FallRatio ratio={extraOutlet.longestFallRatio} className="font-bold" />.
+              One more outlet at {point(extraOutlet.at)} on edge {extraOutlet.edge + 1} would take the longest fall line
+              from <FallRatio ratio={extraOutlet.currentLongestFallRatio} /> to{" "}
+              <FallRatio ratio={extraOutlet.longestFallRatio} className="font-bold" />.
             </p>
             {!readOnly && (
-              <button type="button" className="btn mt-1" data-testid="apply-extra-outlet"
+              <button
+                type="button"
+                className="btn mt-1"
+                data-testid="apply-extra-outlet"
                 onClick={() => {
                   store.getState().edit((s) => addOutletAt(s, extraOutlet.at));
                   store.getState().setNotice(`Outlet added at ${point(extraOutlet.at)}.`);
-                }}>
+                }}
+              >
                 Add this outlet
               </button>
             )}
@@ -113,11 +129,15 @@ function JoistDirections({ analysis, readOnly }: { analysis: Analysis; readOnly:
         </tbody>
       </table>
       {!readOnly && best && !best.current && (
-        <button type="button" className="btn mt-1" data-testid="apply-joist-direction"
+        <button
+          type="button"
+          className="btn mt-1"
+          data-testid="apply-joist-direction"
           onClick={() => {
             store.getState().edit((s) => setJoistDirection(s, best.direction));
             store.getState().setNotice(`Joists turned to ${angleOf(best.direction)}.`);
-          }}>
+          }}
+        >
           Turn the joists to {angleOf(best.direction)}
         </button>
       )}

@@ -12,9 +12,15 @@ export function Catchments({ analysis }: { analysis: Analysis }) {
         <thead>
           <tr>
             <th scope="col">drain</th>
-            <th scope="col" className="text-right">area</th>
-            <th scope="col" className="text-right">design flow</th>
-            <th scope="col" className="text-right">capacity</th>
+            <th scope="col" className="text-right">
+              area
+            </th>
+            <th scope="col" className="text-right">
+              design flow
+            </th>
+            <th scope="col" className="text-right">
+              capacity
+            </th>
           </tr>
         </thead>
         <tbody>
@@ -22,19 +28,23 @@ export function Catchments({ analysis }: { analysis: Analysis }) {
             <tr key={c.drain}>
               <td>{c.label}</td>
               <td className="text-right">{area(c.area)}</td>
-              <td className={`text-right ${c.capacity != null && c.flow > c.capacity ? "font-bold text-bad" : ""}`}>{flow(c.flow)}</td>
+              <td className={`text-right ${c.capacity != null && c.flow > c.capacity ? "font-bold text-bad" : ""}`}>
+                {flow(c.flow)}
+              </td>
               <td className="text-right">{c.capacity == null ? "–" : flow(c.capacity)}</td>
             </tr>
           ))}
         </tbody>
       </table>
       <p className="mt-1 text-xs text-ink-soft">
-        Q = i·A/3600 at {analysis.rainfall.intensity} mm/h{analysis.rainfall.assumed ? " (assumed)" : ""}, runoff coefficient 1
-        (rational method, ASCE 7-05 Commentary C8). Capacity: rough, at an assumed head.
+        Q = i·A/3600 at {analysis.rainfall.intensity} mm/h{analysis.rainfall.assumed ? " (assumed)" : ""}, runoff
+        coefficient 1 (rational method, ASCE 7-05 Commentary C8). Capacity: rough, at an assumed head.
       </p>
       <h4 className="mt-3 text-xs font-bold uppercase tracking-wide">Ponding</h4>
       {ponding.length === 0 ? (
-        <p className="text-sm text-ok" data-testid="no-ponding">No ponding: every point drains to an outlet or an eaves edge.</p>
+        <p className="text-sm text-ok" data-testid="no-ponding">
+          No ponding: every point drains to an outlet or an eaves edge.
+        </p>
       ) : (
         <ul className="text-sm">
           {ponding.map((p, i) => (

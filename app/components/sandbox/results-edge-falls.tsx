@@ -18,8 +18,12 @@ export function EdgeFalls({ analysis }: { analysis: Analysis }) {
               <th scope="col">edge</th>
               <th scope="col">from (low)</th>
               <th scope="col">to (high)</th>
-              <th scope="col" className="text-right">fall</th>
-              <th scope="col" className="text-right">° · %</th>
+              <th scope="col" className="text-right">
+                fall
+              </th>
+              <th scope="col" className="text-right">
+                ° · %
+              </th>
             </tr>
           </thead>
           <tbody>
@@ -28,7 +32,9 @@ export function EdgeFalls({ analysis }: { analysis: Analysis }) {
                 <td>{r.edge + 1}</td>
                 <td>{point(r.from)}</td>
                 <td>{point(r.to)}</td>
-                <td className="text-right"><FallRatio ratio={r.ratio} /></td>
+                <td className="text-right">
+                  <FallRatio ratio={r.ratio} />
+                </td>
                 <td className="text-right text-ink-soft">{fallDetail(r.ratio)}</td>
               </tr>
             ))}

@@ -11,14 +11,21 @@ export function FallLineSection({ analysis }: { analysis: Analysis }) {
   const highlight = useSandbox((s) => s.view.highlightFallLine);
   const { longestFallLine: longest, worstFallLine: worst } = analysis.shaped;
   const min = analysis.minFall.ratio;
-  const lines = [longest, worst !== longest && worst && longest && worst.from.join() !== longest.from.join() ? worst : null];
+  const lines = [
+    longest,
+    worst !== longest && worst && longest && worst.from.join() !== longest.from.join() ? worst : null,
+  ];
   return (
     <ResultsSection
       title="Fall lines"
       id="fall-lines"
       aside={
         <label className="flex items-center gap-1.5 text-xs">
-          <input type="checkbox" checked={highlight} onChange={(e) => store.getState().setView({ highlightFallLine: e.target.checked })} />
+          <input
+            type="checkbox"
+            checked={highlight}
+            onChange={(e) => store.getState().setView({ highlightFallLine: e.target.checked })}
+          />
           highlight in plan and 3D
         </label>
       }
@@ -31,9 +38,15 @@ export function FallLineSection({ analysis }: { analysis: Analysis }) {
             <tr>
               <th scope="col">line</th>
               <th scope="col">from → to</th>
-              <th scope="col" className="text-right">length</th>
-              <th scope="col" className="text-right">drop</th>
-              <th scope="col" className="text-right">fall</th>
+              <th scope="col" className="text-right">
+                length
+              </th>
+              <th scope="col" className="text-right">
+                drop
+              </th>
+              <th scope="col" className="text-right">
+                fall
+              </th>
             </tr>
           </thead>
           <tbody>
@@ -56,8 +69,8 @@ export function FallLineSection({ analysis }: { analysis: Analysis }) {
         </table>
       )}
       <p className="mt-1 text-xs text-ink-soft">
-        Every fall line must be no flatter than the minimum, <FallRatio ratio={min} />. Flattest of all {analysis.shaped.fallLines.length}:{" "}
-        <FallRatio ratio={analysis.shaped.worstFallRatio} />.
+        Every fall line must be no flatter than the minimum, <FallRatio ratio={min} />. Flattest of all{" "}
+        {analysis.shaped.fallLines.length}: <FallRatio ratio={analysis.shaped.worstFallRatio} />.
       </p>
     </ResultsSection>
   );

@@ -11,19 +11,29 @@ export function HeightBudget({ analysis }: { analysis: Analysis }) {
       <table className="data-table w-full">
         <tbody>
           <tr>
-            <th scope="row" className="border-b border-rule text-sm font-normal normal-case tracking-normal">Shaped roof, high level H ({shaped.highLevelSource})</th>
-            <td className="text-right font-bold" data-testid="height-shaped">{mm(shaped.highLevel)}</td>
+            <th scope="row" className="border-b border-rule text-sm font-normal normal-case tracking-normal">
+              Shaped roof, high level H ({shaped.highLevelSource})
+            </th>
+            <td className="text-right font-bold" data-testid="height-shaped">
+              {mm(shaped.highLevel)}
+            </td>
           </tr>
           <tr>
-            <th scope="row" className="border-b border-rule text-sm font-normal normal-case tracking-normal">Gutter layout</th>
+            <th scope="row" className="border-b border-rule text-sm font-normal normal-case tracking-normal">
+              Gutter layout
+            </th>
             <td className="text-right">{gutter.comparable ? mm(gutter.highLevel) : "not comparable"}</td>
           </tr>
           <tr>
-            <th scope="row" className="border-b border-rule text-sm font-normal normal-case tracking-normal">Open edge (one plane to edge {openEdge.edge + 1})</th>
+            <th scope="row" className="border-b border-rule text-sm font-normal normal-case tracking-normal">
+              Open edge (one plane to edge {openEdge.edge + 1})
+            </th>
             <td className="text-right">{mm(openEdge.highLevel)}</td>
           </tr>
           <tr>
-            <th scope="row" className="border-b border-rule text-sm font-normal normal-case tracking-normal">Saved against the gutter layout</th>
+            <th scope="row" className="border-b border-rule text-sm font-normal normal-case tracking-normal">
+              Saved against the gutter layout
+            </th>
             <td className="text-right">{comparison.heightSaved == null ? "–" : mm(comparison.heightSaved)}</td>
           </tr>
         </tbody>

@@ -4,7 +4,6 @@ import { ResultsSection } from "./results-section";
 import { useSandbox } from "./store";
 import { citation, RULE_KEY_NAMES } from "~/lib/pack/rule-keys";
 
-
 /** The rule set the results used, value by value, each with its document and clause. */
 export function RuleSetSources({ analysis }: { analysis: Analysis }) {
   const { ruleSet } = analysis;
@@ -25,7 +24,13 @@ export function RuleSetSources({ analysis }: { analysis: Analysis }) {
             <tr key={u.key}>
               <td>{RULE_KEY_NAMES[u.key] ?? u.key}</td>
               <td className="whitespace-nowrap">
-                {u.unit === "ratio" ? <FallRatio ratio={u.value} /> : u.unit === "m" ? `${Math.round(u.value * 1000)} mm` : `× ${u.value}`}
+                {u.unit === "ratio" ? (
+                  <FallRatio ratio={u.value} />
+                ) : u.unit === "m" ? (
+                  `${Math.round(u.value * 1000)} mm`
+                ) : (
+                  `× ${u.value}`
+                )}
               </td>
               <td className="text-xs">
                 {citation(u)}

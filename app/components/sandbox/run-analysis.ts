@@ -19,6 +19,13 @@ export function runAnalysis(spec: RoofSpec): EngineOutcome {
     }
     return { ok: true, analysis: analyse(parsed.spec) };
   } catch (error) {
-    return { ok: false, error: { status: 500, message: `The engine could not analyse this roof: ${(error as Error)?.message ?? error}`, issues: [] } };
+    return {
+      ok: false,
+      error: {
+        status: 500,
+        message: `The engine could not analyse this roof: ${(error as Error)?.message ?? error}`,
+        issues: [],
+      },
+    };
   }
 }

@@ -22,8 +22,8 @@ export function SceneSummary() {
           ? `The longest fall line runs ${metres(longest.length, 1)} from ${point(longest.from)} to its drain, dropping ${mm(longest.drop)} at ${formatRatio(longest.ratio)} (${fallDetail(longest.ratio)}). `
           : "There is no fall line. "}
         {steep ? `${area(steep.area)} falls ${steep.label}; ` : ""}
-        {area(shaped.fallMap.flatterThanMinimumArea)} is flatter than the minimum {formatRatio(minFall.ratio)} (hatched).{" "}
-        {shaped.ponding.length ? `${shaped.ponding.length} place(s) hold water.` : "No water ponds."}
+        {area(shaped.fallMap.flatterThanMinimumArea)} is flatter than the minimum {formatRatio(minFall.ratio)}{" "}
+        (hatched). {shaped.ponding.length ? `${shaped.ponding.length} place(s) hold water.` : "No water ponds."}
       </p>
     </div>
   );

@@ -28,7 +28,11 @@ function columnsIn(system: UnitSystem) {
       column.accessor("endLevel", { header: "End level (mm)" }),
       column.accessor("startDrop", { header: "Start drop below H (mm)" }),
       column.accessor("endDrop", { header: "End drop below H (mm)" }),
-      column.accessor((r) => r.ratio ?? Infinity, { id: "fall", header: "Fall", cell: (c) => <FallRatio ratio={c.row.original.ratio} /> }),
+      column.accessor((r) => r.ratio ?? Infinity, {
+        id: "fall",
+        header: "Fall",
+        cell: (c) => <FallRatio ratio={c.row.original.ratio} />,
+      }),
     ];
   }
   const f = formatIn(system);
@@ -38,11 +42,31 @@ function columnsIn(system: UnitSystem) {
     column.accessor("offset", { header: "Offset", cell: (c) => f.metres(c.getValue()) }),
     column.accessor((r) => r.span ?? 0, { id: "span", header: "Span", cell: (c) => c.row.original.span ?? "" }),
     column.accessor("length", { header: "Length", cell: (c) => f.metres(c.getValue()) }),
-    column.accessor((r) => r.metres.startLevel, { id: "startLevel", header: "Start level (in)", cell: (c) => level(c.getValue()) }),
-    column.accessor((r) => r.metres.endLevel, { id: "endLevel", header: "End level (in)", cell: (c) => level(c.getValue()) }),
-    column.accessor((r) => r.metres.startDrop, { id: "startDrop", header: "Start drop below H (in)", cell: (c) => level(c.getValue()) }),
-    column.accessor((r) => r.metres.endDrop, { id: "endDrop", header: "End drop below H (in)", cell: (c) => level(c.getValue()) }),
-    column.accessor((r) => r.ratio ?? Infinity, { id: "fall", header: "Fall", cell: (c) => <FallRatio ratio={c.row.original.ratio} /> }),
+    column.accessor((r) => r.metres.startLevel, {
+      id: "startLevel",
+      header: "Start level (in)",
+      cell: (c) => level(c.getValue()),
+    }),
+    column.accessor((r) => r.metres.endLevel, {
+      id: "endLevel",
+      header: "End level (in)",
+      cell: (c) => level(c.getValue()),
+    }),
+    column.accessor((r) => r.metres.startDrop, {
+      id: "startDrop",
+      header: "Start drop below H (in)",
+      cell: (c) => level(c.getValue()),
+    }),
+    column.accessor((r) => r.metres.endDrop, {
+      id: "endDrop",
+      header: "End drop below H (in)",
+      cell: (c) => level(c.getValue()),
+    }),
+    column.accessor((r) => r.ratio ?? Infinity, {
+      id: "fall",
+      header: "Fall",
+      cell: (c) => <FallRatio ratio={c.row.original.ratio} />,
+    }),
   ];
 }
 
@@ -79,13 +103,7 @@ export default function ScheduleTable({ rows, system = "metric" }: { rows: Sched
                     <th
                       key={h.id}
                       scope="col"
-                      aria-sort={
-                        sorted === "asc"
-                          ? "ascending"
-                          : sorted === "desc"
-                            ? "descending"
-                            : "none"
-                      }
+                      aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : "none"}
                     >
                       <button
                         type="button"
@@ -109,9 +127,7 @@ export default function ScheduleTable({ rows, system = "metric" }: { rows: Sched
             {shown.map((row) => (
               <tr key={row.id}>
                 {row.getVisibleCells().map((cell) => (
-                  <td key={cell.id}>
-                    {flexRender(cell.column.columnDef.cell, cell.getContext())}
-                  </td>
+                  <td key={cell.id}>{flexRender(cell.column.columnDef.cell, cell.getContext())}</td>
                 ))}
               </tr>
             ))}
@@ -119,11 +135,7 @@ export default function ScheduleTable({ rows, system = "metric" }: { rows: Sched
         </table>
       </div>
       {rows.length > PAGE && (
-        <button
-          type="button"
-          className="btn mt-2"
-          onClick={() => setAll((a) => !a)}
-        >
+        <button type="button" className="btn mt-2" onClick={() => setAll((a) => !a)}>
           {all ? `Show the first ${PAGE}` : `Show all ${rows.length} spans`}
         </button>
       )}

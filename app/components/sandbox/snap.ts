@@ -45,7 +45,8 @@ function rightAngleLines(outline: Point[], index: number): Line[][] {
     ];
     const dx = neighbour[0] - beyond[0];
     const dy = neighbour[1] - beyond[1];
-    if (Math.hypot(dx, dy) > 1e-9 && Math.abs(dx) > 1e-9 && Math.abs(dy) > 1e-9) lines.push({ through: neighbour, dir: [-dy, dx] });
+    if (Math.hypot(dx, dy) > 1e-9 && Math.abs(dx) > 1e-9 && Math.abs(dy) > 1e-9)
+      lines.push({ through: neighbour, dir: [-dy, dx] });
     return lines;
   };
   return [around(at(index - 1), at(index - 2)), around(at(index + 1), at(index + 2))];

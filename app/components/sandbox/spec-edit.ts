@@ -44,7 +44,12 @@ export function attachOutlet(spec: RoofSpec, at: Point): { edge: number; t: numb
   return best;
 }
 
-function withOutlets(spec: RoofSpec, outline: Point[], attachments: { edge: number; t: number }[], edgeMap: (e: number) => number) {
+function withOutlets(
+  spec: RoofSpec,
+  outline: Point[],
+  attachments: { edge: number; t: number }[],
+  edgeMap: (e: number) => number,
+) {
   return spec.outlets.map((o, k) => {
     const a = attachments[k];
     return { ...o, at: pointOnEdge(outline, edgeMap(a.edge), a.t) };
@@ -174,13 +179,20 @@ export function addOpening(spec: RoofSpec, centre: Point, size = 1, kind: Openin
   if (openings.length >= 50) return spec;
   const h = size / 2;
   const [cx, cy] = centre;
-  const outline: Point[] = [roundPoint([cx - h, cy - h]), roundPoint([cx + h, cy - h]), roundPoint([cx + h, cy + h]), roundPoint([cx - h, cy + h])];
+  const outline: Point[] = [
+    roundPoint([cx - h, cy - h]),
+    roundPoint([cx + h, cy - h]),
+    roundPoint([cx + h, cy + h]),
+    roundPoint([cx - h, cy + h]),
+  ];
   return { ...spec, openings: [...openings, { outline, kind }] };
 }
 
 /** Moves opening `index` by (dx, dy) metres. */
 export function moveOpening(spec: RoofSpec, index: number, dx: number, dy: number): RoofSpec {
-  const openings = (spec.openings ?? []).map((o, k) => (k === index ? { ...o, outline: o.outline.map((p) => roundPoint([p[0] + dx, p[1] + dy])) } : o));
+  const openings = (spec.openings ?? []).map((o, k) =>
+    k === index ? { ...o, outline: o.outline.map((p) => roundPoint([p[0] + dx, p[1] + dy])) } : o,
+  );
   return { ...spec, openings };
 }
 

@@ -6,10 +6,7 @@ import type { RuleSetInfo } from "./engine-protocol";
 import type { EngineOutcome } from "./run-analysis";
 
 export type Selection =
-  | { kind: "vertex"; index: number }
-  | { kind: "edge"; index: number }
-  | { kind: "outlet"; index: number }
-  | null;
+  { kind: "vertex"; index: number } | { kind: "edge"; index: number } | { kind: "outlet"; index: number } | null;
 
 export type CameraPreset = "orbit" | "plan" | "section";
 
@@ -107,7 +104,10 @@ export type SandboxStore = StoreApi<SandboxState>;
  * the selection, view settings and the engine's latest answer. The engine runs in the browser
  * only (a worker), so the first render, on the server and in the browser alike, has no analysis yet.
  */
-export function createSandboxStore(initialSpec: RoofSpec, options: { readOnly?: boolean; view?: Partial<ViewSettings>; locks?: Locks | null } = {}) {
+export function createSandboxStore(
+  initialSpec: RoofSpec,
+  options: { readOnly?: boolean; view?: Partial<ViewSettings>; locks?: Locks | null } = {},
+) {
   return createStore<SandboxState>()((set, get) => ({
     spec: initialSpec,
     past: [],
@@ -132,7 +132,9 @@ export function createSandboxStore(initialSpec: RoofSpec, options: { readOnly?: 
       const locks = get().locks;
       const broken = locks ? locks.check(spec, next) : [];
       if (broken.length) {
-        set({ notice: `The ${broken.join(", ")} ${broken.length === 1 ? "is" : "are"} fixed by this task and cannot be changed. ${locks!.why}` });
+        set({
+          notice: `The ${broken.join(", ")} ${broken.length === 1 ? "is" : "are"} fixed by this task and cannot be changed. ${locks!.why}`,
+        });
         return;
       }
       const continuing = gesture != null && gesture === get().gesture;
@@ -159,12 +161,24 @@ export function createSandboxStore(initialSpec: RoofSpec, options: { readOnly?: 
     undo() {
       const { past, spec, future, readOnly } = get();
       if (readOnly || past.length === 0) return;
-      set({ spec: past[past.length - 1], past: past.slice(0, -1), future: [spec, ...future], gesture: null, selection: clampSelection(get().selection, past[past.length - 1]) });
+      set({
+        spec: past[past.length - 1],
+        past: past.slice(0, -1),
+        future: [spec, ...future],
+        gesture: null,
+        selection: clampSelection(get().selection, past[past.length - 1]),
+      });
     },
     redo() {
       const { past, spec, future, readOnly } = get();
       if (readOnly || future.length === 0) return;
-      set({ spec: future[0], past: [...past, spec], future: future.slice(1), gesture: null, selection: clampSelection(get().selection, future[0]) });
+      set({
+        spec: future[0],
+        past: [...past, spec],
+        future: future.slice(1),
+        gesture: null,
+        selection: clampSelection(get().selection, future[0]),
+      });
     },
     select(selection) {
       set({ selection });

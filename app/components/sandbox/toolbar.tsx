@@ -13,8 +13,17 @@ function Progress() {
     return () => clearTimeout(t);
   }, [computing]);
   return (
-    <span className="flex items-center gap-2 text-xs text-ink-soft" role="status" aria-live="polite" data-testid="engine-status" data-computing={computing ? "true" : "false"}>
-      <span className={`block h-1.5 w-16 animate-pulse rounded bg-accent ${shown ? "" : "invisible"}`} aria-hidden="true" />
+    <span
+      className="flex items-center gap-2 text-xs text-ink-soft"
+      role="status"
+      aria-live="polite"
+      data-testid="engine-status"
+      data-computing={computing ? "true" : "false"}
+    >
+      <span
+        className={`block h-1.5 w-16 animate-pulse rounded bg-accent ${shown ? "" : "invisible"}`}
+        aria-hidden="true"
+      />
       {shown ? "Computing…" : ""}
     </span>
   );
@@ -47,13 +56,33 @@ export function Toolbar({ extra }: { extra?: React.ReactNode }) {
   }
 
   return (
-    <div className="flex flex-wrap items-center gap-x-3 gap-y-2 border-b border-rule pb-2" role="toolbar" aria-label="Sandbox tools">
+    <div
+      className="flex flex-wrap items-center gap-x-3 gap-y-2 border-b border-rule pb-2"
+      role="toolbar"
+      aria-label="Sandbox tools"
+    >
       {!readOnly && (
         <span className="flex gap-1">
-          <button type="button" className="btn px-2" disabled={!canUndo} onClick={() => store.getState().undo()} aria-keyshortcuts="Control+Z" title="Undo (Ctrl+Z)" data-testid="undo">
+          <button
+            type="button"
+            className="btn px-2"
+            disabled={!canUndo}
+            onClick={() => store.getState().undo()}
+            aria-keyshortcuts="Control+Z"
+            title="Undo (Ctrl+Z)"
+            data-testid="undo"
+          >
             <Undo2 size={16} aria-hidden="true" /> Undo
           </button>
-          <button type="button" className="btn px-2" disabled={!canRedo} onClick={() => store.getState().redo()} aria-keyshortcuts="Control+Shift+Z" title="Redo (Ctrl+Shift+Z)" data-testid="redo">
+          <button
+            type="button"
+            className="btn px-2"
+            disabled={!canRedo}
+            onClick={() => store.getState().redo()}
+            aria-keyshortcuts="Control+Shift+Z"
+            title="Redo (Ctrl+Shift+Z)"
+            data-testid="redo"
+          >
             <Redo2 size={16} aria-hidden="true" /> Redo
           </button>
         </span>
@@ -61,34 +90,67 @@ export function Toolbar({ extra }: { extra?: React.ReactNode }) {
       {!readOnly && (
         <span className="flex flex-wrap items-center gap-2 text-sm">
           <label className="flex items-center gap-1.5">
-            <input type="checkbox" checked={view.snapToGrid} onChange={(e) => set({ snapToGrid: e.target.checked })} /> Snap to grid
+            <input type="checkbox" checked={view.snapToGrid} onChange={(e) => set({ snapToGrid: e.target.checked })} />{" "}
+            Snap to grid
           </label>
-          <select className="field w-auto px-1 py-0.5" aria-label="Grid step" value={view.gridStep} onChange={(e) => set({ gridStep: Number(e.target.value) })}>
+          <select
+            className="field w-auto px-1 py-0.5"
+            aria-label="Grid step"
+            value={view.gridStep}
+            onChange={(e) => set({ gridStep: Number(e.target.value) })}
+          >
             {[0.05, 0.1, 0.25, 0.5, 1].map((v) => (
-              <option key={v} value={v}>{v < 1 ? `${Math.round(v * 1000)} mm` : `${v} m`}</option>
+              <option key={v} value={v}>
+                {v < 1 ? `${Math.round(v * 1000)} mm` : `${v} m`}
+              </option>
             ))}
           </select>
           <label className="flex items-center gap-1.5">
-            <input type="checkbox" checked={view.snapRightAngles} onChange={(e) => set({ snapRightAngles: e.target.checked })} /> Right angles
+            <input
+              type="checkbox"
+              checked={view.snapRightAngles}
+              onChange={(e) => set({ snapRightAngles: e.target.checked })}
+            />{" "}
+            Right angles
           </label>
         </span>
       )}
       <span className="flex gap-1" role="group" aria-label="Layout">
-        <button type="button" className={`btn px-2 ${view.mode === "single" ? "bg-ink text-sheet hover:bg-ink" : ""}`} aria-pressed={view.mode === "single"}
-          onClick={() => set({ mode: "single" })}>
+        <button
+          type="button"
+          className={`btn px-2 ${view.mode === "single" ? "bg-ink text-sheet hover:bg-ink" : ""}`}
+          aria-pressed={view.mode === "single"}
+          onClick={() => set({ mode: "single" })}
+        >
           <Square size={16} aria-hidden="true" /> Shaped roof
         </button>
-        <button type="button" className={`btn px-2 ${view.mode === "side-by-side" ? "bg-ink text-sheet hover:bg-ink" : ""}`} aria-pressed={view.mode === "side-by-side"}
-          onClick={() => set({ mode: "side-by-side", camera: view.camera === "section" ? "orbit" : view.camera })} data-testid="side-by-side-toggle">
+        <button
+          type="button"
+          className={`btn px-2 ${view.mode === "side-by-side" ? "bg-ink text-sheet hover:bg-ink" : ""}`}
+          aria-pressed={view.mode === "side-by-side"}
+          onClick={() => set({ mode: "side-by-side", camera: view.camera === "section" ? "orbit" : view.camera })}
+          data-testid="side-by-side-toggle"
+        >
           <Columns3 size={16} aria-hidden="true" /> Side-by-side
         </button>
       </span>
-      <a className={`btn px-2 ${hasAnalysis ? "" : "pointer-events-none opacity-50"}`} href="/sandbox/sheet" target="_blank" rel="noopener" onClick={openSheet} data-testid="check-sheet-link">
+      <a
+        className={`btn px-2 ${hasAnalysis ? "" : "pointer-events-none opacity-50"}`}
+        href="/sandbox/sheet"
+        target="_blank"
+        rel="noopener"
+        onClick={openSheet}
+        data-testid="check-sheet-link"
+      >
         <FileText size={16} aria-hidden="true" /> Check sheet
       </a>
       {extra}
       <span className="ml-auto flex items-center gap-3">
-        {notice && <span className="text-xs text-ink-soft" data-testid="notice">{notice}</span>}
+        {notice && (
+          <span className="text-xs text-ink-soft" data-testid="notice">
+            {notice}
+          </span>
+        )}
         <Progress />
       </span>
     </div>

@@ -13,10 +13,9 @@ export function useNearViewport(margin = "600px") {
       setNear(true);
       return;
     }
-    const observer = new IntersectionObserver(
-      ([entry]) => entry.isIntersecting && setNear(true),
-      { rootMargin: margin },
-    );
+    const observer = new IntersectionObserver(([entry]) => entry.isIntersecting && setNear(true), {
+      rootMargin: margin,
+    });
     observer.observe(element);
     return () => observer.disconnect();
   }, [element, margin, near]);

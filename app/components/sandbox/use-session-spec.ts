@@ -18,7 +18,8 @@ export function useSessionSpec(store: SandboxStore, key: string | undefined, res
     const opening = store.getState().spec;
     const check = (engine: NonNullable<ReturnType<SandboxStore["getState"]>["engine"]>) =>
       void engine.parseSpec(saved).then((parsed) => {
-        if (parsed.ok && store.getState().spec === opening) store.getState().replaceSpec(parsed.spec, { resetHistory: true });
+        if (parsed.ok && store.getState().spec === opening)
+          store.getState().replaceSpec(parsed.spec, { resetHistory: true });
       });
     let stopWaiting = () => {};
     if (saved != null) {

@@ -12,8 +12,8 @@ export class ViewBoundary extends Component<{ children: ReactNode }, { failed: b
     if (this.state.failed) {
       return (
         <div className="flex h-full items-center justify-center p-6 text-center text-sm text-ink-soft" role="note">
-          The 3D view could not start in this browser (WebGL may be turned off). The plan, the figures and the description
-          below still work.
+          The 3D view could not start in this browser (WebGL may be turned off). The plan, the figures and the
+          description below still work.
         </div>
       );
     }

@@ -12,7 +12,14 @@ import { PlanEditor } from "./plan-editor";
 import { ResultsPanel } from "./results-panel";
 import { SceneSummary } from "./scene-summary";
 import { SettingsPanel } from "./settings-panel";
-import { createSandboxStore, SandboxStoreContext, useSandbox, type Locks, type SandboxStore, type ViewSettings } from "./store";
+import {
+  createSandboxStore,
+  SandboxStoreContext,
+  useSandbox,
+  type Locks,
+  type SandboxStore,
+  type ViewSettings,
+} from "./store";
 import { Toolbar } from "./toolbar";
 import type { Underlay } from "./underlay";
 import { useEngine } from "./use-engine";
@@ -47,7 +54,19 @@ export interface SandboxWorkspaceProps {
   panel?: React.ReactNode;
 }
 
-function Card({ title, children, aside, className = "", testId }: { title: string; children: React.ReactNode; aside?: React.ReactNode; className?: string; testId?: string }) {
+function Card({
+  title,
+  children,
+  aside,
+  className = "",
+  testId,
+}: {
+  title: string;
+  children: React.ReactNode;
+  aside?: React.ReactNode;
+  className?: string;
+  testId?: string;
+}) {
   return (
     <section className={`card min-w-0 ${className}`} aria-label={title} data-testid={testId}>
       <div className="mb-2 flex flex-wrap items-baseline justify-between gap-2">
@@ -65,13 +84,26 @@ function useMounted() {
   return mounted;
 }
 
-const loading3d = <div className="flex h-full items-center justify-center text-sm text-ink-soft">Loading the 3D view…</div>;
+const loading3d = (
+  <div className="flex h-full items-center justify-center text-sm text-ink-soft">Loading the 3D view…</div>
+);
 
 /**
  * The sandbox: plan editor, 3D fall map (or side-by-side), key figures, inputs, results and the
  * drop schedule around one per-page store. Used by /sandbox, and by saved roofs and lessons.
  */
-export function SandboxWorkspace({ initialSpec, onSpecChange, readOnly = false, underlay, toolbarExtra, restoreKey, restore = true, initialView, locks, panel }: SandboxWorkspaceProps) {
+export function SandboxWorkspace({
+  initialSpec,
+  onSpecChange,
+  readOnly = false,
+  underlay,
+  toolbarExtra,
+  restoreKey,
+  restore = true,
+  initialView,
+  locks,
+  panel,
+}: SandboxWorkspaceProps) {
   const [store] = useState<SandboxStore>(() => createSandboxStore(initialSpec, { readOnly, view: initialView, locks }));
   useEngine(store);
   useUndoShortcuts(store);
@@ -113,7 +145,15 @@ function Layout({ underlay, toolbarExtra }: { underlay?: Underlay; toolbarExtra?
   const resetCamera = () => setCameraReset((n) => n + 1);
 
   const plan = (
-    <Card title="Plan" testId="plan-card" aside={<span className="text-xs text-ink-soft">{readOnly ? "view only" : "drag corners · click an edge for an outlet · double-click to add a corner"}</span>}>
+    <Card
+      title="Plan"
+      testId="plan-card"
+      aside={
+        <span className="text-xs text-ink-soft">
+          {readOnly ? "view only" : "drag corners · click an edge for an outlet · double-click to add a corner"}
+        </span>
+      }
+    >
       <PlanEditor underlay={underlay} />
       <div className="mt-2">
         <EngineErrorNote />
@@ -131,7 +171,11 @@ function Layout({ underlay, toolbarExtra }: { underlay?: Underlay; toolbarExtra?
       {mode === "single" ? (
         <div className="grid gap-4 md:grid-cols-2">
           {plan}
-          <Card title="Fall map" testId="fall-map-card" aside={<span className="text-xs text-ink-soft">drag to turn · wheel to zoom</span>}>
+          <Card
+            title="Fall map"
+            testId="fall-map-card"
+            aside={<span className="text-xs text-ink-soft">drag to turn · wheel to zoom</span>}
+          >
             <ViewControls onReset={resetCamera} />
             <div className="mt-2 aspect-[4/3] w-full overflow-hidden rounded border border-rule bg-paper-deep">
               <ViewBoundary>
@@ -148,7 +192,9 @@ function Layout({ underlay, toolbarExtra }: { underlay?: Underlay; toolbarExtra?
               <FallLegend minRatio={minRatio} />
             </div>
             <details className="mt-1 text-sm" open>
-              <summary className="cursor-pointer text-xs font-medium uppercase tracking-wide text-ink-soft">What the view shows</summary>
+              <summary className="cursor-pointer text-xs font-medium uppercase tracking-wide text-ink-soft">
+                What the view shows
+              </summary>
               <SceneSummary />
             </details>
           </Card>

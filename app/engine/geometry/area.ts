@@ -5,4 +5,3 @@ export function signedArea(xs: ArrayLike<number>, ys: ArrayLike<number>): number
   for (let i = 0, j = n - 1; i < n; j = i++) sum += (xs[j] - xs[i]) * (ys[j] + ys[i]);
   return sum / 2;
 }
-

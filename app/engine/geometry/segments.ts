@@ -9,8 +9,14 @@ function onSegment(ax: number, ay: number, bx: number, by: number, px: number, p
 
 /** True when closed segments ab and cd share any point (touching counts). */
 export function segmentsTouch(
-  ax: number, ay: number, bx: number, by: number,
-  cx: number, cy: number, dx: number, dy: number,
+  ax: number,
+  ay: number,
+  bx: number,
+  by: number,
+  cx: number,
+  cy: number,
+  dx: number,
+  dy: number,
 ): boolean {
   const o1 = Math.sign(orient(ax, ay, bx, by, cx, cy));
   const o2 = Math.sign(orient(ax, ay, bx, by, dx, dy));
@@ -26,7 +32,12 @@ export function segmentsTouch(
 
 /** Distance from p to segment ab and the parameter (0..1) of the nearest point. */
 export function nearestOnSegment(
-  ax: number, ay: number, bx: number, by: number, px: number, py: number,
+  ax: number,
+  ay: number,
+  bx: number,
+  by: number,
+  px: number,
+  py: number,
 ): { distance: number; s: number; x: number; y: number } {
   const ex = bx - ax;
   const ey = by - ay;

@@ -10,9 +10,14 @@ import { traineeGrades } from "~/lib/grades.server";
 /** The body of POST /api/v1/attempts and of the player's form (after decoding). */
 export const submissionSchema = z.object({
   lesson: z.string({ error: "must be the lesson's slug" }).min(1).max(100),
-  version: z.string().regex(/^[0-9a-f]{64}$/, "must be the lesson's version hash").optional(),
+  version: z
+    .string()
+    .regex(/^[0-9a-f]{64}$/, "must be the lesson's version hash")
+    .optional(),
   answers: z
-    .record(z.string().max(40), z.union([z.string().max(200), z.array(z.string().max(40)).max(8)]), { error: "must map question ids to answers" })
+    .record(z.string().max(40), z.union([z.string().max(200), z.array(z.string().max(40)).max(8)]), {
+      error: "must map question ids to answers",
+    })
     .refine((a) => Object.keys(a).length <= 50, "has too many answers")
     .default({}),
   spec: z.unknown(),
@@ -55,8 +60,18 @@ type Row = {
 };
 
 const COLUMNS = [
-  "a.id", "a.trainee_id", "a.lesson_slug", "a.lesson_version", "l.title", "a.submitted_at", "a.score", "a.passed",
-  "a.time_spent_s", "a.answers", "a.spec", "a.results",
+  "a.id",
+  "a.trainee_id",
+  "a.lesson_slug",
+  "a.lesson_version",
+  "l.title",
+  "a.submitted_at",
+  "a.score",
+  "a.passed",
+  "a.time_spent_s",
+  "a.answers",
+  "a.spec",
+  "a.results",
 ];
 
 function view(r: Row): AttemptView {
@@ -76,7 +91,8 @@ function view(r: Row): AttemptView {
   };
 }
 
-const selectAttempts = (knex: Knex) => knex("attempts as a").leftJoin("lessons as l", "l.slug", "a.lesson_slug").select(COLUMNS);
+const selectAttempts = (knex: Knex) =>
+  knex("attempts as a").leftJoin("lessons as l", "l.slug", "a.lesson_slug").select(COLUMNS);
 
 export type CreateOutcome =
   | { status: 200 | 201; attempt: AttemptView }
@@ -94,7 +110,12 @@ export async function createAttempt(
   current: (slug: string) => Lesson | null,
 ): Promise<CreateOutcome> {
   // The key names the submission: a repeat must ask for the same grade of the same work.
-  const hash = requestHash({ lesson: sub.lesson, version: sub.version ?? null, answers: sub.answers, spec: sub.spec ?? null });
+  const hash = requestHash({
+    lesson: sub.lesson,
+    version: sub.version ?? null,
+    answers: sub.answers,
+    spec: sub.spec ?? null,
+  });
   const existing = await findByKey(knex, traineeId, sub.idempotencyKey);
   if (existing) return repeatOf(existing, sub.idempotencyKey, hash);
 
@@ -102,10 +123,19 @@ export async function createAttempt(
   if (!lesson) return { status: 404, message: `There is no lesson "${sub.lesson}".` };
   if (sub.version && sub.version !== lesson.version) {
     lesson = await lessonVersion(knex, sub.lesson, sub.version);
-    if (!lesson) return { status: 409, message: "This lesson has changed since the page was opened. Reload it; your answers are kept in the form." };
+    if (!lesson)
+      return {
+        status: 409,
+        message: "This lesson has changed since the page was opened. Reload it; your answers are kept in the form.",
+      };
   }
   const graded = gradeLesson(lesson, sub.answers, sub.spec);
-  if ("ok" in graded) return { status: graded.status, message: graded.message, issues: graded.issues.map((i) => ({ ...i, path: `spec.${i.path}` })) };
+  if ("ok" in graded)
+    return {
+      status: graded.status,
+      message: graded.message,
+      issues: graded.issues.map((i) => ({ ...i, path: `spec.${i.path}` })),
+    };
 
   const inserted = await knex("attempts")
     .insert({
@@ -131,18 +161,36 @@ export async function createAttempt(
 
 function repeatOf(found: { attempt: AttemptView; hash: string | null }, key: string, hash: string): CreateOutcome {
   if (!sameRequest(found.hash, hash)) {
-    return { status: 422, message: keyReusedMessage(key), issues: [{ path: "idempotencyKey", message: "was already used for a different submission" }] };
+    return {
+      status: 422,
+      message: keyReusedMessage(key),
+      issues: [{ path: "idempotencyKey", message: "was already used for a different submission" }],
+    };
   }
   return { status: 200, attempt: found.attempt };
 }
 
-async function findByKey(knex: Knex, traineeId: string, key: string): Promise<{ attempt: AttemptView; hash: string | null } | null> {
-  const row = await selectAttempts(knex).select("a.idempotency_hash").where({ "a.trainee_id": traineeId, "a.idempotency_key": key }).first();
+async function findByKey(
+  knex: Knex,
+  traineeId: string,
+  key: string,
+): Promise<{ attempt: AttemptView; hash: string | null } | null> {
+  const row = await selectAttempts(knex)
+    .select("a.idempotency_hash")
+    .where({ "a.trainee_id": traineeId, "a.idempotency_key": key })
+    .first();
   return row ? { attempt: view(row), hash: row.idempotency_hash ?? null } : null;
 }
 
-export async function listAttempts(knex: Knex, traineeId: string, opts: { lesson?: string; limit?: number } = {}): Promise<AttemptView[]> {
-  const q = selectAttempts(knex).where("a.trainee_id", traineeId).orderBy("a.submitted_at", "desc").limit(opts.limit ?? 500);
+export async function listAttempts(
+  knex: Knex,
+  traineeId: string,
+  opts: { lesson?: string; limit?: number } = {},
+): Promise<AttemptView[]> {
+  const q = selectAttempts(knex)
+    .where("a.trainee_id", traineeId)
+    .orderBy("a.submitted_at", "desc")
+    .limit(opts.limit ?? 500);
   if (opts.lesson) q.andWhere("a.lesson_slug", opts.lesson);
   return (await q).map(view);
 }

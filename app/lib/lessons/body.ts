@@ -47,13 +47,19 @@ export function parseBody(body: string, lineOffset: number): { blocks: Block[]; 
     try {
       data = yaml.parse(content);
     } catch (e) {
-      issues.push({ path: `body line ${line} (roof figure)`, message: `is not valid YAML (text holding ": " must be in quotes): ${(e as Error).message.split("\n")[0]}` });
+      issues.push({
+        path: `body line ${line} (roof figure)`,
+        message: `is not valid YAML (text holding ": " must be in quotes): ${(e as Error).message.split("\n")[0]}`,
+      });
       continue;
     }
     const figure = figureSchema.safeParse(data);
     if (!figure.success) {
       for (const i of figure.error.issues) {
-        issues.push({ path: `body line ${line} (roof figure)${i.path.length ? ` ${i.path.join(".")}` : ""}`, message: i.message });
+        issues.push({
+          path: `body line ${line} (roof figure)${i.path.length ? ` ${i.path.join(".")}` : ""}`,
+          message: i.message,
+        });
       }
       continue;
     }

@@ -34,5 +34,7 @@ export function ensureLessonsSynced(knex: Knex = db()): Promise<void> {
 }
 
 if (!process.env.VITEST && process.env.DATABASE_URL) {
-  ensureLessonsSynced().catch((e: Error) => console.warn(`[lessons] sync at start-up failed, will retry on first use: ${e.message}`));
+  ensureLessonsSynced().catch((e: Error) =>
+    console.warn(`[lessons] sync at start-up failed, will retry on first use: ${e.message}`),
+  );
 }

@@ -45,7 +45,9 @@ export function formatLimit(kind: LimitKind, v: number | null): string {
 }
 
 const ratioOrLevel = (r: number | null | undefined): Measured =>
-  r == null || !Number.isFinite(r) ? { value: Number.POSITIVE_INFINITY, text: "level (no fall)" } : { value: r, text: formatRatio(r) };
+  r == null || !Number.isFinite(r)
+    ? { value: Number.POSITIVE_INFINITY, text: "level (no fall)" }
+    : { value: r, text: formatRatio(r) };
 
 const outletCatchments = (a: Analysis) => a.shaped.catchments.filter((c) => c.kind === "outlet");
 
@@ -69,7 +71,10 @@ export const CRITERION_KINDS = {
     limit: "ratio",
     compare: "atMost",
     label: (l) => `Flattest fall line no flatter than ${l}`,
-    measure: (a) => (a.shaped.worstFallRatio == null ? { value: null, text: "no fall line (no drain)" } : ratioOrLevel(a.shaped.worstFallRatio)),
+    measure: (a) =>
+      a.shaped.worstFallRatio == null
+        ? { value: null, text: "no fall line (no drain)" }
+        : ratioOrLevel(a.shaped.worstFallRatio),
   },
   edgeFallRatioAtMost: {
     limit: "ratio",
@@ -104,20 +109,29 @@ export const CRITERION_KINDS = {
       const pits = a.shaped.ponding;
       if (!pits.length) return { value: 0, text: "no ponding" };
       const area = pits.reduce((s, p) => s + p.area, 0);
-      return { value: pits.length, text: `${pits.length} ponding ${pits.length === 1 ? "place" : "places"}, ${m2(area)} draining to them` };
+      return {
+        value: pits.length,
+        text: `${pits.length} ponding ${pits.length === 1 ? "place" : "places"}, ${m2(area)} draining to them`,
+      };
     },
   },
   maxOutlets: {
     limit: "count",
     compare: "atMost",
     label: (l) => `At most ${l} ${l === "1" ? "outlet" : "outlets"}`,
-    measure: (_a, spec) => ({ value: spec.outlets.length, text: `${spec.outlets.length} ${spec.outlets.length === 1 ? "outlet" : "outlets"}` }),
+    measure: (_a, spec) => ({
+      value: spec.outlets.length,
+      text: `${spec.outlets.length} ${spec.outlets.length === 1 ? "outlet" : "outlets"}`,
+    }),
   },
   minOutlets: {
     limit: "count",
     compare: "atLeast",
     label: (l) => `At least ${l} ${l === "1" ? "outlet" : "outlets"}`,
-    measure: (_a, spec) => ({ value: spec.outlets.length, text: `${spec.outlets.length} ${spec.outlets.length === 1 ? "outlet" : "outlets"}` }),
+    measure: (_a, spec) => ({
+      value: spec.outlets.length,
+      text: `${spec.outlets.length} ${spec.outlets.length === 1 ? "outlet" : "outlets"}`,
+    }),
   },
   minEavesEdges: {
     limit: "count",
@@ -132,7 +146,10 @@ export const CRITERION_KINDS = {
     limit: "area",
     compare: "atMost",
     label: (l) => `Area flatter than the minimum fall at most ${l}`,
-    measure: (a) => ({ value: a.shaped.fallMap.flatterThanMinimumArea, text: m2(a.shaped.fallMap.flatterThanMinimumArea) }),
+    measure: (a) => ({
+      value: a.shaped.fallMap.flatterThanMinimumArea,
+      text: m2(a.shaped.fallMap.flatterThanMinimumArea),
+    }),
   },
   flatShareAtMost: {
     limit: "percent",
@@ -152,7 +169,10 @@ export const CRITERION_KINDS = {
       const c = outletCatchments(a);
       if (!c.length) return { value: null, text: "no outlet catchment" };
       const busiest = c.reduce((x, y) => (y.flow > x.flow ? y : x));
-      return { value: busiest.flow, text: `${ls(busiest.flow)} (${busiest.label}, ${m2(busiest.area)} at ${a.rainfall.intensity} mm/h)` };
+      return {
+        value: busiest.flow,
+        text: `${ls(busiest.flow)} (${busiest.label}, ${m2(busiest.area)} at ${a.rainfall.intensity} mm/h)`,
+      };
     },
   },
   catchmentAreaAtMost: {
@@ -184,7 +204,11 @@ export const CRITERION_KIND_IDS = Object.keys(CRITERION_KINDS) as [CriterionKind
  * Measures one criterion on an analysed roof and says whether it is met. Shared by the server's
  * grading and the lesson editor's live feedback (the server's grade is the one that counts).
  */
-export function checkCriterion(c: { kind: CriterionKindId; limit: number }, analysis: Analysis, spec: RoofSpec): { passed: boolean; measured: Measured } {
+export function checkCriterion(
+  c: { kind: CriterionKindId; limit: number },
+  analysis: Analysis,
+  spec: RoofSpec,
+): { passed: boolean; measured: Measured } {
   const kind = CRITERION_KINDS[c.kind];
   const measured = kind.measure(analysis, spec);
   const v = measured.value;

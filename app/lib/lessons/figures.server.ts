@@ -26,13 +26,20 @@ function keyFigures(a: Analysis, spec: RoofSpec): FigureData["key"] {
   const out: FigureData["key"] = [
     { label: "High level (height budget)", value: mm(a.shaped.highLevel) },
     { label: "Base fall", value: formatRatio(a.baseFall.ratio) },
-    { label: "Longest fall line", value: line ? `${formatRatio(line.ratio)} · ${line.length.toFixed(1)} m · drop ${mm(line.drop)}` : "none" },
+    {
+      label: "Longest fall line",
+      value: line ? `${formatRatio(line.ratio)} · ${line.length.toFixed(1)} m · drop ${mm(line.drop)}` : "none",
+    },
     { label: "Flattest fall line", value: formatRatio(a.shaped.worstFallRatio) },
-    { label: `Area flatter than ${formatRatio(a.minFall.ratio)}`, value: `${a.shaped.fallMap.flatterThanMinimumArea.toFixed(1)} m² of ${a.area.toFixed(1)} m²` },
+    {
+      label: `Area flatter than ${formatRatio(a.minFall.ratio)}`,
+      value: `${a.shaped.fallMap.flatterThanMinimumArea.toFixed(1)} m² of ${a.area.toFixed(1)} m²`,
+    },
     { label: "Outlets", value: String(spec.outlets.length) },
     { label: "Ponding", value: a.shaped.ponding.length ? `${a.shaped.ponding.length} place(s)` : "none" },
   ];
-  if (a.comparison.heightSaved != null) out.push({ label: "Height saved against an internal gutter", value: mm(a.comparison.heightSaved) });
+  if (a.comparison.heightSaved != null)
+    out.push({ label: "Height saved against an internal gutter", value: mm(a.comparison.heightSaved) });
   return out;
 }
 
@@ -41,13 +48,20 @@ function keyFigures(a: Analysis, spec: RoofSpec): FigureData["key"] {
  * probes (the chord-rule surface itself), the fall from differences between neighbours. Cells
  * just outside the outline borrow a neighbour's value; the drawing is clipped to the outline.
  */
-function fallGrid(spec: RoofSpec, b: { minX: number; minY: number; span: number; w: number; h: number }, minRatio: number) {
+function fallGrid(
+  spec: RoofSpec,
+  b: { minX: number; minY: number; span: number; w: number; h: number },
+  minRatio: number,
+) {
   const cell = b.span / 44;
   const nx = Math.max(1, Math.ceil(b.w / cell));
   const ny = Math.max(1, Math.ceil(b.h / cell));
   const probes: [number, number][] = [];
-  for (let j = 0; j < ny; j++) for (let i = 0; i < nx; i++) probes.push([b.minX + (i + 0.5) * cell, b.minY + (j + 0.5) * cell]);
-  const levels = analyse(structuredClone({ ...spec, probes }), { traces: false, mesh: false }).shaped.probes.map((q) => q.level);
+  for (let j = 0; j < ny; j++)
+    for (let i = 0; i < nx; i++) probes.push([b.minX + (i + 0.5) * cell, b.minY + (j + 0.5) * cell]);
+  const levels = analyse(structuredClone({ ...spec, probes }), { traces: false, mesh: false }).shaped.probes.map(
+    (q) => q.level,
+  );
   const z = (i: number, j: number) => (i < 0 || j < 0 || i >= nx || j >= ny ? null : levels[j * nx + i]);
   const slope = (i: number, j: number, di: number, dj: number) => {
     const a = z(i - di, j - dj);
@@ -70,7 +84,16 @@ function fallGrid(spec: RoofSpec, b: { minX: number; minY: number; span: number;
     if (r !== undefined) return r;
     const i = k % nx;
     const j = Math.floor(k / nx);
-    for (const [di, dj] of [[1, 0], [-1, 0], [0, 1], [0, -1], [1, 1], [-1, -1], [1, -1], [-1, 1]]) {
+    for (const [di, dj] of [
+      [1, 0],
+      [-1, 0],
+      [0, 1],
+      [0, -1],
+      [1, 1],
+      [-1, -1],
+      [1, -1],
+      [-1, 1],
+    ]) {
       const ii = i + di;
       const jj = j + dj;
       if (ii >= 0 && jj >= 0 && ii < nx && jj < ny && ratio[jj * nx + ii] !== undefined) return ratio[jj * nx + ii];
@@ -84,7 +107,7 @@ function fallGrid(spec: RoofSpec, b: { minX: number; minY: number; span: number;
   const isFlat = (r: number | null | undefined) => r === null || (r !== undefined && r > minRatio);
   for (let j = 0; j < ny; j++) {
     const row = filled.slice(j * nx, (j + 1) * nx);
-    for (let i = 0; i < nx; ) {
+    for (let i = 0; i < nx;) {
       if (row[i] === undefined) {
         i++;
         continue;
@@ -95,7 +118,7 @@ function fallGrid(spec: RoofSpec, b: { minX: number; minY: number; span: number;
       (groups.get(fill) ?? groups.set(fill, []).get(fill)!).push(run(i, k, j));
       i = k;
     }
-    for (let i = 0; i < nx; ) {
+    for (let i = 0; i < nx;) {
       if (!isFlat(row[i])) {
         i++;
         continue;
@@ -115,13 +138,18 @@ function fallGrid(spec: RoofSpec, b: { minX: number; minY: number; span: number;
 
 /** Catchments from the engine's mesh (coarsened: the surface does not depend on joist spacing). */
 function catchmentFaces(spec: RoofSpec, area: number): FigureData["fills"] {
-  const coarse: RoofSpec = { ...spec, joists: { ...spec.joists, spacing: Math.max(spec.joists?.spacing ?? 0.4, Math.sqrt(area / 300)) } };
+  const coarse: RoofSpec = {
+    ...spec,
+    joists: { ...spec.joists, spacing: Math.max(spec.joists?.spacing ?? 0.4, Math.sqrt(area / 300)) },
+  };
   const mesh = analyse(structuredClone(coarse), { traces: false }).shaped.mesh;
   if (!mesh) return [];
   const groups = new Map<string, string[]>();
   for (let f = 0; f < mesh.indices.length / 3; f++) {
     const fill = CATCHMENT_FILLS[mesh.faceDrain[f] % CATCHMENT_FILLS.length];
-    (groups.get(fill) ?? groups.set(fill, []).get(fill)!).push(tri(mesh.positions, mesh.indices[f * 3], mesh.indices[f * 3 + 1], mesh.indices[f * 3 + 2]));
+    (groups.get(fill) ?? groups.set(fill, []).get(fill)!).push(
+      tri(mesh.positions, mesh.indices[f * 3], mesh.indices[f * 3 + 1], mesh.indices[f * 3 + 2]),
+    );
   }
   return [...groups].map(([fill, ds]) => ({ fill, d: ds.join("") }));
 }
@@ -144,7 +172,8 @@ export function buildFigure(figure: Figure): FigureData {
   let flat = "";
   let grid: FigureData["grid"] = null;
   if (figure.view === "catchments") fills = catchmentFaces(spec, a.area);
-  else if (figure.view === "plan" || figure.view === "3d") ({ fills, flat, grid } = fallGrid(spec, { minX, minY, span, w: maxX - minX, h: maxY - minY }, a.minFall.ratio));
+  else if (figure.view === "plan" || figure.view === "3d")
+    ({ fills, flat, grid } = fallGrid(spec, { minX, minY, span, w: maxX - minX, h: maxY - minY }, a.minFall.ratio));
   const line = a.shaped.longestFallLine;
   return {
     ...base,
@@ -159,14 +188,34 @@ export function buildFigure(figure: Figure): FigureData {
     fills,
     flat,
     grid,
-    longest: line ? { d: (line.path.length >= 2 ? line.path : [line.from, line.to]).map((q, i) => `${i ? "L" : "M"}${r2(q[0])} ${r2(-q[1])}`).join(""), label: `${formatRatio(line.ratio)} over ${line.length.toFixed(1)} m` } : null,
+    longest: line
+      ? {
+          d: (line.path.length >= 2 ? line.path : [line.from, line.to])
+            .map((q, i) => `${i ? "L" : "M"}${r2(q[0])} ${r2(-q[1])}`)
+            .join(""),
+          label: `${formatRatio(line.ratio)} over ${line.length.toFixed(1)} m`,
+        }
+      : null,
     minRatio: a.minFall.ratio,
     key: keyFigures(a, spec),
-    catchments: a.shaped.catchments.map((c, i) => ({ label: c.label, area: r2(c.area), flow: r2(c.flow), fill: CATCHMENT_FILLS[i % CATCHMENT_FILLS.length] })),
+    catchments: a.shaped.catchments.map((c, i) => ({
+      label: c.label,
+      area: r2(c.area),
+      flow: r2(c.flow),
+      fill: CATCHMENT_FILLS[i % CATCHMENT_FILLS.length],
+    })),
     intensity: a.rainfall.intensity,
     schedule:
       figure.view === "schedule"
-        ? a.shaped.joists.flatMap((j) => j.spans.map((s) => ({ joist: j.index + 1, length: r2(s.length), startDrop: Math.round(s.startDrop * 1000), endDrop: Math.round(s.endDrop * 1000), ratio: formatRatio(s.ratio) })))
+        ? a.shaped.joists.flatMap((j) =>
+            j.spans.map((s) => ({
+              joist: j.index + 1,
+              length: r2(s.length),
+              startDrop: Math.round(s.startDrop * 1000),
+              endDrop: Math.round(s.endDrop * 1000),
+              ratio: formatRatio(s.ratio),
+            })),
+          )
         : [],
     compare:
       figure.view === "compare"
@@ -185,7 +234,25 @@ export function buildFigure(figure: Figure): FigureData {
 }
 
 function empty(base: Pick<FigureData, "caption" | "view" | "spec">): FigureData {
-  return { ...base, viewBox: "0 0 1 1", unit: 1, outline: "", edges: [], outlets: [], fills: [], flat: "", grid: null, longest: null, minRatio: 100, key: [], catchments: [], intensity: 0, schedule: [], compare: null, error: null };
+  return {
+    ...base,
+    viewBox: "0 0 1 1",
+    unit: 1,
+    outline: "",
+    edges: [],
+    outlets: [],
+    fills: [],
+    flat: "",
+    grid: null,
+    longest: null,
+    minRatio: 100,
+    key: [],
+    catchments: [],
+    intensity: 0,
+    schedule: [],
+    compare: null,
+    error: null,
+  };
 }
 
 const cache = new Map<string, FigureData>();

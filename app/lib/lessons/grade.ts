@@ -47,17 +47,28 @@ const EPS = 1e-9;
 /** "0.49 kN/m^2" as people write it: "0.49 kN/m²". */
 const pretty = (text: string) => text.replace(/\^2\b/g, "²").replace(/\^3\b/g, "³");
 
-export function gradeNumeric(q: Extract<Question, { kind: "numeric" }>, given: string | undefined): Omit<ItemResult, "section" | "label"> {
+export function gradeNumeric(
+  q: Extract<Question, { kind: "numeric" }>,
+  given: string | undefined,
+): Omit<ItemResult, "section" | "label"> {
   const base = { id: q.id, weight: q.weight };
-  const fail = (feedback: string, measured: string | null = given ?? null) => ({ ...base, passed: false, score: 0, feedback, measured });
+  const fail = (feedback: string, measured: string | null = given ?? null) => ({
+    ...base,
+    passed: false,
+    score: 0,
+    feedback,
+    measured,
+  });
   if (!given || !given.trim()) return fail("No answer given.", null);
   const expected = parseQuantity(q.answer);
-  if (!expected.ok || expected.bare) return fail("This question cannot be marked (its answer is malformed); tell your trainer.");
+  if (!expected.ok || expected.bare)
+    return fail("This question cannot be marked (its answer is malformed); tell your trainer.");
   const read = parseQuantity(given);
   if (!read.ok) return fail(`"${given}" ${read.error}.`);
   let unit = read.bare ? null : read.unit;
   if (read.bare) {
-    if (!q.bareUnit) return fail(`"${given}" has no unit. Give ${dimensionName(expected.unit)}, for example ${q.answer}.`);
+    if (!q.bareUnit)
+      return fail(`"${given}" has no unit. Give ${dimensionName(expected.unit)}, for example ${q.answer}.`);
     unit = quantityOf(read.number, q.bareUnit);
   }
   if (!unit || !sameDimension(unit, expected.unit)) {
@@ -75,27 +86,64 @@ export function gradeNumeric(q: Extract<Question, { kind: "numeric" }>, given: s
   const ok = Math.abs(got - want) <= tol + EPS * Math.max(1, Math.abs(want));
   const shown = `${Number(got.toPrecision(6))} ${expected.unit.formatUnits()}`.replace("cm / m", "%");
   const answer = pretty(q.answer);
-  if (ok) return { ...base, passed: true, score: q.weight, feedback: `Right: ${answer}.${q.explanation ? ` ${q.explanation}` : ""}`, measured: pretty(shown) };
-  return fail(`Not quite: you gave ${given.trim()}; the answer is ${answer}.${q.explanation ? ` ${q.explanation}` : ""}`, pretty(shown));
+  if (ok)
+    return {
+      ...base,
+      passed: true,
+      score: q.weight,
+      feedback: `Right: ${answer}.${q.explanation ? ` ${q.explanation}` : ""}`,
+      measured: pretty(shown),
+    };
+  return fail(
+    `Not quite: you gave ${given.trim()}; the answer is ${answer}.${q.explanation ? ` ${q.explanation}` : ""}`,
+    pretty(shown),
+  );
 }
 
-export function gradeRatio(q: Extract<Question, { kind: "ratio" }>, given: string | undefined): Omit<ItemResult, "section" | "label"> {
+export function gradeRatio(
+  q: Extract<Question, { kind: "ratio" }>,
+  given: string | undefined,
+): Omit<ItemResult, "section" | "label"> {
   const base = { id: q.id, weight: q.weight };
   const expected = parseRatio(q.answer);
-  if (!given || !given.trim()) return { ...base, passed: false, score: 0, feedback: "No answer given.", measured: null };
+  if (!given || !given.trim())
+    return { ...base, passed: false, score: 0, feedback: "No answer given.", measured: null };
   const read = parseRatio(given);
-  if (!expected.ok) return { ...base, passed: false, score: 0, feedback: "This question cannot be marked; tell your trainer.", measured: given };
-  if (!read.ok) return { ...base, passed: false, score: 0, feedback: `"${given}" ${read.error}, written like ${q.answer}.`, measured: given };
+  if (!expected.ok)
+    return {
+      ...base,
+      passed: false,
+      score: 0,
+      feedback: "This question cannot be marked; tell your trainer.",
+      measured: given,
+    };
+  if (!read.ok)
+    return {
+      ...base,
+      passed: false,
+      score: 0,
+      feedback: `"${given}" ${read.error}, written like ${q.answer}.`,
+      measured: given,
+    };
   const tol = q.tolerance ?? expected.ratio * 0.01;
   const ok = Math.abs(read.ratio - expected.ratio) <= tol + EPS * expected.ratio;
   const shown = formatRatio(read.ratio);
   const why = q.explanation ? ` ${q.explanation}` : "";
   return ok
     ? { ...base, passed: true, score: q.weight, feedback: `Right: ${q.answer}.${why}`, measured: shown }
-    : { ...base, passed: false, score: 0, feedback: `Not quite: you gave ${shown}; the answer is ${q.answer}.${why}`, measured: shown };
+    : {
+        ...base,
+        passed: false,
+        score: 0,
+        feedback: `Not quite: you gave ${shown}; the answer is ${q.answer}.${why}`,
+        measured: shown,
+      };
 }
 
-export function gradeChoice(q: Extract<Question, { kind: "choice" }>, given: string | string[] | undefined): Omit<ItemResult, "section" | "label"> {
+export function gradeChoice(
+  q: Extract<Question, { kind: "choice" }>,
+  given: string | string[] | undefined,
+): Omit<ItemResult, "section" | "label"> {
   const base = { id: q.id, weight: q.weight };
   const correct = new Set(Array.isArray(q.correct) ? q.correct : [q.correct]);
   const picked = new Set((Array.isArray(given) ? given : given ? [given] : []).filter((g) => typeof g === "string"));
@@ -129,10 +177,27 @@ export function gradeCriterion(c: Criterion, analysis: Analysis, spec: RoofSpec)
   const feedback = passed
     ? `Measured: ${measured.text}.`
     : `Measured: ${measured.text}. Needed: ${label.charAt(0).toLowerCase()}${label.slice(1)}.${c.hint ? ` ${c.hint}` : ""}`;
-  return { id: c.id, section: "task", label, passed, score: passed ? c.weight : 0, weight: c.weight, feedback, measured: measured.text, required: c.required || undefined };
+  return {
+    id: c.id,
+    section: "task",
+    label,
+    passed,
+    score: passed ? c.weight : 0,
+    weight: c.weight,
+    feedback,
+    measured: measured.text,
+    required: c.required || undefined,
+  };
 }
 
-const KEY_WORDS: Record<string, string> = { baseFall: "base fall", highLevel: "high level", outline: "outline", edges: "edge kinds", joists: "joists", outlets: "outlets" };
+const KEY_WORDS: Record<string, string> = {
+  baseFall: "base fall",
+  highLevel: "high level",
+  outline: "outline",
+  edges: "edge kinds",
+  joists: "joists",
+  outlets: "outlets",
+};
 
 export type TaskGrade =
   | { ok: true; items: ItemResult[]; analysis: Analysis; spec: RoofSpec }
@@ -141,9 +206,11 @@ export type TaskGrade =
 /** Re-runs the engine on the submitted roof and measures every criterion. */
 export function gradeTask(task: Task, submitted: unknown): TaskGrade {
   const parsed = parseSpec(structuredClone(submitted));
-  if (!parsed.ok) return { ok: false, status: parsed.status, message: parsed.error.message, issues: parsed.error.issues };
+  if (!parsed.ok)
+    return { ok: false, status: parsed.status, message: parsed.error.message, issues: parsed.error.issues };
   const start = parseSpec(structuredClone(task.start));
-  if (!start.ok) return { ok: false, status: 422, message: "This task's starting roof is broken; tell your trainer.", issues: [] };
+  if (!start.ok)
+    return { ok: false, status: 422, message: "This task's starting roof is broken; tell your trainer.", issues: [] };
   const spec = parsed.spec;
   const analysis = analyse(structuredClone(spec));
   const items = task.criteria.map((c) => gradeCriterion(c, analysis, spec));
@@ -166,7 +233,11 @@ export function gradeTask(task: Task, submitted: unknown): TaskGrade {
 }
 
 /** Grades a whole lesson attempt: every question and the roof task, by the rule in grading-rule.ts. */
-export function gradeLesson(lesson: Pick<FrontMatter, "quiz" | "task" | "passMark">, answers: Answers, submitted: unknown): GradeResult | Extract<TaskGrade, { ok: false }> {
+export function gradeLesson(
+  lesson: Pick<FrontMatter, "quiz" | "task" | "passMark">,
+  answers: Answers,
+  submitted: unknown,
+): GradeResult | Extract<TaskGrade, { ok: false }> {
   const task = gradeTask(lesson.task, submitted);
   if (!task.ok) return task;
   const quiz = lesson.quiz.map((q) => gradeQuestion(q, answers[q.id]));

@@ -62,7 +62,9 @@ export function readGrade(g: GradeInput): GradeReading {
       passed: g.override.passed,
       overridden: true,
       why: g.override.passed ? null : "trainer",
-      reason: g.override.passed ? null : `Not passed by the trainer's decision${g.override.reason ? `: ${g.override.reason}` : ""}.`,
+      reason: g.override.passed
+        ? null
+        : `Not passed by the trainer's decision${g.override.reason ? `: ${g.override.reason}` : ""}.`,
     };
   }
   if (g.failedRequired.length) {
@@ -76,17 +78,28 @@ export function readGrade(g: GradeInput): GradeReading {
     };
   }
   const passed = g.passed && g.score >= g.passMark;
-  return { score: g.score, passed, overridden: false, why: passed ? null : "below-pass-mark", reason: passed ? null : `Below the pass mark of ${g.passMark}.` };
+  return {
+    score: g.score,
+    passed,
+    overridden: false,
+    why: passed ? null : "below-pass-mark",
+    reason: passed ? null : `Below the pass mark of ${g.passMark}.`,
+  };
 }
 
 /** Checks an override against the rule: the result must follow from the score and the pass mark. */
 export function overrideProblem(o: { score: number; passed: boolean }, passMark: number): string | null {
-  if (o.passed && o.score < passMark) return `A pass needs a score of at least ${passMark}, the pass mark; raise the score or choose Not passed.`;
-  if (!o.passed && o.score >= passMark) return `A score of ${passMark} or more passes; lower it below ${passMark} or choose Passed.`;
+  if (o.passed && o.score < passMark)
+    return `A pass needs a score of at least ${passMark}, the pass mark; raise the score or choose Not passed.`;
+  if (!o.passed && o.score >= passMark)
+    return `A score of ${passMark} or more passes; lower it below ${passMark} or choose Passed.`;
   return null;
 }
 
 /** Labels of the required items an attempt did not meet (quiz or task). */
-export function failedRequiredOf(result: { quiz: { required?: boolean; passed: boolean; label: string }[]; task: { required?: boolean; passed: boolean; label: string }[] }): string[] {
+export function failedRequiredOf(result: {
+  quiz: { required?: boolean; passed: boolean; label: string }[];
+  task: { required?: boolean; passed: boolean; label: string }[];
+}): string[] {
   return [...result.task, ...result.quiz].filter((i) => i.required && !i.passed).map((i) => i.label);
 }

@@ -37,24 +37,38 @@ export function parseLessonFile(file: string, source: string): { lesson: Lesson 
   const name = path.basename(file);
   const issue = (p: string, message: string): LessonIssue => ({ file: name, path: p, message });
   const named = FILE_NAME.exec(name);
-  if (!named) return { lesson: null, issues: [issue("(file name)", "must look like 03-short-slug.md (two or three digits, a dash, lower-case words)")] };
+  if (!named)
+    return {
+      lesson: null,
+      issues: [issue("(file name)", "must look like 03-short-slug.md (two or three digits, a dash, lower-case words)")],
+    };
   let parsed: matter.GrayMatterFile<string>;
   try {
     // A fresh object each time: gray-matter caches by content and would hand back a shared one.
     parsed = matter(source, {});
   } catch (e) {
     const mark = (e as { mark?: { line?: number } }).mark;
-    return { lesson: null, issues: [issue(`front matter${mark?.line != null ? ` line ${mark.line + 2}` : ""}`, `is not valid YAML: ${(e as Error).message.split("\n")[0]}`)] };
+    return {
+      lesson: null,
+      issues: [
+        issue(
+          `front matter${mark?.line != null ? ` line ${mark.line + 2}` : ""}`,
+          `is not valid YAML: ${(e as Error).message.split("\n")[0]}`,
+        ),
+      ],
+    };
   }
   const front = frontMatterSchema.safeParse(parsed.data);
   const issues: LessonIssue[] = [];
   if (!front.success) {
-    for (const i of front.error.issues) issues.push(issue(i.path.length ? i.path.join(".") : "(front matter)", i.message));
+    for (const i of front.error.issues)
+      issues.push(issue(i.path.length ? i.path.join(".") : "(front matter)", i.message));
   }
   const bodyStart = source.split("\n").length - parsed.content.split("\n").length + 1;
   const body = parseBody(parsed.content, bodyStart);
   for (const i of body.issues) issues.push(issue(i.path, i.message));
-  if (!body.blocks.some((b) => b.type === "roof")) issues.push(issue("body", "needs at least one ```roof figure drawn by the app"));
+  if (!body.blocks.some((b) => b.type === "roof"))
+    issues.push(issue("body", "needs at least one ```roof figure drawn by the app"));
   if (issues.length || !front.success) return { lesson: null, issues };
   const version = createHash("sha256").update(source, "utf8").digest("hex");
   return {
@@ -67,9 +81,14 @@ export function parseLessonFile(file: string, source: string): { lesson: Lesson 
 export function loadLessons(dir = lessonsDir()): Lesson[] {
   let names: string[];
   try {
-    names = fs.readdirSync(dir).filter((f) => f.endsWith(".md") && f.toLowerCase() !== "readme.md").sort();
+    names = fs
+      .readdirSync(dir)
+      .filter((f) => f.endsWith(".md") && f.toLowerCase() !== "readme.md")
+      .sort();
   } catch {
-    throw new LessonValidationError([{ file: dir, path: "(folder)", message: "cannot be read: is LESSONS_DIR right?" }]);
+    throw new LessonValidationError([
+      { file: dir, path: "(folder)", message: "cannot be read: is LESSONS_DIR right?" },
+    ]);
   }
   const lessons: Lesson[] = [];
   const issues: LessonIssue[] = [];

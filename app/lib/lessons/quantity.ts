@@ -6,9 +6,7 @@ import { parseLength } from "../units";
 const math = create({ unitDependencies });
 
 export type QuantityResult =
-  | { ok: true; bare: false; unit: Unit }
-  | { ok: true; bare: true; number: number }
-  | { ok: false; error: string };
+  { ok: true; bare: false; unit: Unit } | { ok: true; bare: true; number: number } | { ok: false; error: string };
 
 const MAX_LENGTH = 60;
 
@@ -23,7 +21,11 @@ export function parseQuantity(input: string): QuantityResult {
   if (!s) return { ok: false, error: "is empty" };
   if (s.length > MAX_LENGTH) return { ok: false, error: "is too long" };
   // Feet and inches, and inches with fractions, as US builders write them: 12' 6", 5 7/8 in.
-  if (/['"′″’”]/.test(s) || /\d\s*\/\s*\d+\s*(?:in|ft|inch|inches|feet|foot)\b/i.test(s) || /\b(?:ft|feet|foot)\s*\d/i.test(s)) {
+  if (
+    /['"′″’”]/.test(s) ||
+    /\d\s*\/\s*\d+\s*(?:in|ft|inch|inches|feet|foot)\b/i.test(s) ||
+    /\b(?:ft|feet|foot)\s*\d/i.test(s)
+  ) {
     const length = parseLength(s, "metric", "length");
     if (length.ok) return { ok: true, bare: false, unit: math.unit(length.metres, "m") };
   }
@@ -46,7 +48,8 @@ export function parseQuantity(input: string): QuantityResult {
     const unit = math.unit(s);
     const value = unit.toNumber();
     if (!Number.isFinite(value)) return { ok: false, error: "is not a finite number" };
-    if ((unit as unknown as { value: number | null }).value == null) return { ok: false, error: "has a unit but no number" };
+    if ((unit as unknown as { value: number | null }).value == null)
+      return { ok: false, error: "has a unit but no number" };
     return { ok: true, unit, bare: false };
   } catch {
     return { ok: false, error: "is not a number with a unit, such as 250 mm or 3.2 L/s" };

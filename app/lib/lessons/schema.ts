@@ -6,7 +6,11 @@ import { authorQuantity, parseQuantity, parseRatio, quantityOf, sameDimension } 
 const id = z
   .string({ error: "must be a short id such as q1" })
   .regex(/^[a-z0-9][a-z0-9-]{0,39}$/, "must be a short id of lower-case letters, digits and dashes, such as q1");
-const text = (what: string) => z.string({ error: `must be ${what}` }).trim().min(1, `must not be empty (${what})`);
+const text = (what: string) =>
+  z
+    .string({ error: `must be ${what}` })
+    .trim()
+    .min(1, `must not be empty (${what})`);
 
 /** A roof spec inside a lesson: checked by the engine's own parser, so it must build. */
 const roofSpec = z.unknown().superRefine((value, ctx) => {
@@ -16,9 +20,16 @@ const roofSpec = z.unknown().superRefine((value, ctx) => {
   }
   // YAML 1.1 reads an unquoted 1:40 as the base-60 number 100, which the engine would take as 1:100.
   const v = value as { baseFall?: unknown; minFall?: unknown; gutter?: { fall?: unknown } };
-  for (const [key, fall] of [["baseFall", v.baseFall], ["minFall", v.minFall], ["gutter.fall", v.gutter?.fall]] as const) {
+  for (const [key, fall] of [
+    ["baseFall", v.baseFall],
+    ["minFall", v.minFall],
+    ["gutter.fall", v.gutter?.fall],
+  ] as const) {
     if (typeof fall === "number") {
-      ctx.addIssue({ code: "custom", message: `roof spec ${key}: write the fall as text in quotes, e.g. "1:40" (YAML reads 1:40 unquoted as the number 100)` });
+      ctx.addIssue({
+        code: "custom",
+        message: `roof spec ${key}: write the fall as text in quotes, e.g. "1:40" (YAML reads 1:40 unquoted as the number 100)`,
+      });
     }
   }
   const parsed = parseSpec(structuredClone(value));
@@ -35,7 +46,9 @@ const numericQuestion = z
     kind: z.literal("numeric"),
     prompt: text("the question"),
     /** The right answer with its unit, as a person would write it: "250 mm", "2.5 %", "3.1 L/s". */
-    answer: z.union([text("the answer with its unit, such as 250 mm"), z.number().transform(String)], { error: "must be the answer with its unit, such as 250 mm" }),
+    answer: z.union([text("the answer with its unit, such as 250 mm"), z.number().transform(String)], {
+      error: "must be the answer with its unit, such as 250 mm",
+    }),
     /** Absolute tolerance in a unit of the same kind, e.g. "5 mm". */
     tolerance: z.string().optional(),
     /** Relative tolerance as a fraction, e.g. 0.02 for ±2 %. Default 0.01 when no tolerance is given. */
@@ -58,7 +71,11 @@ const numericQuestion = z
     if (q.tolerance !== undefined) {
       const tol = parseQuantity(q.tolerance);
       if (!tol.ok || tol.bare || !sameDimension(tol.unit, answer.unit)) {
-        ctx.addIssue({ code: "custom", path: ["tolerance"], message: `"${q.tolerance}" must be a quantity of the same kind as the answer "${q.answer}"` });
+        ctx.addIssue({
+          code: "custom",
+          path: ["tolerance"],
+          message: `"${q.tolerance}" must be a quantity of the same kind as the answer "${q.answer}"`,
+        });
       }
     }
     if (q.bareUnit !== undefined) {
@@ -68,7 +85,12 @@ const numericQuestion = z
       } catch {
         ok = false;
       }
-      if (!ok) ctx.addIssue({ code: "custom", path: ["bareUnit"], message: `"${q.bareUnit}" must be a unit of the same kind as the answer "${q.answer}"` });
+      if (!ok)
+        ctx.addIssue({
+          code: "custom",
+          path: ["bareUnit"],
+          message: `"${q.bareUnit}" must be a unit of the same kind as the answer "${q.answer}"`,
+        });
     }
   });
 
@@ -78,7 +100,9 @@ const ratioQuestion = z
     kind: z.literal("ratio"),
     prompt: text("the question"),
     // A number here is YAML reading an unquoted 1:40 in base 60: refused below with a clear message.
-    answer: z.union([text("the answer as a ratio such as 1:40"), z.number()], { error: 'must be the answer as a ratio in quotes, such as "1:40"' }),
+    answer: z.union([text("the answer as a ratio such as 1:40"), z.number()], {
+      error: 'must be the answer as a ratio in quotes, such as "1:40"',
+    }),
     /** Tolerance on N (1:N). Default: 1 % of N. */
     tolerance: z.number().min(0).optional(),
     weight: z.number().positive().max(100).default(1),
@@ -86,7 +110,11 @@ const ratioQuestion = z
   })
   .superRefine((q, ctx) => {
     if (typeof q.answer === "number") {
-      ctx.addIssue({ code: "custom", path: ["answer"], message: 'write the ratio in quotes, e.g. "1:40" (YAML reads 1:40 unquoted as the number 100)' });
+      ctx.addIssue({
+        code: "custom",
+        path: ["answer"],
+        message: 'write the ratio in quotes, e.g. "1:40" (YAML reads 1:40 unquoted as the number 100)',
+      });
       return;
     }
     const r = parseRatio(q.answer);
@@ -99,7 +127,10 @@ const choiceQuestion = z
     id,
     kind: z.literal("choice"),
     prompt: text("the question"),
-    options: z.array(z.object({ id, text: text("the option's text") }), { error: "must be a list of {id, text}" }).min(2, "needs at least two options").max(8),
+    options: z
+      .array(z.object({ id, text: text("the option's text") }), { error: "must be a list of {id, text}" })
+      .min(2, "needs at least two options")
+      .max(8),
     /** One option id, or a list when several options are right (all must be picked). */
     correct: z.union([id, z.array(id).min(1)], { error: "must be an option id or a list of option ids" }),
     weight: z.number().positive().max(100).default(1),
@@ -107,9 +138,15 @@ const choiceQuestion = z
   })
   .superRefine((q, ctx) => {
     const ids = q.options.map((o) => o.id);
-    if (new Set(ids).size !== ids.length) ctx.addIssue({ code: "custom", path: ["options"], message: "option ids must be unique" });
+    if (new Set(ids).size !== ids.length)
+      ctx.addIssue({ code: "custom", path: ["options"], message: "option ids must be unique" });
     for (const c of Array.isArray(q.correct) ? q.correct : [q.correct]) {
-      if (!ids.includes(c)) ctx.addIssue({ code: "custom", path: ["correct"], message: `"${c}" is not one of the option ids (${ids.join(", ")})` });
+      if (!ids.includes(c))
+        ctx.addIssue({
+          code: "custom",
+          path: ["correct"],
+          message: `"${c}" is not one of the option ids (${ids.join(", ")})`,
+        });
     }
   });
 
@@ -117,7 +154,15 @@ export const questionSchema = z.discriminatedUnion("kind", [numericQuestion, rat
   error: 'kind must be "numeric", "ratio" or "choice"',
 });
 
-const LIMIT_UNITS: Record<LimitKind, string> = { ratio: "", length: "m", area: "m^2", flow: "L/s", count: "", percent: "", none: "" };
+const LIMIT_UNITS: Record<LimitKind, string> = {
+  ratio: "",
+  length: "m",
+  area: "m^2",
+  flow: "L/s",
+  count: "",
+  percent: "",
+  none: "",
+};
 
 /** Reads an author's limit into the kind's base unit; null when it cannot. */
 export function readLimit(kind: LimitKind, value: unknown): number | null {
@@ -164,14 +209,27 @@ export const criterionSchema = z
     const kind = CRITERION_KINDS[c.kind];
     const limit = readLimit(kind.limit, c.value);
     if (limit == null) {
-      ctx.addIssue({ code: "custom", path: ["value"], message: `${c.kind} needs ${LIMIT_EXAMPLES[kind.limit]}; got ${JSON.stringify(c.value)}` });
+      ctx.addIssue({
+        code: "custom",
+        path: ["value"],
+        message: `${c.kind} needs ${LIMIT_EXAMPLES[kind.limit]}; got ${JSON.stringify(c.value)}`,
+      });
       return z.NEVER;
     }
     return { ...c, limit };
   });
 
 /** Spec keys a trainee may change in a task; everything else must stay as the starting roof gives it. */
-export const EDITABLE_KEYS = ["outlets", "outletLevels", "baseFall", "edges", "joists", "highLevel", "outline", "openings"] as const;
+export const EDITABLE_KEYS = [
+  "outlets",
+  "outletLevels",
+  "baseFall",
+  "edges",
+  "joists",
+  "highLevel",
+  "outline",
+  "openings",
+] as const;
 
 export const taskSchema = z.object({
   id: id.default("task"),
@@ -181,7 +239,9 @@ export const taskSchema = z.object({
   start: roofSpec,
   /** A roof that passes: kept so tests prove every task can be passed. */
   reference: roofSpec,
-  editable: z.array(z.enum(EDITABLE_KEYS, { error: `must be one of ${EDITABLE_KEYS.join(", ")}` })).default(["outlets", "baseFall"]),
+  editable: z
+    .array(z.enum(EDITABLE_KEYS, { error: `must be one of ${EDITABLE_KEYS.join(", ")}` }))
+    .default(["outlets", "baseFall"]),
   criteria: z.array(criterionSchema, { error: "must be a list of criteria" }).min(1, "needs at least one criterion"),
   hints: z.array(text("a hint"), { error: "must be a list of hints" }).min(1, "needs at least one hint"),
 });
@@ -191,7 +251,9 @@ export const frontMatterSchema = z
     title: text("the lesson's title"),
     summary: text("a one-line summary"),
     minutes: z.number({ error: "must be the expected minutes, a number" }).int().min(1).max(240),
-    objectives: z.array(text("an objective"), { error: "must be a list of objectives" }).min(1, "needs at least one objective"),
+    objectives: z
+      .array(text("an objective"), { error: "must be a list of objectives" })
+      .min(1, "needs at least one objective"),
     /** Total score (0-100) needed to pass the lesson. */
     passMark: z.number({ error: "must be a number from 0 to 100" }).min(0).max(100),
     quiz: z.array(questionSchema, { error: "must be a list of questions" }).min(1, "needs at least one question"),
@@ -201,12 +263,15 @@ export const frontMatterSchema = z
   .superRefine((l, ctx) => {
     const qids = l.quiz.map((q) => q.id);
     qids.forEach((q, i) => {
-      if (qids.indexOf(q) !== i) ctx.addIssue({ code: "custom", path: ["quiz", i, "id"], message: `"${q}" is used twice` });
+      if (qids.indexOf(q) !== i)
+        ctx.addIssue({ code: "custom", path: ["quiz", i, "id"], message: `"${q}" is used twice` });
     });
     const cids = l.task.criteria.map((c) => c.id);
     cids.forEach((c, i) => {
-      if (cids.indexOf(c) !== i) ctx.addIssue({ code: "custom", path: ["task", "criteria", i, "id"], message: `"${c}" is used twice` });
-      if (c === "fixed") ctx.addIssue({ code: "custom", path: ["task", "criteria", i, "id"], message: `"fixed" is reserved` });
+      if (cids.indexOf(c) !== i)
+        ctx.addIssue({ code: "custom", path: ["task", "criteria", i, "id"], message: `"${c}" is used twice` });
+      if (c === "fixed")
+        ctx.addIssue({ code: "custom", path: ["task", "criteria", i, "id"], message: `"fixed" is reserved` });
     });
   });
 
@@ -228,9 +293,7 @@ export type Figure = z.output<typeof figureSchema>;
 
 /** A piece of the lesson body, ready to render. */
 export type Block =
-  | { type: "html"; html: string }
-  | { type: "roof"; figure: Figure }
-  | { type: "caution"; html: string };
+  { type: "html"; html: string } | { type: "roof"; figure: Figure } | { type: "caution"; html: string };
 
 /** A lesson as the app keeps it: validated front matter, rendered body, version hash. */
 export interface Lesson extends FrontMatter {

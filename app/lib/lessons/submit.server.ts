@@ -3,7 +3,8 @@ import { db } from "../db.server";
 import { createAttempt, submissionSchema, type CreateOutcome } from "./attempts.server";
 import { ensureLessonsSynced, getLesson } from "./catalogue.server";
 
-export type SubmitOutcome = CreateOutcome | { status: 400; message: string; issues: { path: string; message: string }[] };
+export type SubmitOutcome =
+  CreateOutcome | { status: 400; message: string; issues: { path: string; message: string }[] };
 
 const issuesOf = (issues: readonly { path: readonly PropertyKey[]; message: string }[]) =>
   issues.map((i) => ({ path: i.path.length ? i.path.map(String).join(".") : "(body)", message: i.message }));
@@ -11,7 +12,8 @@ const issuesOf = (issues: readonly { path: readonly PropertyKey[]; message: stri
 /** Validates a submission from the API or the player, grades it on the server and stores it once. */
 export async function submitAttempt(user: SessionUser, body: unknown): Promise<SubmitOutcome> {
   const parsed = submissionSchema.safeParse(body);
-  if (!parsed.success) return { status: 400, message: "The attempt is malformed.", issues: issuesOf(parsed.error.issues) };
+  if (!parsed.success)
+    return { status: 400, message: "The attempt is malformed.", issues: issuesOf(parsed.error.issues) };
   await ensureLessonsSynced();
   return createAttempt(db(), user.id, parsed.data, getLesson);
 }

@@ -11,7 +11,10 @@ export async function syncLessons(knex: Knex, lessons: Lesson[]): Promise<{ chan
   await knex.transaction(async (trx) => {
     for (const l of lessons) {
       const content = JSON.stringify(l);
-      await trx("lesson_versions").insert({ slug: l.slug, version: l.version, content }).onConflict(["slug", "version"]).ignore();
+      await trx("lesson_versions")
+        .insert({ slug: l.slug, version: l.version, content })
+        .onConflict(["slug", "version"])
+        .ignore();
       const rows = await trx("lessons")
         .insert({ slug: l.slug, title: l.title, position: l.position, version: l.version, content })
         .onConflict("slug")

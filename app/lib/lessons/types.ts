@@ -26,7 +26,15 @@ export interface FigureData {
   catchments: { label: string; area: number; flow: number; fill: string }[];
   intensity: number;
   schedule: { joist: number; length: number; startDrop: number; endDrop: number; ratio: string }[];
-  compare: { shaped: number; gutter: number | null; openEdge: number; saved: number | null; reason: string | null; gutterLength: number; detailLength: number } | null;
+  compare: {
+    shaped: number;
+    gutter: number | null;
+    openEdge: number;
+    saved: number | null;
+    reason: string | null;
+    gutterLength: number;
+    detailLength: number;
+  } | null;
   error: string | null;
 }
 
@@ -65,4 +73,3 @@ export interface LessonSummary {
   criteria: number;
   passMark: number;
 }
-

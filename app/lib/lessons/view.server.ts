@@ -29,15 +29,23 @@ export function lessonView(l: Lesson): LessonView {
   return {
     ...lessonSummary(l),
     objectives: l.objectives,
-    blocks: l.blocks.map((b) => (b.type === "roof" ? { type: "roof" as const, figure: figureFor(l.version, figure++, b.figure) } : b)),
+    blocks: l.blocks.map((b) =>
+      b.type === "roof" ? { type: "roof" as const, figure: figureFor(l.version, figure++, b.figure) } : b,
+    ),
     quiz: l.quiz.map((q) => ({
       id: q.id,
       kind: q.kind,
       promptHtml: renderInline(q.prompt),
       weight: q.weight,
       ...(q.kind === "choice"
-        ? { options: q.options.map((o) => ({ id: o.id, html: renderInline(o.text) })), multiple: Array.isArray(q.correct) }
-        : { placeholder: q.kind === "numeric" && q.bareUnit ? `a number in ${q.bareUnit}, or with its unit` : PLACEHOLDER[q.kind] }),
+        ? {
+            options: q.options.map((o) => ({ id: o.id, html: renderInline(o.text) })),
+            multiple: Array.isArray(q.correct),
+          }
+        : {
+            placeholder:
+              q.kind === "numeric" && q.bareUnit ? `a number in ${q.bareUnit}, or with its unit` : PLACEHOLDER[q.kind],
+          }),
     })),
     task: {
       title: l.task.title,
@@ -45,7 +53,14 @@ export function lessonView(l: Lesson): LessonView {
       start: l.task.start as RoofSpec,
       editable: l.task.editable,
       // Kind and limit too: the editor measures each criterion live (the server's grade still counts).
-      criteria: l.task.criteria.map((c) => ({ id: c.id, kind: c.kind, limit: c.limit, label: criterionLabel(c), weight: c.weight, required: c.required })),
+      criteria: l.task.criteria.map((c) => ({
+        id: c.id,
+        kind: c.kind,
+        limit: c.limit,
+        label: criterionLabel(c),
+        weight: c.weight,
+        required: c.required,
+      })),
       hints: l.task.hints,
     },
   };

@@ -26,9 +26,17 @@ export const SCHEDULE_CSV: PackWriter = {
   write: (p) => `\uFEFF${scheduleCsv(p)}\r\n`,
 };
 
-export const PLAN_DXF: PackWriter = { file: "plan.dxf", what: "plan", ext: "dxf", type: "application/dxf", mesh: false, write: planDxf };
+export const PLAN_DXF: PackWriter = {
+  file: "plan.dxf",
+  what: "plan",
+  ext: "dxf",
+  type: "application/dxf",
+  mesh: false,
+  write: planDxf,
+};
 
-export const isPackFile = (f: unknown): f is PackFile => typeof f === "string" && (PACK_FILES as readonly string[]).includes(f);
+export const isPackFile = (f: unknown): f is PackFile =>
+  typeof f === "string" && (PACK_FILES as readonly string[]).includes(f);
 
 const text = (body: string, status: number, headers: Record<string, string> = {}) =>
   new Response(body, { status, headers: { "Content-Type": "text/plain; charset=utf-8", ...headers } });
@@ -50,7 +58,8 @@ export async function packResponse(
     if (result.kind !== "analysis") return text("This roof could not be analysed.", 422);
     analysis = result.analysis;
   } catch (error) {
-    if (error instanceof PoolBusy || error instanceof PoolTimeout) return text("The server is busy. Try again in a few seconds.", 503, { "Retry-After": "5" });
+    if (error instanceof PoolBusy || error instanceof PoolTimeout)
+      return text("The server is busy. Try again in a few seconds.", 503, { "Retry-After": "5" });
     throw error;
   }
   const pack: PackRoof = { name, date: new Date(), spec, analysis, units: opts.units ?? systemFor(null, spec.ruleSet) };
@@ -73,7 +82,12 @@ export async function roofPackResponse(request: Request, id: string, w: PackWrit
 }
 
 /** A stored spec (checked again: an old roof may no longer pass) as the file. */
-export async function savedSpecResponse(w: PackWriter, name: string, stored: unknown, cache: string): Promise<Response> {
+export async function savedSpecResponse(
+  w: PackWriter,
+  name: string,
+  stored: unknown,
+  cache: string,
+): Promise<Response> {
   const parsed = parseSpec(stored);
   if (!parsed.ok) return text(`This roof cannot be shaped as saved: ${parsed.error.message}`, 422);
   return packResponse(w, name, parsed.spec, cache);
@@ -98,7 +112,11 @@ async function readFields(request: Request): Promise<Fields> {
     const spec = form.get("spec");
     const name = form.get("name");
     const units = form.get("units");
-    return { spec: typeof spec === "string" ? spec : null, name: typeof name === "string" ? name : null, units: typeof units === "string" ? units : query };
+    return {
+      spec: typeof spec === "string" ? spec : null,
+      name: typeof name === "string" ? name : null,
+      units: typeof units === "string" ? units : query,
+    };
   }
   return { spec: null, name: null, units: query };
 }
@@ -107,11 +125,18 @@ async function readFields(request: Request): Promise<Fields> {
  * POST /sandbox/<file>: the file for the posted roof (form fields `spec`, JSON, and optional
  * `name`; or the spec as a JSON body). Open to everyone like the sandbox; nothing is stored.
  */
-export async function sandboxPackResponse(request: Request, w: PackWriter, context?: AppLoadContext): Promise<Response> {
+export async function sandboxPackResponse(
+  request: Request,
+  w: PackWriter,
+  context?: AppLoadContext,
+): Promise<Response> {
   if (request.method !== "POST") return text("Only POST.", 405, { Allow: "POST" });
   // Anonymous analyses share the open API's per-address budget, charged by the work done.
   const limited = await limitApiRequest(context);
-  if (limited) return text((await limited.json()).error.message, 429, { "Retry-After": limited.headers.get("Retry-After") ?? "60" });
+  if (limited)
+    return text((await limited.json()).error.message, 429, {
+      "Retry-After": limited.headers.get("Retry-After") ?? "60",
+    });
   let fields: Fields;
   try {
     fields = await readFields(request);
@@ -119,7 +144,8 @@ export async function sandboxPackResponse(request: Request, w: PackWriter, conte
     return text("The request body could not be read.", 400);
   }
   const raw = fields.spec;
-  if (fields.units != null && fields.units !== "" && !isUnitSystem(fields.units)) return text("The field `units` must be metric or us.", 400);
+  if (fields.units != null && fields.units !== "" && !isUnitSystem(fields.units))
+    return text("The field `units` must be metric or us.", 400);
   if (raw == null || raw.trim() === "") return text("Send the roof spec as the form field `spec` (JSON).", 400);
   if (raw.length > MAX_SPEC_CHARS) return text("The roof spec is too large.", 413);
   const name = (fields.name ?? "").trim() || "Sandbox roof";
@@ -132,7 +158,10 @@ export async function sandboxPackResponse(request: Request, w: PackWriter, conte
   }
   const parsed = parseSpec(input);
   if (!parsed.ok) return text(parsed.error.message, parsed.status);
-  return packResponse(w, name, parsed.spec, "no-store", { units: isUnitSystem(fields.units) ? fields.units : undefined, context });
+  return packResponse(w, name, parsed.spec, "no-store", {
+    units: isUnitSystem(fields.units) ? fields.units : undefined,
+    context,
+  });
 }
 
 /** GET on a sandbox file address: it needs the roof posted. */

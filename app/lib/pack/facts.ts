@@ -30,7 +30,7 @@ export const mmOf = (metres: number) => Math.round(metres * 1000);
  * axis, 0 ≤ a < 180 (a joist has no head or tail), one decimal.
  */
 export function directionDegrees(d: Point): number {
-  const a = (((Math.atan2(d[1], d[0]) * 180) / Math.PI) % 180 + 180) % 180;
+  const a = ((((Math.atan2(d[1], d[0]) * 180) / Math.PI) % 180) + 180) % 180;
   const r = Math.round(a * 10) / 10;
   return r >= 180 ? 0 : r;
 }
@@ -58,7 +58,12 @@ export function datumText(p: PackRoof): string {
  * shell can be tricked by it; then what the file is and the date.
  */
 export function packFileName(name: string, what: string, date: Date, ext: string): string {
-  const stem = name.normalize("NFKD").replace(/[^A-Za-z0-9]+/g, "-").replace(/^-+|-+$/g, "").toLowerCase().slice(0, 60);
+  const stem = name
+    .normalize("NFKD")
+    .replace(/[^A-Za-z0-9]+/g, "-")
+    .replace(/^-+|-+$/g, "")
+    .toLowerCase()
+    .slice(0, 60);
   return `${stem || "roof"}-${what}-${isoDate(date)}.${ext}`;
 }
 

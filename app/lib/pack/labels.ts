@@ -23,7 +23,12 @@ export interface PlacedLabel {
   clear: boolean;
 }
 
-const boxAt = (c: Point, w: number, h: number): Box => ({ x0: c[0] - w / 2, y0: c[1] - h / 2, x1: c[0] + w / 2, y1: c[1] + h / 2 });
+const boxAt = (c: Point, w: number, h: number): Box => ({
+  x0: c[0] - w / 2,
+  y0: c[1] - h / 2,
+  x1: c[0] + w / 2,
+  y1: c[1] + h / 2,
+});
 
 export const boxesOverlap = (a: Box, b: Box) => a.x0 < b.x1 && b.x0 < a.x1 && a.y0 < b.y1 && b.y0 < a.y1;
 
@@ -57,7 +62,12 @@ export function segmentHitsBox(p: Point, q: Point, b: Box): boolean {
  * a label already placed (nor a keep-out box); when none is free, at the candidate touching
  * the fewest. Greedy, in the order given: put the labels that matter most first.
  */
-export function placeLabels(requests: LabelRequest[], lines: [Point, Point][], keepOut: Box[] = [], pad = 0): PlacedLabel[] {
+export function placeLabels(
+  requests: LabelRequest[],
+  lines: [Point, Point][],
+  keepOut: Box[] = [],
+  pad = 0,
+): PlacedLabel[] {
   const placed: Box[] = [...keepOut];
   return requests.map((r) => {
     let best: { box: Box; centre: Point; hits: number } | null = null;

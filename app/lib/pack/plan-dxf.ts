@@ -15,7 +15,11 @@ export const DXF_LAYERS = {
 } as const;
 
 /** DXF text must stay in plain ASCII for older readers (the file is DXF R12-style text). */
-const ascii = (s: string) => s.normalize("NFKD").replace(/°/g, " deg").replace(/[^\x20-\x7E]/g, "?");
+const ascii = (s: string) =>
+  s
+    .normalize("NFKD")
+    .replace(/°/g, " deg")
+    .replace(/[^\x20-\x7E]/g, "?");
 
 /**
  * The plan as DXF in metres for a drawing office: outline, openings and ridges where the roof has
@@ -29,21 +33,35 @@ export function planDxf(p: PackRoof): string {
   const s = p.analysis.shaped;
   const xs = p.spec.outline.map((q) => q[0]);
   const ys = p.spec.outline.map((q) => q[1]);
-  const minX = Math.min(...xs), maxX = Math.max(...xs), minY = Math.min(...ys), maxY = Math.max(...ys);
+  const minX = Math.min(...xs),
+    maxX = Math.max(...xs),
+    minY = Math.min(...ys),
+    maxY = Math.max(...ys);
   const size = Math.max(maxX - minX, maxY - minY, 1);
   const textH = Math.min(0.12, s.setOut.spacing * 0.3);
 
   d.setActiveLayer(DXF_LAYERS.outline[0]);
-  d.drawPolyline(p.spec.outline.map((q) => [q[0], q[1]]), true);
+  d.drawPolyline(
+    p.spec.outline.map((q) => [q[0], q[1]]),
+    true,
+  );
   const openings = openingsOf(p.spec);
   if (openings.length) {
     d.setActiveLayer(DXF_LAYERS.openings[0]);
-    for (const o of openings) d.drawPolyline(o.map((q) => [q[0], q[1]]), true);
+    for (const o of openings)
+      d.drawPolyline(
+        o.map((q) => [q[0], q[1]]),
+        true,
+      );
   }
   const ridges = ridgesOf(p.spec, p.analysis);
   if (ridges.length) {
     d.setActiveLayer(DXF_LAYERS.ridges[0]);
-    for (const r of ridges) d.drawPolyline(r.map((q) => [q[0], q[1]]), false);
+    for (const r of ridges)
+      d.drawPolyline(
+        r.map((q) => [q[0], q[1]]),
+        false,
+      );
   }
 
   d.setActiveLayer(DXF_LAYERS.joists[0]);
@@ -57,8 +75,24 @@ export function planDxf(p: PackRoof): string {
       const ux = (sp.end[0] - sp.start[0]) / len;
       const uy = (sp.end[1] - sp.start[1]) / len;
       const inset = Math.min(textH * 1.5, len / 4);
-      d.drawText(sp.start[0] + ux * inset, sp.start[1] + uy * inset, textH, angle, String(mmOf(sp.startLevel)), "left", "bottom");
-      d.drawText(sp.end[0] - ux * inset, sp.end[1] - uy * inset, textH, angle, String(mmOf(sp.endLevel)), "right", "bottom");
+      d.drawText(
+        sp.start[0] + ux * inset,
+        sp.start[1] + uy * inset,
+        textH,
+        angle,
+        String(mmOf(sp.startLevel)),
+        "left",
+        "bottom",
+      );
+      d.drawText(
+        sp.end[0] - ux * inset,
+        sp.end[1] - uy * inset,
+        textH,
+        angle,
+        String(mmOf(sp.endLevel)),
+        "right",
+        "bottom",
+      );
     }
   }
 

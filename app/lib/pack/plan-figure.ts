@@ -44,7 +44,11 @@ const segmentsOf = (path: Point[], closed: boolean): [Point, Point][] => {
   return out;
 };
 
-export function planLabels(p: PackRoof, measure: Measure, levelAt: (x: number, y: number) => number | null = () => null): PlanFigure {
+export function planLabels(
+  p: PackRoof,
+  measure: Measure,
+  levelAt: (x: number, y: number) => number | null = () => null,
+): PlanFigure {
   const { spec, analysis } = p;
   const outline = spec.outline;
   const n = outline.length;
@@ -55,7 +59,8 @@ export function planLabels(p: PackRoof, measure: Measure, levelAt: (x: number, y
   const u = span / 60;
   const kinds: EdgeKind[] = outline.map((_, i) => spec.edges?.[i] ?? "parapet");
   let area2 = 0;
-  for (let i = 0; i < n; i++) area2 += outline[i][0] * outline[(i + 1) % n][1] - outline[(i + 1) % n][0] * outline[i][1];
+  for (let i = 0; i < n; i++)
+    area2 += outline[i][0] * outline[(i + 1) % n][1] - outline[(i + 1) % n][0] * outline[i][1];
   const out = area2 > 0 ? 1 : -1;
   const edges = outline.map((a, i) => ({ from: a, to: outline[(i + 1) % n], kind: kinds[i] }));
   const joists = analysis.shaped.joists.flatMap((j) => j.spans.map((s) => [s.start, s.end] as [Point, Point]));
@@ -77,13 +82,27 @@ export function planLabels(p: PackRoof, measure: Measure, levelAt: (x: number, y
     ...outline.map((c) => ({ x0: c[0] - u * 0.35, y0: c[1] - u * 0.35, x1: c[0] + u * 0.35, y1: c[1] + u * 0.35 })),
   ];
   // Inside the outline labels would sit on the joists: keep them outside, in this order of importance.
-  const requests: { text: string; kind: PlanLabel["kind"]; size: number; width: number; height: number; candidates: Point[] }[] = [];
+  const requests: {
+    text: string;
+    kind: PlanLabel["kind"];
+    size: number;
+    width: number;
+    height: number;
+    candidates: Point[];
+  }[] = [];
   spec.outlets.forEach((o, k) => {
     const size = u * 1.5;
     const text = `O${k + 1} · ${mmOf(o.level ?? 0)}`;
     const w = measure(text, size);
     const h = size * 1.2;
-    requests.push({ text, kind: "outlet", size, width: w, height: h, candidates: ringCandidates(o.at, w, h, [u * 1.2, u * 2.6, u * 4.5], Math.PI / 4) });
+    requests.push({
+      text,
+      kind: "outlet",
+      size,
+      width: w,
+      height: h,
+      candidates: ringCandidates(o.at, w, h, [u * 1.2, u * 2.6, u * 4.5], Math.PI / 4),
+    });
   });
   outline.forEach((c, i) => {
     const z = levelAt(c[0], c[1]);
@@ -98,7 +117,14 @@ export function planLabels(p: PackRoof, measure: Measure, levelAt: (x: number, y
     const a1 = Math.atan2(c[1] - prev[1], c[0] - prev[0]);
     const a2 = Math.atan2(next[1] - c[1], next[0] - c[0]);
     const bis = Math.atan2(Math.sin(a1) - Math.sin(a2), Math.cos(a1) - Math.cos(a2));
-    requests.push({ text, kind: "corner", size, width: w, height: h, candidates: ringCandidates(c, w, h, [u * 0.8, u * 2, u * 3.5], bis) });
+    requests.push({
+      text,
+      kind: "corner",
+      size,
+      width: w,
+      height: h,
+      candidates: ringCandidates(c, w, h, [u * 0.8, u * 2, u * 3.5], bis),
+    });
   });
   edges.forEach((e) => {
     const len = Math.hypot(e.to[0] - e.from[0], e.to[1] - e.from[1]);
@@ -116,7 +142,10 @@ export function planLabels(p: PackRoof, measure: Measure, levelAt: (x: number, y
     const candidates: Point[] = [];
     for (const d of [u * 0.8, u * 2.2, u * 3.6]) {
       for (const along of [0, 0.25, -0.25, 0.4, -0.4]) {
-        candidates.push([(e.from[0] + e.to[0]) / 2 + tx * along * len + nx * (reach + d), (e.from[1] + e.to[1]) / 2 + ty * along * len + ny * (reach + d)]);
+        candidates.push([
+          (e.from[0] + e.to[0]) / 2 + tx * along * len + nx * (reach + d),
+          (e.from[1] + e.to[1]) / 2 + ty * along * len + ny * (reach + d),
+        ]);
       }
     }
     requests.push({ text, kind: "edge", size, width: w, height: h, candidates });
@@ -124,10 +153,33 @@ export function planLabels(p: PackRoof, measure: Measure, levelAt: (x: number, y
   // The scale bar sits under the plan; keep labels off it.
   const scaleLength = [1, 2, 5, 10, 20, 50, 100].find((s) => s >= span / 5) ?? 100;
   const scaleAt: Point = [bounds.minX, bounds.minY - span * 0.14 * 0.55 - u * 6];
-  keepOut.push({ x0: scaleAt[0] - u, y0: scaleAt[1] - u * 1.5, x1: scaleAt[0] + scaleLength + u * 6, y1: scaleAt[1] + u * 1.5 });
+  keepOut.push({
+    x0: scaleAt[0] - u,
+    y0: scaleAt[1] - u * 1.5,
+    x1: scaleAt[0] + scaleLength + u * 6,
+    y1: scaleAt[1] + u * 1.5,
+  });
   const placed = placeLabels(requests, obstacles, keepOut, u * 0.15);
-  const labels = placed.map((pl, i) => ({ text: requests[i].text, kind: requests[i].kind, size: requests[i].size, ...pl }));
-  return { bounds, u, edges, joists, fallLine, openings, ridges, outlets, corners: outline, labels, obstacles, scale: { at: scaleAt, length: scaleLength } };
+  const labels = placed.map((pl, i) => ({
+    text: requests[i].text,
+    kind: requests[i].kind,
+    size: requests[i].size,
+    ...pl,
+  }));
+  return {
+    bounds,
+    u,
+    edges,
+    joists,
+    fallLine,
+    openings,
+    ridges,
+    outlets,
+    corners: outline,
+    labels,
+    obstacles,
+    scale: { at: scaleAt, length: scaleLength },
+  };
 }
 
 /** The plan's extent with its labels and scale bar, padded, for a view box. */

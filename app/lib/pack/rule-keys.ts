@@ -15,5 +15,7 @@ export const RULE_KEY_NAMES: Record<string, string> = {
 
 /** Where a value comes from: its document and clause, or that it is trade habit with no source. */
 export function citation(u: Pick<UsedRule, "confidence" | "document" | "clause">): string {
-  return u.confidence === "common practice" ? "Common practice, no source" : `${u.document}${u.clause ? `, ${u.clause}` : ""}`;
+  return u.confidence === "common practice"
+    ? "Common practice, no source"
+    : `${u.document}${u.clause ? `, ${u.clause}` : ""}`;
 }

@@ -56,12 +56,21 @@ export function scheduleHeader(p: PackRoof): Cell[][] {
     ["Fallwright drop schedule"],
     ["roof", p.name],
     ["date", isoDate(p.date)],
-    ["units", p.units === "us" ? "plan positions and lengths in feet; levels and drops in inches (to 1/16)" : "plan positions and lengths in metres; levels and drops in millimetres"],
+    [
+      "units",
+      p.units === "us"
+        ? "plan positions and lengths in feet; levels and drops in inches (to 1/16)"
+        : "plan positions and lengths in metres; levels and drops in millimetres",
+    ],
     ["datum", datumText(p)],
     ["high_level_H_mm", mmOf(s.highLevel)],
     ["joist_spacing_mm", mmOf(s.setOut.spacing)],
     ["joist_direction_deg", directionDegrees(s.joistDirection), "anticlockwise from the plan's x axis"],
-    ["first_joist_offset_m", Math.round(s.setOut.offset * 1000) / 1000, s.setOut.fromOutlets ? "set out from the outlets" : "as given"],
+    [
+      "first_joist_offset_m",
+      Math.round(s.setOut.offset * 1000) / 1000,
+      s.setOut.fromOutlets ? "set out from the outlets" : "as given",
+    ],
     ["base_fall", formatRatio(p.analysis.baseFall.ratio)],
     ["rule_set", p.analysis.ruleSet.name],
     ["outlets", "number", "x_m", "y_m", "level_mm", "joist"],
@@ -71,7 +80,10 @@ export function scheduleHeader(p: PackRoof): Cell[][] {
 }
 
 /** The columns this roof's schedule has (the span column only where a joist has more than one span). */
-export function scheduleColumns(rows: ScheduleRow[], units: PackRoof["units"] = "metric"): [string, (r: ScheduleRow) => Cell][] {
+export function scheduleColumns(
+  rows: ScheduleRow[],
+  units: PackRoof["units"] = "metric",
+): [string, (r: ScheduleRow) => Cell][] {
   const all = units === "us" ? COLUMNS_US : COLUMNS;
   return hasMultiSpan(rows) ? all : all.filter(([name]) => name !== "span");
 }
@@ -92,4 +104,5 @@ export function scheduleCsv(p: PackRoof): string {
   );
 }
 
-export const scheduleFileName = (p: Pick<PackRoof, "name" | "date">) => packFileName(p.name, "drop-schedule", p.date, "csv");
+export const scheduleFileName = (p: Pick<PackRoof, "name" | "date">) =>
+  packFileName(p.name, "drop-schedule", p.date, "csv");

@@ -36,7 +36,8 @@ export function fallDetail(ratio: number | null | undefined): string {
   if (ratio == null || !Number.isFinite(ratio)) return "level";
   return `${((Math.atan(1 / ratio) * 180) / Math.PI).toFixed(2)}° · ${(100 / ratio).toFixed(2)} %`;
 }
-const fallWithDetail = (r: number | null | undefined) => (r == null || !Number.isFinite(r) ? "level" : `${formatRatio(r)} (${fallDetail(r)})`);
+const fallWithDetail = (r: number | null | undefined) =>
+  r == null || !Number.isFinite(r) ? "level" : `${formatRatio(r)} (${fallDetail(r)})`;
 
 export function sheetData(p: PackRoof): SheetData {
   const { analysis: a, spec } = p;
@@ -56,18 +57,39 @@ export function sheetData(p: PackRoof): SheetData {
       `${s.joists.length} at ${mmOf(s.setOut.spacing)} mm, ${directionDegrees(s.joistDirection).toFixed(1)}° from x, first at ${s.setOut.offset.toFixed(3)} m${s.setOut.fromOutlets ? " (set out from the outlets)" : ""}`,
     ],
     ["Rainfall intensity", `${a.rainfall.intensity} mm/h${a.rainfall.assumed ? " (assumed)" : ""}`],
-    ["Gutter layout high level", a.gutter.comparable ? `${mm(a.gutter.highLevel)} (saves ${mm(a.comparison.heightSaved)} by shaping)` : `not comparable: ${a.gutter.reason ?? ""}`],
+    [
+      "Gutter layout high level",
+      a.gutter.comparable
+        ? `${mm(a.gutter.highLevel)} (saves ${mm(a.comparison.heightSaved)} by shaping)`
+        : `not comparable: ${a.gutter.reason ?? ""}`,
+    ],
     [`Open edge (edge ${a.openEdge.edge + 1}) high level`, mm(a.openEdge.highLevel)],
   ];
   const rows = scheduleRows(s.joists);
   const columns = scheduleColumns(rows);
   const headings: Record<string, string> = {
-    joist: "joist", span: "span", offset_m: "offset m", start_x_m: "start x", start_y_m: "start y", end_x_m: "end x", end_y_m: "end y",
-    length_m: "length m", start_level_mm: "start level", end_level_mm: "end level", start_drop_below_H_mm: "start drop", end_drop_below_H_mm: "end drop", fall: "fall",
+    joist: "joist",
+    span: "span",
+    offset_m: "offset m",
+    start_x_m: "start x",
+    start_y_m: "start y",
+    end_x_m: "end x",
+    end_y_m: "end y",
+    length_m: "length m",
+    start_level_mm: "start level",
+    end_level_mm: "end level",
+    start_drop_below_H_mm: "start drop",
+    end_drop_below_H_mm: "end drop",
+    fall: "fall",
   };
   // The sheet leaves out the plan coordinates (the plan shows them); the CSV keeps them.
   const shown = columns.filter(([name]) => !/_(x|y)_m$/.test(name));
-  const cell = (name: string, v: string | number) => (typeof v === "number" ? (name.endsWith("_m") ? v.toFixed(name === "offset_m" || name === "length_m" ? 2 : 3) : String(v)) : v);
+  const cell = (name: string, v: string | number) =>
+    typeof v === "number"
+      ? name.endsWith("_m")
+        ? v.toFixed(name === "offset_m" || name === "length_m" ? 2 : 3)
+        : String(v)
+      : v;
   const tables: SheetTable[] = [
     {
       title: "Outlets",
@@ -79,7 +101,13 @@ export function sheetData(p: PackRoof): SheetData {
       title: "Edge falls",
       header: ["edge", "from (low)", "to (high)", "fall", "° · %"],
       numeric: [false, false, false, true, true],
-      rows: s.edgeFalls.map((r) => [String(r.edge + 1), pt(r.from), pt(r.to), formatRatio(r.ratio), fallDetail(r.ratio)]),
+      rows: s.edgeFalls.map((r) => [
+        String(r.edge + 1),
+        pt(r.from),
+        pt(r.to),
+        formatRatio(r.ratio),
+        fallDetail(r.ratio),
+      ]),
     },
     {
       title: "Catchments and flows",
@@ -98,9 +126,13 @@ export function sheetData(p: PackRoof): SheetData {
   ];
   const warnings = a.warnings.map((w) => w.message);
   if (a.advice.minimumBaseFall)
-    warnings.push(`Advice: the flattest base fall keeping every fall line at ${formatRatio(a.minFall.ratio)} is ${formatRatio(a.advice.minimumBaseFall.ratio)} (${fallDetail(a.advice.minimumBaseFall.ratio)}).`);
+    warnings.push(
+      `Advice: the flattest base fall keeping every fall line at ${formatRatio(a.minFall.ratio)} is ${formatRatio(a.advice.minimumBaseFall.ratio)} (${fallDetail(a.advice.minimumBaseFall.ratio)}).`,
+    );
   if (a.advice.extraOutlet)
-    warnings.push(`Advice: one more outlet at ${pt(a.advice.extraOutlet.at)} (edge ${a.advice.extraOutlet.edge + 1}) would bring the longest fall line to ${formatRatio(a.advice.extraOutlet.longestFallRatio)}.`);
+    warnings.push(
+      `Advice: one more outlet at ${pt(a.advice.extraOutlet.at)} (edge ${a.advice.extraOutlet.edge + 1}) would bring the longest fall line to ${formatRatio(a.advice.extraOutlet.longestFallRatio)}.`,
+    );
   const ruleSet = {
     title: "Rule set and sources",
     name: a.ruleSet.name,

@@ -12,7 +12,8 @@ const encoder = new TextEncoder();
 function analyseTask(task: Extract<PoolTask, { kind: "analyse" }>): PoolResult {
   const started = performance.now();
   const parsed = parseRoofSpec(task.spec);
-  if (!parsed.ok) return { kind: "refused", status: parsed.status, error: parsed.error, ms: performance.now() - started };
+  if (!parsed.ok)
+    return { kind: "refused", status: parsed.status, error: parsed.error, ms: performance.now() - started };
   let json: string;
   try {
     json = JSON.stringify(analyseRoof(parsed.roof, { mesh: task.mesh, traces: task.traces }));
@@ -20,9 +21,11 @@ function analyseTask(task: Extract<PoolTask, { kind: "analyse" }>): PoolResult {
     return { kind: "failed", message: (error as Error)?.message ?? String(error), ms: performance.now() - started };
   }
   // Length in UTF-16 units is at most the UTF-8 length for the ASCII-heavy answer; encode only what fits.
-  if (json.length > task.maxBytes) return { kind: "too-large", bytes: Buffer.byteLength(json), ms: performance.now() - started };
+  if (json.length > task.maxBytes)
+    return { kind: "too-large", bytes: Buffer.byteLength(json), ms: performance.now() - started };
   const bytes = encoder.encode(json);
-  if (bytes.byteLength > task.maxBytes) return { kind: "too-large", bytes: bytes.byteLength, ms: performance.now() - started };
+  if (bytes.byteLength > task.maxBytes)
+    return { kind: "too-large", bytes: bytes.byteLength, ms: performance.now() - started };
   // Cloned on the way back (a memcpy); piscina moves only a top-level transferable.
   return { kind: "bytes", bytes, ms: performance.now() - started };
 }
@@ -31,9 +34,14 @@ function analyseTask(task: Extract<PoolTask, { kind: "analyse" }>): PoolResult {
 function shapeTask(task: Extract<PoolTask, { kind: "shape" }>): PoolResult {
   const started = performance.now();
   const parsed = parseSpec(task.spec);
-  if (!parsed.ok) return { kind: "refused", status: parsed.status, error: parsed.error, ms: performance.now() - started };
+  if (!parsed.ok)
+    return { kind: "refused", status: parsed.status, error: parsed.error, ms: performance.now() - started };
   try {
-    return { kind: "analysis", analysis: analyse(parsed.spec, { mesh: task.mesh, traces: false }), ms: performance.now() - started };
+    return {
+      kind: "analysis",
+      analysis: analyse(parsed.spec, { mesh: task.mesh, traces: false }),
+      ms: performance.now() - started,
+    };
   } catch (error) {
     return { kind: "failed", message: (error as Error)?.message ?? String(error), ms: performance.now() - started };
   }

@@ -8,7 +8,11 @@ export async function runTask(task: PoolTask): Promise<PoolResult> {
     case "hash":
       return { kind: "text", text: await bcrypt.hash(task.password, task.cost), ms: performance.now() - started };
     case "compare":
-      return { kind: "boolean", value: await bcrypt.compare(task.password, task.hash), ms: performance.now() - started };
+      return {
+        kind: "boolean",
+        value: await bcrypt.compare(task.password, task.hash),
+        ms: performance.now() - started,
+      };
     default:
       throw new Error(`the password pool does not run ${task.kind} tasks`);
   }

@@ -6,6 +6,7 @@ import { workerData } from "node:worker_threads";
 import { register } from "tsx/esm/api";
 
 register({ tsconfig: path.resolve(import.meta.dirname, "../../../tsconfig.json") });
-const tasks = workerData?.tasks === "password" ? await import("./password-tasks.ts") : await import("./engine-tasks.ts");
+const tasks =
+  workerData?.tasks === "password" ? await import("./password-tasks.ts") : await import("./engine-tasks.ts");
 
 export default tasks.runTask;

@@ -12,9 +12,22 @@ const { action, loader, ANALYSIS_BODY_LIMIT } = await import("~/routes/api.v1.an
 const { checkApiResponse } = await import("../../support/openapi");
 
 const URL_ = "http://localhost/api/v1/analyses";
-const spec = { outline: [[0, 0], [20, 0], [20, 10], [0, 10]], outlets: [{ at: [10, 0] }], baseFall: "1:40" };
+const spec = {
+  outline: [
+    [0, 0],
+    [20, 0],
+    [20, 10],
+    [0, 10],
+  ],
+  outlets: [{ at: [10, 0] }],
+  baseFall: "1:40",
+};
 
-function post(body: BodyInit | null, headers: Record<string, string> = { "Content-Type": "application/json" }, url = URL_) {
+function post(
+  body: BodyInit | null,
+  headers: Record<string, string> = { "Content-Type": "application/json" },
+  url = URL_,
+) {
   return new Request(url, { method: "POST", body, headers, duplex: "half" } as RequestInit);
 }
 // Every answer is also held to the OpenAPI document (tests/support/openapi.ts).
@@ -41,7 +54,17 @@ describe("POST /api/v1/analyses", () => {
     expect(res.status).toBe(200);
     const a = await res.json();
     expect(a.shaped.highLevel).toBeCloseTo(0.25, 12);
-    for (const key of ["joistDirection", "edgeFalls", "longestFallLine", "worstFallRatio", "joists", "fallMap", "catchments", "ponding", "probes"]) {
+    for (const key of [
+      "joistDirection",
+      "edgeFalls",
+      "longestFallLine",
+      "worstFallRatio",
+      "joists",
+      "fallMap",
+      "catchments",
+      "ponding",
+      "probes",
+    ]) {
       expect(a.shaped).toHaveProperty(key);
     }
     for (const key of ["gutter", "openEdge", "comparison", "advice", "warnings"]) expect(a).toHaveProperty(key);
@@ -76,7 +99,7 @@ describe("POST /api/v1/analyses", () => {
   });
 
   it("400 for broken JSON and for a malformed spec, with issue paths", async () => {
-    const broken = await call(post("{\"outline\": [[0,0],"));
+    const broken = await call(post('{"outline": [[0,0],'));
     expect(broken.status).toBe(400);
     const malformed = await call(post(JSON.stringify({ ...spec, baseFall: "steep" })));
     expect(malformed.status).toBe(400);
@@ -85,13 +108,28 @@ describe("POST /api/v1/analyses", () => {
   });
 
   it("422 for a spec that cannot be built", async () => {
-    const res = await call(post(JSON.stringify({ ...spec, outline: [[0, 0], [10, 10], [10, 0], [0, 10]] })));
+    const res = await call(
+      post(
+        JSON.stringify({
+          ...spec,
+          outline: [
+            [0, 0],
+            [10, 10],
+            [10, 0],
+            [0, 10],
+          ],
+        }),
+      ),
+    );
     expect(res.status).toBe(422);
     expect((await res.json()).error.message).toMatch(/cannot be built/);
   });
 
   it("passes on the limiter's 429, and answers again once the limiter allows", async () => {
-    limiter.next = Response.json({ error: { message: "Too many", issues: [] } }, { status: 429, headers: { "Retry-After": "7" } });
+    limiter.next = Response.json(
+      { error: { message: "Too many", issues: [] } },
+      { status: 429, headers: { "Retry-After": "7" } },
+    );
     const limited = await call(post(JSON.stringify(spec)));
     expect(limited.status).toBe(429);
     expect(limited.headers.get("Retry-After")).toBe("7");

@@ -12,15 +12,41 @@ function run(spec: unknown, mesh: boolean | "typed" = "typed"): Analysis {
   return analyse(parsed.spec, { mesh, traces: true });
 }
 
-const SMALL = { outline: [[0, 0], [15, 0], [15, 10], [0, 10]], outlets: [{ at: [7.5, 0] }], baseFall: "1:60" };
+const SMALL = {
+  outline: [
+    [0, 0],
+    [15, 0],
+    [15, 10],
+    [0, 10],
+  ],
+  outlets: [{ at: [7.5, 0] }],
+  baseFall: "1:60",
+};
 // Larger and differently shaped, so its arrays overrun the block the small roof left behind.
 const L_SHAPE = {
-  outline: [[0, 0], [50, 0], [50, 21], [30, 21], [30, 36], [0, 36]],
+  outline: [
+    [0, 0],
+    [50, 0],
+    [50, 21],
+    [30, 21],
+    [30, 36],
+    [0, 36],
+  ],
   outlets: [{ at: [12.5, 0] }, { at: [37.5, 0] }],
   baseFall: "1:50",
 };
 // A level patch and a pit: the level edges and pit search use the block too.
-const WITH_PIT = { outline: [[0, 0], [12, 0], [12, 8], [0, 8]], outlets: [{ at: [6, 0] }], baseFall: "1:80", highLevel: 0.02 };
+const WITH_PIT = {
+  outline: [
+    [0, 0],
+    [12, 0],
+    [12, 8],
+    [0, 8],
+  ],
+  outlets: [{ at: [6, 0] }],
+  baseFall: "1:80",
+  highLevel: 0.02,
+};
 
 describe("working memory reused between analyses", () => {
   it("a roof analysed again after others gives the same answer, mesh included", () => {

@@ -14,7 +14,17 @@ const { action, loader } = await import("~/routes/api.v1.analyses.as-built");
 const URL_ = "http://localhost/api/v1/analyses/as-built";
 // 4 m x 2 m, outlet at (2, 0), 1:40: the outlet at level 0, the far edge at 50 mm
 // (docs/roof-method.md §2-§3: H = 2 m / 40).
-const spec = { outline: [[0, 0], [4, 0], [4, 2], [0, 2]], outlets: [{ at: [2, 0] }], baseFall: "1:40", joists: { spacing: 0.4 } };
+const spec = {
+  outline: [
+    [0, 0],
+    [4, 0],
+    [4, 2],
+    [0, 2],
+  ],
+  outlets: [{ at: [2, 0] }],
+  baseFall: "1:40",
+  joists: { spacing: 0.4 },
+};
 const points = [
   { at: [0, 0], level: 0.05 },
   { at: [2, 0], level: 0 },
@@ -25,7 +35,12 @@ const points = [
 ];
 
 function post(body: unknown, headers: Record<string, string> = { "Content-Type": "application/json" }) {
-  return new Request(URL_, { method: "POST", body: typeof body === "string" ? body : JSON.stringify(body), headers, duplex: "half" } as RequestInit);
+  return new Request(URL_, {
+    method: "POST",
+    body: typeof body === "string" ? body : JSON.stringify(body),
+    headers,
+    duplex: "half",
+  } as RequestInit);
 }
 const call = (request: Request) => action({ request, context: {}, params: {} } as never) as Promise<Response>;
 
@@ -72,7 +87,20 @@ describe("POST /api/v1/analyses/as-built", () => {
   });
 
   it("422 for a roof that cannot be built or a point off the roof", async () => {
-    const crossing = await call(post({ spec: { ...spec, outline: [[0, 0], [4, 2], [4, 0], [0, 2]] }, points }));
+    const crossing = await call(
+      post({
+        spec: {
+          ...spec,
+          outline: [
+            [0, 0],
+            [4, 2],
+            [4, 0],
+            [0, 2],
+          ],
+        },
+        points,
+      }),
+    );
     expect(crossing.status).toBe(422);
     const outside = await call(post({ spec, points: [...points, { at: [9, 9], level: 0 }] }));
     expect(outside.status).toBe(422);

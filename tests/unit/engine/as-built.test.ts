@@ -8,7 +8,12 @@ import type { RoofSpec } from "~/engine/types";
 // bottom edge rises from the outlet at 1:40 to the corners, so the joist ends on it sit at
 // 0.05 - |x - 2| ... that is, level = |x - 2| / 40; every other edge is at the high level 50 mm.
 const roof: RoofSpec = {
-  outline: [[0, 0], [4, 0], [4, 2], [0, 2]],
+  outline: [
+    [0, 0],
+    [4, 0],
+    [4, 2],
+    [0, 2],
+  ],
   outlets: [{ at: [2, 0] }],
   baseFall: "1:40",
   joists: { spacing: 0.4 },
@@ -82,7 +87,14 @@ describe("as-built check", () => {
     // Area by hand: 10 x 4 + 4 x 4 = 56 m². The convex hull of the points would add the
     // 6 x 4 = 24 m² notch; the surface must not.
     const L: RoofSpec = {
-      outline: [[0, 0], [10, 0], [10, 4], [4, 4], [4, 8], [0, 8]],
+      outline: [
+        [0, 0],
+        [10, 0],
+        [10, 4],
+        [4, 4],
+        [4, 8],
+        [0, 8],
+      ],
       outlets: [{ at: [5, 0] }, { at: [0, 6] }],
       baseFall: "1:60",
       joists: { spacing: 0.6 },
@@ -130,7 +142,14 @@ describe("as-built check", () => {
     // trapezoid with corners (0,0), (1,0), (0.5,0.5), (0,0.5): area 0.375. Depth 0.5 - y;
     // volume = ∫0^0.5 (0.5 - y)(1 - y) dy = [0.5y - 0.75y² + y³/3] = 0.25 - 0.1875 + 0.041667
     // = 0.104167.
-    const w = wetPart([[0, 0, 0], [1, 0, 0], [0, 1, 1]], 0.5);
+    const w = wetPart(
+      [
+        [0, 0, 0],
+        [1, 0, 0],
+        [0, 1, 1],
+      ],
+      0.5,
+    );
     expect(w.area).toBeCloseTo(0.375, 9);
     expect(w.volume).toBeCloseTo(0.25 - 0.1875 + 0.125 / 3, 9);
   });

@@ -3,9 +3,11 @@ import { analyse, MAX_MESH_VERTICES, parseSpec, type Analysis } from "~/engine";
 
 /** Every number in a JSON-bound analysis is finite, except level-face ratios (Infinity → null). */
 function nonFinite(value: unknown, path = "analysis", out: string[] = []): string[] {
-  if (typeof value === "number" && !Number.isFinite(value) && !path.includes("faceRatio")) out.push(`${path} = ${value}`);
+  if (typeof value === "number" && !Number.isFinite(value) && !path.includes("faceRatio"))
+    out.push(`${path} = ${value}`);
   else if (Array.isArray(value)) value.forEach((v, i) => out.length < 5 && nonFinite(v, `${path}.${i}`, out));
-  else if (value && typeof value === "object") for (const [k, v] of Object.entries(value)) nonFinite(v, `${path}.${k}`, out);
+  else if (value && typeof value === "object")
+    for (const [k, v] of Object.entries(value)) nonFinite(v, `${path}.${k}`, out);
   return out;
 }
 
@@ -34,7 +36,16 @@ describe("work is bounded at the limits (issue 4: never a hang)", () => {
   });
 
   it("a 90,000 m² roof at 0.4 m joists coarsens its mesh within the vertex budget and says so", () => {
-    const a = run({ outline: [[0, 0], [300, 0], [300, 300], [0, 300]], outlets: [{ at: [100, 0] }, { at: [200, 0] }, { at: [150, 300] }], baseFall: "1:80" });
+    const a = run({
+      outline: [
+        [0, 0],
+        [300, 0],
+        [300, 300],
+        [0, 300],
+      ],
+      outlets: [{ at: [100, 0] }, { at: [200, 0] }, { at: [150, 300] }],
+      baseFall: "1:80",
+    });
     const vertices = a.shaped.mesh!.positions.length / 3;
     expect(vertices).toBeLessThanOrEqual(MAX_MESH_VERTICES * 1.1);
     expect(a.warnings.some((w) => w.code === "mesh-coarsened")).toBe(true);
@@ -44,7 +55,14 @@ describe("work is bounded at the limits (issue 4: never a hang)", () => {
 
   it("a 990 km sliver laid diagonally (99,000 m²) keeps its mesh and traces bounded", () => {
     const c = Math.SQRT1_2;
-    const outline = ([[0, 0], [990_000, 0], [990_000, 0.1], [0, 0.1]] as [number, number][]).map(([x, y]): [number, number] => [c * x - c * y, c * x + c * y]);
+    const outline = (
+      [
+        [0, 0],
+        [990_000, 0],
+        [990_000, 0.1],
+        [0, 0.1],
+      ] as [number, number][]
+    ).map(([x, y]): [number, number] => [c * x - c * y, c * x + c * y]);
     const outlet: [number, number] = [(outline[3][0] + outline[0][0]) / 2, (outline[3][1] + outline[0][1]) / 2];
     const started = Date.now();
     const a = run({ outline, outlets: [{ at: outlet }], baseFall: "1:40" });
@@ -57,11 +75,21 @@ describe("work is bounded at the limits (issue 4: never a hang)", () => {
   it("an analysis survives JSON: no NaN or Infinity outside level-face ratios", () => {
     const a = run(
       {
-        outline: [[0, 0], [12, 0], [12, 5], [7, 5], [7, 9], [0, 9]],
+        outline: [
+          [0, 0],
+          [12, 0],
+          [12, 5],
+          [7, 5],
+          [7, 9],
+          [0, 9],
+        ],
         edges: ["parapet", "parapet", "parapet", "parapet", "eaves", "parapet"],
         outlets: [{ at: [12, 0] }, { at: [3, 0], level: 0.02 }],
         baseFall: "1.5%",
-        probes: [[1, 1], [50, 50]],
+        probes: [
+          [1, 1],
+          [50, 50],
+        ],
       },
       { mesh: true, traces: true },
     );

@@ -21,7 +21,10 @@ describe("npm run analyse", () => {
       expect(csv.meta.fields).toContain("start_drop_below_H_mm");
       const first = csv.data[0];
       expect(Number(first.start_level_mm)).toBe(Math.round(spans[0].startLevel * 1000));
-      expect(Number(first.start_drop_below_H_mm) + Number(first.start_level_mm)).toBeCloseTo(Math.round(a.shaped.highLevel * 1000), -0.5);
+      expect(Number(first.start_drop_below_H_mm) + Number(first.start_level_mm)).toBeCloseTo(
+        Math.round(a.shaped.highLevel * 1000),
+        -0.5,
+      );
     });
 
     it(`${name}: the report prints the high level, longest fall line and every warning`, () => {

@@ -22,7 +22,14 @@ describe("rectangle with one outlet mid-way along the long edge", () => {
       outlets: [{ at: [10, 0] }],
       baseFall: "1:40",
       rainfall: { intensity: 75 },
-      probes: [[12, 4], [5, 5], [10, 0], [0, 0], [20, 5], [10, 5]],
+      probes: [
+        [12, 4],
+        [5, 5],
+        [10, 0],
+        [0, 0],
+        [20, 5],
+        [10, 5],
+      ],
     },
     { mesh: true, traces: false },
   );
@@ -109,10 +116,17 @@ describe("rectangle with one outlet mid-way along the long edge", () => {
     let total = 0;
     for (let f = 0; f < m.indices.length; f += 3) {
       const [p, q, r] = [m.indices[f], m.indices[f + 1], m.indices[f + 2]].map((i) => 3 * i);
-      total += ((m.positions[q] - m.positions[p]) * (m.positions[r + 1] - m.positions[p + 1]) - (m.positions[q + 1] - m.positions[p + 1]) * (m.positions[r] - m.positions[p])) / 2;
+      total +=
+        ((m.positions[q] - m.positions[p]) * (m.positions[r + 1] - m.positions[p + 1]) -
+          (m.positions[q + 1] - m.positions[p + 1]) * (m.positions[r] - m.positions[p])) /
+        2;
     }
     close(total, 200, 1e-6);
-    close(a.shaped.fallMap.areaByBand.reduce((s, b) => s + b.area, 0), 200, 1e-6);
+    close(
+      a.shaped.fallMap.areaByBand.reduce((s, b) => s + b.area, 0),
+      200,
+      1e-6,
+    );
   });
 });
 
@@ -169,7 +183,11 @@ describe("two outlets on one edge, at (5, 0) and (15, 0)", () => {
     outlets: [{ at: [5, 0] }, { at: [15, 0] }],
     baseFall: "1:40",
     rainfall: { intensity: 100 },
-    probes: [[10, 5], [5, 5], [7.5, 2]],
+    probes: [
+      [10, 5],
+      [5, 5],
+      [7.5, 2],
+    ],
   });
 
   it("edge rises to H at the corners and half-way (x = 10): four pieces of 5 m over 0.25 m = 1:20", () => {
@@ -208,7 +226,15 @@ describe("two outlets on one edge, at (5, 0) and (15, 0)", () => {
 });
 
 describe("corner outlet at (0, 0)", () => {
-  const a = analyseSpec({ outline: RECT_20_10, outlets: [{ at: [0, 0] }], baseFall: "1:40", probes: [[10, 5], [0, 5]] });
+  const a = analyseSpec({
+    outline: RECT_20_10,
+    outlets: [{ at: [0, 0] }],
+    baseFall: "1:40",
+    probes: [
+      [10, 5],
+      [0, 5],
+    ],
+  });
 
   it("joists run the short way (normal of the 20 m edge); the span is the 10 m end wall: H = 0.25", () => {
     expect(a.shaped.joistDirection).toEqual([0, 1]);
@@ -251,7 +277,11 @@ describe("open edge: eaves along the bottom, no outlets", () => {
     edges: ["eaves", "parapet", "parapet", "parapet"],
     outlets: [],
     baseFall: "1:40",
-    probes: [[3, 4], [7, 10], [20, 2.5]],
+    probes: [
+      [3, 4],
+      [7, 10],
+      [20, 2.5],
+    ],
   });
 
   it("is one plane z = H·y/10 with H = 10/40 = 0.25", () => {
@@ -275,7 +305,13 @@ describe("open edge: eaves along the bottom, no outlets", () => {
 
   it("fall map: every face of the plane falls at 1:40, so all 200 m² sit in the first band", () => {
     const bands = a.shaped.fallMap.areaByBand;
-    expect(bands.map((b) => b.label)).toEqual(["steeper than 1:40", "1:40-1:60", "1:60-1:80", "1:80-1:100", "flatter than 1:100"]);
+    expect(bands.map((b) => b.label)).toEqual([
+      "steeper than 1:40",
+      "1:40-1:60",
+      "1:60-1:80",
+      "1:80-1:100",
+      "flatter than 1:100",
+    ]);
     close(bands[0].area, 200, 1e-6);
     close(a.shaped.fallMap.flatterThanMinimumArea, 0, 1e-9);
   });
@@ -286,7 +322,12 @@ describe("open edge: eaves along the bottom, no outlets", () => {
     // Flatter than the 1:100 minimum: the last band, and all of it flatter than the minimum.
     ["1:120", 4, 200],
   ] as const)("fall map of a %s plane: all 200 m² in band %i", (fall, band, flatter) => {
-    const p = analyseSpec({ outline: RECT_20_10, edges: ["eaves", "parapet", "parapet", "parapet"], outlets: [], baseFall: fall });
+    const p = analyseSpec({
+      outline: RECT_20_10,
+      edges: ["eaves", "parapet", "parapet", "parapet"],
+      outlets: [],
+      baseFall: fall,
+    });
     p.shaped.fallMap.areaByBand.forEach((b, i) => close(b.area, i === band ? 200 : 0, 1e-6));
     close(p.shaped.fallMap.flatterThanMinimumArea, flatter, 1e-6);
   });
@@ -302,7 +343,14 @@ describe("L-shape: the fall line bends round the re-entrant corner", () => {
   // L: 10 × 4 strip along the bottom and a 4 × 6 arm up the left; outlet at (9, 0).
   // The joist through the outlet spans 4 m → H = 4/40 = 0.1.
   const a = analyseSpec({
-    outline: [[0, 0], [10, 0], [10, 4], [4, 4], [4, 10], [0, 10]],
+    outline: [
+      [0, 0],
+      [10, 0],
+      [10, 4],
+      [4, 4],
+      [4, 10],
+      [0, 10],
+    ],
     outlets: [{ at: [9, 0] }],
     baseFall: "1:40",
   });
@@ -312,7 +360,11 @@ describe("L-shape: the fall line bends round the re-entrant corner", () => {
     expect(l.from).toEqual([0, 10]);
     close(a.shaped.highLevel, 0.1);
     close(l.length, Math.sqrt(52) + Math.sqrt(41));
-    expect(l.path).toEqual([[0, 10], [4, 4], [9, 0]]);
+    expect(l.path).toEqual([
+      [0, 10],
+      [4, 4],
+      [9, 0],
+    ]);
     close(l.ratio, (Math.sqrt(52) + Math.sqrt(41)) / 0.1);
     expect(a.warnings.some((w) => w.code === "fall-line-too-flat")).toBe(true);
   });
@@ -322,7 +374,7 @@ describe("L-shape: the fall line bends round the re-entrant corner", () => {
     // it is 0.0556 + 0.0444 × 0.4 = 0.0733, while just right of it the chord ends at (4, 4) at H.
     const twist = a.warnings.find((w) => w.code === "twist")!;
     expect(twist).toBeDefined();
-    close(twist.size!, 0.1 - (0.1 * 5 / 9 + (0.1 - 0.1 * 5 / 9) * 0.4), 1e-9);
+    close(twist.size!, 0.1 - ((0.1 * 5) / 9 + (0.1 - (0.1 * 5) / 9) * 0.4), 1e-9);
     close(twist.at![0], 4);
     close(twist.at![1], 4, 1e-6);
   });

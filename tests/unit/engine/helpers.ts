@@ -24,11 +24,16 @@ export function shoelace(points: [number, number][]): number {
 }
 
 /** Sum of plan areas of a mesh's triangles, and the smallest signed one. */
-export function meshAreas(positions: ArrayLike<number>, indices: ArrayLike<number>): { total: number; smallest: number } {
+export function meshAreas(
+  positions: ArrayLike<number>,
+  indices: ArrayLike<number>,
+): { total: number; smallest: number } {
   let total = 0;
   let smallest = Infinity;
   for (let f = 0; f < indices.length; f += 3) {
-    const a = 3 * indices[f], b = 3 * indices[f + 1], c = 3 * indices[f + 2];
+    const a = 3 * indices[f],
+      b = 3 * indices[f + 1],
+      c = 3 * indices[f + 2];
     const area =
       ((positions[b] - positions[a]) * (positions[c + 1] - positions[a + 1]) -
         (positions[b + 1] - positions[a + 1]) * (positions[c] - positions[a])) /

@@ -22,7 +22,12 @@ interface Case {
 
 const num = (min: number, max: number) => fc.double({ min, max, noNaN: true, noDefaultInfinity: true });
 
-const rectangle = fc.tuple(num(3, 40), num(3, 30)).map(([w, h]): Point[] => [[0, 0], [w, 0], [w, h], [0, h]]);
+const rectangle = fc.tuple(num(3, 40), num(3, 30)).map(([w, h]): Point[] => [
+  [0, 0],
+  [w, 0],
+  [w, h],
+  [0, h],
+]);
 const convex = fc
   .tuple(fc.integer({ min: 3, max: 8 }), num(4, 25), num(4, 25), fc.double({ min: 0, max: 1, noNaN: true }))
   .map(([k, rx, ry, phase]): Point[] =>
@@ -32,9 +37,14 @@ const convex = fc
       return [rx * Math.cos(a), ry * Math.sin(a)];
     }),
   );
-const lShape = fc
-  .tuple(num(6, 30), num(6, 30), num(0.25, 0.75), num(0.25, 0.75))
-  .map(([w, h, fa, fb]): Point[] => [[0, 0], [w, 0], [w, fb * h], [fa * w, fb * h], [fa * w, h], [0, h]]);
+const lShape = fc.tuple(num(6, 30), num(6, 30), num(0.25, 0.75), num(0.25, 0.75)).map(([w, h, fa, fb]): Point[] => [
+  [0, 0],
+  [w, 0],
+  [w, fb * h],
+  [fa * w, fb * h],
+  [fa * w, h],
+  [0, h],
+]);
 
 const pointOn = (outline: Point[], edge: number, t: number): Point => {
   const a = outline[edge];
@@ -45,7 +55,10 @@ const pointOn = (outline: Point[], edge: number, t: number): Point => {
 const roofCase = fc
   .tuple(
     fc.oneof(rectangle, convex, lShape),
-    fc.array(fc.tuple(fc.nat(), fc.oneof(num(0.05, 0.95), fc.constant(0)), fc.oneof(fc.constant(0), num(0, 0.05))), { minLength: 1, maxLength: 3 }),
+    fc.array(fc.tuple(fc.nat(), fc.oneof(num(0.05, 0.95), fc.constant(0)), fc.oneof(fc.constant(0), num(0, 0.05))), {
+      minLength: 1,
+      maxLength: 3,
+    }),
     fc.option(fc.nat(), { nil: undefined }),
     fc.constantFrom("1:40", "1:60", "2°", "1.5%", "1:80"),
     fc.array(fc.tuple(num(-0.2, 1.2), num(-0.2, 1.2)), { maxLength: 6 }),
@@ -60,12 +73,15 @@ const roofCase = fc
     if (eavesPick !== undefined) {
       const e = eavesPick % n;
       // Keep outlets off the eaves edge, including corner outlets at its ends.
-      const touches = outletPicks.some(([o, t]) => o % n === e || (t === 0 && (o % n === (e + 1) % n)));
+      const touches = outletPicks.some(([o, t]) => o % n === e || (t === 0 && o % n === (e + 1) % n));
       if (!touches) edges = outline.map((_, i) => (i === e ? "eaves" : "parapet"));
     }
     void outletEdges;
     const outlets = outletPicks.map(([e, t, level]) => ({ at: pointOn(outline, e % n, t), level }));
-    let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
+    let minX = Infinity,
+      minY = Infinity,
+      maxX = -Infinity,
+      maxY = -Infinity;
     for (const [x, y] of outline) {
       minX = Math.min(minX, x);
       maxX = Math.max(maxX, x);
@@ -151,7 +167,10 @@ function rimRule(spec: RoofSpec, H: number, e: number, t: number): number {
   return knots[knots.length - 1][1];
 }
 
-const rotate = (p: Point, c: number, s: number, tx: number, ty: number): Point => [c * p[0] - s * p[1] + tx, s * p[0] + c * p[1] + ty];
+const rotate = (p: Point, c: number, s: number, tx: number, ty: number): Point => [
+  c * p[0] - s * p[1] + tx,
+  s * p[0] + c * p[1] + ty,
+];
 
 function moved(spec: RoofSpec, angle: number, tx: number, ty: number): RoofSpec {
   const c = Math.cos(angle);
@@ -160,7 +179,8 @@ function moved(spec: RoofSpec, angle: number, tx: number, ty: number): RoofSpec 
   out.outline = spec.outline.map((p) => rotate(p, c, s, tx, ty));
   out.outlets = spec.outlets.map((o) => ({ ...o, at: rotate(o.at, c, s, tx, ty) }));
   out.probes = spec.probes?.map((p) => rotate(p, c, s, tx, ty));
-  if (spec.openings) out.openings = spec.openings.map((o) => ({ ...o, outline: o.outline.map((p) => rotate(p, c, s, tx, ty)) }));
+  if (spec.openings)
+    out.openings = spec.openings.map((o) => ({ ...o, outline: o.outline.map((p) => rotate(p, c, s, tx, ty)) }));
   if (spec.joists?.direction) out.joists = { ...spec.joists, direction: rotate(spec.joists.direction, c, s, 0, 0) };
   return out;
 }
@@ -173,7 +193,8 @@ function strictlyInside(ring: Point[], x: number, y: number, margin: number): bo
   for (let i = 0, j = ring.length - 1; i < ring.length; j = i++) {
     const [xi, yi] = ring[i];
     const [xj, yj] = ring[j];
-    const dx = xi - xj, dy = yi - yj;
+    const dx = xi - xj,
+      dy = yi - yj;
     const t = Math.max(0, Math.min(1, ((x - xj) * dx + (y - yj) * dy) / (dx * dx + dy * dy)));
     if (Math.hypot(xj + t * dx - x, yj + t * dy - y) <= margin) return false;
     if (yi > y !== yj > y && x < ((xj - xi) * (y - yi)) / (yj - yi) + xi) inside = !inside;
@@ -266,7 +287,13 @@ describe("invariants on random valid roofs", () => {
         const area = shoelace(spec.outline) - (spec.openings ?? []).reduce((sum, o) => sum + shoelace(o.outline), 0);
         expect(Math.abs(total - area)).toBeLessThan(1e-9 * area + 1e-9);
         expect(smallest).toBeGreaterThan(0);
-        expect(Math.abs(a.shaped.catchments.reduce((s, c) => s + c.area, 0) + a.shaped.ponding.reduce((s, p) => s + p.area, 0) - area)).toBeLessThan(1e-6 * area);
+        expect(
+          Math.abs(
+            a.shaped.catchments.reduce((s, c) => s + c.area, 0) +
+              a.shaped.ponding.reduce((s, p) => s + p.area, 0) -
+              area,
+          ),
+        ).toBeLessThan(1e-6 * area);
       }),
       RUNS,
     );
@@ -304,7 +331,15 @@ describe("invariants on random valid roofs", () => {
         // spacing along the boundaries (at most the perimeter); water on level ground has no
         // direction, so faces flatter than the minimum may go either way.
         const spacing = spec.joists?.spacing ?? 0.4;
-        const perimeter = spec.outline.reduce((s, p, i) => s + Math.hypot(p[0] - spec.outline[(i + 1) % spec.outline.length][0], p[1] - spec.outline[(i + 1) % spec.outline.length][1]), 0);
+        const perimeter = spec.outline.reduce(
+          (s, p, i) =>
+            s +
+            Math.hypot(
+              p[0] - spec.outline[(i + 1) % spec.outline.length][0],
+              p[1] - spec.outline[(i + 1) % spec.outline.length][1],
+            ),
+          0,
+        );
         const slack = 0.005 * area + (spacing * perimeter) / 2 + a.shaped.fallMap.flatterThanMinimumArea;
         const catchment = (x: Analysis) => Object.fromEntries(x.shaped.catchments.map((c) => [c.drain, c.area]));
         for (const [drain, value] of Object.entries(catchment(a))) {
@@ -313,13 +348,22 @@ describe("invariants on random valid roofs", () => {
         // A face whose fall sits within 5 % of a band edge may land on either side after the
         // rounding of a move; the bands must agree but for those faces.
         const m = run(spec, true).shaped.mesh!;
-        const edges = a.shaped.fallMap.areaByBand.flatMap((band) => [band.minRatio, band.maxRatio]).filter((r): r is number => r != null && Number.isFinite(r));
+        const edges = a.shaped.fallMap.areaByBand
+          .flatMap((band) => [band.minRatio, band.maxRatio])
+          .filter((r): r is number => r != null && Number.isFinite(r));
         let onEdge = 0;
         for (let f = 0; f < m.faceRatio.length; f++) {
           const r = m.faceRatio[f];
           if (r == null || !edges.some((e) => Math.abs(Math.log(r / e)) < 0.05)) continue;
           const [i, j, k] = [m.indices[3 * f], m.indices[3 * f + 1], m.indices[3 * f + 2]];
-          const [ax, ay, bx, by, cx, cy] = [m.positions[3 * i], m.positions[3 * i + 1], m.positions[3 * j], m.positions[3 * j + 1], m.positions[3 * k], m.positions[3 * k + 1]];
+          const [ax, ay, bx, by, cx, cy] = [
+            m.positions[3 * i],
+            m.positions[3 * i + 1],
+            m.positions[3 * j],
+            m.positions[3 * j + 1],
+            m.positions[3 * k],
+            m.positions[3 * k + 1],
+          ];
           onEdge += Math.abs((bx - ax) * (cy - ay) - (cx - ax) * (by - ay)) / 2;
         }
         a.shaped.fallMap.areaByBand.forEach((band, i) => {

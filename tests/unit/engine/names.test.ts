@@ -12,7 +12,12 @@ describe("one name for an outlet everywhere", () => {
     // A long roof with one corner outlet and a steep minimum: the far fall lines are too flat,
     // and a small outlet takes more than it passes.
     const parsed = parseSpec({
-      outline: [[0, 0], [60, 0], [60, 30], [0, 30]],
+      outline: [
+        [0, 0],
+        [60, 0],
+        [60, 30],
+        [0, 30],
+      ],
       outlets: [{ at: [0, 0], size: 0.05 }],
       baseFall: "1:80",
       minFall: "1:40",
@@ -27,7 +32,16 @@ describe("one name for an outlet everywhere", () => {
     expect(text).toContain("Outlet O1 (50 mm)");
     expect(a.shaped.catchments[0].label).toBe("Outlet O1");
 
-    const bad = parseSpec({ outline: [[0, 0], [10, 0], [10, 10], [0, 10]], outlets: [{ at: [5, 0] }, { at: [50, 50] }], baseFall: "1:40" });
+    const bad = parseSpec({
+      outline: [
+        [0, 0],
+        [10, 0],
+        [10, 10],
+        [0, 10],
+      ],
+      outlets: [{ at: [5, 0] }, { at: [50, 50] }],
+      baseFall: "1:40",
+    });
     expect(bad.ok).toBe(false);
     if (!bad.ok) expect(bad.error.message).toMatch(/outlet O2/);
   });

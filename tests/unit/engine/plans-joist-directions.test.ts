@@ -17,12 +17,25 @@ import { analyseSpec, close } from "./helpers";
  *   higher: meeting the minimum fall comes first.
  */
 describe("joist direction advice on a rectangle drained from its short wall", () => {
-  const a = analyseSpec({ outline: [[0, 0], [30, 0], [30, 8], [0, 8]], outlets: [{ at: [0, 4] }], baseFall: "1:40", joists: { direction: [0, 1] } });
+  const a = analyseSpec({
+    outline: [
+      [0, 0],
+      [30, 0],
+      [30, 8],
+      [0, 8],
+    ],
+    outlets: [{ at: [0, 4] }],
+    baseFall: "1:40",
+    joists: { direction: [0, 1] },
+  });
   const options = a.advice.joistDirections;
   const diagonal = Math.hypot(30, 4);
 
   it("lists the user's own direction first, then the outlet wall's normal", () => {
-    expect(options.map((o) => o.direction)).toEqual([[0, 1], [1, 0]]);
+    expect(options.map((o) => o.direction)).toEqual([
+      [0, 1],
+      [1, 0],
+    ]);
     expect(options.map((o) => o.current)).toEqual([true, false]);
     expect(options[0].edges).toEqual([]);
     expect(options[1].edges).toEqual([3]);
@@ -49,7 +62,17 @@ describe("joist direction advice on a rectangle drained from its short wall", ()
   });
 
   it("applying the best gives the figures it promised (same mesh on a roof this small)", () => {
-    const b = analyseSpec({ outline: [[0, 0], [30, 0], [30, 8], [0, 8]], outlets: [{ at: [0, 4] }], baseFall: "1:40", joists: { direction: options[1].direction } });
+    const b = analyseSpec({
+      outline: [
+        [0, 0],
+        [30, 0],
+        [30, 8],
+        [0, 8],
+      ],
+      outlets: [{ at: [0, 4] }],
+      baseFall: "1:40",
+      joists: { direction: options[1].direction },
+    });
     expect(b.shaped.highLevel).toBe(options[1].highLevel);
     expect(b.shaped.worstFallRatio).toBe(options[1].worstFallRatio);
     close(b.shaped.fallMap.flatterThanMinimumArea, options[1].flatterThanMinimumArea, 1e-9);
@@ -59,15 +82,37 @@ describe("joist direction advice on a rectangle drained from its short wall", ()
 
 describe("candidates", () => {
   it("a direction and its opposite are one candidate: outlets on facing walls give one entry", () => {
-    const a = analyseSpec({ outline: [[0, 0], [20, 0], [20, 10], [0, 10]], outlets: [{ at: [5, 0] }, { at: [15, 10] }], baseFall: "1:40" });
+    const a = analyseSpec({
+      outline: [
+        [0, 0],
+        [20, 0],
+        [20, 10],
+        [0, 10],
+      ],
+      outlets: [{ at: [5, 0] }, { at: [15, 10] }],
+      baseFall: "1:40",
+    });
     expect(a.advice.joistDirections).toHaveLength(1);
     expect(a.advice.joistDirections[0]).toMatchObject({ direction: [0, 1], edges: [0, 2], current: true, best: true });
   });
 
   it("an eaves edge's inward normal is a candidate", () => {
     // Eaves on the right wall (request edge 1, (20, 0) → (20, 10)): inward normal (-1, 0).
-    const a = analyseSpec({ outline: [[0, 0], [20, 0], [20, 10], [0, 10]], edges: ["parapet", "eaves", "parapet", "parapet"], outlets: [{ at: [5, 0] }], baseFall: "1:40" });
-    expect(a.advice.joistDirections.map((o) => o.direction)).toEqual([[0, 1], [-1, 0]]);
+    const a = analyseSpec({
+      outline: [
+        [0, 0],
+        [20, 0],
+        [20, 10],
+        [0, 10],
+      ],
+      edges: ["parapet", "eaves", "parapet", "parapet"],
+      outlets: [{ at: [5, 0] }],
+      baseFall: "1:40",
+    });
+    expect(a.advice.joistDirections.map((o) => o.direction)).toEqual([
+      [0, 1],
+      [-1, 0],
+    ]);
     expect(a.advice.joistDirections[1].edges).toEqual([1]);
   });
 });

@@ -13,13 +13,24 @@ const z = (x: number, y: number) => (1 - y / 10) * H * (Math.abs(x - 10) / 10) +
 
 describe("a rooflight off the fall line", () => {
   // Rooflight 2 m × 2 m at x 4..6, y 5..7: it lies wholly left of the fall line x = 10.
-  const rooflight: [number, number][] = [[4, 5], [6, 5], [6, 7], [4, 7]];
+  const rooflight: [number, number][] = [
+    [4, 5],
+    [6, 5],
+    [6, 7],
+    [4, 7],
+  ];
   const spec = {
     outline: RECT_20_10,
     outlets: [{ at: [10, 0] }],
     baseFall: "1:40",
     openings: [{ outline: rooflight, kind: "rooflight" as const, upstand: 0.2 }],
-    probes: [[2, 2], [15, 8], [5, 6], [5, 5], [4, 7]] as [number, number][],
+    probes: [
+      [2, 2],
+      [15, 8],
+      [5, 6],
+      [5, 5],
+      [4, 7],
+    ] as [number, number][],
   };
   const a = analyseSpec(spec, { mesh: true, traces: false });
   const without = analyseSpec({ ...spec, openings: undefined }, { mesh: false, traces: false });
@@ -33,11 +44,14 @@ describe("a rooflight off the fall line", () => {
     expect(a.warnings.some((w) => w.code === "probe-outside" && w.at?.[0] === 5 && w.at?.[1] === 6)).toBe(true);
     close(a.shaped.probes[3].level, z(5, 5)); // on its upstand: the deck's level, 0.5·0.125 + 0.125 = 0.1875
     close(a.shaped.probes[4].level, z(4, 7));
-    expect(a.shaped.probes.filter((p, i) => i !== 2).map((p) => p.level)).toEqual(without.shaped.probes.filter((p, i) => i !== 2).map((p) => p.level));
+    expect(a.shaped.probes.filter((p, i) => i !== 2).map((p) => p.level)).toEqual(
+      without.shaped.probes.filter((p, i) => i !== 2).map((p) => p.level),
+    );
   });
 
   it("drains the outline's area less the opening: 200 - 4 = 196 m², and lists the opening", () => {
-    const total = a.shaped.catchments.reduce((s, c) => s + c.area, 0) + a.shaped.ponding.reduce((s, p) => s + p.area, 0);
+    const total =
+      a.shaped.catchments.reduce((s, c) => s + c.area, 0) + a.shaped.ponding.reduce((s, p) => s + p.area, 0);
     close(total, 196, 1e-6);
     close(a.shaped.fallMap.area, 196, 1e-6);
     expect(a.shaped.openings).toEqual([{ index: 0, kind: "rooflight", upstand: 0.2, area: 4 }]);
@@ -46,7 +60,8 @@ describe("a rooflight off the fall line", () => {
   it("reports no fall inside it: no mesh face has its middle in the rooflight", () => {
     const m = a.shaped.mesh!;
     for (let f = 0; f < m.indices.length; f += 3) {
-      let cx = 0, cy = 0;
+      let cx = 0,
+        cy = 0;
       for (let k = 0; k < 3; k++) {
         cx += m.positions[3 * m.indices[f + k]] / 3;
         cy += m.positions[3 * m.indices[f + k] + 1] / 3;
@@ -57,7 +72,10 @@ describe("a rooflight off the fall line", () => {
 
   it("trims the joists it cuts: the joist at x = 4.8 stops at y = 5 and starts again at y = 7 with the uncut levels", () => {
     const j = a.shaped.joists.find((k) => Math.abs(k.spans[0].start[0] - 4.8) < 1e-9)!;
-    expect(j.spans.map((s) => [s.start[1], s.end[1]])).toEqual([[0, 5], [7, 10]]);
+    expect(j.spans.map((s) => [s.start[1], s.end[1]])).toEqual([
+      [0, 5],
+      [7, 10],
+    ]);
     close(j.spans[0].startLevel, z(4.8, 0)); // 0.25 × 5.2/10 = 0.13
     close(j.spans[0].startLevel, 0.13);
     close(j.spans[0].endLevel, z(4.8, 5)); // 0.5·0.13 + 0.125 = 0.19
@@ -77,7 +95,11 @@ describe("a rooflight off the fall line", () => {
     // 14.2134 m; by (6, 7) √(6² + 3²) + √(4² + 7²) = 6.7082 + 8.0623 = 14.7705 m. The shorter one.
     const line = a.shaped.longestFallLine!;
     expect(line.from).toEqual([0, 10]);
-    expect(line.path).toEqual([[0, 10], [4, 5], [10, 0]]);
+    expect(line.path).toEqual([
+      [0, 10],
+      [4, 5],
+      [10, 0],
+    ]);
     close(line.length, Math.sqrt(41) + Math.sqrt(61), 1e-9);
     close(line.ratio, (Math.sqrt(41) + Math.sqrt(61)) / H, 1e-6);
     // Without the rooflight the same corner's line is the straight √200 = 14.1421 m.
@@ -98,7 +120,22 @@ describe("an opening across the fall line holds water on its high side", () => {
   // above the deck at the held point; the deck rises along the joist x = 10 at 0.25/10 = 0.025,
   // so the crest runs 0.04/0.025 = 1.6 m, from (10, 6) to (10, 7.6).
   const a = analyseSpec(
-    { outline: RECT_20_10, outlets: [{ at: [10, 0] }], baseFall: "1:40", openings: [{ outline: [[8, 4], [12, 4], [12, 6], [8, 6]], kind: "plant" }] },
+    {
+      outline: RECT_20_10,
+      outlets: [{ at: [10, 0] }],
+      baseFall: "1:40",
+      openings: [
+        {
+          outline: [
+            [8, 4],
+            [12, 4],
+            [12, 6],
+            [8, 6],
+          ],
+          kind: "plant",
+        },
+      ],
+    },
     { mesh: false, traces: false },
   );
   const held = a.warnings.filter((w) => w.code === "water-held-behind-upstand");
@@ -127,7 +164,8 @@ describe("an opening across the fall line holds water on its high side", () => {
   });
 
   it("drains 200 - 8 = 192 m² in all", () => {
-    const total = a.shaped.catchments.reduce((s, c) => s + c.area, 0) + a.shaped.ponding.reduce((s, p) => s + p.area, 0);
+    const total =
+      a.shaped.catchments.reduce((s, c) => s + c.area, 0) + a.shaped.ponding.reduce((s, p) => s + p.area, 0);
     close(total, 192, 1e-6);
   });
 });
@@ -141,14 +179,35 @@ describe("openings that cannot be built", () => {
   };
 
   it("outside the outline: 422 naming the opening", () => {
-    const r = refused([{ outline: [[25, 2], [27, 2], [27, 4]] }]);
+    const r = refused([
+      {
+        outline: [
+          [25, 2],
+          [27, 2],
+          [27, 4],
+        ],
+      },
+    ]);
     expect(r.status).toBe(422);
     expect(r.error.issues[0].path).toBe("openings.0.outline");
     expect(r.error.issues[0].message).toMatch(/outside/);
   });
 
   it("crossing or touching the outline: 422", () => {
-    for (const outline of [[[18, 2], [22, 2], [22, 4], [18, 4]], [[18, 2], [20, 2], [20, 4], [18, 4]]]) {
+    for (const outline of [
+      [
+        [18, 2],
+        [22, 2],
+        [22, 4],
+        [18, 4],
+      ],
+      [
+        [18, 2],
+        [20, 2],
+        [20, 4],
+        [18, 4],
+      ],
+    ]) {
       const r = refused([{ outline }]);
       expect(r.status).toBe(422);
       expect(r.error.issues[0].path).toBe("openings.0.outline");
@@ -157,8 +216,26 @@ describe("openings that cannot be built", () => {
   });
 
   it("overlapping another, or inside another: 422 naming the second", () => {
-    const a: [number, number][] = [[2, 2], [6, 2], [6, 6], [2, 6]];
-    for (const b of [[[5, 5], [8, 5], [8, 8], [5, 8]], [[3, 3], [4, 3], [4, 4], [3, 4]]]) {
+    const a: [number, number][] = [
+      [2, 2],
+      [6, 2],
+      [6, 6],
+      [2, 6],
+    ];
+    for (const b of [
+      [
+        [5, 5],
+        [8, 5],
+        [8, 8],
+        [5, 8],
+      ],
+      [
+        [3, 3],
+        [4, 3],
+        [4, 4],
+        [3, 4],
+      ],
+    ]) {
       const r = refused([{ outline: a }, { outline: b }]);
       expect(r.status).toBe(422);
       expect(r.error.issues[0].path).toBe("openings.1.outline");
@@ -167,11 +244,38 @@ describe("openings that cannot be built", () => {
   });
 
   it("a self-crossing opening: 422; a malformed one: 400 with the field", () => {
-    expect(refused([{ outline: [[2, 2], [6, 6], [6, 2], [2, 6]] }]).status).toBe(422);
-    const bad = refused([{ outline: [[2, 2], [6, 2]] }]);
+    expect(
+      refused([
+        {
+          outline: [
+            [2, 2],
+            [6, 6],
+            [6, 2],
+            [2, 6],
+          ],
+        },
+      ]).status,
+    ).toBe(422);
+    const bad = refused([
+      {
+        outline: [
+          [2, 2],
+          [6, 2],
+        ],
+      },
+    ]);
     expect(bad.status).toBe(400);
     expect(bad.error.issues[0].path).toBe("openings.0.outline");
-    const kind = refused([{ outline: [[2, 2], [6, 2], [6, 6]], kind: "chimney" }]);
+    const kind = refused([
+      {
+        outline: [
+          [2, 2],
+          [6, 2],
+          [6, 6],
+        ],
+        kind: "chimney",
+      },
+    ]);
     expect(kind.status).toBe(400);
     expect(kind.error.issues[0].path).toBe("openings.0.kind");
   });

@@ -21,7 +21,12 @@ import { analyseSpec, close } from "./helpers";
  * (0,5) → (0,10) 0 → 0.25 m, 1:20. Before the fix the schedule listed it as one level span,
  * 0.25 → 0.25 m, while the surface shown along it fell to 0 at the outlet.
  */
-const SQUARE: [number, number][] = [[0, 0], [10, 0], [10, 10], [0, 10]];
+const SQUARE: [number, number][] = [
+  [0, 0],
+  [10, 0],
+  [10, 10],
+  [0, 10],
+];
 
 function scheduleAgreesWithSurface(spec: Parameters<typeof analyseSpec>[0]) {
   // Probes at both ends and three inner points of every span: the surface the roof shows.
@@ -42,7 +47,15 @@ function scheduleAgreesWithSurface(spec: Parameters<typeof analyseSpec>[0]) {
 }
 
 describe("square with an outlet on a wall the joists run along", () => {
-  const spec = { outline: SQUARE, outlets: [{ at: [5, 0] }, { at: [0, 5] }], baseFall: "1:40", probes: [[0, 5], [0.4, 5]] };
+  const spec = {
+    outline: SQUARE,
+    outlets: [{ at: [5, 0] }, { at: [0, 5] }],
+    baseFall: "1:40",
+    probes: [
+      [0, 5],
+      [0.4, 5],
+    ],
+  };
   const a: Analysis = analyseSpec(spec, { mesh: true, traces: false });
 
   it("shapes the roof as worked above", () => {
@@ -115,7 +128,11 @@ describe("square with an outlet on a wall the joists run along", () => {
   });
 
   it("crowded outlets on a wall across the joists are not this fault", () => {
-    const crowded = analyseSpec({ outline: SQUARE, outlets: [{ at: [5, 0] }, { at: [5.3, 0] }, { at: [5.6, 0] }], baseFall: "1:40" });
+    const crowded = analyseSpec({
+      outline: SQUARE,
+      outlets: [{ at: [5, 0] }, { at: [5.3, 0] }, { at: [5.6, 0] }],
+      baseFall: "1:40",
+    });
     expect(crowded.warnings.some((x) => x.code === "outlet-parallel-to-joists")).toBe(false);
   });
 });
@@ -125,7 +142,14 @@ describe("a joist along an inner wall of an L-shape", () => {
   // joists, which run along y from the bottom wall's outlet). The joist at x = 6 lies on that
   // wall from (6, 4) to (6, 10): its schedule must follow the wall down to the outlet at (6, 7).
   const spec = {
-    outline: [[0, 0], [10, 0], [10, 4], [6, 4], [6, 10], [0, 10]] as [number, number][],
+    outline: [
+      [0, 0],
+      [10, 0],
+      [10, 4],
+      [6, 4],
+      [6, 10],
+      [0, 10],
+    ] as [number, number][],
     outlets: [{ at: [3, 0] }, { at: [6, 7] }],
     baseFall: "1:40",
   };
@@ -144,9 +168,18 @@ describe("a joist along an inner wall of an L-shape", () => {
     close(a.shaped.highLevel, 0.25);
     const j = a.shaped.joists.find((k) => k.spans[0].start[0] === 6)!;
     expect(j.spans.map((s) => [s.start, s.end])).toEqual([
-      [[6, 0], [6, 4]],
-      [[6, 4], [6, 7]],
-      [[6, 7], [6, 10]],
+      [
+        [6, 0],
+        [6, 4],
+      ],
+      [
+        [6, 4],
+        [6, 7],
+      ],
+      [
+        [6, 7],
+        [6, 10],
+      ],
     ]);
     close(j.spans[0].startLevel, (0.25 * 3) / 7);
     close(j.spans[0].endLevel, 0.25);

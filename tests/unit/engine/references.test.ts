@@ -94,11 +94,24 @@ describe("warped bay (docs/check-values.md, Warped bays: derived, bilinear z = a
   // H = 0.15 (given), corner outlet (6, 4) at 0, so the beam edge y = 4 falls 0.15 over 9 m and
   // sits at 0.10 at x = 0. Levels relative to the wall are the docs/check-values.md bay.
   const a = analyseSpec({
-    outline: [[-3, 0], [6, 0], [6, 4], [-3, 4]],
+    outline: [
+      [-3, 0],
+      [6, 0],
+      [6, 4],
+      [-3, 4],
+    ],
     outlets: [{ at: [6, 4] }],
     highLevel: 0.15,
     baseFall: "1:40",
-    probes: [[0, 0], [6, 0], [0, 4], [6, 4], [3, 2], [1.5, 1], [4.5, 3]],
+    probes: [
+      [0, 0],
+      [6, 0],
+      [0, 4],
+      [6, 4],
+      [3, 2],
+      [1.5, 1],
+      [4.5, 3],
+    ],
   });
   const z = (i: number) => (a.shaped.probes[i].level as number) - 0.15;
 
@@ -120,7 +133,12 @@ describe("warped bay (docs/check-values.md, Warped bays: derived, bilinear z = a
 
   it("corner falls 1:80, 1:48, 1:26.7 and 1:24.4 from the engine's own surface", () => {
     const spec = {
-      outline: [[-3, 0], [6, 0], [6, 4], [-3, 4]],
+      outline: [
+        [-3, 0],
+        [6, 0],
+        [6, 4],
+        [-3, 4],
+      ],
       outlets: [{ at: [6, 4] }],
       highLevel: 0.15,
       baseFall: "1:40",
@@ -156,11 +174,25 @@ describe("valley: two planes falling at right angles meet at s1·s2/√(s1² + s
     // 16 × 12 rectangle, outlet at (0, 0), joists along (16, 12). Chord rule gives z = H·x/16
     // below the diagonal and z = H·y/12 above it; H = 20 m × 1/40 = 0.5.
     const a = analyseSpec({
-      outline: [[0, 0], [16, 0], [16, 12], [0, 12]],
+      outline: [
+        [0, 0],
+        [16, 0],
+        [16, 12],
+        [0, 12],
+      ],
       outlets: [{ at: [0, 0] }],
       joists: { direction: [16, 12] },
       baseFall: "1:40",
-      probes: [[12, 2], [13, 2], [12, 3], [3, 8], [4, 8], [3, 9], [4, 3], [12, 9]],
+      probes: [
+        [12, 2],
+        [13, 2],
+        [12, 3],
+        [3, 8],
+        [4, 8],
+        [3, 9],
+        [4, 3],
+        [12, 9],
+      ],
     });
     const z = a.shaped.probes.map((p) => p.level as number);
     const s1 = Math.hypot(z[1] - z[0], z[2] - z[0]); // per metre, below the diagonal
@@ -188,7 +220,12 @@ describe("design flow by the rational method (ASCE 7-05 Commentary C8, page)", (
 
   it("catchment flows in the analysis use i·A/3600", () => {
     const a = analyseSpec({
-      outline: [[0, 0], [30, 0], [30, 20], [0, 20]],
+      outline: [
+        [0, 0],
+        [30, 0],
+        [30, 20],
+        [0, 20],
+      ],
       outlets: [{ at: [15, 0] }],
       baseFall: "1:60",
       rainfall: { intensity: 120 },
@@ -248,7 +285,12 @@ describe("rule sets against their cited clauses (docs/check-values.md, Falls and
       expect(v!.confidence).toBe("common practice");
       expect(v!.clause).toBeNull();
     }
-    expect([cp.values.gutterWidth!.value, cp.values.gutterDepth!.value, cp.values.gutterFall!.value, cp.values.fallLine!.value]).toEqual([0.3, 0.05, 100, 100]);
+    expect([
+      cp.values.gutterWidth!.value,
+      cp.values.gutterDepth!.value,
+      cp.values.gutterFall!.value,
+      cp.values.fallLine!.value,
+    ]).toEqual([0.3, 0.05, 100, 100]);
   });
 
   it("every value in every set names a document and a confidence; there are at least three jurisdictions", () => {
@@ -270,7 +312,12 @@ describe("rule sets against their cited clauses (docs/check-values.md, Falls and
 
   it("an analysis says which set and clauses it used, and uses them", () => {
     const a = analyseSpec({
-      outline: [[0, 0], [20, 0], [20, 10], [0, 10]],
+      outline: [
+        [0, 0],
+        [20, 0],
+        [20, 10],
+        [0, 10],
+      ],
       outlets: [{ at: [10, 0] }],
       baseFall: "1:120",
       ruleSet: "au-ncc-2022",
@@ -298,19 +345,69 @@ describe("polygon area against polygon-clipping (npm, a general-purpose planar g
   };
 
   it.each([
-    ["rectangle", [[0, 0], [20, 0], [20, 10], [0, 10]]],
-    ["L-shape", [[0, 0], [10, 0], [10, 4], [4, 4], [4, 10], [0, 10]]],
-    ["quadrilateral", [[0, 0], [10, 3], [12, 14], [-3, 9]]],
-    ["U-shape, clockwise", [[0, 0], [0, 8], [3, 8], [3, 3], [7, 3], [7, 8], [10, 8], [10, 0]]],
+    [
+      "rectangle",
+      [
+        [0, 0],
+        [20, 0],
+        [20, 10],
+        [0, 10],
+      ],
+    ],
+    [
+      "L-shape",
+      [
+        [0, 0],
+        [10, 0],
+        [10, 4],
+        [4, 4],
+        [4, 10],
+        [0, 10],
+      ],
+    ],
+    [
+      "quadrilateral",
+      [
+        [0, 0],
+        [10, 3],
+        [12, 14],
+        [-3, 9],
+      ],
+    ],
+    [
+      "U-shape, clockwise",
+      [
+        [0, 0],
+        [0, 8],
+        [3, 8],
+        [3, 3],
+        [7, 3],
+        [7, 8],
+        [10, 8],
+        [10, 0],
+      ],
+    ],
   ] as [string, [number, number][]][])("%s: engine area and mesh area equal the library's", (_, outline) => {
-    const a = analyseSpec({ outline, outlets: [{ at: [(outline[0][0] + outline[1][0]) / 2, (outline[0][1] + outline[1][1]) / 2] }], baseFall: "1:40" }, { mesh: true, traces: false });
+    const a = analyseSpec(
+      {
+        outline,
+        outlets: [{ at: [(outline[0][0] + outline[1][0]) / 2, (outline[0][1] + outline[1][1]) / 2] }],
+        baseFall: "1:40",
+      },
+      { mesh: true, traces: false },
+    );
     const expected = libraryArea(outline);
     close(a.area, expected, 1e-9 * expected);
     close(a.shaped.fallMap.area, expected, 1e-8 * expected);
   });
 
   it("a self-crossing outline is two pieces to the library and is refused by the engine", () => {
-    const bowtie: [number, number][] = [[0, 0], [10, 10], [10, 0], [0, 10]];
+    const bowtie: [number, number][] = [
+      [0, 0],
+      [10, 10],
+      [10, 0],
+      [0, 10],
+    ];
     expect(polygonClipping.union([[...bowtie, bowtie[0]]]).length).toBe(2);
     expect(() => analyseSpec({ outline: bowtie, outlets: [{ at: [5, 0] }], baseFall: "1:40" })).toThrow(/422/);
   });

@@ -20,7 +20,11 @@ function place(p: Point, angle: number, tx: number, ty: number): Point {
 
 function moved(spec: RoofSpec, angle: number, tx: number, ty: number): RoofSpec {
   const at = (p: Point) => place(p, angle, tx, ty);
-  const out: RoofSpec = { ...structuredClone(spec), outline: spec.outline.map(at), outlets: spec.outlets.map((o) => ({ ...o, at: at(o.at) })) };
+  const out: RoofSpec = {
+    ...structuredClone(spec),
+    outline: spec.outline.map(at),
+    outlets: spec.outlets.map((o) => ({ ...o, at: at(o.at) })),
+  };
   // A direction turns but does not shift.
   if (spec.joists?.direction) out.joists = { ...spec.joists, direction: place(spec.joists.direction, angle, 0, 0) };
   return out;
@@ -44,7 +48,14 @@ describe("an outlet on an edge that runs along the joists (collinear with its jo
   // L-shape; outlet 1 at the corner (6, 1.5), whose longer edge (6, 1.5)→(1.5, 1.5) sets the
   // joists along y; outlet 2 at (0, 5.7) on the edge x = 0, which is itself a joist line.
   const spec: RoofSpec = {
-    outline: [[0, 0], [6, 0], [6, 1.5], [1.5, 1.5], [1.5, 6], [0, 6]],
+    outline: [
+      [0, 0],
+      [6, 0],
+      [6, 1.5],
+      [1.5, 1.5],
+      [1.5, 6],
+      [0, 6],
+    ],
     outlets: [{ at: [6, 1.5] }, { at: [0, 5.7] }],
     baseFall: "1:40",
   };
@@ -73,23 +84,42 @@ describe("a start on a water divide takes the nearest drain its neighbourhood re
   // cell's diagonal runs used to decide its drain. Shifting the spec by (0, −4) flipped it.
   const octagon: RoofSpec = {
     outline: [
-      [4, 0], [2.3585157509026087, 13.4319827563362], [-0.9251714084011607, 16.179497161977352], [-3.3276170309186823, 9.228553280860044],
-      [-3.9918540568287395, -1.0608118200132939], [-3.098915858753752, -10.515322031047559], [-0.8571030183167765, -16.24417353462091], [2.1270335522993453, -14.084259491756674],
+      [4, 0],
+      [2.3585157509026087, 13.4319827563362],
+      [-0.9251714084011607, 16.179497161977352],
+      [-3.3276170309186823, 9.228553280860044],
+      [-3.9918540568287395, -1.0608118200132939],
+      [-3.098915858753752, -10.515322031047559],
+      [-0.8571030183167765, -16.24417353462091],
+      [2.1270335522993453, -14.084259491756674],
     ],
-    outlets: [{ at: [-3.94720714692499, -1.533537330565007] }, { at: [2.3585157509026087, 13.4319827563362] }, { at: [-3.098915858753752, -10.515322031047559] }],
+    outlets: [
+      { at: [-3.94720714692499, -1.533537330565007] },
+      { at: [2.3585157509026087, 13.4319827563362] },
+      { at: [-3.098915858753752, -10.515322031047559] },
+    ],
     baseFall: "1:40",
   };
   // A skew-joisted quadrilateral with an eaves edge, mostly flat near its top corner, where a
   // steepest-descent tie between two cells used to go either way. Shifting by (−7.97, 0) flipped it.
   const quad: RoofSpec = {
-    outline: [[4, 0], [-1.218701726372152, 4.2841479047797], [-3.5720289325385064, -2.024290198752728], [1.5365175522300334, -4.1529099263311675]],
+    outline: [
+      [4, 0],
+      [-1.218701726372152, 4.2841479047797],
+      [-3.5720289325385064, -2.024290198752728],
+      [1.5365175522300334, -4.1529099263311675],
+    ],
     edges: ["parapet", "parapet", "parapet", "eaves"],
     outlets: [{ at: [-3.5720289325385064, -2.024290198752728] }, { at: [3.7390649136813923, 0.21420739523898502] }],
     baseFall: "1:40",
     joists: { direction: [1, 0.3], spacing: 0.5 },
   };
 
-  for (const [name, angle, tx, ty] of [...MOVES, ["shifted by (0, −4)", 0, 0, -4.000000000179745] as const, ["shifted by (−7.97, 0)", 0, -7.968505996573179, 0] as const]) {
+  for (const [name, angle, tx, ty] of [
+    ...MOVES,
+    ["shifted by (0, −4)", 0, 0, -4.000000000179745] as const,
+    ["shifted by (−7.97, 0)", 0, -7.968505996573179, 0] as const,
+  ]) {
     it(`${name}: the octagon's corner (4, 0) drains to outlet 1 at |(7.9472, 1.5335)| = 8.0938 m`, () => {
       const a = analyseSpec(moved(octagon, angle, tx, ty));
       const l = lineFrom(a, place([4, 0], angle, tx, ty));

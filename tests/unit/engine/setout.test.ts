@@ -6,7 +6,12 @@ import { analyseSpec } from "./helpers";
  * edge (y = 0), joists 0.4 m apart running along y (square to the outlet edge), so joist k
  * (from 1) lies at x = offset + (k − 1) × 0.4.
  */
-const RECT: [number, number][] = [[0, 0], [10, 0], [10, 6], [0, 6]];
+const RECT: [number, number][] = [
+  [0, 0],
+  [10, 0],
+  [10, 6],
+  [0, 6],
+];
 const spec = (xs: number[], joists: Record<string, unknown>) => ({
   outline: RECT,
   outlets: xs.map((x) => ({ at: [x, 0] })),
@@ -37,7 +42,9 @@ describe("joists set out from the outlets", () => {
     expect(trims.map((w) => w.message.slice(0, 9))).toEqual(["Outlet 1 ", "Outlet 2 "]);
     // 3.1 m lies between joists at 2.8 m (joist 8) and 3.2 m (joist 9), 100 mm from the nearer.
     expect(trims[0].message).toContain("between joists 8 and 9, 100 mm");
-    expect(trims[0].message).toMatch(/set the joists out from the outlets, or trim round it \(trimmer or noggin between joists 8 and 9\)/);
+    expect(trims[0].message).toMatch(
+      /set the joists out from the outlets, or trim round it \(trimmer or noggin between joists 8 and 9\)/,
+    );
   });
 
   it("when the spacing cannot serve both (3.4 m = 8.5 × 0.4 m apart), outlet 1 gets its joist and the warning names outlet 2's place and outlet 1", () => {
@@ -47,7 +54,9 @@ describe("joists set out from the outlets", () => {
     const trims = a.warnings.filter((w) => w.code === "outlet-off-joist");
     expect(trims).toHaveLength(1);
     // Joists at 6.3 m (joist 16) and 6.7 m (joist 17); 6.5 m is 200 mm from each.
-    expect(trims[0].message).toMatch(/^Outlet 2 at \(6\.50, 0\.00\) lies between joists 16 and 17, 200 mm from the nearest/);
+    expect(trims[0].message).toMatch(
+      /^Outlet 2 at \(6\.50, 0\.00\) lies between joists 16 and 17, 200 mm from the nearest/,
+    );
     expect(trims[0].message).toContain("cannot also put a joist on outlet 1");
     expect(trims[0].at).toEqual([6.5, 0]);
     expect(a.shaped.setOut.outlets[1]).toMatchObject({ joist: null, between: [16, 17] });

@@ -17,10 +17,12 @@ describe("numeric answers through mathjs units", () => {
 
   it("counts feet, inches and fractions of an inch (1 in = 25.4 mm exactly, NIST SP 811)", () => {
     // 250 mm = 9.843 in; 9 13/16 in = 249.2 mm and 9 7/8 in = 250.8 mm are both within 1 mm.
-    for (const given of ["9 13/16 in", '9 7/8"', "9.843 in", "0.8202 ft"]) expect(gradeQuestion(length, given).passed, given).toBe(true);
+    for (const given of ["9 13/16 in", '9 7/8"', "9.843 in", "0.8202 ft"])
+      expect(gradeQuestion(length, given).passed, given).toBe(true);
     expect(gradeQuestion(length, '10"').passed).toBe(false); // 254 mm
     const long = q({ id: "q2", kind: "numeric", prompt: "How long?", answer: "3.81 m", tolerance: "5 mm" });
-    for (const given of [`12' 6"`, "12 ft 6 in", "12.5 ft"]) expect(gradeQuestion(long, given).passed, given).toBe(true);
+    for (const given of [`12' 6"`, "12 ft 6 in", "12.5 ft"])
+      expect(gradeQuestion(long, given).passed, given).toBe(true);
     expect(gradeQuestion(long, `12' 7"`).passed).toBe(false);
   });
 
@@ -37,7 +39,14 @@ describe("numeric answers through mathjs units", () => {
     const r = gradeQuestion(length, "250");
     expect(r.passed).toBe(false);
     expect(r.feedback).toMatch(/no unit/);
-    const withBare = q({ id: "q1", kind: "numeric", prompt: "How far?", answer: "250 mm", tolerance: "1 mm", bareUnit: "mm" });
+    const withBare = q({
+      id: "q1",
+      kind: "numeric",
+      prompt: "How far?",
+      answer: "250 mm",
+      tolerance: "1 mm",
+      bareUnit: "mm",
+    });
     expect(gradeQuestion(withBare, "250").passed).toBe(true);
     expect(gradeQuestion(withBare, "0.25").passed).toBe(false);
   });
@@ -61,16 +70,19 @@ describe("numeric answers through mathjs units", () => {
 
   it("reads percent, millimetres per metre and degrees as falls", () => {
     const pct = q({ id: "p", kind: "numeric", prompt: "In %?", answer: "2.5 %", tolerance: "0.01 %" });
-    for (const given of ["2.5 %", "2.5%", "25 mm/m", "0.025 m/m"]) expect(gradeQuestion(pct, given).passed, given).toBe(true);
+    for (const given of ["2.5 %", "2.5%", "25 mm/m", "0.025 m/m"])
+      expect(gradeQuestion(pct, given).passed, given).toBe(true);
     expect(gradeQuestion(pct, "2.5 mm").passed).toBe(false);
     const deg = q({ id: "d", kind: "numeric", prompt: "Angle?", answer: "1.43 deg", tolerance: "0.01 deg" });
-    for (const given of ["1.43°", "1.43 deg", "1.43 degrees", "0.02496 rad"]) expect(gradeQuestion(deg, given).passed, given).toBe(true);
+    for (const given of ["1.43°", "1.43 deg", "1.43 degrees", "0.02496 rad"])
+      expect(gradeQuestion(deg, given).passed, given).toBe(true);
     expect(gradeQuestion(deg, "1.43 %").feedback).toMatch(/an angle/);
   });
 
   it("reads areas and loads with their units", () => {
     const area = q({ id: "a", kind: "numeric", prompt: "Area?", answer: "40 m^2", tolerance: "0.5 m^2" });
-    for (const given of ["40 m²", "40 m2", "40 m^2", "400000 cm^2"]) expect(gradeQuestion(area, given).passed, given).toBe(true);
+    for (const given of ["40 m²", "40 m2", "40 m^2", "400000 cm^2"])
+      expect(gradeQuestion(area, given).passed, given).toBe(true);
     const load = q({ id: "l", kind: "numeric", prompt: "Load?", answer: "0.49 kN/m^2", tolerance: "0.01 kN/m^2" });
     expect(gradeQuestion(load, "490 Pa").passed).toBe(true);
     expect(gradeQuestion(load, "0.49 kN").passed).toBe(false);
@@ -92,7 +104,8 @@ describe("ratio answers", () => {
   });
   it("counts the US roofers' forms of the same fall: 1/4:12 and 1/4 in per ft are 1:48 (IBC 2018 1507.10.1)", () => {
     const us = q({ id: "r", kind: "ratio", prompt: "As 1:N?", answer: "1:48" });
-    for (const given of ["1/4:12", "1/4 in/ft", "1/4 in per ft", '1/4" per ft']) expect(gradeQuestion(us, given).passed, given).toBe(true);
+    for (const given of ["1/4:12", "1/4 in/ft", "1/4 in per ft", '1/4" per ft'])
+      expect(gradeQuestion(us, given).passed, given).toBe(true);
     expect(gradeQuestion(us, "1/8:12").passed).toBe(false); // 1:96
     expect(gradeQuestion(us, "1/4:12").measured).toBe("1:48");
   });
@@ -111,8 +124,27 @@ describe("ratio answers", () => {
 });
 
 describe("multiple choice", () => {
-  const one = q({ id: "m", kind: "choice", prompt: "?", options: [{ id: "a", text: "A" }, { id: "b", text: "B" }], correct: "b" });
-  const many = q({ id: "n", kind: "choice", prompt: "?", options: [{ id: "a", text: "A" }, { id: "b", text: "B" }, { id: "c", text: "C" }], correct: ["a", "c"] });
+  const one = q({
+    id: "m",
+    kind: "choice",
+    prompt: "?",
+    options: [
+      { id: "a", text: "A" },
+      { id: "b", text: "B" },
+    ],
+    correct: "b",
+  });
+  const many = q({
+    id: "n",
+    kind: "choice",
+    prompt: "?",
+    options: [
+      { id: "a", text: "A" },
+      { id: "b", text: "B" },
+      { id: "c", text: "C" },
+    ],
+    correct: ["a", "c"],
+  });
   it("grades a single answer", () => {
     expect(gradeQuestion(one, "b").passed).toBe(true);
     expect(gradeQuestion(one, ["b"]).passed).toBe(true);
@@ -140,7 +172,8 @@ function fakeAnalysis(over: {
   edgeFalls?: number[];
   warnings?: string[];
 }): Analysis {
-  const line = (r: number | null | undefined) => (r == null ? null : { from: [0, 0], to: [1, 1], length: 10, drop: 10 / r, ratio: r, path: [], drain: "outlet-0" });
+  const line = (r: number | null | undefined) =>
+    r == null ? null : { from: [0, 0], to: [1, 1], length: 10, drop: 10 / r, ratio: r, path: [], drain: "outlet-0" };
   return {
     shaped: {
       highLevel: over.highLevel ?? 0.1,
@@ -149,10 +182,20 @@ function fakeAnalysis(over: {
       edgeFalls: (over.edgeFalls ?? [60]).map((ratio, edge) => ({ edge, from: [0, 0], to: [1, 0], ratio })),
       ponding: over.ponding ?? [],
       fallMap: { faces: 1, areaByBand: [], flatterThanMinimumArea: over.flat ?? 0, area: over.area ?? 100 },
-      catchments: (over.catchments ?? []).map((x, i) => ({ drain: `outlet-${i}`, kind: x.kind, index: i, label: `Outlet ${i + 1}`, area: x.area, flow: x.flow })),
+      catchments: (over.catchments ?? []).map((x, i) => ({
+        drain: `outlet-${i}`,
+        kind: x.kind,
+        index: i,
+        label: `Outlet ${i + 1}`,
+        area: x.area,
+        flow: x.flow,
+      })),
     },
     comparison: { heightSaved: over.saved === undefined ? 0.1 : over.saved, flattestFall: { gutter: 100, shaped: 80 } },
-    gutter: { comparable: over.saved !== null, reason: over.saved === null ? "outlets on non-parallel edges" : undefined },
+    gutter: {
+      comparable: over.saved !== null,
+      reason: over.saved === null ? "outlets on non-parallel edges" : undefined,
+    },
     warnings: (over.warnings ?? []).map((code) => ({ code, message: code })),
     rainfall: { intensity: 100, assumed: false },
     area: over.area ?? 100,
@@ -160,7 +203,12 @@ function fakeAnalysis(over: {
 }
 
 const spec = (outlets: number, edges?: ("parapet" | "eaves")[]): RoofSpec => ({
-  outline: [[0, 0], [10, 0], [10, 10], [0, 10]],
+  outline: [
+    [0, 0],
+    [10, 0],
+    [10, 10],
+    [0, 10],
+  ],
   edges,
   outlets: Array.from({ length: outlets }, (_, i) => ({ at: [i + 1, 0] as [number, number] })),
   baseFall: "1:60",
@@ -171,8 +219,12 @@ describe("criteria over the engine's outputs (each kind, boundaries at the limit
 
   it("longestFallRatioAtMost: no flatter than 1:N, exactly 1:N passes", () => {
     expect(grade({ kind: "longestFallRatioAtMost", value: "1:100" }, fakeAnalysis({ longest: 100 })).passed).toBe(true);
-    expect(grade({ kind: "longestFallRatioAtMost", value: "1:100" }, fakeAnalysis({ longest: 100 + 1e-12 })).passed).toBe(true);
-    expect(grade({ kind: "longestFallRatioAtMost", value: "1:100" }, fakeAnalysis({ longest: 100.01 })).passed).toBe(false);
+    expect(
+      grade({ kind: "longestFallRatioAtMost", value: "1:100" }, fakeAnalysis({ longest: 100 + 1e-12 })).passed,
+    ).toBe(true);
+    expect(grade({ kind: "longestFallRatioAtMost", value: "1:100" }, fakeAnalysis({ longest: 100.01 })).passed).toBe(
+      false,
+    );
     expect(grade({ kind: "longestFallRatioAtMost", value: "1:100" }, fakeAnalysis({ longest: 60 })).passed).toBe(true);
     const none = grade({ kind: "longestFallRatioAtMost", value: "1:100" }, fakeAnalysis({ longest: null }));
     expect(none.passed).toBe(false);
@@ -182,14 +234,22 @@ describe("criteria over the engine's outputs (each kind, boundaries at the limit
   it("worstFallRatioAtMost and edgeFallRatioAtMost", () => {
     expect(grade({ kind: "worstFallRatioAtMost", value: "1:80" }, fakeAnalysis({ worst: 80 })).passed).toBe(true);
     expect(grade({ kind: "worstFallRatioAtMost", value: "1:80" }, fakeAnalysis({ worst: 80.5 })).passed).toBe(false);
-    expect(grade({ kind: "edgeFallRatioAtMost", value: "1:60" }, fakeAnalysis({ edgeFalls: [30, 60] })).passed).toBe(true);
-    expect(grade({ kind: "edgeFallRatioAtMost", value: "1:60" }, fakeAnalysis({ edgeFalls: [30, 61] })).passed).toBe(false);
+    expect(grade({ kind: "edgeFallRatioAtMost", value: "1:60" }, fakeAnalysis({ edgeFalls: [30, 60] })).passed).toBe(
+      true,
+    );
+    expect(grade({ kind: "edgeFallRatioAtMost", value: "1:60" }, fakeAnalysis({ edgeFalls: [30, 61] })).passed).toBe(
+      false,
+    );
   });
 
   it("highLevelAtMost reads the limit in any length unit; exactly at the limit passes", () => {
     for (const value of ["90 mm", "0.09 m", "9 cm", 0.09]) {
-      expect(grade({ kind: "highLevelAtMost", value }, fakeAnalysis({ highLevel: 0.09 })).passed, String(value)).toBe(true);
-      expect(grade({ kind: "highLevelAtMost", value }, fakeAnalysis({ highLevel: 0.0901 })).passed, String(value)).toBe(false);
+      expect(grade({ kind: "highLevelAtMost", value }, fakeAnalysis({ highLevel: 0.09 })).passed, String(value)).toBe(
+        true,
+      );
+      expect(grade({ kind: "highLevelAtMost", value }, fakeAnalysis({ highLevel: 0.0901 })).passed, String(value)).toBe(
+        false,
+      );
     }
     const r = grade({ kind: "highLevelAtMost", value: "90 mm" }, fakeAnalysis({ highLevel: 0.12 }));
     expect(r.measured).toBe("120 mm");
@@ -219,7 +279,9 @@ describe("criteria over the engine's outputs (each kind, boundaries at the limit
     expect(grade({ kind: "maxOutlets", value: 2 }, a, spec(3)).passed).toBe(false);
     expect(grade({ kind: "minOutlets", value: 2 }, a, spec(2)).passed).toBe(true);
     expect(grade({ kind: "minOutlets", value: 2 }, a, spec(1)).passed).toBe(false);
-    expect(grade({ kind: "minEavesEdges", value: 1 }, a, spec(0, ["parapet", "eaves", "parapet", "parapet"])).passed).toBe(true);
+    expect(
+      grade({ kind: "minEavesEdges", value: 1 }, a, spec(0, ["parapet", "eaves", "parapet", "parapet"])).passed,
+    ).toBe(true);
     expect(grade({ kind: "minEavesEdges", value: 1 }, a, spec(0)).passed).toBe(false);
   });
 
@@ -231,7 +293,13 @@ describe("criteria over the engine's outputs (each kind, boundaries at the limit
   });
 
   it("catchmentFlowAtMost (L/s) and catchmentAreaAtMost look at the busiest outlet only", () => {
-    const a = fakeAnalysis({ catchments: [{ kind: "outlet", area: 60, flow: 2.5 }, { kind: "outlet", area: 70, flow: 2.8 }, { kind: "eaves", area: 200, flow: 9 }] });
+    const a = fakeAnalysis({
+      catchments: [
+        { kind: "outlet", area: 60, flow: 2.5 },
+        { kind: "outlet", area: 70, flow: 2.8 },
+        { kind: "eaves", area: 200, flow: 9 },
+      ],
+    });
     expect(grade({ kind: "catchmentFlowAtMost", value: "2.8 L/s" }, a).passed).toBe(true);
     expect(grade({ kind: "catchmentFlowAtMost", value: "2.79 L/s" }, a).passed).toBe(false);
     expect(grade({ kind: "catchmentFlowAtMost", value: "0.0028 m^3/s" }, a).passed).toBe(true);
@@ -251,8 +319,28 @@ describe("roof tasks graded by running the engine again", () => {
   const task = taskSchema.parse({
     title: "Move the outlet",
     goal: "Move it.",
-    start: { outline: [[0, 0], [18, 0], [18, 9], [0, 9]], outlets: [{ at: [0, 0] }], baseFall: "1:60", joists: { direction: [0, 1] } },
-    reference: { outline: [[0, 0], [18, 0], [18, 9], [0, 9]], outlets: [{ at: [9, 0] }], baseFall: "1:60", joists: { direction: [0, 1] } },
+    start: {
+      outline: [
+        [0, 0],
+        [18, 0],
+        [18, 9],
+        [0, 9],
+      ],
+      outlets: [{ at: [0, 0] }],
+      baseFall: "1:60",
+      joists: { direction: [0, 1] },
+    },
+    reference: {
+      outline: [
+        [0, 0],
+        [18, 0],
+        [18, 9],
+        [0, 9],
+      ],
+      outlets: [{ at: [9, 0] }],
+      baseFall: "1:60",
+      joists: { direction: [0, 1] },
+    },
     editable: ["outlets"],
     criteria: [
       { id: "fall", kind: "longestFallRatioAtMost", value: "1:100", weight: 3 },
@@ -266,10 +354,16 @@ describe("roof tasks graded by running the engine again", () => {
   it("fails the starting roof and passes the moved outlet, with measured figures", () => {
     const start = gradeTask(task, task.start);
     if (!start.ok) throw new Error(start.message);
-    expect(start.items.find((i) => i.id === "fall")).toMatchObject({ passed: false, measured: expect.stringMatching(/^1:134\.2 over 20\.1 m/) });
+    expect(start.items.find((i) => i.id === "fall")).toMatchObject({
+      passed: false,
+      measured: expect.stringMatching(/^1:134\.2 over 20\.1 m/),
+    });
     const moved = gradeTask(task, task.reference);
     if (!moved.ok) throw new Error(moved.message);
-    expect(moved.items.find((i) => i.id === "fall")).toMatchObject({ passed: true, measured: expect.stringMatching(/^1:84\.9/) });
+    expect(moved.items.find((i) => i.id === "fall")).toMatchObject({
+      passed: true,
+      measured: expect.stringMatching(/^1:84\.9/),
+    });
   });
 
   it("fails a required check when the trainee changes what the task fixes", () => {
@@ -283,18 +377,49 @@ describe("roof tasks graded by running the engine again", () => {
 
   it("does not count written-out defaults as changes", () => {
     const start = task.start as RoofSpec;
-    const same: RoofSpec = { ...start, edges: ["parapet", "parapet", "parapet", "parapet"], joists: { spacing: 0.4, offset: 0, direction: [0, 2] }, minFall: "1%", outline: [...start.outline, start.outline[0]] };
+    const same: RoofSpec = {
+      ...start,
+      edges: ["parapet", "parapet", "parapet", "parapet"],
+      joists: { spacing: 0.4, offset: 0, direction: [0, 2] },
+      minFall: "1%",
+      outline: [...start.outline, start.outline[0]],
+    };
     expect(changedFixedKeys(task, start, same)).toEqual([]);
     expect(changedFixedKeys(task, start, { ...start, rainfall: { intensity: 10 } })).toEqual(["rainfall"]);
-    expect(changedFixedKeys(task, start, { ...start, outlets: [{ at: [9, 0], level: -0.5 }] })).toEqual(["outlet levels"]);
+    expect(changedFixedKeys(task, start, { ...start, outlets: [{ at: [9, 0], level: -0.5 }] })).toEqual([
+      "outlet levels",
+    ]);
   });
 
   it("answers 400/422 for a spec the engine refuses, and never throws", () => {
     const bad = gradeTask(task, { outline: "nope" });
     expect(bad).toMatchObject({ ok: false, status: 400 });
-    const crossing = gradeTask(task, { outline: [[0, 0], [10, 10], [10, 0], [0, 10]], outlets: [], baseFall: "1:60" });
+    const crossing = gradeTask(task, {
+      outline: [
+        [0, 0],
+        [10, 10],
+        [10, 0],
+        [0, 10],
+      ],
+      outlets: [],
+      baseFall: "1:60",
+    });
     expect(crossing).toMatchObject({ ok: false, status: 422 });
-    for (const junk of [null, 42, "x", [], { outline: [[0, 0], [1, 0], [0, 1]], outlets: [{ at: [50, 50] }], baseFall: "1:60" }]) {
+    for (const junk of [
+      null,
+      42,
+      "x",
+      [],
+      {
+        outline: [
+          [0, 0],
+          [1, 0],
+          [0, 1],
+        ],
+        outlets: [{ at: [50, 50] }],
+        baseFall: "1:60",
+      },
+    ]) {
       const r = gradeTask(task, junk);
       expect(r.ok).toBe(false);
     }

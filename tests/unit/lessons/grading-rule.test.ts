@@ -7,35 +7,82 @@ import { questionSchema, taskSchema } from "~/lib/lessons/schema";
 const task = taskSchema.parse({
   title: "Move the outlet",
   goal: "Move it.",
-  start: { outline: [[0, 0], [18, 0], [18, 9], [0, 9]], outlets: [{ at: [0, 0] }], baseFall: "1:60", joists: { direction: [0, 1] } },
-  reference: { outline: [[0, 0], [18, 0], [18, 9], [0, 9]], outlets: [{ at: [9, 0] }], baseFall: "1:60", joists: { direction: [0, 1] } },
+  start: {
+    outline: [
+      [0, 0],
+      [18, 0],
+      [18, 9],
+      [0, 9],
+    ],
+    outlets: [{ at: [0, 0] }],
+    baseFall: "1:60",
+    joists: { direction: [0, 1] },
+  },
+  reference: {
+    outline: [
+      [0, 0],
+      [18, 0],
+      [18, 9],
+      [0, 9],
+    ],
+    outlets: [{ at: [9, 0] }],
+    baseFall: "1:60",
+    joists: { direction: [0, 1] },
+  },
   editable: ["outlets"],
   // The fixed-parts check ("Keep what the task fixes") is required and weighs 0 points.
   criteria: [{ id: "fall", kind: "longestFallRatioAtMost", value: "1:100", weight: 3 }],
   hints: ["Middle of the front edge."],
 });
-const lesson = { passMark: 70, quiz: [questionSchema.parse({ id: "q1", kind: "numeric", prompt: "?", answer: "150 mm", tolerance: "1 mm" })], task };
+const lesson = {
+  passMark: 70,
+  quiz: [questionSchema.parse({ id: "q1", kind: "numeric", prompt: "?", answer: "150 mm", tolerance: "1 mm" })],
+  task,
+};
 
 describe("the grading rule", () => {
   it("a required check that fails means Not passed, with the score capped below the pass mark (no 100 / 100 Not passed)", () => {
     // The reported case: every point earned, but the outline (fixed by the task) was moved.
-    const moved = { ...(task.reference as object), outline: [[0, 0], [18, 0], [18, 10], [0, 10]] };
+    const moved = {
+      ...(task.reference as object),
+      outline: [
+        [0, 0],
+        [18, 0],
+        [18, 10],
+        [0, 10],
+      ],
+    };
     const r = gradeLesson(lesson, { q1: "150 mm" }, moved);
     if ("ok" in r) throw new Error(r.message);
     expect(r.task.find((i) => i.id === "fixed")).toMatchObject({ passed: false, required: true, weight: 0 });
     expect(r).toMatchObject({ rawScore: 100, score: 69, passed: false });
-    const read = readGrade({ score: r.score, passed: r.passed, passMark: 70, failedRequired: ["Keep what the task fixes"] });
+    const read = readGrade({
+      score: r.score,
+      passed: r.passed,
+      passMark: 70,
+      failedRequired: ["Keep what the task fixes"],
+    });
     expect(read).toMatchObject({ score: 69, passed: false, why: "required" });
     expect(read.reason).toMatch(/^A required check was not met: “Keep what the task fixes”/);
     // An attempt stored before the cap (100, not passed) reads the same way.
-    expect(readGrade({ score: 100, passed: false, passMark: 70, failedRequired: ["Keep what the task fixes"] })).toMatchObject({ score: 69, passed: false });
+    expect(
+      readGrade({ score: 100, passed: false, passMark: 70, failedRequired: ["Keep what the task fixes"] }),
+    ).toMatchObject({ score: 69, passed: false });
     expect(cappedScore(40, 70)).toBe(40);
     expect(cappedScore(100, 0)).toBe(0);
   });
 
   it("below the pass mark is Not passed; at the pass mark is Passed", () => {
-    expect(readGrade({ score: 69.9, passed: false, passMark: 70, failedRequired: [] })).toMatchObject({ passed: false, why: "below-pass-mark", reason: "Below the pass mark of 70." });
-    expect(readGrade({ score: 70, passed: true, passMark: 70, failedRequired: [] })).toMatchObject({ passed: true, why: null, reason: null });
+    expect(readGrade({ score: 69.9, passed: false, passMark: 70, failedRequired: [] })).toMatchObject({
+      passed: false,
+      why: "below-pass-mark",
+      reason: "Below the pass mark of 70.",
+    });
+    expect(readGrade({ score: 70, passed: true, passMark: 70, failedRequired: [] })).toMatchObject({
+      passed: true,
+      why: null,
+      reason: null,
+    });
     // A stored "passed" beside a score below the mark can never read as a pass.
     expect(readGrade({ score: 60, passed: true, passMark: 70, failedRequired: [] }).passed).toBe(false);
     // Quiz right (1 point) and fall line missed (0 of 3): 25, below 70.
@@ -44,10 +91,27 @@ describe("the grading rule", () => {
   });
 
   it("an override replaces score and result together, and its result must follow the pass mark", () => {
-    const read = readGrade({ score: 69, passed: false, passMark: 70, failedRequired: ["Keep what the task fixes"], override: { score: 80, passed: true, reason: "Outline moved by a tool fault" } });
+    const read = readGrade({
+      score: 69,
+      passed: false,
+      passMark: 70,
+      failedRequired: ["Keep what the task fixes"],
+      override: { score: 80, passed: true, reason: "Outline moved by a tool fault" },
+    });
     expect(read).toMatchObject({ score: 80, passed: true, overridden: true, reason: null });
-    const down = readGrade({ score: 90, passed: true, passMark: 70, failedRequired: [], override: { score: 50, passed: false, reason: "Copied" } });
-    expect(down).toMatchObject({ score: 50, passed: false, why: "trainer", reason: "Not passed by the trainer's decision: Copied." });
+    const down = readGrade({
+      score: 90,
+      passed: true,
+      passMark: 70,
+      failedRequired: [],
+      override: { score: 50, passed: false, reason: "Copied" },
+    });
+    expect(down).toMatchObject({
+      score: 50,
+      passed: false,
+      why: "trainer",
+      reason: "Not passed by the trainer's decision: Copied.",
+    });
     expect(overrideProblem({ score: 100, passed: false }, 70)).toMatch(/70 or more passes/);
     expect(overrideProblem({ score: 50, passed: true }, 70)).toMatch(/at least 70/);
     expect(overrideProblem({ score: 70, passed: true }, 70)).toBeNull();

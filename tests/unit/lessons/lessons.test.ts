@@ -24,14 +24,28 @@ describe("the course in lessons/", () => {
       expect(l.quiz.length, l.file).toBeGreaterThan(0);
       expect(l.task.criteria.length, l.file).toBeGreaterThan(0);
       expect(l.task.hints.length, l.file).toBeGreaterThan(0);
-      expect(l.blocks.some((b) => b.type === "roof"), l.file).toBe(true);
+      expect(
+        l.blocks.some((b) => b.type === "roof"),
+        l.file,
+      ).toBe(true);
       expect(l.version, l.file).toMatch(/^[0-9a-f]{64}$/);
     }
   });
 
   it("covers the topics of the course", () => {
     const slugs = lessons.map((l) => l.slug).join(" ");
-    for (const topic of ["falls", "water-stands", "outlets", "gutters", "shaping", "fall-line", "drop-schedules", "catchments", "open-edge", "height-budget"]) {
+    for (const topic of [
+      "falls",
+      "water-stands",
+      "outlets",
+      "gutters",
+      "shaping",
+      "fall-line",
+      "drop-schedules",
+      "catchments",
+      "open-edge",
+      "height-budget",
+    ]) {
       expect(slugs).toContain(topic);
     }
   });
@@ -42,7 +56,11 @@ describe("the course in lessons/", () => {
   });
 
   it("warns where the work can hurt someone: every lesson has a caution", () => {
-    for (const l of lessons) expect(l.blocks.some((b) => b.type === "caution"), l.file).toBe(true);
+    for (const l of lessons)
+      expect(
+        l.blocks.some((b) => b.type === "caution"),
+        l.file,
+      ).toBe(true);
   });
 
   it("versions a lesson by the SHA-256 of its file", () => {
@@ -111,11 +129,15 @@ describe("a broken lesson file names the file and the field", () => {
   });
 
   it("names a numeric answer without a unit", () => {
-    expect(problems("02-bad.md", good.replace("answer: 150 mm", "answer: 150"))).toMatch(/02-bad\.md: quiz\.0\.answer: "150" needs a unit/);
+    expect(problems("02-bad.md", good.replace("answer: 150 mm", "answer: 150"))).toMatch(
+      /02-bad\.md: quiz\.0\.answer: "150" needs a unit/,
+    );
   });
 
   it("names a tolerance of the wrong kind", () => {
-    expect(problems("02-bad.md", good.replace("tolerance: 1 mm", "tolerance: 1 kg"))).toMatch(/02-bad\.md: quiz\.0\.tolerance: /);
+    expect(problems("02-bad.md", good.replace("tolerance: 1 mm", "tolerance: 1 kg"))).toMatch(
+      /02-bad\.md: quiz\.0\.tolerance: /,
+    );
   });
 
   it("names an unquoted ratio that YAML turned into a number", () => {
@@ -128,13 +150,23 @@ describe("a broken lesson file names the file and the field", () => {
   });
 
   it("names a starting roof the engine cannot build", () => {
-    const msg = problems("04-bad.md", good.replace("outlets: [{ at: [6, 0] }]\n    baseFall: \"1:150\"", "outlets: [{ at: [60, 60] }]\n    baseFall: \"1:150\""));
+    const msg = problems(
+      "04-bad.md",
+      good.replace(
+        'outlets: [{ at: [6, 0] }]\n    baseFall: "1:150"',
+        'outlets: [{ at: [60, 60] }]\n    baseFall: "1:150"',
+      ),
+    );
     expect(msg).toMatch(/04-bad\.md: task\.start: roof spec outlets\.0/);
   });
 
   it("names an unknown criterion kind and a choice pointing at no option", () => {
-    expect(problems("05-bad.md", good.replace("kind: highLevelAtMost", "kind: highLevelBelow"))).toMatch(/05-bad\.md: task\.criteria\.1\.kind: must be one of/);
-    expect(problems("05-bad.md", good.replace("correct: d", "correct: z"))).toMatch(/05-bad\.md: quiz\.4\.correct: "z" is not one of the option ids/);
+    expect(problems("05-bad.md", good.replace("kind: highLevelAtMost", "kind: highLevelBelow"))).toMatch(
+      /05-bad\.md: task\.criteria\.1\.kind: must be one of/,
+    );
+    expect(problems("05-bad.md", good.replace("correct: d", "correct: z"))).toMatch(
+      /05-bad\.md: quiz\.4\.correct: "z" is not one of the option ids/,
+    );
   });
 
   it("names a broken figure by its line in the body", () => {
@@ -145,11 +177,15 @@ describe("a broken lesson file names the file and the field", () => {
   });
 
   it("names bad front matter YAML, a bad file name and a repeated slug", () => {
-    expect(problems("07-bad.md", good.replace("minutes: 20", "minutes: [20"))).toMatch(/07-bad\.md: front matter.*: is not valid YAML/);
+    expect(problems("07-bad.md", good.replace("minutes: 20", "minutes: [20"))).toMatch(
+      /07-bad\.md: front matter.*: is not valid YAML/,
+    );
     expect(problems("Lesson One.md", good)).toMatch(/Lesson One\.md: \(file name\)/);
     fs.writeFileSync(path.join(dir, "08-same.md"), good);
     try {
-      expect(problems("09-same.md", good)).toMatch(/09-same\.md: \(file name\): slug "same" is also used by 08-same\.md/);
+      expect(problems("09-same.md", good)).toMatch(
+        /09-same\.md: \(file name\): slug "same" is also used by 08-same\.md/,
+      );
     } finally {
       fs.rmSync(path.join(dir, "08-same.md"));
     }

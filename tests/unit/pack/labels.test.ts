@@ -17,11 +17,30 @@ describe("label placement", () => {
   });
 
   it("moves a label off a line to its next candidate, and two labels at one point apart", () => {
-    const wall: [Point, Point] = [[-5, 0], [5, 0]];
+    const wall: [Point, Point] = [
+      [-5, 0],
+      [5, 0],
+    ];
     const [a, b] = placeLabels(
       [
-        { width: 2, height: 0.5, candidates: [[0, 0], [0, 1], [0, -1]] },
-        { width: 2, height: 0.5, candidates: [[0, 0], [0, 1], [0, -1]] },
+        {
+          width: 2,
+          height: 0.5,
+          candidates: [
+            [0, 0],
+            [0, 1],
+            [0, -1],
+          ],
+        },
+        {
+          width: 2,
+          height: 0.5,
+          candidates: [
+            [0, 0],
+            [0, 1],
+            [0, -1],
+          ],
+        },
       ],
       [wall],
     );
@@ -32,7 +51,28 @@ describe("label placement", () => {
   });
 
   it("takes the least-bad candidate and says so when nothing is free", () => {
-    const [a] = placeLabels([{ width: 1, height: 1, candidates: [[0, 0], [0, 0.1]] }], [[[-5, 0], [5, 0]], [[0, -5], [0, 5]]]);
+    const [a] = placeLabels(
+      [
+        {
+          width: 1,
+          height: 1,
+          candidates: [
+            [0, 0],
+            [0, 0.1],
+          ],
+        },
+      ],
+      [
+        [
+          [-5, 0],
+          [5, 0],
+        ],
+        [
+          [0, -5],
+          [0, 5],
+        ],
+      ],
+    );
     expect(a.clear).toBe(false);
   });
 
@@ -43,11 +83,18 @@ describe("label placement", () => {
     expect(c[0][1]).toBeCloseTo(0, 9);
   });
 
-  for (const [name, spec] of [["rectangle", DEMO_ROOF], ["U-shaped roof", U_ROOF]] as const) {
+  for (const [name, spec] of [
+    ["rectangle", DEMO_ROOF],
+    ["U-shaped roof", U_ROOF],
+  ] as const) {
     it(`${name}: the plan's labels overlap no wall, fall line, outlet or each other`, () => {
       const pack = packOf(spec, name, undefined, true);
       const sampler = new MeshSampler(pack.analysis.shaped.mesh!);
-      const plan = planLabels(pack, (text, size) => text.length * size * 0.6, (x, y) => sampler.levelAt(x, y));
+      const plan = planLabels(
+        pack,
+        (text, size) => text.length * size * 0.6,
+        (x, y) => sampler.levelAt(x, y),
+      );
       // An edge length and a corner level per vertex, and a label per outlet.
       expect(plan.labels).toHaveLength(2 * spec.outline.length + spec.outlets.length);
       for (const l of plan.labels) {
@@ -55,7 +102,11 @@ describe("label placement", () => {
         for (const [p, q] of plan.obstacles) expect(segmentHitsBox(p, q, l.box), `${l.text} on a line`).toBe(false);
       }
       for (let i = 0; i < plan.labels.length; i++)
-        for (let j = i + 1; j < plan.labels.length; j++) expect(boxesOverlap(plan.labels[i].box, plan.labels[j].box), `${plan.labels[i].text} / ${plan.labels[j].text}`).toBe(false);
+        for (let j = i + 1; j < plan.labels.length; j++)
+          expect(
+            boxesOverlap(plan.labels[i].box, plan.labels[j].box),
+            `${plan.labels[i].text} / ${plan.labels[j].text}`,
+          ).toBe(false);
     });
   }
 });

@@ -10,9 +10,10 @@ import { packOf, U_ROOF } from "./fixtures";
 /** Loaded back with three.js's own GLTFLoader, as any viewer would read it. */
 async function load(bytes: Uint8Array) {
   const buffer = bytes.buffer.slice(bytes.byteOffset, bytes.byteOffset + bytes.byteLength) as ArrayBuffer;
-  return new Promise<{ scene: THREE.Group; parser: { json: { scenes: { extras?: Record<string, string> }[]; asset: { version: string } } } }>((resolve, reject) =>
-    new GLTFLoader().parse(buffer, "", (g) => resolve(g as never), reject),
-  );
+  return new Promise<{
+    scene: THREE.Group;
+    parser: { json: { scenes: { extras?: Record<string, string> }[]; asset: { version: string } } };
+  }>((resolve, reject) => new GLTFLoader().parse(buffer, "", (g) => resolve(g as never), reject));
 }
 
 describe("roof.glb", () => {
@@ -42,7 +43,10 @@ describe("roof.glb", () => {
     // COLOR_0 present, and face 0's colour is the 3D view's fall colour for its ratio (stored linear).
     const colour = roof.geometry.getAttribute("color");
     expect(colour.count).toBe(position.count);
-    const want = new THREE.Color().setRGB(...(fallColour(mesh.faceRatio[0]).map((v) => v / 255) as [number, number, number]), THREE.SRGBColorSpace);
+    const want = new THREE.Color().setRGB(
+      ...(fallColour(mesh.faceRatio[0]).map((v) => v / 255) as [number, number, number]),
+      THREE.SRGBColorSpace,
+    );
     expect(colour.getX(0)).toBeCloseTo(want.r, 4);
     expect(colour.getY(0)).toBeCloseTo(want.g, 4);
     expect(colour.getZ(0)).toBeCloseTo(want.b, 4);
@@ -64,7 +68,16 @@ describe("roof.glb", () => {
   });
 
   it("writes a roof whose gutter layout is not comparable with the shaped roof alone", async () => {
-    const pack = packOf({ ...U_ROOF, outlets: [], edges: ["eaves", "parapet", "parapet", "parapet", "parapet", "parapet", "parapet", "parapet"] }, "Eaves", undefined, true);
+    const pack = packOf(
+      {
+        ...U_ROOF,
+        outlets: [],
+        edges: ["eaves", "parapet", "parapet", "parapet", "parapet", "parapet", "parapet", "parapet"],
+      },
+      "Eaves",
+      undefined,
+      true,
+    );
     const gltf = await load(await roofGlb(pack));
     expect(gltf.scene.getObjectByName("shaped-roof")).toBeDefined();
     expect(gltf.scene.getObjectByName("gutter-layout")).toBeUndefined();

@@ -19,7 +19,13 @@ function readBack(csv: string) {
     if (cells[0] === "outlet") outlets.push(cells.slice(1));
     else header.set(cells[0], cells.slice(1));
   }
-  const table = Papa.parse<Record<string, string>>(rows.slice(blank + 1).map((r) => Papa.unparse([r])).join("\n"), { header: true, skipEmptyLines: true });
+  const table = Papa.parse<Record<string, string>>(
+    rows
+      .slice(blank + 1)
+      .map((r) => Papa.unparse([r]))
+      .join("\n"),
+    { header: true, skipEmptyLines: true },
+  );
   return { header, outlets, table: table.data, fields: table.meta.fields ?? [] };
 }
 
@@ -85,8 +91,12 @@ describe("drop schedule CSV", () => {
 
   it("is named after the roof and the date, with safe characters only", () => {
     expect(scheduleFileName(pack)).toBe("annex-roof-drop-schedule-2026-12-04.csv");
-    expect(scheduleFileName({ name: NASTY_NAME, date: pack.date })).toBe("hyperlink-http-x-invalid-click-annex-b-east-drop-schedule-2026-12-04.csv");
-    expect(packFileName("../../etc/passwd\r\nX: y", "plan", pack.date, "dxf")).toBe("etc-passwd-x-y-plan-2026-12-04.dxf");
+    expect(scheduleFileName({ name: NASTY_NAME, date: pack.date })).toBe(
+      "hyperlink-http-x-invalid-click-annex-b-east-drop-schedule-2026-12-04.csv",
+    );
+    expect(packFileName("../../etc/passwd\r\nX: y", "plan", pack.date, "dxf")).toBe(
+      "etc-passwd-x-y-plan-2026-12-04.dxf",
+    );
     expect(packFileName("屋根", "plan", pack.date, "dxf")).toBe("roof-plan-2026-12-04.dxf");
   });
 

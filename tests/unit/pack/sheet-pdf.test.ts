@@ -17,7 +17,13 @@ async function readPdf(bytes: Uint8Array) {
     const page = await doc.getPage(i);
     const content = await page.getTextContent();
     const [, , w, h] = page.view;
-    pages.push({ text: content.items.map((it) => ("str" in it ? it.str : "")).join(" ").replace(/\s+/g, " "), size: [w, h] });
+    pages.push({
+      text: content.items
+        .map((it) => ("str" in it ? it.str : ""))
+        .join(" ")
+        .replace(/\s+/g, " "),
+      size: [w, h],
+    });
   }
   await doc.destroy();
   return pages;

@@ -1,5 +1,15 @@
 import { describe, expect, it } from "vitest";
-import { cividis, contrastRatio, HATCH_INK, HATCH_MIX, hexRgb, relativeLuminance, SHADE_MIN, WATER_DARK, WATER_LIGHT } from "~/lib/fall-colour";
+import {
+  cividis,
+  contrastRatio,
+  HATCH_INK,
+  HATCH_MIX,
+  hexRgb,
+  relativeLuminance,
+  SHADE_MIN,
+  WATER_DARK,
+  WATER_LIGHT,
+} from "~/lib/fall-colour";
 
 type Rgb = [number, number, number];
 const scale = (c: Rgb, k: number): Rgb => c.map((v) => Math.round(v * k)) as Rgb;

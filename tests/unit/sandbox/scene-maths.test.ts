@@ -17,7 +17,11 @@ function planArea(positions: number[], indices: number[], faceRatio: (number | n
   for (let f = 0; f < indices.length / 3; f++) {
     if (faceRatio[f] === WALL_FACE) continue;
     const [a, b, c] = [indices[3 * f] * 3, indices[3 * f + 1] * 3, indices[3 * f + 2] * 3];
-    sum += Math.abs((positions[b] - positions[a]) * (positions[c + 1] - positions[a + 1]) - (positions[c] - positions[a]) * (positions[b + 1] - positions[a + 1])) / 2;
+    sum +=
+      Math.abs(
+        (positions[b] - positions[a]) * (positions[c + 1] - positions[a + 1]) -
+          (positions[c] - positions[a]) * (positions[b + 1] - positions[a + 1]),
+      ) / 2;
   }
   return sum;
 }
@@ -77,7 +81,15 @@ describe("contours", () => {
 
 describe("levels read off the engine's mesh", () => {
   it("match the engine's own probes (chord rule, docs/roof-method.md §4) within a millimetre", () => {
-    const points: [number, number][] = [[1, 1], [6, 4], [11.5, 7.5], [3.3, 0.2], [9.1, 6.6], [6, 0], [12, 8]];
+    const points: [number, number][] = [
+      [1, 1],
+      [6, 4],
+      [11.5, 7.5],
+      [3.3, 0.2],
+      [9.1, 6.6],
+      [6, 0],
+      [12, 8],
+    ];
     const { analysis } = analysed({ ...DEMO_ROOF, probes: points });
     const sampler = new MeshSampler(analysis.shaped.mesh!);
     analysis.shaped.probes.forEach((probe) => {

@@ -25,7 +25,11 @@ function tableOf(text: string): string {
 type ActionArgs = Parameters<typeof action>[0];
 
 function post(body: BodyInit, type: string) {
-  const request = new Request("http://localhost/sandbox/schedule.csv", { method: "POST", body, headers: { "Content-Type": type } });
+  const request = new Request("http://localhost/sandbox/schedule.csv", {
+    method: "POST",
+    body,
+    headers: { "Content-Type": type },
+  });
   return action({ request, params: {}, context: {} } as unknown as ActionArgs);
 }
 
@@ -33,11 +37,16 @@ const form = (spec: string) => post(new URLSearchParams({ spec }), "application/
 
 describe("POST /sandbox/schedule.csv", () => {
   it("answers the drop schedule as a CSV attachment named after the roof and the day", async () => {
-    const res = await post(new URLSearchParams({ spec: JSON.stringify(DEMO_ROOF), name: "Depot, east wing" }), "application/x-www-form-urlencoded");
+    const res = await post(
+      new URLSearchParams({ spec: JSON.stringify(DEMO_ROOF), name: "Depot, east wing" }),
+      "application/x-www-form-urlencoded",
+    );
     expect(res.status).toBe(200);
     expect(res.headers.get("content-type")).toMatch(/^text\/csv/);
     const today = new Date().toISOString().slice(0, 10);
-    expect(res.headers.get("content-disposition")).toBe(`attachment; filename="depot-east-wing-drop-schedule-${today}.csv"`);
+    expect(res.headers.get("content-disposition")).toBe(
+      `attachment; filename="depot-east-wing-drop-schedule-${today}.csv"`,
+    );
     const text = (await res.text()).replace(/^\uFEFF/, "").trim();
     // The same writer as the roof's download and the CLI: the same file for the same roof and day.
     expect(text).toBe(scheduleCsv(packOf(DEMO_ROOF, "Depot, east wing", new Date())).trim());
@@ -50,13 +59,28 @@ describe("POST /sandbox/schedule.csv", () => {
     const H = Math.round(8 * Math.tan((2 * Math.PI) / 180) * 1000);
     // docs/roof-method.md §3: the joist through the outlet falls exactly at the base fall (2° = 1:28.6).
     const through = parsed.data.find((r) => Number(r.offset_m) === 6)!;
-    expect(through).toMatchObject({ start_level_mm: "0", end_level_mm: String(H), start_drop_below_H_mm: String(H), end_drop_below_H_mm: "0", fall: "1:28.6" });
+    expect(through).toMatchObject({
+      start_level_mm: "0",
+      end_level_mm: String(H),
+      start_drop_below_H_mm: String(H),
+      end_drop_below_H_mm: "0",
+      fall: "1:28.6",
+    });
     // The joist against the end wall lies on the level rim: level, no drop.
-    expect(parsed.data[0]).toMatchObject({ joist: "1", offset_m: "0", start_level_mm: String(H), end_level_mm: String(H), fall: "level" });
+    expect(parsed.data[0]).toMatchObject({
+      joist: "1",
+      offset_m: "0",
+      start_level_mm: String(H),
+      end_level_mm: String(H),
+      fall: "level",
+    });
   });
 
   it("answers in US customary when asked (units=us), or for a US rule set, agreeing with the screen's figures", async () => {
-    const res = await post(new URLSearchParams({ spec: JSON.stringify(DEMO_ROOF), units: "us" }), "application/x-www-form-urlencoded");
+    const res = await post(
+      new URLSearchParams({ spec: JSON.stringify(DEMO_ROOF), units: "us" }),
+      "application/x-www-form-urlencoded",
+    );
     expect(res.status).toBe(200);
     const parsed = Papa.parse<Record<string, string>>(tableOf(await res.text()), { header: true });
     const analysis = analyse(parseOk(DEMO_ROOF), { mesh: false, traces: false });
@@ -65,8 +89,14 @@ describe("POST /sandbox/schedule.csv", () => {
     const through = parsed.data.find((r) => Math.abs(Number(r.offset_ft) - 6 / 0.3048) < 0.001)!;
     const row = rows.find((r) => r.offset === 6)!;
     // The screen writes the same level to 1/16 in: 5 7/8 in is 5.875 in the file.
-    const screen = formatIn("us").mm(row.metres.endLevel).replace(/\u00a0in$/, "");
-    const [whole, frac] = screen.includes(" ") ? screen.split(" ") : screen.includes("/") ? ["0", screen] : [screen, "0/1"];
+    const screen = formatIn("us")
+      .mm(row.metres.endLevel)
+      .replace(/\u00a0in$/, "");
+    const [whole, frac] = screen.includes(" ")
+      ? screen.split(" ")
+      : screen.includes("/")
+        ? ["0", screen]
+        : [screen, "0/1"];
     const [a, b] = frac.split("/").map(Number);
     expect(Number(through.end_level_in)).toBeCloseTo(Number(whole) + a / b, 9);
     // 1 in = 25.4 mm exactly (NIST SP 811): the level in inches is the level in metres / 0.0254, to 1/16.
@@ -75,13 +105,25 @@ describe("POST /sandbox/schedule.csv", () => {
     expect(Number(through.fall_in_per_ft)).toBeCloseTo(12 / (1 / Math.tan((2 * Math.PI) / 180)), 2);
     const ibc = await form(JSON.stringify({ ...DEMO_ROOF, ruleSet: "us-ibc-2018" }));
     expect(tableOf(await ibc.text()).split("\n")[0]).toContain("offset_ft");
-    expect((await post(new URLSearchParams({ spec: JSON.stringify(DEMO_ROOF), units: "imperial" }), "application/x-www-form-urlencoded")).status).toBe(400);
+    expect(
+      (
+        await post(
+          new URLSearchParams({ spec: JSON.stringify(DEMO_ROOF), units: "imperial" }),
+          "application/x-www-form-urlencoded",
+        )
+      ).status,
+    ).toBe(400);
   });
 
   it("calls an unnamed roof the sandbox roof, and refuses an over-long name naming the field", async () => {
     const res = await form(JSON.stringify(DEMO_ROOF));
-    expect(res.headers.get("content-disposition")).toMatch(/filename="sandbox-roof-drop-schedule-\d{4}-\d{2}-\d{2}\.csv"/);
-    const long = await post(new URLSearchParams({ spec: JSON.stringify(DEMO_ROOF), name: "x".repeat(121) }), "application/x-www-form-urlencoded");
+    expect(res.headers.get("content-disposition")).toMatch(
+      /filename="sandbox-roof-drop-schedule-\d{4}-\d{2}-\d{2}\.csv"/,
+    );
+    const long = await post(
+      new URLSearchParams({ spec: JSON.stringify(DEMO_ROOF), name: "x".repeat(121) }),
+      "application/x-www-form-urlencoded",
+    );
     expect(long.status).toBe(400);
     expect(await long.text()).toMatch(/`name`/);
   });
@@ -96,7 +138,18 @@ describe("POST /sandbox/schedule.csv", () => {
     expect((await form(JSON.stringify({ outline: "nope" }))).status).toBe(400);
     expect((await post("spec=", "application/x-www-form-urlencoded")).status).toBe(400);
     expect((await post("hello", "text/plain")).status).toBe(400);
-    const crossing = await form(JSON.stringify({ ...DEMO_ROOF, outline: [[0, 0], [10, 10], [10, 0], [0, 10]], outlets: [] }));
+    const crossing = await form(
+      JSON.stringify({
+        ...DEMO_ROOF,
+        outline: [
+          [0, 0],
+          [10, 10],
+          [10, 0],
+          [0, 10],
+        ],
+        outlets: [],
+      }),
+    );
     expect(crossing.status).toBe(422);
     expect(await crossing.text()).toMatch(/cannot be built/i);
     expect((await form("x".repeat(300 * 1024))).status).toBe(413);
@@ -134,8 +187,19 @@ describe("a roof carried in a link (?spec=, as the classroom's copy link and the
     expect(readLinkedSpec(url(null))).toEqual({ spec: null, error: null });
     expect(readLinkedSpec(url(encodeSpec(DEMO_ROOF))).spec?.outline).toEqual(DEMO_ROOF.outline);
     expect(readLinkedSpec(url("not*base64"))).toMatchObject({ spec: null, error: { status: 400 } });
-    expect(readLinkedSpec(url(encodeSpec({ ...DEMO_ROOF, baseFall: "steep" })))).toMatchObject({ error: { status: 400 } });
-    const crossing = { ...DEMO_ROOF, outline: [[0, 0], [10, 10], [10, 0], [0, 10]] as typeof DEMO_ROOF.outline, outlets: [] };
+    expect(readLinkedSpec(url(encodeSpec({ ...DEMO_ROOF, baseFall: "steep" })))).toMatchObject({
+      error: { status: 400 },
+    });
+    const crossing = {
+      ...DEMO_ROOF,
+      outline: [
+        [0, 0],
+        [10, 10],
+        [10, 0],
+        [0, 10],
+      ] as typeof DEMO_ROOF.outline,
+      outlets: [],
+    };
     expect(readLinkedSpec(url(encodeSpec(crossing)))).toMatchObject({ error: { status: 422 } });
   });
 });

@@ -50,14 +50,37 @@ describe("spec edits", () => {
   });
 
   it("deleting a vertex merges its edges and projects their outlets onto the new edge", () => {
-    const spec: RoofSpec = { ...rect(), outline: [[0, 0], [6, 1], [12, 0], [12, 8], [0, 8]], outlets: [{ at: [3, 0.5] }] };
+    const spec: RoofSpec = {
+      ...rect(),
+      outline: [
+        [0, 0],
+        [6, 1],
+        [12, 0],
+        [12, 8],
+        [0, 8],
+      ],
+      outlets: [{ at: [3, 0.5] }],
+    };
     const next = deleteVertex(spec, 1);
-    expect(next.outline).toEqual([[0, 0], [12, 0], [12, 8], [0, 8]]);
+    expect(next.outline).toEqual([
+      [0, 0],
+      [12, 0],
+      [12, 8],
+      [0, 8],
+    ]);
     expect(next.outlets[0].at[0]).toBeCloseTo(3, 9);
     expect(next.outlets[0].at[1]).toBeCloseTo(0, 9);
     expect(deleteVertex(rect(), 0).outline).toHaveLength(3);
     // A triangle stays a triangle.
-    const tri: RoofSpec = { ...rect(), outline: [[0, 0], [4, 0], [0, 3]], outlets: [] };
+    const tri: RoofSpec = {
+      ...rect(),
+      outline: [
+        [0, 0],
+        [4, 0],
+        [0, 3],
+      ],
+      outlets: [],
+    };
     expect(deleteVertex(tri, 1)).toBe(tri);
   });
 
@@ -91,11 +114,18 @@ describe("snapping", () => {
     expect(p[0]).toBeCloseTo(12, 9);
     expect(p[1]).toBeCloseTo(8, 9);
     // Far from any right-angle line: left where it is.
-    expect(snapVertex([14, 10], outline, 2, { grid: false, step: 0.25, rightAngles: true, tolerance: 0.2 })).toEqual([14, 10]);
+    expect(snapVertex([14, 10], outline, 2, { grid: false, step: 0.25, rightAngles: true, tolerance: 0.2 })).toEqual([
+      14, 10,
+    ]);
   });
 
   it("squares a corner to a slanted neighbour edge", () => {
-    const outline: RoofSpec["outline"] = [[0, 0], [10, 5], [8, 9], [-2, 4]];
+    const outline: RoofSpec["outline"] = [
+      [0, 0],
+      [10, 5],
+      [8, 9],
+      [-2, 4],
+    ];
     // Square at vertex 1 means vertex 2 lies on the line through (10, 5) perpendicular to (10, 5) - (0, 0).
     const p = snapVertex([8.05, 9.05], outline, 2, { grid: false, step: 0.25, rightAngles: true, tolerance: 0.2 });
     const dot = (p[0] - 10) * 10 + (p[1] - 5) * 5;

@@ -84,7 +84,15 @@ describe("sandbox store", () => {
     const store = createSandboxStore(DEMO_ROOF);
     store.getState().setOutcome(DEMO_ROOF, runAnalysis(DEMO_ROOF));
     const good = store.getState().analysis;
-    const crossing = { ...DEMO_ROOF, outline: [[0, 0], [10, 10], [10, 0], [0, 10]] as typeof DEMO_ROOF.outline };
+    const crossing = {
+      ...DEMO_ROOF,
+      outline: [
+        [0, 0],
+        [10, 10],
+        [10, 0],
+        [0, 10],
+      ] as typeof DEMO_ROOF.outline,
+    };
     store.getState().setOutcome(crossing, runAnalysis(crossing));
     expect(store.getState().analysis).toBe(good);
     expect(store.getState().analysedSpec).toBe(DEMO_ROOF);

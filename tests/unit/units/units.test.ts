@@ -34,7 +34,7 @@ describe("conversions (NIST SP 811 Appendix B; international yard and pound agre
     }
     expect(metresOf("6 1/2 in", "metric")).toBeCloseTo(0.1651, 12);
     expect(metresOf("6 1/2", "us", "level")).toBeCloseTo(0.1651, 12);
-    expect(metresOf("1/4\"", "us", "level")).toBeCloseTo(0.00635, 12);
+    expect(metresOf('1/4"', "us", "level")).toBeCloseTo(0.00635, 12);
   });
 
   it("reads a bare number in the field's unit for the system, and metric units in US customary", () => {

@@ -5,7 +5,17 @@ import type { SurfaceMesh } from "./roof-surface";
 import type { SceneFrame } from "./scene-frame";
 
 /** Contour lines of the surface at a level interval, one line draw. */
-export function ContourLines({ mesh, frame, interval, exaggeration }: { mesh: SurfaceMesh; frame: SceneFrame; interval: number; exaggeration: number }) {
+export function ContourLines({
+  mesh,
+  frame,
+  interval,
+  exaggeration,
+}: {
+  mesh: SurfaceMesh;
+  frame: SceneFrame;
+  interval: number;
+  exaggeration: number;
+}) {
   const geometry = useMemo(() => {
     const seg = contourSegments(mesh.positions, mesh.indices, interval);
     for (let i = 0; i < seg.length; i += 3) {
@@ -22,7 +32,12 @@ export function ContourLines({ mesh, frame, interval, exaggeration }: { mesh: Su
   }, [mesh, frame, interval]);
   useEffect(() => () => geometry.dispose(), [geometry]);
   return (
-    <lineSegments geometry={geometry} scale={[1, exaggeration, 1]} position={[0, 0.004 * exaggeration + 0.002, 0]} name="contours">
+    <lineSegments
+      geometry={geometry}
+      scale={[1, exaggeration, 1]}
+      position={[0, 0.004 * exaggeration + 0.002, 0]}
+      name="contours"
+    >
       <lineBasicMaterial color="#1f2933" transparent opacity={0.7} />
     </lineSegments>
   );

@@ -59,7 +59,17 @@ export function JoistMembers({
   const lines = useMemo(() => {
     const arr = new Float32Array(spans.length * 6);
     spans.forEach(({ s }, i) => {
-      arr.set([s.start[0] - frame.cx, s.startLevel, -(s.start[1] - frame.cy), s.end[0] - frame.cx, s.endLevel, -(s.end[1] - frame.cy)], i * 6);
+      arr.set(
+        [
+          s.start[0] - frame.cx,
+          s.startLevel,
+          -(s.start[1] - frame.cy),
+          s.end[0] - frame.cx,
+          s.endLevel,
+          -(s.end[1] - frame.cy),
+        ],
+        i * 6,
+      );
     });
     const g = new THREE.BufferGeometry();
     g.setAttribute("position", new THREE.BufferAttribute(arr, 3));

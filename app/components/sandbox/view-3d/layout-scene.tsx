@@ -38,8 +38,13 @@ export function LayoutScene({
         if (z !== null) out.push({ at: p, level: z, kind: "corner", name: `Corner ${i + 1}` });
       });
     }
-    if (showOutlets) spec.outlets.forEach((o, k) => out.push({ at: o.at, level: o.level ?? 0, kind: "outlet", name: `Outlet O${k + 1}` }));
-    const longest = [...surface.lines].sort((a, b) => Math.hypot(b[1][0] - b[0][0], b[1][1] - b[0][1]) - Math.hypot(a[1][0] - a[0][0], a[1][1] - a[0][1]))[0];
+    if (showOutlets)
+      spec.outlets.forEach((o, k) =>
+        out.push({ at: o.at, level: o.level ?? 0, kind: "outlet", name: `Outlet O${k + 1}` }),
+      );
+    const longest = [...surface.lines].sort(
+      (a, b) => Math.hypot(b[1][0] - b[0][0], b[1][1] - b[0][1]) - Math.hypot(a[1][0] - a[0][0], a[1][1] - a[0][1]),
+    )[0];
     if (note && longest) {
       const [p, q] = longest;
       out.push({ at: [(p[0] + q[0]) / 2, (p[1] + q[1]) / 2], level: p[2], kind: "note", name: note, text: note });
@@ -50,7 +55,14 @@ export function LayoutScene({
     <group>
       <SceneLights />
       <RoofSurface mesh={surface} frame={frame} minRatio={minRatio} exaggeration={exaggeration} />
-      <Parapets outline={spec.outline} kinds={kinds} frame={frame} low={Math.min(0, surface.low)} high={surface.high} exaggeration={exaggeration} />
+      <Parapets
+        outline={spec.outline}
+        kinds={kinds}
+        frame={frame}
+        low={Math.min(0, surface.low)}
+        high={surface.high}
+        exaggeration={exaggeration}
+      />
       {showOutlets && <OutletMarkers outlets={spec.outlets} frame={frame} exaggeration={exaggeration} />}
       {surface.lines.map(([p, q], i) => (
         <SurfaceLine key={i} points={[p, q]} frame={frame} exaggeration={exaggeration} color="#1f2933" width={2.5} />

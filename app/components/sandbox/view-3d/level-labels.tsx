@@ -11,7 +11,15 @@ export interface LevelLabel {
 }
 
 /** Levels in millimetres at corners and outlets, as HTML labels (no font files fetched). */
-export function LevelLabels({ labels, frame, exaggeration }: { labels: LevelLabel[]; frame: SceneFrame; exaggeration: number }) {
+export function LevelLabels({
+  labels,
+  frame,
+  exaggeration,
+}: {
+  labels: LevelLabel[];
+  frame: SceneFrame;
+  exaggeration: number;
+}) {
   return (
     <group name="labels">
       {labels.map((l, i) => (

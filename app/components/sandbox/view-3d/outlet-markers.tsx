@@ -2,7 +2,15 @@ import type { RoofSpec } from "~/engine";
 import type { SceneFrame } from "./scene-frame";
 
 /** Outlets: a dark bowl with an accent ring, sized to the outlet (at least visible at plan scale). */
-export function OutletMarkers({ outlets, frame, exaggeration }: { outlets: RoofSpec["outlets"]; frame: SceneFrame; exaggeration: number }) {
+export function OutletMarkers({
+  outlets,
+  frame,
+  exaggeration,
+}: {
+  outlets: RoofSpec["outlets"];
+  frame: SceneFrame;
+  exaggeration: number;
+}) {
   return (
     <group name="outlets">
       {outlets.map((o, k) => {

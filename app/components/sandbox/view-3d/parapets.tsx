@@ -81,10 +81,13 @@ export function Parapets({
     return { walls: make(wall), spouting: make(spout) };
   }, [outline, kinds, frame, low, high, exaggeration]);
 
-  useEffect(() => () => {
-    walls.dispose();
-    spouting.dispose();
-  }, [walls, spouting]);
+  useEffect(
+    () => () => {
+      walls.dispose();
+      spouting.dispose();
+    },
+    [walls, spouting],
+  );
 
   return (
     <group name="parapets">

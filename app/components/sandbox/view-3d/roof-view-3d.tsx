@@ -69,7 +69,9 @@ export default function RoofView3D({ className = "", resetKey = 0 }: { className
         role="img"
       >
         <color attach="background" args={["#f1eadb"]} />
-        {analysis && spec && <ShapedScene analysis={analysis} spec={spec} frame={frame} view={view} animate={animate} section={section} />}
+        {analysis && spec && (
+          <ShapedScene analysis={analysis} spec={spec} frame={frame} view={view} animate={animate} section={section} />
+        )}
         <CameraRig
           preset={view.camera}
           frame={frame}

@@ -1,10 +1,4 @@
-import {
-  createRoot,
-  events,
-  extend,
-  type ReconcilerRoot,
-  type RenderProps,
-} from "@react-three/fiber";
+import { createRoot, events, extend, type ReconcilerRoot, type RenderProps } from "@react-three/fiber";
 import { FiberProvider, useContextBridge } from "its-fine";
 import {
   Component,
@@ -34,10 +28,7 @@ if (!getConsoleFunction()) {
   });
 }
 
-type SceneCanvasProps = Pick<
-  RenderProps<HTMLCanvasElement>,
-  "camera" | "dpr" | "frameloop" | "gl" | "onCreated"
-> &
+type SceneCanvasProps = Pick<RenderProps<HTMLCanvasElement>, "camera" | "dpr" | "frameloop" | "gl" | "onCreated"> &
   Omit<HTMLAttributes<HTMLDivElement>, "children"> & { children: ReactNode };
 
 class Catch extends Component<{
@@ -53,16 +44,7 @@ class Catch extends Component<{
   }
 }
 
-function CanvasRoot({
-  children,
-  camera,
-  dpr,
-  frameloop,
-  gl,
-  onCreated,
-  style,
-  ...rest
-}: SceneCanvasProps) {
+function CanvasRoot({ children, camera, dpr, frameloop, gl, onCreated, style, ...rest }: SceneCanvasProps) {
   const Bridge = useContextBridge();
   const outer = useRef<HTMLDivElement>(null);
   const box = useRef<HTMLDivElement>(null);
@@ -77,11 +59,7 @@ function CanvasRoot({
     const element = box.current!;
     const measure = () => {
       const { width, height } = element.getBoundingClientRect();
-      setSize((old) =>
-        old.width === width && old.height === height
-          ? old
-          : { width, height, top: 0, left: 0 },
-      );
+      setSize((old) => (old.width === width && old.height === height ? old : { width, height, top: 0, left: 0 }));
     };
     measure();
     const observer = new ResizeObserver(measure);

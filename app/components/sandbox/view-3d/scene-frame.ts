@@ -22,7 +22,13 @@ export function sceneFrame(outline: Point[]): SceneFrame {
   };
 }
 
-export function toScene(frame: SceneFrame, x: number, y: number, z: number, exaggeration: number): [number, number, number] {
+export function toScene(
+  frame: SceneFrame,
+  x: number,
+  y: number,
+  z: number,
+  exaggeration: number,
+): [number, number, number] {
   return [x - frame.cx, z * exaggeration, -(y - frame.cy)];
 }
 
@@ -32,9 +38,22 @@ export function toScene(frame: SceneFrame, x: number, y: number, z: number, exag
  */
 export function useStableFrame(outline: Point[] | undefined): SceneFrame {
   const ref = useRef<SceneFrame | null>(null);
-  const next = sceneFrame(outline && outline.length >= 3 ? outline : [[0, 0], [1, 0], [1, 1]]);
+  const next = sceneFrame(
+    outline && outline.length >= 3
+      ? outline
+      : [
+          [0, 0],
+          [1, 0],
+          [1, 1],
+        ],
+  );
   const f = ref.current;
-  if (!f || next.radius > f.radius * 1.3 || next.radius < f.radius * 0.7 || Math.hypot(next.cx - f.cx, next.cy - f.cy) > f.radius * 0.3) {
+  if (
+    !f ||
+    next.radius > f.radius * 1.3 ||
+    next.radius < f.radius * 0.7 ||
+    Math.hypot(next.cx - f.cx, next.cy - f.cy) > f.radius * 0.3
+  ) {
     ref.current = next;
   }
   return ref.current!;

@@ -27,7 +27,12 @@ export function SceneLights() {
 }
 
 /** The section joist: where the camera stands and the plane that cuts away the roof in front of it. */
-export function sectionPose(analysis: Analysis, index: number, frame: SceneFrame, exaggeration: number): { pose: SectionPose; plane: THREE.Plane } | null {
+export function sectionPose(
+  analysis: Analysis,
+  index: number,
+  frame: SceneFrame,
+  exaggeration: number,
+): { pose: SectionPose; plane: THREE.Plane } | null {
   const joists = analysis.shaped.joists;
   const j = joists[Math.min(Math.max(index, 0), joists.length - 1)];
   if (!j || j.spans.length === 0) return null;
@@ -87,7 +92,9 @@ export function ShapedScene({
         if (z !== null) out.push({ at: p, level: z, kind: "corner", name: `Corner ${i + 1}` });
       });
     }
-    spec.outlets.forEach((o, k) => out.push({ at: o.at, level: o.level ?? 0, kind: "outlet", name: `Outlet O${k + 1}` }));
+    spec.outlets.forEach((o, k) =>
+      out.push({ at: o.at, level: o.level ?? 0, kind: "outlet", name: `Outlet O${k + 1}` }),
+    );
     return out;
   }, [sampler, spec]);
 
@@ -112,20 +119,50 @@ export function ShapedScene({
   return (
     <group>
       <SceneLights />
-      <RoofSurface mesh={mesh} frame={frame} minRatio={analysis.minFall.ratio} exaggeration={exaggeration} clippingPlanes={clipping} />
-      <Parapets outline={spec.outline} kinds={kinds} frame={frame} low={low} high={analysis.shaped.highLevel} exaggeration={exaggeration} clippingPlanes={clipping} />
+      <RoofSurface
+        mesh={mesh}
+        frame={frame}
+        minRatio={analysis.minFall.ratio}
+        exaggeration={exaggeration}
+        clippingPlanes={clipping}
+      />
+      <Parapets
+        outline={spec.outline}
+        kinds={kinds}
+        frame={frame}
+        low={low}
+        high={analysis.shaped.highLevel}
+        exaggeration={exaggeration}
+        clippingPlanes={clipping}
+      />
       <OutletMarkers outlets={spec.outlets} frame={frame} exaggeration={exaggeration} />
       {spec.openings && spec.openings.length > 0 && sampler && (
-        <Upstands openings={spec.openings} sampler={sampler} frame={frame} exaggeration={exaggeration} clippingPlanes={clipping} />
+        <Upstands
+          openings={spec.openings}
+          sampler={sampler}
+          frame={frame}
+          exaggeration={exaggeration}
+          clippingPlanes={clipping}
+        />
       )}
       {(view.showJoists || sectionJoist >= 0) && (
-        <JoistMembers joists={analysis.shaped.joists} frame={frame} exaggeration={exaggeration} highlight={analysis.shaped.joists[sectionJoist]?.index ?? -1} clippingPlanes={clipping} />
+        <JoistMembers
+          joists={analysis.shaped.joists}
+          frame={frame}
+          exaggeration={exaggeration}
+          highlight={analysis.shaped.joists[sectionJoist]?.index ?? -1}
+          clippingPlanes={clipping}
+        />
       )}
       {view.showWater && analysis.shaped.flowTraces && !clipping && (
         <WaterPaths traces={analysis.shaped.flowTraces} frame={frame} exaggeration={exaggeration} animate={animate} />
       )}
-      {view.showContours && <ContourLines mesh={mesh} frame={frame} interval={view.contourInterval} exaggeration={exaggeration} />}
-      {view.highlightFallLine && !clipping && <SurfaceLine points={fallLine} frame={frame} exaggeration={exaggeration} />}
+      {view.showContours && (
+        <ContourLines mesh={mesh} frame={frame} interval={view.contourInterval} exaggeration={exaggeration} />
+      )}
+      {view.highlightFallLine && !clipping && (
+        <SurfaceLine points={fallLine} frame={frame} exaggeration={exaggeration} />
+      )}
       <LevelLabels labels={clipping ? sectionLabels : labels} frame={frame} exaggeration={exaggeration} />
     </group>
   );

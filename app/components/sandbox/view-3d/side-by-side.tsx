@@ -12,7 +12,17 @@ import { drainCentre, frameKey, useStableFrame, type SceneFrame } from "./scene-
 import { ShapedScene } from "./shaped-scene";
 import { useAnimationAllowed } from "./use-animation-allowed";
 
-function Panel({ title, figure, children, testId }: { title: string; figure: string; children: React.ReactNode; testId: string }) {
+function Panel({
+  title,
+  figure,
+  children,
+  testId,
+}: {
+  title: string;
+  figure: string;
+  children: React.ReactNode;
+  testId: string;
+}) {
   return (
     <figure className="flex min-w-0 flex-col overflow-hidden rounded border border-rule bg-sheet" data-testid={testId}>
       <figcaption className="flex flex-wrap items-baseline justify-between gap-x-2 border-b border-rule px-3 py-1.5">
@@ -24,7 +34,16 @@ function Panel({ title, figure, children, testId }: { title: string; figure: str
   );
 }
 
-function View({ label, children, frame, height, link, preset, resetKey, drains }: {
+function View({
+  label,
+  children,
+  frame,
+  height,
+  link,
+  preset,
+  resetKey,
+  drains,
+}: {
   label: string;
   drains: [number, number] | null;
   children: React.ReactNode;
@@ -45,7 +64,15 @@ function View({ label, children, frame, height, link, preset, resetKey, drains }
     >
       <color attach="background" args={["#f1eadb"]} />
       {children}
-      <CameraRig preset={preset} frame={frame} height={height} section={null} drains={drains} link={link} resetKey={resetKey} />
+      <CameraRig
+        preset={preset}
+        frame={frame}
+        height={height}
+        section={null}
+        drains={drains}
+        link={link}
+        resetKey={resetKey}
+      />
     </SceneCanvas>
   );
 }
@@ -63,7 +90,8 @@ export default function SideBySide({ resetKey = 0 }: { resetKey?: number }) {
   const allowed = useAnimationAllowed(wrapper);
   const link = useMemo(() => new CameraLink(), []);
   const frame = useStableFrame(spec?.outline);
-  if (!analysis || !spec) return <p className="text-sm text-ink-soft">The comparison appears once the roof can be built.</p>;
+  if (!analysis || !spec)
+    return <p className="text-sm text-ink-soft">The comparison appears once the roof can be built.</p>;
   const preset = view.camera === "plan" ? "plan" : "orbit";
   const height = analysis.shaped.highLevel * view.exaggeration;
   const key = `${frameKey(frame)}|${resetKey}`;
@@ -71,12 +99,47 @@ export default function SideBySide({ resetKey = 0 }: { resetKey?: number }) {
   return (
     <div ref={wrapper} className="grid gap-3 md:grid-cols-3" data-testid="side-by-side">
       <Panel title="Shaped roof" figure={`H ${mm(analysis.shaped.highLevel)}`} testId="panel-shaped">
-        <View label="Shaped roof in 3D" frame={frame} height={height} link={link} preset={preset} resetKey={key} drains={drains}>
-          <ShapedScene analysis={analysis} spec={spec} frame={frame} view={{ ...view, camera: "orbit" }} animate={view.showWater && allowed} section={null} />
+        <View
+          label="Shaped roof in 3D"
+          frame={frame}
+          height={height}
+          link={link}
+          preset={preset}
+          resetKey={key}
+          drains={drains}
+        >
+          <ShapedScene
+            analysis={analysis}
+            spec={spec}
+            frame={frame}
+            view={{ ...view, camera: "orbit" }}
+            animate={view.showWater && allowed}
+            section={null}
+          />
         </View>
       </Panel>
-      <GutterPanel analysis={analysis} spec={spec} frame={frame} height={height} link={link} preset={preset} resetKey={key} drains={drains} exaggeration={view.exaggeration} />
-      <OpenEdgePanel analysis={analysis} spec={spec} frame={frame} height={height} link={link} preset={preset} resetKey={key} drains={drains} exaggeration={view.exaggeration} />
+      <GutterPanel
+        analysis={analysis}
+        spec={spec}
+        frame={frame}
+        height={height}
+        link={link}
+        preset={preset}
+        resetKey={key}
+        drains={drains}
+        exaggeration={view.exaggeration}
+      />
+      <OpenEdgePanel
+        analysis={analysis}
+        spec={spec}
+        frame={frame}
+        height={height}
+        link={link}
+        preset={preset}
+        resetKey={key}
+        drains={drains}
+        exaggeration={view.exaggeration}
+      />
     </div>
   );
 }
@@ -98,11 +161,22 @@ function GutterPanel({ analysis, spec, exaggeration, ...rest }: LayoutPanelProps
   const surface = useMemo(() => gutterSurface(spec, analysis), [spec, analysis]);
   const kinds = useMemo(() => edgeKindsOf(spec), [spec]);
   return (
-    <Panel title="Gutter layout" figure={analysis.gutter.comparable ? `H ${mm(analysis.gutter.highLevel)}` : "not comparable"} testId="panel-gutter">
+    <Panel
+      title="Gutter layout"
+      figure={analysis.gutter.comparable ? `H ${mm(analysis.gutter.highLevel)}` : "not comparable"}
+      testId="panel-gutter"
+    >
       {surface ? (
         <View label="Gutter layout in 3D" {...rest}>
-          <LayoutScene surface={surface} spec={spec} kinds={kinds} frame={rest.frame} exaggeration={exaggeration} minRatio={analysis.minFall.ratio}
-            note={`gutter lip ${Math.round(analysis.gutter.lipLevel! * 1000)} · ${Math.round(analysis.gutter.width * 1000)} mm wide`} />
+          <LayoutScene
+            surface={surface}
+            spec={spec}
+            kinds={kinds}
+            frame={rest.frame}
+            exaggeration={exaggeration}
+            minRatio={analysis.minFall.ratio}
+            note={`gutter lip ${Math.round(analysis.gutter.lipLevel! * 1000)} · ${Math.round(analysis.gutter.width * 1000)} mm wide`}
+          />
         </View>
       ) : (
         <p className="p-4 text-sm text-ink-soft">{analysis.gutter.reason ?? "No gutter layout for this roof."}</p>
@@ -116,9 +190,21 @@ function OpenEdgePanel({ analysis, spec, exaggeration, ...rest }: LayoutPanelPro
   const surface = useMemo(() => openEdgeSurface(spec, analysis), [spec, analysis]);
   const kinds = useMemo(() => openEdgeKinds(spec, analysis), [spec, analysis]);
   return (
-    <Panel title={`Open edge (edge ${analysis.openEdge.edge + 1})`} figure={`H ${mm(analysis.openEdge.highLevel)}`} testId="panel-open-edge">
+    <Panel
+      title={`Open edge (edge ${analysis.openEdge.edge + 1})`}
+      figure={`H ${mm(analysis.openEdge.highLevel)}`}
+      testId="panel-open-edge"
+    >
       <View label="Open-edge option in 3D" {...rest}>
-        <LayoutScene surface={surface} spec={spec} kinds={kinds} frame={rest.frame} exaggeration={exaggeration} minRatio={analysis.minFall.ratio} showOutlets={false} />
+        <LayoutScene
+          surface={surface}
+          spec={spec}
+          kinds={kinds}
+          frame={rest.frame}
+          exaggeration={exaggeration}
+          minRatio={analysis.minFall.ratio}
+          showOutlets={false}
+        />
       </View>
     </Panel>
   );

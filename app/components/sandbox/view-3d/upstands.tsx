@@ -39,11 +39,23 @@ export function Upstands({
         const b = ring[(i + 1) % ring.length];
         const za = levels[i] * exaggeration - frame.radius * 0.005;
         const zb = levels[(i + 1) % ring.length] * exaggeration - frame.radius * 0.005;
-        wall.push(...s(a[0], a[1], za), ...s(b[0], b[1], zb), ...s(b[0], b[1], top), ...s(a[0], a[1], za), ...s(b[0], b[1], top), ...s(a[0], a[1], top));
+        wall.push(
+          ...s(a[0], a[1], za),
+          ...s(b[0], b[1], zb),
+          ...s(b[0], b[1], top),
+          ...s(a[0], a[1], za),
+          ...s(b[0], b[1], top),
+          ...s(a[0], a[1], top),
+        );
       }
       // The lid: a fan from the first corner (openings are drawn convex as a rule; a concave one still closes).
       const out = o.kind === "rooflight" ? glassTop : lidTop;
-      for (let i = 1; i + 1 < ring.length; i++) out.push(...s(ring[0][0], ring[0][1], top), ...s(ring[i][0], ring[i][1], top), ...s(ring[i + 1][0], ring[i + 1][1], top));
+      for (let i = 1; i + 1 < ring.length; i++)
+        out.push(
+          ...s(ring[0][0], ring[0][1], top),
+          ...s(ring[i][0], ring[i][1], top),
+          ...s(ring[i + 1][0], ring[i + 1][1], top),
+        );
     }
     const make = (arr: number[]) => {
       const g = new THREE.BufferGeometry();
@@ -54,11 +66,14 @@ export function Upstands({
     return { walls: make(wall), glass: make(glassTop), lids: make(lidTop) };
   }, [openings, sampler, frame, exaggeration]);
 
-  useEffect(() => () => {
-    walls.dispose();
-    glass.dispose();
-    lids.dispose();
-  }, [walls, glass, lids]);
+  useEffect(
+    () => () => {
+      walls.dispose();
+      glass.dispose();
+      lids.dispose();
+    },
+    [walls, glass, lids],
+  );
 
   return (
     <group name="upstands">

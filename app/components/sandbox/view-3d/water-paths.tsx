@@ -79,7 +79,17 @@ function placeDrop(m: THREE.InstancedMesh, tracks: Track[], drops: Drops, i: num
  * Water paths: the engine's flow traces drawn as two-tone dashed lines, and (when animating) instanced drops
  * running down them. Per-frame work writes straight into the instance matrix array, no allocation.
  */
-export function WaterPaths({ traces, frame, exaggeration, animate }: { traces: FlowTraces; frame: SceneFrame; exaggeration: number; animate: boolean }) {
+export function WaterPaths({
+  traces,
+  frame,
+  exaggeration,
+  animate,
+}: {
+  traces: FlowTraces;
+  frame: SceneFrame;
+  exaggeration: number;
+  animate: boolean;
+}) {
   const tracks = useMemo(() => buildTracks(traces, frame), [traces, frame]);
   const lines = useMemo(() => {
     const pairs: number[] = [];
@@ -87,7 +97,14 @@ export function WaterPaths({ traces, frame, exaggeration, animate }: { traces: F
     const along: number[] = [];
     for (const t of tracks) {
       for (let i = 0; i + 1 < t.s.length; i++) {
-        pairs.push(t.xyz[3 * i], t.xyz[3 * i + 1], t.xyz[3 * i + 2], t.xyz[3 * i + 3], t.xyz[3 * i + 4], t.xyz[3 * i + 5]);
+        pairs.push(
+          t.xyz[3 * i],
+          t.xyz[3 * i + 1],
+          t.xyz[3 * i + 2],
+          t.xyz[3 * i + 3],
+          t.xyz[3 * i + 4],
+          t.xyz[3 * i + 5],
+        );
         along.push(t.s[i], t.s[i + 1]);
       }
     }
@@ -129,7 +146,10 @@ export function WaterPaths({ traces, frame, exaggeration, animate }: { traces: F
   }, [frame]);
   useEffect(() => () => sphere.dispose(), [sphere]);
   const materials = useMemo(
-    () => [new THREE.MeshBasicMaterial({ color: WATER_LIGHT }), new THREE.MeshBasicMaterial({ color: WATER_DARK, side: THREE.BackSide })],
+    () => [
+      new THREE.MeshBasicMaterial({ color: WATER_LIGHT }),
+      new THREE.MeshBasicMaterial({ color: WATER_DARK, side: THREE.BackSide }),
+    ],
     [],
   );
   useEffect(() => () => materials.forEach((m) => m.dispose()), [materials]);
@@ -173,7 +193,12 @@ export function WaterPaths({ traces, frame, exaggeration, animate }: { traces: F
       <lineSegments geometry={lines} scale={[1, exaggeration, 1]} position={[0, lift * exaggeration, 0]}>
         <lineBasicMaterial color={WATER_DARK} />
       </lineSegments>
-      <lineSegments geometry={lines} scale={[1, exaggeration, 1]} position={[0, lift * exaggeration, 0]} renderOrder={1}>
+      <lineSegments
+        geometry={lines}
+        scale={[1, exaggeration, 1]}
+        position={[0, lift * exaggeration, 0]}
+        renderOrder={1}
+      >
         <lineDashedMaterial color={WATER_LIGHT} dashSize={dash} gapSize={dash} />
       </lineSegments>
       <instancedMesh ref={mesh} args={[sphere, materials, Math.max(1, drops.track.length)]} frustumCulled={false} />
