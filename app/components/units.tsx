@@ -7,7 +7,7 @@ import {
   UNITS_STORAGE_KEY,
   type UnitSystem,
   type UnitsPreference,
-} from "~/lib/units";
+} from "~/lib/unit-system";
 
 interface UnitsState {
   /** What the person chose (null: follow the roof's rule set). */

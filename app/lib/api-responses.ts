@@ -7,7 +7,7 @@
  * contract says (docs/roof-method.md §9), but every key listed must be there with its type.
  */
 import { z } from "zod";
-import { RULE_SET_IDS } from "~/engine";
+import { RULE_SET_IDS, type Warning as EngineWarning } from "~/engine";
 import { underlaySettingsSchema } from "~/lib/roof-file";
 
 /** Stands for the engine's roof spec; the document fills the component from the engine's schema. */
@@ -37,21 +37,30 @@ const fall = z
   .object({ ratio: z.number(), degrees: z.number(), percent: z.number(), mmPerM: z.number() })
   .meta({ id: "Fall", description: "A fall as its ratio N (1 in N) and in degrees, percent and mm/m." });
 
+/** Every warning code the engine can give; the type check below fails the build when one is missing. */
+const WARNING_CODES = [
+  "twist",
+  "level-joist",
+  "fall-line-too-flat",
+  "base-fall-below-rule",
+  "high-level-below-derived",
+  "ponding",
+  "probe-outside",
+  "mesh-coarsened",
+  "outlet-capacity",
+  "narrow-gutter",
+  "rainfall-assumed",
+  "outlet-parallel-to-joists",
+  "water-held-behind-upstand",
+  "outlet-off-joist",
+] as const satisfies readonly EngineWarning["code"][];
+type NoneMissing<T extends never> = T;
+/** Fails to compile when the engine gains a warning code this document does not list. */
+export type WarningCodesComplete = NoneMissing<Exclude<EngineWarning["code"], (typeof WARNING_CODES)[number]>>;
+
 const warning = z
   .object({
-    code: z.enum([
-      "twist",
-      "level-joist",
-      "fall-line-too-flat",
-      "base-fall-below-rule",
-      "high-level-below-derived",
-      "ponding",
-      "probe-outside",
-      "mesh-coarsened",
-      "outlet-capacity",
-      "narrow-gutter",
-      "rainfall-assumed",
-    ]),
+    code: z.enum(WARNING_CODES),
     message: z.string(),
     at: point.optional(),
     size: z.number().optional(),
@@ -300,7 +309,15 @@ export const lessonSchema = z
         start: roofSpecRef,
         editable: z.array(z.string()),
         criteria: z.array(
-          z.strictObject({ id: z.string(), label: z.string(), weight: z.number(), required: z.boolean() }),
+          z.strictObject({
+            id: z.string(),
+            // Kind and limit let the editor measure each criterion live.
+            kind: z.string().optional(),
+            limit: z.unknown().optional(),
+            label: z.string(),
+            weight: z.number(),
+            required: z.boolean(),
+          }),
         ),
         hints: z.array(z.string()),
       }),
@@ -339,6 +356,8 @@ const attempt = z
     spec: roofSpecRef,
     results: z.strictObject({
       score: z.number(),
+      // Points earned before the grading rule caps a score whose required check failed (docs/grading.md).
+      rawScore: z.number().optional(),
       passed: z.boolean(),
       passMark: z.number(),
       quiz: z.array(itemResult),

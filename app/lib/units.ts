@@ -8,24 +8,16 @@ import { create, fractionDependencies, unitDependencies } from "mathjs";
  */
 const math = create({ unitDependencies, fractionDependencies });
 
-export type UnitSystem = "metric" | "us";
-/** A person's choice; null follows the roof's rule set (US customary for a US code, else metric). */
-export type UnitsPreference = UnitSystem | null;
-
-export const UNIT_SYSTEMS: UnitSystem[] = ["metric", "us"];
-export const UNIT_SYSTEM_LABELS: Record<UnitSystem, string> = { metric: "Metric", us: "US customary" };
-/** Where the browser remembers an anonymous visitor's choice. */
-export const UNITS_STORAGE_KEY = "fallwright:units";
-
-export function isUnitSystem(value: unknown): value is UnitSystem {
-  return value === "metric" || value === "us";
-}
-
-/** The system a roof is shown in: the person's choice, else its rule set's country. */
-export function systemFor(preference: UnitsPreference | undefined, ruleSet?: string | null): UnitSystem {
-  if (preference) return preference;
-  return ruleSet?.startsWith("us-") ? "us" : "metric";
-}
+export {
+  isUnitSystem,
+  systemFor,
+  UNIT_SYSTEMS,
+  UNIT_SYSTEM_LABELS,
+  UNITS_STORAGE_KEY,
+  type UnitSystem,
+  type UnitsPreference,
+} from "./unit-system";
+import type { UnitSystem } from "./unit-system";
 
 const NBSP = "\u00a0";
 const NONE = "–";

@@ -1,4 +1,4 @@
-import { When, DateRange } from "~/components/dates";
+import { When, Day, DateRange } from "~/components/dates";
 import type { ReactNode } from "react";
 import { Link, useLoaderData } from "react-router";
 import type { Route } from "./+types/_index";
@@ -48,7 +48,14 @@ function YourDesk({ desk }: { desk: Desk }) {
             <ul className="mt-1 divide-y divide-rule">
               {desk.todo.map((t) => (
                 <DeskItem key={`${t.className}-${t.slug}`} to={`/lessons/${t.slug}`} label={t.title}>
-                  {t.className} · {t.dueOn ? `due $<Day iso={t.dueOn} />` : "no due date"}
+                  {t.className} ·{" "}
+                  {t.dueOn ? (
+                    <>
+                      due <Day iso={t.dueOn} />
+                    </>
+                  ) : (
+                    "no due date"
+                  )}
                   {t.tried ? " · tried, not passed yet" : ""}
                 </DeskItem>
               ))}

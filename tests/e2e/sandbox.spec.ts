@@ -122,15 +122,23 @@ test("sandbox: dragging a corner snaps to the grid, carries the outlet on its ed
 test("sandbox: the drop schedule downloads as CSV with the levels of the demo roof", async ({ page }) => {
   await openSandbox(page);
   const [download] = await Promise.all([page.waitForEvent("download"), page.getByTestId("download-csv").click()]);
-  expect(download.suggestedFilename()).toBe("drop-schedule.csv");
+  expect(download.suggestedFilename()).toMatch(/^sandbox-roof-drop-schedule-\d{4}-\d{2}-\d{2}\.csv$/);
   const text = fs.readFileSync((await download.path())!, "utf8").replace(/^\uFEFF/, "");
-  const [header, ...rows] = text.trim().split(/\r?\n/);
+  // The header block (roof, date, units, datum, H, joists, outlets, caution), an empty line, then the table.
+  expect(text).toMatch(/^Fallwright drop schedule/);
+  expect(text).toMatch(/\r?\nhigh_level_H_mm,279/);
+  const table = text
+    .trim()
+    .split(/\r?\n,*\r?\n/)
+    .pop()!;
+  const [header, ...rows] = table.split(/\r?\n/);
+  // One span per joist on a rectangle, so no span column.
   expect(header).toBe(
-    "joist,offset_m,span,start_x_m,start_y_m,end_x_m,end_y_m,length_m,start_level_mm,end_level_mm,start_drop_below_H_mm,end_drop_below_H_mm,fall",
+    "joist,offset_m,start_x_m,start_y_m,end_x_m,end_y_m,length_m,start_level_mm,end_level_mm,start_drop_below_H_mm,end_drop_below_H_mm,fall",
   );
   expect(rows).toHaveLength(31);
   // The joist through the outlet (x = 6 m) runs 0 → 279 mm over 8 m: exactly the base fall, 2° = 1:28.6.
-  expect(rows).toContain("16,6,1,6,0,6,8,8,0,279,279,0,1:28.6");
+  expect(rows).toContain("16,6,6,0,6,8,8,0,279,279,0,1:28.6");
   // The page's own table agrees.
   await expect(page.getByTestId("schedule-table").locator("tbody tr").nth(15)).toContainText("279");
 });

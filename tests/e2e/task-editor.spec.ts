@@ -63,11 +63,11 @@ test("lesson 3: the locked outline stays put by mouse and keyboard; a tap on the
   await choice.getByRole("menuitem", { name: "Outlet 1" }).click();
   await expect(page.getByTestId("outlet-0")).toBeFocused();
   for (let i = 0; i < 3; i++) await page.keyboard.press("Shift+ArrowRight");
-  await expect(page.getByLabel("Outlet 1 x")).not.toHaveValue(/^0(\.0+)?$/);
-  await expect(page.getByLabel("Outlet 1 y")).toHaveValue(/^0(\.0+)?$/);
+  await expect(page.getByLabel("Outlet O1 x")).not.toHaveValue(/^0(\.0+)?$/);
+  await expect(page.getByLabel("Outlet O1 y")).toHaveValue(/^0(\.0+)?$/);
   await expect(page.getByLabel("Vertex 1 x")).toHaveValue(/^0(\.0+)?$/);
   // Hint 1's other way: type its position in the outlet table, the middle of the front edge.
-  const x = page.getByLabel("Outlet 1 x");
+  const x = page.getByLabel("Outlet O1 x");
   await x.fill("9");
   await x.press("Tab");
   await expect(fallLine).toHaveAttribute("data-state", "met");

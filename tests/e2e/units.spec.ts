@@ -2,7 +2,7 @@ import { expect, test } from "@playwright/test";
 
 test.describe.configure({ timeout: 150_000 });
 
-// Demo roof: 12 m × 8 m, outlet at (6, 0), base fall 2°, so H = 8 m × tan 2° = 279 mm (ROOF-METHOD.md §3/§4).
+// Demo roof: 12 m × 8 m, outlet at (6, 0), base fall 2°, so H = 8 m × tan 2° = 279 mm (docs/roof-method.md §3/§4).
 // In inches (1 in = 25.4 mm exactly, NIST SP 811): 279.37 mm / 25.4 = 10.999 in → 11 in to 1/16.
 
 test("units: an anonymous visitor picks US customary; figures and inputs follow, typing either system works, and the choice is remembered", async ({

@@ -7,7 +7,7 @@ import { createInvitation } from "~/lib/invitations.server";
 import { issueToken } from "~/lib/tokens.server";
 
 /**
- * Hostile-input sweep (issue 13; QUALITY.md, Reliability → Bad input): every route in
+ * Hostile-input sweep (issue 13; docs/quality.md, Reliability → Bad input): every route in
  * app/routes.ts, each of its form fields, JSON fields and query parameters in turn given NUL,
  * an over-long string, control characters, numbers out of range, ids that are not UUIDs, deep
  * nesting and an array where a scalar belongs, the other fields left valid so the request gets
@@ -115,6 +115,46 @@ const SWEEP: Record<string, Probe[]> = {
   "/": [{ who: "anonymous", method: "GET", path: "/", query: { probe: "1" } }],
   "/sandbox": [{ who: "anonymous", method: "GET", path: "/sandbox", query: { roof: "{roof}" } }],
   "/sandbox/sheet": [{ who: "anonymous", method: "GET", path: "/sandbox/sheet", query: { from: "session" } }],
+  "/api/v1/openapi.json": [{ who: "anonymous", method: "GET", path: "/api/v1/openapi.json", query: { probe: "1" } }],
+  "/api/v1/docs": [{ who: "anonymous", method: "GET", path: "/api/v1/docs", query: { probe: "1" } }],
+  "/api/v1/analyses/as-built": [
+    {
+      who: "anonymous",
+      method: "POST",
+      path: "/api/v1/analyses/as-built",
+      json: { spec: SPEC, points: [{ at: [9, 4.5], level: 0.05, label: "P1" }], tolerance: { deviation: 0.01 } },
+    },
+  ],
+  "/roofs/:id/schedule.csv": [
+    { who: "designer", method: "GET", path: "/roofs/{roof}/schedule.csv", query: { probe: "1" } },
+  ],
+  "/roofs/:id/sheet.pdf": [
+    { who: "designer", method: "GET", path: "/roofs/{roof}/sheet.pdf", query: { paper: "letter" } },
+  ],
+  "/roofs/:id/plan.dxf": [{ who: "designer", method: "GET", path: "/roofs/{roof}/plan.dxf", query: { probe: "1" } }],
+  "/roofs/:id/roof.glb": [{ who: "designer", method: "GET", path: "/roofs/{roof}/roof.glb", query: { probe: "1" } }],
+  "/roofs/:id/sheet": [{ who: "designer", method: "GET", path: "/roofs/{roof}/sheet", query: { paper: "letter" } }],
+  // A made-up share token: every answer is a 404 that says so, whatever is sent.
+  "/s/:token": [{ who: "anonymous", method: "GET", path: "/s/not-a-real-token", query: { probe: "1" } }],
+  "/s/:token/:file": [
+    { who: "anonymous", method: "GET", path: "/s/not-a-real-token/schedule.csv", query: { probe: "1" } },
+  ],
+  "/sandbox/sheet.pdf": [
+    {
+      who: "anonymous",
+      method: "POST",
+      path: "/sandbox/sheet.pdf",
+      query: { paper: "letter" },
+      form: { spec: SPEC_TEXT, name: "Sweep" },
+    },
+  ],
+  "/sandbox/plan.dxf": [
+    { who: "anonymous", method: "POST", path: "/sandbox/plan.dxf", form: { spec: SPEC_TEXT, name: "Sweep" } },
+  ],
+  "/sandbox/roof.glb": [
+    { who: "anonymous", method: "POST", path: "/sandbox/roof.glb", form: { spec: SPEC_TEXT, name: "Sweep" } },
+  ],
+  "/*": [{ who: "anonymous", method: "GET", path: "/no-such-page", query: { probe: "1" } }],
   "/lessons": [{ who: "anonymous", method: "GET", path: "/lessons", query: { probe: "1" } }],
   "/lessons/:slug": [
     {

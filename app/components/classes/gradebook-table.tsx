@@ -1,3 +1,4 @@
+import { Day } from "~/components/dates";
 import { useMemo, useState } from "react";
 import { Link } from "react-router";
 import {
@@ -77,7 +78,13 @@ export function GradebookTable({ book, classId }: { book: Gradebook; classId: st
             <span className="block min-w-28 normal-case tracking-normal">
               <span className="block text-sm font-bold">{l.title}</span>
               <span className="block text-xs font-normal text-ink-soft">
-                {l.dueOn ? `due $<Day iso={l.dueOn} />` : "no due date"}
+                {l.dueOn ? (
+                  <>
+                    due <Day iso={l.dueOn} />
+                  </>
+                ) : (
+                  "no due date"
+                )}
               </span>
             </span>
           ),

@@ -1,7 +1,7 @@
 import { describe, expect, it, vi } from "vitest";
 
 // The per-address limiter lives in PostgreSQL; here it is replaced so the route runs alone.
-vi.mock("~/lib/rate-limit.server", () => ({ limitApiRequest: async () => null }));
+vi.mock("~/lib/rate-limit.server", () => ({ limitApiRequest: async () => null, chargeApiWork: () => 0 }));
 
 const { action } = await import("~/routes/api.v1.analyses");
 
