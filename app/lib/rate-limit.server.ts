@@ -176,10 +176,10 @@ export function waitPhrase(seconds: number): string {
 
 /**
  * Per-IP budget for the open analysis API, charged by work done: a request costs one unit up
- * front and one more per 10 ms its analysis took in the worker (ANALYSIS_MS_PER_UNIT), against
- * 600 units a minute (API_RATE_LIMIT_PER_MINUTE). Six hundred small roofs a minute fit, as a
- * class behind one address needs; a two-second analysis costs 200 units, so three of them use up
- * the address's minute. Unlike sign-in, this budget is kept in each process's memory: it guards
+ * front and one more per 10 ms its analysis took in the worker (ANALYSIS_MS_PER_UNIT), from a
+ * bucket of 600 units that refills at 600 a minute (API_RATE_LIMIT_PER_MINUTE). Six hundred small
+ * roofs a minute fit, as a class behind one address needs; a two-second analysis costs 200 units,
+ * so three in a row empty the bucket and the next request waits until it has refilled. Unlike sign-in, this budget is kept in each process's memory: it guards
  * against a runaway script, and a database round trip per analysis would halve the API's
  * throughput. With several processes behind a load balancer the budget applies per process.
  * Returns a 429 JSON response with Retry-After, or null when the request may go ahead.
@@ -212,29 +212,38 @@ function apiKey(context: AppLoadContext | undefined | null) {
   return `api:${clientIp(context)}`;
 }
 
-const windows = new Map<string, { start: number; count: number }>();
+/**
+ * In-memory budgets are token buckets: each key holds up to `limit` units and refills
+ * continuously at `limit` per `windowSeconds`. Unlike a window aligned to the clock's minutes,
+ * a charge made just before a minute turns still counts just after it.
+ */
+const buckets = new Map<string, { tokens: number; at: number }>();
 
-function windowFor(key: string, windowSeconds: number, now: number) {
-  const size = windowSeconds * 1000;
-  const start = Math.floor(now / size) * size;
-  let w = windows.get(key);
-  if (!w || w.start !== start) {
-    if (windows.size > 50_000) for (const [k, v] of windows) if (v.start !== start) windows.delete(k);
-    w = { start, count: 0 };
-    windows.set(key, w);
+function bucketFor(key: string, { limit, windowSeconds }: Limit, now: number) {
+  const rate = limit / (windowSeconds * 1000);
+  let b = buckets.get(key);
+  if (!b) {
+    if (buckets.size > 50_000) {
+      for (const [k, v] of buckets) if (v.tokens + (now - v.at) * rate >= limit) buckets.delete(k);
+    }
+    b = { tokens: limit, at: now };
+    buckets.set(key, b);
+  } else {
+    b.tokens = Math.min(limit, b.tokens + Math.max(0, now - b.at) * rate);
+    b.at = now;
   }
-  return { w, start, size };
+  return { b, rate };
 }
 
-/** Fixed-window counter in this process's memory (see limitApiRequest for why). */
-export function hitInMemory(key: string, { limit, windowSeconds }: Limit, now = Date.now()): HitResult {
-  const { w, start, size } = windowFor(key, windowSeconds, now);
-  if (w.count >= limit) return { ok: false, retryAfter: Math.max(1, Math.ceil((start + size - now) / 1000)) };
-  w.count++;
+/** Takes one unit from the key's bucket when it has one; a refused request takes nothing. */
+export function hitInMemory(key: string, limit: Limit, now = Date.now()): HitResult {
+  const { b, rate } = bucketFor(key, limit, now);
+  if (b.tokens < 1) return { ok: false, retryAfter: Math.max(1, Math.ceil((1 - b.tokens) / rate / 1000)) };
+  b.tokens -= 1;
   return { ok: true, retryAfter: 0 };
 }
 
-/** Adds `units` to the key's current window; the window may go over its limit (the next request waits). */
-export function chargeInMemory(key: string, { windowSeconds }: Limit, units: number, now = Date.now()): void {
-  windowFor(key, windowSeconds, now).w.count += units;
+/** Takes `units` from the key's bucket; it may go below zero (the next requests wait longer). */
+export function chargeInMemory(key: string, limit: Limit, units: number, now = Date.now()): void {
+  bucketFor(key, limit, now).b.tokens -= units;
 }

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { useTestDatabase } from "../support/db";
-import { clearHits, hit, hitInMemory, limitApiRequest, undoHit } from "~/lib/rate-limit.server";
+import { chargeInMemory, clearHits, hit, hitInMemory, limitApiRequest, undoHit } from "~/lib/rate-limit.server";
 
 // Counters live in PostgreSQL so that several app processes share them (docs/security.md, Sign-in and brute force).
 const database = useTestDatabase();
@@ -60,12 +60,26 @@ describe("hit()", () => {
     expect(await limitApiRequest({ clientIp: "198.18.1.1" })).toBeNull();
   });
 
-  it("the in-memory API window starts afresh each minute", () => {
+  it("the in-memory API budget refills steadily: one unit per limit/window", () => {
+    // 3 a minute refills one unit every 20 s.
     const limit = { limit: 3, windowSeconds: 60 };
     const t0 = Date.UTC(2026, 11, 1, 12, 0, 10);
     for (let i = 0; i < 3; i++) expect(hitInMemory("k", limit, t0).ok).toBe(true);
-    const refused = hitInMemory("k", limit, t0);
-    expect(refused).toEqual({ ok: false, retryAfter: 50 });
-    expect(hitInMemory("k", limit, t0 + 50_000).ok).toBe(true);
+    expect(hitInMemory("k", limit, t0)).toEqual({ ok: false, retryAfter: 20 });
+    expect(hitInMemory("k", limit, t0 + 19_000).ok).toBe(false);
+    expect(hitInMemory("k", limit, t0 + 20_000).ok).toBe(true);
+    expect(hitInMemory("k", limit, t0 + 20_000).ok).toBe(false);
+  });
+
+  it("work charged just before the clock's minute turns still counts after it", () => {
+    // A window aligned to whole minutes forgot this charge at 12:01:00 and let the next request in.
+    const limit = { limit: 100, windowSeconds: 60 };
+    const t0 = Date.UTC(2026, 11, 1, 12, 0, 59, 500);
+    expect(hitInMemory("w", limit, t0).ok).toBe(true);
+    chargeInMemory("w", limit, 250, t0);
+    const next = hitInMemory("w", limit, t0 + 1_000);
+    expect(next.ok).toBe(false);
+    // 151 units short at 100 a minute: about 91 s.
+    expect(next.retryAfter).toBeGreaterThan(85);
   });
 });
