@@ -84,11 +84,13 @@ export default function handleRequest(
 
 export const handleError: HandleErrorFunction = (error, { request, context }) => {
   if (request.signal.aborted) return;
+  // The load context carries the id even where a driver's callback lost the async context.
+  const reqId = (context as AppLoadContext | undefined)?.requestId ?? currentRequest()?.id;
   if (isDbUnavailable(error)) {
     if (context && typeof context === "object") (context as { dbUnavailable?: boolean }).dbUnavailable = true;
-    log().warn({ reqId: currentRequest()?.id }, "database unavailable");
+    log().warn({ reqId }, "database unavailable");
     return;
   }
   // Logged once, here, with its stack and the request's id (the error page shows the same id).
-  log().error({ reqId: currentRequest()?.id, err: error }, "request failed");
+  log().error({ reqId, err: error }, "request failed");
 };

@@ -78,6 +78,17 @@ describe("PostgreSQL stops and comes back", () => {
     const html = await page.text();
     expect(html).toContain("Back in a moment");
     expect(html).not.toMatch(/at .+\.(js|ts):\d+/); // no stack trace
+    // The page names its request id, which the operator finds in the log (issue 13, "what an
+    // operator sees"): a user can quote it.
+    const id = page.headers.get("x-request-id");
+    expect(id).toMatch(/^[0-9a-f-]{36}$/);
+    expect(html).toContain(`reference ${id}`);
+    const logged = server
+      .output()
+      .split("\n")
+      .filter((l) => l.includes(id!))
+      .map((l) => JSON.parse(l) as { msg?: string; status?: number });
+    expect(logged.find((l) => l.msg === "request")?.status).toBe(503);
 
     startCluster(info, false);
     let status = 0;
