@@ -69,6 +69,16 @@ try {
   );
   console.log(`status codes: ${JSON.stringify(result.statusCodeStats)}`);
   if (errors > 0) {
+    // The server's own account of what failed: its error lines and the routes that answered 5xx.
+    const lines = server.output().split("\n");
+    const failed = lines.filter((l) => /"level":(50|60)/.test(l) || /"status":5\d\d/.test(l));
+    const byRoute = new Map<string, number>();
+    for (const l of failed) {
+      const m = /"route":"([^"]+)".*"status":(\d+)/.exec(l);
+      if (m) byRoute.set(`${m[2]} ${m[1]}`, (byRoute.get(`${m[2]} ${m[1]}`) ?? 0) + 1);
+    }
+    console.log(`server 5xx by route: ${JSON.stringify(Object.fromEntries(byRoute))}`);
+    for (const l of failed.filter((l) => /"level":(50|60)/.test(l)).slice(0, 3)) console.log(l.slice(0, 1500));
     console.log("FAIL: the load run saw errors");
     process.exitCode = 1;
   } else {
