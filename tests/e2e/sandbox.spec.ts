@@ -139,8 +139,25 @@ test("sandbox: the drop schedule downloads as CSV with the levels of the demo ro
   expect(rows).toHaveLength(31);
   // The joist through the outlet (x = 6 m) runs 0 → 279 mm over 8 m: exactly the base fall, 2° = 1:28.6.
   expect(rows).toContain("16,6,6,0,6,8,8,0,279,279,0,1:28.6");
-  // The page's own table agrees.
-  await expect(page.getByTestId("schedule-table").locator("tbody tr").nth(15)).toContainText("279");
+  // The page's own table agrees (the plain one, or the sortable one once it has loaded).
+  await expect(page.locator('[data-testid^="schedule-table"]').locator("tbody tr").nth(15)).toContainText("279");
+});
+
+test("sandbox: the drop schedule is on the page before anyone scrolls to it, and prints whole", async ({ page }) => {
+  await openSandbox(page);
+  // No scrolling: a full-page capture or a printout made now must carry the schedule, not a
+  // "loading" line. The plain table holds every span of the demo roof (31 joists, one span each).
+  const plain = page.getByTestId("schedule-table-plain");
+  await expect(plain.locator("tbody tr")).toHaveCount(31);
+  await expect(page.getByText(/Loading the schedule/)).toHaveCount(0);
+  // The joist through the outlet (x = 6 m) runs 0 → 279 mm, as in the CSV.
+  await expect(plain.locator("tbody tr").nth(15)).toContainText("279");
+  // In print the schedule's box does not scroll: everything it holds is laid out on the page.
+  await page.emulateMedia({ media: "print" });
+  const box = plain.locator("xpath=..");
+  const clipped = await box.evaluate((el) => el.scrollHeight - el.clientHeight);
+  expect(clipped).toBeLessThanOrEqual(1);
+  await page.emulateMedia({ media: "screen" });
 });
 
 test("sandbox: side-by-side shows the three layouts and the comparison figures", async ({ page }) => {

@@ -1,19 +1,50 @@
 import { Box, Download, FileText, PenTool } from "lucide-react";
 import { lazy, Suspense, useMemo } from "react";
 import { useFormat } from "./format";
-import { scheduleRows } from "~/lib/pack/schedule-rows";
+import { scheduleRows, type ScheduleRow } from "~/lib/pack/schedule-rows";
+import type { UnitSystem } from "~/lib/units";
+import { SCHEDULE_PAGE, scheduleColumns } from "./schedule-columns";
 import { useSandbox } from "./store";
 import { useNearViewport } from "./use-near-viewport";
 
-// The sortable table (and its table library) loads when the schedule scrolls near the screen:
-// the sandbox opens faster, and the heading and the CSV download are there at once.
+// The sortable table (and its table library) loads when the schedule scrolls near the screen, so
+// the sandbox opens faster; until then the same rows show as a plain table, so a printout or a
+// full-page capture never meets an empty box.
 const ScheduleTable = lazy(() => import("./schedule-table"));
 
-function Loading() {
+/** The schedule without sorting: the same columns and rows as the sortable table, all of them in print. */
+function PlainSchedule({ rows, system }: { rows: ScheduleRow[]; system: UnitSystem }) {
+  const columns = scheduleColumns(rows, system);
   return (
-    <p className="text-sm text-ink-soft" role="status">
-      Loading the schedule…
-    </p>
+    <>
+      <div className="max-h-[28rem] overflow-auto print:max-h-none print:overflow-visible">
+        <table className="data-table w-full" data-testid="schedule-table-plain">
+          <thead className="sticky top-0 bg-sheet">
+            <tr>
+              {columns.map((c) => (
+                <th key={c.id} scope="col" className="uppercase">
+                  {c.header}
+                </th>
+              ))}
+            </tr>
+          </thead>
+          <tbody>
+            {rows.map((r, i) => (
+              <tr key={i} className={i < SCHEDULE_PAGE ? undefined : "hidden print:table-row"}>
+                {columns.map((c) => (
+                  <td key={c.id}>{c.cell(r)}</td>
+                ))}
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+      {rows.length > SCHEDULE_PAGE && (
+        <p className="mt-2 text-sm text-ink-soft print:hidden">
+          The first {SCHEDULE_PAGE} of {rows.length} spans; scroll here to sort them or show them all.
+        </p>
+      )}
+    </>
   );
 }
 
@@ -68,11 +99,11 @@ export function DropSchedule() {
       </div>
       <div ref={anchor}>
         {near ? (
-          <Suspense fallback={<Loading />}>
+          <Suspense fallback={<PlainSchedule rows={rows} system={system} />}>
             <ScheduleTable rows={rows} system={system} />
           </Suspense>
         ) : (
-          <Loading />
+          <PlainSchedule rows={rows} system={system} />
         )}
       </div>
     </section>
