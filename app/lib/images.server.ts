@@ -7,7 +7,7 @@ import { fileTypeFromBuffer } from "file-type";
 export const UNDERLAY_TYPES = { "image/png": "png", "image/jpeg": "jpg", "image/webp": "webp" } as const;
 export type UnderlayType = keyof typeof UNDERLAY_TYPES;
 export const MAX_SIDE_PX = 20_000;
-export const UNDERLAY_MAX_BYTES = 10 * 1024 * 1024;
+export { UNDERLAY_MAX_BYTES } from "~/lib/underlay";
 /**
  * Memory an underlay may take once decoded: every browser that opens the roof decodes it to
  * 4 bytes a pixel (RGBA). A small file can declare a huge image (a decompression bomb), so the

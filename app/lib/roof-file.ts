@@ -21,10 +21,20 @@ export const underlaySettingsSchema = z.object({
 });
 export type UnderlaySettings = z.infer<typeof underlaySettingsSchema>;
 
+/** Longest roof name, in characters (the library, the file, the sheet and the share page). */
+export const ROOF_NAME_MAX = 120;
+
+/** The one rule for a roof's name: trimmed, not empty, at most ROOF_NAME_MAX characters. */
+export const roofNameSchema = z
+  .string({ error: "must be text" })
+  .trim()
+  .min(1, "must not be empty")
+  .max(ROOF_NAME_MAX, `must be at most ${ROOF_NAME_MAX} characters`);
+
 export const roofFileSchema = z.object({
   format: z.literal(ROOF_FILE_FORMAT),
   version: z.literal(ROOF_FILE_VERSION),
-  name: z.string().trim().min(1, "must not be empty").max(120, "must be at most 120 characters"),
+  name: roofNameSchema,
   exportedAt: z.string().max(40).optional(),
   spec: z.unknown(),
   /** Placement and scale only; the image itself stays in the library it came from. */

@@ -11,11 +11,7 @@ import type { SessionUser } from "~/lib/auth.server";
 import { requestHash, sameRequest } from "~/lib/idempotency.server";
 import { underlaySettingsSchema, type UnderlaySettings } from "~/lib/roof-file";
 
-export const roofNameSchema = z
-  .string({ error: "must be text" })
-  .trim()
-  .min(1, "must not be empty")
-  .max(120, "must be at most 120 characters");
+export { roofNameSchema } from "~/lib/roof-file";
 
 /** How long a deleted roof can still be brought back by "Undo". */
 export const RESTORE_WINDOW_HOURS = 24;

@@ -4,6 +4,11 @@ import type { UnderlaySettings } from "~/lib/roof-file";
 
 const math = create({ unitDependencies });
 
+/** Largest plan image accepted as an underlay (the server refuses more; the panel says so first). */
+export const UNDERLAY_MAX_BYTES = 10 * 1024 * 1024;
+/** UNDERLAY_MAX_BYTES as people read it. */
+export const UNDERLAY_MAX_LABEL = `${UNDERLAY_MAX_BYTES / 1024 / 1024} MB`;
+
 /** The image URL, with the upload id so a new image is never served from an old cache entry. */
 export function underlayUrl(roofId: string, uploadId: string): string {
   return `/roofs/${roofId}/underlay?v=${uploadId.slice(0, 8)}`;

@@ -5,16 +5,8 @@ import { z } from "zod";
 import type { Route } from "./+types/roofs.$id";
 import { requirePermission } from "~/lib/auth.server";
 import { pgInt } from "~/lib/input";
-import { underlaySettingsSchema, type UnderlaySettings } from "~/lib/roof-file";
-import {
-  duplicateRoof,
-  getRoofFor,
-  listVersions,
-  restoreVersion,
-  roofNameSchema,
-  setShared,
-  setUnderlay,
-} from "~/lib/roofs.server";
+import { ROOF_NAME_MAX, roofNameSchema, underlaySettingsSchema, type UnderlaySettings } from "~/lib/roof-file";
+import { duplicateRoof, getRoofFor, listVersions, restoreVersion, setShared, setUnderlay } from "~/lib/roofs.server";
 import { underlayUrl } from "~/lib/underlay";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
 import { RelativeTime } from "~/components/roofs/relative-time";
@@ -189,13 +181,8 @@ function RoofEditor({
 
   function rename(value: string) {
     setName(value);
-    const checked = z
-      .string()
-      .trim()
-      .min(1, "The name must not be empty.")
-      .max(120, "The name must be at most 120 characters.")
-      .safeParse(value);
-    setNameError(checked.success ? null : checked.error.issues[0].message);
+    const checked = roofNameSchema.safeParse(value);
+    setNameError(checked.success ? null : `The name ${checked.error.issues[0].message}.`);
     if (checked.success) autosave.queue({ name: checked.data });
   }
 
@@ -219,7 +206,10 @@ function RoofEditor({
     const res = await fetch("/api/v1/roofs", {
       method: "POST",
       headers: { "Content-Type": "application/json", "Idempotency-Key": copyKey.current },
-      body: JSON.stringify({ name: `${name.trim() || roof.name} (my copy)`.slice(0, 120), spec: current.current }),
+      body: JSON.stringify({
+        name: `${name.trim() || roof.name} (my copy)`.slice(0, ROOF_NAME_MAX),
+        spec: current.current,
+      }),
     }).catch(() => null);
     const body = await res?.json().catch(() => null);
     if (res?.status === 201) navigate(`/roofs/${body.id}?copied=1`);

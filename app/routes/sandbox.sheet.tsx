@@ -3,6 +3,7 @@ import { data, Link, useLoaderData } from "react-router";
 import type { Route } from "./+types/sandbox.sheet";
 import { parseSpec, type RoofSpec } from "~/engine";
 import { CheckSheet } from "~/components/pack/check-sheet";
+import { ROOF_NAME_MAX } from "~/lib/roof-file";
 import { readLinkedSpec } from "~/components/sandbox/linked-spec.server";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
 import { runAnalysis } from "~/components/sandbox/run-analysis";
@@ -20,7 +21,7 @@ export async function loader({ request }: Route.LoaderArgs) {
   const url = new URL(request.url);
   const linked = readLinkedSpec(url);
   if (linked.error) throw data(linked.error.message, { status: linked.error.status });
-  const name = (url.searchParams.get("name") ?? "").trim().slice(0, 120) || "Sandbox roof";
+  const name = (url.searchParams.get("name") ?? "").trim().slice(0, ROOF_NAME_MAX) || "Sandbox roof";
   return { spec: linked.spec, name, fromSession: !linked.spec && url.searchParams.get("from") === "session" };
 }
 

@@ -1,5 +1,6 @@
 import { getDocument, GlobalWorkerOptions, type PDFDocumentProxy } from "pdfjs-dist";
 import workerUrl from "pdfjs-dist/build/pdf.worker.min.mjs?url";
+import { UNDERLAY_MAX_BYTES, UNDERLAY_MAX_LABEL } from "~/lib/underlay";
 
 // Loaded on demand, when someone picks a PDF as a plan underlay: the page is drawn here, in the
 // browser, and uploaded as a PNG like any other plan image.
@@ -7,7 +8,6 @@ GlobalWorkerOptions.workerSrc = workerUrl;
 
 /** Longest side of the drawn page, in pixels: sharp enough to trace, small enough to upload. */
 export const PDF_RENDER_SIDE = 3000;
-const UPLOAD_LIMIT = 10 * 1024 * 1024;
 
 export async function openPdf(file: File): Promise<PDFDocumentProxy> {
   const data = new Uint8Array(await file.arrayBuffer());
@@ -25,7 +25,7 @@ function toPng(canvas: HTMLCanvasElement): Promise<Blob> {
 
 /**
  * Draws one page (1-based) on white at PDF_RENDER_SIDE pixels along its longer side, smaller if
- * the PNG would pass the 10 MB upload limit, and names it after the file and page.
+ * the PNG would pass the upload limit (UNDERLAY_MAX_BYTES), and names it after the file and page.
  */
 export async function pageAsPng(pdf: PDFDocumentProxy, fileName: string, pageNumber: number): Promise<File> {
   const page = await pdf.getPage(pageNumber);
@@ -38,13 +38,13 @@ export async function pageAsPng(pdf: PDFDocumentProxy, fileName: string, pageNum
     canvas.height = Math.round(viewport.height);
     await page.render({ canvas, viewport, background: "#ffffff" }).promise;
     const png = await toPng(canvas);
-    if (png.size <= UPLOAD_LIMIT) {
+    if (png.size <= UNDERLAY_MAX_BYTES) {
       const stem = fileName.replace(/\.pdf$/i, "") || "plan";
       return new File([png], `${stem}-page-${pageNumber}.png`, { type: "image/png" });
     }
     side = Math.round(side * 0.7);
   }
-  throw new Error("This page is too detailed to upload as an image under 10 MB.");
+  throw new Error(`This page is too detailed to upload as an image under ${UNDERLAY_MAX_LABEL}.`);
 }
 
 /** Whether the bytes start like a PDF file (`%PDF-`), whatever the name or type says. */

@@ -1,13 +1,20 @@
 import { useEffect, useId, useRef, useState, type KeyboardEvent, type MouseEvent } from "react";
 import { ImageUp, Ruler, Spline, Trash2 } from "lucide-react";
 import type { UnderlaySettings } from "~/lib/roof-file";
-import { calibrate, formatMetres, parseLength, pixelToPlan, planToPixel } from "~/lib/underlay";
+import {
+  calibrate,
+  formatMetres,
+  parseLength,
+  pixelToPlan,
+  planToPixel,
+  UNDERLAY_MAX_BYTES,
+  UNDERLAY_MAX_LABEL,
+} from "~/lib/underlay";
 import type * as PdfPage from "./pdf-page";
 
 type Pt = [number, number];
 type Mode = "scale" | "trace" | null;
 
-const MAX_BYTES = 10 * 1024 * 1024;
 /** A PDF is read in the browser and only the chosen page is uploaded, as a PNG. */
 const MAX_PDF_BYTES = 50 * 1024 * 1024;
 
@@ -71,10 +78,10 @@ export function UnderlayPanel({
 
   async function upload(file: File) {
     setMessage(null);
-    if (file.size > MAX_BYTES) {
+    if (file.size > UNDERLAY_MAX_BYTES) {
       setMessage({
         tone: "bad",
-        text: `${file.name} is ${(file.size / 1024 / 1024).toFixed(1)} MB; the limit is 10 MB.`,
+        text: `${file.name} is ${(file.size / 1024 / 1024).toFixed(1)} MB; the limit is ${UNDERLAY_MAX_LABEL}.`,
       });
       return;
     }
@@ -157,7 +164,7 @@ export function UnderlayPanel({
       setMessage({
         tone: "bad",
         text:
-          error instanceof Error && /10 MB/.test(error.message)
+          error instanceof Error && error.message.includes(UNDERLAY_MAX_LABEL)
             ? error.message
             : `Page ${n} could not be drawn. Try another page or export it as an image.`,
       });
@@ -267,7 +274,7 @@ export function UnderlayPanel({
                   className="sr-only"
                   accept="image/png,image/jpeg,image/webp,application/pdf,.pdf"
                   disabled={uploading || working !== null}
-                  aria-label="Upload a plan image (PNG, JPEG or WebP, up to 10 MB) or a PDF page"
+                  aria-label={`Upload a plan image (PNG, JPEG or WebP, up to ${UNDERLAY_MAX_LABEL}) or a PDF page`}
                   onChange={(e) => {
                     const f = e.target.files?.[0];
                     e.target.value = "";
@@ -340,7 +347,7 @@ export function UnderlayPanel({
         {!settings || !imageUrl ? (
           <p className="text-sm text-ink-soft">
             {canEdit
-              ? "Upload a drawing or photo of the plan (PNG, JPEG or WebP, up to 10 MB, or a page of a PDF drawing) to trace over. Only you, and colleagues when the roof is shared, can see it."
+              ? `Upload a drawing or photo of the plan (PNG, JPEG or WebP, up to ${UNDERLAY_MAX_LABEL}, or a page of a PDF drawing) to trace over. Only you, and colleagues when the roof is shared, can see it.`
               : "No plan image on this roof."}
           </p>
         ) : (

@@ -33,16 +33,7 @@ export function fallDetail(ratio: number | null | undefined): string {
   return `${degrees.toFixed(2)}° · ${(100 / ratio).toFixed(2)}\u00a0%`;
 }
 
-/**
- * "1:40"; one decimal when not whole ("1:28.6"); "level" for no fall. The same rule as the
- * engine's formatRatio (a test holds them together), kept here so pages need not load the engine.
- */
-export function formatRatio(ratio: number | null | undefined): string {
-  if (ratio == null || !Number.isFinite(ratio)) return "level";
-  const whole = Math.round(ratio);
-  if (Math.abs(ratio - whole) < 0.05) return `1:${whole}`;
-  return `1:${ratio.toFixed(1)}`;
-}
+export { formatRatio } from "~/lib/units";
 
 /** The display helpers above in the units chosen for this page or roof (app/lib/units.ts). */
 export function formatIn(system: UnitSystem) {

@@ -205,14 +205,14 @@ export type TaskGrade =
 
 /** Re-runs the engine on the submitted roof and measures every criterion. */
 export function gradeTask(task: Task, submitted: unknown): TaskGrade {
-  const parsed = parseSpec(structuredClone(submitted));
+  const parsed = parseSpec(submitted);
   if (!parsed.ok)
     return { ok: false, status: parsed.status, message: parsed.error.message, issues: parsed.error.issues };
-  const start = parseSpec(structuredClone(task.start));
+  const start = parseSpec(task.start);
   if (!start.ok)
     return { ok: false, status: 422, message: "This task's starting roof is broken; tell your trainer.", issues: [] };
   const spec = parsed.spec;
-  const analysis = analyse(structuredClone(spec));
+  const analysis = analyse(spec);
   const items = task.criteria.map((c) => gradeCriterion(c, analysis, spec));
   const changed = changedFixedKeys(task, start.spec, spec);
   if (changed.length) {

@@ -32,7 +32,7 @@ const roofSpec = z.unknown().superRefine((value, ctx) => {
       });
     }
   }
-  const parsed = parseSpec(structuredClone(value));
+  const parsed = parseSpec(value);
   if (!parsed.ok) {
     for (const issue of parsed.error.issues.slice(0, 5)) {
       ctx.addIssue({ code: "custom", message: `roof spec ${issue.path}: ${issue.message}` });

@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { DEMO_ROOF } from "~/components/sandbox/demo-roof";
 import { moveVertex } from "~/components/sandbox/spec-edit";
 import { EngineClient } from "~/components/sandbox/engine-client";
-import { formatRatio as localFormatRatio } from "~/components/sandbox/format";
+import { formatRatio as localFormatRatio } from "~/lib/units";
 import { runAnalysis } from "~/components/sandbox/run-analysis";
 import { createSandboxStore } from "~/components/sandbox/store";
 import { formatRatio } from "~/engine";
