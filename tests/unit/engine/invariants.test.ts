@@ -68,7 +68,6 @@ const roofCase = fc
   )
   .map(([outline, outletPicks, eavesPick, baseFall, inner, onRim, skewJoists, openingPicks]): Case => {
     const n = outline.length;
-    const outletEdges = new Set(outletPicks.map(([e]) => e % n));
     let edges: EdgeKind[] | undefined;
     if (eavesPick !== undefined) {
       const e = eavesPick % n;
@@ -76,7 +75,6 @@ const roofCase = fc
       const touches = outletPicks.some(([o, t]) => o % n === e || (t === 0 && o % n === (e + 1) % n));
       if (!touches) edges = outline.map((_, i) => (i === e ? "eaves" : "parapet"));
     }
-    void outletEdges;
     const outlets = outletPicks.map(([e, t, level]) => ({ at: pointOn(outline, e % n, t), level }));
     let minX = Infinity,
       minY = Infinity,

@@ -165,9 +165,34 @@ describe("warped bay (docs/check-values.md, Warped bays: derived, bilinear z = a
 });
 
 describe("valley: two planes falling at right angles meet at s1·s2/√(s1² + s2²) (docs/check-values.md, derived)", () => {
-  it("two 1:40 planes give a 1:56.6 valley", () => {
+  it("two 1:40 planes give a 1:56.6 valley: the engine's square with a corner outlet", () => {
+    // 16 × 16 square, outlet at (0, 0), joists along the diagonal: the chord rule gives two planes
+    // z = H·x/16 and z = H·y/16 that meet along the diagonal. With the base fall on the diagonal
+    // set to 1:(40·√2) = 1:56.57, H = 16√2/56.57 = 0.4 m and each plane falls 0.4/16 = 1:40; the
+    // formula gives the valley (1/40)²/√(2·(1/40)²) = 1/(40·√2) = 1:56.57 back.
+    const a = analyseSpec({
+      outline: [
+        [0, 0],
+        [16, 0],
+        [16, 16],
+        [0, 16],
+      ],
+      outlets: [{ at: [0, 0] }],
+      joists: { direction: [1, 1] },
+      baseFall: `1:${40 * Math.SQRT2}`,
+      probes: [
+        [12, 2],
+        [13, 2],
+        [4, 12],
+        [4, 13],
+      ],
+    });
+    const z = a.shaped.probes.map((p) => p.level as number);
+    close(1 / (z[1] - z[0]), 40, 1e-6); // the plane below the diagonal, along x
+    close(1 / (z[3] - z[2]), 40, 1e-6); // the plane above it, along y
     const s = 1 / 40;
-    close(1 / ((s * s) / Math.sqrt(2 * s * s)), 56.57, 0.005);
+    close(a.shaped.longestFallLine!.ratio, 1 / ((s * s) / Math.sqrt(2 * s * s)), 1e-6);
+    close(a.shaped.longestFallLine!.ratio, 56.57, 0.005);
   });
 
   it("matches the engine: a corner outlet with joists along the diagonal makes two planes and a valley", () => {
