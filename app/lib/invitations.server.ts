@@ -336,7 +336,7 @@ export async function acceptInvitation(
       const existing = await trx("classes").whereIn("id", classIds).pluck("id");
       if (existing.length) {
         await trx("class_members")
-          .insert(existing.map((class_id: string) => ({ class_id, user_id: row.user_id })))
+          .insert(existing.map((class_id: string) => ({ class_id, user_id: row.user_id! })))
           .onConflict(["class_id", "user_id"])
           .ignore();
       }

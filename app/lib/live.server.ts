@@ -52,7 +52,7 @@ export function liveFrame(snap: LiveSnapshot): Uint8Array {
 
 export async function readLiveState(classId: string): Promise<LiveSnapshot | null> {
   const row = await db()("classes").where({ id: classId }).first("live_seq", "live_state");
-  return row ? { classId, seq: row.live_seq, state: row.live_state ?? null } : null;
+  return row ? { classId, seq: row.live_seq, state: (row.live_state as LiveContent | null) ?? null } : null;
 }
 
 /**

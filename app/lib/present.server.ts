@@ -64,6 +64,10 @@ export async function presenterDecks(trainerId: string, classId: string): Promis
       });
   }
   if (roofs.length)
-    decks.push({ key: "roofs", title: "My saved roofs", roofs: roofs.map((r) => ({ caption: r.name, spec: r.spec })) });
+    decks.push({
+      key: "roofs",
+      title: "My saved roofs",
+      roofs: roofs.map((r) => ({ caption: r.name, spec: r.spec as SpecJson })),
+    });
   return decks;
 }

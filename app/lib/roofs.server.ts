@@ -213,8 +213,8 @@ export async function createRoof(
       const first = await trx("roofs")
         .where({ owner_id: user.id, idempotency_key: key })
         .first("id", "version", "idempotency_hash");
-      if (!sameRequest(first.idempotency_hash, hash!)) return { keyReused: key! };
-      return { id: first.id as string, version: first.version as number, repeated: true };
+      if (!sameRequest(first!.idempotency_hash, hash!)) return { keyReused: key! };
+      return { id: first!.id as string, version: first!.version as number, repeated: true };
     }
     await trx("roof_versions").insert({
       roof_id: roof.id,

@@ -1,4 +1,5 @@
 import { createHash, randomBytes } from "node:crypto";
+import type { Role } from "~/lib/permissions";
 import type { Knex } from "knex";
 import { db } from "~/lib/db.server";
 
@@ -19,7 +20,7 @@ export interface TokenRow {
   kind: TokenKind;
   user_id: string | null;
   email: string;
-  role: string | null;
+  role: Role | null;
   class_id: string | null;
   created_by: string | null;
   expires_at: Date;
@@ -32,7 +33,7 @@ export async function issueToken(
     kind: TokenKind;
     email: string;
     userId: string;
-    role?: string | null;
+    role?: Role | null;
     classId?: string | null;
     createdBy?: string | null;
     ttlSeconds: number;

@@ -6,6 +6,8 @@ import { db } from "~/lib/db.server";
 import { hashPassword, verifyPassword } from "~/lib/password.server";
 import { newPasswordFields, NAME_MAX, type PasswordFormResult } from "~/lib/password-form.server";
 import { ROLES, type Role } from "~/lib/permissions";
+
+const isRole = (value: string): value is Role => (ROLES as readonly string[]).includes(value);
 import { clientIp, hit, hitAll, LIMITS, waitPhrase } from "~/lib/rate-limit.server";
 import { createSession, destroyAllSessions, type SessionUser } from "~/lib/session.server";
 import { isUnitSystem } from "~/lib/units";
@@ -82,7 +84,7 @@ export async function changeRole(
   role: string,
   ip?: string | null,
 ): Promise<AdminResult> {
-  if (!ROLES.includes(role as Role)) return { ok: false, message: "Choose one of the four roles." };
+  if (!isRole(role)) return { ok: false, message: "Choose one of the four roles." };
   const user = await targetUser(actor, userId);
   if (!user) return { ok: false, message: "No such user." };
   if (user.id === actor.id) return { ok: false, message: "You cannot change your own role; ask another admin." };

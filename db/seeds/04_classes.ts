@@ -66,7 +66,7 @@ export async function seed(knex: Knex): Promise<void> {
         })
         .returning("id");
     }
-    await assign(knex, autumn.id, AUTUMN.assignments);
+    await assign(knex, autumn!.id, AUTUMN.assignments);
   }
 
   // Tess's first go at lesson 2 (03_attempts.ts) gets a comment from her trainer.
@@ -84,7 +84,7 @@ export async function seed(knex: Knex): Promise<void> {
       reviewer_id: springTrainer,
       comment:
         "Good start on the quiz. On the roof, look at where the water stands before you change the fall: the outlet is the problem, not the slope.",
-      at: "2027-03-02T09:55:00Z",
+      at: new Date("2027-03-02T09:55:00Z"),
     });
   }
 }

@@ -79,7 +79,7 @@ describe("invitation by e-mail", () => {
     expect(user).toMatchObject({ email, name: "Ines Falkirk", role: "designer" });
 
     const row = await database.db()("users").where({ email }).first("password_hash");
-    expect(row.password_hash).toMatch(/^\$2[ab]\$12\$/);
+    expect(row!.password_hash).toMatch(/^\$2[ab]\$12\$/);
 
     const again = await callRoute(
       invite.action,
@@ -98,7 +98,7 @@ describe("invitation by e-mail", () => {
     const trainer = {
       id: await userIdOf("trainer@tidemark.example"),
       role: "trainer" as const,
-      organisationId: (await database.db()("organisations").first("id")).id,
+      organisationId: (await database.db()("organisations").first("id"))!.id,
     };
     const email = uniqueAddress("weak-password");
     const r = await createInvitation({ email, role: "trainee", invitedBy: trainer, origin: "http://localhost" });
@@ -127,7 +127,7 @@ describe("invitation by e-mail", () => {
 
   it("a trainer invites a trainee into their class; accepting joins it; a trainer cannot invite staff or use another's class", async () => {
     const k = database.db();
-    const org = (await k("organisations").first("id")).id;
+    const org = (await k("organisations").first("id"))!.id;
     const trainer = { id: await userIdOf("trainer@tidemark.example"), role: "trainer" as const, organisationId: org };
     const other = { id: await userIdOf("trainer2@tidemark.example"), role: "trainer" as const, organisationId: org };
     const cls = await k("classes").where({ trainer_id: trainer.id }).first("id", "name");
@@ -144,7 +144,7 @@ describe("invitation by e-mail", () => {
       await createInvitation({
         email: uniqueAddress("x"),
         role: "trainee",
-        classId: cls.id,
+        classId: cls!.id,
         invitedBy: other,
         origin: "http://localhost",
       }),
@@ -158,13 +158,13 @@ describe("invitation by e-mail", () => {
       await createInvitation({
         email,
         role: "trainee",
-        classId: cls.id,
+        classId: cls!.id,
         invitedBy: trainer,
         origin: "http://localhost",
       }),
     ).toMatchObject({ status: "sent" });
     const mail = await waitForMail(email);
-    expect(mail.text).toContain(cls.name);
+    expect(mail.text).toContain(cls!.name);
     const token = linkIn(mail, "/invite/").pathname.split("/").pop()!;
     const res = await callRoute(
       invite.action,
@@ -173,20 +173,20 @@ describe("invitation by e-mail", () => {
     );
     expect(res.status).toBe(302);
     const userId = await userIdOf(email);
-    expect(await k("class_members").where({ class_id: cls.id, user_id: userId }).first()).toBeTruthy();
+    expect(await k("class_members").where({ class_id: cls!.id, user_id: userId }).first()).toBeTruthy();
 
     // An existing trainee account is asked by e-mail and is not a member until it accepts (issue 13, defect 3).
     const existing = await createInvitation({
       email: "trainee4@tidemark.example",
       role: "trainee",
-      classId: cls.id,
+      classId: cls!.id,
       invitedBy: trainer,
       origin: "http://localhost",
     });
     expect(existing).toMatchObject({ status: "asked_to_join", emailSent: true });
     expect(
       await k("class_members")
-        .where({ class_id: cls.id, user_id: await userIdOf("trainee4@tidemark.example") })
+        .where({ class_id: cls!.id, user_id: await userIdOf("trainee4@tidemark.example") })
         .first(),
     ).toBeUndefined();
   });
@@ -199,7 +199,7 @@ describe("invitation by e-mail", () => {
     const trainer = {
       id: await userIdOf("admin@tidemark.example"),
       role: "admin" as const,
-      organisationId: (await database.db()("organisations").first("id")).id,
+      organisationId: (await database.db()("organisations").first("id"))!.id,
     };
     const email = uniqueAddress("expired");
     await createInvitation({ email, role: "designer", invitedBy: trainer, origin: "http://localhost" });
@@ -400,7 +400,7 @@ describe("sign-in", () => {
   });
 
   it("stores every password with bcrypt at cost 12 (at least 10), demo accounts included", async () => {
-    const hashes: string[] = await database.db()("users").whereNotNull("password_hash").pluck("password_hash");
+    const hashes = (await database.db()("users").whereNotNull("password_hash").pluck("password_hash")) as string[];
     expect(hashes.length).toBeGreaterThanOrEqual(8);
     for (const h of hashes) {
       expect(h).toMatch(/^\$2[ab]\$1\d\$/);

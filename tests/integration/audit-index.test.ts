@@ -20,9 +20,9 @@ function nodes(plan: PlanNode): PlanNode[] {
 describe("admin users list query plan", () => {
   it("finds each user's last sign-in through an index by subject, never by walking audit_log", async () => {
     const k = database.db();
-    const { organisation_id: organisationId } = await k("users")
+    const { organisation_id: organisationId } = (await k("users")
       .where({ email: "admin@tidemark.example" })
-      .first("organisation_id");
+      .first("organisation_id"))!;
     // A log of a busy year: 60,000 entries over the organisation's users, a third of them sign-ins.
     await k.raw(
       `insert into audit_log (subject_id, actor_id, action, ip, at)

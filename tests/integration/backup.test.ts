@@ -36,7 +36,7 @@ describe("db:backup and db:restore", () => {
     const k = knex({ client: "pg", connection: source });
     const owner = await k("users").where({ email: "designer@tidemark.example" }).first();
     await k("roofs").insert({
-      owner_id: owner.id,
+      owner_id: owner!.id,
       name: "Backup check roof",
       spec: JSON.stringify({
         outline: [

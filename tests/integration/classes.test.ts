@@ -321,9 +321,13 @@ describe("permission boundaries", () => {
       body: JSON.stringify({ spec: SPEC, title: "hijack" }),
     });
     expect((await callRoute(live.action, post, args(demoClass))).status).toBe(404);
-    expect((await database.db()("classes").where({ id: demoClass }).first("live_state")).live_state?.title).not.toBe(
-      "hijack",
-    );
+    expect(
+      (
+        (await database.db()("classes").where({ id: demoClass }).first("live_state"))!.live_state as {
+          title?: string;
+        } | null
+      )?.title,
+    ).not.toBe("hijack");
     // Their own lists do not include it either.
     const list = await callRoute(classesIndex.loader, get("/classes", c));
     expect(list.data.classes.map((x: { id: string }) => x.id)).not.toContain(demoClass);

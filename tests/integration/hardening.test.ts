@@ -82,7 +82,7 @@ describe("1. e-mail links come from APP_URL, never from the request", () => {
     const org = await database.db()("organisations").first("id");
     await database
       .db()("users")
-      .insert({ organisation_id: org.id, email, name: "Ida Marsh", role: "trainee", password_hash: "x" });
+      .insert({ organisation_id: org!.id, email, name: "Ida Marsh", role: "trainee", password_hash: "x" });
     const status = await new Promise<number>((resolve, reject) => {
       const req = http.request(
         `${server.url}/forgot-password`,
@@ -326,7 +326,7 @@ describe("11. decompression bombs are refused as underlays", () => {
     const body = await res.json();
     expect(body.error.message).toContain("20000 × 20000");
     expect(body.error.message).toContain("256 MB budget");
-    expect((await database.db()("roofs").where({ id: roof.id }).first("underlay_id")).underlay_id).toBeNull();
+    expect((await database.db()("roofs").where({ id: roof.id }).first("underlay_id"))!.underlay_id).toBeNull();
   });
 
   it("an image just inside the budget (8192 × 8192 declared) is kept", async () => {
@@ -400,7 +400,7 @@ describe("comments that now hold", () => {
     const roof = await newRoof();
     const k = database.db();
     const u = await k("users").where({ email: "designer@tidemark.example" }).first();
-    const user = { id: u.id, email: u.email, name: u.name, role: u.role, organisationId: u.organisation_id };
+    const user = { id: u!.id, email: u!.email, name: u!.name, role: u!.role, organisationId: u!.organisation_id };
     await k.transaction(async (trx) => {
       expect(await getRoofFor(user, roof.id, trx, { lock: true })).not.toBeNull();
       await expect(k("roofs").where({ id: roof.id }).forUpdate().noWait().first("id")).rejects.toThrow(

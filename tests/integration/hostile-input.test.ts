@@ -348,8 +348,8 @@ beforeAll(async () => {
   for (const who of ["admin", "trainer", "trainee", "designer"] as const)
     cookies[who] = await sessionCookie(`${who}@tidemark.example`);
   const k = database.db();
-  values.roof = (await k("roofs").where({ name: "Library annex, Harrow Lane" }).first("id")).id;
-  values.class = (await k("classes").where({ name: "Parapet roofs, spring cohort" }).first("id")).id;
+  values.roof = (await k("roofs").where({ name: "Library annex, Harrow Lane" }).first("id"))!.id;
+  values.class = (await k("classes").where({ name: "Parapet roofs, spring cohort" }).first("id"))!.id;
   values.lesson = "outlets-and-overflows";
   values.traineeId = await userIdOf("trainee@tidemark.example");
   values.designerId = await userIdOf("designer@tidemark.example");
@@ -360,7 +360,7 @@ beforeAll(async () => {
   });
   values.attempt = made.ok
     ? (await made.json()).attempt.id
-    : (await k("attempts").where({ trainee_id: values.traineeId }).first("id")).id;
+    : (await k("attempts").where({ trainee_id: values.traineeId }).first("id"))!.id;
   const org = await k("organisations").first("id");
   values.resetToken = await issueToken({
     kind: "reset",
@@ -372,7 +372,7 @@ beforeAll(async () => {
   await createInvitation({
     email: invitee,
     role: "trainee",
-    invitedBy: { id: await userIdOf("admin@tidemark.example"), role: "admin", organisationId: org.id },
+    invitedBy: { id: await userIdOf("admin@tidemark.example"), role: "admin", organisationId: org!.id },
     origin: "http://localhost",
   });
   values.inviteToken = linkIn(await waitForMail(invitee), "/invite/")

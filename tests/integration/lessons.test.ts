@@ -62,7 +62,7 @@ describe("lessons in the database", () => {
       ["why-water-stands", true],
     ]);
     expect(rows[0].score).toBe(100);
-    const failed = rows[1].results.task.find((i: { id: string }) => i.id === "flat-area");
+    const failed = (rows[1].results as { task: { id: string }[] }).task.find((i) => i.id === "flat-area");
     // Joists along x with the outlet on the front edge leave about 67 m² of the 72 m² roof flatter than 1:100.
     expect(failed).toMatchObject({ passed: false, measured: expect.stringMatching(/^6\d\.\d+ m²$/) });
   });
@@ -161,7 +161,7 @@ describe("attempts API: grading on the server and statuses", () => {
     expect(passed).toMatchObject({ passed: true, score: 100, lessonVersion: OUTLETS.version, timeSpentSeconds: 95 });
     const row = await db()("attempts").where({ id: passed.id }).first();
     expect(row).toMatchObject({ passed: true, score: 100, lesson_slug: OUTLETS.slug, time_spent_s: 95 });
-    expect(row.spec.outlets).toEqual([{ at: [9, 0] }]);
+    expect((row!.spec as { outlets: unknown }).outlets).toEqual([{ at: [9, 0] }]);
   });
 
   it("answers 401, 415, 400, 404, 409 and 422 for bad submissions, never 500", async () => {
@@ -239,13 +239,13 @@ describe("attempts API: grading on the server and statuses", () => {
     const tess = await userId("trainee@tidemark.example");
     const row = await db()("attempts").where({ trainee_id: tess }).first("id");
     const one = async (email: string) =>
-      call(attemptApi.loader, getRequest(`/api/v1/attempts/${row.id}`, await cookieFor(email)), { id: row.id });
+      call(attemptApi.loader, getRequest(`/api/v1/attempts/${row!.id}`, await cookieFor(email)), { id: row!.id });
     expect((await one("trainee@tidemark.example")).status).toBe(200);
     expect((await one("trainer@tidemark.example")).status).toBe(200);
     expect((await one("trainee2@tidemark.example")).status).toBe(404);
     expect((await one("trainer2@tidemark.example")).status).toBe(404);
     const page = async (email: string) =>
-      call(attemptPage.loader, getRequest(`/attempts/${row.id}`, await cookieFor(email)), { id: row.id });
+      call(attemptPage.loader, getRequest(`/attempts/${row!.id}`, await cookieFor(email)), { id: row!.id });
     expect((await page("trainee@tidemark.example")).status).toBe(200);
     expect((await page("trainee3@tidemark.example")).status).toBe(404);
   });

@@ -87,8 +87,8 @@ describe("LISTEN/NOTIFY", () => {
     expect(ga.state?.title).toBe("two listeners");
     expect(gb.state?.spec).toEqual({ ...SPEC, outlets: [{ at: [6, 0] }] });
     const row = await database.db()("classes").where({ id: classId }).first("live_seq", "live_state");
-    expect(row.live_seq).toBe(seq);
-    expect(row.live_state.title).toBe("two listeners");
+    expect(row!.live_seq).toBe(seq);
+    expect((row!.live_state as { title: string }).title).toBe("two listeners");
   });
 
   it("this process's own followers get its change as it is committed, before the notification comes back", async () => {

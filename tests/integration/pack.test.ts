@@ -93,7 +93,7 @@ describe("read-only share links", () => {
     const { shareLink } = await made.json();
     const token = /^\/s\/([A-Za-z0-9_-]{43})$/.exec(shareLink.path)![1];
     const row = await db()("share_links").where({ id: shareLink.id }).first();
-    expect(row.token_hash).toMatch(/^[0-9a-f]{64}$/);
+    expect(row!.token_hash).toMatch(/^[0-9a-f]{64}$/);
     expect(JSON.stringify(row)).not.toContain(token);
 
     const page = await call(sharePage.loader, getRequest(`/s/${token}`), { token });

@@ -22,7 +22,7 @@ async function designer(): Promise<SessionUser> {
     .db()("users")
     .where({ email: "designer@tidemark.example" })
     .first("id", "email", "name", "role", "organisation_id");
-  return { id: u.id, email: u.email, name: u.name, role: u.role, organisationId: u.organisation_id };
+  return { id: u!.id, email: u!.email, name: u!.name, role: u!.role, organisationId: u!.organisation_id };
 }
 
 async function history(id: string) {
@@ -46,7 +46,7 @@ describe("roof history", () => {
       { version: 13, kind: "auto", name: "Depot canopy" },
     ]);
     const latest = await database.db()("roof_versions").where({ roof_id: id, version: 13 }).first("spec");
-    expect(latest.spec.baseFall).toBe("1:61");
+    expect((latest!.spec as { baseFall: string }).baseFall).toBe("1:61");
 
     // A named save is kept, and the autosave after it starts a new row.
     await save({ name: "Depot canopy, scheme B" });

@@ -29,7 +29,7 @@ async function sessionUser(email: string): Promise<SessionUser> {
   const u = await db()("users")
     .where({ id: await userId(email) })
     .first();
-  return { id: u.id, email: u.email, name: u.name, role: u.role, organisationId: u.organisation_id };
+  return { id: u!.id, email: u!.email, name: u!.name, role: u!.role, organisationId: u!.organisation_id };
 }
 
 describe("roofs JSON API: statuses", () => {
@@ -206,7 +206,7 @@ describe("roofs JSON API: who may see and change what", () => {
     const outsider = await cookieFor("outsider@elsewhere.example");
     expect((await get(id, outsider)).status).toBe(404);
     expect((await put(id, { version: 1, name: "x" }, outsider)).status).toBe(404);
-    expect((await db()("roofs").where({ id }).first()).name).toBe("Shared clinic");
+    expect((await db()("roofs").where({ id }).first())!.name).toBe("Shared clinic");
   });
 });
 

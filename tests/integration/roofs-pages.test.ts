@@ -107,7 +107,7 @@ describe("/roofs/:id and its actions", () => {
     expect(await db()("roofs").where({ id }).first()).toMatchObject({ shared: false, deleted_at: null, version: 1 });
     expect(
       await db()("roofs").where({
-        owner_id: (await db()("users").where({ email: "trainee2@tidemark.example" }).first()).id,
+        owner_id: (await db()("users").where({ email: "trainee2@tidemark.example" }).first())!.id,
         name: "mine now",
       }),
     ).toHaveLength(0);
@@ -149,7 +149,7 @@ describe("/roofs/:id and its actions", () => {
       (await call(editor.action, form(`/roofs/${id}`, { intent: "underlay", settings: placement }, colleague), { id }))
         .status,
     ).toBe(403);
-    expect((await db()("roofs").where({ id }).first()).underlay).toEqual({});
+    expect((await db()("roofs").where({ id }).first())!.underlay).toEqual({});
     const copy = await call(
       editor.action,
       form(`/roofs/${id}`, { intent: "duplicate", name: "My gym copy" }, colleague),
@@ -184,7 +184,7 @@ describe("/roofs/:id and its actions", () => {
       { id },
     );
     expect(stale.status).toBe(409);
-    expect((await db()("roofs").where({ id }).first()).version).toBe(3);
+    expect((await db()("roofs").where({ id }).first())!.version).toBe(3);
   });
 });
 
@@ -208,11 +208,11 @@ describe("/roofs library actions", () => {
     );
     expect(empty.status).toBe(400);
     expect(await empty.json()).toMatchObject({ name: "   ", error: expect.stringMatching(/empty/) });
-    expect((await db()("roofs").where({ id }).first()).name).toBe("After rename");
+    expect((await db()("roofs").where({ id }).first())!.name).toBe("After rename");
 
     const dup = await call(library.action, form("/roofs", { intent: "duplicate", id }, cookie));
     const dupId = (await dup.json()).id;
-    expect((await db()("roofs").where({ id: dupId }).first()).name).toBe("After rename (copy)");
+    expect((await db()("roofs").where({ id: dupId }).first())!.name).toBe("After rename (copy)");
 
     expect((await call(library.action, form("/roofs", { intent: "delete", id }, cookie))).status).toBe(200);
     const listed = async () =>
@@ -300,7 +300,7 @@ describe("/roofs library actions", () => {
       db()("roofs").where({ id }).first(),
       db()("roofs").where({ id: backId }).first(),
     ]);
-    expect(b.spec).toEqual(a.spec);
-    expect(b.name).toBe(a.name);
+    expect(b!.spec).toEqual(a!.spec);
+    expect(b!.name).toBe(a!.name);
   });
 });

@@ -13,7 +13,7 @@ async function roofOf(email: string, shared = false) {
     .where({ id: await userId(email) })
     .first();
   const { id } = await createRoof(
-    { id: u.id, email: u.email, name: u.name, role: u.role, organisationId: u.organisation_id },
+    { id: u!.id, email: u!.email, name: u!.name, role: u!.role, organisationId: u!.organisation_id },
     { name: `Underlay test ${Math.random()}`, spec: SMALL_SPEC },
   );
   if (shared) await db()("roofs").where({ id }).update({ shared: true });
@@ -76,7 +76,7 @@ describe("underlay upload", () => {
     big.set(makePng(4, 4).subarray(0, 64));
     const bigRes = await upload(id, big, "huge.png", cookie);
     expect(bigRes.status).toBe(413);
-    expect((await db()("roofs").where({ id }).first()).underlay_id).toBeNull();
+    expect((await db()("roofs").where({ id }).first())!.underlay_id).toBeNull();
     expect(await db()("uploads").whereIn("original_name", ["plan.png", "huge.png"])).toHaveLength(0);
     const wrongType = await call(
       underlay.action,

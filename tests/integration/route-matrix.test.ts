@@ -197,9 +197,9 @@ const MATRIX: Record<string, Case[]> = {
 
 /** Real ids from the demo seed, looked up once. */
 const SEED_IDS: Record<string, (k: ReturnType<typeof database.db>) => Promise<string>> = {
-  designerRoof: async (k) => (await k("roofs").where({ name: "Library annex, Harrow Lane" }).first("id")).id,
-  trainerClass: async (k) => (await k("classes").where({ name: "Parapet roofs, spring cohort" }).first("id")).id,
-  lessonSlug: async (k) => (await k("lessons").orderBy("position").first("slug")).slug,
+  designerRoof: async (k) => (await k("roofs").where({ name: "Library annex, Harrow Lane" }).first("id"))!.id,
+  trainerClass: async (k) => (await k("classes").where({ name: "Parapet roofs, spring cohort" }).first("id"))!.id,
+  lessonSlug: async (k) => (await k("lessons").orderBy("position").first("slug"))!.slug,
 };
 
 const database = useTestDatabase();

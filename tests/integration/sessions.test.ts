@@ -113,7 +113,7 @@ describe("session lifetime", () => {
     expect(await whoIs(cookie)).toMatchObject({ email: "trainee@tidemark.example" });
     const { age } = await k()("sessions")
       .where({ id })
-      .first(k().raw("extract(epoch from now() - last_seen_at)::float8 as age"));
+      .first<{ age: number }>(k().raw("extract(epoch from now() - last_seen_at)::float8 as age"));
     expect(age).toBeLessThan(5);
     await k()("sessions")
       .where({ id })
@@ -121,7 +121,7 @@ describe("session lifetime", () => {
     await whoIs(cookie);
     const { age: later } = await k()("sessions")
       .where({ id })
-      .first(k().raw("extract(epoch from now() - last_seen_at)::float8 as age"));
+      .first<{ age: number }>(k().raw("extract(epoch from now() - last_seen_at)::float8 as age"));
     expect(later).toBeGreaterThanOrEqual(29); // not rewritten within the minute
   });
 
@@ -131,8 +131,8 @@ describe("session lifetime", () => {
     expect(res.headers.get("set-cookie")).toMatch(/Max-Age=604800/);
     const row = await k()("sessions")
       .where({ id: sessionId(cookie) })
-      .first(k().raw("extract(epoch from expires_at - created_at)::float8 as life"));
-    expect(row.life).toBeCloseTo(7 * 86400, -1);
+      .first<{ life: number }>(k().raw("extract(epoch from expires_at - created_at)::float8 as life"));
+    expect(row!.life).toBeCloseTo(7 * 86400, -1);
     await k()("sessions")
       .where({ id: sessionId(cookie) })
       .update({ expires_at: k().raw("now() - interval '1 second'"), last_seen_at: k().fn.now() });
@@ -265,9 +265,9 @@ describe("admin", () => {
       formPost("/admin", { intent: "role", userId: designer, role: "trainer" }, admin),
     );
     expect(changed.data).toMatchObject({ ok: true });
-    expect((await k()("users").where({ id: designer }).first("role")).role).toBe("trainer");
+    expect((await k()("users").where({ id: designer }).first("role"))!.role).toBe("trainer");
     const logged = await k()("audit_log").where({ action: "role_changed", subject_id: designer }).first("detail");
-    expect(logged.detail).toEqual({ from: "designer", to: "trainer" });
+    expect(logged!.detail).toEqual({ from: "designer", to: "trainer" });
 
     const self = await callRoute(
       adminUsers.action,

@@ -21,7 +21,7 @@ describe("units preference (per user; roofs stay in metres)", () => {
 
     await callRoute(account.action, formPost("/account", { intent: "units", units: "auto" }, cookie));
     const row = await database.db()("users").whereRaw("lower(email) = ?", ["designer@tidemark.example"]).first("units");
-    expect(row.units).toBeNull();
+    expect(row!.units).toBeNull();
   });
 
   it("refuses an unknown system with 400 naming the field, and the database refuses it too", async () => {

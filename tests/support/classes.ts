@@ -99,7 +99,7 @@ export async function insertAttempt(
 export async function makeTrainee(email: string, name: string, classId?: string): Promise<string> {
   const org = await db()("organisations").first("id");
   const [u] = await db()("users")
-    .insert({ organisation_id: org.id, email, name, role: "trainee", password_hash: "x" })
+    .insert({ organisation_id: org!.id, email, name, role: "trainee", password_hash: "x" })
     .returning("id");
   if (classId) await db()("class_members").insert({ class_id: classId, user_id: u.id });
   return u.id;
