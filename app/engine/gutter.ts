@@ -26,8 +26,9 @@ function depthFrom(roof: Roof, e: number): number {
  * sole point plus the gutter depth, and a plane field falling at the base fall to the lip.
  * The field's span is the outline's depth from the gutter line less the gutter width (the chord
  * through the outlet on a rectangle); with gutters on two facing edges the field ridges half-way.
- * detailLength counts, per gutter, the sole-to-parapet and sole-to-side corners and the lip
- * (3 × length) and, at each end, the sole's width and the side's height against the end wall.
+ * detailLength counts what the gutter adds to the membrane: per gutter the sole-to-side corner and
+ * the lip (2 × length) and, at each end, the sole's width and the side's height against the end
+ * wall. The sole-to-parapet corner is not counted: the shaped roof meets that parapet too.
  */
 export function gutterLayout(roof: Roof): Analysis["gutter"] {
   const { width, depth, fall } = roof.gutter;
@@ -86,7 +87,7 @@ export function gutterLayout(roof: Roof): Analysis["gutter"] {
   }
   const lipLevel = highestSole + depth;
   const highLevel = lipLevel + Math.max(0, fieldSpan) / roof.baseFall.ratio;
-  let detailLength = 3 * gutterLength;
+  let detailLength = 2 * gutterLength;
   for (const sole of ends) detailLength += width + (lipLevel - sole);
   const minWidth = ruleValue(roof.ruleSet, "gutterWidth")?.value ?? 0;
   const narrow = roof.outlets.filter((o) => width < minWidth || width < o.size).map((o) => o.index);

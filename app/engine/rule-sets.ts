@@ -92,8 +92,8 @@ export const RULE_SETS: Readonly<Record<RuleSetId, RuleSet>> = {
         unit: "ratio",
         document: "International Building Code 2012-2018",
         clause: "1507.10.1-1507.15.1",
-        confidence: "page",
-        note: "the minimum design slope applies to every part of the roof, so to every fall line",
+        confidence: "derived",
+        note: "an interpretation, not the code's words: the minimum design slope is read as applying to every part of the roof, so to every fall line",
       },
       pondingCheckBelow: {
         value: QUARTER_INCH_PER_FOOT,
@@ -116,14 +116,14 @@ export const RULE_SETS: Readonly<Record<RuleSetId, RuleSet>> = {
   },
   "au-ncc-2022": {
     id: "au-ncc-2022",
-    name: "Australia: NCC 2022 with AS 4654.2 and AS/NZS 3500.3",
+    name: "Australia: NCC 2019 with AS 4654.2-2012 and AS/NZS 3500.3:2015",
     jurisdiction: "AU",
     commonPractice: false,
     values: {
       fieldFall: {
         value: 100,
         unit: "ratio",
-        document: "AS 4654.2-2012 (called up by NCC 2022)",
+        document: "AS 4654.2-2012 (called up by NCC 2019 and NCC 2022)",
         clause: "2.5.2",
         confidence: "page",
         note: "1:100 minimum fall to outlets for external above-ground membranes",
@@ -131,7 +131,7 @@ export const RULE_SETS: Readonly<Record<RuleSetId, RuleSet>> = {
       fallLine: {
         value: 100,
         unit: "ratio",
-        document: "AS 4654.2-2012 (called up by NCC 2022)",
+        document: "AS 4654.2-2012 (called up by NCC 2019 and NCC 2022)",
         clause: "2.5.2",
         confidence: "page",
         note: "1:100 minimum fall to outlets",
@@ -139,10 +139,10 @@ export const RULE_SETS: Readonly<Record<RuleSetId, RuleSet>> = {
       gutterFall: {
         value: 100,
         unit: "ratio",
-        document: "NCC 2019 Volume Two",
-        clause: "3.5.3.2",
-        confidence: "page",
-        note: "box gutters not flatter than 1:100 (eaves gutters 1:500)",
+        document: "NCC 2019 Volume Two (housing provisions: houses, Class 1 and 10 buildings)",
+        clause: "Part 3.5.3, installation of gutters",
+        confidence: "memory",
+        note: "box gutters not flatter than 1:100 (eaves gutters 1:500); the installation clause of Part 3.5.3 (its number not confirmed); in NCC 2022 it moved to Part 7.4 of the ABCB Housing Provisions",
       },
       gutterWidth: {
         value: 0.3,
@@ -166,10 +166,14 @@ export const RULE_SETS: Readonly<Record<RuleSetId, RuleSet>> = {
         document: "AS/NZS 3500.3:2015",
         clause: "3.7.4(e)",
         confidence: "page",
-        note: "sump at least 150 mm deep; overflow capacity at least the outlet's design flow (3.7.7.1)",
+        note: "sump at least 150 mm deep; for box gutters, overflow capacity at least the outlet's design flow (3.7.7.1)",
       },
     },
-    notes: ["Overflow capacity at least the design flow of its outlet: AS/NZS 3500.3:2015 cl 3.7.7.1."],
+    notes: [
+      "Editions: NCC 2019 Volume Two, AS 4654.2-2012 and AS/NZS 3500.3:2015, as read; check clause numbers against the edition in force.",
+      "The gutter values are housing provisions, written for houses (Class 1 and 10 buildings); other buildings follow NCC Volume One and AS/NZS 3500.3.",
+      "For box gutters, overflow capacity at least the design flow of its outlet: AS/NZS 3500.3:2015 cl 3.7.7.1.",
+    ],
   },
   "nz-e2-as1": {
     id: "nz-e2-as1",
@@ -229,13 +233,13 @@ export const RULE_SETS: Readonly<Record<RuleSetId, RuleSet>> = {
       fallLine: {
         value: 100,
         unit: "ratio",
-        document: "DIN 18531-5",
-        clause: "6.2",
-        confidence: "page",
-        note: "secondary (valley) falls 1 %",
+        document: "DIN 18531-1:2017",
+        clause: "6.3.1",
+        confidence: "memory",
+        note: "secondary (valley) falls 1 %, in part 1 beside the 2 % value as far as known (part 5 covers balconies and walkways)",
       },
     },
-    notes: [],
+    notes: ["The 1 % secondary fall is placed in DIN 18531-1 as far as known: check the edition in force."],
   },
   "uk-bs-6229": {
     id: "uk-bs-6229",
@@ -249,18 +253,21 @@ export const RULE_SETS: Readonly<Record<RuleSetId, RuleSet>> = {
         document: "BS 6229:2018",
         clause: null,
         confidence: "page",
-        note: "design 1:40 so that 1:80 is achieved as built (clause not found)",
+        note: "design advice: design at 1:40 so that 1:80 is achieved as built (clause not found)",
       },
       fallLine: {
         value: 80,
         unit: "ratio",
         document: "BS 6229:2018",
         clause: null,
-        confidence: "page",
-        note: "1:80 as built after tolerance and deflection (clause not found)",
+        confidence: "derived",
+        note: "1:80 is an as-built (finished) value, after tolerance and deflection; used here as the floor for every designed fall line, which leaves no margin for either - design steeper (clause not found)",
       },
     },
-    notes: ["Clause numbers were not found on the page read; values need checking against the standard."],
+    notes: [
+      "Clause numbers were not found on the page read; values need checking against the standard.",
+      "1:40 is design advice aimed at 1:80 finished; 1:80 is an as-built value, not a design target.",
+    ],
   },
 };
 

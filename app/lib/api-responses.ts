@@ -297,6 +297,7 @@ export const lessonSchema = z
           id: z.string(),
           kind: z.enum(["numeric", "ratio", "choice"]),
           promptHtml: z.string(),
+          hintHtml: z.string(),
           weight: z.number(),
           options: z.array(z.strictObject({ id: z.string(), html: z.string() })).optional(),
           multiple: z.boolean().optional(),

@@ -240,6 +240,31 @@ export async function saveAssignments(classId: string, items: { slug: string; du
   });
 }
 
+/** Where a lesson is assigned to a trainee: the soonest due date among their classes (undated last). */
+export interface LessonDue {
+  dueOn: string | null;
+  className: string;
+  /** How many of the trainee's classes assign it. */
+  classes: number;
+}
+
+/** For the lessons list: per lesson slug, when the trainee's classes want it done. */
+export async function dueDatesForTrainee(traineeId: string): Promise<Record<string, LessonDue>> {
+  const rows: { lesson_slug: string; due_on: string | null; name: string }[] = await db()("assignments as s")
+    .join("classes as c", "c.id", "s.class_id")
+    .join("class_members as m", "m.class_id", "s.class_id")
+    .where("m.user_id", traineeId)
+    .select("s.lesson_slug", "s.due_on", "c.name")
+    .orderByRaw("s.due_on asc nulls last, c.name");
+  const out: Record<string, LessonDue> = {};
+  for (const r of rows) {
+    const seen = out[r.lesson_slug];
+    if (seen) seen.classes += 1;
+    else out[r.lesson_slug] = { dueOn: r.due_on, className: r.name, classes: 1 };
+  }
+  return out;
+}
+
 export interface MyAssignment {
   slug: string;
   title: string;

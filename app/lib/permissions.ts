@@ -6,6 +6,8 @@ export const PERMISSIONS = {
   "roofs:own": ["admin", "trainer", "trainee", "designer"],
   "lessons:take": ["admin", "trainer", "trainee", "designer"],
   "classes:manage": ["admin", "trainer"],
+  // Who has a Classes page with something on it (designers belong to no class: no menu item).
+  "classes:view": ["admin", "trainer", "trainee"],
   "classes:follow": ["trainee"],
   "gradebook:view": ["admin", "trainer"],
   "attempts:review": ["admin", "trainer"],

@@ -1,6 +1,7 @@
 /** The roofs a trainer can step through in classroom mode: each lesson's figures and task roofs, and their own saved roofs. */
 import { classAssignments } from "~/lib/classes.server";
 import { db } from "~/lib/db.server";
+import type { DeckGroup } from "~/lib/present-groups";
 
 /** A roof spec as JSON (checked by the engine when it is published). */
 export type SpecJson = Record<string, unknown>;
@@ -13,6 +14,7 @@ export interface DeckRoof {
 export interface Deck {
   key: string;
   title: string;
+  group: DeckGroup;
   roofs: DeckRoof[];
 }
 
@@ -35,7 +37,7 @@ export function lessonRoofs(content: LessonContent): DeckRoof[] {
   return roofs;
 }
 
-/** Assigned lessons first (in course order), then the rest of the course, then my saved roofs. */
+/** Assigned lessons first, then the rest of the course (each part in course order), then my saved roofs. */
 export async function presenterDecks(trainerId: string, classId: string): Promise<Deck[]> {
   const [assigned, lessons, roofs] = await Promise.all([
     classAssignments(classId),
@@ -59,7 +61,8 @@ export async function presenterDecks(trainerId: string, classId: string): Promis
     if (deckRoofs.length)
       decks.push({
         key: `lesson:${l.slug}`,
-        title: `${l.position}. ${l.title}${isAssigned.has(l.slug) ? " (assigned)" : ""}`,
+        title: `${l.position}. ${l.title}`,
+        group: isAssigned.has(l.slug) ? "assigned" : "course",
         roofs: deckRoofs,
       });
   }
@@ -67,6 +70,7 @@ export async function presenterDecks(trainerId: string, classId: string): Promis
     decks.push({
       key: "roofs",
       title: "My saved roofs",
+      group: "roofs",
       roofs: roofs.map((r) => ({ caption: r.name, spec: r.spec as SpecJson })),
     });
   return decks;

@@ -16,7 +16,7 @@ const NAV: { to: string; label: string; permission?: Permission; signedIn?: bool
   { to: "/sandbox", label: "Sandbox" },
   { to: "/roofs", label: "Roofs", permission: "roofs:own" },
   { to: "/lessons", label: "Lessons" },
-  { to: "/classes", label: "Classes", signedIn: true },
+  { to: "/classes", label: "Classes", permission: "classes:view" },
   { to: "/gradebook", label: "Gradebook", permission: "gradebook:view" },
   { to: "/admin", label: "Admin", permission: "users:manage" },
 ];

@@ -6,6 +6,7 @@ import { requirePermission } from "~/lib/auth.server";
 import { findClassFor } from "~/lib/classes.server";
 import { readLiveState } from "~/lib/live.server";
 import { presenterDecks } from "~/lib/present.server";
+import { DECK_GROUP_LABELS, type DeckGroup } from "~/lib/present-groups";
 import { Caution } from "~/components/caution";
 import { PageErrorBoundary } from "~/components/error-boundary";
 import { LiveRoof } from "~/components/classes/live-roof";
@@ -98,12 +99,21 @@ export default function Present() {
     },
     [publish, content],
   );
-  const deckOptions = useMemo(
+  // The list in its parts (assigned, other lessons, my roofs), each in course order, with a divider between.
+  const deckGroups = useMemo(
     () =>
-      decks.map((d) => ({
-        key: d.key,
-        title: `${d.title} · ${d.roofs.length} roof${d.roofs.length === 1 ? "" : "s"}`,
-      })),
+      (Object.keys(DECK_GROUP_LABELS) as DeckGroup[])
+        .map((group) => ({
+          group,
+          label: DECK_GROUP_LABELS[group],
+          options: decks
+            .filter((d) => d.group === group)
+            .map((d) => ({
+              key: d.key,
+              title: `${d.title} · ${d.roofs.length} roof${d.roofs.length === 1 ? "" : "s"}`,
+            })),
+        }))
+        .filter((g) => g.options.length),
     [decks],
   );
 
@@ -174,10 +184,14 @@ export default function Present() {
             }
             disabled={!decks.length}
           >
-            {deckOptions.map((d) => (
-              <option key={d.key} value={d.key}>
-                {d.title}
-              </option>
+            {deckGroups.map((g) => (
+              <optgroup key={g.group} label={g.label}>
+                {g.options.map((d) => (
+                  <option key={d.key} value={d.key}>
+                    {d.title}
+                  </option>
+                ))}
+              </optgroup>
             ))}
           </select>
         </label>

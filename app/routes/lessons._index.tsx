@@ -1,11 +1,13 @@
 import { Link, useLoaderData } from "react-router";
-import { BookOpen, Check, Clock, ListChecks, Minus, X } from "lucide-react";
+import { BookOpen, CalendarDays, Check, Clock, ListChecks, Minus, X } from "lucide-react";
 import type { Route } from "./+types/lessons._index";
 import { getOptionalUser } from "~/lib/auth.server";
+import { dueDatesForTrainee, type LessonDue } from "~/lib/classes.server";
 import { db } from "~/lib/db.server";
 import { progressOf, type Progress } from "~/lib/lessons/attempts.server";
 import { allLessons } from "~/lib/lessons/catalogue.server";
 import { lessonSummary } from "~/lib/lessons/view.server";
+import { Day } from "~/components/dates";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
 
 export const meta: Route.MetaFunction = () => [
@@ -20,9 +22,16 @@ export const meta: Route.MetaFunction = () => [
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await getOptionalUser(request);
   const progress: Record<string, Progress> = user ? await progressOf(db(), user.id) : {};
+  // Due dates from the classes the user belongs to (a trainer's own classes have no members' dates here).
+  const due: Record<string, LessonDue> = user ? await dueDatesForTrainee(user.id) : {};
   return {
     signedIn: !!user,
-    lessons: allLessons().map((l) => ({ ...lessonSummary(l), progress: progress[l.slug] ?? null })),
+    today: new Date().toISOString().slice(0, 10),
+    lessons: allLessons().map((l) => ({
+      ...lessonSummary(l),
+      progress: progress[l.slug] ?? null,
+      due: due[l.slug] ?? null,
+    })),
   };
 }
 
@@ -49,8 +58,30 @@ function Status({ p }: { p: Progress | null }) {
   );
 }
 
+/** When the trainee's class wants the lesson done: the soonest due date, the class, and "late". */
+function DueLine({ due, late }: { due: LessonDue; late: boolean }) {
+  const others = due.classes > 1 ? ` and ${due.classes - 1} more ${due.classes === 2 ? "class" : "classes"}` : "";
+  return (
+    <p
+      className={`mt-1 inline-flex items-center gap-1 text-sm ${late ? "font-medium text-bad" : "text-ink"}`}
+      data-testid="lesson-due"
+    >
+      <CalendarDays aria-hidden="true" className="h-4 w-4" />
+      {due.dueOn ? (
+        <>
+          {late ? "Overdue: was due" : "Due"} <Day iso={due.dueOn} />
+        </>
+      ) : (
+        "Assigned, no due date"
+      )}{" "}
+      · {due.className}
+      {others}
+    </p>
+  );
+}
+
 export default function Lessons() {
-  const { lessons, signedIn } = useLoaderData<typeof loader>();
+  const { lessons, signedIn, today } = useLoaderData<typeof loader>();
   const passed = lessons.filter((l) => l.progress?.passed).length;
   const next = lessons.find((l) => !l.progress?.passed);
   return (
@@ -126,6 +157,7 @@ export default function Lessons() {
                 </span>
                 <span>pass mark {l.passMark}</span>
               </p>
+              {l.due && <DueLine due={l.due} late={!!l.due.dueOn && l.due.dueOn < today && !l.progress?.passed} />}
             </div>
             {signedIn && (
               <div className="text-sm sm:text-right" data-testid={`progress-${l.slug}`}>

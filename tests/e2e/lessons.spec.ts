@@ -21,17 +21,15 @@ test("a trainee passes the quiz, fails the roof task, moves the outlet and passe
   // The lesson's figures are drawn by the app from the engine's output.
   await expect(page.getByTestId("roof-figure").first().getByRole("img")).toBeVisible();
 
-  // The quiz, answered right in mixed units: 4 inches is within 1 mm of 102 mm.
-  await page.getByTestId("question-scupper-min").getByRole("textbox").fill("4 in");
-  await page.getByTestId("question-weir-flow").getByRole("textbox").fill("0.0039 m^3/s");
-  await page.getByLabel("At least the design flow of the outlet it backs up.").check();
-  for (const option of [
-    "Its membrane laps and corners sit in water for long periods.",
-    "Leaves and grit settle in it and block the outlet.",
-    "The water it holds is an extra load on the structure.",
-  ]) {
-    await page.getByLabel(option).check();
-  }
+  // The quiz, answered right in mixed units: 1.06 inches is within 1 mm of 27 mm.
+  await page.getByTestId("question-scupper-min").getByRole("textbox").fill("1.06 in");
+  await page.getByTestId("question-weir-flow").getByRole("textbox").fill("0.0043 m^3/s");
+  // Every question offers a hint before it is answered.
+  await page.getByTestId("hint-weir-flow").getByText("Hint").click();
+  await expect(page.getByTestId("hint-weir-flow")).toContainText("end contractions");
+  await page.getByLabel("No: it has to take all 3.2 L/s, because the outlet may be blocked completely.").check();
+  await page.getByLabel(/^A sump does not speed the water up/).check();
+  await page.getByLabel("At the back-right corner, (18, 9).").check();
 
   // The page's data reloads after each submit are held back 1.5 s, so one can land after the
   // roof is edited below: the next submit must still carry the edited roof.
@@ -45,16 +43,17 @@ test("a trainee passes the quiz, fails the roof task, moves the outlet and passe
   await page.getByRole("button", { name: "Submit answers and roof" }).click();
   const summary = page.getByTestId("score-summary");
   await expect(summary).toContainText("Not passed");
-  await expect(summary).toContainText("Quiz: 4 of 4 right");
-  for (const id of ["scupper-min", "weir-flow", "overflow-size", "sump-risks"]) {
+  await expect(summary).toContainText("Quiz: 5 of 5 right");
+  for (const id of ["scupper-min", "weir-flow", "overflow-size", "sump-fault", "longest-start"]) {
     await expect(page.getByTestId(`feedback-quiz-${id}`)).toContainText("Right");
   }
   const fallLine = page.getByTestId("feedback-task-fall-line");
   await expect(fallLine).toContainText("Not met");
   // Hand check (docs/roof-method.md §3, §7): H = 9 m / 60 = 150 mm; the far corner is 20.12 m away → 1:134.2.
   await expect(fallLine).toContainText("1:134.2 over 20.1 m");
-  // 4 quiz points + 0 of 3 + 1 + 1 task points = 6 of 9.
-  await expect(summary).toContainText("66.7");
+  // 5 quiz points + 0 of 3 + 1 + 1 task points = 7 of 10 = 70, capped at 69: the fall line is required.
+  await expect(summary.getByTestId("grade-score")).toHaveText("69 / 100");
+  await expect(summary).toContainText("points earned 70, capped at 69");
 
   // Move the outlet to the middle of the front parapet with the outlet table, and submit again.
   const x = page.getByLabel("Outlet O1 x");

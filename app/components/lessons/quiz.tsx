@@ -65,6 +65,15 @@ export function QuizQuestion({
           </div>
         )}
       </fieldset>
+      {q.hintHtml && !result ? (
+        <details className="mt-2 text-sm" data-testid={`hint-${q.id}`}>
+          <summary className="cursor-pointer text-ink-soft">Hint</summary>
+          <p
+            className="mt-1 [&_code]:rounded [&_code]:bg-paper-deep [&_code]:px-1"
+            dangerouslySetInnerHTML={{ __html: q.hintHtml }}
+          />
+        </details>
+      ) : null}
       {result && (
         <div id={`result-${q.id}`}>
           <ItemFeedback item={result} />

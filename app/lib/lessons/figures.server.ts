@@ -43,106 +43,38 @@ function keyFigures(a: Analysis, spec: RoofSpec): FigureData["key"] {
   return out;
 }
 
-/**
- * The fall map as a raster of small cells: the level at each cell centre comes from the engine's
- * probes (the chord-rule surface itself), the fall from differences between neighbours. Cells
- * just outside the outline borrow a neighbour's value; the drawing is clipped to the outline.
- */
-function fallGrid(
-  spec: RoofSpec,
-  b: { minX: number; minY: number; span: number; w: number; h: number },
-  minRatio: number,
-) {
-  const cell = b.span / 44;
-  const nx = Math.max(1, Math.ceil(b.w / cell));
-  const ny = Math.max(1, Math.ceil(b.h / cell));
-  const probes: [number, number][] = [];
-  for (let j = 0; j < ny; j++)
-    for (let i = 0; i < nx; i++) probes.push([b.minX + (i + 0.5) * cell, b.minY + (j + 0.5) * cell]);
-  const levels = analyse(structuredClone({ ...spec, probes }), { traces: false, mesh: false }).shaped.probes.map(
-    (q) => q.level,
-  );
-  const z = (i: number, j: number) => (i < 0 || j < 0 || i >= nx || j >= ny ? null : levels[j * nx + i]);
-  const slope = (i: number, j: number, di: number, dj: number) => {
-    const a = z(i - di, j - dj);
-    const c = z(i + di, j + dj);
-    const m = z(i, j)!;
-    if (a != null && c != null) return (c - a) / (2 * cell);
-    if (c != null) return (c - m) / cell;
-    if (a != null) return (m - a) / cell;
-    return 0;
-  };
-  const ratio: (number | null | undefined)[] = levels.map((l, k) => {
-    if (l == null) return undefined;
-    const i = k % nx;
-    const j = Math.floor(k / nx);
-    const g = Math.hypot(slope(i, j, 1, 0), slope(i, j, 0, 1));
-    return g > 1e-9 ? 1 / g : null;
-  });
-  // One ring of cells outside the outline takes a neighbour's fall, so the clipped edge is filled.
-  const filled = ratio.map((r, k) => {
-    if (r !== undefined) return r;
-    const i = k % nx;
-    const j = Math.floor(k / nx);
-    for (const [di, dj] of [
-      [1, 0],
-      [-1, 0],
-      [0, 1],
-      [0, -1],
-      [1, 1],
-      [-1, -1],
-      [1, -1],
-      [-1, 1],
-    ]) {
-      const ii = i + di;
-      const jj = j + dj;
-      if (ii >= 0 && jj >= 0 && ii < nx && jj < ny && ratio[jj * nx + ii] !== undefined) return ratio[jj * nx + ii];
-    }
-    return undefined;
-  });
-  // Paths in cell units (the figure scales them), runs of one colour merged along each row.
-  const groups = new Map<string, string[]>();
-  const flatRuns: string[] = [];
-  const run = (i0: number, i1: number, j: number) => `M${i0} ${ny - 1 - j}h${i1 - i0}v1h${i0 - i1}z`;
-  const isFlat = (r: number | null | undefined) => r === null || (r !== undefined && r > minRatio);
-  for (let j = 0; j < ny; j++) {
-    const row = filled.slice(j * nx, (j + 1) * nx);
-    for (let i = 0; i < nx;) {
-      if (row[i] === undefined) {
-        i++;
-        continue;
-      }
-      const fill = bucketColour(row[i]!);
-      let k = i + 1;
-      while (k < nx && row[k] !== undefined && bucketColour(row[k]!) === fill) k++;
-      (groups.get(fill) ?? groups.set(fill, []).get(fill)!).push(run(i, k, j));
-      i = k;
-    }
-    for (let i = 0; i < nx;) {
-      if (!isFlat(row[i])) {
-        i++;
-        continue;
-      }
-      let k = i + 1;
-      while (k < nx && isFlat(row[k])) k++;
-      flatRuns.push(run(i, k, j));
-      i = k;
-    }
-  }
-  return {
-    fills: [...groups].map(([fill, ds]) => ({ fill, d: ds.join("") })),
-    flat: flatRuns.join(""),
-    grid: { x: r2(b.minX), y: r2(-(b.minY + ny * cell)), cell },
-  };
-}
-
-/** Catchments from the engine's mesh (coarsened: the surface does not depend on joist spacing). */
-function catchmentFaces(spec: RoofSpec, area: number): FigureData["fills"] {
+/** The engine's mesh, coarsened for a figure (the surface does not depend on joist spacing). */
+function figureMesh(spec: RoofSpec, area: number) {
   const coarse: RoofSpec = {
     ...spec,
     joists: { ...spec.joists, spacing: Math.max(spec.joists?.spacing ?? 0.4, Math.sqrt(area / 300)) },
   };
-  const mesh = analyse(structuredClone(coarse), { traces: false }).shaped.mesh;
+  return analyse(coarse, { traces: false }).shaped.mesh ?? null;
+}
+
+/**
+ * The fall map as vector shapes: every face of the engine's mesh, coloured by its own steepest
+ * fall (the mesh's faceRatio) and grouped by colour; faces flatter than the minimum (or level)
+ * also go into the hatched path. Drawn in plan metres, so it stays sharp at any size.
+ */
+function fallFaces(spec: RoofSpec, area: number, minRatio: number) {
+  const mesh = figureMesh(spec, area);
+  if (!mesh) return { fills: [], flat: "" };
+  const groups = new Map<string, string[]>();
+  const flat: string[] = [];
+  for (let f = 0; f < mesh.indices.length / 3; f++) {
+    const ratio = mesh.faceRatio[f];
+    const d = tri(mesh.positions, mesh.indices[f * 3], mesh.indices[f * 3 + 1], mesh.indices[f * 3 + 2]);
+    const fill = bucketColour(ratio != null && Number.isFinite(ratio) ? ratio : null);
+    (groups.get(fill) ?? groups.set(fill, []).get(fill)!).push(d);
+    if (ratio == null || !Number.isFinite(ratio) || ratio > minRatio) flat.push(d);
+  }
+  return { fills: [...groups].map(([fill, ds]) => ({ fill, d: ds.join("") })), flat: flat.join("") };
+}
+
+/** Catchments from the engine's mesh (coarsened: the surface does not depend on joist spacing). */
+function catchmentFaces(spec: RoofSpec, area: number): FigureData["fills"] {
+  const mesh = figureMesh(spec, area);
   if (!mesh) return [];
   const groups = new Map<string, string[]>();
   for (let f = 0; f < mesh.indices.length / 3; f++) {
@@ -157,7 +89,7 @@ function catchmentFaces(spec: RoofSpec, area: number): FigureData["fills"] {
 /** Draws one figure from the engine's output; key figures come from the roof exactly as specified. */
 export function buildFigure(figure: Figure): FigureData {
   const base = { caption: figure.caption, view: figure.view, spec: figure.spec as RoofSpec };
-  const parsed = parseSpec(structuredClone(figure.spec));
+  const parsed = parseSpec(figure.spec);
   if (!parsed.ok) return { ...empty(base), error: parsed.error.message };
   const spec = parsed.spec;
   const xs = spec.outline.map((p) => p[0]);
@@ -165,15 +97,13 @@ export function buildFigure(figure: Figure): FigureData {
   const [minX, maxX, minY, maxY] = [Math.min(...xs), Math.max(...xs), Math.min(...ys), Math.max(...ys)];
   const span = Math.max(maxX - minX, maxY - minY, 1);
   const pad = span * 0.06;
-  const a = analyse(structuredClone(spec), { traces: false, mesh: false });
+  const a = analyse(spec, { traces: false, mesh: false });
   const n = spec.outline.length;
   const kinds = spec.edges ?? [];
   let fills: FigureData["fills"] = [];
   let flat = "";
-  let grid: FigureData["grid"] = null;
   if (figure.view === "catchments") fills = catchmentFaces(spec, a.area);
-  else if (figure.view === "plan" || figure.view === "3d")
-    ({ fills, flat, grid } = fallGrid(spec, { minX, minY, span, w: maxX - minX, h: maxY - minY }, a.minFall.ratio));
+  else if (figure.view === "plan" || figure.view === "3d") ({ fills, flat } = fallFaces(spec, a.area, a.minFall.ratio));
   const line = a.shaped.longestFallLine;
   return {
     ...base,
@@ -187,7 +117,7 @@ export function buildFigure(figure: Figure): FigureData {
     outlets: spec.outlets.map((o) => [r2(o.at[0]), r2(-o.at[1])]),
     fills,
     flat,
-    grid,
+    grid: null,
     longest: line
       ? {
           d: (line.path.length >= 2 ? line.path : [line.from, line.to])

@@ -6,7 +6,7 @@ import { analyse, formatRatio, parseSpec } from "../../engine";
 import type { Analysis, RoofSpec } from "../../engine/types";
 import { checkCriterion, CRITERION_KINDS, formatLimit } from "./criteria";
 import { changedFixedKeys } from "./fixed-parts";
-import { cappedScore } from "./grading-rule";
+import { BLANK_QUIZ_LABEL, cappedScore } from "./grading-rule";
 import { dimensionName, parseQuantity, parseRatio, quantityOf, sameDimension, valueIn } from "./quantity";
 import type { Criterion, FrontMatter, Question, Task } from "./schema";
 
@@ -146,7 +146,9 @@ export function gradeChoice(
 ): Omit<ItemResult, "section" | "label"> {
   const base = { id: q.id, weight: q.weight };
   const correct = new Set(Array.isArray(q.correct) ? q.correct : [q.correct]);
-  const picked = new Set((Array.isArray(given) ? given : given ? [given] : []).filter((g) => typeof g === "string"));
+  const picked = new Set(
+    (Array.isArray(given) ? given : given ? [given] : []).filter((g) => typeof g === "string" && g.trim() !== ""),
+  );
   const textOf = (id: string) => q.options.find((o) => o.id === id)?.text ?? id;
   const why = q.explanation ? ` ${q.explanation}` : "";
   const measured = picked.size ? [...picked].map(textOf).join("; ") : null;
@@ -232,6 +234,12 @@ export function gradeTask(task: Task, submitted: unknown): TaskGrade {
   return { ok: true, items, analysis, spec };
 }
 
+/** True when a question has an answer: text that is not blank, or at least one picked option. */
+export function isAnswered(given: string | string[] | undefined): boolean {
+  if (Array.isArray(given)) return given.some((g) => typeof g === "string" && g.trim() !== "");
+  return typeof given === "string" && given.trim() !== "";
+}
+
 /** Grades a whole lesson attempt: every question and the roof task, by the rule in grading-rule.ts. */
 export function gradeLesson(
   lesson: Pick<FrontMatter, "quiz" | "task" | "passMark">,
@@ -245,8 +253,24 @@ export function gradeLesson(
   const weight = all.reduce((s, i) => s + i.weight, 0);
   const earned = all.reduce((s, i) => s + i.score, 0);
   const rawScore = weight > 0 ? Math.round((1000 * earned) / weight) / 10 : 0;
-  const requiredMet = all.every((i) => !i.required || i.passed);
-  const score = requiredMet ? rawScore : cappedScore(rawScore, lesson.passMark);
+  // Rule 2 of grading-rule.ts: a blank quiz scores 0, whatever the roof earned (the task's
+  // points alone once gave a blank quiz 55.6 of 100).
+  const blankQuiz = lesson.quiz.length > 0 && lesson.quiz.every((q) => !isAnswered(answers[q.id]));
+  if (blankQuiz)
+    quiz.unshift({
+      id: "quiz-answered",
+      section: "quiz",
+      label: BLANK_QUIZ_LABEL,
+      passed: false,
+      score: 0,
+      weight: 0,
+      required: true,
+      feedback:
+        "No question was answered. A blank quiz scores 0, whatever the roof earns: answer the quiz and submit again.",
+      measured: null,
+    });
+  const requiredMet = !blankQuiz && all.every((i) => !i.required || i.passed);
+  const score = blankQuiz ? 0 : requiredMet ? rawScore : cappedScore(rawScore, lesson.passMark);
   return {
     score,
     rawScore,

@@ -4,8 +4,11 @@
  * so a grade never contradicts itself ("100 / 100 Not passed" cannot appear).
  *
  * 1. Score: points earned over points available, 0-100, one decimal.
- * 2. A required check that fails means Not passed, and the score is capped just below the pass
- *    mark (pass mark − 1, never below 0), so the figure itself says "not passed".
+ * 2. A quiz left blank (no question answered) scores 0 and is Not passed, whatever the roof task
+ *    earned: the task's points alone never make a grade. It shows as the failed required check
+ *    BLANK_QUIZ_LABEL. Any other required check that fails means Not passed, and the score is
+ *    capped just below the pass mark (pass mark − 1, never below 0), so the figure itself says
+ *    "not passed".
  * 3. Otherwise a score below the pass mark is Not passed; at or above it, Passed.
  * 4. A trainer's override replaces score and result together, with a reason; its result must agree
  *    with its score and the pass mark (rule 3).
@@ -14,9 +17,13 @@
 export const GRADING_RULE_LINES = (passMark: number) => [
   `Your score is the points you earn out of the points available, from 0 to 100.`,
   `You pass at ${passMark} or more, if every required check is met.`,
+  `A question left blank earns nothing, and a quiz left wholly blank scores 0, whatever the roof earns.`,
   `A required check that is not met means Not passed, whatever the points: the score is capped at ${cappedScore(100, passMark)}.`,
   `A trainer may change a grade with a reason; the new score and result follow the same pass mark.`,
 ];
+
+/** The label of the required item a wholly blank quiz fails (grade.ts adds it; rule 2). */
+export const BLANK_QUIZ_LABEL = "Answer the quiz";
 
 /** The score that counts when a required check failed: just below the pass mark. */
 export function cappedScore(raw: number, passMark: number): number {
@@ -65,6 +72,15 @@ export function readGrade(g: GradeInput): GradeReading {
       reason: g.override.passed
         ? null
         : `Not passed by the trainer's decision${g.override.reason ? `: ${g.override.reason}` : ""}.`,
+    };
+  }
+  if (g.failedRequired.includes(BLANK_QUIZ_LABEL)) {
+    return {
+      score: 0,
+      passed: false,
+      overridden: false,
+      why: "required",
+      reason: "No quiz question was answered. A blank quiz scores 0 and is Not passed, whatever the roof earns.",
     };
   }
   if (g.failedRequired.length) {

@@ -57,6 +57,8 @@ const numericQuestion = z
     bareUnit: z.string().optional(),
     weight: z.number().positive().max(100).default(1),
     explanation: z.string().default(""),
+    /** Said on request before answering: teaches the way to the answer without giving it. Every lesson question has one. */
+    hint: z.string().trim().default(""),
   })
   .superRefine((q, ctx) => {
     const answer = parseQuantity(q.answer);
@@ -107,6 +109,8 @@ const ratioQuestion = z
     tolerance: z.number().min(0).optional(),
     weight: z.number().positive().max(100).default(1),
     explanation: z.string().default(""),
+    /** Said on request before answering: teaches the way to the answer without giving it. Every lesson question has one. */
+    hint: z.string().trim().default(""),
   })
   .superRefine((q, ctx) => {
     if (typeof q.answer === "number") {
@@ -135,6 +139,8 @@ const choiceQuestion = z
     correct: z.union([id, z.array(id).min(1)], { error: "must be an option id or a list of option ids" }),
     weight: z.number().positive().max(100).default(1),
     explanation: z.string().default(""),
+    /** Said on request before answering: teaches the way to the answer without giving it. Every lesson question has one. */
+    hint: z.string().trim().default(""),
   })
   .superRefine((q, ctx) => {
     const ids = q.options.map((o) => o.id);
@@ -262,6 +268,14 @@ export const frontMatterSchema = z
   .strict()
   .superRefine((l, ctx) => {
     const qids = l.quiz.map((q) => q.id);
+    l.quiz.forEach((q, i) => {
+      if (!q.hint)
+        ctx.addIssue({
+          code: "custom",
+          path: ["quiz", i, "hint"],
+          message: "every question needs a hint that teaches the way to the answer without giving it away",
+        });
+    });
     qids.forEach((q, i) => {
       if (qids.indexOf(q) !== i)
         ctx.addIssue({ code: "custom", path: ["quiz", i, "id"], message: `"${q}" is used twice` });

@@ -46,6 +46,8 @@ export interface LessonView extends LessonSummary {
     id: string;
     kind: "numeric" | "ratio" | "choice";
     promptHtml: string;
+    /** Shown on request: the way to the answer, not the answer. */
+    hintHtml: string;
     weight: number;
     options?: { id: string; html: string }[];
     multiple?: boolean;

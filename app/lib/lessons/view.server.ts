@@ -36,6 +36,7 @@ export function lessonView(l: Lesson): LessonView {
       id: q.id,
       kind: q.kind,
       promptHtml: renderInline(q.prompt),
+      hintHtml: renderInline(q.hint),
       weight: q.weight,
       ...(q.kind === "choice"
         ? {

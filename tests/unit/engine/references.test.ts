@@ -267,6 +267,10 @@ describe("rule sets against their cited clauses (docs/check-values.md, Falls and
     expect(v.clause).toBe("1507.10.1-1507.15.1");
     expect(v.confidence).toBe("page");
     close(fallFromRatio(v.value).percent, 2.083, 0.001);
+    // Applying it to every fall line is an interpretation, marked derived.
+    const line = RULE_SETS["us-ibc-2018"].values.fallLine!;
+    expect(line.confidence).toBe("derived");
+    expect(line.note).toMatch(/interpretation/);
   });
 
   it("IPC 2015 1108.3: minimum scupper opening 4 in = 0.1016 m (page)", () => {
@@ -275,10 +279,21 @@ describe("rule sets against their cited clauses (docs/check-values.md, Falls and
     expect(v.clause).toBe("1108.3");
   });
 
-  it("AS 4654.2-2012 cl 2.5.2: 1:100 to outlets; NCC 2019 Vol 2 3.5.3.2: box gutters 1:100; VBA 2016: 300 × 75 mm", () => {
-    const au = RULE_SETS["au-ncc-2022"].values;
+  it("AS 4654.2-2012 cl 2.5.2: 1:100 to outlets; NCC 2019 Vol 2 Part 3.5.3 (installing gutters): box gutters 1:100; VBA 2016: 300 × 75 mm", () => {
+    const set = RULE_SETS["au-ncc-2022"];
+    const au = set.values;
     expect([au.fallLine!.value, au.fallLine!.clause]).toEqual([100, "2.5.2"]);
-    expect([au.gutterFall!.value, au.gutterFall!.clause]).toEqual([100, "3.5.3.2"]);
+    // The installation clause, not 3.5.3.2 (clause number from memory, marked so); housing provisions, for houses.
+    expect([au.gutterFall!.value, au.gutterFall!.clause, au.gutterFall!.confidence]).toEqual([
+      100,
+      "Part 3.5.3, installation of gutters",
+      "memory",
+    ]);
+    expect(au.gutterFall!.document).toMatch(/houses/);
+    // One set of editions throughout: the name cites the editions its values were read in.
+    expect(set.name).toContain("NCC 2019");
+    expect(set.name).not.toContain("NCC 2022");
+    expect(JSON.stringify(set)).not.toContain("3.5.3.2");
     expect([au.gutterWidth!.value, au.gutterDepth!.value]).toEqual([0.3, 0.075]);
     expect([au.sumpDepth!.value, au.sumpDepth!.clause]).toEqual([0.15, "3.7.4(e)"]);
   });
@@ -291,16 +306,25 @@ describe("rule sets against their cited clauses (docs/check-values.md, Falls and
     expect(nz.gutterRainfallFactor!.value).toBe(2);
   });
 
-  it("DIN 18531-1:2017 6.3.1: 2 % plan fall; DIN 18531-5 6.2: 1 % valleys", () => {
+  it("DIN 18531-1:2017 6.3.1: 2 % plan fall and 1 % valleys (part 1, as far as known; part 5 is balconies)", () => {
     const de = RULE_SETS["de-din-18531"].values;
     expect([de.fieldFall!.value, de.fieldFall!.clause]).toEqual([50, "6.3.1"]);
-    expect([de.fallLine!.value, de.fallLine!.clause]).toEqual([100, "6.2"]);
+    expect([de.fallLine!.value, de.fallLine!.document, de.fallLine!.clause, de.fallLine!.confidence]).toEqual([
+      100,
+      "DIN 18531-1:2017",
+      "6.3.1",
+      "memory",
+    ]);
   });
 
   it("BS 6229:2018: design 1:40 for 1:80 as built, with no clause found", () => {
     const uk = RULE_SETS["uk-bs-6229"].values;
     expect([uk.fieldFall!.value, uk.fallLine!.value]).toEqual([40, 80]);
     expect(uk.fieldFall!.clause).toBeNull();
+    // 1:40 is design advice; 1:80 is an as-built value, applied to design fall lines by derivation.
+    expect(uk.fieldFall!.note).toMatch(/design advice/);
+    expect(uk.fallLine!.note).toMatch(/as-built/);
+    expect(uk.fallLine!.confidence).toBe("derived");
   });
 
   it("labels trade habits as common practice, with no document or clause", () => {

@@ -1,6 +1,15 @@
 import { describe, expect, it } from "vitest";
 import { gradeLesson } from "~/lib/lessons/grade";
-import { cappedScore, GRADING_RULE_LINES, overrideProblem, readGrade } from "~/lib/lessons/grading-rule";
+import path from "node:path";
+import { failedRequiredOf } from "~/lib/lessons/grade";
+import {
+  BLANK_QUIZ_LABEL,
+  cappedScore,
+  GRADING_RULE_LINES,
+  overrideProblem,
+  readGrade,
+} from "~/lib/lessons/grading-rule";
+import { loadLessons } from "~/lib/lessons/load.server";
 import { questionSchema, taskSchema } from "~/lib/lessons/schema";
 
 // Issue 16, item 1: one grading rule, read the same everywhere. One test per rule.
@@ -118,9 +127,33 @@ describe("the grading rule", () => {
     expect(overrideProblem({ score: 69.9, passed: false }, 70)).toBeNull();
   });
 
+  it("a blank quiz scores 0 and is Not passed, even beside a roof that meets every criterion (was 55.6 of 100)", () => {
+    // The reported case: lesson 3 (outlets and overflows) with its reference roof and no answer.
+    const outlets = loadLessons(path.resolve("lessons")).find((l) => l.slug === "outlets-and-overflows")!;
+    for (const blank of [{}, Object.fromEntries(outlets.quiz.map((q) => [q.id, q.kind === "choice" ? [] : "  "]))]) {
+      const r = gradeLesson(outlets, blank, outlets.task.reference);
+      if ("ok" in r) throw new Error(r.message);
+      expect(r.task.every((i) => i.passed)).toBe(true);
+      expect(r.quiz.filter((i) => i.score > 0)).toEqual([]);
+      expect(r).toMatchObject({ score: 0, passed: false });
+      expect(r.rawScore).toBeGreaterThan(0);
+      const failed = failedRequiredOf(r);
+      expect(failed).toEqual([BLANK_QUIZ_LABEL]);
+      const read = readGrade({ score: r.score, passed: r.passed, passMark: r.passMark, failedRequired: failed });
+      expect(read).toMatchObject({ score: 0, passed: false, why: "required" });
+      expect(read.reason).toMatch(/^No quiz question was answered/);
+    }
+    // One answer (even a wrong one) makes it a quiz attempt again: the task's points count.
+    const one = gradeLesson(outlets, { [outlets.quiz[0].id]: "1 mm" }, outlets.task.reference);
+    if ("ok" in one) throw new Error(one.message);
+    expect(one.score).toBeGreaterThan(0);
+    expect(one.quiz.some((i) => i.id === "quiz-answered")).toBe(false);
+  });
+
   it("is stated in words with the lesson's own pass mark and cap", () => {
     const lines = GRADING_RULE_LINES(80).join(" ");
     expect(lines).toContain("You pass at 80 or more");
     expect(lines).toContain("capped at 79");
+    expect(lines).toContain("a quiz left wholly blank scores 0");
   });
 });

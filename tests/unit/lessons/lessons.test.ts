@@ -129,8 +129,8 @@ describe("a broken lesson file names the file and the field", () => {
   });
 
   it("names a numeric answer without a unit", () => {
-    expect(problems("02-bad.md", good.replace("answer: 150 mm", "answer: 150"))).toMatch(
-      /02-bad\.md: quiz\.0\.answer: "150" needs a unit/,
+    expect(problems("02-bad.md", good.replace("answer: 90 mm", "answer: 90"))).toMatch(
+      /02-bad\.md: quiz\.0\.answer: "90" needs a unit/,
     );
   });
 
@@ -145,7 +145,7 @@ describe("a broken lesson file names the file and the field", () => {
     expect(msg).toMatch(/03-bad\.md: task\.criteria\.0\.value: .*quotes/);
     const spec = problems("03-bad.md", good.replace('baseFall: "1:150"', "baseFall: 1:40"));
     expect(spec).toMatch(/03-bad\.md: task\.start: roof spec baseFall: write the fall as text in quotes/);
-    const quiz = problems("03-bad.md", good.replace('answer: "1:40"', "answer: 1:40"));
+    const quiz = problems("03-bad.md", good.replace('answer: "1:62.5"', "answer: 1:40"));
     expect(quiz).toMatch(/03-bad\.md: quiz\.1\.answer: write the ratio in quotes/);
   });
 
@@ -164,8 +164,14 @@ describe("a broken lesson file names the file and the field", () => {
     expect(problems("05-bad.md", good.replace("kind: highLevelAtMost", "kind: highLevelBelow"))).toMatch(
       /05-bad\.md: task\.criteria\.1\.kind: must be one of/,
     );
-    expect(problems("05-bad.md", good.replace("correct: d", "correct: z"))).toMatch(
+    expect(problems("05-bad.md", good.replace("correct: b\n", "correct: z\n"))).toMatch(
       /05-bad\.md: quiz\.4\.correct: "z" is not one of the option ids/,
+    );
+  });
+
+  it("names a question without a hint", () => {
+    expect(problems("05-bad.md", good.replace(/^ {4}hint: "1:N means.*\n/m, ""))).toMatch(
+      /05-bad\.md: quiz\.0\.hint: every question needs a hint/,
     );
   });
 
@@ -192,7 +198,7 @@ describe("a broken lesson file names the file and the field", () => {
   });
 
   it("lists every problem at once", () => {
-    const msg = problems("10-bad.md", good.replace(/^passMark: 70\n/m, "").replace("answer: 150 mm", "answer: 150"));
+    const msg = problems("10-bad.md", good.replace(/^passMark: 70\n/m, "").replace("answer: 90 mm", "answer: 90"));
     expect(msg).toMatch(/^2 problems/);
   });
 });
