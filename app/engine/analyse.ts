@@ -24,7 +24,10 @@ import { RULE_SETS, ruleValue } from "./rule-sets";
 import { levelAt } from "./surface";
 import { flowTraces } from "./traces";
 import { twistWarnings } from "./twist";
-import type { Analysis, FallLine, RoofSpec, Warning } from "./types";
+import type { Analysis, FallLine, Point, RoofSpec, Warning } from "./types";
+import { pointInside } from "./areas";
+import { raiseCrickets } from "./crickets";
+import { mergeAreas } from "./merge-areas";
 import { drainName, outletName } from "./names";
 
 export interface AnalyseOptions {
@@ -75,6 +78,7 @@ export function analyseRoof(roof: Roof, options: AnalyseOptions = {}): Analysis 
  * their own.
  */
 function analyseWithAdvice(memory: Arena, roof: Roof, options: AnalyseOptions): Analysis {
+  if (roof.parts.length) return analyseAreas(memory, roof, options);
   const analysis = analyseWith(memory, roof, options, false);
   const light: AnalyseOptions = {
     mesh: false,
@@ -86,6 +90,51 @@ function analyseWithAdvice(memory: Arena, roof: Roof, options: AnalyseOptions): 
     analyseWith(memory, turned, light, true),
   );
   return analysis;
+}
+
+/**
+ * A roof divided by ridges (docs/roof-method-plans.md P4): H is the highest of the areas' own
+ * needs (or the given level), each area is shaped on its own up to it, and the answers are put
+ * together. The joist direction advice is not given for divided roofs yet.
+ */
+function analyseAreas(memory: Arena, roof: Roof, options: AnalyseOptions): Analysis {
+  const slope = 1 / roof.baseFall.ratio;
+  const own = roof.parts.map((p) => highLevelFor(drainSpans(p.roof), slope));
+  const H = roof.highLevelGiven ?? Math.max(...own);
+  const parts = roof.parts.map((part, k) => ({
+    part,
+    analysis: analyseWith(memory, { ...part.roof, highLevelGiven: H }, options, true),
+    ownHighLevel: own[k],
+  }));
+  const first = parts[0].analysis;
+  const gutter = gutterLayout(roof);
+  const warnings: Warning[] = [];
+  if (gutter.comparable && gutter.narrowGutterOutlets.length) {
+    warnings.push({
+      code: "narrow-gutter",
+      message: `In the gutter layout, a ${mm(gutter.width)} gutter is too narrow for a clamped outlet at outlet ${gutter.narrowGutterOutlets.map(outletName).join(", ")}.`,
+    });
+  }
+  const whole: Analysis = {
+    ...first,
+    shaped: {
+      ...first.shaped,
+      highLevelSource: roof.highLevelGiven === null ? "derived" : "given",
+      joistDirection: [roof.dx, roof.dy],
+      setOut: { ...first.shaped.setOut, spacing: roof.spacing, fromOutlets: roof.fromOutlets },
+      openings: roof.holes.map((h) => ({ index: h.index, kind: h.kind, upstand: h.upstand, area: h.area })),
+      ridges: roof.ridges,
+    },
+    gutter,
+    openEdge: openEdgeOption(roof),
+    comparison: {
+      heightSaved: null,
+      flattestFall: { gutter: gutter.comparable ? gutter.fall.ratio : null, shaped: null },
+    },
+    warnings,
+    area: roof.area,
+  };
+  return mergeAreas(roof, whole, parts, H);
 }
 
 function analyseWith(memory: Arena, roof: Roof, options: AnalyseOptions, candidate: boolean): Analysis {
@@ -126,6 +175,7 @@ function analyseWith(memory: Arena, roof: Roof, options: AnalyseOptions, candida
     });
   }
   const mesh = buildMesh(roof, levels, joistU, { maxVertices: options.maxMeshVertices ?? MAX_MESH_VERTICES, memory });
+  raiseCrickets(roof, levels, mesh);
   if (mesh.coarsened) {
     warnings.push({
       code: "mesh-coarsened",
@@ -216,6 +266,18 @@ function analyseWith(memory: Arena, roof: Roof, options: AnalyseOptions, candida
     ponding,
     openings: roof.holes.map((h) => ({ index: h.index, kind: h.kind, upstand: h.upstand, area: h.area })),
     probes,
+    areas: [
+      {
+        id: 0,
+        at: roof.parts.length ? roof.parts[0].at : pointInside(outlineOf(roof)),
+        outline: outlineOf(roof),
+        area: roof.area - roof.holeArea,
+        joistDirection: [roof.dx, roof.dy],
+        outlets: roof.outlets.map((o) => o.index).sort((a, b) => a - b),
+        highLevel: derivedH,
+      },
+    ],
+    ridges: roof.ridges,
   };
   if (options.mesh === "typed") shaped.meshBuffers = meshBuffers(roof, mesh, faces.slope2, faces.drain);
   else if (options.mesh !== false) shaped.mesh = meshArrays(roof, mesh, faces.slope2, faces.drain);
@@ -242,6 +304,9 @@ function analyseWith(memory: Arena, roof: Roof, options: AnalyseOptions, candida
     area: roof.area,
   };
 }
+
+/** The outline in request coordinates, counter-clockwise. */
+const outlineOf = (roof: Roof): Point[] => Array.from(roof.xs, (x, i): Point => [x + roof.ox, roof.ys[i] + roof.oy]);
 
 const mm = (m: number) => `${Math.round(m * 1000)} mm`;
 const pt = (p: [number, number]) => `(${p[0].toFixed(2)}, ${p[1].toFixed(2)})`;

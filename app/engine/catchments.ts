@@ -31,7 +31,8 @@ export function catchmentsOf(roof: Roof, mesh: SurfaceMesh, routing: Routing, fa
       flow,
     };
     if (d.kind === "outlet") {
-      const o = roof.outlets[d.index];
+      // Outlet drains come first, in the roof's outlet order: drain id k is roof.outlets[k].
+      const o = roof.outlets[id];
       c.capacity = outletCapacity(o.size);
       if (flow > c.capacity) {
         warnings.push({

@@ -66,7 +66,8 @@ export function fallLines(
     let to = destinations.get(id);
     if (!to) {
       const drain = routing.drains[id];
-      const o = drain.kind === "outlet" ? roof.outlets[drain.index] : null;
+      // Outlet drains come first, in the roof's outlet order: drain id k is roof.outlets[k].
+      const o = drain.kind === "outlet" ? roof.outlets[id] : null;
       to = o ? geodesic.toPoint(o.x, o.y) : geodesic.toEdge(drain.index);
       destinations.set(id, to);
     }
@@ -80,7 +81,7 @@ export function fallLines(
   const radius = 1.6 * cell;
   for (const [sx, sy, outlet] of fallLineStarts(roof, levels)) {
     const candidates = new Set<number>();
-    if (outlet >= 0) candidates.add(routing.drains.findIndex((d) => d.kind === "outlet" && d.index === outlet));
+    if (outlet >= 0) candidates.add(outlet);
     else drainsWithin(mesh, routing, sx * roof.dy - sy * roof.dx, sx * roof.dx + sy * roof.dy, radius, candidates);
     let id = -1;
     let path: ReturnType<Geodesic["path"]> | null = null;

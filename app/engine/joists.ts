@@ -96,7 +96,7 @@ export function dropSchedule(roof: Roof, levels: PerimeterLevels, positions: Flo
         if (v0 < to.v) push(v0, at(v0), to.v, to.z);
       }
     }
-    joists.push({ index: k, offset: u - roof.umin, spans });
+    joists.push({ index: k, area: 0, offset: u - roof.umin, spans });
   }
   return joists;
 }

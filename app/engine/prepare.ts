@@ -2,7 +2,8 @@ import { fallFromRatio, parseFall, type Fall } from "./fall";
 import { signedArea } from "./geometry/area";
 import { nearestOnSegment, orient, segmentsTouch } from "./geometry/segments";
 import { insidePolygon } from "./geometry/inside";
-import type { Hole, Outlet, Roof } from "./roof";
+import type { AreaPart, Hole, Outlet, Roof } from "./roof";
+import { boundaryDistance, divideOutline, insideOrOn, pointInside, type Face } from "./areas";
 import { offsetFromOutlets } from "./setout";
 import { DEFAULT_RULE_SET, RULE_SETS, ruleValue, type RuleSetId, type UsedRule } from "./rule-sets";
 import type { EdgeKind, Point, RoofSpec } from "./types";
@@ -62,15 +63,6 @@ export function prepareRoof(spec: RoofSpec): Prepared {
     if (kinds && kinds.length === pts.length + 1) kinds = kinds.slice(0, -1);
   }
   const n = pts.length;
-  const unbuilt = spec as { ridges?: unknown[]; areas?: unknown[] };
-  for (const key of ["ridges", "areas"] as const) {
-    if (unbuilt[key]?.length)
-      return fail(
-        422,
-        key,
-        "drainage areas divided by ridges are not built yet: analyse each area as a roof of its own for now",
-      );
-  }
   if (n > LIMITS.maxVertices) return fail(400, "outline", `allows at most ${LIMITS.maxVertices} vertices (got ${n})`);
   if (kinds && kinds.length !== n) return fail(400, "edges", `needs one kind per edge: ${n} (got ${kinds.length})`);
 
@@ -285,8 +277,184 @@ export function prepareRoof(spec: RoofSpec): Prepared {
     holes,
     holeArea: holes.reduce((sum, h) => sum + h.area, 0),
     tol,
+    parts: [],
+    crickets: [],
+    ridges: (spec.ridges ?? []).map((r, index) => ({
+      index,
+      kind: r.kind ?? "divide",
+      line: r.line.map((p): Point => [p[0], p[1]]),
+    })),
   };
+  for (const r of roof.ridges) {
+    if (r.kind !== "cricket") continue;
+    const [a, b] = r.line;
+    for (const p of [a, b]) {
+      if (!insideOrOn(pts, p, LIMITS.outletSnap))
+        return fail(422, `ridges.${r.index}.line`, `cricket ${r.index + 1} runs off the roof at (${p[0]}, ${p[1]})`);
+    }
+    if (Math.hypot(b[0] - a[0], b[1] - a[1]) < LIMITS.minEdge)
+      return fail(422, `ridges.${r.index}.line`, `cricket ${r.index + 1} has no length`);
+    roof.crickets.push({ index: r.index, x0: a[0] - ox, y0: a[1] - oy, x1: b[0] - ox, y1: b[1] - oy });
+  }
+  const dividing = roof.ridges.filter((r) => r.kind === "divide");
+  if (!dividing.length) {
+    if (spec.areas?.length)
+      return fail(422, "areas.0.at", "names a drainage area, but no ridge divides the roof: set the roof's own joists");
+    return { ok: true, roof };
+  }
+  const parts = prepareParts(spec, pts, kinds, roof, dividing);
+  if (!Array.isArray(parts)) return parts;
+  roof.parts = parts;
   return { ok: true, roof };
+}
+
+/**
+ * The drainage areas of a roof divided by ridges (docs/roof-method-plans.md P4), each prepared as
+ * a roof of its own whose outlets, openings and eaves edges keep the whole roof's request numbers.
+ */
+function prepareParts(
+  spec: RoofSpec,
+  pts: Point[],
+  kinds: EdgeKind[] | undefined,
+  whole: Roof,
+  dividing: Roof["ridges"],
+): AreaPart[] | Prepared {
+  const snap = LIMITS.outletSnap;
+  const rings = (spec.openings ?? []).map((o) => o.outline);
+  const division = divideOutline(
+    pts,
+    dividing.map((r) => [r.index, r.line]),
+    rings,
+    snap,
+  );
+  if (!division.ok) return fail(422, division.path, division.message);
+  const faces = division.faces;
+  const strictlyIn = (f: Face, p: Point) =>
+    insidePolygon(
+      f.pts.map((q) => q[0]),
+      f.pts.map((q) => q[1]),
+      p[0],
+      p[1],
+    ) && boundaryDistance(f.pts, p) > snap;
+
+  const entryOf = new Map<number, number>();
+  const settings = spec.areas ?? [];
+  for (let k = 0; k < settings.length; k++) {
+    const holding = faces.flatMap((f, i) => (strictlyIn(f, settings[k].at) ? [i] : []));
+    if (holding.length !== 1)
+      return fail(422, `areas.${k}.at`, "is not inside a drainage area: it lies on a ridge or outside the roof");
+    const other = entryOf.get(holding[0]);
+    if (other !== undefined) return fail(422, `areas.${k}.at`, `names the same drainage area as areas.${other}.at`);
+    entryOf.set(holding[0], k);
+  }
+
+  // Each outlet belongs to the area whose outline walls hold it; one at a ridge's end is refused.
+  const outletFace = new Map<number, number>();
+  for (const o of whole.outlets) {
+    const p: Point = [o.x + whole.ox, o.y + whole.oy];
+    for (const r of dividing) {
+      for (const end of [r.line[0], r.line[r.line.length - 1]]) {
+        if (Math.hypot(end[0] - p[0], end[1] - p[1]) <= snap * 1.5)
+          return fail(
+            422,
+            `outlets.${o.index}.at`,
+            `outlet ${outletName(o.index)} sits at the end of ridge ${r.index + 1}: move it off the ridge, into one area`,
+          );
+      }
+    }
+    const f = faces.findIndex((face) =>
+      face.tags.some((tag, i) => {
+        if (tag.kind !== "outline") return false;
+        const a = face.pts[i],
+          b = face.pts[(i + 1) % face.pts.length];
+        return nearestOnSegment(a[0], a[1], b[0], b[1], p[0], p[1]).distance <= snap;
+      }),
+    );
+    outletFace.set(o.index, f);
+  }
+
+  const probes = spec.probes ?? [];
+  const probeFace = probes.map((p) => faces.findIndex((f) => insideOrOn(f.pts, p, snap)));
+  const parts: AreaPart[] = [];
+  for (let f = 0; f < faces.length; f++) {
+    const face = faces[f];
+    const entry = entryOf.get(f);
+    const at = entry !== undefined ? settings[entry].at : pointInside(face.pts);
+    const outlets = whole.outlets.filter((o) => outletFace.get(o.index) === f);
+    const edgeKinds = face.tags.map((t): EdgeKind =>
+      t.kind === "outline" ? (kinds?.[t.edge] ?? "parapet") : "parapet",
+    );
+    if (!outlets.length && !edgeKinds.includes("eaves"))
+      return fail(
+        422,
+        entry !== undefined ? `areas.${entry}.at` : "ridges",
+        `the drainage area around (${+at[0].toFixed(3)}, ${+at[1].toFixed(3)}) has no outlet and no eaves edge: the water has nowhere to go. Add an outlet on its walls or move a ridge.`,
+      );
+    const openings = rings.flatMap((ring, i) => (insideOrOn(face.pts, ring[0], 0) ? [i] : []));
+    const own = entry !== undefined ? settings[entry].joists : undefined;
+    const sub: RoofSpec = {
+      outline: face.pts,
+      edges: edgeKinds,
+      outlets: outlets.map((o) => ({
+        at: [o.x + whole.ox, o.y + whole.oy],
+        level: o.level,
+        size: o.size,
+      })),
+      baseFall: spec.baseFall,
+      ...(spec.minFall !== undefined ? { minFall: spec.minFall } : {}),
+      ...(spec.gutter ? { gutter: spec.gutter } : {}),
+      ...(spec.rainfall ? { rainfall: spec.rainfall } : {}),
+      ...(spec.ruleSet ? { ruleSet: spec.ruleSet } : {}),
+      joists: {
+        spacing: own?.spacing ?? spec.joists?.spacing,
+        direction: own?.direction ?? spec.joists?.direction,
+        offset: own?.offset ?? spec.joists?.offset,
+        fromOutlets: spec.joists?.fromOutlets,
+      },
+      openings: openings.map((i) => spec.openings![i]),
+      probes: probeFace.flatMap((pf, i) => (pf === f ? [probes[i]] : [])),
+    };
+    const prepared = prepareRoof(sub);
+    if (!prepared.ok) {
+      const issue = prepared.issues[0];
+      const path = issue.path.startsWith("joists")
+        ? entry !== undefined
+          ? `areas.${entry}.${issue.path}`
+          : issue.path
+        : issue.path.startsWith("openings.")
+          ? issue.path.replace(/^openings\.(\d+)/, (_, j: string) => `openings.${openings[Number(j)]}`)
+          : issue.path.startsWith("outline")
+            ? "ridges"
+            : issue.path;
+      return fail(
+        prepared.status,
+        path,
+        `in the drainage area around (${+at[0].toFixed(3)}, ${+at[1].toFixed(3)}): ${issue.message}`,
+      );
+    }
+    const roof = prepared.roof;
+    roof.outlets.forEach((o, j) => (o.index = outlets[j].index));
+    roof.holes.forEach((h, j) => (h.index = openings[j]));
+    const tagOf = face.tags;
+    roof.userEdge = roof.userEdge.map((e) => (tagOf[e].kind === "outline" ? (tagOf[e] as { edge: number }).edge : -1));
+    roof.crickets = whole.crickets
+      .filter((c) => insideOrOn(face.pts, [c.x0 + whole.ox, c.y0 + whole.oy], snap))
+      .map((c) => ({
+        ...c,
+        x0: c.x0 + whole.ox - roof.ox,
+        y0: c.y0 + whole.oy - roof.oy,
+        x1: c.x1 + whole.ox - roof.ox,
+        y1: c.y1 + whole.oy - roof.oy,
+      }));
+    parts.push({
+      id: f,
+      at,
+      outline: face.pts,
+      roof,
+      probes: probeFace.flatMap((pf, i) => (pf === f ? [i] : [])),
+    });
+  }
+  return parts;
 }
 
 /**

@@ -82,6 +82,34 @@ export interface Roof {
   holeArea: number;
   /** Length tolerance for coincidence tests, scaled to the roof. */
   tol: number;
+  /** The drainage areas when ridges divide the roof (docs/roof-method-plans.md P4); empty otherwise. */
+  parts: AreaPart[];
+  /** Crickets on the deck (P5), in the local plan frame (x, y about the origin). */
+  crickets: CricketLine[];
+  /** Every ridge as drawn, in request order and coordinates. */
+  ridges: { index: number; kind: "divide" | "cricket"; line: Point[] }[];
+}
+
+/** A drainage area: its own roof, shaped on its own (docs/roof-method-plans.md P4). */
+export interface AreaPart {
+  id: number;
+  /** A point inside it (the settings entry's own when one names it). */
+  at: Point;
+  /** Counter-clockwise outline, request coordinates. */
+  outline: Point[];
+  /** Its roof: outlets, openings and eaves edges keep their request numbers. */
+  roof: Roof;
+  /** Request indices of the probes it answers. */
+  probes: number[];
+}
+
+/** A cricket's crest from the upstand (x0, y0) up the fall to (x1, y1), local plan frame. */
+export interface CricketLine {
+  index: number;
+  x0: number;
+  y0: number;
+  x1: number;
+  y1: number;
 }
 
 /** The opening holding frame point (u, v) strictly inside it, or -1 (its boundary is deck). */

@@ -84,10 +84,40 @@ export const roofSpecSchema = z.object({
       )
       .check(z.maxLength(50, "allows at most 50 openings")),
   ),
-  // Drainage areas (docs/roof-method-plans.md P4) are specified but not built yet: they are read
-  // here so that preparation refuses them by name instead of dropping them unseen.
-  ridges: z.optional(z.array(z.unknown()).check(z.maxLength(50))),
-  areas: z.optional(z.array(z.unknown()).check(z.maxLength(50))),
+  // Drainage areas (docs/roof-method-plans.md P4): ridges from wall to wall, and the joist
+  // settings of the area holding a point; crickets (P5) are ridges of their own kind.
+  ridges: z.optional(
+    z
+      .array(
+        z.object({
+          line: z
+            .array(point, { error: "must be a list of [x, y] points" })
+            .check(z.minLength(2, "needs at least 2 points"), z.maxLength(50, "allows at most 50 points")),
+          kind: z.optional(z.enum(["divide", "cricket"], { error: 'must be "divide" or "cricket"' })),
+        }),
+        { error: "must be a list of ridges {line: [[x, y], ...]}" },
+      )
+      .check(z.maxLength(50, "allows at most 50 ridges")),
+  ),
+  areas: z.optional(
+    z
+      .array(
+        z.object({
+          at: point,
+          joists: z.optional(
+            z.object({
+              spacing: z.optional(limited(0.05, 20, "must be at least 0.05 m", "must be at most 20 m")),
+              direction: z.optional(
+                point.check(z.refine(([x, y]) => Math.hypot(x, y) > 1e-9, "must not be the zero vector")),
+              ),
+              offset: z.optional(limited(0, 100_000)),
+            }),
+          ),
+        }),
+        { error: "must be a list of areas {at: [x, y], joists: {...}}" },
+      )
+      .check(z.maxLength(50, "allows at most 50 areas")),
+  ),
   ruleSet: z.optional(
     z.enum(RULE_SET_IDS as [string, ...string[]], { error: `must be one of ${RULE_SET_IDS.join(", ")}` }),
   ),

@@ -26,6 +26,37 @@ export interface RoofSpec {
   ruleSet?: RuleSetId;
   /** Rooflights, hatches, plant bases: holes in the drained deck with an upstand round them (docs/roof-method-plans.md P2). */
   openings?: Opening[];
+  /** Ridges dividing the roof into drainage areas, and crickets (docs/roof-method-plans.md P4, P5). */
+  ridges?: Ridge[];
+  /** Joist settings of the drainage area holding `at` (docs/roof-method-plans.md P4). */
+  areas?: AreaSetting[];
+}
+
+export interface Ridge {
+  line: Point[];
+  /** "divide" (default): from wall to wall, level at H; "cricket": a diverting ridge on the deck (P5). */
+  kind?: "divide" | "cricket";
+}
+
+export interface AreaSetting {
+  at: Point;
+  joists?: { spacing?: number; direction?: Point; offset?: number };
+}
+
+/** One drainage area of the answer (docs/roof-method-plans.md P4). */
+export interface DrainageArea {
+  id: number;
+  /** A point inside it: the settings entry's own, else one found inside. */
+  at: Point;
+  /** Its outline in plan (request coordinates), counter-clockwise. */
+  outline: Point[];
+  /** Drained plan area: its outline's less its openings', m². */
+  area: number;
+  joistDirection: Point;
+  /** Request indices of its outlets. */
+  outlets: number[];
+  /** Its own need: max over its drains of level + base fall × span (§3 on this area alone). */
+  highLevel: number;
 }
 
 export type OpeningKind = "rooflight" | "hatch" | "plant" | "other";
@@ -106,6 +137,8 @@ export interface JoistSpan {
 
 export interface Joist {
   index: number;
+  /** The drainage area it lies in (docs/roof-method-plans.md P4); 0 on a roof without ridges. */
+  area: number;
   /** Across the roof from its extreme edge, metres. */
   offset: number;
   spans: JoistSpan[];
@@ -239,6 +272,10 @@ export interface Analysis {
     /** Each opening (request order) with its plan area; the drained area is the outline's less these. */
     openings: { index: number; kind: OpeningKind; upstand: number; area: number }[];
     probes: { at: Point; level: number | null }[];
+    /** The drainage areas (docs/roof-method-plans.md P4): one, id 0, on a roof without ridges. */
+    areas: DrainageArea[];
+    /** The ridges drawn (request order) with their kind. */
+    ridges: { index: number; kind: "divide" | "cricket"; line: Point[] }[];
     /** Present unless options.mesh is false or "typed". */
     mesh?: Mesh;
     /** Present when options.mesh is "typed". */

@@ -61,11 +61,28 @@ export const BENCH_ROOFS: { name: string; area: number; frames: number; spec: Ro
     },
   },
   {
-    name: "medium with 5 openings (1,500 m²)",
+    name: "medium with 5 openings and 2 ridges (1,500 m²)",
     area: 1500,
     frames: 0.5,
-    // The medium L with three rooflights, a hatch and a plant base (one across a fall line).
+    // The medium L with three rooflights, a hatch and a plant base (one across a fall line),
+    // divided by two ridges into three drainage areas (docs/roof-method-plans.md P4): x = 25 from
+    // wall to wall, and y = 22 from the west wall to that ridge, the top-left area draining to an
+    // outlet of its own on the west wall.
     spec: {
+      ridges: [
+        {
+          line: [
+            [25, 0],
+            [25, 36],
+          ],
+        },
+        {
+          line: [
+            [0, 22],
+            [25, 22],
+          ],
+        },
+      ],
       outline: [
         [0, 0],
         [50, 0],
@@ -74,7 +91,7 @@ export const BENCH_ROOFS: { name: string; area: number; frames: number; spec: Ro
         [30, 36],
         [0, 36],
       ],
-      outlets: [{ at: [12.5, 0] }, { at: [37.5, 0] }],
+      outlets: [{ at: [12.5, 0] }, { at: [37.5, 0] }, { at: [0, 30] }],
       baseFall: "1:50",
       joists: { spacing: 0.4 },
       openings: [

@@ -13,10 +13,18 @@ export const PlanOverlays = memo(function PlanOverlays({ px }: { px: number }) {
     s.view.camera === "section" && s.analysis ? sectionJoistIndex(s.analysis.shaped.joists, s.view.sectionJoist) : -1,
   );
   const openings = useSandbox((s) => s.spec.openings);
-  if (!analysis) return openings?.length ? <Openings openings={openings} /> : null;
+  const ridges = useSandbox((s) => s.spec.ridges);
+  if (!analysis)
+    return (
+      <>
+        {openings?.length ? <Openings openings={openings} /> : null}
+        {ridges?.length ? <Ridges ridges={ridges} /> : null}
+      </>
+    );
   return (
     <g pointerEvents="none" opacity={stale ? 0.55 : 1}>
       {openings && openings.length > 0 && <Openings openings={openings} />}
+      {ridges && ridges.length > 0 && <Ridges ridges={ridges} />}
       {showJoists && <JoistLines joists={analysis.shaped.joists} />}
       {section >= 0 && <SectionJoist joists={analysis.shaped.joists} index={section} />}
       {highlight && analysis.shaped.longestFallLine && <FallLinePath line={analysis.shaped.longestFallLine} px={px} />}
@@ -52,6 +60,28 @@ function Openings({ openings }: { openings: NonNullable<RoofSpec["openings"]> })
           </g>
         );
       })}
+    </g>
+  );
+}
+
+/** Ridges (docs/roof-method-plans.md P4, P5) as heavy lines; crickets dashed. */
+function Ridges({ ridges }: { ridges: NonNullable<RoofSpec["ridges"]> }) {
+  return (
+    <g data-testid="plan-ridges" pointerEvents="none">
+      {ridges.map((r, i) => (
+        <path
+          key={i}
+          data-testid={`plan-ridge-${i}`}
+          d={r.line.map((p, k) => `${k ? "L" : "M"}${p[0]} ${-p[1]}`).join("")}
+          fill="none"
+          stroke="var(--color-ink)"
+          strokeWidth={3}
+          strokeDasharray={r.kind === "cricket" ? "6 3" : undefined}
+          vectorEffect="non-scaling-stroke"
+        >
+          <title>{`Ridge ${i + 1}${r.kind === "cricket" ? " (cricket)" : ", level at the high level"}`}</title>
+        </path>
+      ))}
     </g>
   );
 }

@@ -25,6 +25,19 @@ export function SceneSummary() {
         {area(shaped.fallMap.flatterThanMinimumArea)} is flatter than the minimum {formatRatio(minFall.ratio)}{" "}
         (hatched). {shaped.ponding.length ? `${shaped.ponding.length} place(s) hold water.` : "No water ponds."}
       </p>
+      {(spec.openings?.length ?? 0) > 0 && (
+        <p data-testid="scene-upstands">
+          {spec.openings!.length} opening{spec.openings!.length === 1 ? "" : "s"} stand on the deck as boxes, each with
+          its upstand:{" "}
+          {spec.openings!.map((o, i) => `${i + 1}, ${o.kind ?? "other"}, ${mm(o.upstand ?? 0.15)}`).join("; ")}.
+        </p>
+      )}
+      {(shaped.ridges?.length ?? 0) > 0 && (
+        <p data-testid="scene-ridges">
+          {shaped.ridges.length} ridge{shaped.ridges.length === 1 ? "" : "s"} drawn at the level rim
+          {shaped.areas.length > 1 ? `, dividing the roof into ${shaped.areas.length} drainage areas` : ""}.
+        </p>
+      )}
     </div>
   );
 }

@@ -3,6 +3,7 @@ import { FallField } from "./fall-field";
 import { formatRatio, useFormat } from "./format";
 import { NumberField } from "./number-field";
 import { OpeningsPanel } from "./openings-panel";
+import { RidgesPanel } from "./ridges-panel";
 import { useSandbox, useSandboxStore } from "./store";
 
 const degreesOf = (d: [number, number] | undefined) =>
@@ -147,6 +148,7 @@ export function SettingsPanel() {
         </label>
       </Group>
       <OpeningsPanel />
+      <RidgesPanel />
       <Group title="Gutter layout (for the comparison)">
         <NumberField
           label="Gutter width"

@@ -212,3 +212,74 @@ export function centreOf(points: Point[]): Point {
   const { minX, minY, maxX, maxY } = bounds(points);
   return [(minX + maxX) / 2, (minY + maxY) / 2];
 }
+
+type Ridge = NonNullable<RoofSpec["ridges"]>[number];
+
+/** Adds a ridge (docs/roof-method-plans.md P4, a cricket of P5 when its kind says so); at most 50. */
+export function addRidge(spec: RoofSpec, ridge: Ridge): RoofSpec {
+  const ridges = spec.ridges ?? [];
+  if (ridges.length >= 50) return spec;
+  return { ...spec, ridges: [...ridges, { ...ridge, line: ridge.line.map((p) => roundPoint(p)) }] };
+}
+
+/** A dividing ridge across the roof's middle, from its lowest to its highest wall along y. */
+export function defaultRidge(spec: RoofSpec): Ridge {
+  const xs = spec.outline.map((p) => p[0]);
+  const ys = spec.outline.map((p) => p[1]);
+  const x = (Math.min(...xs) + Math.max(...xs)) / 2;
+  // Where the vertical line x meets the outline: its lowest and highest crossing.
+  const hits: number[] = [];
+  spec.outline.forEach((a, i) => {
+    const b = spec.outline[(i + 1) % spec.outline.length];
+    if (a[0] === b[0]) return;
+    const t = (x - a[0]) / (b[0] - a[0]);
+    if (t >= 0 && t <= 1) hits.push(a[1] + t * (b[1] - a[1]));
+  });
+  const low = hits.length ? Math.min(...hits) : Math.min(...ys);
+  const high = hits.length ? Math.max(...hits) : Math.max(...ys);
+  return {
+    line: [
+      [x, low],
+      [x, high],
+    ],
+  };
+}
+
+export function setRidgePoint(spec: RoofSpec, index: number, point: number, at: Point): RoofSpec {
+  return {
+    ...spec,
+    ridges: (spec.ridges ?? []).map((r, k) =>
+      k === index ? { ...r, line: r.line.map((p, j) => (j === point ? roundPoint(at) : p)) } : r,
+    ),
+  };
+}
+
+/** Inserts a point half-way along the ridge's last piece (a bend to move). */
+export function addRidgePoint(spec: RoofSpec, index: number): RoofSpec {
+  return {
+    ...spec,
+    ridges: (spec.ridges ?? []).map((r, k) => {
+      if (k !== index || r.line.length >= 50) return r;
+      const a = r.line[r.line.length - 2];
+      const b = r.line[r.line.length - 1];
+      const mid = roundPoint([(a[0] + b[0]) / 2, (a[1] + b[1]) / 2]);
+      return { ...r, line: [...r.line.slice(0, -1), mid, b] };
+    }),
+  };
+}
+
+export function deleteRidgePoint(spec: RoofSpec, index: number, point: number): RoofSpec {
+  return {
+    ...spec,
+    ridges: (spec.ridges ?? []).map((r, k) =>
+      k === index && r.line.length > 2 ? { ...r, line: r.line.filter((_, j) => j !== point) } : r,
+    ),
+  };
+}
+
+export function deleteRidge(spec: RoofSpec, index: number): RoofSpec {
+  const ridges = (spec.ridges ?? []).filter((_, k) => k !== index);
+  const { ridges: _dropped, ...rest } = spec;
+  void _dropped;
+  return ridges.length ? { ...spec, ridges } : rest;
+}

@@ -10,8 +10,12 @@ import { hasMultiSpan, scheduleRows, type ScheduleRow } from "./schedule-rows";
 
 type Cell = string | number;
 
-/** Column headings with how each row fills them; `span` only when some joist has more than one. */
+/**
+ * Column headings with how each row fills them; `span` only when some joist has more than one,
+ * `area` only when ridges divide the roof.
+ */
 const COLUMNS: [string, (r: ScheduleRow) => Cell][] = [
+  ["area", (r) => r.area],
   ["joist", (r) => r.joist],
   ["span", (r) => r.span ?? ""],
   ["offset_m", (r) => r.offset],
@@ -33,6 +37,7 @@ const inch = (m: number) => Math.round((m / 0.0254) * 16) / 16;
 
 /** The same columns in US customary units: plan figures in feet, levels and drops in inches to 1/16. */
 const COLUMNS_US: [string, (r: ScheduleRow) => Cell][] = [
+  ["area", (r) => r.area],
   ["joist", (r) => r.joist],
   ["span", (r) => r.span ?? ""],
   ["offset_ft", (r) => ft(r.offset)],
@@ -75,8 +80,55 @@ export function scheduleHeader(p: PackRoof): Cell[][] {
     ["rule_set", p.analysis.ruleSet.name],
     ["outlets", "number", "x_m", "y_m", "level_mm", "joist"],
     ...packOutlets(p).map((o) => ["outlet", o.number, o.at[0], o.at[1], o.level, o.joist] as Cell[]),
+    ...planLines(p),
     ["caution", CAUTION_LINE],
   ];
+}
+
+const r3 = (v: number) => Math.round(v * 1000) / 1000;
+const ptText = (pts: [number, number][]) => pts.map((q) => `${r3(q[0])} ${r3(q[1])}`).join("; ");
+
+/**
+ * Openings, ridges and drainage areas (docs/roof-method-plans.md P2, P4), one line each, where the
+ * roof has them: points as "x y" pairs in metres separated by ";".
+ */
+export function planLines(p: PackRoof): Cell[][] {
+  const s = p.analysis.shaped;
+  const lines: Cell[][] = [];
+  const openings = (p.spec.openings ?? []).map((o, i) => ({ ...o, area: s.openings?.[i]?.area }));
+  if (openings.length) {
+    lines.push(["openings", "number", "kind", "upstand_mm", "area_m2", "outline_m"]);
+    openings.forEach((o, i) =>
+      lines.push([
+        "opening",
+        i + 1,
+        o.kind ?? "other",
+        mmOf(o.upstand ?? 0.15),
+        o.area == null ? "" : Math.round(o.area * 100) / 100,
+        ptText(o.outline),
+      ]),
+    );
+  }
+  const ridges = s.ridges ?? [];
+  if (ridges.length) {
+    lines.push(["ridges", "number", "kind", "line_m"]);
+    for (const r of ridges) lines.push(["ridge", r.index + 1, r.kind, ptText(r.line)]);
+  }
+  const areas = s.areas ?? [];
+  if (areas.length > 1) {
+    lines.push(["areas", "number", "area_m2", "outlets", "joist_direction_deg", "own_high_level_mm"]);
+    areas.forEach((a, k) =>
+      lines.push([
+        "area",
+        k + 1,
+        Math.round(a.area * 100) / 100,
+        a.outlets.map((o) => `O${o + 1}`).join(" "),
+        directionDegrees(a.joistDirection),
+        mmOf(a.highLevel),
+      ]),
+    );
+  }
+  return lines;
 }
 
 /** The columns this roof's schedule has (the span column only where a joist has more than one span). */
@@ -85,7 +137,8 @@ export function scheduleColumns(
   units: PackRoof["units"] = "metric",
 ): [string, (r: ScheduleRow) => Cell][] {
   const all = units === "us" ? COLUMNS_US : COLUMNS;
-  return hasMultiSpan(rows) ? all : all.filter(([name]) => name !== "span");
+  const areas = new Set(rows.map((r) => r.area)).size > 1;
+  return all.filter(([name]) => (name !== "span" || hasMultiSpan(rows)) && (name !== "area" || areas));
 }
 
 /**

@@ -3,6 +3,8 @@ import type { Analysis } from "~/engine";
 /** One span of one joist, as the builder reads it. Levels and drops in millimetres. */
 export interface ScheduleRow {
   joist: number;
+  /** Drainage area (docs/roof-method-plans.md P4), numbered from 1. */
+  area: number;
   offset: number;
   /** Span number along its joist (from 1), null when the joist has only the one span. */
   span: number | null;
@@ -31,6 +33,7 @@ export function scheduleRows(joists: Analysis["shaped"]["joists"]): ScheduleRow[
     j.spans.forEach((s, k) => {
       rows.push({
         joist: j.index + 1,
+        area: (j.area ?? 0) + 1,
         offset: r3(j.offset),
         span: j.spans.length > 1 ? k + 1 : null,
         startX: r3(s.start[0]),

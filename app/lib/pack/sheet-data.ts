@@ -39,6 +39,55 @@ export function fallDetail(ratio: number | null | undefined): string {
 const fallWithDetail = (r: number | null | undefined) =>
   r == null || !Number.isFinite(r) ? "level" : `${formatRatio(r)} (${fallDetail(r)})`;
 
+/** Openings and the drainage areas with their ridges (docs/roof-method-plans.md P2, P4), where the roof has them. */
+function planTables(p: PackRoof): SheetTable[] {
+  const s = p.analysis.shaped;
+  const out: SheetTable[] = [];
+  const openings = p.spec.openings ?? [];
+  if (openings.length)
+    out.push({
+      title: "Openings",
+      header: ["opening", "kind", "upstand (mm)", "area", "corners (m)"],
+      numeric: [false, false, true, true, false],
+      rows: openings.map((o, i) => [
+        String(i + 1),
+        o.kind ?? "other",
+        String(mmOf(o.upstand ?? 0.15)),
+        s.openings?.[i] ? area(s.openings[i].area) : "–",
+        o.outline.map(pt).join(" "),
+      ]),
+      note: "Water goes round the upstands; the deck under an opening keeps the surface it would have without it.",
+    });
+  const ridges = s.ridges ?? [];
+  if (ridges.length)
+    out.push({
+      title: "Ridges",
+      header: ["ridge", "kind", "points (m)"],
+      numeric: [false, false, false],
+      rows: ridges.map((r) => [
+        String(r.index + 1),
+        r.kind === "cricket" ? "cricket (diverting ridge)" : "dividing, level at H",
+        r.line.map(pt).join(" → "),
+      ]),
+    });
+  const areas = s.areas ?? [];
+  if (areas.length > 1)
+    out.push({
+      title: "Drainage areas",
+      header: ["area", "drained area", "outlets", "joists", "own high level"],
+      numeric: [false, true, false, true, true],
+      rows: areas.map((a, k) => [
+        String(k + 1),
+        area(a.area),
+        a.outlets.map((o) => `O${o + 1}`).join(", ") || "eaves",
+        `${directionDegrees(a.joistDirection).toFixed(1)}° from x`,
+        mm(a.highLevel),
+      ]),
+      note: "Each area is shaped on its own up to the one high level H; water never crosses a ridge.",
+    });
+  return out;
+}
+
 export function sheetData(p: PackRoof): SheetData {
   const { analysis: a, spec } = p;
   const s = a.shaped;
@@ -68,6 +117,7 @@ export function sheetData(p: PackRoof): SheetData {
   const rows = scheduleRows(s.joists);
   const columns = scheduleColumns(rows);
   const headings: Record<string, string> = {
+    area: "area",
     joist: "joist",
     span: "span",
     offset_m: "offset m",
@@ -97,6 +147,7 @@ export function sheetData(p: PackRoof): SheetData {
       numeric: [false, false, true, false],
       rows: packOutlets(p).map((o) => [`O${o.number}`, pt(o.at), String(o.level), o.joist]),
     },
+    ...planTables(p),
     {
       title: "Edge falls",
       header: ["edge", "from (low)", "to (high)", "fall", "° · %"],

@@ -124,25 +124,59 @@ describe("POST /api/v1/analyses with openings and the plan advice (docs/roof-met
   });
 });
 
-describe("drainage areas, not built yet", () => {
-  it("refuses ridges and areas by name rather than ignoring them", async () => {
-    for (const [key, value] of [
-      [
-        "ridges",
-        [
-          {
-            line: [
-              [10, 0],
-              [10, 10],
-            ],
-          },
+describe("drainage areas divided by ridges (docs/roof-method-plans.md P4)", () => {
+  const divided = {
+    ...spec,
+    outlets: [{ at: [10, 0] }, { at: [2, 0] }],
+    ridges: [
+      {
+        line: [
+          [5, 0],
+          [5, 10],
         ],
+      },
+    ],
+  };
+
+  it("answers 200 with shaped.areas, and every joist carries its area", async () => {
+    const res = await call(divided);
+    expect(res.status).toBe(200);
+    const body = await res.json();
+    const areas = body.shaped.areas as { id: number; area: number; outlets: number[]; highLevel: number }[];
+    expect(areas).toHaveLength(2);
+    // 5 m × 10 m on the left (outlet 1, index 1) and 15 m × 10 m on the right (outlet 0).
+    expect(areas.map((a) => [a.outlets, Math.round(a.area)]).sort()).toEqual([
+      [[0], 150],
+      [[1], 50],
+    ]);
+    expect(body.shaped.joists.every((j: { area: number }) => areas.some((a) => a.id === j.area))).toBe(true);
+    expect(body.shaped.ridges).toEqual([{ index: 0, kind: "divide", line: divided.ridges[0].line }]);
+  });
+
+  it("422 naming an area without a drain, and a ridge that does not divide", async () => {
+    const dry = await call({ ...divided, outlets: [{ at: [10, 0] }] });
+    expect(dry.status).toBe(422);
+    expect((await dry.json()).error.issues[0].path).toBe("ridges");
+    const along = await call({
+      ...divided,
+      ridges: [
+        {
+          line: [
+            [12, 0],
+            [18, 0],
+          ],
+        },
       ],
-      ["areas", [{ at: [5, 5], joists: { direction: [1, 0] } }]],
-    ] as const) {
-      const res = await call({ ...spec, [key]: value });
-      expect(res.status).toBe(422);
-      expect((await res.json()).error.issues[0].path).toBe(key);
-    }
+    });
+    expect(along.status).toBe(422);
+    const issue = (await along.json()).error.issues[0];
+    expect(issue.path).toBe("ridges.0.line");
+    expect(issue.message).toMatch(/does not divide/);
+  });
+
+  it("400 naming a malformed area entry", async () => {
+    const res = await call({ ...divided, areas: [{ at: "left" }] });
+    expect(res.status).toBe(400);
+    expect((await res.json()).error.issues[0].path).toBe("areas.0.at");
   });
 });

@@ -114,10 +114,10 @@ const roofCase = fc
 /** Keeps cases the validator accepts (random outlets can land on a chosen eaves edge's corner etc.). */
 const validCase = roofCase.filter((c) => parseSpec(structuredClone(c.spec)).ok);
 
-function run(spec: RoofSpec, mesh = true): Analysis {
+function run(spec: RoofSpec, mesh = true, traces = false): Analysis {
   const parsed = parseSpec(structuredClone(spec));
   if (!parsed.ok) throw new Error(parsed.error.message);
-  return analyse(parsed.spec, { mesh, traces: false });
+  return analyse(parsed.spec, { mesh, traces });
 }
 
 /**
@@ -180,6 +180,13 @@ function moved(spec: RoofSpec, angle: number, tx: number, ty: number): RoofSpec 
   if (spec.openings)
     out.openings = spec.openings.map((o) => ({ ...o, outline: o.outline.map((p) => rotate(p, c, s, tx, ty)) }));
   if (spec.joists?.direction) out.joists = { ...spec.joists, direction: rotate(spec.joists.direction, c, s, 0, 0) };
+  if (spec.ridges) out.ridges = spec.ridges.map((r) => ({ ...r, line: r.line.map((p) => rotate(p, c, s, tx, ty)) }));
+  if (spec.areas)
+    out.areas = spec.areas.map((e) => ({
+      ...e,
+      at: rotate(e.at, c, s, tx, ty),
+      ...(e.joists?.direction ? { joists: { ...e.joists, direction: rotate(e.joists.direction, c, s, 0, 0) } } : {}),
+    }));
   return out;
 }
 
@@ -429,6 +436,200 @@ describe("invariants on random valid roofs", () => {
         expect(parsed.spec).toEqual(parsedCopy);
       }),
       { numRuns: 30 },
+    );
+  });
+});
+
+/*
+ * Roofs divided by ridges (docs/roof-method-plans.md P4): a rectangle or an L-shape cut by one or
+ * two ridges from wall to wall (a straight one, or one with a bend), an outlet on an outer wall
+ * of each area, sometimes an opening and an area with its own joist direction.
+ */
+const dividedCase = fc
+  .tuple(
+    num(8, 40),
+    num(6, 30),
+    fc.array(fc.tuple(num(0.15, 0.85), num(0.15, 0.85), fc.option(num(0.3, 0.7), { nil: undefined })), {
+      minLength: 1,
+      maxLength: 2,
+    }),
+    fc.array(num(0.1, 0.9), { minLength: 3, maxLength: 3 }),
+    fc.constantFrom("1:40", "1:60", "2°"),
+    fc.boolean(),
+    fc.boolean(),
+    fc.array(fc.tuple(num(0, 1), num(0, 1)), { maxLength: 5 }),
+  )
+  .map(([w, h, cuts, outletTs, baseFall, ownJoists, withOpening, inner]): RoofSpec => {
+    const outline: Point[] = [
+      [0, 0],
+      [w, 0],
+      [w, h],
+      [0, h],
+    ];
+    // Ridges from the bottom wall to the top wall, ordered left to right so they never cross.
+    const xs = cuts.map(([a, b, bend]) => [a * w, b * w, bend] as const).sort((p, q) => p[0] + p[1] - q[0] - q[1]);
+    const ridges = xs
+      .filter((r, i) => i === 0 || (r[0] > xs[i - 1][0] + 1 && r[1] > xs[i - 1][1] + 1))
+      .map(([a, b, bend]) => ({
+        line: (bend === undefined
+          ? [
+              [a, 0],
+              [b, h],
+            ]
+          : [
+              [a, 0],
+              [(a + b) / 2 + (bend - 0.5) * 0.5, bend * h],
+              [b, h],
+            ]) as Point[],
+      }));
+    // An outlet on the left wall, one on the right wall, and one on the bottom wall in the middle area.
+    const outlets: RoofSpec["outlets"] = [{ at: [0, outletTs[0] * h] }, { at: [w, outletTs[1] * h] }];
+    if (ridges.length === 2) {
+      const left = ridges[0].line[0][0],
+        right = ridges[1].line[0][0];
+      outlets.push({ at: [left + outletTs[2] * (right - left), 0] });
+    }
+    const spec: RoofSpec = {
+      outline,
+      outlets,
+      baseFall,
+      ridges,
+      probes: inner.map(([fx, fy]): Point => [fx * w, fy * h]),
+    };
+    if (ownJoists) spec.areas = [{ at: [0.05 * w, 0.5 * h], joists: { direction: [1, 0.2], spacing: 0.5 } }];
+    if (withOpening) {
+      const cx = 0.06 * w + 0.5,
+        cy = 0.5 * h;
+      const trial = {
+        ...spec,
+        openings: [
+          {
+            outline: [
+              [cx - 0.4, cy - 0.4],
+              [cx + 0.4, cy - 0.4],
+              [cx + 0.4, cy + 0.4],
+              [cx - 0.4, cy + 0.4],
+            ] as Point[],
+          },
+        ],
+      };
+      if (parseSpec(structuredClone(trial)).ok) return trial;
+    }
+    return spec;
+  })
+  .filter((spec) => parseSpec(structuredClone(spec)).ok);
+
+/**
+ * True when segment pq crosses ridge piece ab from one side to the other. Trace points are
+ * rounded to 1 mm and start on the ridge itself, so an end within 2 mm of the ridge is on it.
+ */
+function crossing(p: Point, q: Point, a: Point, b: Point): boolean {
+  const o = (u: Point, v: Point, w: Point) => (v[0] - u[0]) * (w[1] - u[1]) - (v[1] - u[1]) * (w[0] - u[0]);
+  const off = (x: Point) => {
+    const ex = b[0] - a[0],
+      ey = b[1] - a[1];
+    const t = Math.max(0, Math.min(1, ((x[0] - a[0]) * ex + (x[1] - a[1]) * ey) / (ex * ex + ey * ey)));
+    return Math.hypot(a[0] + t * ex - x[0], a[1] + t * ey - x[1]) > 0.002;
+  };
+  return o(p, q, a) * o(p, q, b) < 0 && o(a, b, p) * o(a, b, q) < 0 && off(p) && off(q);
+}
+
+describe("invariants on random roofs divided by ridges", () => {
+  it("every level lies within [lowest drain, H], and H is the highest area's own need", () => {
+    fc.assert(
+      fc.property(dividedCase, (spec) => {
+        const a = run(spec);
+        const H = a.shaped.highLevel;
+        const z = a.shaped.mesh!.positions.filter((_, i) => i % 3 === 2);
+        for (const level of [...z, ...a.shaped.probes.map((p) => p.level).filter((l): l is number => l !== null)]) {
+          expect(level).toBeGreaterThanOrEqual(-1e-9);
+          expect(level).toBeLessThanOrEqual(H + 1e-9);
+        }
+        expect(Math.abs(H - Math.max(...a.shaped.areas.map((x) => x.highLevel)))).toBeLessThan(1e-12);
+        expect(a.shaped.areas).toHaveLength(spec.ridges!.length + 1);
+      }),
+      RUNS,
+    );
+  });
+
+  it("no water path crosses a ridge, and each catchment lies in one area; they sum to the drained area", () => {
+    fc.assert(
+      fc.property(dividedCase, (spec) => {
+        const a = run(spec, false, true);
+        const t = a.shaped.flowTraces!;
+        const segments = spec.ridges!.flatMap((r) => r.line.slice(1).map((q, k): [Point, Point] => [r.line[k], q]));
+        for (let k = 0; k + 1 < t.starts.length; k++) {
+          for (let i = t.starts[k] + 1; i < t.starts[k + 1]; i++) {
+            const p: Point = [t.points[3 * i - 3], t.points[3 * i - 2]];
+            const q: Point = [t.points[3 * i], t.points[3 * i + 1]];
+            for (const [r0, r1] of segments) expect(crossing(p, q, r0, r1)).toBe(false);
+          }
+        }
+        for (const line of a.shaped.fallLines) {
+          for (let i = 1; i < line.path.length; i++)
+            for (const [r0, r1] of segments) expect(crossing(line.path[i - 1], line.path[i], r0, r1)).toBe(false);
+        }
+        // Each outlet drains only inside its own area: its catchment is at most that area.
+        for (const area of a.shaped.areas) {
+          const drained = a.shaped.catchments
+            .filter((c) => c.kind === "outlet" && area.outlets.includes(c.index))
+            .reduce((s, c) => s + c.area, 0);
+          expect(drained).toBeLessThanOrEqual(area.area * (1 + 1e-9) + 1e-9);
+        }
+        const holes = a.shaped.openings.reduce((s, o) => s + o.area, 0);
+        const total =
+          a.shaped.catchments.reduce((s, c) => s + c.area, 0) + a.shaped.ponding.reduce((s, p) => s + p.area, 0);
+        expect(Math.abs(total - (a.area - holes))).toBeLessThan(1e-6 * a.area);
+        for (const j of a.shaped.joists) expect(a.shaped.areas.some((x) => x.id === j.area)).toBe(true);
+      }),
+      // Traces need the full routing: fewer runs, and a generous ceiling on a shared machine.
+      { numRuns: 25 },
+    );
+  }, 180_000);
+
+  it("every span end of the drop schedule equals the surface level there", () => {
+    fc.assert(
+      fc.property(dividedCase, (spec) => {
+        const a = run(spec, false);
+        const ends: { at: Point; level: number }[] = [];
+        for (const j of a.shaped.joists)
+          for (const s of j.spans) ends.push({ at: s.start, level: s.startLevel }, { at: s.end, level: s.endLevel });
+        const step = Math.max(1, Math.ceil(ends.length / 1000));
+        const picked = ends.filter((_, i) => i % step === 0);
+        const b = run({ ...spec, probes: picked.map((e) => e.at) }, false);
+        b.shaped.probes.forEach((p, i) => {
+          expect(p.level).not.toBeNull();
+          expect(Math.abs((p.level as number) - picked[i].level)).toBeLessThan(1e-9);
+        });
+      }),
+      RUNS,
+    );
+  });
+
+  it("results are unchanged by moving and turning the whole spec", () => {
+    fc.assert(
+      fc.property(dividedCase, num(-Math.PI, Math.PI), num(-500, 500), num(-500, 500), (spec, angle, tx, ty) => {
+        const a = run(spec, false);
+        const b = run(moved(spec, angle, tx, ty), false);
+        const near = (x: number | null | undefined, y: number | null | undefined, tol = 1e-7) => {
+          if (x == null || y == null) return expect(x ?? null).toBe(y ?? null);
+          expect(Math.abs(x - y)).toBeLessThanOrEqual(tol * Math.max(1, Math.abs(x)));
+        };
+        near(a.shaped.highLevel, b.shaped.highLevel);
+        near(a.shaped.longestFallLine?.length, b.shaped.longestFallLine?.length);
+        expect(b.shaped.areas.map((x) => x.area.toFixed(6))).toEqual(a.shaped.areas.map((x) => x.area.toFixed(6)));
+        expect(b.shaped.joists.length).toBe(a.shaped.joists.length);
+        a.shaped.probes.forEach((p, i) => near(p.level, b.shaped.probes[i].level));
+        const spacing = 0.5;
+        const slack =
+          0.005 * a.area +
+          spacing * 2 * (spec.outline[1][0] + spec.outline[2][1]) +
+          a.shaped.fallMap.flatterThanMinimumArea;
+        const catchment = (x: Analysis) => Object.fromEntries(x.shaped.catchments.map((c) => [c.drain, c.area]));
+        for (const [drain, value] of Object.entries(catchment(a)))
+          expect(Math.abs(value - (catchment(b)[drain] ?? 0))).toBeLessThanOrEqual(slack);
+      }),
+      RUNS,
     );
   });
 });

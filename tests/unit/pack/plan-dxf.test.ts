@@ -93,7 +93,18 @@ describe("plan DXF", () => {
     ];
     const withExtras = {
       ...pack,
-      spec: { ...U_ROOF, openings: [{ outline: hatch }], ridges: [{ from: [6, 0], to: [6, 3] }] } as RoofSpec,
+      spec: {
+        ...U_ROOF,
+        openings: [{ outline: hatch }],
+        ridges: [
+          {
+            line: [
+              [6, 0],
+              [6, 3],
+            ],
+          },
+        ],
+      } as RoofSpec,
     };
     const more = parse(planDxf(withExtras));
     const opening = more.entities.find((e) => e.layer === DXF_LAYERS.openings[0])!;

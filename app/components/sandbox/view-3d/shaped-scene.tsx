@@ -104,6 +104,15 @@ export function ShapedScene({
     return sampler.drape(line.path.length >= 2 ? line.path : [line.from, line.to], Math.max(0.1, frame.radius / 60));
   }, [analysis, sampler, frame]);
 
+  // Ridges (docs/roof-method-plans.md P4, P5) draped on the surface: dividing ones run at H.
+  const ridges = useMemo(() => {
+    if (!sampler) return [];
+    return (analysis.shaped.ridges ?? []).map((r) => ({
+      kind: r.kind,
+      points: sampler.drape(r.line, Math.max(0.1, frame.radius / 60)),
+    }));
+  }, [analysis, sampler, frame]);
+
   const sectionJoist = view.camera === "section" ? sectionJoistIndex(analysis.shaped.joists, view.sectionJoist) : -1;
   const sectionLabels = useMemo(() => {
     const j = analysis.shaped.joists[sectionJoist];
@@ -160,6 +169,18 @@ export function ShapedScene({
       {view.showContours && (
         <ContourLines mesh={mesh} frame={frame} interval={view.contourInterval} exaggeration={exaggeration} />
       )}
+      {!clipping &&
+        ridges.map((r, i) => (
+          <SurfaceLine
+            key={i}
+            points={r.points}
+            frame={frame}
+            exaggeration={exaggeration}
+            color="#1f2933"
+            width={4}
+            dashed={r.kind === "cricket"}
+          />
+        ))}
       {view.highlightFallLine && !clipping && (
         <SurfaceLine points={fallLine} frame={frame} exaggeration={exaggeration} />
       )}
