@@ -111,6 +111,30 @@ function designOf(roof: Roof) {
 }
 
 /**
+ * The design level at plan points of a spec (docs/roof-method.md §4), the one the as-built check
+ * compares with; null for a spec that cannot be shaped or a point outside the outline.
+ */
+export function designLevelAt(spec: RoofSpec): (p: Point) => number | null {
+  const prepared = prepareRoof(spec);
+  if (!prepared.ok) return () => null;
+  const roof = prepared.roof;
+  const design = designOf(roof);
+  const ox = Array.from(roof.xs, (x) => x + roof.ox);
+  const oy = Array.from(roof.ys, (y) => y + roof.oy);
+  return (p) => {
+    if (!insidePolygon(ox, oy, p[0], p[1])) {
+      let on = false;
+      for (let j = 0; j < roof.n && !on; j++) {
+        const q = (j + 1) % roof.n;
+        on = nearestOnSegment(ox[j], oy[j], ox[q], oy[q], p[0], p[1]).distance <= roof.tol * 1000;
+      }
+      if (!on) return null;
+    }
+    return design.level(p);
+  };
+}
+
+/**
  * The as-built check (docs/as-built.md): a Delaunay triangulation through the measured points
  * and the outline's corners and outlets (design levels where nothing was measured), depressions
  * filled to their spill level by Priority-Flood seeded at the drains, ponds, deviations from the

@@ -40,6 +40,7 @@ export type {
 } from "./types";
 export {
   asBuilt,
+  designLevelAt,
   AS_BUILT_DEFAULTS,
   AS_BUILT_LIMITS,
   type AsBuiltAnswer,
