@@ -94,6 +94,12 @@ export interface AsBuiltResult {
   verdict: { passed: boolean; failures: AsBuiltFailure[] };
   fixes: JoistFix[];
   tolerance: Tolerance;
+  /**
+   * The as-built surface for drawing: node positions and levels (measured points first, in
+   * request order), triangles as node index triples, and each triangle's fall 1:N (Infinity
+   * when level). Not part of the API's answer.
+   */
+  mesh: { xs: number[]; ys: number[]; zs: number[]; triangles: number[]; ratio: number[] };
 }
 
 export type AsBuiltAnswer = { ok: true; result: AsBuiltResult } | { ok: false; status: 400 | 422; issues: SpecIssue[] };
@@ -384,6 +390,13 @@ export function asBuilt(spec: RoofSpec, points: SurveyPoint[], tolerance: Partia
       verdict: { passed: failures.length === 0, failures },
       fixes,
       tolerance: tol,
+      mesh: {
+        xs,
+        ys,
+        zs,
+        triangles: tri,
+        ratio: Array.from(slope2, (q) => (q > 0 ? 1 / Math.sqrt(q) : Infinity)),
+      },
     },
   };
 }

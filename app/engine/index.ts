@@ -45,6 +45,10 @@ export {
   AS_BUILT_LIMITS,
   type AsBuiltAnswer,
   type AsBuiltResult,
+  type AsBuiltFailure,
+  type Deviation,
+  type JoistFix,
+  type Pond,
   type SurveyPoint,
   type Tolerance,
 } from "./as-built";
