@@ -195,6 +195,7 @@ export default function RoofChecks() {
             roofId={roof.id}
             version={roof.version}
             places={places}
+            outline={roof.outline}
             today={today}
             errors={answer?.errors}
             values={answer?.values}

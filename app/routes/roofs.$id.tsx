@@ -415,7 +415,7 @@ function RoofHistory({
   return (
     <section aria-labelledby="roof-history" className="space-y-2">
       <h2 id="roof-history" className="text-lg font-semibold">
-        History
+        History: design, then as-built checks
       </h2>
       <ol className="space-y-2">
         <li className="text-sm">

@@ -28,6 +28,7 @@ export function MeasuredForm({
   roofId,
   version,
   places,
+  outline,
   today,
   errors,
   values,
@@ -35,6 +36,8 @@ export function MeasuredForm({
   roofId: string;
   version: number;
   places: MeasuredPlace[];
+  /** The roof's corners, to pick a reference point's position on the plan. */
+  outline: [number, number][];
   today: string;
   errors?: CheckFormErrors;
   values?: Record<string, string>;
@@ -294,7 +297,7 @@ export function MeasuredForm({
             {typed.align === "points" ? (
               <div className="grid gap-2 sm:grid-cols-3">
                 {(["A", "B"] as const).map((r) => (
-                  <ReferenceFields key={r} r={r} typed={typed} set={set} errors={errors} />
+                  <ReferenceFields key={r} r={r} typed={typed} set={set} errors={errors} outline={outline} />
                 ))}
               </div>
             ) : null}
@@ -313,8 +316,10 @@ function ReferenceFields({
   typed,
   set,
   errors,
+  outline,
 }: {
   r: "A" | "B";
+  outline: [number, number][];
   typed: Record<string, string>;
   set: (name: string, value: string) => void;
   errors?: CheckFormErrors;
@@ -336,8 +341,32 @@ function ReferenceFields({
     </div>
   );
   const n = r === "A" ? "first" : "second";
+  const picked = outline.findIndex((c) => String(c[0]) === typed[`ref${r}x`] && String(c[1]) === typed[`ref${r}y`]);
   return (
     <>
+      <div className="sm:col-span-3">
+        <label className="label" htmlFor={`m-ref${r}-corner`}>
+          The {n} point on the plan
+        </label>
+        <select
+          id={`m-ref${r}-corner`}
+          className="field"
+          value={picked >= 0 ? String(picked) : ""}
+          onChange={(e) => {
+            const c = outline[Number(e.target.value)];
+            if (!c) return;
+            set(`ref${r}x`, String(c[0]));
+            set(`ref${r}y`, String(c[1]));
+          }}
+        >
+          <option value="">a corner of the roof, or type x and y</option>
+          {outline.map((c, i) => (
+            <option key={i} value={i}>
+              corner {i + 1} at ({c[0]}, {c[1]}) m
+            </option>
+          ))}
+        </select>
+      </div>
       {f(`ref${r}`, `The ${n} point's label`)}
       {f(`ref${r}x`, "its x on the plan (m)")}
       {f(`ref${r}y`, "its y on the plan (m)")}
