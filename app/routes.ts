@@ -20,6 +20,8 @@ export default [
   route("roofs/:id/sheet.pdf", "routes/roofs.$id.sheet-pdf.ts"),
   route("roofs/:id/plan.dxf", "routes/roofs.$id.plan-dxf.ts"),
   route("roofs/:id/roof.glb", "routes/roofs.$id.roof-glb.ts"),
+  // A dynamic segment with a literal suffix: ranked above /roofs/:id/checks/:checkId.
+  route("roofs/:id/checks/:checkId.pdf", "routes/roofs.$id.checks.$checkId-pdf.ts"),
   route("s/:token/:file", "routes/s.$token.$file.ts"),
   route("logout", "routes/logout.ts"),
   route("sandbox/schedule.csv", "routes/sandbox.schedule-csv.ts"),
@@ -40,6 +42,8 @@ export default [
     route("roofs", "routes/roofs._index.tsx"),
     route("roofs/:id", "routes/roofs.$id.tsx"),
     route("roofs/:id/sheet", "routes/roofs.$id.sheet.tsx"),
+    route("roofs/:id/checks", "routes/roofs.$id.checks.tsx"),
+    route("roofs/:id/checks/:checkId", "routes/roofs.$id.checks.$checkId.tsx"),
     route("classes", "routes/classes._index.tsx"),
     route("classes/:id", "routes/classes.$id.tsx"),
     route("classes/:id/gradebook", "routes/classes.$id.gradebook.tsx"),

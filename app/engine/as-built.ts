@@ -94,6 +94,12 @@ export interface AsBuiltResult {
   verdict: { passed: boolean; failures: AsBuiltFailure[] };
   fixes: JoistFix[];
   tolerance: Tolerance;
+  /**
+   * The as-built surface for drawing: node positions and levels (measured points first, in
+   * request order), triangles as node index triples, and each triangle's fall 1:N (Infinity
+   * when level). Not part of the API's answer.
+   */
+  mesh: { xs: number[]; ys: number[]; zs: number[]; triangles: number[]; ratio: number[] };
 }
 
 export type AsBuiltAnswer = { ok: true; result: AsBuiltResult } | { ok: false; status: 400 | 422; issues: SpecIssue[] };
@@ -108,6 +114,30 @@ function designOf(roof: Roof) {
     return levelAt(roof, levels, u, v);
   };
   return { H, levels, joists, level };
+}
+
+/**
+ * The design level at plan points of a spec (docs/roof-method.md §4), the one the as-built check
+ * compares with; null for a spec that cannot be shaped or a point outside the outline.
+ */
+export function designLevelAt(spec: RoofSpec): (p: Point) => number | null {
+  const prepared = prepareRoof(spec);
+  if (!prepared.ok) return () => null;
+  const roof = prepared.roof;
+  const design = designOf(roof);
+  const ox = Array.from(roof.xs, (x) => x + roof.ox);
+  const oy = Array.from(roof.ys, (y) => y + roof.oy);
+  return (p) => {
+    if (!insidePolygon(ox, oy, p[0], p[1])) {
+      let on = false;
+      for (let j = 0; j < roof.n && !on; j++) {
+        const q = (j + 1) % roof.n;
+        on = nearestOnSegment(ox[j], oy[j], ox[q], oy[q], p[0], p[1]).distance <= roof.tol * 1000;
+      }
+      if (!on) return null;
+    }
+    return design.level(p);
+  };
 }
 
 /**
@@ -360,6 +390,13 @@ export function asBuilt(spec: RoofSpec, points: SurveyPoint[], tolerance: Partia
       verdict: { passed: failures.length === 0, failures },
       fixes,
       tolerance: tol,
+      mesh: {
+        xs,
+        ys,
+        zs,
+        triangles: tri,
+        ratio: Array.from(slope2, (q) => (q > 0 ? 1 / Math.sqrt(q) : Infinity)),
+      },
     },
   };
 }

@@ -40,10 +40,15 @@ export type {
 } from "./types";
 export {
   asBuilt,
+  designLevelAt,
   AS_BUILT_DEFAULTS,
   AS_BUILT_LIMITS,
   type AsBuiltAnswer,
   type AsBuiltResult,
+  type AsBuiltFailure,
+  type Deviation,
+  type JoistFix,
+  type Pond,
   type SurveyPoint,
   type Tolerance,
 } from "./as-built";

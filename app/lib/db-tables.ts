@@ -18,6 +18,25 @@ type Writable<T> = {
       : T[K] | Knex.Raw;
 };
 
+export interface AsBuiltCheckRow {
+  id: string;
+  roof_id: string;
+  roof_version: number;
+  spec: unknown;
+  measured_by: string;
+  checked_by: string;
+  measured_on: string;
+  points: unknown;
+  tolerance: unknown;
+  passed: boolean;
+  result: unknown;
+  source: string;
+  created_by: string | null;
+  created_at: Date;
+}
+export type AsBuiltCheckInsert = Omit<AsBuiltCheckRow, "id" | "created_by" | "created_at"> &
+  Partial<Pick<AsBuiltCheckRow, "id" | "created_by" | "created_at">>;
+
 export interface AssignmentRow {
   class_id: string;
   lesson_slug: string;
@@ -261,6 +280,22 @@ export type UserInsert = Omit<
 
 /** Every table and its columns, for the test that holds these types to the live schema. */
 export const TABLE_COLUMNS = {
+  as_built_checks: [
+    "id",
+    "roof_id",
+    "roof_version",
+    "spec",
+    "measured_by",
+    "checked_by",
+    "measured_on",
+    "points",
+    "tolerance",
+    "passed",
+    "result",
+    "source",
+    "created_by",
+    "created_at",
+  ],
   assignments: ["class_id", "lesson_slug", "due_on", "created_at"],
   attempt_reviews: ["id", "attempt_id", "reviewer_id", "comment", "override_score", "override_passed", "reason", "at"],
   attempts: [
@@ -332,6 +367,11 @@ export const TABLE_COLUMNS = {
 
 declare module "knex/types/tables" {
   interface Tables {
+    as_built_checks: Knex.CompositeTableType<
+      AsBuiltCheckRow,
+      Writable<AsBuiltCheckInsert>,
+      Partial<Writable<AsBuiltCheckRow>>
+    >;
     assignments: Knex.CompositeTableType<AssignmentRow, Writable<AssignmentInsert>, Partial<Writable<AssignmentRow>>>;
     attempt_reviews: Knex.CompositeTableType<
       AttemptReviewRow,

@@ -30,3 +30,12 @@ export const ROLE_LABELS: Record<Role, string> = {
   trainee: "Trainee",
   designer: "Designer",
 };
+
+/**
+ * A roof's as-built checks follow the roof (docs/security.md): whoever may read the roof (its
+ * owner, or a colleague when it is shared) reads its checks; whoever may edit it adds them.
+ * `roof` is the roof as getRoofFor answered for this user (null when they may not see it).
+ */
+export function checkAccess(roof: { canEdit: boolean } | null): { read: boolean; create: boolean } {
+  return { read: roof !== null, create: roof?.canEdit === true };
+}

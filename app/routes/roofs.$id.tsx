@@ -19,6 +19,8 @@ import type { RoofSpec } from "~/engine";
 import { newRequestKey } from "~/lib/request-key";
 import { createShareLink, listShareLinks, MAX_LINKS_PER_ROOF, revokeShareLink } from "~/lib/share-links.server";
 import { PackDownloads } from "~/components/pack/downloads";
+import { listChecks } from "~/lib/as-built-checks.server";
+import { CheckList } from "~/components/as-built/check-list";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.roof.name ?? "Roof"} · Fallwright` }];
 
@@ -40,6 +42,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     underlayUrl: roof.underlayId ? underlayUrl(roof.id, roof.underlayId) : null,
     versions: roof.canEdit ? await listVersions(roof.id) : [],
     shareLinks: roof.canEdit ? await listShareLinks(roof.id) : [],
+    checks: await listChecks(roof.id),
   };
 }
 
@@ -141,6 +144,7 @@ function RoofEditor({
   underlayUrl: initialUrl,
   versions,
   shareLinks,
+  checks,
 }: Route.ComponentProps["loaderData"]) {
   const navigate = useNavigate();
   const [params] = useSearchParams();
@@ -270,6 +274,7 @@ function RoofEditor({
       {roof.canEdit ? <h1 className="sr-only">{name}</h1> : null}
       <PackDownloads base={`/roofs/${roof.id}`} sheetPage={`/roofs/${roof.id}/sheet`} />
       {roof.canEdit ? <ShareLinks links={shareLinks} /> : null}
+      <RoofHistory roofId={roof.id} version={roof.version} checks={checks} canEdit={roof.canEdit} />
 
       {notice ? (
         <p role="status" className="rounded border border-ok/40 bg-sheet px-3 py-2 text-sm text-ok">
@@ -382,6 +387,39 @@ function ShareControls({ shared }: { shared: boolean }) {
         </span>
       ) : null}
     </div>
+  );
+}
+
+/** The roof's history: its design (the current version), then its as-built checks. */
+function RoofHistory({
+  roofId,
+  version,
+  checks,
+  canEdit,
+}: {
+  roofId: string;
+  version: number;
+  checks: Route.ComponentProps["loaderData"]["checks"];
+  canEdit: boolean;
+}) {
+  return (
+    <section aria-labelledby="roof-history" className="space-y-2">
+      <h2 id="roof-history" className="text-lg font-semibold">
+        History: design, then as-built checks
+      </h2>
+      <ol className="space-y-2">
+        <li className="text-sm">
+          <strong>Design</strong>: version {version} (below).
+        </li>
+        <li className="space-y-1">
+          <p className="text-sm">
+            <strong>As-built checks</strong>: levels measured on the deck against the design.{" "}
+            <Link to={`/roofs/${roofId}/checks`}>{canEdit ? "All checks and a new one" : "All checks"}</Link>
+          </p>
+          <CheckList roofId={roofId} checks={checks} limit={5} />
+        </li>
+      </ol>
+    </section>
   );
 }
 

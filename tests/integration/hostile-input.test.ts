@@ -134,6 +134,45 @@ const SWEEP: Record<string, Probe[]> = {
   "/roofs/:id/plan.dxf": [{ who: "designer", method: "GET", path: "/roofs/{roof}/plan.dxf", query: { probe: "1" } }],
   "/roofs/:id/roof.glb": [{ who: "designer", method: "GET", path: "/roofs/{roof}/roof.glb", query: { probe: "1" } }],
   "/roofs/:id/sheet": [{ who: "designer", method: "GET", path: "/roofs/{roof}/sheet", query: { paper: "letter" } }],
+  "/roofs/:id/checks": [
+    { who: "designer", method: "GET", path: "/roofs/{roof}/checks", query: { probe: "1" } },
+    {
+      who: "designer",
+      method: "POST",
+      path: "/roofs/{roof}/checks",
+      form: {
+        intent: "form",
+        measuredBy: "Sweep",
+        checkedBy: "Sweep",
+        measuredOn: "2026-12-01",
+        deviationMm: "10",
+        pondDepthMm: "5",
+        "level:J1 start": "abc",
+      },
+    },
+    {
+      who: "designer",
+      method: "POST",
+      path: "/roofs/{roof}/checks",
+      form: {
+        intent: "upload",
+        measuredBy: "Sweep",
+        checkedBy: "Sweep",
+        measuredOn: "2026-12-01",
+        align: "points",
+        refA: "A",
+        refAx: "0",
+        refAy: "0",
+        refB: "B",
+        refBx: "18",
+        refBy: "0",
+        file: "x,y,level,label\n0,0,0.15,A\n18,0,0.15,B\n9,4.5,0.1,C\n",
+      },
+      multipart: true,
+    },
+  ],
+  "/roofs/:id/checks/:checkId": [{ who: "designer", method: "GET", path: "/roofs/{roof}/checks/{check}" }],
+  "/roofs/:id/checks/:checkId.pdf": [{ who: "designer", method: "GET", path: "/roofs/{roof}/checks/{check}.pdf" }],
   // A made-up share token: every answer is a 404 that says so, whatever is sent.
   "/s/:token": [{ who: "anonymous", method: "GET", path: "/s/not-a-real-token", query: { probe: "1" } }],
   "/s/:token/:file": [
@@ -351,6 +390,23 @@ beforeAll(async () => {
   values.roof = (await k("roofs").where({ name: "Library annex, Harrow Lane" }).first("id"))!.id;
   values.class = (await k("classes").where({ name: "Parapet roofs, spring cohort" }).first("id"))!.id;
   values.lesson = "outlets-and-overflows";
+  // A saved as-built check for the check's page and PDF (a survey in the roof's coordinates).
+  const check = new FormData();
+  for (const [k, v] of Object.entries({
+    intent: "upload",
+    measuredBy: "Sweep",
+    checkedBy: "Sweep",
+    measuredOn: "2026-12-01",
+  }))
+    check.append(k, v);
+  check.append("file", new Blob(["x,y,level\n1,1,0.1\n17,1,0.1\n9,8,0.12\n"]), "survey.csv");
+  const saved = await fetch(`${server.url}/roofs/${values.roof}/checks`, {
+    method: "POST",
+    headers: { Origin: server.url, cookie: cookies.designer! },
+    body: check,
+    redirect: "manual",
+  });
+  values.check = /\/checks\/([0-9a-f-]{36})/.exec(saved.headers.get("location") ?? "")?.[1] ?? "no-check-made";
   values.traineeId = await userIdOf("trainee@tidemark.example");
   values.designerId = await userIdOf("designer@tidemark.example");
   const made = await fetch(`${server.url}/api/v1/attempts`, {

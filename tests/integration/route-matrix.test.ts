@@ -113,6 +113,16 @@ const MATRIX: Record<string, Case[]> = {
     { path: "/roofs/{uuid}/sheet", expect: SIGNED_IN(404) },
     { path: "/roofs/{designerRoof}/sheet", expect: SIGNED_IN(200) },
   ],
+  "/roofs/:id/checks": [
+    { path: "/roofs/{uuid}/checks", expect: SIGNED_IN(404) },
+    { path: "/roofs/{designerRoof}/checks", expect: SIGNED_IN(200), why: "whoever may read the roof reads its checks" },
+  ],
+  "/roofs/:id/checks/:checkId": [
+    { path: "/roofs/{designerRoof}/checks/{uuid}", expect: SIGNED_IN(404), why: "no such check on that roof" },
+  ],
+  "/roofs/:id/checks/:checkId.pdf": [
+    { path: "/roofs/{designerRoof}/checks/{uuid}.pdf", expect: SIGNED_IN(404), why: "no such check on that roof" },
+  ],
   "/roofs/:id/schedule.csv": [
     { path: "/roofs/{uuid}/schedule.csv", expect: SIGNED_IN(404) },
     {

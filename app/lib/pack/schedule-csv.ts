@@ -3,6 +3,7 @@ import { formatRatio } from "~/engine";
 import { inchesPerFoot } from "~/lib/units";
 import { CAUTION_LINE } from "~/lib/caution";
 import { datumText, directionDegrees, isoDate, mmOf, packFileName, packOutlets, type PackRoof } from "./facts";
+import { checkPointLines } from "./measured-schedule";
 import { hasMultiSpan, scheduleRows, type ScheduleRow } from "./schedule-rows";
 
 // The one writer of the drop schedule CSV: the sandbox's download, the roof's and the share
@@ -81,6 +82,7 @@ export function scheduleHeader(p: PackRoof): Cell[][] {
     ["outlets", "number", "x_m", "y_m", "level_mm", "joist"],
     ...packOutlets(p).map((o) => ["outlet", o.number, o.at[0], o.at[1], o.level, o.joist] as Cell[]),
     ...planLines(p),
+    ...checkPointLines(p.spec, s.joists, p.units === "us"),
     ["caution", CAUTION_LINE],
   ];
 }
@@ -131,23 +133,34 @@ export function planLines(p: PackRoof): Cell[][] {
   return lines;
 }
 
-/** The columns this roof's schedule has (the span column only where a joist has more than one span). */
+/**
+ * The columns this roof's schedule has (the span column only where a joist has more than one
+ * span). With `measured`, an empty column beside each end's design level for the level measured
+ * on site (docs/as-built.md, "Measured drop schedule").
+ */
 export function scheduleColumns(
   rows: ScheduleRow[],
   units: PackRoof["units"] = "metric",
+  measured = false,
 ): [string, (r: ScheduleRow) => Cell][] {
   const all = units === "us" ? COLUMNS_US : COLUMNS;
   const areas = new Set(rows.map((r) => r.area)).size > 1;
-  return all.filter(([name]) => (name !== "span" || hasMultiSpan(rows)) && (name !== "area" || areas));
+  const unit = units === "us" ? "in" : "mm";
+  const columns = all.filter(([name]) => (name !== "span" || hasMultiSpan(rows)) && (name !== "area" || areas));
+  if (!measured) return columns;
+  return columns.flatMap((c): [string, (r: ScheduleRow) => Cell][] =>
+    /^(start|end)_level_/.test(c[0]) ? [c, [`${c[0].split("_")[0]}_measured_${unit}`, () => ""]] : [c],
+  );
 }
 
 /**
- * The drop schedule as CSV: the header block, an empty line, then one row per joist span.
+ * The drop schedule as CSV: the header block (with the check points along long spans), an empty
+ * line, then one row per joist span with an empty measured column beside each end's level.
  * Text that a spreadsheet would run as a formula (a leading =, +, -, @) is quoted with a '.
  */
 export function scheduleCsv(p: PackRoof): string {
   const rows = scheduleRows(p.analysis.shaped.joists);
-  const columns = scheduleColumns(rows, p.units);
+  const columns = scheduleColumns(rows, p.units, true);
   const header = scheduleHeader(p);
   const width = columns.length;
   const pad = (r: Cell[]) => [...r, ...Array<Cell>(Math.max(0, width - r.length)).fill("")];

@@ -4,7 +4,7 @@
  * The analysis is serialised here too: turning a large answer into JSON is a large share of its
  * cost, and the bytes are handed back without a copy.
  */
-import { analyse, analyseRoof, parseRoofSpec, parseSpec } from "../../engine";
+import { analyse, analyseRoof, asBuilt, parseRoofSpec, parseSpec } from "../../engine";
 import type { PoolTask, PoolResult } from "../../lib/pool-tasks";
 
 const encoder = new TextEncoder();
@@ -47,12 +47,35 @@ function shapeTask(task: Extract<PoolTask, { kind: "shape" }>): PoolResult {
   }
 }
 
+/** An as-built check (docs/as-built.md) of a spec and measured points. */
+function asBuiltTask(task: Extract<PoolTask, { kind: "as-built" }>): PoolResult {
+  const started = performance.now();
+  const parsed = parseSpec(task.spec);
+  if (!parsed.ok)
+    return { kind: "refused", status: parsed.status, error: parsed.error, ms: performance.now() - started };
+  try {
+    const answer = asBuilt(parsed.spec, task.points, task.tolerance);
+    if (!answer.ok)
+      return {
+        kind: "refused",
+        status: answer.status,
+        error: { message: answer.issues.map((i) => i.message).join(" "), issues: answer.issues },
+        ms: performance.now() - started,
+      };
+    return { kind: "as-built", result: answer.result, ms: performance.now() - started };
+  } catch (error) {
+    return { kind: "failed", message: (error as Error)?.message ?? String(error), ms: performance.now() - started };
+  }
+}
+
 export function runTask(task: PoolTask): PoolResult {
   switch (task.kind) {
     case "analyse":
       return analyseTask(task);
     case "shape":
       return shapeTask(task);
+    case "as-built":
+      return asBuiltTask(task);
     default:
       throw new Error(`the engine pool does not run ${task.kind} tasks`);
   }
