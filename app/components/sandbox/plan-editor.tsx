@@ -63,7 +63,7 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
   const drag = useRef<Drag | null>(null);
   const clickTimer = useRef<number | undefined>(undefined);
   const pendingFocus = useRef<Focus | null>(null);
-  const [size, setSize] = useState({ w: 640, h: 440 });
+  const [size, setSize] = useState({ w: 480, h: 360 });
   const [fit, setFit] = useState(0);
   const [zoom, setZoom] = useState<Zoom | null>(null);
   const gesture = useRef<Gesture>({ pointers: new Map(), start: null, moved: false });
