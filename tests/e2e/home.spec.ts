@@ -74,7 +74,10 @@ test("the home sketch's contour arcs stay inside the parapet they call level", a
     const id = /url\(#(.+)\)/.exec(g.getAttribute("clip-path") ?? "")?.[1];
     const clipRect = id ? svg.querySelector(`#${id} rect`) : null;
     const outline = svg.querySelector(":scope > rect")!;
-    const box = (e: Element) => (e as SVGGraphicsElement).getBBox();
+    const box = (e: Element) => {
+      const n = (a: string) => Number(e.getAttribute(a));
+      return { x: n("x"), y: n("y"), width: n("width"), height: n("height") };
+    };
     return { clipped: !!clipRect, parapet: box(outline), clip: clipRect ? box(clipRect) : null };
   });
   expect(clipped).toBe(true);
