@@ -136,16 +136,22 @@ function ShapedRoofSketch() {
       {lines.map((x) => (
         <line key={x} x1={x} y1="14" x2={x} y2="206" stroke="var(--color-rule)" strokeWidth="1" strokeDasharray="3 4" />
       ))}
-      {[40, 80, 120, 160].map((d, i) => (
-        <path
-          key={d}
-          d={`M ${180 - d * 1.6} 206 Q 180 ${206 - d * 0.9} ${180 + d * 1.6} 206`}
-          fill="none"
-          stroke="var(--color-ink-soft)"
-          strokeWidth="1"
-          opacity={1 - i * 0.15}
-        />
-      ))}
+      <clipPath id="home-sketch-inside">
+        <rect x="11.5" y="11.5" width="337" height="197" />
+      </clipPath>
+      {/* The contours stop at the parapet: outside it there is no roof (and the rim is level). */}
+      <g clipPath="url(#home-sketch-inside)" data-testid="home-contours">
+        {[40, 80, 120, 160].map((d, i) => (
+          <path
+            key={d}
+            d={`M ${180 - d * 1.6} 206 Q 180 ${206 - d * 0.9} ${180 + d * 1.6} 206`}
+            fill="none"
+            stroke="var(--color-ink-soft)"
+            strokeWidth="1"
+            opacity={1 - i * 0.15}
+          />
+        ))}
+      </g>
       {[30, 100, 260, 330].map((x) => (
         <path
           key={x}

@@ -251,7 +251,7 @@ function RoofEditor({
                 maxLength={140}
                 aria-invalid={nameError ? true : undefined}
                 aria-describedby={nameError ? "roof-name-error" : undefined}
-                className="w-full max-w-2xl rounded border border-transparent bg-transparent px-1 text-3xl font-bold tracking-tight hover:border-rule focus:border-ink focus:bg-sheet"
+                className="w-full max-w-2xl rounded border border-transparent bg-transparent px-1 text-xl font-bold tracking-tight sm:text-3xl hover:border-rule focus:border-ink focus:bg-sheet"
               />
               {nameError ? (
                 <p id="roof-name-error" className="field-error">

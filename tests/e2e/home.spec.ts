@@ -64,3 +64,25 @@ test("signed in, the home page picks up where each person left off", async ({ br
   await expect(trainer.desk).not.toContainText("Still to pass");
   await trainer.context.close();
 });
+
+test("the home sketch's contour arcs stay inside the parapet they call level", async ({ page }) => {
+  await page.goto("/");
+  const contours = page.getByTestId("home-contours");
+  // Without the clip the widest arc starts 86 units left of the sketch's parapet.
+  const { clipped, parapet, clip } = await contours.evaluate((g) => {
+    const svg = (g as SVGGElement).ownerSVGElement!;
+    const id = /url\(#(.+)\)/.exec(g.getAttribute("clip-path") ?? "")?.[1];
+    const clipRect = id ? svg.querySelector(`#${id} rect`) : null;
+    const outline = svg.querySelector(":scope > rect")!;
+    const box = (e: Element) => {
+      const n = (a: string) => Number(e.getAttribute(a));
+      return { x: n("x"), y: n("y"), width: n("width"), height: n("height") };
+    };
+    return { clipped: !!clipRect, parapet: box(outline), clip: clipRect ? box(clipRect) : null };
+  });
+  expect(clipped).toBe(true);
+  expect(clip!.x).toBeGreaterThanOrEqual(parapet.x);
+  expect(clip!.y).toBeGreaterThanOrEqual(parapet.y);
+  expect(clip!.x + clip!.width).toBeLessThanOrEqual(parapet.x + parapet.width);
+  expect(clip!.y + clip!.height).toBeLessThanOrEqual(parapet.y + parapet.height);
+});

@@ -89,7 +89,7 @@ function PlanSvg({ f }: { f: FigureData }) {
 
 function KeyTable({ f }: { f: FigureData }) {
   return (
-    <dl className="grid grid-cols-[auto_1fr] gap-x-4 text-sm">
+    <dl className="grid grid-cols-[auto_1fr] gap-x-4 text-sm max-sm:grid-cols-2">
       {f.key.map((k) => (
         <div key={k.label} className="col-span-2 grid grid-cols-subgrid border-b border-rule py-1 last:border-b-0">
           <dt className="text-ink-soft">{k.label}</dt>

@@ -24,7 +24,7 @@ export function OutletTable() {
   }
   return (
     <div className="overflow-x-auto">
-      <table className="data-table w-full" data-testid="outlet-table">
+      <table className="data-table card-table w-full" data-testid="outlet-table">
         <caption className="sr-only">Outlets</caption>
         <thead>
           <tr>
@@ -48,7 +48,7 @@ export function OutletTable() {
               <th scope="row" className="border-b border-rule text-sm font-medium normal-case">
                 O{k + 1}
               </th>
-              <td className="w-24">
+              <td className="w-24" data-label={`x (${lengthUnit})`}>
                 <NumberField
                   compact
                   label={`Outlet O${k + 1} x`}
@@ -60,7 +60,7 @@ export function OutletTable() {
                   onCommit={(v) => v != null && edit((s) => setOutlet(s, k, { at: [v, s.outlets[k].at[1]] }))}
                 />
               </td>
-              <td className="w-24">
+              <td className="w-24" data-label={`y (${lengthUnit})`}>
                 <NumberField
                   compact
                   label={`Outlet O${k + 1} y`}
@@ -72,8 +72,10 @@ export function OutletTable() {
                   onCommit={(v) => v != null && edit((s) => setOutlet(s, k, { at: [s.outlets[k].at[0], v] }))}
                 />
               </td>
-              <td className="text-ink-soft">{attachOutlet(spec, o.at).edge + 1}</td>
-              <td className="w-24">
+              <td className="text-ink-soft" data-label="edge">
+                {attachOutlet(spec, o.at).edge + 1}
+              </td>
+              <td className="w-24" data-label={`level (${levelUnit})`}>
                 <NumberField
                   compact
                   label={`Outlet O${k + 1} level`}
@@ -89,7 +91,7 @@ export function OutletTable() {
                   onCommit={(v) => edit((s) => setOutlet(s, k, { level: v }))}
                 />
               </td>
-              <td className="w-24">
+              <td className="w-24" data-label={`size (${levelUnit})`}>
                 <NumberField
                   compact
                   label={`Outlet O${k + 1} size`}
@@ -105,7 +107,7 @@ export function OutletTable() {
                   onCommit={(v) => edit((s) => setOutlet(s, k, { size: v }))}
                 />
               </td>
-              <td className="text-right">
+              <td className="text-right max-sm:self-end">
                 {!readOnly && (
                   <button
                     type="button"

@@ -40,7 +40,7 @@ export function OutlineTable() {
 
   return (
     <div className="overflow-x-auto">
-      <table className="data-table w-full" data-testid="vertex-table">
+      <table className="data-table card-table w-full" data-testid="vertex-table">
         <caption className="sr-only">Outline vertices and the edge from each to the next</caption>
         <thead>
           <tr>
@@ -61,10 +61,11 @@ export function OutlineTable() {
               (selection?.kind === "edge" && selection.index === i);
             return (
               <tr key={i} className={selected ? "bg-accent-wash" : undefined}>
-                <th scope="row" className="w-8 border-b border-rule text-sm font-medium normal-case">
+                <th scope="row" className="w-8 border-b border-rule text-sm font-medium normal-case max-sm:w-auto">
+                  <span className="sm:hidden">Corner </span>
                   {i + 1}
                 </th>
-                <td className="w-24">
+                <td className="w-24" data-label={`x (${lengthUnit})`}>
                   <NumberField
                     compact
                     label={`Vertex ${i + 1} x`}
@@ -77,7 +78,7 @@ export function OutlineTable() {
                     testId={`vertex-${i}-x`}
                   />
                 </td>
-                <td className="w-24">
+                <td className="w-24" data-label={`y (${lengthUnit})`}>
                   <NumberField
                     compact
                     label={`Vertex ${i + 1} y`}
@@ -90,13 +91,13 @@ export function OutlineTable() {
                     testId={`vertex-${i}-y`}
                   />
                 </td>
-                <td>
+                <td data-label="edge to next">
                   <label className="sr-only" htmlFor={`edge-kind-${i}`}>
                     Edge {i + 1} to {((i + 1) % n) + 1} kind
                   </label>
                   <select
                     id={`edge-kind-${i}`}
-                    className="field px-1.5 py-1"
+                    className="field w-auto px-1.5 py-1 max-sm:w-full"
                     value={kinds[i]}
                     disabled={readOnly || edgesLocked}
                     onChange={(e) => changeKind(i, e.target.value as EdgeKind)}
@@ -105,10 +106,12 @@ export function OutlineTable() {
                     <option value="eaves">eaves</option>
                   </select>
                 </td>
-                <td className="whitespace-nowrap text-ink-soft">{metres(edgeLength(spec.outline, i))}</td>
-                <td className="whitespace-nowrap text-right">
+                <td className="whitespace-nowrap text-ink-soft max-sm:self-center" data-label="length">
+                  {metres(edgeLength(spec.outline, i))}
+                </td>
+                <td className="card-wide whitespace-nowrap text-right">
                   {!readOnly && (
-                    <span className="inline-flex gap-1">
+                    <span className="inline-flex flex-wrap gap-1">
                       <button
                         type="button"
                         className="btn px-1.5 py-0.5 text-xs"

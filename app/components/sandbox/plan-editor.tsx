@@ -1,5 +1,5 @@
 import { useEffect, useId, useRef, useState, type KeyboardEvent, type PointerEvent } from "react";
-import { Lock } from "lucide-react";
+import { Lock, Maximize2, ZoomIn, ZoomOut } from "lucide-react";
 import type { Point } from "~/engine";
 import { PlanGrid } from "./plan-grid";
 import { PlanOverlays } from "./plan-overlays";
@@ -29,6 +29,21 @@ type Focus = { kind: "vertex" | "outlet" | "edge"; index: number };
 
 const ARROWS: Record<string, Point> = { ArrowLeft: [-1, 0], ArrowRight: [1, 0], ArrowUp: [0, 1], ArrowDown: [0, -1] };
 
+/** Half the side of a handle's touch area, in screen px: 44 × 44 CSS px (WCAG 2.2 2.5.8 asks 24; platforms ask 44). */
+export const HIT = 22;
+const MIN_ZOOM = 0.5;
+const MAX_ZOOM = 20;
+
+/** Zoomed in or out of the fitted plan: `k` times, centred on (cx, cy) in SVG coordinates. */
+type Zoom = { k: number; cx: number; cy: number };
+type Gesture = {
+  /** Pointers down on the plan's background (not on a handle), by id, in client px. */
+  pointers: Map<number, { x: number; y: number }>;
+  start: { zoom: Zoom; box: Box; pointers: Map<number, { x: number; y: number }> } | null;
+  moved: boolean;
+};
+type Box = { x: number; y: number; w: number; h: number };
+
 /**
  * The plan: draw and edit the outline over a drafting grid. Drag vertices (snapping to the grid and
  * to right angles), double-click an edge to add a vertex, click an edge to place an outlet and drag
@@ -48,8 +63,10 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
   const drag = useRef<Drag | null>(null);
   const clickTimer = useRef<number | undefined>(undefined);
   const pendingFocus = useRef<Focus | null>(null);
-  const [size, setSize] = useState({ w: 640, h: 440 });
+  const [size, setSize] = useState({ w: 480, h: 360 });
   const [fit, setFit] = useState(0);
+  const [zoom, setZoom] = useState<Zoom | null>(null);
+  const gesture = useRef<Gesture>({ pointers: new Map(), start: null, moved: false });
   const [cursor, setCursor] = useState<Point | null>(null);
   const locks = useSandbox((s) => s.locks);
   const outlineLocked = !!locks?.parts.includes("outline");
@@ -79,10 +96,14 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
   useEffect(() => () => window.clearTimeout(clickTimer.current), []);
 
   const frame = usePlanFrame(spec.outline, underlay, dragging, fit);
-  const width = frame.maxX - frame.minX;
-  const height = frame.maxY - frame.minY;
-  // Metres per screen pixel (the SVG keeps its aspect ratio and fits the larger side).
-  const px = Math.max(width / size.w, height / size.h);
+  // The fitted frame grown to the element's shape (so the grid fills it), then zoomed.
+  const fitted = growToAspect(
+    { x: frame.minX, y: -frame.maxY, w: frame.maxX - frame.minX, h: frame.maxY - frame.minY },
+    size.w / size.h,
+  );
+  const box = zoomed(fitted, zoom);
+  // Metres per screen pixel.
+  const px = box.w / size.w;
   const kinds = edgeKindsOf(spec);
   const n = spec.outline.length;
   const ccw = signedArea(spec.outline) > 0;
@@ -104,7 +125,7 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
   /** Every handle within reach of a plan point (outlets first: they are what tasks are about). */
   function handlesAt(p: Point): Focus[] {
     const s = store.getState().spec;
-    const reach = 12 * px;
+    const reach = HIT * px;
     const near = (q: Point) => Math.hypot(q[0] - p[0], q[1] - p[1]) <= reach;
     return [
       ...s.outlets.flatMap((o, k) => (near(o.at) ? [{ kind: "outlet" as const, index: k }] : [])),
@@ -169,6 +190,71 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
     if (e.currentTarget.hasPointerCapture(e.pointerId)) e.currentTarget.releasePointerCapture(e.pointerId);
     drag.current = null;
     store.getState().endGesture();
+  }
+
+  // ── pointer: zoom and pan (two fingers pinch, one finger or the mouse drags the background) ──
+  function snapshot(): Gesture["start"] {
+    return {
+      zoom: zoom ?? { k: 1, cx: fitted.x + fitted.w / 2, cy: fitted.y + fitted.h / 2 },
+      box,
+      pointers: new Map(gesture.current.pointers),
+    };
+  }
+
+  function backgroundDown(e: PointerEvent<SVGSVGElement>) {
+    store.getState().select(null);
+    setChoice(null);
+    const g = gesture.current;
+    g.pointers.set(e.pointerId, { x: e.clientX, y: e.clientY });
+    if (g.pointers.size === 1) g.moved = false;
+    e.currentTarget.setPointerCapture?.(e.pointerId);
+    g.start = snapshot();
+  }
+
+  function backgroundMove(e: PointerEvent<SVGSVGElement>) {
+    const g = gesture.current;
+    if (!g.pointers.has(e.pointerId)) return setCursor(toPlan(e.clientX, e.clientY));
+    g.pointers.set(e.pointerId, { x: e.clientX, y: e.clientY });
+    const start = g.start;
+    const rect = svgRef.current?.getBoundingClientRect();
+    if (!start || !rect || rect.width === 0) return;
+    const ids = [...g.pointers.keys()].filter((id) => start.pointers.has(id)).slice(0, 2);
+    if (ids.length === 0) return;
+    const mid = (m: Map<number, { x: number; y: number }>) => ({
+      x: ids.reduce((t, id) => t + m.get(id)!.x, 0) / ids.length,
+      y: ids.reduce((t, id) => t + m.get(id)!.y, 0) / ids.length,
+    });
+    const a = mid(start.pointers);
+    const b = mid(g.pointers);
+    let k = start.zoom.k;
+    if (ids.length === 2) {
+      const d = (m: Map<number, { x: number; y: number }>) =>
+        Math.hypot(m.get(ids[0])!.x - m.get(ids[1])!.x, m.get(ids[0])!.y - m.get(ids[1])!.y);
+      const d0 = d(start.pointers);
+      if (d0 > 0) k = clamp(start.zoom.k * (d(g.pointers) / d0), MIN_ZOOM, MAX_ZOOM);
+    } else if (!g.moved && Math.hypot(b.x - a.x, b.y - a.y) < 4) {
+      return;
+    }
+    g.moved = true;
+    // The plan point that was under the fingers' midpoint stays under it.
+    const px0 = start.box.x + ((a.x - rect.left) / rect.width) * start.box.w;
+    const py0 = start.box.y + ((a.y - rect.top) / rect.height) * start.box.h;
+    const w = fitted.w / k;
+    const h = fitted.h / k;
+    const x = px0 - ((b.x - rect.left) / rect.width) * w;
+    const y = py0 - ((b.y - rect.top) / rect.height) * h;
+    setZoom({ k, cx: x + w / 2, cy: y + h / 2 });
+  }
+
+  function backgroundUp(e: PointerEvent<SVGSVGElement>) {
+    const g = gesture.current;
+    if (!g.pointers.delete(e.pointerId)) return;
+    g.start = g.pointers.size ? snapshot() : null;
+  }
+
+  function zoomBy(factor: number) {
+    const c = zoom ?? { k: 1, cx: fitted.x + fitted.w / 2, cy: fitted.y + fitted.h / 2 };
+    setZoom({ ...c, k: clamp(c.k * factor, MIN_ZOOM, MAX_ZOOM) });
   }
 
   // ── pointer: edges ──────────────────────────────────────────────────────────
@@ -316,14 +402,16 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
         role="group"
         aria-label="Roof plan editor"
         aria-describedby={helpId}
-        viewBox={`${frame.minX} ${-frame.maxY} ${width} ${height}`}
+        viewBox={`${box.x} ${box.y} ${box.w} ${box.h}`}
         className="block aspect-[4/3] w-full touch-none select-none rounded border border-rule bg-sheet"
-        onPointerDown={() => store.getState().select(null)}
-        onPointerMove={(e) => setCursor(toPlan(e.clientX, e.clientY))}
+        onPointerDown={backgroundDown}
+        onPointerMove={backgroundMove}
+        onPointerUp={backgroundUp}
+        onPointerCancel={backgroundUp}
         onPointerLeave={() => setCursor(null)}
         data-testid="plan"
       >
-        <PlanGrid frame={{ x: frame.minX, y: -frame.maxY, width, height }} step={view.gridStep} />
+        <PlanGrid frame={{ x: box.x, y: box.y, width: box.w, height: box.h }} step={view.gridStep} />
         {underlay && (
           <image
             href={underlay.url}
@@ -372,8 +460,10 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
               <text
                 x={mx + nx * font * 1.2}
                 y={-(my + ny * font * 1.2)}
+                // Along the edge (turned to read left to right), so a side's label never runs out of the frame.
+                transform={`rotate(${readable(a, b)} ${mx + nx * font * 1.2} ${-(my + ny * font * 1.2)})`}
                 fontSize={font}
-                textAnchor={Math.abs(nx) < 0.5 ? "middle" : nx > 0 ? "start" : "end"}
+                textAnchor="middle"
                 dominantBaseline="middle"
                 fill="var(--color-ink-soft)"
                 pointerEvents="none"
@@ -426,13 +516,7 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
               onKeyUp={keyUp}
               data-testid={`vertex-${i}`}
             >
-              <rect
-                x={x - handle * 1.6}
-                y={y - handle * 1.6}
-                width={handle * 3.2}
-                height={handle * 3.2}
-                fill="transparent"
-              />
+              <rect x={x - HIT * px} y={y - HIT * px} width={2 * HIT * px} height={2 * HIT * px} fill="transparent" />
               <rect
                 x={x - handle}
                 y={y - handle}
@@ -492,6 +576,7 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
               onKeyUp={keyUp}
               data-testid={`outlet-${k}`}
             >
+              <circle cx={x} cy={y} r={HIT * px} fill="transparent" />
               {selected && <circle cx={x} cy={y} r={outletR * 1.8} fill="var(--color-accent)" fillOpacity={0.25} />}
               <circle
                 cx={x}
@@ -517,13 +602,48 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
           );
         })}
       </svg>
-      <div
-        className="pointer-events-none absolute bottom-1 left-2 text-[11px] tabular-nums text-ink-soft"
-        aria-hidden="true"
-      >
-        {cursor
-          ? `x ${len_(cursor[0])} · y ${len_(cursor[1])}`
-          : `grid ${view.gridStep >= 1 ? len_(view.gridStep) : level_(view.gridStep)}`}
+      <div className="mt-1 flex items-center justify-between gap-2">
+        <div className="min-w-0 truncate text-[11px] tabular-nums text-ink-soft" aria-hidden="true">
+          {cursor
+            ? `x ${len_(cursor[0])} · y ${len_(cursor[1])}`
+            : `grid ${view.gridStep >= 1 ? len_(view.gridStep) : level_(view.gridStep)}`}
+        </div>
+        <div className="flex shrink-0 gap-1" role="group" aria-label="Plan zoom">
+          <button
+            type="button"
+            className="btn px-2 py-0.5 text-xs"
+            aria-label="Zoom in the plan"
+            title="Zoom in (or pinch)"
+            onClick={() => zoomBy(1.5)}
+            disabled={(zoom?.k ?? 1) >= MAX_ZOOM}
+            data-testid="plan-zoom-in"
+          >
+            <ZoomIn size={14} aria-hidden="true" />
+          </button>
+          <button
+            type="button"
+            className="btn px-2 py-0.5 text-xs"
+            aria-label="Zoom out of the plan"
+            title="Zoom out (or pinch)"
+            onClick={() => zoomBy(1 / 1.5)}
+            disabled={(zoom?.k ?? 1) <= MIN_ZOOM}
+            data-testid="plan-zoom-out"
+          >
+            <ZoomOut size={14} aria-hidden="true" />
+          </button>
+          <button
+            type="button"
+            className="btn px-2 py-0.5 text-xs"
+            title="Fit the roof in the plan"
+            onClick={() => {
+              setZoom(null);
+              setFit((f) => f + 1);
+            }}
+            data-testid="plan-fit"
+          >
+            <Maximize2 size={14} aria-hidden="true" /> Fit
+          </button>
+        </div>
       </div>
       {choice ? (
         <div
@@ -557,13 +677,9 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
           </button>
         </div>
       ) : null}
-      <button
-        type="button"
-        className="btn absolute right-2 top-2 px-2 py-0.5 text-xs"
-        onClick={() => setFit((f) => f + 1)}
-      >
-        Fit
-      </button>
+      <p className="sr-only" aria-live="polite" data-testid="plan-zoom">
+        {zoom ? `Plan zoom ${Math.round(zoom.k * 100)} %` : ""}
+      </p>
       <p id={helpId} className="sr-only">
         Tab moves between vertices, edges and outlets. Arrow keys move a vertex or slide an outlet by the grid step
         (Shift: four steps, Alt: 10 mm). Delete removes it. On an edge: Enter places an outlet at its middle, E switches
@@ -596,4 +712,32 @@ function nearestParapetEdge(outline: Point[], kinds: string[], p: Point): number
     }
   }
   return best;
+}
+
+function clamp(v: number, lo: number, hi: number) {
+  return Math.min(hi, Math.max(lo, v));
+}
+
+/** The box grown (about its centre) to the given width/height ratio. */
+export function growToAspect(b: Box, aspect: number): Box {
+  if (!(aspect > 0) || !(b.w > 0) || !(b.h > 0)) return b;
+  let { w, h } = b;
+  if (w / h < aspect) w = h * aspect;
+  else h = w / aspect;
+  return { x: b.x - (w - b.w) / 2, y: b.y - (h - b.h) / 2, w, h };
+}
+
+function zoomed(b: Box, z: Zoom | null): Box {
+  if (!z) return b;
+  const w = b.w / z.k;
+  const h = b.h / z.k;
+  return { x: z.cx - w / 2, y: z.cy - h / 2, w, h };
+}
+
+/** The angle (degrees, SVG's clockwise) that lays text along the edge a→b and still reads left to right. */
+function readable(a: Point, b: Point): number {
+  let deg = (Math.atan2(-(b[1] - a[1]), b[0] - a[0]) * 180) / Math.PI;
+  if (deg > 90) deg -= 180;
+  if (deg <= -90) deg += 180;
+  return Math.round(deg * 100) / 100;
 }

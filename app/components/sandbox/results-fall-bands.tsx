@@ -48,7 +48,9 @@ export function FallBands({ analysis }: { analysis: Analysis }) {
                       style={{ width: `${Math.max(share * 100, 0.5)}%` }}
                       aria-hidden="true"
                     />
-                    <span className="text-xs text-ink-soft">{(share * 100).toFixed(0)}&nbsp;%</span>
+                    <span className="shrink-0 whitespace-nowrap text-xs text-ink-soft">
+                      {(share * 100).toFixed(0)}&nbsp;%
+                    </span>
                   </span>
                 </td>
               </tr>

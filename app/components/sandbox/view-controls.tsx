@@ -26,7 +26,7 @@ export function ViewControls({ onReset }: { onReset: () => void }) {
           return (
             <label
               key={p.id}
-              className={`cursor-pointer rounded border px-2 py-0.5 ${view.camera === p.id ? "border-ink bg-ink text-sheet" : "border-rule bg-sheet"} ${disabled ? "opacity-40" : ""} has-[:focus-visible]:outline-2 has-[:focus-visible]:outline-accent`}
+              className={`touch-target inline-flex cursor-pointer items-center rounded border px-2 py-0.5 ${view.camera === p.id ? "border-ink bg-ink text-sheet" : "border-rule bg-sheet"} ${disabled ? "opacity-40" : ""} has-[:focus-visible]:outline-2 has-[:focus-visible]:outline-accent`}
             >
               <input
                 type="radio"
@@ -43,7 +43,7 @@ export function ViewControls({ onReset }: { onReset: () => void }) {
         })}
         <button
           type="button"
-          className="ml-1 rounded p-1 hover:bg-paper-deep"
+          className="touch-target ml-1 inline-flex items-center rounded p-1 hover:bg-paper-deep"
           onClick={onReset}
           aria-label="Put the camera back"
           title="Put the camera back"

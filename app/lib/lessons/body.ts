@@ -13,13 +13,22 @@ const yaml = (matter as unknown as { engines: { yaml: { parse(s: string): unknow
 
 const FENCE = /^```(roof|caution)[ \t]*\r?\n([\s\S]*?)^```[ \t]*$/gm;
 
+/**
+ * A number and its unit never part at a line end ("30 %", "16 m", "140 mm"): the space between
+ * them becomes a no-break space (outside tags and entities only matter for text, which is all a
+ * digit-space-unit run can be in the rendered HTML).
+ */
+export function keepUnitsTogether(html: string): string {
+  return html.replace(/(\d) (%|mm\b|m²|m\b|°)/g, "$1\u00a0$2");
+}
+
 /** Markdown rendered for the page. Lesson files are trusted repository content, written by trainers. */
 export function renderMarkdown(md: string): string {
-  return marked.parse(md, { async: false, gfm: true }) as string;
+  return keepUnitsTogether(marked.parse(md, { async: false, gfm: true }) as string);
 }
 
 export function renderInline(md: string): string {
-  return marked.parseInline(md, { async: false, gfm: true }) as string;
+  return keepUnitsTogether(marked.parseInline(md, { async: false, gfm: true }) as string);
 }
 
 /**

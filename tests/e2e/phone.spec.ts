@@ -1,0 +1,146 @@
+import { expect, test, type CDPSession, type Locator, type Page } from "@playwright/test";
+
+// A phone in portrait: touch only, 390 × 844 CSS px.
+test.use({ viewport: { width: 390, height: 844 }, hasTouch: true, isMobile: true });
+// Software WebGL redraws the 3D view after every touch move on a shared two-core machine.
+test.describe.configure({ timeout: 300_000 });
+
+// Demo roof (components/sandbox/demo-roof.ts): 12 m × 8 m, one outlet at (6, 0), base fall 2°:
+// H = 8 m × tan 2° = 279 mm (docs/roof-method.md §3/§4).
+const H_DEMO = "279 mm";
+
+async function openSandbox(page: Page) {
+  await page.goto("/sandbox");
+  await page.evaluate(() => sessionStorage.clear());
+  await page.reload();
+  await expect(page.getByTestId("high-level-figure")).toHaveText(H_DEMO, { timeout: 60_000 });
+  await expect(page.getByTestId("engine-status")).toHaveAttribute("data-computing", "false");
+}
+
+async function centre(locator: Locator) {
+  const box = (await locator.boundingBox())!;
+  return { x: box.x + box.width / 2, y: box.y + box.height / 2 };
+}
+
+/** Real touch input (Chromium turns it into pointer events with pointerType "touch"). */
+async function touchDrag(cdp: CDPSession, from: { x: number; y: number }, to: { x: number; y: number }) {
+  await cdp.send("Input.dispatchTouchEvent", { type: "touchStart", touchPoints: [{ ...from, id: 1 }] });
+  for (let i = 1; i <= 10; i++) {
+    const p = { x: from.x + ((to.x - from.x) * i) / 10, y: from.y + ((to.y - from.y) * i) / 10 };
+    await cdp.send("Input.dispatchTouchEvent", { type: "touchMove", touchPoints: [{ ...p, id: 1 }] });
+  }
+  await cdp.send("Input.dispatchTouchEvent", { type: "touchEnd", touchPoints: [] });
+}
+
+test("phone: the plan's handles and buttons are 44 px targets, the tables are cards, the fields are wide", async ({
+  page,
+}) => {
+  await openSandbox(page);
+  const outline = page.getByTestId("outline-card");
+  // Every button in the outline and outlet cards (+ outlet, + vertex, delete) is visible and at least 44 × 44.
+  const buttons = outline.getByRole("button");
+  expect(await buttons.count()).toBeGreaterThan(8);
+  for (const b of await buttons.all()) {
+    await b.scrollIntoViewIfNeeded();
+    await expect(b).toBeInViewport();
+    const box = (await b.boundingBox())!;
+    expect(box.width, (await b.getAttribute("aria-label")) ?? "").toBeGreaterThanOrEqual(44);
+    expect(box.height).toBeGreaterThanOrEqual(44);
+    expect(box.x + box.width).toBeLessThanOrEqual(390);
+  }
+  // Inputs are wide enough to read "12.00" (they were one character wide in the squeezed table).
+  for (const id of ["vertex-0-x", "vertex-0-y", "vertex-3-x"]) {
+    const box = (await page.getByTestId(id).boundingBox())!;
+    expect(box.width).toBeGreaterThan(120);
+    expect(box.height).toBeGreaterThanOrEqual(44);
+  }
+  // Plan handles: the touch area around each small corner square and outlet disc is 44 × 44.
+  for (const id of ["vertex-0", "vertex-2", "outlet-0"]) {
+    const box = (await page.getByTestId(id).boundingBox())!;
+    expect(box.width).toBeGreaterThanOrEqual(43.5);
+    expect(box.height).toBeGreaterThanOrEqual(43.5);
+  }
+  for (const id of ["plan-zoom-in", "plan-zoom-out", "plan-fit"]) {
+    const box = (await page.getByTestId(id).boundingBox())!;
+    expect(box.width).toBeGreaterThanOrEqual(44);
+    expect(box.height).toBeGreaterThanOrEqual(44);
+  }
+  // Edge labels stay inside the plan (the side edges' labels were clipped to "00 m").
+  const plan = (await page.getByTestId("plan").boundingBox())!;
+  for (const label of await page.getByTestId("plan").locator("text").all()) {
+    const box = await label.boundingBox();
+    if (!box || !(await label.textContent())?.includes("m")) continue;
+    expect(box.x).toBeGreaterThanOrEqual(plan.x - 0.5);
+    expect(box.x + box.width).toBeLessThanOrEqual(plan.x + plan.width + 0.5);
+  }
+  // Nothing on the page scrolls sideways.
+  expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
+});
+
+test("phone: drag a corner and an outlet by touch, pinch the plan, edit a value; the figures follow", async ({
+  page,
+}) => {
+  await openSandbox(page);
+  const cdp = await page.context().newCDPSession(page);
+  const plan = page.getByTestId("plan");
+  await plan.scrollIntoViewIfNeeded();
+  const edge = (await page.getByTestId("edge-0").boundingBox())!;
+  const perMetre = edge.width / 12;
+
+  // Corner 3 (12, 8) dragged 2 m up by a finger: the roof is 12 m × 10 m, H = 10 m × tan 2° = 349 mm.
+  const corner = await centre(page.getByTestId("vertex-2"));
+  await touchDrag(cdp, corner, { x: corner.x, y: corner.y - 2.02 * perMetre });
+  // Where a finger lands is not exact: within one grid step (250 mm) of 10 m.
+  await expect.poll(async () => Number(await page.getByTestId("vertex-2-y").inputValue())).toBeGreaterThan(9.7);
+  expect(Number(await page.getByTestId("vertex-2-y").inputValue())).toBeLessThan(10.3);
+  await expect(page.getByTestId("longest-fall-figure")).not.toContainText("10.0 m at 1:35.8");
+
+  // The outlet slides along its edge from x = 6 m to x = 3 m.
+  // (The plan refitted to the taller roof: measure its scale again.)
+  const scale = (await page.getByTestId("edge-0").boundingBox())!.width / 12;
+  const outlet = await centre(page.getByTestId("outlet-0"));
+  await touchDrag(cdp, outlet, { x: outlet.x - 3 * scale, y: outlet.y });
+  const outletX = page.getByTestId("outlet-table").locator("tbody tr").first().locator("input").first();
+  await expect.poll(async () => Number(await outletX.inputValue())).toBeLessThan(3.3);
+  expect(Number(await outletX.inputValue())).toBeGreaterThan(2.7);
+  await expect(page.getByTestId("catchments")).toBeVisible();
+
+  // Two fingers spread apart on the plan's background: it zooms in (and the zoom control zooms back out).
+  const viewBox = async () => Number((await plan.getAttribute("viewBox"))!.split(" ")[2]);
+  await page.getByTestId("plan-fit").tap();
+  const before = await viewBox();
+  const p = (await plan.boundingBox())!;
+  const mid = { x: p.x + p.width / 2, y: p.y + p.height * 0.35 };
+  await cdp.send("Input.dispatchTouchEvent", {
+    type: "touchStart",
+    touchPoints: [
+      { x: mid.x - 20, y: mid.y, id: 1 },
+      { x: mid.x + 20, y: mid.y, id: 2 },
+    ],
+  });
+  for (let i = 1; i <= 8; i++) {
+    await cdp.send("Input.dispatchTouchEvent", {
+      type: "touchMove",
+      touchPoints: [
+        { x: mid.x - 20 - 5 * i, y: mid.y, id: 1 },
+        { x: mid.x + 20 + 5 * i, y: mid.y, id: 2 },
+      ],
+    });
+  }
+  await cdp.send("Input.dispatchTouchEvent", { type: "touchEnd", touchPoints: [] });
+  // The fingers went from 40 px to 120 px apart: three times closer.
+  await expect.poll(async () => before / (await viewBox())).toBeGreaterThan(2.5);
+  expect(before / (await viewBox())).toBeLessThan(3.5);
+  await page.getByTestId("plan-fit").tap();
+  await expect.poll(viewBox).toBeCloseTo(before, 3);
+  await page.getByTestId("plan-zoom-in").tap();
+  await expect.poll(async () => before / (await viewBox())).toBeCloseTo(1.5, 3);
+  await page.getByTestId("plan-fit").tap();
+
+  // Values typed on the phone: corners 3 and 4 at y = 10 make a 12 m × 10 m rectangle, H = 349 mm.
+  for (const id of ["vertex-2-y", "vertex-3-y"]) {
+    await page.getByTestId(id).tap();
+    await page.getByTestId(id).fill("10");
+  }
+  await expect(page.getByTestId("high-level-figure")).toHaveText("349 mm");
+});
