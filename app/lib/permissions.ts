@@ -7,6 +7,7 @@ export const PERMISSIONS = {
   "lessons:take": ["admin", "trainer", "trainee", "designer"],
   "classes:manage": ["admin", "trainer"],
   "classes:follow": ["trainee"],
+  "classes:hand-up": ["trainee"],
   "gradebook:view": ["admin", "trainer"],
   "attempts:review": ["admin", "trainer"],
   "invite:trainee": ["admin", "trainer"],
