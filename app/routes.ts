@@ -29,6 +29,7 @@ export default [
   route("sandbox/plan.dxf", "routes/sandbox.plan-dxf.ts"),
   route("sandbox/roof.glb", "routes/sandbox.roof-glb.ts"),
   route("classes/:id/live", "routes/classes.$id.live.ts"),
+  route("classes/:id/hand-ups", "routes/classes.$id.hand-ups.ts"),
   route("classes/:id/gradebook.csv", "routes/classes.$id.gradebook-csv.ts"),
   route("classes/:id/present", "routes/classes.$id.present.tsx"),
   layout("routes/_shell.tsx", [

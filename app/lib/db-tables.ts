@@ -1,12 +1,13 @@
 /**
  * The database tables as TypeScript sees them (Knex's table type augmentation): what a select
  * returns, and what an insert must give (columns with a default or that may be null are optional).
- * Written from the migrations in db/migrations; a test compares these columns with the live schema.
- * jsonb columns are `unknown` here: what is stored is read through its own schema at the edge
- * (a roof spec through the engine's parseSpec, lesson content through the lesson schema).
- * Dates (`date`) come back as "YYYY-MM-DD" text (see db.server.ts), bigint as text (pg's default).
+ * Written from the migrations in db/migrations; tests/integration/db-tables.test.ts holds these
+ * columns to the migrated schema. jsonb columns are `unknown` here: what is stored is read through
+ * its own schema or type at the edge. Dates (`date`) come back as "YYYY-MM-DD" text (see
+ * db.server.ts), bigint as text (pg's default).
  */
 import type { Knex } from "knex";
+import type { LivePhase } from "~/lib/live.server";
 import type { Role } from "~/lib/permissions";
 
 /** What a write may give for a column: its value, or SQL (`now()`), and text for a timestamp. */
@@ -95,6 +96,18 @@ export interface AuditLogRow {
 export type AuditLogInsert = Omit<AuditLogRow, "id" | "actor_id" | "subject_id" | "detail" | "ip" | "at"> &
   Partial<Pick<AuditLogRow, "id" | "actor_id" | "subject_id" | "detail" | "ip" | "at">>;
 
+export interface ClassHandUpRow {
+  id: string;
+  class_id: string;
+  user_id: string;
+  title: string;
+  spec: unknown;
+  figures: unknown;
+  created_at: Date;
+}
+export type ClassHandUpInsert = Omit<ClassHandUpRow, "id" | "title" | "created_at"> &
+  Partial<Pick<ClassHandUpRow, "id" | "title" | "created_at">>;
+
 export interface ClassMemberRow {
   class_id: string;
   user_id: string;
@@ -113,12 +126,19 @@ export interface ClassRow {
   live_state: unknown | null;
   live_seq: number;
   created_at: Date;
+  live_phase: LivePhase;
+  wall_seq: number;
 }
 export type ClassInsert = Omit<
   ClassRow,
-  "id" | "starts_on" | "ends_on" | "venue" | "live_state" | "live_seq" | "created_at"
+  "id" | "starts_on" | "ends_on" | "venue" | "live_state" | "live_seq" | "created_at" | "live_phase" | "wall_seq"
 > &
-  Partial<Pick<ClassRow, "id" | "starts_on" | "ends_on" | "venue" | "live_state" | "live_seq" | "created_at">>;
+  Partial<
+    Pick<
+      ClassRow,
+      "id" | "starts_on" | "ends_on" | "venue" | "live_state" | "live_seq" | "created_at" | "live_phase" | "wall_seq"
+    >
+  >;
 
 export interface LessonVersionRow {
   slug: string;
@@ -314,6 +334,7 @@ export const TABLE_COLUMNS = {
     "idempotency_hash",
   ],
   audit_log: ["id", "actor_id", "subject_id", "action", "detail", "ip", "at"],
+  class_hand_ups: ["id", "class_id", "user_id", "title", "spec", "figures", "created_at"],
   class_members: ["class_id", "user_id", "joined_at"],
   classes: [
     "id",
@@ -326,6 +347,8 @@ export const TABLE_COLUMNS = {
     "live_state",
     "live_seq",
     "created_at",
+    "live_phase",
+    "wall_seq",
   ],
   lesson_versions: ["slug", "version", "content", "first_seen_at"],
   lessons: ["slug", "title", "position", "version", "content", "synced_at"],
@@ -380,6 +403,11 @@ declare module "knex/types/tables" {
     >;
     attempts: Knex.CompositeTableType<AttemptRow, Writable<AttemptInsert>, Partial<Writable<AttemptRow>>>;
     audit_log: Knex.CompositeTableType<AuditLogRow, Writable<AuditLogInsert>, Partial<Writable<AuditLogRow>>>;
+    class_hand_ups: Knex.CompositeTableType<
+      ClassHandUpRow,
+      Writable<ClassHandUpInsert>,
+      Partial<Writable<ClassHandUpRow>>
+    >;
     class_members: Knex.CompositeTableType<
       ClassMemberRow,
       Writable<ClassMemberInsert>,

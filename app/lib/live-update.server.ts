@@ -34,3 +34,26 @@ export function parseLiveUpdate(body: unknown): { ok: true; value: LiveUpdate } 
   }
   return { ok: true, value: { ...shaped.data, spec: spec.spec } };
 }
+
+const PhaseChange = z.object({ phase: z.enum(["live", "paused", "ended"]) }).strict();
+
+/**
+ * A body that names a phase (and nothing else) pauses, resumes or ends the session; null when the
+ * body is a roof update instead.
+ */
+export function parsePhaseChange(
+  body: unknown,
+): { ok: true; phase: "live" | "paused" | "ended" } | { ok: false; response: Response } | null {
+  if (!body || typeof body !== "object" || Array.isArray(body) || !("phase" in body)) return null;
+  const parsed = PhaseChange.safeParse(body);
+  if (!parsed.success)
+    return {
+      ok: false,
+      response: jsonError(
+        400,
+        "Say which phase: live, paused or ended (and nothing else).",
+        zodIssues(parsed.error.issues),
+      ),
+    };
+  return { ok: true, phase: parsed.data.phase };
+}

@@ -6,6 +6,7 @@
  * server-sent-event streams. Because the notification goes through PostgreSQL, followers on
  * any process see a change made on any other.
  */
+import type { Knex } from "knex";
 import pg from "pg";
 import { db } from "~/lib/db.server";
 
@@ -24,13 +25,23 @@ export interface LiveContent {
   at: string;
 }
 
+/**
+ * Where the class's session stands: `idle` before anything was presented (followers wait),
+ * `live`, `paused` by the trainer (followers keep the last roof), `ended` when the trainer stopped.
+ */
+export const LIVE_PHASES = ["idle", "live", "paused", "ended"] as const;
+export type LivePhase = (typeof LIVE_PHASES)[number];
+
 export interface LiveSnapshot {
   classId: string;
   seq: number;
   state: LiveContent | null;
+  phase: LivePhase;
 }
 
 export type LiveListener = (snapshot: LiveSnapshot) => void;
+/** Told that a class's wall of hands up may have changed: it reads the wall and skips what it has sent. */
+export type WallListener = () => void;
 
 const encoder = new TextEncoder();
 const frames = new WeakMap<LiveSnapshot, Uint8Array>();
@@ -43,7 +54,7 @@ export function liveFrame(snap: LiveSnapshot): Uint8Array {
   let bytes = frames.get(snap);
   if (!bytes) {
     bytes = encoder.encode(
-      `id: ${snap.seq}\nevent: state\ndata: ${JSON.stringify({ seq: snap.seq, state: snap.state })}\n\n`,
+      `id: ${snap.seq}\nevent: state\ndata: ${JSON.stringify({ seq: snap.seq, state: snap.state, phase: snap.phase })}\n\n`,
     );
     frames.set(snap, bytes);
   }
@@ -51,8 +62,15 @@ export function liveFrame(snap: LiveSnapshot): Uint8Array {
 }
 
 export async function readLiveState(classId: string): Promise<LiveSnapshot | null> {
-  const row = await db()("classes").where({ id: classId }).first("live_seq", "live_state");
-  return row ? { classId, seq: row.live_seq, state: (row.live_state as LiveContent | null) ?? null } : null;
+  const row = await db()("classes").where({ id: classId }).first("live_seq", "live_state", "live_phase");
+  return row
+    ? {
+        classId,
+        seq: row.live_seq,
+        state: (row.live_state as LiveContent | null) ?? null,
+        phase: row.live_phase as LivePhase,
+      }
+    : null;
 }
 
 /**
@@ -62,7 +80,7 @@ export async function readLiveState(classId: string): Promise<LiveSnapshot | nul
 export async function publishLiveState(classId: string, content: LiveContent): Promise<number | null> {
   const seq = await db().transaction(async (trx) => {
     const { rows } = await trx.raw(
-      `update classes set live_state = ?::jsonb, live_seq = live_seq + 1 where id = ? returning live_seq`,
+      `update classes set live_state = ?::jsonb, live_phase = 'live', live_seq = live_seq + 1 where id = ? returning live_seq`,
       [JSON.stringify(content), classId],
     );
     if (!rows.length) return null;
@@ -70,8 +88,58 @@ export async function publishLiveState(classId: string, content: LiveContent): P
     await trx.raw(`select pg_notify(?, ?)`, [LIVE_CHANNEL, JSON.stringify({ classId, seq })]);
     return seq;
   });
-  if (seq !== null) globalThis.__fallwrightLiveHub?.deliver({ classId, seq, state: content });
+  if (seq !== null) globalThis.__fallwrightLiveHub?.deliver({ classId, seq, state: content, phase: "live" });
   return seq;
+}
+
+export type PhaseChange =
+  | { ok: true; seq: number }
+  | { ok: false; reason: "missing" }
+  | { ok: false; reason: "not-presenting"; phase: LivePhase };
+
+/**
+ * The trainer pauses, resumes or ends the session. Pausing or resuming needs a session that is
+ * live or paused; ending always works and clears the class's hands up (they belong to the session).
+ */
+export async function setLivePhase(classId: string, phase: "live" | "paused" | "ended"): Promise<PhaseChange> {
+  const result = await db().transaction(async (trx): Promise<PhaseChange & { snap?: LiveSnapshot; wall?: number }> => {
+    const row = await trx("classes").where({ id: classId }).forUpdate().first("live_phase", "live_state");
+    if (!row) return { ok: false, reason: "missing" };
+    if (phase !== "ended" && (row.live_state == null || !["live", "paused"].includes(row.live_phase)))
+      return { ok: false, reason: "not-presenting", phase: row.live_phase };
+    const { rows } = await trx.raw(
+      `update classes set live_phase = ?, live_seq = live_seq + 1 where id = ? returning live_seq`,
+      [phase, classId],
+    );
+    const seq: number = rows[0].live_seq;
+    await trx.raw(`select pg_notify(?, ?)`, [LIVE_CHANNEL, JSON.stringify({ classId, seq })]);
+    let wall: number | undefined;
+    if (phase === "ended") {
+      const cleared = await trx("class_hand_ups").where({ class_id: classId }).del();
+      if (cleared) wall = await bumpWall(trx, classId);
+    }
+    return {
+      ok: true,
+      seq,
+      snap: { classId, seq, state: (row.live_state as LiveContent | null) ?? null, phase },
+      wall,
+    };
+  });
+  const hub = globalThis.__fallwrightLiveHub;
+  if (result.ok && result.snap) hub?.deliver(result.snap);
+  if (result.ok && result.wall !== undefined) hub?.deliverWall(classId);
+  if (!result.ok) return result;
+  return { ok: true, seq: result.seq };
+}
+
+/** Inside a transaction that changed the class's hands up: a new wall number, announced on commit. */
+export async function bumpWall(trx: Knex.Transaction, classId: string): Promise<number> {
+  const { rows } = await trx.raw(`update classes set wall_seq = wall_seq + 1 where id = ? returning wall_seq`, [
+    classId,
+  ]);
+  const wall: number = rows[0].wall_seq;
+  await trx.raw(`select pg_notify(?, ?)`, [LIVE_CHANNEL, JSON.stringify({ classId, wall })]);
+  return wall;
 }
 
 interface HubOptions {
@@ -92,6 +160,7 @@ export class LiveHub {
   private retry: ReturnType<typeof setTimeout> | null = null;
   private probe: ReturnType<typeof setInterval> | null = null;
   private readonly subs = new Map<string, Set<LiveListener>>();
+  private readonly wallSubs = new Map<string, Set<WallListener>>();
   /** Per class: a read in flight, and whether another notification came while it ran. */
   private readonly reading = new Map<string, { again: boolean }>();
   private readonly streams = new Set<() => void>();
@@ -129,6 +198,26 @@ export class LiveHub {
     };
   }
 
+  /** Follows one class's wall of hands up (the trainer's streams); the listener reads the wall itself. */
+  subscribeWall(classId: string, listener: WallListener): { ready: Promise<void>; unsubscribe: () => void } {
+    let set = this.wallSubs.get(classId);
+    if (!set) this.wallSubs.set(classId, (set = new Set()));
+    set.add(listener);
+    const ready = this.ensure().catch(() => {});
+    return {
+      ready,
+      unsubscribe: () => {
+        const s = this.wallSubs.get(classId);
+        s?.delete(listener);
+        if (s && s.size === 0) this.wallSubs.delete(classId);
+      },
+    };
+  }
+
+  deliverWall(classId: string) {
+    for (const l of this.wallSubs.get(classId) ?? []) l();
+  }
+
   /** Open event streams register how to end them, so shutdown does not wait for them. */
   trackStream(end: () => void): () => void {
     this.streams.add(end);
@@ -155,8 +244,10 @@ export class LiveHub {
     client.on("notification", (msg) => {
       if (msg.channel !== LIVE_CHANNEL || !msg.payload) return;
       try {
-        const { classId } = JSON.parse(msg.payload) as { classId?: unknown };
-        if (typeof classId === "string" && this.subs.has(classId)) this.refresh(classId);
+        const { classId, wall } = JSON.parse(msg.payload) as { classId?: unknown; wall?: unknown };
+        if (typeof classId !== "string") return;
+        if (typeof wall === "number") this.deliverWall(classId);
+        else if (this.subs.has(classId)) this.refresh(classId);
       } catch {
         /* not ours */
       }
@@ -180,7 +271,10 @@ export class LiveHub {
     this.failures = 0;
     this.startProbe(client);
     // Whatever changed while nobody was listening: read every followed class again.
-    if (reconnected) for (const classId of this.subs.keys()) this.refresh(classId);
+    if (reconnected) {
+      for (const classId of this.subs.keys()) this.refresh(classId);
+      for (const classId of this.wallSubs.keys()) this.deliverWall(classId);
+    }
   }
 
   private startProbe(client: pg.Client) {
@@ -214,7 +308,7 @@ export class LiveHub {
     this.failures += 1;
     this.retry = setTimeout(() => {
       this.retry = null;
-      if (this.subs.size === 0 && !this.client) {
+      if (this.subs.size === 0 && this.wallSubs.size === 0 && !this.client) {
         // Nobody follows anything: connect again on the next subscribe.
         this.failures = 0;
         return;
@@ -260,6 +354,7 @@ export class LiveHub {
     for (const end of [...this.streams]) end();
     this.streams.clear();
     this.subs.clear();
+    this.wallSubs.clear();
     const client = this.client;
     this.client = null;
     await this.connecting?.catch(() => {});

@@ -9,6 +9,7 @@ export const PERMISSIONS = {
   // Who has a Classes page with something on it (designers belong to no class: no menu item).
   "classes:view": ["admin", "trainer", "trainee"],
   "classes:follow": ["trainee"],
+  "classes:hand-up": ["trainee"],
   "gradebook:view": ["admin", "trainer"],
   "attempts:review": ["admin", "trainer"],
   "invite:trainee": ["admin", "trainer"],

@@ -2,8 +2,15 @@ import type { Route } from "./+types/classes.$id.live";
 import { getOptionalUser } from "~/lib/auth.server";
 import { getClassFor } from "~/lib/classes.server";
 import { jsonError, readJsonBody } from "~/lib/json-api.server";
-import { parseLiveUpdate } from "~/lib/live-update.server";
-import { liveFrame, liveHub, publishLiveState, readLiveState, type LiveSnapshot } from "~/lib/live.server";
+import { parseLiveUpdate, parsePhaseChange } from "~/lib/live-update.server";
+import {
+  liveFrame,
+  liveHub,
+  publishLiveState,
+  readLiveState,
+  setLivePhase,
+  type LiveSnapshot,
+} from "~/lib/live.server";
 
 const HEARTBEAT_MS = 15_000;
 // An event (not a comment) so the page can tell a stalled stream from a quiet one.
@@ -89,7 +96,10 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   });
 }
 
-/** POST {spec, title, source, step}: the presenting trainer changes the live roof. */
+/**
+ * POST {spec, title, source, deck, step}: the presenting trainer changes the live roof (and the
+ * session is live). POST {phase: "paused" | "live" | "ended"}: pauses, resumes or ends the session.
+ */
 export async function action({ request, params }: Route.ActionArgs) {
   if (request.method !== "POST") return jsonError(405, "Use POST here.", [], { Allow: "GET, POST" });
   const user = await getOptionalUser(request);
@@ -98,6 +108,18 @@ export async function action({ request, params }: Route.ActionArgs) {
   if (!cls) return jsonError(404, "No such class among yours.");
   const body = await readJsonBody(request, 512 * 1024);
   if (!body.ok) return body.response;
+  const phase = parsePhaseChange(body.value);
+  if (phase) {
+    if (!phase.ok) return phase.response;
+    const changed = await setLivePhase(cls.id, phase.phase);
+    if (changed.ok) return Response.json({ seq: changed.seq, phase: phase.phase });
+    if (changed.reason === "missing") return jsonError(404, "No such class among yours.");
+    return jsonError(
+      409,
+      `Nothing to ${phase.phase === "live" ? "resume" : "pause"}: the class is not being presented.`,
+      [{ path: "phase", message: `the session is ${changed.phase === "idle" ? "not started" : changed.phase}` }],
+    );
+  }
   const update = parseLiveUpdate(body.value);
   if (!update.ok) return update.response;
   const seq = await publishLiveState(cls.id, {

@@ -1,16 +1,19 @@
 import { useCallback, useEffect, useMemo, useRef, useState } from "react";
-import { Link, useLoaderData } from "react-router";
-import { ChevronLeft, ChevronRight, Maximize, RotateCcw, X } from "lucide-react";
+import { Link, useLoaderData, useNavigate } from "react-router";
+import { ChevronLeft, ChevronRight, Hand, Maximize, Pause, Play, RotateCcw, X } from "lucide-react";
 import type { Route } from "./+types/classes.$id.present";
 import { requirePermission } from "~/lib/auth.server";
 import { findClassFor } from "~/lib/classes.server";
 import { readLiveState } from "~/lib/live.server";
+import { liveCaption, type CaptionBase } from "~/lib/live-caption";
 import { presenterDecks } from "~/lib/present.server";
 import { DECK_GROUP_LABELS, type DeckGroup } from "~/lib/present-groups";
 import { Caution } from "~/components/caution";
 import { PageErrorBoundary } from "~/components/error-boundary";
 import { LiveRoof } from "~/components/classes/live-roof";
+import { HandUpWall } from "~/components/classes/hand-up-wall";
 import { PublishState } from "~/components/classes/publish-state";
+import { useHandUpWall, type HandUpView } from "~/components/classes/use-hand-up-wall";
 import { useLivePublisher } from "~/components/classes/use-live-publisher";
 
 export const meta: Route.MetaFunction = ({ data }) => [
@@ -32,8 +35,44 @@ function typingIn(target: EventTarget | null) {
   return !!el && (el.isContentEditable || ["INPUT", "TEXTAREA", "SELECT"].includes(el.tagName));
 }
 
+/** What the caption was written for: a deck step's roof, or a roof a trainee handed up. */
+interface Origin extends CaptionBase {
+  source: string;
+  step: { index: number; count: number } | null;
+  handUpId: string | null;
+}
+
+interface DeckView {
+  key: string;
+  title: string;
+  roofs: { caption: string; spec: unknown }[];
+}
+
+const deckSource = (d: DeckView) => d.title.replace(/ \(assigned\)$/, "");
+
+function stepOrigin(d: DeckView | undefined, i: number): Origin | null {
+  const r = d?.roofs[i];
+  if (!d || !r) return null;
+  return {
+    caption: r.caption,
+    spec: r.spec,
+    source: deckSource(d),
+    step: { index: i, count: d.roofs.length },
+    handUpId: null,
+  };
+}
+
+function Key({ children }: { children: React.ReactNode }) {
+  return (
+    <kbd className="rounded border border-current px-1.5 font-mono text-base leading-tight" aria-hidden="true">
+      {children}
+    </kbd>
+  );
+}
+
 export default function Present() {
   const { cls, decks, live } = useLoaderData<typeof loader>();
+  const navigate = useNavigate();
   const resumed = live?.state && decks.some((d) => d.key === live.state!.deck) ? live.state : null;
   const [deckKey, setDeckKey] = useState(resumed?.deck ?? decks[0]?.key ?? "");
   const deck = decks.find((d) => d.key === deckKey) ?? decks[0];
@@ -41,63 +80,117 @@ export default function Present() {
   const [index, setIndex] = useState(() => Math.min(resumed?.step?.index ?? 0, Math.max(0, count - 1)));
   // The roof on screen: the step's original until the trainer edits it (or what was live before a reload).
   const [spec, setSpec] = useState<unknown>(resumed ? resumed.spec : deck?.roofs[index]?.spec);
+  const [origin, setOrigin] = useState<Origin | null>(() => stepOrigin(deck, index));
   const [version, setVersion] = useState(0);
-  const { publish, status } = useLivePublisher(cls.id, resumed ? live!.seq : null);
+  const [paused, setPaused] = useState(!!resumed && live?.phase === "paused");
+  const [wallOpen, setWallOpen] = useState(false);
+  const [ending, setEnding] = useState(false);
+  const { publish, setPhase, end, status } = useLivePublisher(cls.id, resumed ? live!.seq : null);
+  const { wall } = useHandUpWall(cls.id);
   // A step puts its roof in the workspace, which reports it back as a change: that one is already sent.
   const stepSpec = useRef<unknown>(null);
-  const roof = deck?.roofs[index];
+  const pausedRef = useRef(paused);
+  pausedRef.current = paused;
 
+  const caption = liveCaption(origin, spec);
   const content = useCallback(
-    (nextSpec: unknown, d = deck, i = index) => ({
-      spec: nextSpec,
-      title: d?.roofs[i]?.caption ?? "",
-      source: d ? d.title.replace(/ \(assigned\)$/, "") : "",
-      deck: d?.key ?? "",
-      step: d ? { index: i, count: d.roofs.length } : null,
-    }),
-    [deck, index],
+    (o: Origin | null, nextSpec: unknown, d: DeckView | undefined = deck) => {
+      const c = liveCaption(o, nextSpec);
+      return {
+        spec: nextSpec,
+        title: c.title,
+        source: o ? `${o.source}${c.changed ? " · changed live" : ""}` : "",
+        deck: d?.key ?? "",
+        step: o?.step ?? null,
+      };
+    },
+    [deck],
+  );
+
+  const show = useCallback(
+    (o: Origin, d: DeckView | undefined = deck) => {
+      setOrigin(o);
+      setSpec(o.spec);
+      stepSpec.current = o.spec;
+      setVersion((v) => v + 1);
+      if (!pausedRef.current) publish(content(o, o.spec, d));
+    },
+    [publish, content, deck],
   );
 
   const goTo = useCallback(
-    (d: (typeof decks)[number] | undefined, i: number) => {
-      if (!d || i < 0 || i >= d.roofs.length) return;
+    (d: DeckView | undefined, i: number) => {
+      const o = stepOrigin(d, i);
+      if (!d || !o) return;
       setDeckKey(d.key);
       setIndex(i);
-      setSpec(d.roofs[i].spec);
-      stepSpec.current = d.roofs[i].spec;
-      setVersion((v) => v + 1);
-      publish(content(d.roofs[i].spec, d, i));
+      show(o, d);
     },
-    [publish, content],
+    [show],
   );
 
-  // Nothing live yet: what is on screen goes out at once.
+  const showHandUp = useCallback(
+    (h: HandUpView) => {
+      show({
+        caption: `Handed up by ${h.name}${h.title ? `: “${h.title}”` : ""}`,
+        spec: h.spec,
+        source: `Hands up · ${h.name}`,
+        step: null,
+        handUpId: h.id,
+      });
+      setWallOpen(false);
+    },
+    [show],
+  );
+
+  // Nothing live yet (or the last session ended or was paused): what is on screen goes out at once.
   const started = useRef(false);
   useEffect(() => {
-    if (started.current || resumed || !deck) return;
+    if (started.current || !deck) return;
     started.current = true;
-    publish(content(spec));
-  }, [resumed, deck, spec, publish, content]);
+    if (resumed && live?.phase !== "ended") return;
+    publish(content(origin, spec));
+  }, [resumed, live, deck, spec, origin, publish, content]);
+
+  const togglePause = useCallback(() => {
+    if (pausedRef.current) {
+      setPaused(false);
+      pausedRef.current = false;
+      // Resuming sends the roof as it is now (edits made while paused included).
+      publish(content(origin, spec));
+    } else {
+      setPaused(true);
+      pausedRef.current = true;
+      setPhase("paused");
+    }
+  }, [publish, setPhase, content, origin, spec]);
+
+  const stop = useCallback(async () => {
+    setEnding(true);
+    if (await end()) navigate(`/classes/${cls.id}`);
+    else setEnding(false);
+  }, [end, navigate, cls.id]);
 
   useEffect(() => {
     const onKey = (e: KeyboardEvent) => {
       if (typingIn(e.target) || e.altKey || e.ctrlKey || e.metaKey) return;
       if (e.key === "ArrowRight" || e.key === "PageDown") goTo(deck, index + 1);
       else if (e.key === "ArrowLeft" || e.key === "PageUp") goTo(deck, index - 1);
+      else if (e.key === "Escape" && wallOpen) setWallOpen(false);
       else return;
       e.preventDefault();
     };
     window.addEventListener("keydown", onKey);
     return () => window.removeEventListener("keydown", onKey);
-  }, [goTo, deck, index]);
+  }, [goTo, deck, index, wallOpen]);
 
   const onSpecChange = useCallback(
     (next: unknown) => {
       setSpec(next);
-      if (next === stepSpec.current) return;
-      publish(content(next));
+      if (next === stepSpec.current || pausedRef.current) return;
+      publish(content(origin, next));
     },
-    [publish, content],
+    [publish, content, origin],
   );
   // The list in its parts (assigned, other lessons, my roofs), each in course order, with a divider between.
   const deckGroups = useMemo(
@@ -116,18 +209,31 @@ export default function Present() {
         .filter((g) => g.options.length),
     [decks],
   );
+  const hands = wall?.handUps.length ?? 0;
 
   return (
-    <div className="flex min-h-screen flex-col bg-sheet text-ink">
-      <header className="flex items-center gap-6 bg-ink px-6 py-3 text-sheet">
-        <div className="min-w-0 flex-1">
-          <p className="text-sm uppercase tracking-widest text-sheet/80">Presenting · {cls.name}</p>
+    <div className="flex h-screen flex-col overflow-hidden bg-sheet text-ink">
+      <header className="flex flex-wrap items-center gap-x-6 gap-y-2 bg-ink px-6 py-3 text-sheet">
+        <div className="min-w-0 flex-1 basis-[28rem]">
+          <div className="flex flex-wrap items-baseline gap-x-4">
+            <p className="text-base uppercase tracking-widest text-sheet/80">
+              Presenting · {cls.name}
+              {origin ? ` · ${origin.source}` : ""}
+            </p>
+            {paused ? (
+              <span role="status" className="ml-auto font-medium text-accent-wash">
+                ‖ Paused · the class keeps the last roof sent
+              </span>
+            ) : (
+              <PublishState status={status} onDark />
+            )}
+          </div>
           <h1
-            className="line-clamp-2 text-2xl font-bold leading-tight xl:text-3xl"
+            className="text-3xl font-bold leading-tight 2xl:text-4xl"
             aria-live="polite"
-            title={roof?.caption}
+            data-changed={caption.changed}
           >
-            {roof?.caption ?? "No roofs to present"}
+            {spec ? caption.title : "No roofs to present"}
           </h1>
         </div>
         <nav aria-label="Steps" className="flex shrink-0 items-center gap-3">
@@ -137,11 +243,12 @@ export default function Present() {
             onClick={() => goTo(deck, index - 1)}
             disabled={index <= 0}
             aria-label="Previous roof (left arrow)"
+            aria-keyshortcuts="ArrowLeft PageUp"
           >
-            <ChevronLeft aria-hidden="true" className="h-7 w-7" /> Back
+            <ChevronLeft aria-hidden="true" className="h-7 w-7" /> Back <Key>←</Key>
           </button>
           <span
-            className="min-w-24 text-center text-2xl font-bold tabular-nums"
+            className="min-w-24 text-center text-3xl font-bold tabular-nums"
             aria-label={`Step ${index + 1} of ${count}`}
           >
             {count ? `${index + 1} / ${count}` : "—"}
@@ -152,29 +259,17 @@ export default function Present() {
             onClick={() => goTo(deck, index + 1)}
             disabled={index >= count - 1}
             aria-label="Next roof (right arrow)"
+            aria-keyshortcuts="ArrowRight PageDown"
           >
-            Next <ChevronRight aria-hidden="true" className="h-7 w-7" />
+            <Key>→</Key> Next <ChevronRight aria-hidden="true" className="h-7 w-7" />
           </button>
         </nav>
-        <div className="flex shrink-0 items-center gap-2">
-          <button
-            type="button"
-            className={BIG_BUTTON}
-            onClick={() => void document.documentElement.requestFullscreen?.().catch(() => {})}
-            aria-label="Full screen"
-          >
-            <Maximize aria-hidden="true" className="h-6 w-6" />
-          </button>
-          <Link to={`/classes/${cls.id}`} className={BIG_BUTTON} aria-label="Stop presenting">
-            <X aria-hidden="true" className="h-6 w-6" /> Exit
-          </Link>
-        </div>
       </header>
-      <div className="flex flex-wrap items-center gap-4 border-b-2 border-ink px-6 py-2 text-lg">
+      <div className="flex flex-wrap items-center gap-3 border-b-2 border-ink px-6 py-2 text-base">
         <label className="flex items-center gap-2">
           <span className="font-medium">Roofs from</span>
           <select
-            className="rounded border-2 border-ink bg-sheet px-2 py-1 text-lg"
+            className="max-w-[18rem] rounded border-2 border-ink bg-sheet px-2 py-1 text-base 2xl:max-w-[26rem]"
             value={deck?.key ?? ""}
             onChange={(e) =>
               goTo(
@@ -195,14 +290,37 @@ export default function Present() {
             ))}
           </select>
         </label>
-        <button type="button" className="btn text-base" onClick={() => goTo(deck, index)} disabled={!roof}>
+        <button type="button" className="btn text-base" onClick={() => goTo(deck, index)} disabled={!deck}>
           <RotateCcw aria-hidden="true" className="h-4 w-4" /> Reset this roof
         </button>
-        <PublishState status={status} />
+        <button
+          type="button"
+          className="btn text-base"
+          onClick={() => setWallOpen((o) => !o)}
+          aria-expanded={wallOpen}
+          data-testid="wall-toggle"
+        >
+          <Hand aria-hidden="true" className="h-4 w-4" /> Hands up ({hands})
+        </button>
+        <button type="button" className="btn text-base" onClick={togglePause} aria-pressed={paused} disabled={!spec}>
+          {paused ? <Play aria-hidden="true" className="h-4 w-4" /> : <Pause aria-hidden="true" className="h-4 w-4" />}
+          {paused ? "Resume" : "Pause"}
+        </button>
+        <button
+          type="button"
+          className="btn ml-auto text-base"
+          onClick={() => void document.documentElement.requestFullscreen?.().catch(() => {})}
+          aria-label="Full screen"
+        >
+          <Maximize aria-hidden="true" className="h-4 w-4" />
+        </button>
+        <button type="button" className="btn text-base" onClick={() => void stop()} disabled={ending}>
+          <X aria-hidden="true" className="h-4 w-4" /> {ending ? "Ending…" : "Stop presenting"}
+        </button>
       </div>
-      <main id="main" className="flex flex-1 flex-col gap-3 px-6 py-4">
+      <main id="main" className="relative flex min-h-0 flex-1 flex-col gap-2 px-4 py-3">
         {spec ? (
-          <LiveRoof spec={spec} version={version} onSpecChange={onSpecChange} />
+          <LiveRoof spec={spec} version={version} onSpecChange={onSpecChange} layout="projector" />
         ) : (
           <p className="text-2xl">
             There are no roofs to present yet: lessons appear here once synced, and your saved roofs under{" "}
@@ -212,8 +330,18 @@ export default function Present() {
             .
           </p>
         )}
-        <Caution compact />
+        {wallOpen && (
+          <HandUpWall
+            wall={wall}
+            shownId={origin?.handUpId ?? null}
+            onShow={showHandUp}
+            onClose={() => setWallOpen(false)}
+          />
+        )}
       </main>
+      <footer className="px-6 pb-2">
+        <Caution compact />
+      </footer>
     </div>
   );
 }

@@ -109,6 +109,11 @@ const SWEEP: Record<string, Probe[]> = {
       path: "/classes/{class}/live",
       json: { spec: SPEC, title: "Sweep", source: "sandbox", deck: "", step: { index: 0, count: 1 } },
     },
+    { who: "trainer", method: "POST", path: "/classes/{class}/live", json: { phase: "paused" } },
+  ],
+  "/classes/:id/hand-ups": [
+    { who: "trainer", method: "GET", path: "/classes/{class}/hand-ups", query: { probe: "1" } },
+    { who: "trainee", method: "POST", path: "/classes/{class}/hand-ups", json: { spec: SPEC, title: "Sweep" } },
   ],
   "/classes/:id/gradebook.csv": [{ who: "trainer", method: "GET", path: "/classes/{class}/gradebook.csv" }],
   "/classes/:id/present": [{ who: "trainer", method: "GET", path: "/classes/{class}/present" }],

@@ -201,6 +201,14 @@ const MATRIX: Record<string, Case[]> = {
     { path: "/classes/{uuid}/live", expect: s(401, 404, 404, 404, 404) },
     { path: "/classes/{trainerClass}/live", expect: s(401, 200, 200, 200, 404) },
   ],
+  "/classes/:id/hand-ups": [
+    { path: "/classes/{uuid}/hand-ups", expect: s(401, 404, 404, 404, 404) },
+    {
+      path: "/classes/{trainerClass}/hand-ups",
+      expect: s(401, 200, 200, 403, 404),
+      why: "only the class's trainer (or an admin) sees the wall; a member is told so, others do not see the class",
+    },
+  ],
   "/gradebook": [{ path: "/gradebook", expect: s(302, 200, 200, 403, 403) }],
   "/*": [{ path: "/no-such-page/{uuid}", expect: ALL(404), why: "the 404 page inside the shell, with its navigation" }],
 };

@@ -15,6 +15,8 @@ export interface LiveRoofProps {
   version?: number;
   readOnly?: boolean;
   onSpecChange?: (spec: unknown) => void;
+  /** "projector": present mode's full-screen layout (see SandboxWorkspace). */
+  layout?: "page" | "projector";
 }
 
 interface Outside {
@@ -54,14 +56,22 @@ function SpecSync({ outside }: { outside: StoreApi<Outside> }) {
 // live update (or every edit the presenter makes) does not redraw the workspace each time.
 const Workspace = memo(SandboxWorkspace);
 
-export function LiveRoof({ spec, version = 0, readOnly = false, onSpecChange }: LiveRoofProps) {
+export function LiveRoof({ spec, version = 0, readOnly = false, onSpecChange, layout }: LiveRoofProps) {
   const [outside] = useState(() => createStore<Outside>(() => ({ spec, version })));
   const [initialSpec] = useState(() => spec as RoofSpec);
   useEffect(() => {
     outside.setState({ spec, version });
   }, [outside, spec, version]);
   const sync = useMemo(() => <SpecSync outside={outside} />, [outside]);
-  return <Workspace initialSpec={initialSpec} readOnly={readOnly} onSpecChange={onSpecChange} toolbarExtra={sync} />;
+  return (
+    <Workspace
+      initialSpec={initialSpec}
+      readOnly={readOnly}
+      onSpecChange={onSpecChange}
+      toolbarExtra={sync}
+      layout={layout}
+    />
+  );
 }
 
 export function ReadOnlyRoof({ spec }: { spec: unknown }) {

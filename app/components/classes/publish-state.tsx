@@ -1,7 +1,7 @@
 import type { PublishStatus } from "~/components/classes/use-live-publisher";
 
 /** The presenter's line: is what I show on screen what the class sees? */
-export function PublishState({ status }: { status: PublishStatus }) {
+export function PublishState({ status, onDark = false }: { status: PublishStatus; onDark?: boolean }) {
   const text =
     status.state === "error"
       ? `Not sent: ${status.message ?? "try again"}`
@@ -15,7 +15,9 @@ export function PublishState({ status }: { status: PublishStatus }) {
       role="status"
       aria-live="polite"
       data-state={status.state}
-      className={`ml-auto font-medium ${status.state === "error" ? "text-bad" : "text-ok"}`}
+      className={`ml-auto font-medium ${
+        status.state === "error" ? (onDark ? "text-accent-wash" : "text-bad") : onDark ? "text-sheet" : "text-ok"
+      }`}
     >
       <span aria-hidden="true">{status.state === "error" ? "⚠ " : "● "}</span>
       {text}

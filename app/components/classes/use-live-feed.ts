@@ -11,10 +11,14 @@ export interface LiveContentView {
   at: string;
 }
 
+/** Where the session stands (app/lib/live.server.ts LivePhase). */
+export type LivePhaseView = "idle" | "live" | "paused" | "ended";
+
 export interface LiveFeed {
   status: "connecting" | "connected" | "reconnecting";
   seq: number | null;
   state: LiveContentView | null;
+  phase: LivePhaseView | null;
   /** Times the stream was (re)opened; shown to nobody, read by tests. */
   opens: number;
 }
@@ -29,7 +33,13 @@ const REOPEN_MS = 1_500;
  * restart answering 503) or the stream stalls, a fresh EventSource is opened with the last id.
  */
 export function useLiveFeed(classId: string): LiveFeed {
-  const [feed, setFeed] = useState<LiveFeed>({ status: "connecting", seq: null, state: null, opens: 0 });
+  const [feed, setFeed] = useState<LiveFeed>({
+    status: "connecting",
+    seq: null,
+    state: null,
+    phase: null,
+    opens: 0,
+  });
   const lastSeq = useRef<number | null>(null);
 
   useEffect(() => {
@@ -66,14 +76,20 @@ export function useLiveFeed(classId: string): LiveFeed {
       es.addEventListener("ping", armStallTimer);
       es.addEventListener("state", (e) => {
         armStallTimer();
-        let msg: { seq: number; state: LiveContentView | null };
+        let msg: { seq: number; state: LiveContentView | null; phase?: LivePhaseView };
         try {
           msg = JSON.parse((e as MessageEvent<string>).data);
         } catch {
           return;
         }
         lastSeq.current = msg.seq;
-        setFeed((f) => ({ ...f, status: "connected", seq: msg.seq, state: msg.state }));
+        setFeed((f) => ({
+          ...f,
+          status: "connected",
+          seq: msg.seq,
+          state: msg.state,
+          phase: msg.phase ?? (msg.state ? "live" : "idle"),
+        }));
       });
     }
     // The browser knows the network went away before the stream notices: say so at once, and come

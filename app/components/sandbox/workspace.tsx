@@ -52,6 +52,11 @@ export interface SandboxWorkspaceProps {
   locks?: Locks | null;
   /** Shown above the workspace, inside its store (e.g. a task's live criteria). */
   panel?: React.ReactNode;
+  /**
+   * "projector" (present mode): the 3D view fills the space given, the key figures are large, and
+   * the plan and inputs sit in a scrolling column beside it; results and schedule are left out.
+   */
+  layout?: "page" | "projector";
 }
 
 function Card({
@@ -103,6 +108,7 @@ export function SandboxWorkspace({
   initialView,
   locks,
   panel,
+  layout = "page",
 }: SandboxWorkspaceProps) {
   const [store] = useState<SandboxStore>(() => createSandboxStore(initialSpec, { readOnly, view: initialView, locks }));
   useEngine(store);
@@ -124,7 +130,11 @@ export function SandboxWorkspace({
     <SandboxStoreContext.Provider value={store}>
       <WorkspaceUnits>
         {panel}
-        <Layout underlay={underlay} toolbarExtra={toolbarExtra} />
+        {layout === "projector" ? (
+          <ProjectorLayout toolbarExtra={toolbarExtra} />
+        ) : (
+          <Layout underlay={underlay} toolbarExtra={toolbarExtra} />
+        )}
       </WorkspaceUnits>
     </SandboxStoreContext.Provider>
   );
@@ -134,6 +144,66 @@ export function SandboxWorkspace({
 function WorkspaceUnits({ children }: { children: React.ReactNode }) {
   const ruleSet = useSandbox((s) => s.spec.ruleSet);
   return <RoofUnits ruleSet={ruleSet}>{children}</RoofUnits>;
+}
+
+/** Present mode on a projector: the 3D view takes the screen, large figures and the editing tools beside it. */
+function ProjectorLayout({ toolbarExtra }: { toolbarExtra?: React.ReactNode }) {
+  const minRatio = useSandbox((s) => s.analysis?.minFall.ratio ?? 100);
+  const mounted = useMounted();
+  const [cameraReset, setCameraReset] = useState(0);
+  return (
+    <div
+      className="grid h-full min-h-0 gap-3 md:grid-cols-[minmax(0,1fr)_22rem] 2xl:grid-cols-[minmax(0,1fr)_28rem]"
+      data-testid="sandbox-workspace"
+      data-layout="projector"
+    >
+      <section className="flex min-h-0 flex-col gap-2" aria-label="Fall map" data-testid="fall-map-card">
+        <div className="min-h-[50vh] flex-1 overflow-hidden rounded border border-rule bg-paper-deep md:min-h-0">
+          <ViewBoundary>
+            {mounted ? (
+              <Suspense fallback={loading3d}>
+                <RoofView3D resetKey={cameraReset} />
+              </Suspense>
+            ) : (
+              loading3d
+            )}
+          </ViewBoundary>
+        </div>
+        <FallLegend minRatio={minRatio} />
+        <div className="sr-only">
+          <SceneSummary />
+        </div>
+      </section>
+      <aside className="grid min-h-0 content-start gap-3 overflow-y-auto pr-1" aria-label="Figures and changes">
+        <div className="card p-0">
+          <KeyFigures large />
+        </div>
+        <section className="card" aria-label="View">
+          <ViewControls onReset={() => setCameraReset((n) => n + 1)} />
+        </section>
+        <Toolbar extra={toolbarExtra} />
+        <Card title="Plan" testId="plan-card">
+          <PlanEditor />
+          <div className="mt-2">
+            <EngineErrorNote />
+          </div>
+        </Card>
+        <Card title="Outline and outlets" testId="outline-card">
+          <OutletTable />
+          <details className="mt-2">
+            <summary className="cursor-pointer text-sm font-medium">Corners</summary>
+            <OutlineTable />
+          </details>
+        </Card>
+        <details className="card">
+          <summary className="cursor-pointer text-lg font-bold">Falls, joists and rules</summary>
+          <div className="mt-2">
+            <SettingsPanel />
+          </div>
+        </details>
+      </aside>
+    </div>
+  );
 }
 
 function Layout({ underlay, toolbarExtra }: { underlay?: Underlay; toolbarExtra?: React.ReactNode }) {
