@@ -2,17 +2,22 @@ import { expect, test, type Browser, type Page } from "@playwright/test";
 
 // Issue 7, classroom mode: the trainer moves an outlet in present mode and the follower's view
 // changes within a second; the follower's connection is cut and it catches up on reconnect.
+// Issue 16, items 5-7: present mode on a projector; followers told waiting / live / paused / ended;
+// the caption follows the roof on screen; trainees hand up roofs, the trainer shows one to everyone.
+// All of it in this one file, run on its own after the other suites: it drives the demo class's
+// one live session, which two files running side by side would fight over.
 const PASSWORD = "fallwright-demo";
+const RESULTS = `${process.env.TEST_RESULTS_DIR ?? ".data/test-results"}/screens`;
 
-async function signedIn(browser: Browser, email: string) {
+async function signedIn(browser: Browser, email: string, viewport = { width: 1280, height: 800 }) {
   // A modest window: the 3D view is drawn on the CPU here, and two of them share the machine.
-  const context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
+  const context = await browser.newContext({ viewport });
   const page = await context.newPage();
   await page.goto("/login");
   await page.getByLabel("E-mail").fill(email);
   await page.getByLabel("Password").fill(PASSWORD);
   await page.getByRole("button", { name: "Sign in" }).click();
-  await expect(page).not.toHaveURL(/\/login/);
+  await expect(page).not.toHaveURL(/\/login/, { timeout: 30_000 });
   return { context, page };
 }
 
@@ -161,4 +166,159 @@ test("a follower sees the presenter's outlet move within a second, and catches u
 
   await trainer.context.close();
   await trainee.context.close();
+});
+
+async function demoClass(page: Page) {
+  await page.goto("/classes");
+  const href = await page.getByRole("link", { name: "Parapet roofs, spring cohort" }).getAttribute("href");
+  return href!.split("/").pop()!;
+}
+
+const status = (page: Page) => page.locator('[role="status"][data-state]').first();
+
+test("present mode fills a projector's screen: large 3D view, whole caption, large figures, keys on screen", async ({
+  browser,
+}) => {
+  test.setTimeout(180_000);
+  for (const viewport of [
+    { width: 1920, height: 1080 },
+    { width: 1280, height: 720 },
+  ]) {
+    const { context, page } = await signedIn(browser, "trainer@tidemark.example", viewport);
+    const classId = await demoClass(page);
+    await page.goto(`/classes/${classId}/present`);
+    await expect(page.getByRole("status").filter({ hasText: "the class sees this" })).toBeVisible();
+    await expect(page.getByTestId("key-figures")).toBeVisible({ timeout: 60_000 });
+
+    // The page is the screen: nothing to scroll.
+    const scroll = await page.evaluate(() => document.documentElement.scrollHeight - window.innerHeight);
+    expect(scroll).toBeLessThanOrEqual(1);
+    // The 3D view takes most of the screen (it was about 560 × 430 px inside a long page).
+    const view = (await page.getByTestId("view-3d").boundingBox())!;
+    expect(view.width).toBeGreaterThan(viewport.width * 0.55);
+    expect(view.height).toBeGreaterThan(viewport.height * 0.45);
+    // The caption is whole: not cut, however long.
+    const h1 = page.getByRole("heading", { level: 1 });
+    const cut = await h1.evaluate((el) => {
+      const style = getComputedStyle(el);
+      return (
+        el.scrollHeight > el.clientHeight + 1 ||
+        style.overflow !== "visible" ||
+        style.getPropertyValue("-webkit-line-clamp") !== "none"
+      );
+    });
+    expect(cut).toBe(false);
+    await expect(h1).toBeInViewport({ ratio: 1 });
+    const captionPx = await h1.evaluate((el) => parseFloat(getComputedStyle(el).fontSize));
+    expect(captionPx).toBeGreaterThanOrEqual(30);
+    // Figures large enough for the back of a room.
+    const figurePx = await page
+      .getByTestId("high-level-figure")
+      .evaluate((el) => parseFloat(getComputedStyle(el).fontSize));
+    expect(figurePx).toBeGreaterThanOrEqual(32);
+    // Next and back, with their keys, on screen.
+    await expect(page.getByRole("button", { name: /Next roof/ })).toContainText("→");
+    await expect(page.getByRole("button", { name: /Previous roof/ })).toContainText("←");
+    await expect(page.getByRole("button", { name: /Next roof/ })).toBeInViewport();
+    await page.screenshot({ path: `${RESULTS}/present-${viewport.width}x${viewport.height}.png` });
+
+    // The right arrow key steps on.
+    await page.locator("body").press("ArrowRight");
+    await expect(page.getByLabel(/^Step 2 of/)).toBeVisible();
+    await context.close();
+  }
+});
+
+test("followers: waiting, live, paused, ended; the caption follows the trainer's edit; hands up reach the wall and the screen", async ({
+  browser,
+}) => {
+  test.setTimeout(300_000);
+  const trainer = await signedIn(browser, "trainer@tidemark.example");
+  const classId = await demoClass(trainer.page);
+  // A session left over from another test ends first, so the followers start from "ended".
+  const tess = await signedIn(browser, "trainee@tidemark.example");
+  const marco = await signedIn(browser, "trainee2@tidemark.example");
+  for (const f of [tess.page, marco.page]) await f.goto(`/classes/${classId}/follow`);
+  await expect(status(tess.page)).toHaveAttribute("data-state", /waiting|ended|live/);
+
+  await trainer.page.goto(`/classes/${classId}/present`);
+  await expect(trainer.page.getByRole("status").filter({ hasText: "the class sees this" })).toBeVisible();
+  const caption = (await trainer.page.getByRole("heading", { level: 1 }).textContent())!.trim();
+  for (const f of [tess.page, marco.page]) {
+    await expect(status(f)).toHaveText("Live · connected", { timeout: 15_000 });
+    await expect(f.getByRole("heading", { level: 2, name: caption })).toBeVisible();
+  }
+
+  // Pause: followers are told, in words.
+  await trainer.page.getByRole("button", { name: "Pause" }).click();
+  await expect(status(tess.page)).toHaveText("Paused by the trainer", { timeout: 15_000 });
+  await expect(tess.page.getByTestId("phase-note")).toContainText("paused");
+  await trainer.page.getByRole("button", { name: "Resume" }).click();
+  await expect(status(tess.page)).toHaveText("Live · connected", { timeout: 15_000 });
+
+  // The trainer changes the base fall: the caption now describes the roof on screen.
+  await trainer.page.getByText("Falls, joists and rules").click();
+  const baseFall = trainer.page.getByLabel("Base fall", { exact: true });
+  await baseFall.fill("1:40");
+  await baseFall.press("Enter");
+  await expect(trainer.page.getByRole("heading", { level: 1 })).toHaveText(/^Changed live: .*base fall 1:40$/);
+  await expect(tess.page.locator("#live-title")).toHaveText(/^Changed live: .*base fall 1:40$/, {
+    timeout: 15_000,
+  });
+  await expect(tess.page.getByTestId("roof-summary")).toContainText("Base fall 1:40");
+
+  // Two trainees hand up their own roofs.
+  for (const [f, x, note] of [
+    [tess.page, "2", "Outlet to the left"],
+    [marco.page, "5", "Outlet to the right"],
+  ] as const) {
+    await f.getByRole("tab", { name: "My roof · hand up" }).click();
+    const outletX = f.getByTestId("hand-up-panel").getByLabel("Outlet O1 x");
+    await expect(outletX).toBeEditable();
+    await outletX.fill(x);
+    await outletX.press("Tab");
+    await f.getByLabel("A note for the trainer (optional)").fill(note);
+    await f.getByRole("button", { name: "Hand up" }).click();
+    await expect(f.getByTestId("hand-up-panel").locator('span[role="status"][data-state]')).toContainText(
+      "Your hand is up",
+    );
+  }
+
+  // The trainer's wall shows both, each with its plan and key figure.
+  const toggle = trainer.page.getByTestId("wall-toggle");
+  await expect(toggle).toHaveText(/Hands up \(2\)/, { timeout: 15_000 });
+  await toggle.click();
+  const wall = trainer.page.getByTestId("hand-up-wall");
+  const tiles = wall.getByTestId("hand-up");
+  await expect(tiles).toHaveCount(2);
+  await expect(tiles.nth(0)).toContainText("Tess Quinlan");
+  await expect(tiles.nth(0)).toContainText("Outlet to the left");
+  await expect(tiles.nth(1)).toContainText("Marco Ellery");
+  for (const t of [tiles.nth(0), tiles.nth(1)]) {
+    await expect(t.getByRole("img", { name: /Plan of/ })).toBeVisible();
+    await expect(t.getByTestId("hand-up-figures")).toContainText(/High level\s*\d+ mm/);
+  }
+
+  // Marco's roof goes on the shared screen; Tess, back on the trainer's screen, sees it.
+  await tiles.nth(1).getByRole("button", { name: "Show to the class" }).click();
+  await expect(trainer.page.getByRole("heading", { level: 1 })).toHaveText(
+    "Handed up by Marco Ellery: “Outlet to the right”",
+  );
+  await tess.page.getByRole("tab", { name: "Trainer’s screen" }).click();
+  await expect(tess.page.locator("#live-title")).toHaveText("Handed up by Marco Ellery: “Outlet to the right”", {
+    timeout: 15_000,
+  });
+  await expect(tess.page.getByLabel("Outlet O1 x")).toHaveValue("5");
+  await expect(tess.page.getByLabel("Outlet O1 x")).toBeDisabled();
+
+  // The trainer stops presenting: both followers are told the session ended.
+  await trainer.page.getByRole("button", { name: "Stop presenting" }).click();
+  await expect(trainer.page).toHaveURL(new RegExp(`/classes/${classId}$`));
+  for (const f of [tess.page, marco.page]) {
+    await expect(status(f)).toHaveText("Ended · the trainer stopped presenting", { timeout: 15_000 });
+    await expect(status(f)).toHaveAttribute("data-state", "ended");
+  }
+  await expect(marco.page.getByRole("button", { name: "Hand up" })).toBeDisabled();
+
+  for (const c of [trainer, tess, marco]) await c.context.close();
 });

@@ -10,7 +10,7 @@ async function signIn(page: Page, email: string) {
   await page.getByLabel("E-mail").fill(email);
   await page.getByLabel("Password").fill("fallwright-demo");
   await page.getByRole("button", { name: "Sign in" }).click();
-  await expect(page).toHaveURL(new RegExp(`/lessons/${LESSON.slug}$`));
+  await expect(page).toHaveURL(new RegExp(`/lessons/${LESSON.slug}$`), { timeout: 30_000 });
 }
 
 async function centre(page: Page, testId: string) {
@@ -75,6 +75,50 @@ test("lesson 3: the locked outline stays put by mouse and keyboard; a tap on the
   await expect(page.getByTestId("live-fixed")).toHaveAttribute("data-state", "met");
 
   // The server's grade agrees.
+  await page.getByRole("button", { name: "Submit answers and roof" }).click();
+  await expect(page.getByTestId("feedback-task-fall-line")).toContainText("Met");
+  await expect(page.getByTestId("feedback-task-one-outlet")).toContainText("Met");
+  await expect(page.getByTestId("score-summary")).not.toContainText("A required check was not met");
+});
+
+test("lesson 3 solved as hint 1 says: drag the outlet by mouse from the corner to the middle of the front edge", async ({
+  page,
+}) => {
+  test.setTimeout(300_000);
+  await signIn(page, "trainee3@tidemark.example");
+  await expect(page.getByTestId("plan")).toBeVisible();
+  const fallLine = page.getByTestId("live-fall-line");
+  await expect(fallLine).toHaveAttribute("data-state", "not-met", { timeout: 60_000 });
+  await expect(page.getByLabel("Outlet O1 x")).toHaveValue(/^0(\.0+)?$/);
+
+  // From the outlet (over the corner at (0, 0)) to halfway between the front corners, in small steps
+  // as a hand moves a mouse: press, several moves, release. The plan must be on screen first: the
+  // mouse works in the window's coordinates.
+  await page.getByTestId("plan").scrollIntoViewIfNeeded();
+  // The handle's dot, not its group's box (which holds the "O1" label beside it), and the middle of
+  // the front edge, at the dot's height.
+  const dot = await page.getByTestId("outlet-0").locator("circle").last().boundingBox();
+  const edge = await page.getByTestId("edge-0").boundingBox();
+  if (!dot || !edge) throw new Error("no outlet dot or front edge on screen");
+  const from = { x: dot.x + dot.width / 2, y: dot.y + dot.height / 2 };
+  const to = { x: edge.x + edge.width / 2, y: from.y };
+  await page.mouse.move(from.x, from.y);
+  await page.mouse.down();
+  for (let i = 1; i <= 12; i++)
+    await page.mouse.move(from.x + ((to.x - from.x) * i) / 12, from.y + ((to.y - from.y) * i) / 12);
+  await page.mouse.up();
+
+  // The outlet moved along the front edge; the corner it sat on did not (the outline is locked).
+  await expect(page.getByTestId("handle-choice")).toHaveCount(0);
+  const x = Number(await page.getByLabel("Outlet O1 x").inputValue());
+  expect(x).toBeGreaterThan(8);
+  expect(x).toBeLessThan(10);
+  await expect(page.getByLabel("Outlet O1 y")).toHaveValue(/^0(\.0+)?$/);
+  await expect(page.getByLabel("Vertex 1 x")).toHaveValue(/^0(\.0+)?$/);
+  await expect(page.getByLabel("Vertex 1 y")).toHaveValue(/^0(\.0+)?$/);
+  await expect(fallLine).toHaveAttribute("data-state", "met");
+  await expect(page.getByTestId("live-fixed")).toHaveAttribute("data-state", "met");
+
   await page.getByRole("button", { name: "Submit answers and roof" }).click();
   await expect(page.getByTestId("feedback-task-fall-line")).toContainText("Met");
   await expect(page.getByTestId("feedback-task-one-outlet")).toContainText("Met");
