@@ -214,3 +214,21 @@ export function parseLength(input: string, system: UnitSystem, kind: LengthKind)
   }
   return { ok: true, metres: sign * metres };
 }
+
+/**
+ * An engine sentence (warnings are written in metres and millimetres) in the chosen system: each
+ * quantity with its metric unit ("279 mm", "12.00 m", "4.9 m²", "2.67 L/s", "100 mm/h") and each
+ * plan point "(12.00, 8.00)" is written again with the formatters above. Metric text is returned
+ * as it is.
+ */
+export function localiseSentence(text: string, system: UnitSystem): string {
+  if (system === "metric") return text;
+  const n = String.raw`(-?\d+(?:\.\d+)?)`;
+  return text
+    .replace(new RegExp(String.raw`\(${n}, ${n}\)`, "g"), (_, x, y) => formatPoint([Number(x), Number(y)], system))
+    .replace(new RegExp(String.raw`${n}[ \u00a0]mm/h\b`, "g"), (_, v) => formatIntensity(Number(v), system))
+    .replace(new RegExp(String.raw`${n}[ \u00a0]L/s\b`, "g"), (_, v) => formatFlow(Number(v), system))
+    .replace(new RegExp(String.raw`${n}[ \u00a0]m²`, "g"), (_, v) => formatArea(Number(v), system))
+    .replace(new RegExp(String.raw`${n}[ \u00a0]mm\b`, "g"), (_, v) => formatLevel(Number(v) / 1000, system))
+    .replace(new RegExp(String.raw`${n}[ \u00a0]m\b`, "g"), (_, v) => formatLength(Number(v), system));
+}

@@ -160,6 +160,40 @@ test("sandbox: the drop schedule is on the page before anyone scrolls to it, and
   await page.emulateMedia({ media: "screen" });
 });
 
+test("sandbox: the console stays clean while the 3D view draws (no errors, no three.js warnings)", async ({ page }) => {
+  const messages: string[] = [];
+  page.on("console", (m) => {
+    if (m.type() === "error" || m.type() === "warning") messages.push(`${m.type()}: ${m.text()}`);
+  });
+  page.on("pageerror", (e) => messages.push(`pageerror: ${e.message}`));
+  await openSandbox(page);
+  await expect(page.locator("[data-drawn]").first()).toBeAttached({ timeout: 30_000 });
+  // The browser's own notes about software WebGL ("GPU stall due to ReadPixels") are the
+  // machine's, not the app's; everything else counts.
+  expect(messages.filter((m) => !/GL Driver Message|WebGL-0x/.test(m))).toEqual([]);
+});
+
+test("sandbox: ? opens the keyboard shortcuts panel, which lists the plan's keys; Esc closes it", async ({ page }) => {
+  await openSandbox(page);
+  const panel = page.getByTestId("shortcuts-panel");
+  await expect(panel).toBeHidden();
+  await page.locator("body").press("?");
+  await expect(panel).toBeVisible();
+  await expect(panel.getByRole("heading", { name: "Keyboard shortcuts" })).toBeVisible();
+  await expect(panel).toContainText("move a corner or slide an outlet by the grid step");
+  await expect(panel).toContainText("undoes the last change");
+  await page.keyboard.press("Escape");
+  await expect(panel).toBeHidden();
+  // Typing a "?" into a field types it; it does not open the panel.
+  await page.getByLabel("Base fall", { exact: true }).press("?");
+  await expect(panel).toBeHidden();
+  // The visible button opens it too.
+  await page.getByTestId("shortcuts-open").click();
+  await expect(panel).toBeVisible();
+  await panel.getByRole("button", { name: "Close" }).click();
+  await expect(panel).toBeHidden();
+});
+
 test("sandbox: side-by-side shows the three layouts and the comparison figures", async ({ page }) => {
   await openSandbox(page);
   await page.getByTestId("side-by-side-toggle").click();

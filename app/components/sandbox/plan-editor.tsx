@@ -1,4 +1,5 @@
 import { useEffect, useId, useRef, useState, type KeyboardEvent, type PointerEvent } from "react";
+import { PLAN_SHORTCUTS, shortcutSentence, UNDO_SHORTCUTS } from "~/lib/shortcuts";
 import { Lock, Maximize2, ZoomIn, ZoomOut } from "lucide-react";
 import type { Point } from "~/engine";
 import { PlanGrid } from "./plan-grid";
@@ -681,9 +682,7 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
         {zoom ? `Plan zoom ${Math.round(zoom.k * 100)} %` : ""}
       </p>
       <p id={helpId} className="sr-only">
-        Tab moves between vertices, edges and outlets. Arrow keys move a vertex or slide an outlet by the grid step
-        (Shift: four steps, Alt: 10 mm). Delete removes it. On an edge: Enter places an outlet at its middle, E switches
-        parapet and eaves, plus adds a vertex. Ctrl+Z undoes, Ctrl+Shift+Z redoes.
+        {shortcutSentence(PLAN_SHORTCUTS)} {shortcutSentence(UNDO_SHORTCUTS)} Press ? for the list of shortcuts.
       </p>
     </div>
   );

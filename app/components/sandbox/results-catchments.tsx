@@ -1,10 +1,11 @@
 import type { Analysis } from "~/engine";
+import { formatIntensity } from "~/lib/units";
 import { useFormat } from "./format";
 import { ResultsSection } from "./results-section";
 
 /** Where the water goes: each drain's catchment and design flow, and any ponding. */
 export function Catchments({ analysis }: { analysis: Analysis }) {
-  const { area, flow, point, mm } = useFormat();
+  const { area, flow, point, mm, system } = useFormat();
   const { catchments, ponding } = analysis.shaped;
   return (
     <ResultsSection title="Catchments and flows" id="catchments">
@@ -37,8 +38,9 @@ export function Catchments({ analysis }: { analysis: Analysis }) {
         </tbody>
       </table>
       <p className="mt-1 text-xs text-ink-soft">
-        Q = i·A/3600 at {analysis.rainfall.intensity} mm/h{analysis.rainfall.assumed ? " (assumed)" : ""}, runoff
-        coefficient 1 (rational method, ASCE 7-05 Commentary C8). Capacity: rough, at an assumed head.
+        Q = i·A/3600 at {formatIntensity(analysis.rainfall.intensity, system)}
+        {analysis.rainfall.assumed ? " (assumed)" : ""}, runoff coefficient 1 (rational method, ASCE 7-05 Commentary
+        C8). Capacity: rough, at an assumed head.
       </p>
       <h4 className="mt-3 text-xs font-bold uppercase tracking-wide">Ponding</h4>
       {ponding.length === 0 ? (

@@ -1,5 +1,7 @@
 import { AlertTriangle } from "lucide-react";
 import type { Analysis } from "~/engine";
+import { localiseSentence } from "~/lib/units";
+import { useFormat } from "./format";
 import { ResultsSection } from "./results-section";
 import { addRidge } from "./spec-edit";
 import { useSandbox, useSandboxStore } from "./store";
@@ -9,6 +11,7 @@ export function Warnings({ analysis }: { analysis: Analysis }) {
   const { warnings } = analysis;
   const store = useSandboxStore();
   const readOnly = useSandbox((s) => s.readOnly);
+  const { system } = useFormat();
   return (
     <ResultsSection title={`Warnings (${warnings.length})`} id="warnings">
       {warnings.length === 0 ? (
@@ -19,7 +22,7 @@ export function Warnings({ analysis }: { analysis: Analysis }) {
             <li key={i} className="flex gap-2 text-sm" data-code={w.code}>
               <AlertTriangle size={16} className="mt-0.5 shrink-0 text-warn" aria-hidden="true" />
               <span>
-                {w.message}
+                {localiseSentence(w.message, system)}
                 {w.code === "water-held-behind-upstand" && w.cricket && !readOnly && (
                   <button
                     type="button"

@@ -1,4 +1,6 @@
 import { Columns3, FileText, Redo2, Square, Undo2 } from "lucide-react";
+import { ShortcutsPanel } from "~/components/shortcuts-panel";
+import { PLAN_SHORTCUTS, UNDO_SHORTCUTS, type ShortcutGroup } from "~/lib/shortcuts";
 import { useEffect, useState } from "react";
 import { SHEET_SESSION_KEY, sheetHref } from "./sheet-link";
 import { useSandbox, useSandboxStore } from "./store";
@@ -30,7 +32,11 @@ function Progress() {
 }
 
 /** Undo/redo, snapping, single or side-by-side, the check sheet, and the status line. */
-export function Toolbar({ extra }: { extra?: React.ReactNode }) {
+/**
+ * The sandbox's toolbar; `shortcuts` adds the screen's own keyboard shortcuts (present mode's) to
+ * the plan's and undo's in the shortcuts panel.
+ */
+export function Toolbar({ extra, shortcuts = [] }: { extra?: React.ReactNode; shortcuts?: ShortcutGroup[] }) {
   const store = useSandboxStore();
   const canUndo = useSandbox((s) => s.past.length > 0);
   const canRedo = useSandbox((s) => s.future.length > 0);
@@ -144,6 +150,7 @@ export function Toolbar({ extra }: { extra?: React.ReactNode }) {
       >
         <FileText size={16} aria-hidden="true" /> Check sheet
       </a>
+      <ShortcutsPanel groups={[...shortcuts, PLAN_SHORTCUTS, UNDO_SHORTCUTS]} />
       {extra}
       <span className="ml-auto flex items-center gap-3">
         {notice && (

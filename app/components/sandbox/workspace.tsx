@@ -1,4 +1,5 @@
 import { lazy, Suspense, useEffect, useState } from "react";
+import { PRESENT_SHORTCUTS } from "~/lib/shortcuts";
 import type { RoofSpec } from "~/engine";
 import { RoofUnits } from "~/components/units";
 import { ComparisonFigures } from "./comparison-figures";
@@ -181,7 +182,7 @@ function ProjectorLayout({ toolbarExtra }: { toolbarExtra?: React.ReactNode }) {
         <section className="card" aria-label="View">
           <ViewControls onReset={() => setCameraReset((n) => n + 1)} />
         </section>
-        <Toolbar extra={toolbarExtra} />
+        <Toolbar extra={toolbarExtra} shortcuts={[PRESENT_SHORTCUTS]} />
         <Card title="Plan" testId="plan-card">
           <PlanEditor />
           <div className="mt-2">
