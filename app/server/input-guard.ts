@@ -131,7 +131,9 @@ function refusal(status: 400 | 404 | 413, problem: InputProblem, json: boolean):
       : problem.path === "(body)"
         ? `The request body ${problem.message}.`
         : `The field "${problem.path}" ${problem.message}.`;
-  const headers: Record<string, string> = status === 413 ? { Connection: "close" } : {};
+  // No "Connection: close" on a 413: the host reads and throws away the rest of an oversized body
+  // (capBodySize's lingering close), so the client reads this answer instead of a reset.
+  const headers: Record<string, string> = {};
   if (json) return Response.json({ error: { message, issues: status === 413 ? [] : [problem] } }, { status, headers });
   return new Response(message, { status, headers: { ...headers, "Content-Type": "text/plain; charset=utf-8" } });
 }

@@ -82,10 +82,14 @@ function sizeText(max: number) {
   return max >= 1024 * 1024 ? `${Math.round(max / 1024 / 1024)} MB` : `${Math.round(max / 1024)} kB`;
 }
 
-function refuse(res: Response, max: number) {
-  res.set("Connection", "close");
+function refuse(res: Response, max: number, close = true) {
+  if (close) res.set("Connection", "close");
   res.status(413).json({ error: { message: `The request body is over ${sizeText(max)}.`, issues: [] } });
 }
+
+/** How long, and how much more, a refused body is read and thrown away so the client sees its 413. */
+const LINGER_MS = 5_000;
+const LINGER_BYTES = 64 * 1024 * 1024;
 
 /** The body stream the app reads: a counted copy of the request's (see capBodySize). */
 export class BodyTooLarge extends Error {
@@ -118,9 +122,23 @@ export function capBodySize(caps: BodyCaps = BODY_CAPS) {
     });
     counted.on("error", (err) => {
       req.unpipe(counted);
-      // Discard whatever else arrives; Connection: close ends the socket after the 413.
+      // Discard whatever else arrives. Closing the socket while the client is still sending makes
+      // the kernel reset the connection, and a client then often loses the 413 it was sent; so
+      // the rest is read and thrown away (a lingering close), for at most LINGER_MS and
+      // LINGER_BYTES, after which the socket is closed anyway.
       req.resume();
-      if (err instanceof BodyTooLarge && !res.headersSent) refuse(res, max);
+      if (err instanceof BodyTooLarge) {
+        let drained = 0;
+        const stop = () => req.socket.destroy();
+        const timer = setTimeout(stop, LINGER_MS);
+        timer.unref();
+        req.on("data", (chunk: Buffer) => {
+          drained += chunk.length;
+          if (drained > LINGER_BYTES) stop();
+        });
+        req.once("end", () => clearTimeout(timer));
+        if (!res.headersSent) refuse(res, max, false);
+      }
     });
     // A client that goes away mid-body: the app's reader gets an error instead of waiting forever.
     req.once("close", () => {
