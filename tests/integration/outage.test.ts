@@ -83,12 +83,18 @@ describe("PostgreSQL stops and comes back", () => {
     const id = page.headers.get("x-request-id");
     expect(id).toMatch(/^[0-9a-f-]{36}$/);
     expect(html).toContain(`reference ${id}`);
-    const logged = server
-      .output()
-      .split("\n")
-      .filter((l) => l.includes(id!))
-      .map((l) => JSON.parse(l) as { msg?: string; status?: number });
-    expect(logged.find((l) => l.msg === "request")?.status).toBe(503);
+    // The log line is written when the answer has gone out: wait for it.
+    let line: { msg?: string; status?: number } | undefined;
+    for (let tries = 0; tries < 50 && !line; tries++) {
+      line = server
+        .output()
+        .split("\n")
+        .filter((l) => l.includes(id!))
+        .map((l) => JSON.parse(l) as { msg?: string; status?: number })
+        .find((l) => l.msg === "request");
+      if (!line) await new Promise((r) => setTimeout(r, 100));
+    }
+    expect(line?.status).toBe(503);
 
     startCluster(info, false);
     let status = 0;
