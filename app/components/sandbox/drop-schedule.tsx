@@ -17,7 +17,13 @@ function PlainSchedule({ rows, system }: { rows: ScheduleRow[]; system: UnitSyst
   const columns = scheduleColumns(rows, system);
   return (
     <>
-      <div className="max-h-[28rem] overflow-auto print:max-h-none print:overflow-visible">
+      <div
+        className="max-h-[28rem] overflow-auto print:max-h-none print:overflow-visible"
+        // A scrolling box is reached by Tab so its rows can be scrolled from the keyboard (WCAG 2.1.1).
+        tabIndex={0}
+        role="region"
+        aria-label="Drop schedule rows"
+      >
         <table className="data-table w-full" data-testid="schedule-table-plain">
           <thead className="sticky top-0 bg-sheet">
             <tr>

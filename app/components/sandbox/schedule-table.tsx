@@ -42,7 +42,13 @@ export default function ScheduleTable({ rows, system = "metric" }: { rows: Sched
   const shown = table.getRowModel().rows.slice(0, all ? undefined : SCHEDULE_PAGE);
   return (
     <>
-      <div className="max-h-[28rem] overflow-auto print:max-h-none print:overflow-visible">
+      <div
+        className="max-h-[28rem] overflow-auto print:max-h-none print:overflow-visible"
+        // A scrolling box is reached by Tab so its rows can be scrolled from the keyboard (WCAG 2.1.1).
+        tabIndex={0}
+        role="region"
+        aria-label="Drop schedule rows"
+      >
         <table className="data-table w-full" data-testid="schedule-table">
           <thead className="sticky top-0 bg-sheet">
             {table.getHeaderGroups().map((g) => (

@@ -300,8 +300,8 @@ function Layout({ underlay, toolbarExtra }: { underlay?: Underlay; toolbarExtra?
         </div>
       )}
 
-      <div className="grid items-start gap-4 lg:grid-cols-2">
-        <div className="grid gap-4">
+      <div className="grid grid-cols-1 items-start gap-4 lg:grid-cols-2">
+        <div className="grid min-w-0 grid-cols-1 gap-4">
           <Card title="Outline and outlets" testId="outline-card">
             <OutlineTable />
             <h3 className="mb-1 mt-3 text-sm font-bold uppercase tracking-wide">Outlets</h3>
