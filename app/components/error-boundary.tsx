@@ -58,6 +58,7 @@ export function GeneralErrorBoundary() {
   if (detail && (detail.trim() === msg.body || detail.trim() === msg.title)) detail = undefined;
   return (
     <section className="card mx-auto max-w-2xl" role="alert" data-testid="error-page">
+      <title>{`${msg.title} · Fallwright`}</title>
       <p className="text-xs font-medium uppercase tracking-widest text-accent">Error {status}</p>
       <h1 className="mt-1 text-2xl font-bold tracking-tight">{msg.title}</h1>
       <p className="mt-2">{msg.body}</p>
