@@ -120,7 +120,7 @@ function crossProperly(a: Point, b: Point, c: Point, d: Point): boolean {
  * `outline` is in request order; `ridges` holds [request index, line] pairs; `openings` are the
  * opening rings a ridge may not cross. Lengths within `snap` coincide.
  */
-export function divideOutline(
+export function cutOutlineAlongRidges(
   outline: Point[],
   ridges: [number, Point[]][],
   openings: Point[][],

@@ -3,7 +3,7 @@ import { signedArea } from "./geometry/area";
 import { nearestOnSegment, orient, segmentsTouch } from "./geometry/segments";
 import { insidePolygon } from "./geometry/inside";
 import type { AreaPart, Hole, Outlet, Roof } from "./roof";
-import { boundaryDistance, divideOutline, insideOrOn, pointInside, type Face } from "./areas";
+import { boundaryDistance, cutOutlineAlongRidges, insideOrOn, pointInside, type Face } from "./areas";
 import { offsetFromOutlets } from "./setout";
 import { DEFAULT_RULE_SET, RULE_SETS, ruleValue, type RuleSetId, type UsedRule } from "./rule-sets";
 import type { EdgeKind, Point, RoofSpec } from "./types";
@@ -321,7 +321,7 @@ function prepareParts(
 ): AreaPart[] | Prepared {
   const snap = LIMITS.outletSnap;
   const rings = (spec.openings ?? []).map((o) => o.outline);
-  const division = divideOutline(
+  const division = cutOutlineAlongRidges(
     pts,
     dividing.map((r) => [r.index, r.line]),
     rings,
