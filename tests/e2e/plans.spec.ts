@@ -1,6 +1,8 @@
 import { expect, test } from "@playwright/test";
 
 // Demo roof (components/sandbox/demo-roof.ts): 12 m × 8 m, outlet O1 at (6, 0), base fall 2°.
+// (A ridge across the middle would also cross a rooflight added in the middle, so the rooflight
+// comes last.)
 // An outlet added half-way along edge 4 (the west wall) sits at (0, 4). A ridge from (3, 0) to
 // (3, 8) then divides the roof into a west area (O2) and an east one (O1)
 // (docs/roof-method-plans.md P4); the ridge first drawn across the middle, (6, 0) to (6, 8), ends
@@ -14,10 +16,7 @@ test("sandbox: an opening and a ridge added, the ridge set by keyboard; the 3D v
   await page.reload();
   await expect(page.getByTestId("high-level-figure")).toHaveText("279 mm", { timeout: 30_000 });
 
-  await page.getByTestId("add-opening").click();
-  await expect(page.getByTestId("plan-opening-0")).toBeAttached();
   await page.getByRole("button", { name: "Add an outlet half-way along edge 4" }).click();
-
   await page.getByTestId("add-ridge").click();
   await expect(page.getByTestId("plan-ridge-0")).toBeAttached();
   // (6, 0) is O1: an outlet at a ridge's end is refused, naming the outlet.
@@ -31,7 +30,12 @@ test("sandbox: an opening and a ridge added, the ridge set by keyboard; the 3D v
   }
   await expect(page.getByTestId("engine-error")).toHaveCount(0, { timeout: 30_000 });
   await expect(page.getByTestId("scene-ridges")).toContainText("2 drainage areas", { timeout: 30_000 });
-  await expect(page.getByTestId("scene-upstands")).toContainText("rooflight, 150 mm");
+
+  // A rooflight in the middle of the roof (6, 4), clear of the ridge at x = 3: its upstand is named.
+  await page.getByTestId("add-opening").click();
+  await expect(page.getByTestId("plan-opening-0")).toBeAttached();
+  await expect(page.getByTestId("scene-upstands")).toContainText("rooflight, 150 mm", { timeout: 30_000 });
+  await expect(page.getByTestId("engine-error")).toHaveCount(0);
 
   const [sheet] = await Promise.all([page.waitForEvent("popup"), page.getByTestId("check-sheet-link").click()]);
   const body = sheet.getByTestId("check-sheet");

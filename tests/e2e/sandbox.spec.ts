@@ -102,10 +102,11 @@ test("sandbox: dragging a corner snaps to the grid, carries the outlet on its ed
   page,
 }) => {
   await openSandbox(page);
-  const edge = (await page.getByTestId("edge-0").boundingBox())!;
-  const perMetre = edge.width / 12;
+  // The scale from the two corners' centres, 12 m apart (an edge's box also holds its touch margin).
+  const first = (await page.getByTestId("vertex-0").boundingBox())!;
   const corner = (await page.getByTestId("vertex-1").boundingBox())!;
   const [x, y] = [corner.x + corner.width / 2, corner.y + corner.height / 2];
+  const perMetre = (x - (first.x + first.width / 2)) / 12;
   await page.mouse.move(x, y);
   await page.mouse.down();
   for (let i = 1; i <= 8; i++) await page.mouse.move(x + (2.07 * perMetre * i) / 8, y + 0.04 * perMetre);
@@ -132,13 +133,14 @@ test("sandbox: the drop schedule downloads as CSV with the levels of the demo ro
     .split(/\r?\n,*\r?\n/)
     .pop()!;
   const [header, ...rows] = table.split(/\r?\n/);
-  // One span per joist on a rectangle, so no span column.
+  // One span per joist on a rectangle, so no span column; an empty measured column beside each
+  // end's design level, for the levels taken on site (docs/as-built.md).
   expect(header).toBe(
-    "joist,offset_m,start_x_m,start_y_m,end_x_m,end_y_m,length_m,start_level_mm,end_level_mm,start_drop_below_H_mm,end_drop_below_H_mm,fall",
+    "joist,offset_m,start_x_m,start_y_m,end_x_m,end_y_m,length_m,start_level_mm,start_measured_mm,end_level_mm,end_measured_mm,start_drop_below_H_mm,end_drop_below_H_mm,fall",
   );
   expect(rows).toHaveLength(31);
   // The joist through the outlet (x = 6 m) runs 0 → 279 mm over 8 m: exactly the base fall, 2° = 1:28.6.
-  expect(rows).toContain("16,6,6,0,6,8,8,0,279,279,0,1:28.6");
+  expect(rows).toContain("16,6,6,0,6,8,8,0,,279,,279,0,1:28.6");
   // The page's own table agrees (the plain one, or the sortable one once it has loaded).
   await expect(page.locator('[data-testid^="schedule-table"]').locator("tbody tr").nth(15)).toContainText("279");
 });
