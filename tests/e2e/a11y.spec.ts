@@ -127,5 +127,6 @@ test("accessibility: the 3D view keeps its text summary for screen readers", asy
   await expect(page.getByTestId("key-figures")).toBeVisible({ timeout: 60_000 });
   const card = page.getByTestId("fall-map-card");
   await expect(card.getByText("What the view shows")).toBeVisible();
-  await expect(card).toContainText(/A roof of [\d.]+ m² inside 4 edges/);
+  // A number and its unit are kept together by a no-break space (\s matches it).
+  await expect(card).toContainText(/A roof of [\d.]+\sm² inside 4 edges/);
 });
