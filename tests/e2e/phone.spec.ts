@@ -147,3 +147,30 @@ test("phone: drag a corner and an outlet by touch, pinch the plan, edit a value;
   }
   await expect(page.getByTestId("high-level-figure")).toHaveText("349 mm");
 });
+
+test.describe("tablet", () => {
+  // A tablet in portrait, touch only: wider than the phone layout (40rem), so the 44 px rule applies
+  // through the coarse pointer alone. Chromium reports (pointer: coarse) once touch emulation is on.
+  test.use({ viewport: { width: 820, height: 1180 }, hasTouch: true, isMobile: true });
+
+  test("tablet: the pointer is coarse and the sandbox's buttons and handles are 44 px targets", async ({ page }) => {
+    await openSandbox(page);
+    expect(await page.evaluate(() => matchMedia("(pointer: coarse)").matches)).toBe(true);
+    const buttons = page.getByTestId("outline-card").getByRole("button");
+    expect(await buttons.count()).toBeGreaterThan(8);
+    for (const b of [
+      ...(await buttons.all()),
+      ...["plan-zoom-in", "plan-zoom-out", "plan-fit"].map((id) => page.getByTestId(id)),
+    ]) {
+      const box = (await b.boundingBox())!;
+      expect(box.width, (await b.getAttribute("aria-label")) ?? "").toBeGreaterThanOrEqual(44);
+      expect(box.height).toBeGreaterThanOrEqual(44);
+    }
+    for (const id of ["vertex-0", "vertex-2", "outlet-0"]) {
+      const box = (await page.getByTestId(id).boundingBox())!;
+      expect(box.width).toBeGreaterThanOrEqual(43.5);
+      expect(box.height).toBeGreaterThanOrEqual(43.5);
+    }
+    expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(820);
+  });
+});
