@@ -84,8 +84,8 @@ const ROLES: { role: string; email: string | null; screens: Record<string, Where
       "/classes/:id/gradebook": async (page) => (await link("/classes", CLASS)(page)) + "/gradebook",
       "/classes/:id/present": async (page) => (await link("/classes", CLASS)(page)) + "/present",
       "/gradebook": "/gradebook",
-      // "/attempts/:id/review" is left out for now: the gradebook's demo rows no longer link to a
-      // review since the grading changes, so the screen is not reached (open, issue 19 note).
+      // Each graded cell of the gradebook links to that attempt's review, with the class to return to.
+      "/attempts/:id/review": link("/gradebook", `/attempts/${UUID}/review\\?class=${UUID}`),
     },
   },
   {

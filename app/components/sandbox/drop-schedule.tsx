@@ -63,7 +63,7 @@ export function DropSchedule() {
   const rows = useMemo(() => (analysis ? scheduleRows(analysis.shaped.joists) : []), [analysis]);
   if (!analysis) return null;
   return (
-    <section aria-labelledby="drop-schedule-title" className="card" data-testid="drop-schedule">
+    <section aria-labelledby="drop-schedule-title" className="card min-w-0" data-testid="drop-schedule">
       <div className="mb-3 flex flex-wrap items-center gap-3">
         <h2 id="drop-schedule-title" className="text-lg font-bold">
           Drop schedule

@@ -154,7 +154,7 @@ function ProjectorLayout({ toolbarExtra }: { toolbarExtra?: React.ReactNode }) {
   const [cameraReset, setCameraReset] = useState(0);
   return (
     <div
-      className="grid h-full min-h-0 gap-3 md:grid-cols-[minmax(0,1fr)_22rem] 2xl:grid-cols-[minmax(0,1fr)_28rem]"
+      className="grid h-full min-h-0 grid-cols-1 gap-3 md:grid-cols-[minmax(0,1fr)_22rem] 2xl:grid-cols-[minmax(0,1fr)_28rem]"
       data-testid="sandbox-workspace"
       data-layout="projector"
     >
@@ -233,14 +233,16 @@ function Layout({ underlay, toolbarExtra }: { underlay?: Underlay; toolbarExtra?
   );
 
   return (
-    <div className="grid gap-4" data-testid="sandbox-workspace">
+    // Every grid here has explicit minmax(0, 1fr) tracks (grid-cols-1): an implicit "auto" track grows to
+    // its widest item's min-content (the drop schedule's table), which pushed the page past a phone's width.
+    <div className="grid min-w-0 grid-cols-1 gap-4" data-testid="sandbox-workspace">
       <Toolbar extra={toolbarExtra} />
       <div className="card p-0">
         <KeyFigures />
       </div>
 
       {mode === "single" ? (
-        <div className="grid gap-4 md:grid-cols-2">
+        <div className="grid grid-cols-1 gap-4 md:grid-cols-2">
           {plan}
           <Card
             title="Fall map"
@@ -271,8 +273,8 @@ function Layout({ underlay, toolbarExtra }: { underlay?: Underlay; toolbarExtra?
           </Card>
         </div>
       ) : (
-        <div className="grid gap-4">
-          <section className="card" aria-label="Side-by-side views">
+        <div className="grid grid-cols-1 gap-4">
+          <section className="card min-w-0" aria-label="Side-by-side views">
             <div className="mb-2 flex flex-wrap items-baseline justify-between gap-2">
               <h2 className="text-lg font-bold">Side-by-side</h2>
               <span className="text-xs text-ink-soft">the three views turn together</span>
@@ -293,7 +295,7 @@ function Layout({ underlay, toolbarExtra }: { underlay?: Underlay; toolbarExtra?
               <FallLegend minRatio={minRatio} />
             </div>
           </section>
-          <div className="grid gap-4 lg:grid-cols-2">
+          <div className="grid grid-cols-1 gap-4 lg:grid-cols-2">
             <ComparisonFigures />
             {plan}
           </div>
