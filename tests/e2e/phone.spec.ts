@@ -171,6 +171,13 @@ test.describe("tablet", () => {
       expect(box.width).toBeGreaterThanOrEqual(43.5);
       expect(box.height).toBeGreaterThanOrEqual(43.5);
     }
+    // The toolbar's check boxes ("Snap to grid", "Right angles") are worked through their labels,
+    // which are 44 px tall (they were a 13 px box and one line of text).
+    for (const name of ["Snap to grid", "Right angles"]) {
+      const label = page.locator("label").filter({ has: page.getByRole("checkbox", { name }) });
+      const box = (await label.boundingBox())!;
+      expect(box.height, name).toBeGreaterThanOrEqual(44);
+    }
     expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(820);
   });
 });
