@@ -1,3 +1,4 @@
+import Constrainautor from "@kninnug/constrainautor";
 import Delaunator from "delaunator";
 import { fallMap } from "./fall-map";
 import { formatRatio } from "./fall";
@@ -9,7 +10,7 @@ import { perimeterLevels } from "./perimeter";
 import { prepareRoof, type SpecIssue } from "./prepare";
 import { priorityFlood, depressions, type Graph } from "./priority-flood";
 import { toFrame, type Roof } from "./roof";
-import { levelAt } from "./surface";
+import { levelAt, perimeterLevelAt } from "./surface";
 import type { Band, Point, RoofSpec } from "./types";
 
 /** A level measured on site at a plan point (metres). */
@@ -90,6 +91,11 @@ export interface AsBuiltResult {
     fallMap: { faces: number; areaByBand: Band[]; flatterThanMinimumArea: number; area: number };
     catchments: { drain: string; label: string; area: number }[];
     ponds: Pond[];
+    /**
+     * Points taken from the design where the survey was too sparse to follow it (docs/as-built.md):
+     * their level is the design's plus the deviation interpolated from the survey around them.
+     */
+    designPoints: number;
   };
   verdict: { passed: boolean; failures: AsBuiltFailure[] };
   fixes: JoistFix[];
@@ -99,7 +105,17 @@ export interface AsBuiltResult {
    * request order), triangles as node index triples, and each triangle's fall 1:N (Infinity
    * when level). Not part of the API's answer.
    */
-  mesh: { xs: number[]; ys: number[]; zs: number[]; triangles: number[]; ratio: number[] };
+  mesh: {
+    xs: number[];
+    ys: number[];
+    zs: number[];
+    triangles: number[];
+    ratio: number[];
+    /** Each node's design level (the design surface on the same triangles). */
+    design: number[];
+    /** Nodes from this index on are design points added where the survey was sparse. */
+    firstDesignPoint: number;
+  };
 }
 
 export type AsBuiltAnswer = { ok: true; result: AsBuiltResult } | { ok: false; status: 400 | 422; issues: SpecIssue[] };
@@ -113,7 +129,41 @@ function designOf(roof: Roof) {
     const [u, v] = toFrame(roof, p[0], p[1]);
     return levelAt(roof, levels, u, v);
   };
-  return { H, levels, joists, level };
+  // The deck as built from real joists: each joist's spans as the drop schedule gives them, and
+  // straight across between two neighbouring joists (docs/roof-method.md §4, §5). Where the chords
+  // change at a re-entrant corner's line the formula of §4 steps; the joists do not.
+  const at = joistPositions(roof);
+  const spans = joists.map((j) =>
+    j.spans.map((s) => {
+      const v0 = toFrame(roof, s.start[0], s.start[1])[1],
+        v1 = toFrame(roof, s.end[0], s.end[1])[1];
+      return { v0, v1, z0: s.startLevel, z1: s.endLevel };
+    }),
+  );
+  const onJoist = (k: number, v: number): number | null => {
+    for (const s of spans[k] ?? []) {
+      const lo = Math.min(s.v0, s.v1),
+        hi = Math.max(s.v0, s.v1);
+      if (v < lo - roof.tol || v > hi + roof.tol) continue;
+      return hi - lo > 0 ? s.z0 + ((v - s.v0) / (s.v1 - s.v0)) * (s.z1 - s.z0) : s.z0;
+    }
+    return null;
+  };
+  const deck = (p: Point): number | null => {
+    const [u, v] = toFrame(roof, p[0], p[1]);
+    const own = levelAt(roof, levels, u, v);
+    if (own === null || perimeterLevelAt(roof, levels, u, v, roof.tol * 1000) !== null) return own;
+    if (joists.length !== at.length) return own;
+    let k = 0;
+    while (k < at.length - 2 && at[k + 1] < u) k++;
+    const gap = at[k + 1] - at[k];
+    if (!(gap > 0) || u < at[k] - roof.tol || u > at[k + 1] + roof.tol) return own;
+    const a = onJoist(k, v),
+      b = onJoist(k + 1, v);
+    if (a === null || b === null) return own;
+    return a + ((u - at[k]) / gap) * (b - a);
+  };
+  return { H, levels, joists, level, deck };
 }
 
 /**
@@ -225,31 +275,28 @@ export function asBuilt(spec: RoofSpec, points: SurveyPoint[], tolerance: Partia
     seeds.push(extra(o.x + roof.ox, o.y + roof.oy, o.level));
     drains.push({ drain: `outlet-${o.index}`, label: `Outlet ${o.index + 1}` });
   }
+
+  // The design level at every node (a measured point's own, a corner's or an outlet's): where the
+  // design is not flat between survey points (a twist at a re-entrant corner, docs/roof-method.md
+  // §4), design points are added with the deviation interpolated from the survey around them.
+  const designZ: number[] = zs.map((z, i) => (i < deviations.length ? deviations[i].design : z));
+  const measuredNodes = xs.length;
+  const outletSeeds = [...seeds];
+  const drainNodes = () => {
+    const out = [...outletSeeds];
+    for (let i = 0; i < xs.length; i++) {
+      const j = onOutline(xs[i], ys[i], roof.tol * 1000);
+      if (j >= 0 && roof.eaves[j]) out.push(i);
+    }
+    return out;
+  };
+  const tri = refineWithDesign(xs, ys, zs, designZ, ox, oy, design.level, inside, AS_BUILT_LIMITS.merge, drainNodes);
+  const designPoints = xs.length - measuredNodes;
   for (let i = 0; i < xs.length; i++) {
     const j = onOutline(xs[i], ys[i], roof.tol * 1000);
     if (j >= 0 && roof.eaves[j]) {
       seeds.push(i);
       drains.push({ drain: `eaves-${roof.userEdge[j]}`, label: `Eaves edge ${roof.userEdge[j] + 1}` });
-    }
-  }
-
-  // Triangles of the Delaunay triangulation that lie inside the outline (a concave outline's
-  // hull has some outside).
-  const coords = new Float64Array(xs.length * 2);
-  for (let i = 0; i < xs.length; i++) {
-    coords[2 * i] = xs[i];
-    coords[2 * i + 1] = ys[i];
-  }
-  const tri: number[] = [];
-  if (xs.length >= 3) {
-    const del = new Delaunator(coords);
-    for (let t = 0; t < del.triangles.length; t += 3) {
-      const a = del.triangles[t],
-        b = del.triangles[t + 1],
-        c = del.triangles[t + 2];
-      const cx = (xs[a] + xs[b] + xs[c]) / 3,
-        cy = (ys[a] + ys[b] + ys[c]) / 3;
-      if (insidePolygon(ox, oy, cx, cy)) tri.push(a, b, c);
     }
   }
   const graph = adjacency(xs.length, tri, zs);
@@ -291,8 +338,19 @@ export function asBuilt(spec: RoofSpec, points: SurveyPoint[], tolerance: Partia
     catchments.set(d.drain, c);
   });
 
-  // Ponds: the filled depressions, their wet area and volume from the triangles around them.
-  const { group, depressions: pits } = depressions(graph, flood.filled, 1e-6);
+  // Ponds: the filled depressions, their wet area and volume from the triangles around them. A
+  // depression the design's own levels hold on the same triangles at least as deep at every one
+  // of its points is the triangulation's (a twist finer than the points, docs/as-built.md), not
+  // the deck's: it is not reported.
+  const designFlood = priorityFlood({ ...graph, z: Float64Array.from(designZ) }, seeds);
+  const found = depressions(graph, flood.filled, 1e-6);
+  const group = found.group;
+  const pits: typeof found.depressions = [];
+  for (const d of found.depressions) {
+    const own = d.nodes.every((c) => flood.filled[c] - zs[c] <= designFlood.filled[c] - designZ[c] + 1e-6);
+    for (const c of d.nodes) group[c] = own ? -1 : pits.length;
+    if (!own) pits.push(d);
+  }
   const ponds: Pond[] = pits.map((d) => ({
     at: [xs[d.deepest], ys[d.deepest]],
     area: 0,
@@ -336,8 +394,6 @@ export function asBuilt(spec: RoofSpec, points: SurveyPoint[], tolerance: Partia
   }
   // Finished fall: from each measured point along its way out (the flood's parent links) to
   // its drain; it fails when flatter than the minimum and flatter than the design gave there.
-  const designZ = zs.map((z, i) => (i < deviations.length ? deviations[i].design : z));
-  const designFlood = priorityFlood({ ...graph, z: designZ }, seeds);
   for (let i = 0; i < points.length; i++) {
     const built = pathRatio(i, flood.parent, flood.filled, xs, ys);
     const planned = pathRatio(i, designFlood.parent, designFlood.filled, xs, ys);
@@ -386,7 +442,7 @@ export function asBuilt(spec: RoofSpec, points: SurveyPoint[], tolerance: Partia
     ok: true,
     result: {
       deviations,
-      surface: { fallMap: map, catchments: [...catchments.values()], ponds },
+      surface: { fallMap: map, catchments: [...catchments.values()], ponds, designPoints },
       verdict: { passed: failures.length === 0, failures },
       fixes,
       tolerance: tol,
@@ -396,6 +452,8 @@ export function asBuilt(spec: RoofSpec, points: SurveyPoint[], tolerance: Partia
         zs,
         triangles: tri,
         ratio: Array.from(slope2, (q) => (q > 0 ? 1 / Math.sqrt(q) : Infinity)),
+        design: designZ,
+        firstDesignPoint: measuredNodes,
       },
     },
   };
@@ -485,4 +543,120 @@ export function wetPart(t: [number, number, number][], w: number): { area: numbe
   const gy = (d1x * d2z - d2x * d1z) / cross;
   const zc = p[2] + gx * (cx - p[0]) + gy * (cy - p[1]);
   return { area, volume: area * (w - zc) };
+}
+
+/**
+ * Where design points are added between survey points (docs/as-built.md, "Sparse surveys"): a
+ * pit of the design's own levels on the survey's triangles deeper than `pit` (the design has
+ * none there: the triangles miss its way out), the shortest triangle edge still split, and caps
+ * on the rounds and points added.
+ */
+export const DESIGN_FILL = { pit: 1e-4, minEdge: 0.1, rounds: 12, maxPoints: 4_000 } as const;
+
+// Barycentric places added in a triangle: the three edge midpoints and the centroid.
+const SAMPLES: [number, number, number][] = [
+  [0.5, 0.5, 0],
+  [0, 0.5, 0.5],
+  [0.5, 0, 0.5],
+  [1 / 3, 1 / 3, 1 / 3],
+];
+
+/**
+ * Triangulates the nodes and, where the design's own levels on those triangles hold water that
+ * the design sheds (a sparse survey misses the way out, e.g. the valley beside a re-entrant
+ * corner's twist, docs/roof-method.md §4), adds design points in the triangles round the pit until
+ * it drains or the triangles are small. Each added point takes the design level plus the
+ * deviation interpolated linearly from its triangle's corners, so a survey equal to the design
+ * gives the design back and a measured fault keeps its size. Appends the added nodes to xs, ys,
+ * zs and designZ; returns the triangles.
+ */
+function refineWithDesign(
+  xs: number[],
+  ys: number[],
+  zs: number[],
+  designZ: number[],
+  ox: number[],
+  oy: number[],
+  levelOf: (p: Point) => number | null,
+  inside: (x: number, y: number) => boolean,
+  onEdge: number,
+  seedsOf: () => number[],
+): number[] {
+  const start = xs.length;
+  let tri = triangulateInside(xs, ys, ox, oy, onEdge);
+  const seen = new Set<string>();
+  for (let round = 0; round < DESIGN_FILL.rounds; round++) {
+    const graph = adjacency(xs.length, tri, designZ);
+    const flood = priorityFlood(graph, seedsOf());
+    const pit = (v: number) => flood.filled[v] - designZ[v] > DESIGN_FILL.pit;
+    const before = xs.length;
+    for (let t = 0; t < tri.length && xs.length - start < DESIGN_FILL.maxPoints; t += 3) {
+      const v = [tri[t], tri[t + 1], tri[t + 2]];
+      if (!pit(v[0]) && !pit(v[1]) && !pit(v[2])) continue;
+      const edge = (a: number, b: number) => Math.hypot(xs[v[a]] - xs[v[b]], ys[v[a]] - ys[v[b]]);
+      const lengths = [edge(0, 1), edge(1, 2), edge(0, 2)];
+      for (let s = 0; s < SAMPLES.length; s++) {
+        if ((s < 3 ? lengths[s] : Math.max(...lengths)) < DESIGN_FILL.minEdge) continue;
+        const b = SAMPLES[s];
+        const px = b[0] * xs[v[0]] + b[1] * xs[v[1]] + b[2] * xs[v[2]];
+        const py = b[0] * ys[v[0]] + b[1] * ys[v[1]] + b[2] * ys[v[2]];
+        const key = `${Math.round(px * 1e4)},${Math.round(py * 1e4)}`;
+        if (seen.has(key) || !inside(px, py)) continue;
+        seen.add(key);
+        const d = levelOf([px, py]);
+        if (d === null) continue;
+        const delta =
+          b[0] * (zs[v[0]] - designZ[v[0]]) + b[1] * (zs[v[1]] - designZ[v[1]]) + b[2] * (zs[v[2]] - designZ[v[2]]);
+        xs.push(px);
+        ys.push(py);
+        designZ.push(d);
+        zs.push(d + delta);
+      }
+    }
+    if (xs.length === before) break;
+    tri = triangulateInside(xs, ys, ox, oy, onEdge);
+  }
+  return tri;
+}
+
+/**
+ * The Delaunay triangulation (delaunator) of the nodes, constrained to the outline's edges
+ * (Constrainautor), keeping the triangles inside the outline: an unconstrained one may join the
+ * two arms of a U across its notch with an edge whose triangle's centroid is still inside. Each
+ * outline edge is constrained piece by piece between the nodes lying on it.
+ */
+function triangulateInside(xs: number[], ys: number[], ox: number[], oy: number[], onEdge: number): number[] {
+  const tri: number[] = [];
+  if (xs.length < 3) return tri;
+  const coords = new Float64Array(xs.length * 2);
+  for (let i = 0; i < xs.length; i++) {
+    coords[2 * i] = xs[i];
+    coords[2 * i + 1] = ys[i];
+  }
+  const del = new Delaunator(coords);
+  try {
+    const con = new Constrainautor(del);
+    for (let j = 0; j < ox.length; j++) {
+      const q = (j + 1) % ox.length;
+      const on: { i: number; s: number }[] = [];
+      for (let i = 0; i < xs.length; i++) {
+        const near = nearestOnSegment(ox[j], oy[j], ox[q], oy[q], xs[i], ys[i]);
+        if (near.distance <= onEdge) on.push({ i, s: near.s });
+      }
+      on.sort((a, b) => a.s - b.s);
+      for (let k = 1; k < on.length; k++) if (on[k].i !== on[k - 1].i) con.constrainOne(on[k - 1].i, on[k].i);
+    }
+  } catch {
+    // Nodes too close to an edge to constrain it cleanly: keep the plain triangulation; the
+    // centroid test below still drops the triangles outside.
+  }
+  for (let t = 0; t < del.triangles.length; t += 3) {
+    const a = del.triangles[t],
+      b = del.triangles[t + 1],
+      c = del.triangles[t + 2];
+    const cx = (xs[a] + xs[b] + xs[c]) / 3,
+      cy = (ys[a] + ys[b] + ys[c]) / 3;
+    if (insidePolygon(ox, oy, cx, cy)) tri.push(a, b, c);
+  }
+  return tri;
 }

@@ -304,24 +304,55 @@ export const lessonSchema = z
           placeholder: z.string().optional(),
         }),
       ),
-      task: z.strictObject({
-        title: z.string(),
-        goalHtml: z.string(),
-        start: roofSpecRef,
-        editable: z.array(z.string()),
-        criteria: z.array(
-          z.strictObject({
-            id: z.string(),
-            // Kind and limit let the editor measure each criterion live.
-            kind: z.string().optional(),
-            limit: z.unknown().optional(),
-            label: z.string(),
-            weight: z.number(),
-            required: z.boolean(),
-          }),
-        ),
-        hints: z.array(z.string()),
-      }),
+      task: z.discriminatedUnion("kind", [
+        z.strictObject({
+          kind: z.literal("roof"),
+          title: z.string(),
+          goalHtml: z.string(),
+          start: roofSpecRef,
+          editable: z.array(z.string()),
+          criteria: z.array(
+            z.strictObject({
+              id: z.string(),
+              // Kind and limit let the editor measure each criterion live.
+              kind: z.string().optional(),
+              limit: z.unknown().optional(),
+              label: z.string(),
+              weight: z.number(),
+              required: z.boolean(),
+            }),
+          ),
+          hints: z.array(z.string()),
+        }),
+        // An as-built task (docs/grading.md): the design, the survey with each point's design level, what to find.
+        z.strictObject({
+          kind: z.literal("as-built"),
+          title: z.string(),
+          goalHtml: z.string(),
+          design: roofSpecRef,
+          survey: z.array(
+            z.strictObject({
+              label: z.string(),
+              at: z.array(z.number()),
+              level: z.number(),
+              design: z.number(),
+            }),
+          ),
+          tolerance: z.strictObject({ deviation: z.number(), pondDepth: z.number() }),
+          findings: z.array(
+            z.strictObject({
+              id: z.string(),
+              kind: z.string(),
+              label: z.string(),
+              weight: z.number(),
+              required: z.boolean(),
+              options: z.array(z.strictObject({ id: z.string(), text: z.string() })).optional(),
+              placeholder: z.string().optional(),
+            }),
+          ),
+          hints: z.array(z.string()),
+        }),
+      ]),
     }),
   })
   .meta({ id: "Lesson", description: "A lesson as the player shows it: no answers, no reference roof." });

@@ -34,9 +34,10 @@ function ratioOf(p: [number, number, number][]): number | null {
 export function checkDrawing(outline: Point[], result: AsBuiltResult): CheckDrawing {
   const { xs, ys, zs, triangles } = result.mesh;
   const n = result.deviations.length;
-  // The design's levels on the same nodes: the measured points' design levels; the corners and
-  // outlets added by the engine already carry theirs.
-  const designZ = zs.map((z, i) => (i < n ? result.deviations[i].design : z));
+  // The design's levels on the same nodes, as the engine gives them (checks saved before it did:
+  // the measured points' design levels; the corners and outlets carry theirs).
+  const designZ =
+    (result.mesh as { design?: number[] }).design ?? zs.map((z, i) => (i < n ? result.deviations[i].design : z));
   const tris: CheckDrawing["triangles"] = [];
   for (let t = 0; t + 2 < triangles.length; t += 3) {
     const v = [triangles[t], triangles[t + 1], triangles[t + 2]];

@@ -15,6 +15,8 @@ export async function loader({ params }: Route.LoaderArgs) {
       blocks: view.blocks.map((b) =>
         b.type === "roof" ? { type: "roof", caption: b.figure.caption, view: b.figure.view, spec: b.figure.spec } : b,
       ),
+      // An as-built task's design figure, likewise as its spec (the design itself is in `design`).
+      task: view.task.kind === "as-built" ? (({ figure: _figure, ...rest }) => rest)(view.task) : view.task,
     },
   });
 }

@@ -19,6 +19,7 @@ import { QuizQuestion } from "~/components/lessons/quiz";
 import { ScoreSummary } from "~/components/lessons/results";
 import { RoofFigure } from "~/components/lessons/roof-figure";
 import { TaskPanel } from "~/components/lessons/task-panel";
+import { AsBuiltTaskPanel } from "~/components/lessons/as-built-task-panel";
 
 export const meta: Route.MetaFunction = ({ data }) => [
   { title: `${data?.lesson.title ?? "Lesson"} · Fallwright` },
@@ -91,6 +92,52 @@ export default function LessonPlayer() {
     if (result) summaryRef.current?.scrollIntoView({ behavior: "smooth", block: "center" });
   }, [result]);
 
+  const asBuiltTask = lesson.task.kind === "as-built";
+  const submitBar = (
+    <section className="card grid gap-3 border-2 border-ink" aria-label="Submit">
+      <div ref={summaryRef}>
+        {graded && <ScoreSummary result={graded} heading="Attempt graded on the server" />}
+        <FormError message={result?.error} />
+      </div>
+      <div className="flex flex-wrap items-center gap-3">
+        {signedIn ? (
+          <button
+            type="submit"
+            form={FORM_ID}
+            className="btn-primary"
+            disabled={submitting}
+            aria-busy={submitting || undefined}
+          >
+            <Send aria-hidden="true" className="h-4 w-4" />
+            {submitting
+              ? "Checking your answers…"
+              : graded
+                ? "Submit again"
+                : asBuiltTask
+                  ? "Submit answers and findings"
+                  : "Submit answers and roof"}
+          </button>
+        ) : (
+          <Link className="btn-primary" to={`/login?${new URLSearchParams({ redirectTo: `/lessons/${lesson.slug}` })}`}>
+            Sign in to submit
+          </Link>
+        )}
+        {result?.attempt && (
+          <Link className="text-sm underline" to={`/attempts/${result.attempt.id}`}>
+            Open this attempt
+          </Link>
+        )}
+        <Link className="text-sm underline" to="/attempts">
+          My attempts
+        </Link>
+        <p className="text-xs text-ink-soft">
+          Sends your quiz answers above and the roof below. The server runs the roof engine again and marks everything;
+          nothing is marked in the browser.
+        </p>
+      </div>
+    </section>
+  );
+
   return (
     <div className="grid gap-8">
       <header className="grid gap-2">
@@ -107,7 +154,9 @@ export default function LessonPlayer() {
             <Clock aria-hidden="true" className="h-4 w-4" />
             about {lesson.minutes} min
           </span>
-          <span>{lesson.quiz.length} questions and a roof task</span>
+          <span>
+            {lesson.quiz.length} questions and {asBuiltTask ? "a survey to check" : "a roof task"}
+          </span>
           <span>pass mark {lesson.passMark} of 100</span>
           {progress && (
             <span data-testid="lesson-progress">
@@ -174,7 +223,12 @@ export default function LessonPlayer() {
         />
         <input type="hidden" name="version" value={lesson.version} />
         <input type="hidden" name="timeSpentSeconds" ref={timeInput} defaultValue="0" />
-        <input type="hidden" name="spec" ref={specInput} defaultValue={JSON.stringify(lesson.task.start)} />
+        <input
+          type="hidden"
+          name="spec"
+          ref={specInput}
+          defaultValue={JSON.stringify(lesson.task.kind === "roof" ? lesson.task.start : lesson.task.design)}
+        />
 
         <section aria-labelledby="quiz-heading" className="grid gap-3">
           <div>
@@ -194,54 +248,21 @@ export default function LessonPlayer() {
         </section>
       </Form>
 
-      <TaskPanel
-        slug={lesson.slug}
-        version={lesson.version}
-        task={lesson.task}
-        results={graded?.task ?? null}
-        onSpecChange={onSpecChange}
-        submitBar={
-          <section className="card grid gap-3 border-2 border-ink" aria-label="Submit">
-            <div ref={summaryRef}>
-              {graded && <ScoreSummary result={graded} heading="Attempt graded on the server" />}
-              <FormError message={result?.error} />
-            </div>
-            <div className="flex flex-wrap items-center gap-3">
-              {signedIn ? (
-                <button
-                  type="submit"
-                  form={FORM_ID}
-                  className="btn-primary"
-                  disabled={submitting}
-                  aria-busy={submitting || undefined}
-                >
-                  <Send aria-hidden="true" className="h-4 w-4" />
-                  {submitting ? "Checking your answers and roof…" : graded ? "Submit again" : "Submit answers and roof"}
-                </button>
-              ) : (
-                <Link
-                  className="btn-primary"
-                  to={`/login?${new URLSearchParams({ redirectTo: `/lessons/${lesson.slug}` })}`}
-                >
-                  Sign in to submit
-                </Link>
-              )}
-              {result?.attempt && (
-                <Link className="text-sm underline" to={`/attempts/${result.attempt.id}`}>
-                  Open this attempt
-                </Link>
-              )}
-              <Link className="text-sm underline" to="/attempts">
-                My attempts
-              </Link>
-              <p className="text-xs text-ink-soft">
-                Sends your quiz answers above and the roof below. The server runs the roof engine again and marks
-                everything; nothing is marked in the browser.
-              </p>
-            </div>
-          </section>
-        }
-      />
+      {lesson.task.kind === "as-built" ? (
+        <>
+          <AsBuiltTaskPanel task={lesson.task} results={graded?.task ?? null} />
+          {submitBar}
+        </>
+      ) : (
+        <TaskPanel
+          slug={lesson.slug}
+          version={lesson.version}
+          task={lesson.task}
+          results={graded?.task ?? null}
+          onSpecChange={onSpecChange}
+          submitBar={submitBar}
+        />
+      )}
       <Caution />
     </div>
   );

@@ -93,7 +93,8 @@ export async function seed(knex: Knex): Promise<void> {
   for (const p of PLANS) {
     const lesson = lessons.get(p.lesson);
     const user = await knex("users").whereRaw("lower(email) = ?", [p.trainee]).first("id");
-    if (!lesson || !user) continue;
+    // Demo attempts are on roof tasks only.
+    if (!lesson || lesson.task.kind !== "roof" || !user) continue;
     // Seeded once: a database made before the lessons last changed keeps its demo attempts (their
     // request would now differ, which the idempotency check rightly refuses).
     if (await knex("attempts").where({ trainee_id: user.id, idempotency_key: p.key }).first("id")) continue;

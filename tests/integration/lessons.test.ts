@@ -10,17 +10,18 @@ import * as attemptPage from "~/routes/attempts.$id";
 import { createAttempt } from "~/lib/lessons/attempts.server";
 import { allLessons, ensureLessonsSynced, getLesson } from "~/lib/lessons/catalogue.server";
 import { syncLessons } from "~/lib/lessons/sync.server";
-import type { Lesson } from "~/lib/lessons/schema";
+import { roofTaskOf, type Lesson } from "~/lib/lessons/schema";
 
 const { db } = useTestDatabase();
 
 const OUTLETS = getLesson("outlets-and-overflows")!;
+const OUTLETS_TASK = roofTaskOf(OUTLETS);
 const rightAnswers = (l: Lesson) =>
   Object.fromEntries(l.quiz.map((q) => [q.id, q.kind === "choice" ? q.correct : q.answer]));
 const body = (over: Record<string, unknown> = {}) => ({
   lesson: OUTLETS.slug,
   answers: rightAnswers(OUTLETS),
-  spec: OUTLETS.task.start,
+  spec: OUTLETS_TASK.start,
   idempotencyKey: `k-${Math.random().toString(36).slice(2, 12)}`,
   timeSpentSeconds: 95,
   ...over,
@@ -113,7 +114,7 @@ describe("one attempt row per idempotency key", () => {
     const fields = new URLSearchParams({
       idempotencyKey: "form-key-0001",
       version: OUTLETS.version,
-      spec: JSON.stringify(OUTLETS.task.reference),
+      spec: JSON.stringify(OUTLETS_TASK.reference),
       timeSpentSeconds: "61",
     });
     for (const [id, v] of Object.entries(rightAnswers(OUTLETS)))
@@ -157,7 +158,7 @@ describe("attempts API: grading on the server and statuses", () => {
     expect(failed.results.rawScore).toBeCloseTo(70, 1);
     expect(failed.score).toBe(69);
 
-    const moved = { ...(OUTLETS.task.start as object), outlets: [{ at: [9, 0] }] };
+    const moved = { ...(OUTLETS_TASK.start as object), outlets: [{ at: [9, 0] }] };
     const pass = await post(body({ spec: moved }), cookie);
     const passed = (await pass.json()).attempt;
     expect(passed).toMatchObject({ passed: true, score: 100, lessonVersion: OUTLETS.version, timeSpentSeconds: 95 });
@@ -207,7 +208,7 @@ describe("attempts API: grading on the server and statuses", () => {
       ...OUTLETS,
       version: "a".repeat(64),
       passMark: 10,
-      task: { ...OUTLETS.task, criteria: OUTLETS.task.criteria.slice(1) },
+      task: { ...OUTLETS_TASK, criteria: OUTLETS_TASK.criteria.slice(1) },
     };
     await db()("lesson_versions").insert({ slug: old.slug, version: old.version, content: JSON.stringify(old) });
     const r = await post(body({ version: old.version }), cookie);
@@ -268,7 +269,7 @@ describe("attempts API: grading on the server and statuses", () => {
     const text = await res.text();
     const lesson = JSON.parse(text).lesson;
     expect(lesson.quiz).toHaveLength(OUTLETS.quiz.length);
-    expect(lesson.task.start).toEqual(OUTLETS.task.start);
+    expect(lesson.task.start).toEqual(OUTLETS_TASK.start);
     expect(text).not.toMatch(/"reference"|"correct"|"answer"|"explanation"/);
     expect((await call(lessonApi.loader, getRequest("/api/v1/lessons/nope"), { slug: "nope" })).status).toBe(404);
   });

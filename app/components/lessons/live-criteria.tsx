@@ -2,10 +2,10 @@ import { Check, Circle, X } from "lucide-react";
 import type { RoofSpec } from "~/engine";
 import { checkCriterion } from "~/lib/lessons/criteria";
 import { changedFixedKeys } from "~/lib/lessons/fixed-parts";
-import type { LessonView } from "~/lib/lessons/types";
+import type { RoofTaskView } from "~/lib/lessons/types";
 import { useSandbox } from "~/components/sandbox/store";
 
-type TaskView = LessonView["task"];
+type TaskView = RoofTaskView;
 
 /**
  * Each criterion measured live on the roof being shaped, by the engine running in the browser.

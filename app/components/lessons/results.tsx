@@ -79,7 +79,10 @@ export function ScoreSummary({ result, heading = "Your result" }: { result: Grad
         <PassMark passed={grade.passed} label={grade.passed ? "Passed" : `Not passed (pass mark ${result.passMark})`} />
       </p>
       <p className="mt-1 text-sm text-ink-soft">
-        Quiz: {part(result.quiz)} right · Roof task: {part(result.task)} criteria met
+        Quiz: {part(result.quiz)} right · {/* An as-built task grades no roof (docs/grading.md). */}
+        {result.roof === null
+          ? `Survey check: ${part(result.task)} findings right`
+          : `Roof task: ${part(result.task)} criteria met`}
         {grade.why === "required" && points !== grade.score
           ? ` · points earned ${fmt(points)}, capped at ${fmt(grade.score)}`
           : ""}
@@ -107,7 +110,9 @@ export function ResultsTable({ result }: { result: GradeResult }) {
       <tbody>
         {rows.map((i) => (
           <tr key={`${i.section}-${i.id}`} className="align-top">
-            <td className="whitespace-nowrap">{i.section === "quiz" ? "Quiz" : "Roof task"}</td>
+            <td className="whitespace-nowrap">
+              {i.section === "quiz" ? "Quiz" : result.roof === null ? "Survey check" : "Roof task"}
+            </td>
             <td>
               <div className="font-medium">
                 {i.label}

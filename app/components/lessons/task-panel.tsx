@@ -5,7 +5,7 @@ import type { Locks } from "~/components/sandbox/store";
 import { LiveCriteria } from "./live-criteria";
 import type { RoofSpec } from "~/engine";
 import type { ItemResult } from "~/lib/lessons/grade";
-import type { LessonView } from "~/lib/lessons/types";
+import type { RoofTaskView } from "~/lib/lessons/types";
 import { ResetRoofButton } from "~/components/sandbox/reset-roof-button";
 import { SandboxWorkspace } from "~/components/sandbox/workspace";
 import { ItemFeedback } from "./results";
@@ -25,7 +25,7 @@ const EDITABLE_WORDS: Record<string, string> = {
 const PARTS = ["outline", "edges", "outlets", "outletLevels", "baseFall", "joists", "highLevel"];
 
 /** What the task fixes, for the editor to lock: any edit that would change one of them is refused. */
-function taskLocks(task: LessonView["task"]): Locks {
+function taskLocks(task: RoofTaskView): Locks {
   const allowed = task.editable.map((e) => EDITABLE_WORDS[e] ?? e).join(", ");
   return {
     parts: PARTS.filter((p) => !task.editable.includes(p)),
@@ -56,7 +56,7 @@ export function TaskPanel({
 }: {
   slug: string;
   version: string;
-  task: LessonView["task"];
+  task: RoofTaskView;
   results: ItemResult[] | null;
   onSpecChange: (spec: RoofSpec) => void;
   /** Shown between the goal and the sandbox, so the submit button is near the roof being shaped. */

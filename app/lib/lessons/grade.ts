@@ -4,6 +4,7 @@
  */
 import { analyse, formatRatio, parseSpec } from "../../engine";
 import type { Analysis, RoofSpec } from "../../engine/types";
+import { gradeAsBuiltTask } from "./as-built-task";
 import { checkCriterion, CRITERION_KINDS, formatLimit } from "./criteria";
 import { changedFixedKeys } from "./fixed-parts";
 import { BLANK_QUIZ_LABEL, cappedScore } from "./grading-rule";
@@ -246,7 +247,9 @@ export function gradeLesson(
   answers: Answers,
   submitted: unknown,
 ): GradeResult | Extract<TaskGrade, { ok: false }> {
-  const task = gradeTask(lesson.task, submitted);
+  // An as-built task is answered in the answers beside the quiz; the roof sent is not marked.
+  const task =
+    lesson.task.kind === "as-built" ? gradeAsBuiltTask(lesson.task, answers) : gradeTask(lesson.task, submitted);
   if (!task.ok) return task;
   const quiz = lesson.quiz.map((q) => gradeQuestion(q, answers[q.id]));
   const all = [...quiz, ...task.items];
@@ -278,10 +281,13 @@ export function gradeLesson(
     passMark: lesson.passMark,
     quiz,
     task: task.items,
-    roof: {
-      highLevel: task.analysis.shaped.highLevel,
-      longestFallRatio: task.analysis.shaped.longestFallLine?.ratio ?? null,
-      outlets: task.spec.outlets.length,
-    },
+    roof:
+      "analysis" in task
+        ? {
+            highLevel: task.analysis.shaped.highLevel,
+            longestFallRatio: task.analysis.shaped.longestFallLine?.ratio ?? null,
+            outlets: task.spec.outlets.length,
+          }
+        : null,
   };
 }

@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { parseSpec } from "../../engine/parse-spec";
 import { CRITERION_KINDS, CRITERION_KIND_IDS, type LimitKind } from "./criteria";
+import { asBuiltTaskSchema } from "./as-built-task";
 import { authorQuantity, parseQuantity, parseRatio, quantityOf, sameDimension } from "./quantity";
 
 const id = z
@@ -237,7 +238,8 @@ export const EDITABLE_KEYS = [
   "openings",
 ] as const;
 
-export const taskSchema = z.object({
+export const roofTaskSchema = z.object({
+  kind: z.literal("roof").default("roof"),
   id: id.default("task"),
   title: text("the task's title"),
   /** What the trainee is asked to do (Markdown). */
@@ -251,6 +253,17 @@ export const taskSchema = z.object({
   criteria: z.array(criterionSchema, { error: "must be a list of criteria" }).min(1, "needs at least one criterion"),
   hints: z.array(text("a hint"), { error: "must be a list of hints" }).min(1, "needs at least one hint"),
 });
+
+/**
+ * The lesson's one hands-on task: a roof to shape (the default kind, `roof`), or an as-built
+ * survey to read (`as-built`, app/lib/lessons/as-built-task.ts).
+ */
+export const taskSchema = z.preprocess(
+  (v) => (v && typeof v === "object" && !Array.isArray(v) && !("kind" in v) ? { ...v, kind: "roof" } : v),
+  z.discriminatedUnion("kind", [roofTaskSchema, asBuiltTaskSchema], {
+    error: 'kind must be "roof" (the default) or "as-built"',
+  }),
+);
 
 export const frontMatterSchema = z
   .object({
@@ -280,6 +293,18 @@ export const frontMatterSchema = z
       if (qids.indexOf(q) !== i)
         ctx.addIssue({ code: "custom", path: ["quiz", i, "id"], message: `"${q}" is used twice` });
     });
+    if (l.task.kind === "as-built") {
+      // Findings are answered beside the quiz, in the same answers: their ids must differ.
+      l.task.findings.forEach((f, i) => {
+        if (qids.includes(f.id))
+          ctx.addIssue({
+            code: "custom",
+            path: ["task", "findings", i, "id"],
+            message: `"${f.id}" is also a question's id`,
+          });
+      });
+      return;
+    }
     const cids = l.task.criteria.map((c) => c.id);
     cids.forEach((c, i) => {
       if (cids.indexOf(c) !== i)
@@ -292,7 +317,9 @@ export const frontMatterSchema = z
 export type FrontMatter = z.output<typeof frontMatterSchema>;
 export type Question = z.output<typeof questionSchema>;
 export type Criterion = z.output<typeof criterionSchema>;
-export type Task = z.output<typeof taskSchema>;
+/** A roof task (the default kind). */
+export type Task = z.output<typeof roofTaskSchema>;
+export type AnyTask = z.output<typeof taskSchema>;
 
 /** A figure the app draws from a roof spec: the fenced ```roof block of a lesson body. */
 export const FIGURE_VIEWS = ["plan", "catchments", "3d", "schedule", "compare", "figures"] as const;
@@ -316,4 +343,10 @@ export interface Lesson extends FrontMatter {
   version: string;
   file: string;
   blocks: Block[];
+}
+
+/** The lesson's roof task; throws for a lesson whose task is of another kind (for code that needs a roof). */
+export function roofTaskOf(l: { task: AnyTask; file?: string }): Task {
+  if (l.task.kind !== "roof") throw new Error(`${l.file ?? "this lesson"} has an ${l.task.kind} task, not a roof task`);
+  return l.task;
 }

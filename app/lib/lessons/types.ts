@@ -1,5 +1,6 @@
 /** Shapes the lesson pages receive from their loaders (safe for the browser: no answers, no reference roofs). */
 import type { RoofSpec } from "../../engine";
+import type { FindingKind } from "./as-built-task";
 import type { CriterionKindId } from "./criteria";
 import type { Figure } from "./schema";
 
@@ -53,14 +54,41 @@ export interface LessonView extends LessonSummary {
     multiple?: boolean;
     placeholder?: string;
   }[];
-  task: {
-    title: string;
-    goalHtml: string;
-    start: RoofSpec;
-    editable: string[];
-    criteria: { id: string; kind: CriterionKindId; limit: number; label: string; weight: number; required: boolean }[];
-    hints: string[];
-  };
+  task: RoofTaskView | AsBuiltTaskView;
+}
+
+/** A roof task: the roof to start from and what it is marked on. */
+export interface RoofTaskView {
+  kind: "roof";
+  title: string;
+  goalHtml: string;
+  start: RoofSpec;
+  editable: string[];
+  criteria: { id: string; kind: CriterionKindId; limit: number; label: string; weight: number; required: boolean }[];
+  hints: string[];
+}
+
+/** An as-built task: the design, the survey to read against it, and what to find (no answers). */
+export interface AsBuiltTaskView {
+  kind: "as-built";
+  title: string;
+  goalHtml: string;
+  design: RoofSpec;
+  /** The design's plan, drawn like a lesson figure. */
+  figure: FigureData;
+  /** Each point with its measured and design level (metres). */
+  survey: { label: string; at: [number, number]; level: number; design: number }[];
+  tolerance: { deviation: number; pondDepth: number };
+  findings: {
+    id: string;
+    kind: FindingKind;
+    label: string;
+    weight: number;
+    required: boolean;
+    options?: { id: string; text: string }[];
+    placeholder?: string;
+  }[];
+  hints: string[];
 }
 
 /** A lesson's line in the course list. */

@@ -54,7 +54,7 @@ describe("POST /api/v1/analyses/as-built", () => {
     expect(res.status).toBe(200);
     const a = await res.json();
     expect(Object.keys(a).sort()).toEqual(["deviations", "fixes", "surface", "tolerance", "verdict"]);
-    expect(Object.keys(a.surface).sort()).toEqual(["catchments", "fallMap", "ponds"]);
+    expect(Object.keys(a.surface).sort()).toEqual(["catchments", "designPoints", "fallMap", "ponds"]);
     expect(a.deviations).toHaveLength(6);
     expect(a.deviations[1]).toMatchObject({ at: [2, 0], measured: 0 });
     expect(a.deviations[1].design).toBeCloseTo(0, 9);

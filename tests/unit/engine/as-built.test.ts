@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { asBuilt, wetPart, type SurveyPoint } from "~/engine/as-built";
+import { asBuilt, designLevelAt, wetPart, type SurveyPoint } from "~/engine/as-built";
+import { U_ROOF } from "../pack/fixtures";
 import { analyse } from "~/engine/analyse";
 import type { RoofSpec } from "~/engine/types";
 
@@ -107,6 +108,52 @@ describe("as-built check", () => {
     expect(catchments.reduce((t, c) => t + c.area, 0)).toBeCloseTo(56, 6);
     for (const c of catchments) expect(c.area).toBeGreaterThan(0);
     expect(r.result.verdict.passed).toBe(true);
+  });
+
+  describe("a U-shaped roof's own design levels, sampled sparsely", () => {
+    // U_ROOF: 12 m x 8 m with a 4 m x 5 m notch from the top; its surface steps along the line
+    // through the re-entrant corner (8, 3) (docs/roof-method.md §4, twist) and falls steeply just
+    // below the notch's parapet. A grid survey 1-3 m apart misses that valley: before design
+    // points were added where the survey is sparse, water "stood" 8.6 mm deep at (9, 3) (1 m
+    // grid), 14 mm (1.5 m and 3 m) and 38 mm at (5, 2.5) across the notch (2.5 m).
+    const grid = (step: number): SurveyPoint[] => {
+      const level = designLevelAt(U_ROOF);
+      const pts: SurveyPoint[] = [];
+      for (let x = 0; x <= 12 + 1e-9; x += step)
+        for (let y = 0; y <= 8 + 1e-9; y += step) {
+          const z = level([x, y]);
+          if (z !== null) pts.push({ at: [x, y], level: z });
+        }
+      return pts;
+    };
+    for (const step of [1, 1.5, 2.5, 3]) {
+      it(`every ${step} m: no pond, a pass, the whole outline covered`, () => {
+        const r = asBuilt(U_ROOF, grid(step));
+        if (!r.ok) throw new Error(JSON.stringify(r.issues));
+        expect(r.result.surface.ponds).toEqual([]);
+        expect(r.result.verdict).toEqual({ passed: true, failures: [] });
+        // 12 x 8 - 4 x 5 = 76 m² by hand: no triangle across the notch, no gap beside it.
+        expect(r.result.surface.fallMap.area).toBeCloseTo(76, 6);
+      });
+    }
+    it("design points are added and flagged, and a real fault beside the notch still ponds", () => {
+      const pts = grid(1.5);
+      const clean = asBuilt(U_ROOF, pts);
+      if (!clean.ok) throw new Error("unexpected");
+      expect(clean.result.surface.designPoints).toBeGreaterThan(0);
+      const { mesh } = clean.result;
+      expect(mesh.firstDesignPoint).toBe(mesh.xs.length - clean.result.surface.designPoints);
+      expect(mesh.firstDesignPoint).toBeGreaterThan(pts.length);
+      // (10.5, 1.5), inside the lower arm, built 80 mm low: by the design its lowest neighbour,
+      // (10.5, 3), is about 50 mm lower (its water runs on along the valley), so it holds water.
+      const low = pts.map((p) => (p.at[0] === 10.5 && p.at[1] === 1.5 ? { ...p, level: p.level - 0.08 } : p));
+      const r = asBuilt(U_ROOF, low);
+      if (!r.ok) throw new Error("unexpected");
+      const deepest = r.result.surface.ponds.reduce((a, b) => (b.depth > a.depth ? b : a));
+      expect(deepest.at).toEqual([10.5, 1.5]);
+      expect(deepest.depth).toBeGreaterThan(0.01);
+      expect(r.result.verdict.failures.some((f) => f.code === "pond")).toBe(true);
+    });
   });
 
   it("a joist end built within tolerance but flattening its fall below the minimum fails on fall", () => {

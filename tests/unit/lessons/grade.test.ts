@@ -1,7 +1,13 @@
 import { describe, expect, it } from "vitest";
 import type { Analysis, RoofSpec } from "~/engine";
 import { changedFixedKeys, gradeCriterion, gradeLesson, gradeQuestion, gradeTask } from "~/lib/lessons/grade";
-import { criterionSchema, questionSchema, taskSchema, type Criterion, type Question } from "~/lib/lessons/schema";
+import {
+  criterionSchema,
+  questionSchema,
+  roofTaskSchema as taskSchema,
+  type Criterion,
+  type Question,
+} from "~/lib/lessons/schema";
 
 const q = (raw: object): Question => questionSchema.parse(raw);
 const c = (raw: object): Criterion => criterionSchema.parse(raw);
