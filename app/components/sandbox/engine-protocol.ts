@@ -1,5 +1,6 @@
 import type { FallResult, ParseSpecResult, RoofSpec, RuleSetId } from "~/engine";
-import type { EngineOutcome } from "./run-analysis";
+import type { EngineOutcome } from "./analysis-outcome";
+import type { Superseded } from "./engine-server";
 
 /** A rule set as the picker and the sources list need it. */
 export interface RuleSetInfo {
@@ -16,7 +17,8 @@ export type EngineRequest =
   | { kind: "ruleSets" };
 
 export interface EngineAnswers {
-  analyse: EngineOutcome;
+  /** Superseded: a newer analysis came in before this one started, so it was dropped. */
+  analyse: EngineOutcome | Superseded;
   parseFall: FallResult;
   parseSpec: ParseSpecResult;
   ruleSets: RuleSetInfo[];
