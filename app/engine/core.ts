@@ -3,7 +3,7 @@
  * reader only when a fall needs it (`needsFallUnits`, `loadFallUnits`). Everywhere else imports
  * `~/engine`, which is this with the reader installed (docs/decisions/0015-lazy-unit-reader.md).
  */
-export { analyse, analyseRoof, type AnalyseOptions, MAX_MESH_VERTICES } from "./analyse";
+export { analyse, analyseRoof, type AnalyseOptions, MAX_MESH_VERTICES, PREVIEW_MESH_VERTICES } from "./analyse";
 export { parseSpec, parseRoofSpec, type ParseSpecResult, type ParseRoofResult } from "./parse-spec";
 export { drainName, outletName } from "./names";
 export {

@@ -1,7 +1,8 @@
-import type { analyse, Analysis, parseSpec, RoofSpec } from "~/engine/core";
+import type { analyse, Analysis, AnalyseOptions, parseSpec, RoofSpec } from "~/engine/core";
 import type { EngineError } from "./store";
 
-export type EngineOutcome = { ok: true; analysis: Analysis } | { ok: false; error: EngineError };
+/** `preview`: the drag preview, on a coarser mesh (docs/decisions/0002-engine-in-a-worker-and-on-the-server.md). */
+export type EngineOutcome = { ok: true; analysis: Analysis; preview?: boolean } | { ok: false; error: EngineError };
 
 interface Engine {
   parseSpec: typeof parseSpec;
@@ -12,7 +13,11 @@ interface Engine {
  * Validate and analyse a spec with the given engine functions; never throws (an engine fault
  * becomes an error the panel can show). The worker passes `~/engine/core`'s, pages `~/engine`'s.
  */
-export function analysisOutcome(spec: RoofSpec, { parseSpec, analyse }: Engine): EngineOutcome {
+export function analysisOutcome(
+  spec: RoofSpec,
+  { parseSpec, analyse }: Engine,
+  options?: AnalyseOptions,
+): EngineOutcome {
   try {
     const parsed = parseSpec(spec);
     if (!parsed.ok) {
@@ -25,7 +30,7 @@ export function analysisOutcome(spec: RoofSpec, { parseSpec, analyse }: Engine):
         },
       };
     }
-    return { ok: true, analysis: analyse(parsed.spec) };
+    return { ok: true, analysis: analyse(parsed.spec, options) };
   } catch (error) {
     return {
       ok: false,

@@ -74,8 +74,8 @@ export class EngineClient {
   }
 
   /** An analysis; Superseded when a newer one came in before it started (it was not computed). */
-  analyse(spec: RoofSpec): Promise<EngineOutcome | Superseded> {
-    return this.call({ kind: "analyse", spec });
+  analyse(spec: RoofSpec, options: { preview?: boolean } = {}): Promise<EngineOutcome | Superseded> {
+    return this.call({ kind: "analyse", spec, ...(options.preview ? { preview: true } : {}) });
   }
 
   parseFall(text: string): Promise<FallResult> {

@@ -1,6 +1,15 @@
-import { analyse, loadFallUnits, needsFallUnits, parseFall, parseSpec, RULE_SETS } from "~/engine/core";
+import {
+  analyse,
+  loadFallUnits,
+  needsFallUnits,
+  parseFall,
+  parseSpec,
+  PREVIEW_MESH_VERTICES,
+  RULE_SETS,
+} from "~/engine/core";
 import type { EngineAnswers, EngineRequest } from "./engine-protocol";
-import { analysisOutcome } from "./analysis-outcome";
+import type { RoofSpec } from "~/engine/core";
+import { analysisOutcome, type EngineOutcome } from "./analysis-outcome";
 
 /**
  * Loads the fall unit reader (mathjs) first when the request holds a fall that needs it; a plain
@@ -22,7 +31,7 @@ export async function prepareEngineRequest(request: EngineRequest): Promise<void
 export function handleEngineRequest(request: EngineRequest): EngineAnswers[EngineRequest["kind"]] {
   switch (request.kind) {
     case "analyse":
-      return analysisOutcome(request.spec, { parseSpec, analyse });
+      return request.preview ? previewOutcome(request.spec) : analysisOutcome(request.spec, { parseSpec, analyse });
     case "parseFall":
       return parseFall(request.text);
     case "parseSpec":
@@ -30,4 +39,16 @@ export function handleEngineRequest(request: EngineRequest): EngineAnswers[Engin
     case "ruleSets":
       return Object.values(RULE_SETS).map((r) => ({ id: r.id, name: r.name, notes: r.notes }));
   }
+}
+
+/**
+ * The drag preview: the analysis on a coarser mesh, marked as such. Its coarse mesh is chosen,
+ * so the warning that a mesh was coarsened is left out (the full analysis that follows gives it
+ * when it applies).
+ */
+function previewOutcome(spec: RoofSpec): EngineOutcome {
+  const outcome = analysisOutcome(spec, { parseSpec, analyse }, { maxMeshVertices: PREVIEW_MESH_VERTICES });
+  if (!outcome.ok) return outcome;
+  const warnings = outcome.analysis.warnings.filter((w) => w.code !== "mesh-coarsened");
+  return { ok: true, preview: true, analysis: { ...outcome.analysis, warnings } };
 }

@@ -11,7 +11,8 @@ export interface RuleSetInfo {
 
 /** Messages to the engine worker (or its main-thread stand-in) and what each answers. */
 export type EngineRequest =
-  | { kind: "analyse"; spec: RoofSpec }
+  /** preview: while a drag goes on, the same analysis on a mesh sized to a frame (PREVIEW_MESH_VERTICES). */
+  | { kind: "analyse"; spec: RoofSpec; preview?: boolean }
   | { kind: "parseFall"; text: string }
   | { kind: "parseSpec"; input: unknown }
   | { kind: "ruleSets" };

@@ -1,7 +1,11 @@
 import { describe, expect, it } from "vitest";
 import { DEMO_ROOF } from "~/components/sandbox/demo-roof";
 import type { EngineRequest } from "~/components/sandbox/engine-protocol";
+import type { EngineOutcome } from "~/components/sandbox/analysis-outcome";
+import { handleEngineRequest } from "~/components/sandbox/engine-handlers";
 import { createEngineServer, isSuperseded, type EngineReply } from "~/components/sandbox/engine-server";
+import { PREVIEW_MESH_VERTICES } from "~/engine";
+import { BENCH_ROOFS } from "../../bench/bench";
 
 const spec = (k: number) => ({ ...DEMO_ROOF, baseFall: `1:${40 + k}` });
 
@@ -85,5 +89,22 @@ describe("engine server (the worker's queue)", () => {
     await expect.poll(() => replies.length).toBe(2);
     expect(replies[0].answer).toMatchObject({ ok: false, error: { status: 500, message: "boom" } });
     expect(replies[1].answer).toEqual({ ok: true });
+  });
+});
+
+describe("engine handlers: the drag preview", () => {
+  it("answers the analysis on a mesh of about PREVIEW_MESH_VERTICES, marked preview, with the full high level", () => {
+    const spec = BENCH_ROOFS[BENCH_ROOFS.length - 1].spec;
+    const full = handleEngineRequest({ kind: "analyse", spec }) as EngineOutcome;
+    const preview = handleEngineRequest({ kind: "analyse", spec, preview: true }) as EngineOutcome;
+    if (!full.ok || !preview.ok) throw new Error("not analysed");
+    expect(preview.preview).toBe(true);
+    expect("preview" in full).toBe(false);
+    expect(preview.analysis.shaped.highLevel).toBe(full.analysis.shaped.highLevel);
+    const vertices = (a: typeof full.analysis) => (a.shaped.mesh?.positions.length ?? 0) / 3;
+    expect(vertices(preview.analysis)).toBeLessThanOrEqual(1.5 * PREVIEW_MESH_VERTICES);
+    expect(vertices(full.analysis)).toBeGreaterThan(4 * vertices(preview.analysis));
+    // Its coarse mesh is chosen: no warning says so.
+    expect(preview.analysis.warnings.map((w) => w.code)).not.toContain("mesh-coarsened");
   });
 });
