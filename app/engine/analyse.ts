@@ -48,6 +48,14 @@ export interface AnalyseOptions {
 export const MAX_MESH_VERTICES = 250_000;
 
 /**
+ * Work bound for a drag preview: the same method on a mesh of every k-th joist with a longer
+ * station step, sized so the large bench roof (10,000 m²) analyses well inside one 16.7 ms frame.
+ * The high level does not depend on the mesh; levels elsewhere agree with the full analysis to
+ * within the tolerance tests/unit/engine/preview.test.ts states.
+ */
+export const PREVIEW_MESH_VERTICES = 8_000;
+
+/**
  * Shapes and checks a parapet roof (docs/roof-method.md): the level-rim boundary, the high level,
  * the chord-rule surface, joists, mesh and fall map, water (catchments, ponding, fall lines),
  * advice, and the gutter and open-edge layouts to compare with. Expects a spec that passed

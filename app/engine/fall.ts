@@ -1,8 +1,3 @@
-import { create, fractionDependencies, unitDependencies } from "mathjs";
-
-/** Only the unit and fraction machinery of mathjs, so the browser bundle stays small. */
-const math = create({ unitDependencies, fractionDependencies });
-
 /** A fall in every form the product shows. ratio N means 1 in N. */
 export interface Fall {
   ratio: number;
@@ -34,46 +29,63 @@ export function fallFromSlope(slope: number): Fall {
   return fallFromRatio(1 / Math.abs(slope));
 }
 
-const NUMBER = String.raw`[+]?(?:\d+(?:\.\d*)?|\.\d+)(?:e[+-]?\d+)?`;
-/** A plain number, a fraction "1/4" or a mixed number "1 1/2" (read by mathjs's fraction). */
-const AMOUNT = String.raw`(?:\d+\s+)?\d+\s*/\s*\d+|${NUMBER}`;
-const RATIO = new RegExp(String.raw`^(${AMOUNT})\s*(?::|in)\s*(${AMOUNT})$`);
-const LEADING_FRACTION = new RegExp(String.raw`^((?:\d+\s+)?\d+\s*/\s*\d+)(?=\s*[a-z])`);
+/**
+ * The unit reader: mathjs units and fractions (`./fall-units.ts`, which installs itself when
+ * imported). Falls written as a plain ratio, percent, degree or bare number are read here without
+ * it, to the same bit (tests/unit/engine/fall-reader.test.ts), so a browser worker can start
+ * without mathjs and load it only for a fall such as "1/4 in/ft" (docs/decisions/0015-lazy-unit-reader.md).
+ */
+type UnitSlopeReader = (normalised: string) => number | string;
+let unitReader: UnitSlopeReader | null = null;
 
-/** "1/4", "1 1/2" or "0.25" as a number, through mathjs's exact fractions. */
-function amount(text: string): number {
-  const t = text.replace(/\s*\/\s*/, "/").trim();
-  return t.includes("/") ? Number(math.fraction(t).valueOf()) : Number(t);
+export function installFallUnitReader(reader: UnitSlopeReader) {
+  unitReader = reader;
 }
 
-function slopeOf(text: string): number | string {
-  // An inch mark is "in" to mathjs: 1/4" per ft.
-  let s = text.trim().toLowerCase().replace(/["″”]/g, " in ").replace(/\s+/g, " ").trim();
-  if (!s) return "is empty";
-  const ratio = RATIO.exec(s);
-  if (ratio) {
-    // "1:40", "1 in 40" and the US roofers' "1/4:12" (1/4 in of rise in 12 in of run): a rise
-    // over a run, in any one length unit.
-    const run = amount(ratio[2]);
-    if (run === 0) return "has a run of zero";
-    const quotient: unknown = math.unit(`${amount(ratio[1])} m`).divide(math.unit(`${run} m`));
-    // mathjs simplifies m/m to a plain number; keep the Unit branch for other builds.
-    return typeof quotient === "number" ? quotient : (quotient as { toNumber(u: string): number }).toNumber("m/m");
+/** Lower case, an inch mark as "in" (1/4" per ft), single spaces. */
+export function normaliseFallText(text: string): string {
+  return text.trim().toLowerCase().replace(/["″”]/g, " in ").replace(/\s+/g, " ").trim();
+}
+
+const PLAIN = String.raw`\d+(?:\.\d+)?`;
+const PLAIN_NUMBER = new RegExp(String.raw`^(${PLAIN})$`);
+const PLAIN_RATIO = new RegExp(String.raw`^(${PLAIN}) ?(?::|in) ?(${PLAIN})$`);
+const PLAIN_PERCENT = new RegExp(String.raw`^(${PLAIN}) ?%$`);
+const PLAIN_DEGREES = new RegExp(String.raw`^(${PLAIN})(?: ?°| ?deg| degrees?)$`);
+
+/**
+ * The slope of a plain fall, computed exactly as mathjs computes it (a percent is 0.01 of a unit,
+ * a degree π/180 rad, each multiplied as mathjs normalises a unit), or undefined when the text
+ * needs the unit reader.
+ */
+export function plainSlope(s: string): number | undefined {
+  let m = PLAIN_RATIO.exec(s);
+  if (m) {
+    const run = Number(m[2]);
+    return run === 0 ? undefined : Number(m[1]) / run;
   }
-  // "1/4 in/ft": mathjs reads a unit after a plain number only, so settle the fraction first.
-  s = s.replace(LEADING_FRACTION, (_, f: string) => String(amount(f)));
-  s = s
-    .replace(/%$/, " cm/m") // one percent is one centimetre per metre
-    .replace(/°$/, " deg")
-    .replace(/ per /g, "/")
-    .replace(/\bdegrees?$/, "deg");
-  const value = math.unit(s);
-  if (value.equalBase(math.unit("1 rad"))) return Math.tan(value.toNumber("rad"));
-  if (!value.dimensions.every((d: number) => d === 0)) return "is not a fall (it has a length or other dimension)";
-  const units = (value as unknown as { units: unknown[] }).units;
-  // A bare number is a ratio N, as in the JSON form `"baseFall": 40`.
-  if (!units || units.length === 0) return 1 / value.toNumber();
-  return value.toNumber("m/m");
+  if ((m = PLAIN_PERCENT.exec(s))) return Number(m[1]) * 0.01;
+  if ((m = PLAIN_DEGREES.exec(s))) return Math.tan(Number(m[1]) * (Math.PI / 180));
+  if ((m = PLAIN_NUMBER.exec(s))) return 1 / Number(m[1]);
+  return undefined;
+}
+
+/** Whether reading this fall needs the unit reader, and it is not installed yet. */
+export function fallNeedsUnitReader(input: unknown): boolean {
+  if (unitReader || typeof input !== "string" || input.length > 40) return false;
+  const s = normaliseFallText(input);
+  return s !== "" && plainSlope(s) === undefined;
+}
+
+class UnitReaderMissing extends Error {}
+
+function slopeOf(text: string): number | string {
+  const s = normaliseFallText(text);
+  if (!s) return "is empty";
+  const plain = plainSlope(s);
+  if (plain !== undefined) return plain;
+  if (!unitReader) throw new UnitReaderMissing("The fall unit reader is not loaded (import ./fall-units first).");
+  return unitReader(s);
 }
 
 /**
@@ -114,7 +126,8 @@ function parseFallUncached(input: string | number): FallResult {
     if (ratio < FALL_RATIO_LIMITS.min) return { ok: false, error: "is steeper than 1:1 (45°)" };
     if (ratio > FALL_RATIO_LIMITS.max) return { ok: false, error: "is flatter than 1:10000" };
     return { ok: true, ...fallFromRatio(ratio) };
-  } catch {
+  } catch (error) {
+    if (error instanceof UnitReaderMissing) throw error;
     return { ok: false, error: "is not a fall such as 1:40, 2°, 2.5% or 25 mm/m" };
   }
 }

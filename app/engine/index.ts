@@ -1,54 +1,7 @@
-/** The roof engine: pure TypeScript, shared by the browser, a Web Worker and the server. */
-export { analyse, analyseRoof, type AnalyseOptions, MAX_MESH_VERTICES } from "./analyse";
-export { parseSpec, parseRoofSpec, type ParseSpecResult, type ParseRoofResult } from "./parse-spec";
-export { drainName, outletName } from "./names";
-export { parseFall, formatRatio, fallFromRatio, fallFromSlope, type Fall, type FallResult } from "./fall";
-export {
-  RULE_SETS,
-  RULE_SET_IDS,
-  DEFAULT_RULE_SET,
-  ruleValue,
-  type RuleSet,
-  type RuleSetId,
-  type RuleValues,
-  type CitedValue,
-  type UsedRule,
-  type Confidence,
-} from "./rule-sets";
-export { LIMITS, DEFAULTS } from "./prepare";
-export { DEFAULT_BAND_EDGES } from "./fall-map";
-export { designFlow, designFlowGpm, outletCapacity } from "./hydraulics";
-export type {
-  RoofSpec,
-  Analysis,
-  Point,
-  EdgeKind,
-  Warning,
-  WarningFix,
-  JoistDirectionOption,
-  EdgeFall,
-  Joist,
-  JoistSpan,
-  FallLine,
-  OutletJoist,
-  JoistSetOut,
-  Band,
-  Catchment,
-  Mesh,
-  MeshBuffers,
-  FlowTraces,
-} from "./types";
-export {
-  asBuilt,
-  designLevelAt,
-  AS_BUILT_DEFAULTS,
-  AS_BUILT_LIMITS,
-  type AsBuiltAnswer,
-  type AsBuiltResult,
-  type AsBuiltFailure,
-  type Deviation,
-  type JoistFix,
-  type Pond,
-  type SurveyPoint,
-  type Tolerance,
-} from "./as-built";
+/**
+ * The roof engine: pure TypeScript, shared by the browser, a Web Worker and the server. This face
+ * has every reader installed, mathjs' fall units included; `./core.ts` is the same without them.
+ */
+import "./fall-units";
+
+export * from "./core";

@@ -1,29 +1,54 @@
-import { create, fractionDependencies, unitDependencies } from "mathjs";
-
 /**
  * Metric or US customary, at the edges only: roofs are stored and analysed in metres; this module
- * reads what people type and writes what they read. Conversions go through mathjs units, whose
- * inch is 0.0254 m exactly (the international yard and pound agreement of 1959, as NIST SP 811
- * gives it).
+ * reads what people type and writes what they read. It carries no mathjs: the formatters convert
+ * with mathjs' own unit values, multiplied as mathjs multiplies them (tests/unit/units/lazy-reader.test.ts
+ * holds them equal), and typed text that is more than a plain number is read by mathjs units in
+ * ./units-reader.ts, loaded on demand (docs/decisions/0015-lazy-unit-reader.md). The inch is
+ * 0.0254 m exactly (the international yard and pound agreement of 1959, as NIST SP 811 gives it).
  */
-const math = create({ unitDependencies, fractionDependencies });
-
 export {
+  bareUnit,
   isUnitSystem,
   systemFor,
   UNIT_SYSTEMS,
   UNIT_SYSTEM_LABELS,
   UNITS_STORAGE_KEY,
+  type LengthKind,
+  type LengthResult,
   type UnitSystem,
   type UnitsPreference,
 } from "./unit-system";
-import type { UnitSystem } from "./unit-system";
+import { bareUnit, type LengthKind, type LengthResult, type UnitSystem } from "./unit-system";
 
 const NBSP = "\u00a0";
 const NONE = "–";
 const finite = (v: number | null | undefined): v is number => v != null && Number.isFinite(v);
 
-const toUnit = (metres: number, unit: string) => math.unit(metres, "m").toNumber(unit);
+/** mathjs' unit values (unit × prefix, in SI base units) for the units shown. */
+const UNIT_VALUE = {
+  m: 1,
+  mm: 1 * 0.001,
+  inch: 0.0254,
+  ft: 0.3048,
+  L: 0.001,
+  s: 1,
+  gal: 0.003785411784,
+  minute: 60,
+} as const;
+type UnitName = keyof typeof UNIT_VALUE;
+
+/**
+ * value in `from` units as `to` units, as mathjs' Unit normalises (× each unit value to its power)
+ * and denormalises (÷ each), so the figures are those mathjs would give.
+ */
+export function convert(value: number, from: [UnitName, number][], to: [UnitName, number][]): number {
+  let v = value;
+  for (const [unit, power] of from) v = v * Math.pow(UNIT_VALUE[unit], power);
+  for (const [unit, power] of to) v = v / Math.pow(UNIT_VALUE[unit], power);
+  return v;
+}
+
+const toInches = (metres: number) => convert(metres, [["m", 1]], [["inch", 1]]);
 
 /** 7/16, or "" for zero sixteenths. */
 function sixteenths(n: number): string {
@@ -51,7 +76,7 @@ function inchesText(inches: number, zeroWhole = false): string {
 export function formatLength(metres: number | null | undefined, system: UnitSystem, digits = 2): string {
   if (!finite(metres)) return NONE;
   if (system === "metric") return `${metres.toFixed(digits)}${NBSP}m`;
-  const n16 = Math.round(Math.abs(toUnit(metres, "inch")) * 16);
+  const n16 = Math.round(Math.abs(toInches(metres)) * 16);
   const feet = Math.floor(n16 / 192);
   const rest = inchesText((n16 - feet * 192) / 16, feet > 0);
   const sign = metres < 0 && n16 > 0 ? "−" : "";
@@ -62,27 +87,37 @@ export function formatLength(metres: number | null | undefined, system: UnitSyst
 export function formatLevel(metres: number | null | undefined, system: UnitSystem): string {
   if (!finite(metres)) return NONE;
   if (system === "metric") return `${Math.round(metres * 1000)}${NBSP}mm`;
-  return `${inchesText(toUnit(metres, "inch"))}${NBSP}in`;
+  return `${inchesText(toInches(metres))}${NBSP}in`;
 }
 
 export function formatArea(squareMetres: number | null | undefined, system: UnitSystem): string {
   if (!finite(squareMetres)) return NONE;
   if (system === "metric") return `${squareMetres.toFixed(1)}${NBSP}m²`;
-  return `${Math.round(math.unit(squareMetres, "m^2").toNumber("ft^2")).toLocaleString("en-US")}${NBSP}ft²`;
+  return `${Math.round(convert(squareMetres, [["m", 2]], [["ft", 2]])).toLocaleString("en-US")}${NBSP}ft²`;
 }
 
 /** A flow: litres per second, or US gallons per minute. */
 export function formatFlow(litresPerSecond: number | null | undefined, system: UnitSystem): string {
   if (!finite(litresPerSecond)) return NONE;
   if (system === "metric") return `${litresPerSecond.toFixed(2)}${NBSP}L/s`;
-  return `${math.unit(litresPerSecond, "L/s").toNumber("gal/minute").toFixed(1)}${NBSP}gpm`;
+  return `${convert(
+    litresPerSecond,
+    [
+      ["L", 1],
+      ["s", -1],
+    ],
+    [
+      ["gal", 1],
+      ["minute", -1],
+    ],
+  ).toFixed(1)}${NBSP}gpm`;
 }
 
 /** A rainfall intensity: mm/h, or in/h. */
 export function formatIntensity(mmPerHour: number | null | undefined, system: UnitSystem): string {
   if (!finite(mmPerHour)) return NONE;
   if (system === "metric") return `${Math.round(mmPerHour)}${NBSP}mm/h`;
-  return `${math.unit(mmPerHour, "mm").toNumber("inch").toFixed(2)}${NBSP}in/h`;
+  return `${convert(mmPerHour, [["mm", 1]], [["inch", 1]]).toFixed(2)}${NBSP}in/h`;
 }
 
 export function formatPoint(p: readonly [number, number], system: UnitSystem): string {
@@ -131,88 +166,46 @@ export function lengthInputText(metres: number | undefined, system: UnitSystem, 
     .replace("−", "-");
 }
 
-/** A plan length (m, or ft and in) or a level (mm, or in): what a bare number means. */
-export type LengthKind = "length" | "level";
+type LengthReader = (input: string, system: UnitSystem, kind: LengthKind) => LengthResult;
+let reader: LengthReader | null = null;
+let loading: Promise<LengthReader> | null = null;
 
-export function bareUnit(system: UnitSystem, kind: LengthKind): string {
-  if (system === "metric") return kind === "level" ? "mm" : "m";
-  return kind === "level" ? "in" : "ft";
+/** Loads the full length reader (mathjs, ./units-reader.ts) once; call it when a field is focused. */
+export function loadLengthReader(): Promise<LengthReader> {
+  loading ??= import("./units-reader").then(
+    (m) => (reader = m.parseLength),
+    (error: unknown) => {
+      loading = null;
+      throw error;
+    },
+  );
+  return loading;
 }
 
-export type LengthResult = { ok: true; metres: number } | { ok: false; error: string };
+const PLAIN_LENGTH = /^([-−]?)(\d+(?:\.\d*)?|\.\d+)$/;
+const BARE_UNIT: Record<string, UnitName> = { m: "m", mm: "mm", ft: "ft", in: "inch" };
 
-const AMOUNT = String.raw`(?:\d+\s+\d+\s*/\s*\d+|\d+\s*/\s*\d+|(?:\d+(?:\.\d*)?|\.\d+)(?:e[+-]?\d+)?)`;
-const TERM = new RegExp(String.raw`\s*(${AMOUNT})\s*([a-zµ]+)?\s*`, "y");
-
-const WORDS: [RegExp, string][] = [
-  [/['′’]/g, " ft "],
-  [/["″”]/g, " in "],
-  [/\b(?:feet|foot)\b/g, " ft "],
-  [/\binch(?:es)?\b/g, " in "],
-  [/\b(?:millimet(?:er|re)s?)\b/g, " mm "],
-  [/\b(?:centimet(?:er|re)s?)\b/g, " cm "],
-  [/\b(?:met(?:er|re)s?)\b/g, " m "],
-];
-
-/** "1/4", "6 1/2" or "2.5" as a number, through mathjs's exact fractions. */
-function amount(text: string): number {
-  const t = text
-    .replace(/\s*\/\s*/, "/")
-    .replace(/\s+/g, " ")
-    .trim();
-  return t.includes("/") ? Number(math.fraction(t).valueOf()) : Number(t);
+/**
+ * A plain number (or a decimal comma: "2,5") in the field's bare unit, read exactly as the full
+ * reader reads it (mathjs: value × the unit's value); null for anything else.
+ */
+export function parsePlainLength(input: string, system: UnitSystem, kind: LengthKind): LengthResult | null {
+  const s = input.trim();
+  if (!s) return { ok: false, error: "needs a value" };
+  if (s.length > 40) return { ok: false, error: "is too long for a length" };
+  const m = PLAIN_LENGTH.exec(/^[-−]?\d+,\d+$/.test(s) ? s.replace(",", ".") : s);
+  if (!m) return null;
+  const metres = convert(Number(m[2]), [[BARE_UNIT[bareUnit(system, kind)], 1]], [["m", 1]]);
+  return { ok: true, metres: (m[1] ? -1 : 1) * metres };
 }
 
 /**
  * Reads a length typed in either system: `12' 6"`, `12 ft 6 in`, `6 1/2 in`, `150 mm`, `3.5 m`,
- * `1.2`. A bare number is in the field's unit for the chosen system (m or mm; ft or in), and a
- * bare number after feet is inches (`12' 6`). Units are converted by mathjs.
+ * `1.2` (see ./units-reader.ts). A plain number is read at once; anything else once the reader is
+ * loaded: null means "not yet", so call `loadLengthReader()` and read again.
  */
-export function parseLength(input: string, system: UnitSystem, kind: LengthKind): LengthResult {
-  let s = input.trim().toLowerCase();
-  if (!s) return { ok: false, error: "needs a value" };
-  if (s.length > 40) return { ok: false, error: "is too long for a length" };
-  let sign = 1;
-  if (/^[-−]/.test(s)) {
-    sign = -1;
-    s = s.slice(1);
-  }
-  // A decimal comma, as many metric users type it, when it is the only separator.
-  if (/^\d+,\d+(?:\s*[a-z]*)?$/.test(s.trim())) s = s.replace(",", ".");
-  for (const [re, to] of WORDS) s = s.replace(re, to);
-  s = s.replace(/\s+/g, " ").trim();
-  const terms: { value: number; unit: string | undefined }[] = [];
-  TERM.lastIndex = 0;
-  while (TERM.lastIndex < s.length) {
-    const at = TERM.lastIndex;
-    const m = TERM.exec(s);
-    if (!m || TERM.lastIndex === at) return { ok: false, error: "is not a length such as 3.5 m, 150 mm or 12' 6\"" };
-    let value: number;
-    try {
-      value = amount(m[1]);
-    } catch {
-      return { ok: false, error: "has a fraction over zero" };
-    }
-    terms.push({ value, unit: m[2] });
-  }
-  if (!terms.length) return { ok: false, error: "is not a length such as 3.5 m, 150 mm or 12' 6\"" };
-  let metres = 0;
-  try {
-    for (let i = 0; i < terms.length; i++) {
-      const t = terms[i];
-      const unit =
-        t.unit ??
-        (i > 0 && terms[i - 1].unit === "ft" ? "in" : terms.length === 1 ? bareUnit(system, kind) : undefined);
-      if (!unit) return { ok: false, error: "needs a unit on each part, such as 12 ft 6 in" };
-      if (!Number.isFinite(t.value)) return { ok: false, error: "is not a finite length" };
-      const q = math.unit(t.value, unit);
-      if (!q.equalBase(math.unit(1, "m"))) return { ok: false, error: `has ${unit}, which is not a length` };
-      metres += q.toNumber("m");
-    }
-  } catch {
-    return { ok: false, error: "has a unit that is not a length (use m, mm, ft or in)" };
-  }
-  return { ok: true, metres: sign * metres };
+export function readLength(input: string, system: UnitSystem, kind: LengthKind): LengthResult | null {
+  return parsePlainLength(input, system, kind) ?? (reader ? reader(input, system, kind) : null);
 }
 
 /**

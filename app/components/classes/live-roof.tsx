@@ -5,6 +5,7 @@
 import { memo, useEffect, useMemo, useState } from "react";
 import { createStore, type StoreApi } from "zustand/vanilla";
 import type { RoofSpec } from "~/engine";
+import { isSuperseded } from "~/components/sandbox/engine-server";
 import { encodeSpec } from "~/components/sandbox/sheet-link";
 import { useSandboxStore } from "~/components/sandbox/store";
 import { SandboxWorkspace } from "~/components/sandbox/workspace";
@@ -44,7 +45,8 @@ function SpecSync({ outside }: { outside: StoreApi<Outside> }) {
         // A newer roof came while this one was analysed: that one goes on screen instead.
         if (shown !== version) return;
         const state = store.getState();
-        if (outcome.ok) state.setOutcome(next, outcome);
+        // Superseded (a newer analysis came first): the roof goes on screen and the page's engine analyses it.
+        if (!isSuperseded(outcome) && outcome.ok) state.setOutcome(next, outcome);
         state.replaceSpec(next, { resetHistory: true });
       });
     });

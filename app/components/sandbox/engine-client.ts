@@ -1,7 +1,8 @@
 import type { FallResult, ParseSpecResult, RoofSpec } from "~/engine";
 import type { EngineAnswers, EngineRequest, RuleSetInfo } from "./engine-protocol";
-import type { EngineOutcome } from "./run-analysis";
+import type { EngineOutcome } from "./analysis-outcome";
 import type * as EngineHandlers from "./engine-handlers";
+import { createEngineServer, type EngineReply, type Superseded } from "./engine-server";
 
 type Kind = EngineRequest["kind"];
 
@@ -14,18 +15,14 @@ export class EngineClient {
   private worker: Worker | null = null;
   private sequence = 0;
   private readonly waiting = new Map<number, { request: EngineRequest; resolve: (answer: unknown) => void }>();
-  private local: Promise<typeof EngineHandlers> | null = null;
+  private local: ReturnType<typeof createEngineServer> | null = null;
   private disposed = false;
 
   constructor() {
     if (typeof Worker === "undefined") return;
     try {
       this.worker = new Worker(new URL("./engine.worker.ts", import.meta.url), { type: "module" });
-      this.worker.addEventListener("message", (event: MessageEvent<{ id: number; answer: unknown }>) => {
-        const job = this.waiting.get(event.data.id);
-        this.waiting.delete(event.data.id);
-        job?.resolve(event.data.answer);
-      });
+      this.worker.addEventListener("message", (event: MessageEvent<EngineReply>) => this.answer(event.data));
       this.worker.addEventListener("error", () => this.fallBack());
     } catch {
       this.worker = null;
@@ -37,34 +34,48 @@ export class EngineClient {
     return this.worker !== null;
   }
 
+  private answer({ id, answer }: EngineReply) {
+    const job = this.waiting.get(id);
+    this.waiting.delete(id);
+    job?.resolve(answer);
+  }
+
   private fallBack() {
     this.worker?.terminate();
     this.worker = null;
-    const jobs = [...this.waiting.values()];
-    this.waiting.clear();
-    for (const job of jobs) void this.runLocally(job.request).then(job.resolve);
+    for (const [id, job] of this.waiting) this.localServer().receive({ id, request: job.request });
   }
 
-  private async runLocally(request: EngineRequest): Promise<unknown> {
-    this.local ??= import("./engine-handlers");
-    const { handleEngineRequest } = await this.local;
-    // Let the progress indicator paint before the main thread is busy.
-    await new Promise((r) => setTimeout(r, 0));
-    return handleEngineRequest(request);
+  /** The same server as the worker's, on this thread; the handlers load on demand. */
+  private localServer() {
+    if (this.local) return this.local;
+    let handlers: typeof EngineHandlers | null = null;
+    this.local = createEngineServer(
+      {
+        prepare: async (request) => {
+          handlers ??= await import("./engine-handlers");
+          return handlers.prepareEngineRequest(request);
+        },
+        run: (request) => handlers!.handleEngineRequest(request),
+      },
+      (reply) => this.answer(reply),
+    );
+    return this.local;
   }
 
   private call<K extends Kind>(request: Extract<EngineRequest, { kind: K }>): Promise<EngineAnswers[K]> {
     if (this.disposed) return new Promise(() => {});
-    if (!this.worker) return this.runLocally(request) as Promise<EngineAnswers[K]>;
     const id = ++this.sequence;
     return new Promise((resolve) => {
       this.waiting.set(id, { request, resolve: resolve as (answer: unknown) => void });
-      this.worker!.postMessage({ id, request });
+      if (this.worker) this.worker.postMessage({ id, request });
+      else this.localServer().receive({ id, request });
     });
   }
 
-  analyse(spec: RoofSpec): Promise<EngineOutcome> {
-    return this.call({ kind: "analyse", spec });
+  /** An analysis; Superseded when a newer one came in before it started (it was not computed). */
+  analyse(spec: RoofSpec, options: { preview?: boolean } = {}): Promise<EngineOutcome | Superseded> {
+    return this.call({ kind: "analyse", spec, ...(options.preview ? { preview: true } : {}) });
   }
 
   parseFall(text: string): Promise<FallResult> {

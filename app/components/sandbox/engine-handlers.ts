@@ -1,12 +1,37 @@
-import { parseFall, parseSpec, RULE_SETS } from "~/engine";
+import {
+  analyse,
+  loadFallUnits,
+  needsFallUnits,
+  parseFall,
+  parseSpec,
+  PREVIEW_MESH_VERTICES,
+  RULE_SETS,
+} from "~/engine/core";
 import type { EngineAnswers, EngineRequest } from "./engine-protocol";
-import { runAnalysis } from "./run-analysis";
+import type { RoofSpec } from "~/engine/core";
+import { analysisOutcome, type EngineOutcome } from "./analysis-outcome";
+
+/**
+ * Loads the fall unit reader (mathjs) first when the request holds a fall that needs it; a plain
+ * ratio, percent or degree does not (docs/decisions/0015-lazy-unit-reader.md).
+ */
+export async function prepareEngineRequest(request: EngineRequest): Promise<void> {
+  const holder =
+    request.kind === "analyse"
+      ? request.spec
+      : request.kind === "parseFall"
+        ? request.text
+        : request.kind === "parseSpec"
+          ? request.input
+          : null;
+  if (needsFallUnits(holder)) await loadFallUnits();
+}
 
 /** The engine's side of the protocol: runs in the worker, or on the main thread when there is none. */
 export function handleEngineRequest(request: EngineRequest): EngineAnswers[EngineRequest["kind"]] {
   switch (request.kind) {
     case "analyse":
-      return runAnalysis(request.spec);
+      return request.preview ? previewOutcome(request.spec) : analysisOutcome(request.spec, { parseSpec, analyse });
     case "parseFall":
       return parseFall(request.text);
     case "parseSpec":
@@ -14,4 +39,16 @@ export function handleEngineRequest(request: EngineRequest): EngineAnswers[Engin
     case "ruleSets":
       return Object.values(RULE_SETS).map((r) => ({ id: r.id, name: r.name, notes: r.notes }));
   }
+}
+
+/**
+ * The drag preview: the analysis on a coarser mesh, marked as such. Its coarse mesh is chosen,
+ * so the warning that a mesh was coarsened is left out (the full analysis that follows gives it
+ * when it applies).
+ */
+function previewOutcome(spec: RoofSpec): EngineOutcome {
+  const outcome = analysisOutcome(spec, { parseSpec, analyse }, { maxMeshVertices: PREVIEW_MESH_VERTICES });
+  if (!outcome.ok) return outcome;
+  const warnings = outcome.analysis.warnings.filter((w) => w.code !== "mesh-coarsened");
+  return { ok: true, preview: true, analysis: { ...outcome.analysis, warnings } };
 }

@@ -1,14 +1,9 @@
-import { handleEngineRequest } from "./engine-handlers";
-import type { EngineRequest } from "./engine-protocol";
+import { handleEngineRequest, prepareEngineRequest } from "./engine-handlers";
+import { createEngineServer, type EngineMessage } from "./engine-server";
 
-/** The roof engine off the main thread: one request in, one answer out, tagged with its id. */
-self.onmessage = (event: MessageEvent<{ id: number; request: EngineRequest }>) => {
-  const { id, request } = event.data;
-  let answer: unknown;
-  try {
-    answer = handleEngineRequest(request);
-  } catch (error) {
-    answer = { ok: false, error: { status: 500, message: String((error as Error)?.message ?? error), issues: [] } };
-  }
-  (self as unknown as Worker).postMessage({ id, answer });
-};
+/** The roof engine off the main thread: requests in, answers out, tagged with their ids; stale analyses dropped. */
+const server = createEngineServer({ prepare: prepareEngineRequest, run: handleEngineRequest }, (reply) =>
+  (self as unknown as Worker).postMessage(reply),
+);
+
+self.onmessage = (event: MessageEvent<EngineMessage>) => server.receive(event.data);

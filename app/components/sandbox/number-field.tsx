@@ -1,11 +1,12 @@
-import { useId, useState } from "react";
+import { useId, useRef, useState } from "react";
 import { useUnits } from "~/components/units";
 import {
   bareUnit,
   formatLength,
   formatLevel,
   lengthInputText,
-  parseLength,
+  loadLengthReader,
+  readLength,
   type LengthKind,
   type UnitSystem,
 } from "~/lib/units";
@@ -52,15 +53,19 @@ function showIn(
   return length ? lengthInputText(value, system, length) : show(value, scale, digits);
 }
 
-/** The typed text as the stored value, or why it is not one. */
+/**
+ * The typed text as the stored value, or why it is not one; `pending` while text beyond a plain
+ * number waits for the length reader (mathjs), which loads when the field is first focused.
+ */
 function read(
   text: string,
   scale: number,
   length: LengthKind | undefined,
   system: UnitSystem,
-): { value: number } | { error: string } {
+): { value: number } | { error: string } | { pending: true } {
   if (length) {
-    const r = parseLength(text, system, length);
+    const r = readLength(text, system, length);
+    if (!r) return { pending: true };
     return r.ok ? { value: r.metres } : { error: r.error };
   }
   const n = Number(text.replace(",", "."));
@@ -93,6 +98,7 @@ export function NumberField({
   const unit = length ? (system === "us" && length === "length" ? "ft, in" : bareUnit(system, length)) : metricUnit;
   const [text, setText] = useState(() => showIn(value, scale, digits, length, system));
   const [error, setError] = useState<string | null>(null);
+  const latest = useRef(text);
 
   // Only an outside change of the value (undo, drag, apply) or of the unit system rewrites the box:
   // both are compared with the ones last seen while rendering (React's "adjust state when a prop changes").
@@ -123,6 +129,7 @@ export function NumberField({
 
   function change(next: string) {
     setText(next);
+    latest.current = next;
     const trimmed = next.trim().replace(",", ".");
     if (trimmed === "") {
       if (optional) {
@@ -132,6 +139,13 @@ export function NumberField({
       return;
     }
     const r = read(trimmed, scale, length, system);
+    if ("pending" in r) {
+      loadLengthReader().then(
+        () => latest.current === next && change(next),
+        () => latest.current === next && setError("could not load the unit reader: type a plain number"),
+      );
+      return;
+    }
     if ("error" in r) return setError(r.error);
     const n = r.value * scale;
     if (min != null && n < min - 1e-9) return setError(`must be at least ${limit(min)}`);
@@ -156,6 +170,7 @@ export function NumberField({
         aria-invalid={error ? true : undefined}
         aria-describedby={error ? `${id}-error` : hint ? `${id}-hint` : undefined}
         onChange={(e) => change(e.target.value)}
+        onFocus={length ? () => void loadLengthReader().catch(() => {}) : undefined}
         data-testid={testId}
       />
       {error ? (

@@ -1,4 +1,6 @@
-import { drainName, type Analysis } from "~/engine";
+import type { Analysis } from "~/engine";
+// One light file of the engine: this page's main thread carries no engine and no mathjs (docs/decisions/0015-lazy-unit-reader.md).
+import { drainName } from "~/engine/names";
 import { FallRatio } from "./fall-ratio";
 import { useFormat } from "./format";
 import { ResultsSection } from "./results-section";

@@ -1,31 +1,9 @@
-import { analyse, parseSpec, type Analysis, type RoofSpec } from "~/engine";
-import type { EngineError } from "./store";
+import { analyse, parseSpec, type RoofSpec } from "~/engine";
+import { analysisOutcome, type EngineOutcome } from "./analysis-outcome";
 
-export type EngineOutcome = { ok: true; analysis: Analysis } | { ok: false; error: EngineError };
+export type { EngineOutcome } from "./analysis-outcome";
 
-/** Validate and analyse a spec; never throws (an engine fault becomes an error the panel can show). */
+/** Validate and analyse a spec on this thread, every fall reader installed; never throws. */
 export function runAnalysis(spec: RoofSpec): EngineOutcome {
-  try {
-    const parsed = parseSpec(spec);
-    if (!parsed.ok) {
-      return {
-        ok: false,
-        error: {
-          status: parsed.status,
-          message: parsed.error.message,
-          issues: parsed.error.issues.map((i) => ({ path: String(i.path), message: i.message })),
-        },
-      };
-    }
-    return { ok: true, analysis: analyse(parsed.spec) };
-  } catch (error) {
-    return {
-      ok: false,
-      error: {
-        status: 500,
-        message: `The engine could not analyse this roof: ${(error as Error)?.message ?? error}`,
-        issues: [],
-      },
-    };
-  }
+  return analysisOutcome(spec, { parseSpec, analyse });
 }

@@ -3,7 +3,7 @@ import { createStore, useStore, type StoreApi } from "zustand";
 import type { Analysis, RoofSpec } from "~/engine";
 import type { EngineClient } from "./engine-client";
 import type { RuleSetInfo } from "./engine-protocol";
-import type { EngineOutcome } from "./run-analysis";
+import type { EngineOutcome } from "./analysis-outcome";
 
 export type Selection =
   { kind: "vertex"; index: number } | { kind: "edge"; index: number } | { kind: "outlet"; index: number } | null;

@@ -1,6 +1,8 @@
 import { create, unitDependencies, type Unit } from "mathjs";
 import { parseFall } from "../../engine/fall";
-import { parseLength } from "../units";
+// Installs mathjs' fall units in the engine's parseFall (the lessons read "1/4 in/ft" and the like).
+import "../../engine/fall-units";
+import { parseLength } from "../units-reader";
 
 /** Only the unit machinery of mathjs (same build as the engine's fall parser). */
 const math = create({ unitDependencies });

@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import { DEMO_ROOF } from "~/components/sandbox/demo-roof";
 import { moveVertex } from "~/components/sandbox/spec-edit";
 import { EngineClient } from "~/components/sandbox/engine-client";
+import { isSuperseded } from "~/components/sandbox/engine-server";
 import { formatRatio as localFormatRatio } from "~/lib/units";
 import { runAnalysis } from "~/components/sandbox/run-analysis";
 import { createSandboxStore } from "~/components/sandbox/store";
@@ -12,6 +13,7 @@ describe("engine client", () => {
     const engine = new EngineClient();
     expect(engine.offMainThread).toBe(false);
     const outcome = await engine.analyse(DEMO_ROOF);
+    if (isSuperseded(outcome)) throw new Error("the only analysis was superseded");
     expect(outcome.ok).toBe(true);
     // docs/roof-method.md §4 rectangle: H = base fall × the chord through the outlet (8 m at 2°).
     if (outcome.ok) expect(outcome.analysis.shaped.highLevel).toBeCloseTo(8 * Math.tan((2 * Math.PI) / 180), 9);
@@ -20,6 +22,16 @@ describe("engine client", () => {
     expect((await engine.parseFall("1:abc")).ok).toBe(false);
     expect((await engine.parseSpec({ outline: [] })).ok).toBe(false);
     expect((await engine.ruleSets()).map((r) => r.id)).toContain("common-practice");
+  });
+
+  it("drops analyses made stale by a newer one there too, and answers the newest", async () => {
+    const engine = new EngineClient();
+    const specs = [1, 2, 3].map((k) => ({ ...DEMO_ROOF, baseFall: `1:${40 + k}` }));
+    const answers = await Promise.all(specs.map((s) => engine.analyse(s)));
+    expect(answers.slice(0, 2).every(isSuperseded)).toBe(true);
+    const last = answers[2];
+    if (isSuperseded(last) || !last.ok) throw new Error("the newest analysis was not answered");
+    expect(last.analysis).toEqual((runAnalysis(specs[2]) as { analysis: unknown }).analysis);
   });
 
   it("the page's 1:N formatting is the engine's", () => {

@@ -8,9 +8,9 @@ import {
   formatLength,
   formatLevel,
   lengthInputText,
-  parseLength,
   systemFor,
 } from "~/lib/units";
+import { parseLength } from "~/lib/units-reader";
 
 const metresOf = (text: string, system: "metric" | "us", kind: "length" | "level" = "length") => {
   const r = parseLength(text, system, kind);
