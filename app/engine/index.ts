@@ -2,6 +2,7 @@
 export { analyse, analyseRoof, type AnalyseOptions, MAX_MESH_VERTICES } from "./analyse";
 export { parseSpec, parseRoofSpec, type ParseSpecResult, type ParseRoofResult } from "./parse-spec";
 export { drainName, outletName } from "./names";
+export { pointsSignedArea } from "./geometry/area";
 export { parseFall, formatRatio, fallFromRatio, fallFromSlope, type Fall, type FallResult } from "./fall";
 export {
   RULE_SETS,
