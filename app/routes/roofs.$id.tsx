@@ -150,8 +150,8 @@ function RoofEditor({
   const [params] = useSearchParams();
   const autosave = useAutosave(roof.id, roof.version, { enabled: roof.canEdit });
   const queue = autosave.queue;
-  const [mounted, setMounted] = useState<{ spec: unknown; epoch: number }>({ spec: roof.spec, epoch: 0 });
-  const current = useRef<unknown>(roof.spec);
+  const [mounted, setMounted] = useState<{ spec: RoofSpec; epoch: number }>({ spec: roof.spec, epoch: 0 });
+  const current = useRef<RoofSpec>(roof.spec);
   const [outline, setOutline] = useState<[number, number][]>(outlineOf(roof.spec));
   const [name, setName] = useState(roof.name);
   const [nameError, setNameError] = useState<string | null>(null);
@@ -167,14 +167,14 @@ function RoofEditor({
   }, []);
   const underlayTimer = useRef<ReturnType<typeof setTimeout> | null>(null);
 
-  const replaceSpec = useCallback((spec: unknown) => {
+  const replaceSpec = useCallback((spec: RoofSpec) => {
     current.current = spec;
     setOutline(outlineOf(spec));
     setMounted((m) => ({ spec, epoch: m.epoch + 1 }));
   }, []);
 
   const onSpecChange = useCallback(
-    (spec: unknown) => {
+    (spec: RoofSpec) => {
       if (JSON.stringify(spec) === JSON.stringify(current.current)) return;
       current.current = spec;
       setOutline(outlineOf(spec));
@@ -307,7 +307,7 @@ function RoofEditor({
             onTrace={(traced) => {
               const spec = retraceSpec(current.current, traced);
               // An undoable edit in the workspace when it is there; onSpecChange then saves it.
-              if (store.current) store.current.getState().replaceSpec(spec as unknown as RoofSpec);
+              if (store.current) store.current.getState().replaceSpec(spec);
               else {
                 replaceSpec(spec);
                 autosave.queue({ spec });
@@ -341,9 +341,8 @@ function RoofEditor({
   );
 }
 
-function outlineOf(spec: unknown): [number, number][] {
-  const o = (spec as { outline?: unknown })?.outline;
-  return Array.isArray(o) ? (o.filter((p) => Array.isArray(p) && p.length === 2) as [number, number][]) : [];
+function outlineOf(spec: RoofSpec): [number, number][] {
+  return spec.outline.filter((p) => Array.isArray(p) && p.length === 2);
 }
 
 function ShareControls({ shared }: { shared: boolean }) {

@@ -1,8 +1,9 @@
 import { useCallback, useEffect, useRef, useState } from "react";
+import type { RoofSpec } from "~/engine";
 
 export interface RoofSnapshot {
   version: number;
-  spec: unknown;
+  spec: RoofSpec;
   name: string;
 }
 
@@ -16,7 +17,7 @@ export type SaveState =
   | { kind: "error"; message: string };
 
 interface Draft {
-  spec?: unknown;
+  spec?: RoofSpec;
   name?: string;
 }
 
