@@ -1,11 +1,8 @@
 import { useCallback, useEffect, useRef, useState } from "react";
 import type { RoofSpec } from "~/engine";
+import type { RoofSnapshot } from "~/lib/roof-page";
 
-export interface RoofSnapshot {
-  version: number;
-  spec: RoofSpec;
-  name: string;
-}
+export type { RoofSnapshot };
 
 export type SaveState =
   | { kind: "saved"; version: number }
