@@ -6,6 +6,7 @@
 export { analyse, analyseRoof, type AnalyseOptions, MAX_MESH_VERTICES, PREVIEW_MESH_VERTICES } from "./analyse";
 export { parseSpec, parseRoofSpec, type ParseSpecResult, type ParseRoofResult } from "./parse-spec";
 export { drainName, outletName } from "./names";
+export { pointsSignedArea } from "./geometry/area";
 export {
   parseFall,
   formatRatio,

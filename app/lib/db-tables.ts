@@ -1,10 +1,10 @@
 /**
  * The database tables as TypeScript sees them (Knex's table type augmentation): what a select
  * returns, and what an insert must give (columns with a default or that may be null are optional).
- * Written from the migrations in db/migrations; tests/integration/db-tables.test.ts holds these
- * columns to the migrated schema. jsonb columns are `unknown` here: what is stored is read through
- * its own schema or type at the edge. Dates (`date`) come back as "YYYY-MM-DD" text (see
- * db.server.ts), bigint as text (pg's default).
+ * Written by `npm run db:types` (db/table-types.ts) from the migrated schema: do not edit by hand;
+ * tests/integration/db-tables.test.ts fails while this file differs from what the script writes.
+ * jsonb columns are `unknown` here: what is stored is read through its own schema or type at the
+ * edge. Dates (`date`) come back as "YYYY-MM-DD" text (see db.server.ts), bigint as text (pg's default).
  */
 import type { Knex } from "knex";
 import type { LivePhase } from "~/lib/live.server";

@@ -4,6 +4,7 @@
  * bodies capped before they are parsed (413), 401 rather than a redirect when signed out.
  */
 import { requireApiUser, type SessionUser } from "~/lib/auth.server";
+import { parseJsonBytes, readStreamCapped } from "~/lib/body";
 import { can, type Permission } from "~/lib/permissions";
 
 export interface ApiIssue {
@@ -15,43 +16,16 @@ export function jsonError(status: number, message: string, issues: ApiIssue[] = 
   return Response.json({ error: { message, issues } }, { status, headers });
 }
 
-/** Reads at most `limit` bytes of the body; null when there were more. */
+/** Past the cap, a little more is read and dropped so the client can read our 413; past that, cut off. */
 const DRAIN_LIMIT = 16 * 1024 * 1024;
 
+/** Reads at most `limit` bytes of the body; null when there were more (or Content-Length says so). */
 export async function readBodyCapped(request: Request, limit: number): Promise<Uint8Array | null> {
   const declared = Number(request.headers.get("content-length") ?? "0");
   if (declared > limit) return null;
   if (!request.body) return new Uint8Array(0);
-  const reader = request.body.getReader();
-  const chunks: Uint8Array[] = [];
-  let total = 0;
-  for (;;) {
-    const { done, value } = await reader.read();
-    if (done) break;
-    total += value.byteLength;
-    if (total > limit) {
-      // Drain (and drop) a little more so the client can read our 413; past that, cut it off.
-      while (total < DRAIN_LIMIT) {
-        const next = await reader.read().catch(() => ({ done: true as const, value: undefined }));
-        if (next.done) return null;
-        total += next.value.byteLength;
-      }
-      await reader.cancel().catch(() => {});
-      return null;
-    }
-    chunks.push(value);
-  }
-  const out = new Uint8Array(total);
-  let at = 0;
-  for (const c of chunks) {
-    out.set(c, at);
-    at += c.byteLength;
-  }
-  return out;
+  return readStreamCapped(request.body, limit, DRAIN_LIMIT);
 }
-
-// Decoding without the stream option keeps no state between calls, so one decoder serves all.
-const UTF8 = new TextDecoder("utf-8", { fatal: true });
 
 export type JsonBody = { ok: true; value: unknown } | { ok: false; response: Response };
 
@@ -62,16 +36,14 @@ export async function readJsonBody(request: Request, limit: number): Promise<Jso
   }
   const bytes = await readBodyCapped(request, limit);
   if (!bytes) return { ok: false, response: jsonError(413, `The body is over ${Math.round(limit / 1024)} kB.`) };
-  try {
-    return { ok: true, value: JSON.parse(UTF8.decode(bytes)) };
-  } catch {
-    return {
-      ok: false,
-      response: jsonError(400, "The body is not valid JSON.", [
-        { path: "(body)", message: "could not be parsed as JSON" },
-      ]),
-    };
-  }
+  const json = parseJsonBytes(bytes);
+  if (json.ok) return json;
+  return {
+    ok: false,
+    response: jsonError(400, "The body is not valid JSON.", [
+      { path: "(body)", message: "could not be parsed as JSON" },
+    ]),
+  };
 }
 
 /** The signed-in user (401 JSON thrown when signed out) who holds `permission` (403 otherwise). */

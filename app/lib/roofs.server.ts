@@ -5,6 +5,7 @@
  * the winner back (409) so it can offer "reload theirs" or "keep mine as a copy".
  */
 import type { Knex } from "knex";
+import type { RoofSpec } from "~/engine";
 import { z } from "zod";
 import { db } from "~/lib/db.server";
 import type { SessionUser } from "~/lib/auth.server";
@@ -42,7 +43,8 @@ export interface SharedRoofSummary extends RoofSummary {
 export interface RoofDetail extends RoofSummary {
   ownerId: string;
   ownerName: string;
-  spec: unknown;
+  /** Every write goes through the engine's parseSpec (app/lib/roofs-api.server.ts), so a stored spec is a RoofSpec. */
+  spec: RoofSpec;
   underlayId: string | null;
   underlay: UnderlaySettings | null;
   /** True for the owner; a colleague reading a shared roof gets false. */
@@ -58,7 +60,7 @@ export interface RoofVersionRow {
 
 export type UpdateResult =
   | { status: "ok"; id: string; version: number }
-  | { status: "conflict"; current: { version: number; spec: unknown; name: string } }
+  | { status: "conflict"; current: { version: number; spec: RoofSpec; name: string } }
   | { status: "forbidden" }
   | { status: "not-found" };
 
@@ -160,7 +162,7 @@ export async function getRoofFor(
     ...summary(r),
     ownerId: r.owner_id,
     ownerName: r.owner_name || r.owner_email,
-    spec: r.spec,
+    spec: r.spec as RoofSpec,
     underlayId: r.underlay_id,
     underlay: readUnderlay(r.underlay),
     canEdit: isOwner,
@@ -176,7 +178,7 @@ export const idempotencyKeySchema = z
 
 export type CreatedRoof = { id: string; version: number; repeated?: boolean };
 export type CreateRoofResult = CreatedRoof | { keyReused: string };
-type NewRoof = { name: string; spec: unknown; underlay?: UnderlaySettings | null };
+type NewRoof = { name: string; spec: RoofSpec; underlay?: UnderlaySettings | null };
 
 /**
  * A new roof with its first version. With an idempotency key, a repeat of the same save (double
@@ -247,7 +249,7 @@ async function ownedForWrite(trx: Knex.Transaction, user: SessionUser, id: strin
 export async function updateRoof(
   user: SessionUser,
   id: string,
-  input: { name?: string; spec?: unknown; version: number; kind?: VersionKind },
+  input: { name?: string; spec?: RoofSpec; version: number; kind?: VersionKind },
 ): Promise<UpdateResult> {
   if (!isUuid(id)) return { status: "not-found" };
   return db().transaction(async (trx) => {
@@ -351,7 +353,12 @@ export async function restoreVersion(
   if (!isUuid(id)) return { status: "not-found" };
   const old = await db()("roof_versions").where({ roof_id: id, version }).first("name", "spec");
   if (!old) return { status: "not-found" };
-  return updateRoof(user, id, { name: old.name, spec: old.spec, version: expectedVersion, kind: "restored" });
+  return updateRoof(user, id, {
+    name: old.name,
+    spec: old.spec as RoofSpec,
+    version: expectedVersion,
+    kind: "restored",
+  });
 }
 
 /** Underlay image and placement live beside the spec and do not bump its version. */

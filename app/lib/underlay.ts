@@ -1,5 +1,6 @@
 /** Underlay helpers shared by the server and the calibration panel. */
 import { create, unitDependencies } from "mathjs";
+import type { RoofSpec } from "~/engine";
 import type { UnderlaySettings } from "~/lib/roof-file";
 
 const math = create({ unitDependencies });
@@ -107,11 +108,9 @@ function closestOnSegment(p: [number, number], a: [number, number], b: [number, 
  * each outlet moves to the nearest point of the new outline, so the roof still drains somewhere
  * and the user can drag it where it belongs.
  */
-export function retraceSpec(spec: unknown, outline: [number, number][]): Record<string, unknown> {
-  const base = { ...(spec as Record<string, unknown>) };
+export function retraceSpec(spec: RoofSpec, outline: [number, number][]): RoofSpec {
   const round = (v: number) => Math.round(v * 1000) / 1000;
   const pts = outline.map(([x, y]) => [round(x), round(y)] as [number, number]);
-  const outlets = Array.isArray(base.outlets) ? (base.outlets as { at: [number, number] }[]) : [];
   const nearest = (p: [number, number]) => {
     let best: [number, number] = pts[0];
     for (let i = 0; i < pts.length; i++) {
@@ -120,7 +119,9 @@ export function retraceSpec(spec: unknown, outline: [number, number][]): Record<
     }
     return [round(best[0]), round(best[1])] as [number, number];
   };
+  const base = { ...spec };
   delete base.edges;
+  const outlets = Array.isArray(base.outlets) ? base.outlets : [];
   return {
     ...base,
     outline: pts,

@@ -1,6 +1,6 @@
 import { When, Day, DateRange } from "~/components/dates";
 import type { ReactNode } from "react";
-import { Link, useLoaderData } from "react-router";
+import { Link } from "react-router";
 import type { Route } from "./+types/_index";
 import { getOptionalUser } from "~/lib/auth.server";
 import { deskFor, type Desk } from "~/lib/desk.server";
@@ -186,8 +186,8 @@ function ShapedRoofSketch() {
   );
 }
 
-export default function Home() {
-  const { desk } = useLoaderData<typeof loader>();
+export default function Home({ loaderData }: Route.ComponentProps) {
+  const { desk } = loaderData;
   return (
     <div className="grid gap-8 lg:grid-cols-[1.2fr_1fr]">
       <section>

@@ -1,4 +1,4 @@
-import { Form, Link, NavLink, Outlet, useLoaderData, useMatches } from "react-router";
+import { Form, Link, NavLink, Outlet, useMatches } from "react-router";
 import type { Route } from "./+types/_shell";
 import { getOptionalUser } from "~/lib/auth.server";
 import { can, ROLE_LABELS, type Permission } from "~/lib/permissions";
@@ -21,8 +21,8 @@ const NAV: { to: string; label: string; permission?: Permission; signedIn?: bool
   { to: "/admin", label: "Admin", permission: "users:manage" },
 ];
 
-export default function Shell() {
-  const { user } = useLoaderData<typeof loader>();
+export default function Shell({ loaderData }: Route.ComponentProps) {
+  const { user } = loaderData;
   // A page that prints its own caution (the check sheet) keeps to one.
   const ownCaution = useMatches().some((m) => (m.handle as { ownCaution?: boolean } | undefined)?.ownCaution);
   const items = NAV.filter((n) => (n.permission ? can(user?.role, n.permission) : n.signedIn ? !!user : true));

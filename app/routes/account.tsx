@@ -1,5 +1,5 @@
 import { When } from "~/components/dates";
-import { data, Form, redirect, useActionData, useLoaderData } from "react-router";
+import { data, Form, redirect } from "react-router";
 import type { Route } from "./+types/account";
 import { z } from "zod";
 import { audit } from "~/lib/audit.server";
@@ -111,9 +111,9 @@ export async function action({ request, context }: Route.ActionArgs) {
   }
 }
 
-export default function Account() {
-  const { user, sessions, notice } = useLoaderData<typeof loader>();
-  const result = useActionData<typeof action>();
+export default function Account({ loaderData, actionData }: Route.ComponentProps) {
+  const { user, sessions, notice } = loaderData;
+  const result = actionData;
   const nameResult = result?.intent === "name" ? result : null;
   const passwordResult = result?.intent === "password" ? result : null;
   return (

@@ -1,5 +1,5 @@
 import { useState } from "react";
-import { data, Form, useActionData, useLoaderData, useSearchParams } from "react-router";
+import { data, Form, useSearchParams } from "react-router";
 import type { Route } from "./+types/admin._index";
 import { z } from "zod";
 import { requirePermission } from "~/lib/auth.server";
@@ -115,9 +115,9 @@ export async function action({ request, context }: Route.ActionArgs) {
   return data(r, { status: r.ok ? 200 : 400 });
 }
 
-export default function AdminUsers() {
-  const { me, users, total, filters, openSignup } = useLoaderData<typeof loader>();
-  const result = useActionData<typeof action>();
+export default function AdminUsers({ loaderData, actionData }: Route.ComponentProps) {
+  const { me, users, total, filters, openSignup } = loaderData;
+  const result = actionData;
   const [searchParams] = useSearchParams();
   const inviteResult = result?.intent === "invite" ? result : null;
   const rowResult = result && result.intent !== "invite" ? result : null;

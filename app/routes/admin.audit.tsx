@@ -1,5 +1,5 @@
 import { When } from "~/components/dates";
-import { Form, Link, useLoaderData } from "react-router";
+import { Form, Link } from "react-router";
 import type { Route } from "./+types/admin.audit";
 import { z } from "zod";
 import { AUDIT_ACTIONS, type AuditAction } from "~/lib/audit-actions";
@@ -43,8 +43,8 @@ function describe(detail: Record<string, unknown>, subjectEmail: string | null):
   return parts.join(" · ");
 }
 
-export default function AdminAudit() {
-  const { rows, action, older, paged } = useLoaderData<typeof loader>();
+export default function AdminAudit({ loaderData }: Route.ComponentProps) {
+  const { rows, action, older, paged } = loaderData;
   return (
     <section className="grid gap-3" aria-labelledby="audit-heading">
       <div className="flex flex-wrap items-end justify-between gap-3">

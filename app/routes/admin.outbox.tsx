@@ -1,5 +1,4 @@
 import { When } from "~/components/dates";
-import { useLoaderData } from "react-router";
 import type { Route } from "./+types/admin.outbox";
 import { requirePermission } from "~/lib/auth.server";
 import { readOutbox } from "~/lib/outbox.server";
@@ -11,8 +10,8 @@ export async function loader({ request }: Route.LoaderArgs) {
   return readOutbox({ limit: 50 });
 }
 
-export default function AdminOutbox() {
-  const { configured, total, messages } = useLoaderData<typeof loader>();
+export default function AdminOutbox({ loaderData }: Route.ComponentProps) {
+  const { configured, total, messages } = loaderData;
   return (
     <section className="grid gap-3" aria-labelledby="outbox-heading">
       <div>

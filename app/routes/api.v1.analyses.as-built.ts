@@ -1,14 +1,11 @@
 import type { Route } from "./+types/api.v1.analyses.as-built";
 import { asBuilt, parseSpec } from "~/engine";
-import { jsonError, readJsonBody } from "~/lib/json-api.server";
-import { limitApiRequest } from "~/lib/rate-limit.server";
-import { ANALYSIS_BODY_LIMIT } from "./api.v1.analyses";
+import { NO_STORE, postOnly, readAnalysisRequest } from "~/lib/analysis-request.server";
+import { jsonError, zodIssues } from "~/lib/json-api.server";
 import { asBuiltBodySchema as bodySchema } from "~/lib/as-built-api";
 
-const NO_STORE = { "Cache-Control": "no-store" };
-
 export function loader() {
-  return jsonError(405, "POST a roof spec with measured points as JSON to check them.", [], { Allow: "POST" });
+  return postOnly("POST a roof spec with measured points as JSON to check them.");
 }
 
 /**
@@ -17,30 +14,11 @@ export function loader() {
  * unless JSON, 413 over 256 kB, 400 malformed, 422 cannot be built, 429 too many; never 500.
  */
 export async function action({ request, context }: Route.ActionArgs) {
-  if (request.method !== "POST") return jsonError(405, "Use POST here.", [], { Allow: "POST" });
-  try {
-    const limited = await limitApiRequest(context);
-    if (limited) return limited;
-  } catch {
-    // As for analyses: a database fault must not stop a check that does not need it.
-  }
-  let body: Awaited<ReturnType<typeof readJsonBody>>;
-  try {
-    body = await readJsonBody(request, ANALYSIS_BODY_LIMIT);
-  } catch {
-    return jsonError(
-      400,
-      "The request body could not be read.",
-      [{ path: "(body)", message: "could not be read" }],
-      NO_STORE,
-    );
-  }
+  const body = await readAnalysisRequest(request, context);
   if (!body.ok) return body.response;
   const shaped = bodySchema.safeParse(body.value);
   if (!shaped.success) {
-    const issues = shaped.error.issues
-      .slice(0, 50)
-      .map((i) => ({ path: i.path.length ? i.path.map(String).join(".") : "(body)", message: i.message }));
+    const issues = zodIssues(shaped.error.issues.slice(0, 50));
     return jsonError(
       400,
       `The as-built request is malformed: ${issues

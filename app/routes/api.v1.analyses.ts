@@ -1,23 +1,20 @@
 import type { Route } from "./+types/api.v1.analyses";
-import { jsonError, readJsonBody } from "~/lib/json-api.server";
+import { NO_STORE, postOnly, readAnalysisRequest } from "~/lib/analysis-request.server";
+import { jsonError } from "~/lib/json-api.server";
 import { log } from "~/lib/log.server";
 import { metrics } from "~/lib/metrics.server";
 import { PoolBusy, PoolTimeout, runInPool } from "~/lib/pool.server";
-import { chargeApiWork, limitApiRequest } from "~/lib/rate-limit.server";
+import { chargeApiWork } from "~/lib/rate-limit.server";
 import { currentRequest } from "~/lib/request-context.server";
 
-/** Largest request body accepted (issue 4): a 200-vertex outline with 1,000 probes fits well inside. */
-export const ANALYSIS_BODY_LIMIT = 256 * 1024;
 /** Largest answer sent (docs/security.md): a 100 × 100 m roof with mesh and traces is about 7.4 MB. */
 export const ANALYSIS_ANSWER_MAX_BYTES = 10 * 1024 * 1024;
 /** Longest an analysis may take, waiting for a worker included. */
 export const ANALYSIS_TIMEOUT_MS = 30_000;
 
-const NO_STORE = { "Cache-Control": "no-store" };
-
 /** GET has nothing to show: analyses are made by POSTing a roof spec. */
 export function loader() {
-  return jsonError(405, "POST a roof spec as JSON to analyse it.", [], { Allow: "POST" });
+  return postOnly("POST a roof spec as JSON to analyse it.");
 }
 
 const mb = (bytes: number) => `${(bytes / 1024 / 1024).toFixed(1)} MB`;
@@ -32,22 +29,7 @@ const mb = (bytes: number) => `${(bytes / 1024 / 1024).toFixed(1)} MB`;
  * The bulky 3D mesh and flow traces come only on request (`?mesh=true`, `?traces=true`).
  */
 export async function action({ request, context }: Route.ActionArgs) {
-  if (request.method !== "POST") return jsonError(405, "Use POST here.", [], { Allow: "POST" });
-  // Counted in this process's memory, not in the database (see limitApiRequest): the sandbox's
-  // analyses keep working while PostgreSQL is down.
-  const limited = await limitApiRequest(context);
-  if (limited) return limited;
-  let body: Awaited<ReturnType<typeof readJsonBody>>;
-  try {
-    body = await readJsonBody(request, ANALYSIS_BODY_LIMIT);
-  } catch {
-    return jsonError(
-      400,
-      "The request body could not be read.",
-      [{ path: "(body)", message: "could not be read" }],
-      NO_STORE,
-    );
-  }
+  const body = await readAnalysisRequest(request, context);
   if (!body.ok) return body.response;
   const query = new URL(request.url).searchParams;
   const started = performance.now();

@@ -1,7 +1,7 @@
 import type { Route } from "./+types/api.v1.roofs.$id";
 import { jsonError, readJsonBody, requireApiPermission } from "~/lib/json-api.server";
 import { getRoofFor, softDeleteRoof, updateRoof } from "~/lib/roofs.server";
-import { parseRoofWrite, ROOF_BODY_LIMIT, roofJson } from "~/lib/roofs-api.server";
+import { parseRoofWrite, ROOF_BODY_LIMIT, roofWriteError, roofJson } from "~/lib/roofs-api.server";
 
 const NOT_FOUND = "No roof with that id in your library.";
 
@@ -30,8 +30,8 @@ export async function action({ request, params }: Route.ActionArgs) {
   const body = await readJsonBody(request, ROOF_BODY_LIMIT);
   if (!body.ok) return body.response;
   const input = parseRoofWrite(body.value, "update");
-  if (!input.ok) return input.response;
-  const result = await updateRoof(user, params.id, { name: input.name, spec: input.spec, version: input.version! });
+  if (!input.ok) return roofWriteError(input);
+  const result = await updateRoof(user, params.id, { name: input.name, spec: input.spec, version: input.version });
   switch (result.status) {
     case "ok":
       return Response.json({ id: result.id, version: result.version });

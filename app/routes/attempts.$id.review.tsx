@@ -1,5 +1,5 @@
 import { When } from "~/components/dates";
-import { data, Form, Link, useActionData, useLoaderData } from "react-router";
+import { data, Form, Link } from "react-router";
 import { useState } from "react";
 import type { Route } from "./+types/attempts.$id.review";
 import { requirePermission, requireUser } from "~/lib/auth.server";
@@ -99,9 +99,9 @@ function automaticGrade(attempt: { score: number; passed: boolean; results: Grad
   return { score: g.score, passed: g.passed };
 }
 
-export default function AttemptReview() {
-  const { attempt, trainee, reviews, grade, canReview, back } = useLoaderData<typeof loader>();
-  const result = useActionData<typeof action>();
+export default function AttemptReview({ loaderData, actionData }: Route.ComponentProps) {
+  const { attempt, trainee, reviews, grade, canReview, back } = loaderData;
+  const result = actionData;
   const auto = { ...automaticGrade(attempt), passMark: attempt.results.passMark };
   return (
     <div className="grid gap-6">
@@ -197,7 +197,7 @@ export default function AttemptReview() {
   );
 }
 
-type ActionResult = ReturnType<typeof useActionData<typeof action>>;
+type ActionResult = Route.ComponentProps["actionData"];
 
 function ReviewForm({
   result,

@@ -1,5 +1,5 @@
 import { When } from "~/components/dates";
-import { data, Link, useLoaderData } from "react-router";
+import { data, Link } from "react-router";
 import type { Route } from "./+types/attempts.$id";
 import type { RoofSpec } from "~/engine";
 import { requirePermission } from "~/lib/auth.server";
@@ -49,8 +49,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   };
 }
 
-export default function AttemptPage() {
-  const { attempt, grade, mine, outdated, reviews } = useLoaderData<typeof loader>();
+export default function AttemptPage({ loaderData }: Route.ComponentProps) {
+  const { attempt, grade, mine, outdated, reviews } = loaderData;
   const r = attempt.results;
   return (
     <div className="grid gap-6">

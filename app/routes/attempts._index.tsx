@@ -1,5 +1,5 @@
 import { useLocale, When } from "~/components/dates";
-import { Link, useLoaderData } from "react-router";
+import { Link } from "react-router";
 import type { Route } from "./+types/attempts._index";
 import { requirePermission } from "~/lib/auth.server";
 import { db } from "~/lib/db.server";
@@ -35,9 +35,9 @@ export async function loader({ request }: Route.LoaderArgs) {
 
 const minutes = (s: number) => (s < 60 ? `${s} s` : `${Math.round(s / 60)} min`);
 
-export default function MyAttempts() {
+export default function MyAttempts({ loaderData }: Route.ComponentProps) {
   const locale = useLocale();
-  const { attempts } = useLoaderData<typeof loader>();
+  const { attempts } = loaderData;
   return (
     <div className="grid gap-6">
       <header>

@@ -1,5 +1,5 @@
 import { useCallback, useState } from "react";
-import { Link, useLoaderData, useNavigate } from "react-router";
+import { Link, useNavigate } from "react-router";
 import { Copy } from "lucide-react";
 import type { Route } from "./+types/classes.$id.follow";
 import { requireUser } from "~/lib/auth.server";
@@ -35,8 +35,8 @@ const PHASE_NOTES = {
     "The trainer stopped presenting: this session has ended. The last roof stays here; copy it to your sandbox to keep working on it.",
 } as const;
 
-export default function Follow() {
-  const { cls, initial, canHandUp } = useLoaderData<typeof loader>();
+export default function Follow({ loaderData }: Route.ComponentProps) {
+  const { cls, initial, canHandUp } = loaderData;
   const feed = useLiveFeed(cls.id);
   const navigate = useNavigate();
   const state = feed.seq !== null ? feed.state : (initial?.state ?? null);

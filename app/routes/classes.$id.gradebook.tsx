@@ -1,4 +1,4 @@
-import { Link, useLoaderData } from "react-router";
+import { Link } from "react-router";
 import type { Route } from "./+types/classes.$id.gradebook";
 import { requirePermission } from "~/lib/auth.server";
 import { findClassFor } from "~/lib/classes.server";
@@ -16,8 +16,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   return { cls: { id: cls.id, name: cls.name }, book: await classGradebook(cls) };
 }
 
-export default function ClassGradebook() {
-  const { cls, book } = useLoaderData<typeof loader>();
+export default function ClassGradebook({ loaderData }: Route.ComponentProps) {
+  const { cls, book } = loaderData;
   return (
     <div className="grid gap-4">
       <header>

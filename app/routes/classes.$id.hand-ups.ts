@@ -5,11 +5,9 @@ import { handUpFigures, parseHandUp, raiseHand, readWall, sessionPhase, type Wal
 import { jsonError, readJsonBody } from "~/lib/json-api.server";
 import { liveHub } from "~/lib/live.server";
 import { can } from "~/lib/permissions";
+import { eventStreamResponse, wantsEventStream } from "~/lib/sse.server";
 
-const HEARTBEAT_MS = 15_000;
-const encoder = new TextEncoder();
-
-const wallFrame = (wall: Wall) => encoder.encode(`id: ${wall.wallSeq}\nevent: wall\ndata: ${JSON.stringify(wall)}\n\n`);
+const wallFrame = (wall: Wall) => `id: ${wall.wallSeq}\nevent: wall\ndata: ${JSON.stringify(wall)}\n\n`;
 
 /**
  * GET: the class's wall of hands up, for its trainer only: JSON, or server-sent events (`wall`,
@@ -21,27 +19,19 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const cls = await getClassFor(user, params.id, "follow");
   if (!cls) return jsonError(404, "No such class among yours.");
   if (!canManageClass(user, cls)) return jsonError(403, "Only the class's trainer sees the hands up.");
-  if (!(request.headers.get("accept") ?? "").includes("text/event-stream")) {
+  if (!wantsEventStream(request)) {
     const wall = await readWall(cls.id);
     return wall ? Response.json(wall) : jsonError(404, "No such class among yours.");
   }
 
   const hub = liveHub();
-  let cleanup = () => {};
-  const stream = new ReadableStream<Uint8Array>({
-    async start(controller) {
+  return eventStreamResponse(
+    request,
+    (end) => hub.trackStream(end),
+    async (stream) => {
       let sent = -1;
-      let open = true;
       let reading: Promise<void> | null = null;
       let again = false;
-      const write = (bytes: Uint8Array) => {
-        if (!open) return;
-        try {
-          controller.enqueue(bytes);
-        } catch {
-          cleanup();
-        }
-      };
       // One read at a time; a notice during a read reads once more afterwards.
       const refresh = () => {
         if (reading) {
@@ -53,51 +43,25 @@ export async function loader({ request, params }: Route.LoaderArgs) {
             again = false;
             try {
               const wall = await readWall(cls.id);
-              if (!wall) return cleanup();
+              if (!wall) return stream.close();
               if (wall.wallSeq !== sent) {
                 sent = wall.wallSeq;
-                write(wallFrame(wall));
+                stream.send(wallFrame(wall));
               }
             } catch {
-              return cleanup();
+              return stream.close();
             }
-          } while (again && open);
+          } while (again && stream.isOpen);
         })().finally(() => {
           reading = null;
         });
       };
       const sub = hub.subscribeWall(cls.id, refresh);
-      const heartbeat = setInterval(() => write(encoder.encode("event: ping\ndata: {}\n\n")), HEARTBEAT_MS);
-      const untrack = hub.trackStream(() => cleanup());
-      cleanup = () => {
-        if (!open) return;
-        open = false;
-        clearInterval(heartbeat);
-        sub.unsubscribe();
-        untrack();
-        request.signal.removeEventListener("abort", cleanup);
-        try {
-          controller.close();
-        } catch {
-          /* already closed */
-        }
-      };
-      request.signal.addEventListener("abort", cleanup);
-      write(encoder.encode("retry: 1000\n\n"));
+      stream.onClose(sub.unsubscribe);
       await sub.ready;
       refresh();
     },
-    cancel() {
-      cleanup();
-    },
-  });
-  return new Response(stream, {
-    headers: {
-      "Content-Type": "text/event-stream; charset=utf-8",
-      "Cache-Control": "no-cache, no-transform",
-      "X-Accel-Buffering": "no",
-    },
-  });
+  );
 }
 
 /** POST {spec, title}: a trainee of the class hands up a roof while the trainer presents. */

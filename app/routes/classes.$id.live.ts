@@ -11,11 +11,7 @@ import {
   setLivePhase,
   type LiveSnapshot,
 } from "~/lib/live.server";
-
-const HEARTBEAT_MS = 15_000;
-// An event (not a comment) so the page can tell a stalled stream from a quiet one.
-const HEARTBEAT = "event: ping\ndata: {}\n\n";
-const encoder = new TextEncoder();
+import { eventStreamResponse } from "~/lib/sse.server";
 
 /**
  * GET: the class's live roof as server-sent events (`id: <seq>`, event `state`). The current
@@ -32,68 +28,32 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const last = lastHeader && /^\d{1,12}$/.test(lastHeader) ? Number(lastHeader) : -1;
   const hub = liveHub();
 
-  let cleanup = () => {};
-  const stream = new ReadableStream<Uint8Array>({
-    async start(controller) {
+  return eventStreamResponse(
+    request,
+    (end) => hub.trackStream(end),
+    async (stream) => {
       let sent = last;
-      let open = true;
-      const write = (text: string | Uint8Array) => {
-        if (!open) return;
-        try {
-          // A state frame's bytes are shared by every follower (nothing downstream writes to them).
-          controller.enqueue(typeof text === "string" ? encoder.encode(text) : text);
-        } catch {
-          cleanup();
-        }
-      };
       const deliver = (snap: LiveSnapshot) => {
         if (snap.seq <= sent) return;
         sent = snap.seq;
-        write(liveFrame(snap));
+        stream.send(liveFrame(snap));
       };
       const sub = hub.subscribe(cls.id, deliver);
-      const heartbeat = setInterval(() => write(HEARTBEAT), HEARTBEAT_MS);
-      const untrack = hub.trackStream(() => cleanup());
-      cleanup = () => {
-        if (!open) return;
-        open = false;
-        clearInterval(heartbeat);
-        sub.unsubscribe();
-        untrack();
-        request.signal.removeEventListener("abort", cleanup);
-        try {
-          controller.close();
-        } catch {
-          /* already closed */
-        }
-      };
-      request.signal.addEventListener("abort", cleanup);
-      // Reconnect quickly after a drop (browsers wait about 3 s by default).
-      write("retry: 1000\n\n");
+      stream.onClose(sub.unsubscribe);
       await sub.ready;
       try {
         const snap = await readLiveState(cls.id);
-        if (!snap) return cleanup();
+        if (!snap) return stream.close();
         // A Last-Event-ID from the future (the database was restored): start over from what is there.
         if (snap.seq < last) sent = Math.min(sent, snap.seq - 1);
         if (snap.seq > sent) deliver(snap);
-        else write(": up to date\n\n");
+        else stream.send(": up to date\n\n");
       } catch {
         // The database is away: end the stream; EventSource comes back and catches up.
-        cleanup();
+        stream.close();
       }
     },
-    cancel() {
-      cleanup();
-    },
-  });
-  return new Response(stream, {
-    headers: {
-      "Content-Type": "text/event-stream; charset=utf-8",
-      "Cache-Control": "no-cache, no-transform",
-      "X-Accel-Buffering": "no",
-    },
-  });
+  );
 }
 
 /**

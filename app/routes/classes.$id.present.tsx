@@ -1,5 +1,5 @@
 import { useCallback, useEffect, useMemo, useRef, useState } from "react";
-import { Link, useLoaderData, useNavigate } from "react-router";
+import { Link, useNavigate } from "react-router";
 import { ChevronLeft, ChevronRight, Hand, Maximize, Pause, Play, RotateCcw, X } from "lucide-react";
 import type { Route } from "./+types/classes.$id.present";
 import { requirePermission } from "~/lib/auth.server";
@@ -70,8 +70,8 @@ function Key({ children }: { children: React.ReactNode }) {
   );
 }
 
-export default function Present() {
-  const { cls, decks, live } = useLoaderData<typeof loader>();
+export default function Present({ loaderData }: Route.ComponentProps) {
+  const { cls, decks, live } = loaderData;
   const navigate = useNavigate();
   const resumed = live?.state && decks.some((d) => d.key === live.state!.deck) ? live.state : null;
   const [deckKey, setDeckKey] = useState(resumed?.deck ?? decks[0]?.key ?? "");

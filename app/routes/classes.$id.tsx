@@ -1,5 +1,5 @@
 import { DateRange } from "~/components/dates";
-import { Form, Link, useActionData, useLoaderData } from "react-router";
+import { Form, Link } from "react-router";
 import { BookOpenCheck, CalendarDays, MapPin, MonitorPlay, Radio, Table2 } from "lucide-react";
 import type { Route } from "./+types/classes.$id";
 import { requirePermission } from "~/lib/auth.server";
@@ -36,9 +36,9 @@ export async function action({ request, params, context }: Route.ActionArgs) {
   return handleClassAction({ request, context, user, cls, form });
 }
 
-export default function ClassPage() {
-  const { cls, members, pending, assignments, lessons, created } = useLoaderData<typeof loader>();
-  const result = useActionData<typeof action>();
+export default function ClassPage({ loaderData, actionData }: Route.ComponentProps) {
+  const { cls, members, pending, assignments, lessons, created } = loaderData;
+  const result = actionData;
   const detailsFailed = result?.intent === "details" && !!result.errors;
   const notice =
     result?.notice ?? (created && !result ? "Class created. Invite trainees and assign lessons below." : null);

@@ -1,5 +1,5 @@
 import { Day, DateRange } from "~/components/dates";
-import { data, Form, Link, redirect, useActionData, useLoaderData } from "react-router";
+import { data, Form, Link, redirect } from "react-router";
 import { CalendarDays, MapPin, Radio, Users } from "lucide-react";
 import type { Route } from "./+types/classes._index";
 import { requirePermission, requireUser } from "~/lib/auth.server";
@@ -41,9 +41,9 @@ export async function action({ request }: Route.ActionArgs) {
   throw redirect(`/classes/${id}?created=1`);
 }
 
-export default function Classes() {
-  const { role, manages, classes, assignments, today } = useLoaderData<typeof loader>();
-  const result = useActionData<typeof action>();
+export default function Classes({ loaderData, actionData }: Route.ComponentProps) {
+  const { role, manages, classes, assignments, today } = loaderData;
+  const result = actionData;
   return (
     <div className="grid gap-8">
       <header>

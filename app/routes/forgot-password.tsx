@@ -1,4 +1,4 @@
-import { data, Form, Link, useActionData } from "react-router";
+import { data, Form, Link } from "react-router";
 import type { Route } from "./+types/forgot-password";
 import { retryAfterHeaders } from "~/lib/rate-limit.server";
 import { requestPasswordReset } from "~/lib/password-reset.server";
@@ -14,8 +14,8 @@ export async function action({ request, context }: Route.ActionArgs) {
   );
 }
 
-export default function ForgotPassword() {
-  const result = useActionData<typeof action>();
+export default function ForgotPassword({ actionData }: Route.ComponentProps) {
+  const result = actionData;
   return (
     <AuthCard
       title="Forgot your password?"

@@ -1,4 +1,4 @@
-import { Form, Link, useLoaderData, useSubmit } from "react-router";
+import { Form, Link, useSubmit } from "react-router";
 import type { Route } from "./+types/gradebook";
 import { requirePermission } from "~/lib/auth.server";
 import { getClassFor, isUuid, listClassesFor } from "~/lib/classes.server";
@@ -23,8 +23,8 @@ export async function loader({ request }: Route.LoaderArgs) {
   };
 }
 
-export default function GradebookPage() {
-  const { classes, selected, book } = useLoaderData<typeof loader>();
+export default function GradebookPage({ loaderData }: Route.ComponentProps) {
+  const { classes, selected, book } = loaderData;
   const submit = useSubmit();
   return (
     <div className="grid gap-4">

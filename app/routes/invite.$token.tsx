@@ -1,4 +1,4 @@
-import { data, Form, Link, redirect, useActionData, useLoaderData, useParams } from "react-router";
+import { data, Form, Link, redirect, useParams } from "react-router";
 import type { Route } from "./+types/invite.$token";
 import { formFailure } from "~/lib/password-form.server";
 import { getOptionalUser } from "~/lib/auth.server";
@@ -46,9 +46,9 @@ export async function action({ request, params, context }: Route.ActionArgs) {
   return formFailure(r);
 }
 
-export default function AcceptInvitation() {
-  const { invitation, state } = useLoaderData<typeof loader>();
-  const result = useActionData<typeof action>();
+export default function AcceptInvitation({ loaderData, actionData }: Route.ComponentProps) {
+  const { invitation, state } = loaderData;
+  const result = actionData;
   const { token } = useParams();
   if (!invitation) return <LinkProblem state={state} kind="invitation" />;
   if (invitation.existingAccount) {

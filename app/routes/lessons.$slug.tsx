@@ -1,5 +1,5 @@
 import { useCallback, useEffect, useRef } from "react";
-import { data, Form, Link, useActionData, useLoaderData, useNavigation } from "react-router";
+import { data, Form, Link, useNavigation } from "react-router";
 import { Clock, Send } from "lucide-react";
 import type { Route } from "./+types/lessons.$slug";
 import type { RoofSpec } from "~/engine";
@@ -71,9 +71,9 @@ function useTimeSpent() {
   return () => (started.current ? Math.round((Date.now() - started.current) / 1000) : 0);
 }
 
-export default function LessonPlayer() {
-  const { lesson, signedIn, progress, idempotencyKey } = useLoaderData<typeof loader>();
-  const result = useActionData<typeof action>();
+export default function LessonPlayer({ loaderData, actionData }: Route.ComponentProps) {
+  const { lesson, signedIn, progress, idempotencyKey } = loaderData;
+  const result = actionData;
   const navigation = useNavigation();
   const submitting = navigation.state === "submitting";
   const specInput = useRef<HTMLInputElement>(null);

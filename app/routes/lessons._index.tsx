@@ -1,4 +1,4 @@
-import { Link, useLoaderData } from "react-router";
+import { Link } from "react-router";
 import { BookOpen, CalendarDays, Check, Clock, ListChecks, Minus, X } from "lucide-react";
 import type { Route } from "./+types/lessons._index";
 import { getOptionalUser } from "~/lib/auth.server";
@@ -80,8 +80,8 @@ function DueLine({ due, late }: { due: LessonDue; late: boolean }) {
   );
 }
 
-export default function Lessons() {
-  const { lessons, signedIn, today } = useLoaderData<typeof loader>();
+export default function Lessons({ loaderData }: Route.ComponentProps) {
+  const { lessons, signedIn, today } = loaderData;
   const passed = lessons.filter((l) => l.progress?.passed).length;
   const next = lessons.find((l) => !l.progress?.passed);
   return (

@@ -1,5 +1,5 @@
 import { useEffect, useRef } from "react";
-import { data, Form, Link, redirect, useActionData, useLoaderData } from "react-router";
+import { data, Form, Link, redirect } from "react-router";
 import type { Route } from "./+types/login";
 import { retryAfterHeaders } from "~/lib/rate-limit.server";
 import { requireAnonymous, safeRedirect, signIn } from "~/lib/auth.server";
@@ -36,9 +36,9 @@ export async function action({ request, context }: Route.ActionArgs) {
   );
 }
 
-export default function Login() {
-  const { redirectTo, notice, signupOpen } = useLoaderData<typeof loader>();
-  const result = useActionData<typeof action>();
+export default function Login({ loaderData, actionData }: Route.ComponentProps) {
+  const { redirectTo, notice, signupOpen } = loaderData;
+  const result = actionData;
   const password = useRef<HTMLInputElement>(null);
   // After a refused attempt the password is cleared and focused, ready to type again.
   useEffect(() => {

@@ -1,4 +1,4 @@
-import { data, Form, redirect, useActionData, useLoaderData } from "react-router";
+import { data, Form, redirect } from "react-router";
 import type { Route } from "./+types/reset-password.$token";
 import { formFailure } from "~/lib/password-form.server";
 import { findResetToken, resetPassword } from "~/lib/password-reset.server";
@@ -23,9 +23,9 @@ export async function action({ request, params, context }: Route.ActionArgs) {
   return formFailure(r);
 }
 
-export default function ResetPassword() {
-  const { state, email } = useLoaderData<typeof loader>();
-  const result = useActionData<typeof action>();
+export default function ResetPassword({ loaderData, actionData }: Route.ComponentProps) {
+  const { state, email } = loaderData;
+  const result = actionData;
   if (state !== "valid") return <LinkProblem state={state} kind="reset" />;
   return (
     <AuthCard

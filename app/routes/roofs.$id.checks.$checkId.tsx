@@ -1,6 +1,6 @@
 /** /roofs/:id/checks/:checkId: one as-built check, for whoever may read the roof. */
 import { useEffect, useMemo } from "react";
-import { data, Link, useLoaderData, useSearchParams } from "react-router";
+import { data, Link, useSearchParams } from "react-router";
 import type { Route } from "./+types/roofs.$id.checks.$checkId";
 import { requirePermission } from "~/lib/auth.server";
 import { getRoofFor } from "~/lib/roofs.server";
@@ -44,8 +44,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   };
 }
 
-export default function CheckPage() {
-  const { roof, check } = useLoaderData<typeof loader>();
+export default function CheckPage({ loaderData }: Route.ComponentProps) {
+  const { roof, check } = loaderData;
   const [params] = useSearchParams();
   const r = check.result;
   const drawing = useMemo(() => checkDrawing(check.outline, r), [check.outline, r]);

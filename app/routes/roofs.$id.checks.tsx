@@ -1,5 +1,5 @@
 /** /roofs/:id/checks: a roof's as-built checks, and a new one from the joist-by-joist form or a CSV. */
-import { data, Link, redirect, useActionData, useLoaderData } from "react-router";
+import { data, Link, redirect } from "react-router";
 import type { Route } from "./+types/roofs.$id.checks";
 import { requirePermission } from "~/lib/auth.server";
 import { getRoofFor } from "~/lib/roofs.server";
@@ -170,9 +170,9 @@ export async function action({ request, params }: Route.ActionArgs) {
   return redirect(`/roofs/${roof.id}/checks/${id}?saved=1`);
 }
 
-export default function RoofChecks() {
-  const { roof, checks, places, shapeError, today } = useLoaderData<typeof loader>();
-  const answer = useActionData<typeof action>();
+export default function RoofChecks({ loaderData, actionData }: Route.ComponentProps) {
+  const { roof, checks, places, shapeError, today } = loaderData;
+  const answer = actionData;
   return (
     <div className="mx-auto max-w-5xl space-y-6">
       <header className="space-y-1">

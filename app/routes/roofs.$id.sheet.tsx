@@ -1,6 +1,6 @@
 /** /roofs/:id/sheet: a saved roof's check sheet, for whoever may read the roof. */
 import { useMemo } from "react";
-import { data, Link, useLoaderData } from "react-router";
+import { data, Link } from "react-router";
 import type { Route } from "./+types/roofs.$id.sheet";
 import { parseSpec } from "~/engine";
 import { requirePermission } from "~/lib/auth.server";
@@ -23,8 +23,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   return { id: roof.id, name: roof.name, spec: parsed.spec };
 }
 
-export default function RoofSheet() {
-  const { id, name, spec } = useLoaderData<typeof loader>();
+export default function RoofSheet({ loaderData }: Route.ComponentProps) {
+  const { id, name, spec } = loaderData;
   const outcome = useMemo(() => runAnalysis(spec), [spec]);
   if (!outcome.ok)
     return (

@@ -116,12 +116,11 @@ async function importRoof(
     return data<ActionResult>({ intent: "import", error: `${file.name}: ${envelope.message}` }, { status: 422 });
   const checked = parseRoofWrite({ name: envelope.file.name, spec: envelope.file.spec }, "create");
   if (!checked.ok) {
-    const body = (await checked.response.json()) as { error: { message: string } };
-    return data<ActionResult>({ intent: "import", error: `${file.name}: ${body.error.message}` }, { status: 422 });
+    return data<ActionResult>({ intent: "import", error: `${file.name}: ${checked.message}` }, { status: 422 });
   }
   const key = idempotencyKeySchema.safeParse(idempotencyKey);
   const created = await createRoof(user, {
-    name: checked.name!,
+    name: checked.name,
     spec: checked.spec,
     underlay: envelope.file.underlay ?? null,
     idempotencyKey: key.success ? key.data : null,

@@ -41,15 +41,11 @@ export async function action({ request }: Route.ActionArgs) {
     );
   }
   const input = parseRoofWrite({ name, spec }, "create");
-  if (!input.ok) {
-    const body = (await input.response.json()) as {
-      error: { message: string; issues: { path: string; message: string }[] };
-    };
-    return data({ ...body, name }, { status: input.response.status });
-  }
+  if (!input.ok)
+    return data({ error: { message: input.message, issues: input.issues }, name }, { status: input.status });
   const key = idempotencyKeySchema.safeParse(read.form.get("idempotencyKey"));
   const created = await createRoof(user, {
-    name: input.name!,
+    name: input.name,
     spec: input.spec,
     idempotencyKey: key.success ? key.data : null,
   });

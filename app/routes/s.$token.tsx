@@ -2,7 +2,7 @@
  * /s/<token>: a roof shared read-only by link, for someone without an account: its 3D view,
  * figures, drop schedule and downloads, with the caution. 404 for an unknown or revoked link.
  */
-import { data, useLoaderData } from "react-router";
+import { data } from "react-router";
 import type { Route } from "./+types/s.$token";
 import { parseSpec } from "~/engine";
 import { findSharedRoof } from "~/lib/share-links.server";
@@ -30,8 +30,8 @@ export async function loader({ params }: Route.LoaderArgs) {
   };
 }
 
-export default function SharedRoof() {
-  const { name, token, spec, problem } = useLoaderData<typeof loader>();
+export default function SharedRoof({ loaderData }: Route.ComponentProps) {
+  const { name, token, spec, problem } = loaderData;
   return (
     <div className="grid gap-3" data-testid="shared-roof">
       <header className="flex flex-wrap items-end justify-between gap-3">

@@ -1,5 +1,5 @@
 import { useEffect, useMemo, useState } from "react";
-import { data, Link, useLoaderData } from "react-router";
+import { data, Link } from "react-router";
 import type { Route } from "./+types/sandbox.sheet";
 import { parseSpec, type RoofSpec } from "~/engine";
 import { CheckSheet } from "~/components/pack/check-sheet";
@@ -49,8 +49,8 @@ function CheckSheetOf({ spec, name }: { spec: RoofSpec; name: string }) {
   );
 }
 
-export default function CheckSheetPage() {
-  const loaded = useLoaderData<typeof loader>();
+export default function CheckSheetPage({ loaderData }: Route.ComponentProps) {
+  const loaded = loaderData;
   const [spec, setSpec] = useState<RoofSpec | null>(loaded.spec);
   const [missing, setMissing] = useState(false);
 

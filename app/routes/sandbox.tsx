@@ -21,7 +21,7 @@
  * This page opens the demo roof, or the roof in `?spec=` (base64url JSON, as the classroom's
  * "copy to my sandbox" link sends it), and keeps unsaved edits in this tab's sessionStorage.
  */
-import { data, useLoaderData, useRouteLoaderData } from "react-router";
+import { data, useRouteLoaderData } from "react-router";
 import type { Route } from "./+types/sandbox";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
 import { DEMO_ROOF } from "~/components/sandbox/demo-roof";
@@ -69,8 +69,8 @@ function SavedNote() {
   );
 }
 
-export default function Sandbox() {
-  const { linked, linkError } = useLoaderData<typeof loader>();
+export default function Sandbox({ loaderData }: Route.ComponentProps) {
+  const { linked, linkError } = loaderData;
   return (
     <div className="grid gap-3">
       <div className="flex flex-wrap items-baseline justify-between gap-2">

@@ -1,4 +1,4 @@
-import { data, Form, Link, redirect, useActionData, useLoaderData } from "react-router";
+import { data, Form, Link, redirect } from "react-router";
 import type { Route } from "./+types/signup";
 import { formFailure } from "~/lib/password-form.server";
 import { requireAnonymous } from "~/lib/auth.server";
@@ -23,9 +23,9 @@ export async function action({ request, context }: Route.ActionArgs) {
   return formFailure(r);
 }
 
-export default function SignUp() {
-  const { open, organisationName } = useLoaderData<typeof loader>();
-  const result = useActionData<typeof action>();
+export default function SignUp({ loaderData, actionData }: Route.ComponentProps) {
+  const { open, organisationName } = loaderData;
+  const result = actionData;
   if (!open) {
     return (
       <AuthCard title="Sign-up is closed">

@@ -8,6 +8,7 @@
  * so a new route is covered without remembering to call anything.
  */
 import type { ServerBuild } from "react-router";
+import { parseJsonBytes, readStreamCapped } from "../lib/body.ts";
 import { ID_FIELDS, isUuid, jsonProblem, textProblem, type InputProblem } from "../lib/input.ts";
 
 type DataFn = (args: { request: Request; params: Record<string, string | undefined>; context: unknown }) => unknown;
@@ -57,30 +58,6 @@ function urlProblem(
   return null;
 }
 
-/** The body's bytes, or null past `limit` (the rest is not read; the answer closes the connection). */
-async function readAtMost(body: ReadableStream<Uint8Array>, limit: number): Promise<Uint8Array | null> {
-  const reader = body.getReader();
-  const chunks: Uint8Array[] = [];
-  let total = 0;
-  for (;;) {
-    const { done, value } = await reader.read();
-    if (done) break;
-    total += value.byteLength;
-    if (total > limit) {
-      await reader.cancel().catch(() => {});
-      return null;
-    }
-    chunks.push(value);
-  }
-  const out = new Uint8Array(total);
-  let at = 0;
-  for (const c of chunks) {
-    out.set(c, at);
-    at += c.byteLength;
-  }
-  return out;
-}
-
 /** Bodies are read here once (within the host's cap), checked, and handed on as a fresh Request. */
 async function bodyProblem(
   request: Request,
@@ -88,7 +65,7 @@ async function bodyProblem(
 ): Promise<{ request: Request; problem: InputProblem | null; tooLarge?: boolean }> {
   const type = request.headers.get("content-type") ?? "";
   if (!request.body || !(FORM.test(type) || JSON_TYPE.test(type))) return { request, problem: null };
-  const bytes = await readAtMost(request.body, limit);
+  const bytes = await readStreamCapped(request.body, limit);
   if (!bytes) return { request, problem: null, tooLarge: true };
   const copy = new Request(request.url, {
     method: request.method,
@@ -97,13 +74,9 @@ async function bodyProblem(
     signal: request.signal,
   });
   if (JSON_TYPE.test(type)) {
-    let value: unknown;
-    try {
-      value = JSON.parse(new TextDecoder().decode(bytes));
-    } catch {
-      return { request: copy, problem: null }; // the route answers "not valid JSON"
-    }
-    return { request: copy, problem: jsonProblem(value) };
+    const json = parseJsonBytes(bytes, "lenient");
+    // Not JSON: the route answers "not valid JSON".
+    return { request: copy, problem: json.ok ? jsonProblem(json.value) : null };
   }
   let form: FormData;
   try {

@@ -1,10 +1,12 @@
 import { describe, expect, it } from "vitest";
 import { useTestDatabase } from "../support/db";
+import fs from "node:fs";
 import { TABLE_COLUMNS } from "~/lib/db-tables";
+import { readColumns, renderTableTypes, TABLES_FILE } from "../../db/table-types";
 
-// Issue 20 item 9: the row types in app/lib/db-tables.ts are written by hand from the migrations.
-// This holds them to the migrated schema, so a migration that adds, drops or renames a column
-// (or a table) fails here until the types say the same.
+// The row types in app/lib/db-tables.ts are written by `npm run db:types` from the migrated schema.
+// This holds them to it, so a migration that adds, drops or renames a column (or a table), or
+// changes a column's type, nullability or default, fails here until the script is run again.
 const database = useTestDatabase();
 
 describe("the typed tables match the migrated schema", () => {
@@ -21,5 +23,10 @@ describe("the typed tables match the migrated schema", () => {
     const typed = Object.fromEntries(Object.entries(TABLE_COLUMNS).map(([t, cols]) => [t, [...cols].sort()]));
     const actual = Object.fromEntries(Object.entries(live).map(([t, cols]) => [t, cols.sort()]));
     expect(typed).toEqual(actual);
+  });
+
+  it("is exactly what `npm run db:types` writes for this schema", async () => {
+    const expected = await renderTableTypes(await readColumns(database.db()));
+    expect(fs.readFileSync(TABLES_FILE, "utf8")).toBe(expected);
   });
 });

@@ -1,12 +1,13 @@
 import { describe, expect, it } from "vitest";
 import { useTestDatabase } from "../support/db";
+import type { RoofSpec } from "~/engine";
 import type { SessionUser } from "~/lib/auth.server";
 import { AUTOSAVE_COALESCE_MINUTES, createRoof, restoreVersion, updateRoof } from "~/lib/roofs.server";
 
 // Issue 13: every autosave used to add a full roof_versions row forever.
 const database = useTestDatabase();
 
-const spec = (fall: string) => ({
+const spec = (fall: string): RoofSpec => ({
   outline: [
     [0, 0],
     [12, 0],
@@ -34,7 +35,7 @@ describe("roof history", () => {
     const user = await designer();
     const { id } = await createRoof(user, { name: "Depot canopy", spec: spec("1:60") });
     let version = 1;
-    const save = async (input: { name?: string; spec?: unknown }) => {
+    const save = async (input: { name?: string; spec?: RoofSpec }) => {
       const r = await updateRoof(user, id, { ...input, version });
       if (r.status !== "ok") throw new Error(r.status);
       version = r.version;

@@ -1,5 +1,6 @@
 /** Helpers for the saved-roofs tests: sign-in cookies, calling route modules. */
 export { makePng } from "./png";
+import type { RoofSpec } from "~/engine";
 import { db } from "~/lib/db.server";
 import { createSession } from "~/lib/session.server";
 import { checkApiResponse } from "./openapi";
@@ -63,7 +64,7 @@ export function getRequest(path: string, cookie?: string): Request {
   return new Request(BASE + path, { headers: cookie ? { cookie } : {} });
 }
 
-export const SMALL_SPEC = {
+export const SMALL_SPEC: RoofSpec = {
   outline: [
     [0, 0],
     [10, 0],

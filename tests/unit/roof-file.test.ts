@@ -1,4 +1,5 @@
 import { describe, expect, it } from "vitest";
+import type { RoofSpec } from "~/engine";
 import { readRoofFile, roofFileName, writeRoofFile } from "~/lib/roof-file";
 import { calibrate, parseLength, pixelToPlan, planToPixel, retraceSpec } from "~/lib/underlay";
 
@@ -97,7 +98,7 @@ describe("underlay scale", () => {
   });
 
   it("retracing keeps the other settings, resets edge kinds and moves outlets onto the new outline", () => {
-    const spec = {
+    const spec: RoofSpec = {
       outline: [
         [0, 0],
         [24, 0],

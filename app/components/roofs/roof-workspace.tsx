@@ -10,8 +10,8 @@ import type { Underlay } from "~/components/sandbox/underlay";
 export { retraceSpec } from "~/lib/underlay";
 
 export interface RoofWorkspaceProps {
-  initialSpec: unknown;
-  onSpecChange: (spec: unknown) => void;
+  initialSpec: RoofSpec;
+  onSpecChange: (spec: RoofSpec) => void;
   readOnly: boolean;
   underlay?: Underlay;
   /** Receives the workspace's store so the page can replace the spec as an undoable edit. */
@@ -30,7 +30,7 @@ function StoreBridge({ onStore }: { onStore: (store: SandboxStore | null) => voi
 export function RoofWorkspace({ initialSpec, onSpecChange, readOnly, underlay, onStore }: RoofWorkspaceProps) {
   return (
     <SandboxWorkspace
-      initialSpec={initialSpec as RoofSpec}
+      initialSpec={initialSpec}
       onSpecChange={onSpecChange}
       readOnly={readOnly}
       underlay={underlay}

@@ -1,10 +1,8 @@
 import { useCallback, useEffect, useRef, useState } from "react";
+import type { RoofSpec } from "~/engine";
+import type { RoofSnapshot } from "~/lib/roof-page";
 
-export interface RoofSnapshot {
-  version: number;
-  spec: unknown;
-  name: string;
-}
+export type { RoofSnapshot };
 
 export type SaveState =
   | { kind: "saved"; version: number }
@@ -16,7 +14,7 @@ export type SaveState =
   | { kind: "error"; message: string };
 
 interface Draft {
-  spec?: unknown;
+  spec?: RoofSpec;
   name?: string;
 }
 

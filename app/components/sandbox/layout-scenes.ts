@@ -1,6 +1,6 @@
 import { ShapeUtils, Vector2 } from "three";
-import type { Analysis, Point, RoofSpec } from "~/engine";
-import { attachOutlet, edgeEnds, edgeKindsOf, edgeLength, signedArea } from "./spec-edit";
+import { pointsSignedArea, type Analysis, type Point, type RoofSpec } from "~/engine";
+import { attachOutlet, edgeEnds, edgeKindsOf, edgeLength } from "./spec-edit";
 
 /**
  * Surfaces for the two layouts the side-by-side compares with the shaped roof. The engine gives
@@ -47,7 +47,7 @@ export function clipPolygon(poly: Poly, f: (p: Point) => number): Poly {
       out.push([a[0] + t * (b[0] - a[0]), a[1] + t * (b[1] - a[1])]);
     }
   }
-  return out.length >= 3 && Math.abs(signedArea(out)) > 1e-12 ? out : [];
+  return out.length >= 3 && Math.abs(pointsSignedArea(out)) > 1e-12 ? out : [];
 }
 
 function faceRatioOf(p: number[], a: number, b: number, c: number): number | null {
@@ -117,7 +117,7 @@ export function gutterSurface(spec: RoofSpec, analysis: Analysis): LayoutSurface
   const g = analysis.gutter;
   if (!g.comparable || g.lipLevel == null || g.highLevel == null) return null;
   const outline = spec.outline;
-  const ccw = signedArea(outline) > 0;
+  const ccw = pointsSignedArea(outline) > 0;
   const width = g.width;
   const lip = g.lipLevel;
   const soleSlope = 1 / g.fall.ratio;
@@ -229,7 +229,7 @@ export function gutterSurface(spec: RoofSpec, analysis: Analysis): LayoutSurface
 /** The open-edge option: one plane rising at the base fall from the engine's chosen edge. */
 export function openEdgeSurface(spec: RoofSpec, analysis: Analysis): LayoutSurface {
   const outline = spec.outline;
-  const line = inwardLine(outline, analysis.openEdge.edge, signedArea(outline) > 0);
+  const line = inwardLine(outline, analysis.openEdge.edge, pointsSignedArea(outline) > 0);
   const slope = analysis.openEdge.span > 0 ? analysis.openEdge.highLevel / analysis.openEdge.span : 0;
   const levelAt = (x: number, y: number) => Math.max(0, dist(line, [x, y])) * slope;
   const b = new Builder();

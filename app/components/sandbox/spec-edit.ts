@@ -140,16 +140,8 @@ export function setOutlet(spec: RoofSpec, index: number, patch: Partial<RoofSpec
   return { ...spec, outlets: spec.outlets.map((o, k) => (k === index ? { ...o, ...patch } : o)) };
 }
 
-/** Shoelace area, positive when the points run counter-clockwise (plan y up). */
-export function signedArea(points: Point[]): number {
-  let a = 0;
-  for (let i = 0; i < points.length; i++) {
-    const p = points[i];
-    const q = points[(i + 1) % points.length];
-    a += p[0] * q[1] - q[0] * p[1];
-  }
-  return a / 2;
-}
+/** The plan editor's name for the engine's point-array shoelace area (positive counter-clockwise). */
+export { pointsSignedArea as signedArea } from "~/engine";
 
 export function bounds(points: Point[]) {
   let minX = Infinity;

@@ -1,4 +1,4 @@
-import type { EdgeKind, Point } from "~/engine";
+import { pointsSignedArea, type EdgeKind, type Point } from "~/engine";
 import { openingsOf, ridgesOf } from "./extras";
 import { mmOf, type PackRoof } from "./facts";
 import { placeLabels, ringCandidates, type Box } from "./labels";
@@ -58,10 +58,7 @@ export function planLabels(
   const span = Math.max(bounds.maxX - bounds.minX, bounds.maxY - bounds.minY, 1);
   const u = span / 60;
   const kinds: EdgeKind[] = outline.map((_, i) => spec.edges?.[i] ?? "parapet");
-  let area2 = 0;
-  for (let i = 0; i < n; i++)
-    area2 += outline[i][0] * outline[(i + 1) % n][1] - outline[(i + 1) % n][0] * outline[i][1];
-  const out = area2 > 0 ? 1 : -1;
+  const out = pointsSignedArea(outline) > 0 ? 1 : -1;
   const edges = outline.map((a, i) => ({ from: a, to: outline[(i + 1) % n], kind: kinds[i] }));
   const joists = analysis.shaped.joists.flatMap((j) => j.spans.map((s) => [s.start, s.end] as [Point, Point]));
   const line = analysis.shaped.longestFallLine;

@@ -10,7 +10,8 @@ vi.mock("~/lib/rate-limit.server", () => ({
   chargeApiWork: () => 0,
 }));
 
-const { action, loader, ANALYSIS_BODY_LIMIT } = await import("~/routes/api.v1.analyses");
+const { action, loader } = await import("~/routes/api.v1.analyses");
+const { ANALYSIS_BODY_LIMIT } = await import("~/lib/analysis-request.server");
 const { checkApiResponse } = await import("../../support/openapi");
 
 const URL_ = "http://localhost/api/v1/analyses";

@@ -1,7 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { gradeLesson } from "~/lib/lessons/grade";
 import path from "node:path";
-import { failedRequiredOf } from "~/lib/lessons/grade";
+import { failedRequiredOf, gradeLesson } from "~/lib/lessons/grade";
 import {
   BLANK_QUIZ_LABEL,
   cappedScore,
@@ -13,7 +12,7 @@ import { loadLessons } from "~/lib/lessons/load.server";
 import { questionSchema, roofTaskOf, roofTaskSchema as taskSchema } from "~/lib/lessons/schema";
 
 // Issue 16, item 1: one grading rule, read the same everywhere. One test per rule.
-const task = taskSchema.parse({
+const taskInput = {
   title: "Move the outlet",
   goal: "Move it.",
   start: {
@@ -40,9 +39,10 @@ const task = taskSchema.parse({
   },
   editable: ["outlets"],
   // The fixed-parts check ("Keep what the task fixes") is required and weighs 0 points.
-  criteria: [{ id: "fall", kind: "longestFallRatioAtMost", value: "1:100", weight: 3 }],
+  criteria: [{ id: "fall", kind: "longestFallRatioAtMost", value: "1:100", weight: 3 } as Record<string, unknown>],
   hints: ["Middle of the front edge."],
-});
+};
+const task = taskSchema.parse(taskInput);
 const lesson = {
   passMark: 70,
   quiz: [questionSchema.parse({ id: "q1", kind: "numeric", prompt: "?", answer: "150 mm", tolerance: "1 mm" })],
@@ -63,14 +63,9 @@ describe("the grading rule", () => {
     };
     const r = gradeLesson(lesson, { q1: "150 mm" }, moved);
     if ("ok" in r) throw new Error(r.message);
-    expect(r.task.find((i) => i.id === "fixed")).toMatchObject({ passed: false, required: true, weight: 0 });
     expect(r).toMatchObject({ rawScore: 100, score: 69, passed: false });
-    const read = readGrade({
-      score: r.score,
-      passed: r.passed,
-      passMark: 70,
-      failedRequired: ["Keep what the task fixes"],
-    });
+    expect(failedRequiredOf(r)).toEqual(["Keep what the task fixes"]);
+    const read = readGrade({ score: r.score, passed: r.passed, passMark: 70, failedRequired: failedRequiredOf(r) });
     expect(read).toMatchObject({ score: 69, passed: false, why: "required" });
     expect(read.reason).toMatch(/^A required check was not met: “Keep what the task fixes”/);
     // An attempt stored before the cap (100, not passed) reads the same way.
@@ -79,6 +74,18 @@ describe("the grading rule", () => {
     ).toMatchObject({ score: 69, passed: false });
     expect(cappedScore(40, 70)).toBe(40);
     expect(cappedScore(100, 0)).toBe(0);
+  });
+
+  it("a failed criterion marked required caps the same way, whatever the pass mark", () => {
+    const oneOutlet = taskSchema.parse({
+      ...taskInput,
+      criteria: [...taskInput.criteria, { id: "one", kind: "maxOutlets", value: 1, required: true }],
+    });
+    const twoOutlets = { ...(task.reference as object), outlets: [{ at: [6, 0] }, { at: [12, 0] }] };
+    // Quiz right (1) + fall line met (3) + one outlet failed (0 of 1): 4 of 5 = 80, over a pass mark of 50.
+    const r = gradeLesson({ ...lesson, passMark: 50, task: oneOutlet }, { q1: "150 mm" }, twoOutlets);
+    if ("ok" in r) throw new Error(r.message);
+    expect(r).toMatchObject({ rawScore: 80, score: 49, passed: false });
   });
 
   it("below the pass mark is Not passed; at the pass mark is Passed", () => {
@@ -94,9 +101,7 @@ describe("the grading rule", () => {
     });
     // A stored "passed" beside a score below the mark can never read as a pass.
     expect(readGrade({ score: 60, passed: true, passMark: 70, failedRequired: [] }).passed).toBe(false);
-    // Quiz right (1 point) and fall line missed (0 of 3): 25, below 70.
-    const r = gradeLesson(lesson, { q1: "150 mm" }, task.start);
-    expect(r).toMatchObject({ score: 25, passed: false });
+    // gradeLesson's totals below and at the mark: grade.test.ts.
   });
 
   it("an override replaces score and result together, and its result must follow the pass mark", () => {

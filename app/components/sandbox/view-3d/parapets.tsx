@@ -1,7 +1,6 @@
 import { useEffect, useMemo } from "react";
 import * as THREE from "three";
-import type { EdgeKind, Point } from "~/engine";
-import { signedArea } from "../spec-edit";
+import { pointsSignedArea, type EdgeKind, type Point } from "~/engine";
 import type { SceneFrame } from "./scene-frame";
 
 type V3 = [number, number, number];
@@ -33,7 +32,7 @@ export function Parapets({
 }) {
   const { walls, spouting } = useMemo(() => {
     const n = outline.length;
-    const sign = signedArea(outline) > 0 ? 1 : -1;
+    const sign = pointsSignedArea(outline) > 0 ? 1 : -1;
     const t = Math.max(0.08, frame.radius * 0.018);
     const top = high * exaggeration + Math.max(0.12, frame.radius * 0.045);
     const bottom = low * exaggeration - Math.max(0.05, frame.radius * 0.02);
