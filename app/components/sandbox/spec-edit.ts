@@ -171,6 +171,38 @@ export function setJoistDirection(spec: RoofSpec, direction: Point): RoofSpec {
   return { ...spec, joists: { ...spec.joists, direction: d } };
 }
 
+/**
+ * Turns the joists of one drainage area (docs/roof-method-plans.md P4, P8): the `areas` entry whose
+ * point lies inside the area's outline gets the direction, or a new entry at `at` (a point inside
+ * the area, as the analysis gives it) is added. Other areas keep theirs.
+ */
+export function setAreaJoistDirection(
+  spec: RoofSpec,
+  area: { at: Point; outline: Point[] },
+  direction: Point,
+): RoofSpec {
+  const d: Point = [Number(direction[0].toFixed(9)) + 0, Number(direction[1].toFixed(9)) + 0];
+  const areas = spec.areas ?? [];
+  const k = areas.findIndex((e) => insidePolygon(e.at, area.outline));
+  if (k >= 0)
+    return {
+      ...spec,
+      areas: areas.map((e, j) => (j === k ? { ...e, joists: { ...e.joists, direction: d } } : e)),
+    };
+  return { ...spec, areas: [...areas, { at: roundPoint(area.at), joists: { direction: d } }] };
+}
+
+/** Whether p lies inside the polygon (even-odd rule; a point on the boundary may go either way). */
+function insidePolygon(p: Point, poly: Point[]): boolean {
+  let inside = false;
+  for (let i = 0, j = poly.length - 1; i < poly.length; j = i++) {
+    const [xi, yi] = poly[i];
+    const [xj, yj] = poly[j];
+    if (yi > p[1] !== yj > p[1] && p[0] < ((xj - xi) * (p[1] - yi)) / (yj - yi) + xi) inside = !inside;
+  }
+  return inside;
+}
+
 type Opening = NonNullable<RoofSpec["openings"]>[number];
 
 /** A square opening of side `size` centred at `centre` (docs/roof-method-plans.md P2); at most 50. */
