@@ -917,7 +917,7 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
           Esc stops.
         </p>
       )}
-      <div className="mt-1 flex items-center justify-between gap-2">
+      <div className="mt-1 flex flex-wrap items-center justify-between gap-2">
         <div className="min-w-0 truncate text-[11px] tabular-nums text-ink-soft" aria-hidden="true">
           {cursor
             ? `x ${len_(cursor[0])} · y ${len_(cursor[1])}`
