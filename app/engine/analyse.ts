@@ -103,7 +103,7 @@ function analyseWithAdvice(memory: Arena, roof: Roof, options: AnalyseOptions): 
 /**
  * A roof divided by ridges (docs/roof-method-plans.md P4): H is the highest of the areas' own
  * needs (or the given level), each area is shaped on its own up to it, and the answers are put
- * together. The joist direction advice is not given for divided roofs yet.
+ * together. The joist direction advice is given area by area (P8).
  */
 function analyseAreas(memory: Arena, roof: Roof, options: AnalyseOptions): Analysis {
   const slope = 1 / roof.baseFall.ratio;
@@ -142,7 +142,42 @@ function analyseAreas(memory: Arena, roof: Roof, options: AnalyseOptions): Analy
     warnings,
     area: roof.area,
   };
-  return mergeAreas(roof, whole, parts, H);
+  const merged = mergeAreas(roof, whole, parts, H);
+  merged.advice.joistDirections = areaJoistAdvice(memory, roof, parts, own, slope, options);
+  return merged;
+}
+
+/**
+ * Joist direction advice for each drainage area (docs/roof-method-plans.md P8): an area's
+ * candidates are those of its own walls, each analysed on that area alone up to the H the whole
+ * roof would then need (the given level, else the largest of this area's need along the candidate
+ * and the other areas' own needs). The candidates share the undivided roof's work bound.
+ */
+function areaJoistAdvice(
+  memory: Arena,
+  roof: Roof,
+  parts: { part: Roof["parts"][number]; analysis: Analysis }[],
+  own: number[],
+  slope: number,
+  options: AnalyseOptions,
+): Analysis["advice"]["joistDirections"] {
+  const light: AnalyseOptions = {
+    mesh: false,
+    traces: false,
+    bandEdges: options.bandEdges,
+    maxMeshVertices: Math.max(
+      1000,
+      Math.floor(Math.min(options.maxMeshVertices ?? MAX_MESH_VERTICES, CANDIDATE_MESH_VERTICES) / parts.length),
+    ),
+  };
+  return parts.flatMap(({ part, analysis }, k) => {
+    const others = own.reduce((m, h, j) => (j === k ? m : Math.max(m, h)), -Infinity);
+    const advice = joistDirectionAdvice(part.roof, analysis, (turned) => {
+      const H = roof.highLevelGiven ?? Math.max(others, highLevelFor(drainSpans(turned), slope));
+      return analyseWith(memory, { ...turned, highLevelGiven: H }, light, true);
+    });
+    return advice.map((o) => ({ ...o, area: part.id }));
+  });
 }
 
 function analyseWith(memory: Arena, roof: Roof, options: AnalyseOptions, candidate: boolean): Analysis {

@@ -202,7 +202,7 @@ export function prepareRoof(spec: RoofSpec): Prepared {
     dy = (xs[q] - xs[edge]) / len[edge] + 0;
   }
   const { us, vs, umin, umax, vmin, vmax } = frameOf(xs, ys, len, outlets, dx, dy, tol);
-  frameHoles(holes, dx, dy);
+  frameHoles(holes, dx, dy, us, tol);
 
   const spacing = spec.joists?.spacing ?? DEFAULTS.joistSpacing;
   const fromOutlets = spec.joists?.fromOutlets === true;
@@ -520,16 +520,44 @@ export function withJoistDirection(roof: Roof, dx: number, dy: number): Roof | n
   const count = Math.floor(Math.max(0, frame.umax - frame.umin - roof.offset) / roof.spacing) + 2;
   if (count > LIMITS.maxJoists) return null;
   const holes = roof.holes.map((h) => ({ ...h, us: new Float64Array(h.xs.length), vs: new Float64Array(h.xs.length) }));
-  frameHoles(holes, dx, dy);
+  frameHoles(holes, dx, dy, frame.us, roof.tol);
   return { ...roof, dx: dx + 0, dy: dy + 0, outlets, ...frame, holes, probes: [] };
 }
 
-function frameHoles(holes: Hole[], dx: number, dy: number): void {
+/**
+ * The openings in the joist frame. As with the outline (frameOf), positions across the joists
+ * equal up to rounding are made exactly equal, here among all openings' vertices and onto an
+ * outline vertex's: an opening's side along the joists, turned with the roof, must stay one mesh
+ * line, not two lines a rounding apart with a sliver slab between them that routes the water
+ * held on its high side differently after every move (docs/roof-method-plans.md P2, P3).
+ */
+function frameHoles(holes: Hole[], dx: number, dy: number, outlineUs: Float64Array, tol: number): void {
   for (const h of holes) {
     for (let j = 0; j < h.xs.length; j++) {
       h.us[j] = h.xs[j] * dy - h.ys[j] * dx;
       h.vs[j] = h.xs[j] * dx + h.ys[j] * dy;
     }
+  }
+  if (!holes.length) return;
+  const near = tol * 0.01;
+  const fixed = Float64Array.from(outlineUs).sort();
+  const all: { h: Hole; j: number }[] = holes.flatMap((h) => [...h.us.keys()].map((j) => ({ h, j })));
+  for (const { h, j } of all) {
+    // The nearest outline u by bisection.
+    let lo = 0;
+    let hi = fixed.length - 1;
+    while (hi - lo > 1) {
+      const mid = (lo + hi) >> 1;
+      if (fixed[mid] < h.us[j]) lo = mid;
+      else hi = mid;
+    }
+    for (const k of [lo, hi]) if (Math.abs(fixed[k] - h.us[j]) <= near) h.us[j] = fixed[k];
+  }
+  all.sort((a, b) => a.h.us[a.j] - b.h.us[b.j]);
+  for (let k = 1; k < all.length; k++) {
+    const prev = all[k - 1].h.us[all[k - 1].j];
+    const cur = all[k];
+    if (cur.h.us[cur.j] - prev <= near) cur.h.us[cur.j] = prev;
   }
 }
 

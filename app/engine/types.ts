@@ -246,6 +246,11 @@ export interface JoistDirectionOption {
   current: boolean;
   /** The one to choose: meets the minimum fall, then the lowest high level, then the least flat area. */
   best: boolean;
+  /**
+   * On a roof divided by ridges, the drainage area (`shaped.areas[].id`) the option is for: each
+   * area has its own candidates and its own best (docs/roof-method-plans.md P8).
+   */
+  area?: number;
 }
 
 export interface Analysis {

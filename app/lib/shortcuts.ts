@@ -25,6 +25,11 @@ export const PLAN_SHORTCUTS: ShortcutGroup = {
     { keys: ["+"], does: "adds a corner half-way along the edge" },
     { keys: ["Enter"], does: "on an edge: places an outlet at its middle" },
     { keys: ["E"], does: "on an edge: switches parapet and eaves" },
+    { keys: ["Arrow keys"], does: "on an opening: move it; on its corner: resize it; on a ridge point: move it" },
+    { keys: ["Delete"], does: "on an opening: removes it; on a ridge's bend: removes the bend, on its end: the ridge" },
+    { keys: ["+"], does: "on a ridge point: adds a bend half-way to the next point" },
+    { keys: ["Enter"], does: "while drawing a ridge: ends it at the last point" },
+    { keys: ["Esc"], does: "while drawing a ridge or an opening: drops the points so far, then stops drawing" },
   ],
 };
 

@@ -1,32 +1,59 @@
 import { useEffect, useId, useRef, useState, type KeyboardEvent, type PointerEvent } from "react";
 import { PLAN_SHORTCUTS, shortcutSentence, UNDO_SHORTCUTS } from "~/lib/shortcuts";
-import { Lock, Maximize2, ZoomIn, ZoomOut } from "lucide-react";
-import type { Point } from "~/engine";
+import { Lock, Maximize2, SquareDashed, Spline, ZoomIn, ZoomOut } from "lucide-react";
+import type { Point, RoofSpec } from "~/engine";
 import { PlanGrid } from "./plan-grid";
 import { PlanOverlays } from "./plan-overlays";
+import { DrawPreview, PlanFeatures } from "./plan-features";
 import { usePlanFrame } from "./plan-frame";
-import { snapAlong, snapVertex } from "./snap";
+import { snapFree, snapOnSegment, snapOnWalls, snapVertex, type SnapOptions } from "./snap";
 import {
+  addOpeningRect,
   addOutlet,
+  addRidge,
+  deleteOpening,
   deleteOutlet,
+  deleteRidge,
+  deleteRidgePoint,
   deleteVertex,
   edgeEnds,
   edgeKindsOf,
-  edgeLength,
+  insertRidgePoint,
   insertVertex,
+  moveOpening,
+  moveOpeningCorner,
   moveVertex,
   nudgeOutlet,
+  placeOpening,
   placeOutlet,
   projectOnSegment,
   setEdgeKind,
+  setRidgePoint,
   signedArea,
 } from "./spec-edit";
 import { useSandbox, useSandboxStore } from "./store";
 import type { Underlay } from "./underlay";
 import { useFormat } from "./format";
 
-type Drag = { kind: "vertex" | "outlet"; index: number };
-type Focus = { kind: "vertex" | "outlet" | "edge"; index: number };
+type Drag =
+  | { kind: "vertex"; index: number }
+  | { kind: "outlet"; index: number }
+  /** An opening's body: it moves by the pointer's travel from `from`, starting from `outline`. */
+  | { kind: "opening"; index: number; from: Point; outline: Point[] }
+  | { kind: "opening-corner"; index: number; sub: number }
+  | { kind: "ridge-point"; index: number; sub: number };
+/** A handle on the plan: `sub` is the corner of an opening or the point of a ridge. */
+type Focus = {
+  kind: "vertex" | "outlet" | "edge" | "opening" | "opening-corner" | "ridge-point";
+  index: number;
+  sub?: number;
+};
+/** What a press on the plan does: edit what is there, or draw a new ridge or opening. */
+type Tool = "select" | "ridge" | "opening";
+
+const handleId = (f: Focus) => (f.sub == null ? `${f.kind}-${f.index}` : `${f.kind}-${f.index}-${f.sub}`);
+const isOutlineHandle = (f: Focus): f is { kind: "vertex" | "outlet" | "edge"; index: number } =>
+  f.kind === "vertex" || f.kind === "outlet" || f.kind === "edge";
 
 const ARROWS: Record<string, Point> = { ArrowLeft: [-1, 0], ArrowRight: [1, 0], ArrowUp: [0, 1], ArrowDown: [0, -1] };
 
@@ -75,6 +102,14 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
   /** A tap on a crowded spot: the handles under it, to choose from. */
   const [choice, setChoice] = useState<{ left: number; top: number; items: Focus[] } | null>(null);
   const pressed = useRef<{ x: number; y: number; moved: boolean; crowd: Focus[] } | null>(null);
+  /** The opening or ridge handle last pressed or focused (the outline's own handles use the store's selection). */
+  const [active, setActive] = useState<string | null>(null);
+  const [tool, setTool] = useState<Tool>("select");
+  /** The new ridge's points so far, or the new opening's first corner. */
+  const [draft, setDraft] = useState<Point[]>([]);
+  /** Where the next point of the drawing would land (snapped), under the pointer. */
+  const [hover, setHover] = useState<Point | null>(null);
+  const toolPress = useRef<{ x: number; y: number; at: Point } | null>(null);
 
   useEffect(() => {
     const svg = svgRef.current;
@@ -90,11 +125,30 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
     const want = pendingFocus.current;
     if (!want || !svgRef.current) return;
     pendingFocus.current = null;
-    const el = svgRef.current.querySelector<SVGElement>(`[data-handle="${want.kind}-${want.index}"]`);
+    const el = svgRef.current.querySelector<SVGElement>(`[data-handle="${handleId(want)}"]`);
     el?.focus();
   });
 
   useEffect(() => () => window.clearTimeout(clickTimer.current), []);
+
+  // While drawing: Escape takes back the last point (or leaves the tool), Enter ends a ridge.
+  useEffect(() => {
+    if (tool === "select") return;
+    const onKey = (e: globalThis.KeyboardEvent) => {
+      if (e.key === "Escape") {
+        e.preventDefault();
+        if (draft.length) {
+          setDraft([]);
+          announce(tool === "ridge" ? "Ridge drawing cancelled." : "Opening drawing cancelled.");
+        } else leaveTool();
+      } else if (e.key === "Enter" && tool === "ridge" && draft.length >= 2) {
+        e.preventDefault();
+        finishRidge(draft);
+      }
+    };
+    window.addEventListener("keydown", onKey);
+    return () => window.removeEventListener("keydown", onKey);
+  });
 
   const frame = usePlanFrame(spec.outline, underlay, dragging, fit);
   // The fitted frame grown to the element's shape (so the grid fills it), then zoomed.
@@ -108,7 +162,12 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
   const kinds = edgeKindsOf(spec);
   const n = spec.outline.length;
   const ccw = signedArea(spec.outline) > 0;
-  const snap = { grid: view.snapToGrid, step: view.gridStep, rightAngles: view.snapRightAngles, tolerance: 10 * px };
+  const snap: SnapOptions = {
+    grid: view.snapToGrid,
+    step: view.gridStep,
+    rightAngles: view.snapRightAngles,
+    tolerance: 10 * px,
+  };
 
   function toPlan(clientX: number, clientY: number): Point {
     const svg = svgRef.current!;
@@ -130,18 +189,37 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
     const near = (q: Point) => Math.hypot(q[0] - p[0], q[1] - p[1]) <= reach;
     return [
       ...s.outlets.flatMap((o, k) => (near(o.at) ? [{ kind: "outlet" as const, index: k }] : [])),
+      ...(s.ridges ?? []).flatMap((r, k) =>
+        r.line.flatMap((q, j) => (near(q) ? [{ kind: "ridge-point" as const, index: k, sub: j }] : [])),
+      ),
       ...s.outline.flatMap((q, i) => (near(q) ? [{ kind: "vertex" as const, index: i }] : [])),
     ];
+  }
+
+  /** Where a handle stands: the spot whose crowd of handles a tap offers to choose from. */
+  function anchorOf(target: Drag): Point | undefined {
+    const s = store.getState().spec;
+    if (target.kind === "outlet") return s.outlets[target.index]?.at;
+    if (target.kind === "vertex") return s.outline[target.index];
+    if (target.kind === "ridge-point") return s.ridges?.[target.index]?.line[target.sub];
+    return undefined;
+  }
+
+  function focusHandle(f: Focus) {
+    if (isOutlineHandle(f)) {
+      store.getState().select(f);
+      setActive(null);
+    } else {
+      store.getState().select(null);
+      setActive(handleId(f));
+    }
   }
 
   function startDrag(e: PointerEvent<SVGElement>, target: Drag) {
     e.stopPropagation();
     setChoice(null);
-    store.getState().select(target);
-    const at =
-      target.kind === "outlet"
-        ? store.getState().spec.outlets[target.index]?.at
-        : store.getState().spec.outline[target.index];
+    focusHandle(target.kind === "opening" ? { kind: "opening", index: target.index } : target);
+    const at = anchorOf(target);
     pressed.current = { x: e.clientX, y: e.clientY, moved: false, crowd: at ? handlesAt(at) : [] };
     if (readOnly || e.button !== 0) return;
     if (target.kind === "vertex" && outlineLocked) return;
@@ -160,24 +238,40 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
       press.moved = true;
     }
     const p = toPlan(e.clientX, e.clientY);
+    const gesture = { gesture: handleId(d) };
     if (d.kind === "vertex") {
-      store
-        .getState()
-        .edit((s) => moveVertex(s, d.index, snapVertex(p, s.outline, d.index, snap)), { gesture: `vertex-${d.index}` });
+      store.getState().edit((s) => moveVertex(s, d.index, snapVertex(p, s.outline, d.index, snap)), gesture);
+    } else if (d.kind === "outlet") {
+      store.getState().edit((s) => {
+        // The outlet follows the pointer along the nearest parapet edge, so it can turn a corner.
+        const edge = nearestParapetEdge(s.outline, edgeKindsOf(s), p);
+        if (edge < 0) return s;
+        const [a, b] = edgeEnds(s.outline, edge);
+        return placeOutlet(s, d.index, edge, snapOnSegment(p, a, b, snap).t);
+      }, gesture);
+    } else if (d.kind === "opening") {
+      const [dx, dy] = snapFree([p[0] - d.from[0], p[1] - d.from[1]], snap);
+      store.getState().edit((s) => placeOpening(s, d.index, d.outline, dx, dy), gesture);
+    } else if (d.kind === "opening-corner") {
+      store.getState().edit((s) => moveOpeningCorner(s, d.index, d.sub, snapFree(p, snap)), gesture);
     } else {
-      store.getState().edit(
-        (s) => {
-          // The outlet follows the pointer along the nearest parapet edge, so it can turn a corner.
-          const edge = nearestParapetEdge(s.outline, edgeKindsOf(s), p);
-          if (edge < 0) return s;
-          const [a, b] = edgeEnds(s.outline, edge);
-          const len = edgeLength(s.outline, edge);
-          const along = snapAlong(projectOnSegment(p, a, b).t * len, len, snap);
-          return placeOutlet(s, d.index, edge, len > 0 ? along / len : 0);
-        },
-        { gesture: `outlet-${d.index}` },
-      );
+      store.getState().edit((s) => setRidgePoint(s, d.index, d.sub, ridgePointAt(s, d.index, d.sub, p)), gesture);
     }
+  }
+
+  /**
+   * Where point `point` of ridge `index` lands when dropped at `p`: an end goes onto the wall, a
+   * corner or an earlier ridge within reach (as outlets ride on walls; a cricket's end onto an
+   * upstand too, docs/roof-method-plans.md P4, P5); a bend, or an end with no wall near, on the grid.
+   */
+  function ridgePointAt(s: RoofSpec, index: number, point: number, p: Point): Point {
+    const line = s.ridges?.[index]?.line;
+    const end = !line || point === 0 || point === line.length - 1;
+    if (end) {
+      const hit = snapOnWalls(p, ridgeWalls(s, index), HIT * px, snap);
+      if (hit) return hit.point;
+    }
+    return snapFree(p, snap);
   }
 
   function endDrag(e: PointerEvent<SVGElement>) {
@@ -204,6 +298,7 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
 
   function backgroundDown(e: PointerEvent<SVGSVGElement>) {
     store.getState().select(null);
+    setActive(null);
     setChoice(null);
     const g = gesture.current;
     g.pointers.set(e.pointerId, { x: e.clientX, y: e.clientY });
@@ -269,9 +364,8 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
       return;
     }
     const [a, b] = edgeEnds(s.outline, edge);
-    const len = edgeLength(s.outline, edge);
-    const along = snapAlong(projectOnSegment(p, a, b).t * len, len, snap);
-    store.getState().edit((x) => addOutlet(x, edge, len > 0 ? along / len : 0.5));
+    const { t } = snapOnSegment(p, a, b, snap);
+    store.getState().edit((x) => addOutlet(x, edge, t));
     const index = store.getState().spec.outlets.length - 1;
     store.getState().select({ kind: "outlet", index });
     announce(`Outlet O${index + 1} placed on edge ${edge + 1}.`);
@@ -296,11 +390,9 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
     const raw = toPlan(e.clientX, e.clientY);
     store.getState().edit((s) => {
       const [a, b] = edgeEnds(s.outline, edge);
-      const len = edgeLength(s.outline, edge);
-      const along = snapAlong(projectOnSegment(raw, a, b).t * len, len, snap);
-      const t = len > 0 ? along / len : 0.5;
+      const { t, point } = snapOnSegment(raw, a, b, snap);
       if (t <= 0 || t >= 1) return s;
-      return insertVertex(s, edge, [a[0] + t * (b[0] - a[0]), a[1] + t * (b[1] - a[1])]);
+      return insertVertex(s, edge, point);
     });
     store.getState().select({ kind: "vertex", index: edge + 1 });
     announce(`Vertex ${edge + 2} added on edge ${edge + 1}.`);
@@ -373,6 +465,179 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
       pendingFocus.current = { kind: "vertex", index: edge + 1 };
       announce(`Vertex ${edge + 2} added half-way along edge ${edge + 1}.`);
     }
+  }
+
+  function openingKey(e: KeyboardEvent<SVGElement>, i: number) {
+    if (readOnly) return;
+    const dir = ARROWS[e.key];
+    if (dir) {
+      e.preventDefault();
+      const step = keyStep(e);
+      store.getState().edit((s) => moveOpening(s, i, dir[0] * step, dir[1] * step), { gesture: `key-opening-${i}` });
+    } else if (e.key === "Delete" || e.key === "Backspace") {
+      e.preventDefault();
+      store.getState().edit((s) => deleteOpening(s, i));
+      setActive(null);
+      announce(`Opening ${i + 1} deleted.`);
+    }
+  }
+
+  function openingCornerKey(e: KeyboardEvent<SVGElement>, i: number, c: number) {
+    if (readOnly) return;
+    const dir = ARROWS[e.key];
+    if (!dir) return;
+    e.preventDefault();
+    const step = keyStep(e);
+    store.getState().edit(
+      (s) => {
+        const q = s.openings?.[i]?.outline[c];
+        return q ? moveOpeningCorner(s, i, c, [q[0] + dir[0] * step, q[1] + dir[1] * step]) : s;
+      },
+      { gesture: `key-opening-corner-${i}-${c}` },
+    );
+  }
+
+  function ridgePointKey(e: KeyboardEvent<SVGElement>, i: number, j: number) {
+    if (readOnly) return;
+    const line = store.getState().spec.ridges?.[i]?.line;
+    if (!line) return;
+    const end = j === 0 || j === line.length - 1;
+    const dir = ARROWS[e.key];
+    if (dir) {
+      e.preventDefault();
+      const step = keyStep(e);
+      store.getState().edit(
+        (s) => {
+          const q = s.ridges?.[i]?.line[j];
+          return q ? setRidgePoint(s, i, j, [q[0] + dir[0] * step, q[1] + dir[1] * step]) : s;
+        },
+        { gesture: `key-ridge-point-${i}-${j}` },
+      );
+    } else if (e.key === "Delete" || e.key === "Backspace") {
+      e.preventDefault();
+      // A ridge ends on walls: taking an end away would leave it hanging, so the whole ridge goes.
+      if (end || line.length <= 2) {
+        store.getState().edit((s) => deleteRidge(s, i));
+        setActive(null);
+        announce(`Ridge ${i + 1} deleted.`);
+      } else {
+        store.getState().edit((s) => deleteRidgePoint(s, i, j));
+        pendingFocus.current = { kind: "ridge-point", index: i, sub: j - 1 };
+        announce(`Bend ${j} of ridge ${i + 1} removed.`);
+      }
+    } else if (e.key === "Insert" || e.key === "+" || e.key === "=") {
+      e.preventDefault();
+      const piece = j === line.length - 1 ? j - 1 : j;
+      const [a, b] = [line[piece], line[piece + 1]];
+      store.getState().edit((s) => insertRidgePoint(s, i, piece, [(a[0] + b[0]) / 2, (a[1] + b[1]) / 2]));
+      pendingFocus.current = { kind: "ridge-point", index: i, sub: piece + 1 };
+      announce(`Bend added half-way along piece ${piece + 1} of ridge ${i + 1}.`);
+    }
+  }
+
+  function doubleClickRidge(e: React.MouseEvent<SVGElement>, i: number, piece: number) {
+    e.stopPropagation();
+    if (readOnly) return;
+    const p = snapFree(toPlan(e.clientX, e.clientY), snap);
+    store.getState().edit((s) => insertRidgePoint(s, i, piece, p));
+    pendingFocus.current = { kind: "ridge-point", index: i, sub: piece + 1 };
+    announce(`Bend added to ridge ${i + 1}: drag it to shape the ridge.`);
+  }
+
+  // ── drawing a new ridge or opening (a tap or click per point; the mouse may drag an opening out) ──
+  function chooseTool(next: Tool) {
+    setDraft([]);
+    setHover(null);
+    setChoice(null);
+    setTool((t) => (t === next ? "select" : next));
+    if (next === "ridge" && tool !== "ridge")
+      announce("Drawing a ridge: click or tap a wall to start it, then each bend, and end it on a wall. Esc stops.");
+    if (next === "opening" && tool !== "opening")
+      announce("Drawing an opening: drag from one corner to the other, or tap both corners. Esc stops.");
+  }
+
+  function leaveTool() {
+    setTool("select");
+    setDraft([]);
+    setHover(null);
+  }
+
+  /** Where the drawing's next point lands: a ridge's end on a wall within reach, else the grid. */
+  function drawPoint(p: Point): { point: Point; onWall: boolean } {
+    const s = store.getState().spec;
+    if (tool === "ridge") {
+      const hit = snapOnWalls(p, ridgeWalls(s, s.ridges?.length ?? 0), HIT * px, snap);
+      if (hit) return { point: hit.point, onWall: true };
+    }
+    return { point: snapFree(p, snap), onWall: false };
+  }
+
+  function finishRidge(points: Point[]) {
+    const before = store.getState().spec.ridges?.length ?? 0;
+    store.getState().edit((s) => addRidge(s, { line: points }));
+    leaveTool();
+    if ((store.getState().spec.ridges?.length ?? 0) === before) return announce("No room for another ridge.");
+    const from = points[0];
+    const to = points[points.length - 1];
+    announce(
+      `Ridge ${before + 1} drawn from x ${len_(from[0])}, y ${len_(from[1])} to x ${len_(to[0])}, y ${len_(to[1])}. Each area it leaves needs an outlet or an eaves edge.`,
+    );
+  }
+
+  function finishOpening(a: Point, b: Point) {
+    const before = store.getState().spec;
+    const next = addOpeningRect(before, a, b);
+    if (next === before) {
+      setDraft([]);
+      return announce("Too small for an opening: drag out a rectangle at least 50 mm each way.");
+    }
+    store.getState().edit(() => next);
+    leaveTool();
+    const k = next.openings!.length;
+    announce(
+      `Opening ${k} (rooflight, ${len_(Math.abs(b[0] - a[0]))} × ${len_(Math.abs(b[1] - a[1]))}) drawn: set its kind and upstand in the Openings list.`,
+    );
+  }
+
+  function drawDown(e: PointerEvent<SVGRectElement>) {
+    e.stopPropagation();
+    if (e.button !== 0) return;
+    e.currentTarget.setPointerCapture(e.pointerId);
+    toolPress.current = { x: e.clientX, y: e.clientY, at: drawPoint(toPlan(e.clientX, e.clientY)).point };
+  }
+
+  function drawMove(e: PointerEvent<SVGRectElement>) {
+    e.stopPropagation();
+    setHover(drawPoint(toPlan(e.clientX, e.clientY)).point);
+  }
+
+  function drawUp(e: PointerEvent<SVGRectElement>) {
+    e.stopPropagation();
+    const press = toolPress.current;
+    toolPress.current = null;
+    if (!press) return;
+    if (e.currentTarget.hasPointerCapture(e.pointerId)) e.currentTarget.releasePointerCapture(e.pointerId);
+    const dragged = Math.hypot(e.clientX - press.x, e.clientY - press.y) >= 6;
+    const { point, onWall } = drawPoint(toPlan(e.clientX, e.clientY));
+    if (tool === "opening") {
+      if (draft.length) return finishOpening(draft[0], point);
+      if (dragged) return finishOpening(press.at, point);
+      setDraft([press.at]);
+      return announce(`First corner at x ${len_(press.at[0])}, y ${len_(press.at[1])}: now the opposite corner.`);
+    }
+    if (dragged) return;
+    if (draft.length === 0) {
+      if (!onWall) return announce("A ridge starts on a wall: click or tap on or near one.");
+      setDraft([point]);
+      return announce(
+        `Ridge started at x ${len_(point[0])}, y ${len_(point[1])}: now each bend, and end it on a wall.`,
+      );
+    }
+    const last = draft[draft.length - 1];
+    if (Math.hypot(point[0] - last[0], point[1] - last[1]) < 1e-9) return;
+    if (onWall) return finishRidge([...draft, point]);
+    setDraft([...draft, point]);
+    announce(`Bend ${draft.length} at x ${len_(point[0])}, y ${len_(point[1])}.`);
   }
 
   const keyUp = () => store.getState().endGesture();
@@ -555,6 +820,25 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
             </g>
           );
         })}
+        {!readOnly && (
+          <PlanFeatures
+            spec={spec}
+            px={px}
+            active={active}
+            label={len_}
+            onStart={startDrag}
+            onMove={moveDrag}
+            onEnd={endDrag}
+            onFocus={focusHandle}
+            onOpeningKey={openingKey}
+            onCornerKey={openingCornerKey}
+            onRidgePointKey={ridgePointKey}
+            onRidgeDoubleClick={doubleClickRidge}
+            onKeyUp={keyUp}
+            toPlan={toPlan}
+            helpId={helpId}
+          />
+        )}
         {/* Outlets are drawn last, over corners: where the two overlap, the outlet is what a drag takes. */}
         {spec.outlets.map((o, k) => {
           const [x, y] = sp(o.at);
@@ -602,13 +886,67 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
             </g>
           );
         })}
+        {tool !== "select" && (
+          <>
+            <DrawPreview tool={tool} draft={draft} hover={hover} px={px} />
+            <rect
+              x={box.x}
+              y={box.y}
+              width={box.w}
+              height={box.h}
+              fill="transparent"
+              className="cursor-crosshair"
+              onPointerDown={drawDown}
+              onPointerMove={drawMove}
+              onPointerUp={drawUp}
+              onPointerCancel={() => (toolPress.current = null)}
+              data-testid="plan-draw-surface"
+            />
+          </>
+        )}
       </svg>
-      <div className="mt-1 flex items-center justify-between gap-2">
+      {tool !== "select" && (
+        <p className="mt-1 rounded border border-accent bg-paper px-2 py-1 text-sm" data-testid="plan-tool-hint">
+          {tool === "ridge"
+            ? draft.length === 0
+              ? "Drawing a ridge: click or tap a wall where it starts."
+              : `Ridge: ${draft.length} point${draft.length > 1 ? "s" : ""}. Click or tap each bend, and a wall to end it${draft.length >= 2 ? " (Enter ends it here)" : ""}.`
+            : draft.length === 0
+              ? "Drawing an opening: drag from one corner to the opposite one, or tap both."
+              : "Opening: now click or tap the opposite corner."}{" "}
+          Esc stops.
+        </p>
+      )}
+      <div className="mt-1 flex flex-wrap items-center justify-between gap-2">
         <div className="min-w-0 truncate text-[11px] tabular-nums text-ink-soft" aria-hidden="true">
           {cursor
             ? `x ${len_(cursor[0])} · y ${len_(cursor[1])}`
             : `grid ${view.gridStep >= 1 ? len_(view.gridStep) : level_(view.gridStep)}`}
         </div>
+        {!readOnly && (
+          <div className="flex shrink-0 gap-1" role="group" aria-label="Draw on the plan">
+            <button
+              type="button"
+              className={`btn px-2 py-0.5 text-xs ${tool === "ridge" ? "bg-accent text-sheet" : ""}`}
+              aria-pressed={tool === "ridge"}
+              title="Draw a ridge: from a wall, through its bends, to a wall"
+              onClick={() => chooseTool("ridge")}
+              data-testid="draw-ridge"
+            >
+              <Spline size={14} aria-hidden="true" /> Ridge
+            </button>
+            <button
+              type="button"
+              className={`btn px-2 py-0.5 text-xs ${tool === "opening" ? "bg-accent text-sheet" : ""}`}
+              aria-pressed={tool === "opening"}
+              title="Draw an opening (rooflight, hatch, plant base): drag or tap two corners"
+              onClick={() => chooseTool("opening")}
+              data-testid="draw-opening"
+            >
+              <SquareDashed size={14} aria-hidden="true" /> Opening
+            </button>
+          </div>
+        )}
         <div className="flex shrink-0 gap-1" role="group" aria-label="Plan zoom">
           <button
             type="button"
@@ -656,17 +994,21 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
         >
           {choice.items.map((h) => {
             const locked = (h.kind === "vertex" && outlineLocked) || (h.kind === "outlet" && outletsLocked);
-            const label = `${h.kind === "outlet" ? "Outlet" : "Corner"} ${h.index + 1}${locked ? " (fixed by this task)" : ""}`;
+            const name =
+              h.kind === "ridge-point"
+                ? `Ridge ${h.index + 1} point ${(h.sub ?? 0) + 1}`
+                : `${h.kind === "outlet" ? "Outlet" : "Corner"} ${h.index + 1}`;
+            const label = `${name}${locked ? " (fixed by this task)" : ""}`;
             return (
               <button
-                key={`${h.kind}-${h.index}`}
+                key={handleId(h)}
                 type="button"
                 role="menuitem"
                 className="btn justify-start px-2 py-0.5 text-left text-xs"
                 onClick={() => {
                   setChoice(null);
-                  store.getState().select(h.kind === "edge" ? null : h);
-                  svgRef.current?.querySelector<SVGElement>(`[data-handle="${h.kind}-${h.index}"]`)?.focus();
+                  focusHandle(h);
+                  svgRef.current?.querySelector<SVGElement>(`[data-handle="${handleId(h)}"]`)?.focus();
                 }}
               >
                 {label}
@@ -697,6 +1039,21 @@ const LOCK_WORDS: Record<string, string> = {
   joists: "the joists",
   highLevel: "the high level",
 };
+
+/**
+ * What a ridge's end may land on (docs/roof-method-plans.md P4, P5): the walls, every dividing
+ * ridge drawn before it, and for a cricket the upstands too.
+ */
+function ridgeWalls(s: RoofSpec, index: number): [Point, Point][] {
+  const ring = (pts: Point[]) => pts.map((a, k) => [a, pts[(k + 1) % pts.length]] as [Point, Point]);
+  const walls = ring(s.outline);
+  (s.ridges ?? []).forEach((r, k) => {
+    if (k >= index || r.kind === "cricket") return;
+    for (let j = 0; j + 1 < r.line.length; j++) walls.push([r.line[j], r.line[j + 1]]);
+  });
+  if (s.ridges?.[index]?.kind === "cricket") for (const o of s.openings ?? []) walls.push(...ring(o.outline));
+  return walls;
+}
 
 function nearestParapetEdge(outline: Point[], kinds: string[], p: Point): number {
   let best = -1;

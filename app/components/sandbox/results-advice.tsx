@@ -1,7 +1,7 @@
 import type { Analysis } from "~/engine";
 import { FallRatio } from "./fall-ratio";
 import { formatRatio, useFormat } from "./format";
-import { addOutletAt, setJoistDirection } from "./spec-edit";
+import { addOutletAt, setAreaJoistDirection, setJoistDirection } from "./spec-edit";
 import { ResultsSection } from "./results-section";
 import { useSandbox, useSandboxStore } from "./store";
 
@@ -86,13 +86,19 @@ export function Advice({ analysis }: { analysis: Analysis }) {
             )}
           </li>
         )}
-        {analysis.advice.joistDirections.length > 1 && <JoistDirections analysis={analysis} readOnly={readOnly} />}
+        {analysis.shaped.areas.length > 1 ? (
+          <AreaJoistDirections analysis={analysis} readOnly={readOnly} />
+        ) : (
+          analysis.advice.joistDirections.length > 1 && <JoistDirections analysis={analysis} readOnly={readOnly} />
+        )}
       </ul>
     </ResultsSection>
   );
 }
 
 const angleOf = (d: [number, number]) => `${(((Math.atan2(d[1], d[0]) * 180) / Math.PI + 360) % 360).toFixed(0)}°`;
+
+type Option = Analysis["advice"]["joistDirections"][number];
 
 /** Each candidate joist direction side by side, the best flagged, with a one-click apply. */
 function JoistDirections({ analysis, readOnly }: { analysis: Analysis; readOnly: boolean }) {
@@ -102,32 +108,7 @@ function JoistDirections({ analysis, readOnly }: { analysis: Analysis; readOnly:
   return (
     <li data-testid="joist-directions">
       <p>Joist direction: the figures each candidate gives (from an outlet edge or eaves edge, and the current one).</p>
-      <table className="mt-1 w-full text-left text-xs">
-        <thead>
-          <tr>
-            <th scope="col">Direction</th>
-            <th scope="col">High level</th>
-            <th scope="col">Longest fall line</th>
-            <th scope="col">Flattest fall line</th>
-            <th scope="col">Flatter than minimum</th>
-          </tr>
-        </thead>
-        <tbody>
-          {options.map((o, i) => (
-            <tr key={i} className={o.best ? "font-bold" : undefined}>
-              <td>
-                {angleOf(o.direction)}
-                {o.current ? " (current)" : ""}
-                {o.best ? " best" : ""}
-              </td>
-              <td>{Math.round(o.highLevel * 1000)} mm</td>
-              <td>{o.longestFallRatio != null ? <FallRatio ratio={o.longestFallRatio} /> : "none"}</td>
-              <td>{o.worstFallRatio != null ? <FallRatio ratio={o.worstFallRatio} /> : "none"}</td>
-              <td>{o.flatterThanMinimumArea.toFixed(1)} m²</td>
-            </tr>
-          ))}
-        </tbody>
-      </table>
+      <DirectionTable options={options} />
       {!readOnly && best && !best.current && (
         <button
           type="button"
@@ -142,5 +123,89 @@ function JoistDirections({ analysis, readOnly }: { analysis: Analysis; readOnly:
         </button>
       )}
     </li>
+  );
+}
+
+/**
+ * A roof divided by ridges: each drainage area's candidates (docs/roof-method-plans.md P8), each
+ * worked up to the high level the whole roof would then need, and its best applied to that area
+ * alone (an entry in the roof's area settings).
+ */
+function AreaJoistDirections({ analysis, readOnly }: { analysis: Analysis; readOnly: boolean }) {
+  const store = useSandboxStore();
+  const all = analysis.advice.joistDirections;
+  return (
+    <li data-testid="joist-directions">
+      <p>
+        Joist direction, area by area: the figures each candidate gives (from an outlet edge or eaves edge of the area,
+        and its current one), with the high level the whole roof would then stand at.
+      </p>
+      {analysis.shaped.areas.map((area, k) => {
+        const options = all.filter((o) => o.area === area.id);
+        const best = options.find((o) => o.best);
+        const name = `Area ${k + 1}`;
+        const drains = area.outlets.length ? ` (outlet ${area.outlets.map((o) => `O${o + 1}`).join(", ")})` : "";
+        return (
+          <div key={area.id} className="mt-2" data-testid={`joist-directions-area-${k}`}>
+            <p className="font-bold">
+              {name}
+              {drains}
+            </p>
+            {options.length > 1 ? (
+              <DirectionTable options={options} />
+            ) : (
+              <p>
+                Only its current direction, {angleOf(area.joistDirection)}: no other wall of this area holds an outlet
+                or is eaves.
+              </p>
+            )}
+            {!readOnly && best && !best.current && (
+              <button
+                type="button"
+                className="btn mt-1"
+                data-testid={`apply-joist-direction-area-${k}`}
+                onClick={() => {
+                  store.getState().edit((s) => setAreaJoistDirection(s, area, best.direction));
+                  store.getState().setNotice(`${name}: joists turned to ${angleOf(best.direction)}.`);
+                }}
+              >
+                Turn {name.toLowerCase()}&apos;s joists to {angleOf(best.direction)}
+              </button>
+            )}
+          </div>
+        );
+      })}
+    </li>
+  );
+}
+
+function DirectionTable({ options }: { options: Option[] }) {
+  return (
+    <table className="mt-1 w-full text-left text-xs">
+      <thead>
+        <tr>
+          <th scope="col">Direction</th>
+          <th scope="col">High level</th>
+          <th scope="col">Longest fall line</th>
+          <th scope="col">Flattest fall line</th>
+          <th scope="col">Flatter than minimum</th>
+        </tr>
+      </thead>
+      <tbody>
+        {options.map((o, i) => (
+          <tr key={i} className={o.best ? "font-bold" : undefined}>
+            <td>
+              {angleOf(o.direction)}
+              {o.current ? " (current)" : ""}
+              {o.best ? " best" : ""}
+            </td>
+            <td>{Math.round(o.highLevel * 1000)} mm</td>
+            <td>{o.longestFallRatio != null ? <FallRatio ratio={o.longestFallRatio} /> : "none"}</td>
+            <td>{o.worstFallRatio != null ? <FallRatio ratio={o.worstFallRatio} /> : "none"}</td>
+            <td>{o.flatterThanMinimumArea.toFixed(1)} m²</td>
+          </tr>
+        ))}
+      </tbody>
+    </table>
   );
 }

@@ -1,4 +1,5 @@
 import type { Point } from "~/engine";
+import { projectOnSegment } from "./spec-edit";
 
 export interface SnapOptions {
   grid: boolean;
@@ -84,4 +85,61 @@ export function snapAlong(distance: number, length: number, options: Pick<SnapOp
   if (!options.grid) return distance;
   const snapped = snapValue(distance, options.step);
   return Math.min(length, Math.max(0, snapped));
+}
+
+/**
+ * The point of segment ab nearest to `p`, its distance along ab snapped to the grid step: the one
+ * rule for everything that rides on a wall (outlets dragged or placed, corners added on an edge,
+ * ridge ends set on a wall). `t` is its fraction along ab (0..1).
+ */
+export function snapOnSegment(
+  p: Point,
+  a: Point,
+  b: Point,
+  options: Pick<SnapOptions, "grid" | "step">,
+): { t: number; point: Point } {
+  const len = Math.hypot(b[0] - a[0], b[1] - a[1]);
+  const along = snapAlong(projectOnSegment(p, a, b).t * len, len, options);
+  const t = len > 0 ? along / len : 0.5;
+  return { t, point: [a[0] + t * (b[0] - a[0]), a[1] + t * (b[1] - a[1])] };
+}
+
+/**
+ * Where a point dropped near walls lands: on the nearest of `segments` when it is within `reach`
+ * metres (on a corner, a segment's end, when that is within half the reach), else null.
+ */
+export function snapOnWalls(
+  p: Point,
+  segments: [Point, Point][],
+  reach: number,
+  options: Pick<SnapOptions, "grid" | "step">,
+): { point: Point; segment: number } | null {
+  let best = -1;
+  let bestDistance = Infinity;
+  segments.forEach(([a, b], k) => {
+    const { distance } = projectOnSegment(p, a, b);
+    if (distance < bestDistance) {
+      bestDistance = distance;
+      best = k;
+    }
+  });
+  if (best < 0 || bestDistance > reach) return null;
+  let corner: Point | null = null;
+  let cornerDistance = reach / 2;
+  for (const [a, b] of segments)
+    for (const q of [a, b]) {
+      const d = Math.hypot(q[0] - p[0], q[1] - p[1]);
+      if (d <= cornerDistance) {
+        cornerDistance = d;
+        corner = q;
+      }
+    }
+  if (corner) return { point: [corner[0], corner[1]], segment: best };
+  const [a, b] = segments[best];
+  return { point: snapOnSegment(p, a, b, options).point, segment: best };
+}
+
+/** A free point (a ridge's bend, an opening's corner) on the grid when the grid snaps. */
+export function snapFree(p: Point, options: Pick<SnapOptions, "grid" | "step">): Point {
+  return options.grid ? [snapValue(p[0], options.step), snapValue(p[1], options.step)] : p;
 }

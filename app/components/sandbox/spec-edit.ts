@@ -163,6 +163,38 @@ export function setJoistDirection(spec: RoofSpec, direction: Point): RoofSpec {
   return { ...spec, joists: { ...spec.joists, direction: d } };
 }
 
+/**
+ * Turns the joists of one drainage area (docs/roof-method-plans.md P4, P8): the `areas` entry whose
+ * point lies inside the area's outline gets the direction, or a new entry at `at` (a point inside
+ * the area, as the analysis gives it) is added. Other areas keep theirs.
+ */
+export function setAreaJoistDirection(
+  spec: RoofSpec,
+  area: { at: Point; outline: Point[] },
+  direction: Point,
+): RoofSpec {
+  const d: Point = [Number(direction[0].toFixed(9)) + 0, Number(direction[1].toFixed(9)) + 0];
+  const areas = spec.areas ?? [];
+  const k = areas.findIndex((e) => insidePolygon(e.at, area.outline));
+  if (k >= 0)
+    return {
+      ...spec,
+      areas: areas.map((e, j) => (j === k ? { ...e, joists: { ...e.joists, direction: d } } : e)),
+    };
+  return { ...spec, areas: [...areas, { at: roundPoint(area.at), joists: { direction: d } }] };
+}
+
+/** Whether p lies inside the polygon (even-odd rule; a point on the boundary may go either way). */
+function insidePolygon(p: Point, poly: Point[]): boolean {
+  let inside = false;
+  for (let i = 0, j = poly.length - 1; i < poly.length; j = i++) {
+    const [xi, yi] = poly[i];
+    const [xj, yj] = poly[j];
+    if (yi > p[1] !== yj > p[1] && p[0] < ((xj - xi) * (p[1] - yi)) / (yj - yi) + xi) inside = !inside;
+  }
+  return inside;
+}
+
 type Opening = NonNullable<RoofSpec["openings"]>[number];
 
 /** A square opening of side `size` centred at `centre` (docs/roof-method-plans.md P2); at most 50. */
@@ -178,6 +210,58 @@ export function addOpening(spec: RoofSpec, centre: Point, size = 1, kind: Openin
     roundPoint([cx - h, cy + h]),
   ];
   return { ...spec, openings: [...openings, { outline, kind }] };
+}
+
+/** An opening drawn by two opposite corners (docs/roof-method-plans.md P2); null when it has no width or depth. */
+export function addOpeningRect(spec: RoofSpec, a: Point, b: Point, kind: Opening["kind"] = "rooflight"): RoofSpec {
+  const openings = spec.openings ?? [];
+  const [x0, x1] = [Math.min(a[0], b[0]), Math.max(a[0], b[0])];
+  const [y0, y1] = [Math.min(a[1], b[1]), Math.max(a[1], b[1])];
+  if (openings.length >= 50 || x1 - x0 < MIN_OPENING || y1 - y0 < MIN_OPENING) return spec;
+  const outline: Point[] = [roundPoint([x0, y0]), roundPoint([x1, y0]), roundPoint([x1, y1]), roundPoint([x0, y1])];
+  return { ...spec, openings: [...openings, { outline, kind }] };
+}
+
+/** The smallest side an opening drawn or resized on the plan keeps, metres. */
+export const MIN_OPENING = 0.05;
+
+/** Opening `index` put back at `outline` moved by (dx, dy): a drag moves the shape it started from. */
+export function placeOpening(spec: RoofSpec, index: number, outline: Point[], dx: number, dy: number): RoofSpec {
+  if (!spec.openings?.[index]) return spec;
+  return setOpening(spec, index, { outline: outline.map((p) => roundPoint([p[0] + dx, p[1] + dy])) });
+}
+
+/**
+ * Moves corner `corner` of opening `index` to `to`. A rectangle with sides along the plan axes
+ * stays one (its two neighbouring corners follow, the opposite one stays), and is never made
+ * narrower than MIN_OPENING; any other shape moves that corner alone.
+ */
+export function moveOpeningCorner(spec: RoofSpec, index: number, corner: number, to: Point): RoofSpec {
+  const o = spec.openings?.[index];
+  if (!o || !o.outline[corner]) return spec;
+  const pts = o.outline.map((p) => [p[0], p[1]] as Point);
+  const n = pts.length;
+  if (n === 4 && isAxisRectangle(pts)) {
+    const opposite = pts[(corner + 2) % 4];
+    if (Math.abs(to[0] - opposite[0]) < MIN_OPENING || Math.abs(to[1] - opposite[1]) < MIN_OPENING) return spec;
+    for (const k of [(corner + 1) % 4, (corner + 3) % 4]) {
+      // The side from this corner to k is horizontal (same y) or vertical (same x): k keeps it so.
+      if (pts[k][1] === pts[corner][1]) pts[k] = [pts[k][0], to[1]];
+      else pts[k] = [to[0], pts[k][1]];
+    }
+  }
+  pts[corner] = to;
+  return setOpening(spec, index, { outline: pts.map(roundPoint) });
+}
+
+function isAxisRectangle(p: Point[]): boolean {
+  const sides = [0, 1, 2, 3].map((k) => [p[k], p[(k + 1) % 4]] as const);
+  const horizontal = sides.map(([a, b]) => a[1] === b[1] && a[0] !== b[0]);
+  const vertical = sides.map(([a, b]) => a[0] === b[0] && a[1] !== b[1]);
+  return (
+    (horizontal[0] && vertical[1] && horizontal[2] && vertical[3]) ||
+    (vertical[0] && horizontal[1] && vertical[2] && horizontal[3])
+  );
 }
 
 /** Moves opening `index` by (dx, dy) metres. */
@@ -258,6 +342,14 @@ export function addRidgePoint(spec: RoofSpec, index: number): RoofSpec {
       return { ...r, line: [...r.line.slice(0, -1), mid, b] };
     }),
   };
+}
+
+/** Inserts a bend at `at` in piece `piece` of ridge `index` (between its points piece and piece + 1). */
+export function insertRidgePoint(spec: RoofSpec, index: number, piece: number, at: Point): RoofSpec {
+  const r = spec.ridges?.[index];
+  if (!r || piece < 0 || piece >= r.line.length - 1 || r.line.length >= 50) return spec;
+  const line = [...r.line.slice(0, piece + 1), roundPoint(at), ...r.line.slice(piece + 1)];
+  return { ...spec, ridges: spec.ridges!.map((x, k) => (k === index ? { ...x, line } : x)) };
 }
 
 export function deleteRidgePoint(spec: RoofSpec, index: number, point: number): RoofSpec {

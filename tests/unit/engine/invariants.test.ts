@@ -317,11 +317,9 @@ describe("invariants on random valid roofs", () => {
         num(-500, 500),
         num(-500, 500),
         ({ spec: drawn }, angle, tx, ty) => {
-          // KNOWN FAULT, open (issue 14): with openings the engine's water routing is not yet
-          // invariant. An opening right in front of an outlet, or two openings almost touching, move
-          // catchments by metres² after a shift of 1e-16 m or a pure translation. Until that is
-          // fixed this property is checked on the same roofs without their openings.
-          const spec: RoofSpec = { ...drawn, openings: undefined };
+          // Openings included: their sides along the joists are one mesh line however the roof is
+          // turned (prepare.ts, frameHoles; the case found is kept in rigid-motion.test.ts).
+          const spec: RoofSpec = drawn;
           const a = run(spec, false);
           const b = run(moved(spec, angle, tx, ty), false);
           const near = (x: number | null | undefined, y: number | null | undefined, tol = 1e-7) => {
@@ -620,8 +618,7 @@ describe("invariants on random roofs divided by ridges", () => {
   it("results are unchanged by moving and turning the whole spec", () => {
     fc.assert(
       fc.property(dividedCase, num(-Math.PI, Math.PI), num(-500, 500), num(-500, 500), (drawn, angle, tx, ty) => {
-        // The known fault above: checked without the openings.
-        const spec: RoofSpec = { ...drawn, openings: undefined };
+        const spec: RoofSpec = drawn;
         const a = run(spec, false);
         const b = run(moved(spec, angle, tx, ty), false);
         const near = (x: number | null | undefined, y: number | null | undefined, tol = 1e-7) => {

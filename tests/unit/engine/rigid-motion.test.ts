@@ -25,6 +25,7 @@ function moved(spec: RoofSpec, angle: number, tx: number, ty: number): RoofSpec 
     outline: spec.outline.map(at),
     outlets: spec.outlets.map((o) => ({ ...o, at: at(o.at) })),
   };
+  if (spec.openings) out.openings = spec.openings.map((o) => ({ ...o, outline: o.outline.map(at) }));
   // A direction turns but does not shift.
   if (spec.joists?.direction) out.joists = { ...spec.joists, direction: place(spec.joists.direction, angle, 0, 0) };
   return out;
@@ -136,6 +137,61 @@ describe("a start on a water divide takes the nearest drain its neighbourhood re
       // Convex again: √((3.739065 + 1.218702)² + (0.214207 − 4.284148)²) = √(24.57944 + 16.56442) = 6.414348 m.
       close(l.length, Math.hypot(3.7390649136813923 + 1.218701726372152, 0.21420739523898502 - 4.2841479047797), 1e-9);
       expect(l.drain).toBe("outlet-1");
+    });
+  }
+});
+
+describe("an opening right in front of an outlet (docs/roof-method-plans.md P2, P3)", () => {
+  // Rectangle 10 m × 8 m, outlet at (5, 0) in the middle of the south wall, base fall 1:40; the
+  // joists run along y, toward the outlet's wall. A 1 m rooflight sits on the outlet's joist line,
+  // from (4.5, 0.5) to (5.5, 1.5). Its west and east sides run along the joists: each must stay
+  // one mesh line after a move. (Before they were made exactly one, a turn of 1e-16 rad split
+  // each into two lines a rounding apart, and the held water's catchment went from 56.7 m² to
+  // 5.8 m².)
+  const spec: RoofSpec = {
+    outline: [
+      [0, 0],
+      [10, 0],
+      [10, 8],
+      [0, 8],
+    ],
+    outlets: [{ at: [5, 0] }],
+    baseFall: "1:40",
+    openings: [
+      {
+        outline: [
+          [4.5, 0.5],
+          [5.5, 0.5],
+          [5.5, 1.5],
+          [4.5, 1.5],
+        ],
+      },
+    ],
+  };
+  const given = analyseSpec(spec);
+  const heldArea = (a: Analysis) => a.warnings.find((w) => w.code === "water-held-behind-upstand")?.area ?? 0;
+
+  for (const [name, angle, tx, ty] of [...MOVES, ["shifted by (100, 50)", 0, 100, 50] as const]) {
+    it(`${name}: water is held at (5, 1.5), 37.5 mm up, draining the same area`, () => {
+      const a = analyseSpec(moved(spec, angle, tx, ty));
+      // H: the outlet's joist spans the 8 m from the outlet to the north wall, 8/40 = 0.2 m (§3).
+      close(a.shaped.highLevel, 0.2, 1e-9);
+      // On that joist line the chord rises from the outlet at 0 to H at y = 8, so the upstand's
+      // high side, y = 1.5, is lowest where the line meets it: 0.2 × 1.5 / 8 = 0.0375 m (P3).
+      const held = a.warnings.find((w) => w.code === "water-held-behind-upstand");
+      expect(held, "water held behind the upstand").toBeDefined();
+      const at = place([5, 1.5], angle, tx, ty);
+      close(held!.at![0], at[0], 1e-6);
+      close(held!.at![1], at[1], 1e-6);
+      expect(a.shaped.ponding).toHaveLength(1);
+      close(a.shaped.ponding[0].level, 0.0375, 1e-9);
+      // The held area is found on the mesh (to within its cells): the same under every move, up to
+      // a few cells (0.4 m × 0.4 m each); a rounding-only move changes nothing.
+      const tolerance = angle === 0 || Math.abs(angle) < 1e-15 ? 1e-6 : 0.5;
+      expect(Math.abs(heldArea(a) - heldArea(given))).toBeLessThanOrEqual(tolerance);
+      // Everything else reaches the outlet: 80 − 1 (the opening) − held.
+      const outlet = a.shaped.catchments.find((c) => c.drain === "outlet-0")!;
+      close(outlet.area + heldArea(a), 79, 1e-6);
     });
   }
 });
