@@ -13,7 +13,7 @@ import { Caution } from "~/components/caution";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
 import { CheckPlan, DeviationKey } from "~/components/as-built/check-plan";
 import { draftKey } from "~/components/as-built/measured-form";
-import { FallLegend } from "~/components/sandbox/fall-legend";
+import { FallLegend } from "~/components/sandbox/results/fall-legend";
 
 export const meta: Route.MetaFunction = ({ data }) => [
   { title: `${data?.roof.name ?? "Roof"} · as-built check ${data?.check.measuredOn ?? ""} · Fallwright` },

@@ -7,7 +7,7 @@ import { requirePermission } from "~/lib/auth.server";
 import { getRoofFor } from "~/lib/roofs.server";
 import { CheckSheet } from "~/components/pack/check-sheet";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
-import { runAnalysis } from "~/components/sandbox/run-analysis";
+import { runAnalysis } from "~/components/sandbox/engine-bridge/run-analysis";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.name ?? "Roof"} · check sheet · Fallwright` }];
 

@@ -4,10 +4,10 @@ import type { Route } from "./+types/sandbox.sheet";
 import { parseSpec, type RoofSpec } from "~/engine";
 import { CheckSheet } from "~/components/pack/check-sheet";
 import { ROOF_NAME_MAX } from "~/lib/roof-file";
-import { readLinkedSpec } from "~/components/sandbox/linked-spec.server";
+import { readLinkedSpec } from "~/lib/linked-spec.server";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
-import { runAnalysis } from "~/components/sandbox/run-analysis";
-import { SHEET_SESSION_KEY } from "~/components/sandbox/sheet-link";
+import { runAnalysis } from "~/components/sandbox/engine-bridge/run-analysis";
+import { SHEET_SESSION_KEY } from "~/lib/sheet-link";
 
 export const meta: Route.MetaFunction = ({ data }) => [
   { title: `${data?.name ?? "Check sheet"} · check sheet · Fallwright` },

@@ -24,9 +24,9 @@
 import { data, useRouteLoaderData } from "react-router";
 import type { Route } from "./+types/sandbox";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
-import { DEMO_ROOF } from "~/components/sandbox/demo-roof";
-import { readLinkedSpec } from "~/components/sandbox/linked-spec.server";
-import { ResetRoofButton } from "~/components/sandbox/reset-roof-button";
+import { DEMO_ROOF } from "~/components/sandbox/state/demo-roof";
+import { readLinkedSpec } from "~/lib/linked-spec.server";
+import { ResetRoofButton } from "~/components/sandbox/inputs/reset-roof-button";
 import { SandboxWorkspace } from "~/components/sandbox/workspace";
 import { SaveToLibrary } from "~/components/roofs/save-to-library";
 import { can } from "~/lib/permissions";

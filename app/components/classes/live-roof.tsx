@@ -5,9 +5,9 @@
 import { memo, useEffect, useMemo, useState } from "react";
 import { createStore, type StoreApi } from "zustand/vanilla";
 import type { RoofSpec } from "~/engine";
-import { isSuperseded } from "~/components/sandbox/engine-server";
-import { encodeSpec } from "~/components/sandbox/sheet-link";
-import { useSandboxStore } from "~/components/sandbox/store";
+import { isSuperseded } from "~/components/sandbox/engine-bridge/engine-server";
+import { encodeSpec } from "~/lib/sheet-link";
+import { useSandboxStore } from "~/components/sandbox/state/store";
 import { SandboxWorkspace } from "~/components/sandbox/workspace";
 
 export interface LiveRoofProps {

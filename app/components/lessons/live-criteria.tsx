@@ -3,7 +3,7 @@ import type { RoofSpec } from "~/engine";
 import { checkCriterion } from "~/lib/lessons/criteria";
 import { changedFixedKeys } from "~/lib/lessons/fixed-parts";
 import type { RoofTaskView } from "~/lib/lessons/types";
-import { useSandbox } from "~/components/sandbox/store";
+import { useSandbox } from "~/components/sandbox/state/store";
 
 type TaskView = RoofTaskView;
 

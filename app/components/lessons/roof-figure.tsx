@@ -1,7 +1,7 @@
 import { useId, useState } from "react";
 import { Box } from "lucide-react";
 import type { FigureData } from "~/lib/lessons/types";
-import { FallLegend } from "~/components/sandbox/fall-legend";
+import { FallLegend } from "~/components/sandbox/results/fall-legend";
 import { useFormat } from "~/components/sandbox/format";
 import { SandboxWorkspace } from "~/components/sandbox/workspace";
 

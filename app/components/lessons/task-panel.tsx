@@ -1,12 +1,12 @@
 import { useMemo } from "react";
 import { RotateCcw } from "lucide-react";
 import { changedFixedKeys } from "~/lib/lessons/fixed-parts";
-import type { Locks } from "~/components/sandbox/store";
+import type { Locks } from "~/components/sandbox/state/store";
 import { LiveCriteria } from "./live-criteria";
 import type { RoofSpec } from "~/engine";
 import type { ItemResult } from "~/lib/lessons/grade";
 import type { RoofTaskView } from "~/lib/lessons/types";
-import { ResetRoofButton } from "~/components/sandbox/reset-roof-button";
+import { ResetRoofButton } from "~/components/sandbox/inputs/reset-roof-button";
 import { SandboxWorkspace } from "~/components/sandbox/workspace";
 import { ItemFeedback } from "./results";
 import { PROSE } from "./prose";

@@ -1,7 +1,7 @@
 import { useMemo } from "react";
 import type { Analysis, RoofSpec } from "~/engine";
 import { figureExtent, planLabels } from "~/lib/pack/plan-figure";
-import { MeshSampler } from "~/components/sandbox/mesh-sample";
+import { MeshSampler } from "~/components/sandbox/view-3d/mesh-sample";
 
 /** Helvetica/Arial digits and letters average under 0.6 em: a safe width for placing labels. */
 const measure = (text: string, size: number) => text.length * size * 0.6;

@@ -8,7 +8,7 @@ import { GLTFExporter } from "three/examples/jsm/exporters/GLTFExporter.js";
 import { CAUTION_LINE } from "~/lib/caution";
 import { datumText, isoDate, type PackRoof, type PackWriter } from "~/lib/pack/facts";
 import { fallColour } from "~/lib/fall-colour";
-import { gutterSurface, WALL_FACE } from "~/components/sandbox/layout-scenes";
+import { gutterSurface, WALL_FACE } from "~/components/sandbox/view-3d/layout-scenes";
 
 /** The neutral colour of a vertical gutter side, as the 3D view draws it. */
 const WALL_RGB: [number, number, number] = [0x52, 0x60, 0x6d];

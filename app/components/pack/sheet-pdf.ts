@@ -9,7 +9,7 @@ import { CAUTION_LINE } from "~/lib/caution";
 import type { PackRoof, PackWriter } from "~/lib/pack/facts";
 import { figureExtent, planLabels, type PlanFigure } from "~/lib/pack/plan-figure";
 import { sheetData, type SheetTable } from "~/lib/pack/sheet-data";
-import { MeshSampler } from "~/components/sandbox/mesh-sample";
+import { MeshSampler } from "~/components/sandbox/view-3d/mesh-sample";
 
 export type PaperSize = "a4" | "letter";
 /** Page sizes in PDF points (1/72 in): A4 210 × 297 mm (ISO 216), US Letter 8.5 × 11 in. */

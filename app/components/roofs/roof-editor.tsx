@@ -4,7 +4,7 @@ import { Download } from "lucide-react";
 import type { RoofSpec } from "~/engine";
 import type { CheckListItem } from "~/components/as-built/check-list";
 import { PackDownloads } from "~/components/pack/downloads";
-import type { SandboxStore } from "~/components/sandbox/store";
+import type { SandboxStore } from "~/components/sandbox/state/store";
 import { newRequestKey } from "~/lib/request-key";
 import { ROOF_NAME_MAX, roofNameSchema, type UnderlaySettings } from "~/lib/roof-file";
 import type { RoofPageActionData } from "~/lib/roof-page";

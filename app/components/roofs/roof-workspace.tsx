@@ -5,8 +5,8 @@
 import { useEffect } from "react";
 import type { RoofSpec } from "~/engine";
 import { SandboxWorkspace } from "~/components/sandbox/workspace";
-import { useSandboxStore, type SandboxStore } from "~/components/sandbox/store";
-import type { Underlay } from "~/components/sandbox/underlay";
+import { useSandboxStore, type SandboxStore } from "~/components/sandbox/state/store";
+import type { Underlay } from "~/components/sandbox/plan/underlay";
 export { retraceSpec } from "~/lib/underlay";
 
 export interface RoofWorkspaceProps {

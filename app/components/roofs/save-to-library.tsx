@@ -1,6 +1,6 @@
 import { useId, useRef, useState } from "react";
 import { Link, useFetcher, useRouteLoaderData } from "react-router";
-import { useSandboxStore } from "~/components/sandbox/store";
+import { useSandboxStore } from "~/components/sandbox/state/store";
 import type { SessionUser } from "~/lib/session.server";
 import { newRequestKey } from "~/lib/request-key";
 

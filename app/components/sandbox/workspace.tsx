@@ -2,17 +2,17 @@ import { lazy, Suspense, useEffect, useState } from "react";
 import { PRESENT_SHORTCUTS } from "~/lib/shortcuts";
 import type { RoofSpec } from "~/engine";
 import { RoofUnits } from "~/components/units";
-import { ComparisonFigures } from "./comparison-figures";
-import { DropSchedule } from "./drop-schedule";
-import { EngineErrorNote } from "./engine-error";
-import { FallLegend } from "./fall-legend";
-import { KeyFigures } from "./key-figures";
-import { OutletTable } from "./outlet-table";
-import { OutlineTable } from "./outline-table";
-import { PlanEditor } from "./plan-editor";
-import { ResultsPanel } from "./results-panel";
-import { SceneSummary } from "./scene-summary";
-import { SettingsPanel } from "./settings-panel";
+import { ComparisonFigures } from "./results/comparison-figures";
+import { DropSchedule } from "./schedule/drop-schedule";
+import { EngineErrorNote } from "./engine-bridge/engine-error";
+import { FallLegend } from "./results/fall-legend";
+import { KeyFigures } from "./results/key-figures";
+import { OutletTable } from "./inputs/outlet-table";
+import { OutlineTable } from "./inputs/outline-table";
+import { PlanEditor } from "./plan/plan-editor";
+import { ResultsPanel } from "./results/results-panel";
+import { SceneSummary } from "./results/scene-summary";
+import { SettingsPanel } from "./inputs/settings-panel";
 import {
   createSandboxStore,
   SandboxStoreContext,
@@ -20,14 +20,14 @@ import {
   type Locks,
   type SandboxStore,
   type ViewSettings,
-} from "./store";
-import { Toolbar } from "./toolbar";
-import type { Underlay } from "./underlay";
-import { useEngine } from "./use-engine";
-import { useSessionSpec } from "./use-session-spec";
-import { useUndoShortcuts } from "./use-shortcuts";
-import { ViewBoundary } from "./view-boundary";
-import { ViewControls } from "./view-controls";
+} from "./state/store";
+import { Toolbar } from "./inputs/toolbar";
+import type { Underlay } from "./plan/underlay";
+import { useEngine } from "./engine-bridge/use-engine";
+import { useSessionSpec } from "./state/use-session-spec";
+import { useUndoShortcuts } from "./state/use-shortcuts";
+import { ViewBoundary } from "./view-3d/view-boundary";
+import { ViewControls } from "./view-3d/view-controls";
 
 const RoofView3D = lazy(() => import("./view-3d/roof-view-3d"));
 const SideBySide = lazy(() => import("./view-3d/side-by-side"));

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import type { RoofSpec } from "~/engine";
-import { setAreaJoistDirection } from "~/components/sandbox/spec-edit";
+import { setAreaJoistDirection } from "~/components/sandbox/state/spec-edit";
 import { analyseSpec, close } from "./helpers";
 
 /*

@@ -2,8 +2,8 @@ import { describe, expect, it } from "vitest";
 import type { Point } from "~/engine";
 import { boxesOverlap, placeLabels, ringCandidates, segmentHitsBox } from "~/lib/pack/labels";
 import { planLabels } from "~/lib/pack/plan-figure";
-import { DEMO_ROOF } from "~/components/sandbox/demo-roof";
-import { MeshSampler } from "~/components/sandbox/mesh-sample";
+import { DEMO_ROOF } from "~/components/sandbox/state/demo-roof";
+import { MeshSampler } from "~/components/sandbox/view-3d/mesh-sample";
 import { packOf, U_ROOF } from "./fixtures";
 
 describe("label placement", () => {

@@ -1,7 +1,7 @@
 import Papa from "papaparse";
 import { describe, expect, it } from "vitest";
 import { asBuilt } from "~/engine";
-import { DEMO_ROOF } from "~/components/sandbox/demo-roof";
+import { DEMO_ROOF } from "~/components/sandbox/state/demo-roof";
 import { measurePlaces, parseMeasuredSchedule, readLevel } from "~/lib/pack/measured-schedule";
 import { scheduleCsv } from "~/lib/pack/schedule-csv";
 import { packOf, U_ROOF } from "./fixtures";

@@ -9,7 +9,7 @@ import {
   deleteRidge,
   deleteRidgePoint,
   setRidgePoint,
-} from "~/components/sandbox/spec-edit";
+} from "~/components/sandbox/state/spec-edit";
 import { parseSpec, type RoofSpec } from "~/engine";
 import { packOf, U_ROOF } from "./fixtures";
 

@@ -1,7 +1,7 @@
 import * as THREE from "three";
 import { GLTFLoader } from "three/examples/jsm/loaders/GLTFLoader.js";
 import { describe, expect, it } from "vitest";
-import { DEMO_ROOF } from "~/components/sandbox/demo-roof";
+import { DEMO_ROOF } from "~/components/sandbox/state/demo-roof";
 import { fallColour } from "~/lib/fall-colour";
 import { roofGlb } from "~/components/pack/roof-glb";
 import { CAUTION_LINE } from "~/lib/caution";

@@ -1,7 +1,7 @@
 import Papa from "papaparse";
 import { describe, expect, it } from "vitest";
 import { scheduleCsv as cliScheduleCsv } from "~/cli/analyse";
-import { DEMO_ROOF } from "~/components/sandbox/demo-roof";
+import { DEMO_ROOF } from "~/components/sandbox/state/demo-roof";
 import { CAUTION_LINE } from "~/lib/caution";
 import { directionDegrees, packFileName } from "~/lib/pack/facts";
 import { scheduleCsv, scheduleFileName } from "~/lib/pack/schedule-csv";

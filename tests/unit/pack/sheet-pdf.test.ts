@@ -1,7 +1,7 @@
 import { fileURLToPath } from "node:url";
 import { getDocument } from "pdfjs-dist/legacy/build/pdf.mjs";
 import { describe, expect, it } from "vitest";
-import { DEMO_ROOF } from "~/components/sandbox/demo-roof";
+import { DEMO_ROOF } from "~/components/sandbox/state/demo-roof";
 import { PAPER, sheetPdf } from "~/components/pack/sheet-pdf";
 import { CAUTION_LINE } from "~/lib/caution";
 import { sheetData } from "~/lib/pack/sheet-data";

@@ -1,9 +1,9 @@
 import { describe, expect, it } from "vitest";
-import { DEMO_ROOF } from "~/components/sandbox/demo-roof";
-import type { EngineRequest } from "~/components/sandbox/engine-protocol";
-import type { EngineOutcome } from "~/components/sandbox/analysis-outcome";
-import { handleEngineRequest } from "~/components/sandbox/engine-handlers";
-import { createEngineServer, isSuperseded, type EngineReply } from "~/components/sandbox/engine-server";
+import { DEMO_ROOF } from "~/components/sandbox/state/demo-roof";
+import type { EngineRequest } from "~/components/sandbox/engine-bridge/engine-protocol";
+import type { EngineOutcome } from "~/components/sandbox/engine-bridge/analysis-outcome";
+import { handleEngineRequest } from "~/components/sandbox/engine-bridge/engine-handlers";
+import { createEngineServer, isSuperseded, type EngineReply } from "~/components/sandbox/engine-bridge/engine-server";
 import { PREVIEW_MESH_VERTICES } from "~/engine";
 import { BENCH_ROOFS } from "../../bench/bench";
 

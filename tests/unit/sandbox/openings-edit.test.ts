@@ -7,7 +7,7 @@ import {
   moveOpening,
   setJoistDirection,
   setOpening,
-} from "~/components/sandbox/spec-edit";
+} from "~/components/sandbox/state/spec-edit";
 
 const rect = (): RoofSpec => ({
   outline: [

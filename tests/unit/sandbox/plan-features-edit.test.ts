@@ -1,7 +1,12 @@
 import { describe, expect, it } from "vitest";
 import type { Point, RoofSpec } from "~/engine";
-import { snapFree, snapOnSegment, snapOnWalls } from "~/components/sandbox/snap";
-import { addOpeningRect, insertRidgePoint, moveOpeningCorner, placeOpening } from "~/components/sandbox/spec-edit";
+import { snapFree, snapOnSegment, snapOnWalls } from "~/components/sandbox/plan/snap";
+import {
+  addOpeningRect,
+  insertRidgePoint,
+  moveOpeningCorner,
+  placeOpening,
+} from "~/components/sandbox/state/spec-edit";
 
 const rect = (): RoofSpec => ({
   outline: [

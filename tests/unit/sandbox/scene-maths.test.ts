@@ -1,10 +1,10 @@
 import { describe, expect, it } from "vitest";
 import { analyse, parseSpec, type RoofSpec } from "~/engine";
-import { contourSegments } from "~/components/sandbox/contours";
-import { DEMO_ROOF } from "~/components/sandbox/demo-roof";
+import { contourSegments } from "~/components/sandbox/view-3d/contours";
+import { DEMO_ROOF } from "~/components/sandbox/state/demo-roof";
 import { cividis, fallPosition, SCALE_FLAT, SCALE_STEEP } from "~/lib/fall-colour";
-import { gutterSurface, openEdgeSurface, WALL_FACE } from "~/components/sandbox/layout-scenes";
-import { MeshSampler } from "~/components/sandbox/mesh-sample";
+import { gutterSurface, openEdgeSurface, WALL_FACE } from "~/components/sandbox/view-3d/layout-scenes";
+import { MeshSampler } from "~/components/sandbox/view-3d/mesh-sample";
 
 function analysed(spec: RoofSpec) {
   const parsed = parseSpec(structuredClone(spec));

@@ -1,9 +1,9 @@
 import Papa from "papaparse";
 import { describe, expect, it } from "vitest";
 import { action, loader } from "~/routes/sandbox.schedule-csv";
-import { DEMO_ROOF } from "~/components/sandbox/demo-roof";
-import { decodeSpec, encodeSpec, sheetHref, SHEET_LINK_LIMIT } from "~/components/sandbox/sheet-link";
-import { readLinkedSpec } from "~/components/sandbox/linked-spec.server";
+import { DEMO_ROOF } from "~/components/sandbox/state/demo-roof";
+import { decodeSpec, encodeSpec, sheetHref, SHEET_LINK_LIMIT } from "~/lib/sheet-link";
+import { readLinkedSpec } from "~/lib/linked-spec.server";
 import { formatIn } from "~/components/sandbox/format";
 import { scheduleRows } from "~/lib/pack/schedule-rows";
 import { analyse, parseSpec, type RoofSpec } from "~/engine";

@@ -9,8 +9,8 @@ import {
   moveVertex,
   nudgeOutlet,
   setEdgeKind,
-} from "~/components/sandbox/spec-edit";
-import { snapAlong, snapVertex } from "~/components/sandbox/snap";
+} from "~/components/sandbox/state/spec-edit";
+import { snapAlong, snapVertex } from "~/components/sandbox/plan/snap";
 
 const rect = (): RoofSpec => ({
   outline: [

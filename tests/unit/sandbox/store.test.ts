@@ -1,11 +1,11 @@
 import { describe, expect, it } from "vitest";
-import { DEMO_ROOF } from "~/components/sandbox/demo-roof";
-import { moveVertex } from "~/components/sandbox/spec-edit";
-import { EngineClient } from "~/components/sandbox/engine-client";
-import { isSuperseded } from "~/components/sandbox/engine-server";
+import { DEMO_ROOF } from "~/components/sandbox/state/demo-roof";
+import { moveVertex } from "~/components/sandbox/state/spec-edit";
+import { EngineClient } from "~/components/sandbox/engine-bridge/engine-client";
+import { isSuperseded } from "~/components/sandbox/engine-bridge/engine-server";
 import { formatRatio as localFormatRatio } from "~/lib/units";
-import { runAnalysis } from "~/components/sandbox/run-analysis";
-import { createSandboxStore } from "~/components/sandbox/store";
+import { runAnalysis } from "~/components/sandbox/engine-bridge/run-analysis";
+import { createSandboxStore } from "~/components/sandbox/state/store";
 import { formatRatio } from "~/engine";
 
 describe("engine client", () => {

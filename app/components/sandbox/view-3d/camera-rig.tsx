@@ -3,7 +3,7 @@ import { useThree } from "@react-three/fiber";
 import { useEffect, useRef } from "react";
 import * as THREE from "three";
 import type { OrbitControls as OrbitControlsImpl } from "three-stdlib";
-import type { CameraPreset } from "../store";
+import type { CameraPreset } from "../state/store";
 import type { CameraLink } from "./camera-link";
 import type { SceneFrame } from "./scene-frame";
 

@@ -1,6 +1,6 @@
 import { useEffect, useMemo } from "react";
 import * as THREE from "three";
-import { contourSegments } from "../contours";
+import { contourSegments } from "./contours";
 import type { SurfaceMesh } from "./roof-surface";
 import type { SceneFrame } from "./scene-frame";
 

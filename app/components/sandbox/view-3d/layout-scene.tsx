@@ -1,6 +1,6 @@
 import { useMemo } from "react";
 import type { EdgeKind, RoofSpec } from "~/engine";
-import type { LayoutSurface } from "../layout-scenes";
+import type { LayoutSurface } from "./layout-scenes";
 import { SurfaceLine } from "./fall-line-3d";
 import { LevelLabels, type LevelLabel } from "./level-labels";
 import { OutletMarkers } from "./outlet-markers";

@@ -2,10 +2,10 @@ import { useFrame, useThree } from "@react-three/fiber";
 import { SceneCanvas } from "./scene-canvas";
 import { useEffect, useLayoutEffect, useMemo, useRef, type RefObject } from "react";
 import type { Analysis } from "~/engine";
-import { useSandbox } from "../store";
+import { useSandbox } from "../state/store";
 import { CameraRig } from "./camera-rig";
 import { drainCentre, frameKey, useStableFrame } from "./scene-frame";
-import { sectionJoistIndex } from "../section-joist";
+import { sectionJoistIndex } from "./section-joist";
 import { sectionPose, ShapedScene } from "./shaped-scene";
 import { useAnimationAllowed } from "./use-animation-allowed";
 

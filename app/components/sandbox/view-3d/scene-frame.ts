@@ -1,6 +1,6 @@
 import { useRef } from "react";
 import type { Point, RoofSpec } from "~/engine";
-import { bounds } from "../spec-edit";
+import { bounds } from "../state/spec-edit";
 
 /**
  * Plan metres → scene: three's X is plan x, Y is level (times the vertical exaggeration), Z is −plan y,

@@ -1,10 +1,10 @@
 import { useMemo } from "react";
 import * as THREE from "three";
 import type { Analysis, RoofSpec } from "~/engine";
-import { MeshSampler } from "../mesh-sample";
-import { sectionJoistIndex } from "../section-joist";
-import { edgeKindsOf } from "../spec-edit";
-import type { ViewSettings } from "../store";
+import { MeshSampler } from "./mesh-sample";
+import { sectionJoistIndex } from "./section-joist";
+import { edgeKindsOf } from "../state/spec-edit";
+import type { ViewSettings } from "../state/store";
 import type { SectionPose } from "./camera-rig";
 import { ContourLines } from "./contour-lines";
 import { SurfaceLine } from "./fall-line-3d";

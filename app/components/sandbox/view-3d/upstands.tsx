@@ -1,7 +1,7 @@
 import { useEffect, useMemo } from "react";
 import * as THREE from "three";
 import type { RoofSpec } from "~/engine";
-import type { MeshSampler } from "../mesh-sample";
+import type { MeshSampler } from "./mesh-sample";
 import type { SceneFrame } from "./scene-frame";
 
 type V3 = [number, number, number];
