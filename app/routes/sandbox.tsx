@@ -9,7 +9,7 @@
  *     readOnly={false}            // view only: no handles, inputs or apply buttons (may change while mounted)
  *     underlay={{ url, opacity, originX, originY, metresPerPixel, widthPx, heightPx }}
  *                                 // optional plan image under the outline; pixel (0,0) = image top-left at plan
- *                                 // point (originX, originY) m; plan y points up (see components/sandbox/underlay.ts)
+ *                                 // point (originX, originY) m; plan y points up (see components/sandbox/plan/underlay.ts)
  *     toolbarExtra={<MyButtons />}// rendered in the toolbar, inside the store's provider
  *     initialView={{ mode: "side-by-side" }} // optional opening view settings
  *   />

@@ -1,6 +1,6 @@
 import { expect, test } from "@playwright/test";
 
-// Demo roof (components/sandbox/demo-roof.ts): 12 m × 8 m, one outlet at (6, 0), base fall 2°,
+// Demo roof (components/sandbox/state/demo-roof.ts): 12 m × 8 m, one outlet at (6, 0), base fall 2°,
 // joists along y; H = 8 m × tan 2° = 279 mm (docs/roof-method.md §3).
 // A 1 m rooflight added in the middle spans 5.5..6.5 × 3.5..4.5, across the fall line x = 6: along
 // its high side y = 4.5 the deck is lowest at x = 6, so water is held there

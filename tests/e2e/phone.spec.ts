@@ -5,7 +5,7 @@ test.use({ viewport: { width: 390, height: 844 }, hasTouch: true, isMobile: true
 // Software WebGL redraws the 3D view after every touch move on a shared two-core machine.
 test.describe.configure({ timeout: 300_000 });
 
-// Demo roof (components/sandbox/demo-roof.ts): 12 m × 8 m, one outlet at (6, 0), base fall 2°:
+// Demo roof (components/sandbox/state/demo-roof.ts): 12 m × 8 m, one outlet at (6, 0), base fall 2°:
 // H = 8 m × tan 2° = 279 mm (docs/roof-method.md §3/§4).
 const H_DEMO = "279 mm";
 

@@ -1,6 +1,6 @@
 import { expect, test, type Page } from "@playwright/test";
 
-// Demo roof (components/sandbox/demo-roof.ts): 12 m × 8 m, outlet O1 at (6, 0), base fall 2°,
+// Demo roof (components/sandbox/state/demo-roof.ts): 12 m × 8 m, outlet O1 at (6, 0), base fall 2°,
 // high level 279 mm. "Add an outlet half-way along edge 4" puts O2 at (0, 4) on the west wall.
 // Catchments below are the engine's answers for these shapes (docs/roof-method-plans.md P2, P4),
 // each an area of plan rectangles:

@@ -1,6 +1,6 @@
 import { expect, test } from "@playwright/test";
 
-// Demo roof (components/sandbox/demo-roof.ts): 12 m × 8 m, outlet O1 at (6, 0), base fall 2°.
+// Demo roof (components/sandbox/state/demo-roof.ts): 12 m × 8 m, outlet O1 at (6, 0), base fall 2°.
 // (A ridge across the middle would also cross a rooflight added in the middle, so the rooflight
 // comes last.)
 // An outlet added half-way along edge 4 (the west wall) sits at (0, 4). A ridge from (3, 0) to

@@ -1,7 +1,7 @@
 import fs from "node:fs";
 import { expect, test, type Page } from "@playwright/test";
 
-// Demo roof (components/sandbox/demo-roof.ts): 12 m × 8 m, one outlet at (6, 0), base fall 2°.
+// Demo roof (components/sandbox/state/demo-roof.ts): 12 m × 8 m, one outlet at (6, 0), base fall 2°.
 // docs/roof-method.md §3/§4: H = base fall × the chord through the outlet, so 8 m × tan 2° = 279 mm.
 const H_DEMO = "279 mm";
 
