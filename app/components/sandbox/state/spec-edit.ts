@@ -141,7 +141,8 @@ export function setOutlet(spec: RoofSpec, index: number, patch: Partial<RoofSpec
 }
 
 /** The plan editor's name for the engine's point-array shoelace area (positive counter-clockwise). */
-export { pointsSignedArea as signedArea } from "~/engine";
+// The geometry module itself, not `~/engine`: the engine's face brings mathjs onto the page.
+export { pointsSignedArea as signedArea } from "~/engine/geometry/area";
 
 export function bounds(points: Point[]) {
   let minX = Infinity;

@@ -1,5 +1,6 @@
 import { ShapeUtils, Vector2 } from "three";
-import { pointsSignedArea, type Analysis, type Point, type RoofSpec } from "~/engine";
+import type { Analysis, Point, RoofSpec } from "~/engine";
+import { pointsSignedArea } from "~/engine/geometry/area";
 import { attachOutlet, edgeEnds, edgeKindsOf, edgeLength } from "../state/spec-edit";
 
 /**

@@ -1,6 +1,7 @@
 import { useEffect, useMemo } from "react";
 import * as THREE from "three";
-import { pointsSignedArea, type EdgeKind, type Point } from "~/engine";
+import type { EdgeKind, Point } from "~/engine";
+import { pointsSignedArea } from "~/engine/geometry/area";
 import type { SceneFrame } from "./scene-frame";
 
 type V3 = [number, number, number];
