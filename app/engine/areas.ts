@@ -153,7 +153,9 @@ export function cutOutlineAlongRidges(
       return {
         ok: false,
         path,
-        message: `ridge ${r + 1} is closed: a closed ridge inside the roof is not built yet; draw ridges from wall to wall`,
+        // The area a closed ridge encloses touches no wall (at most one point of one), and
+        // outlets sit on walls: it has no outlet and no eaves to drain to (docs/roof-method-plans.md P4).
+        message: `ridge ${r + 1} is closed: the area inside it touches no wall, so no outlet or eaves can drain it; run the ridge from wall to wall`,
       };
     // The area it runs in: the one holding the middle of its first piece.
     const mid: Point = [(line[0][0] + line[1][0]) / 2, (line[0][1] + line[1][1]) / 2];

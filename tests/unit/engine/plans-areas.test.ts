@@ -243,6 +243,31 @@ describe("ridges and areas that cannot be built", () => {
     expect(twice.error.issues[0].message).toMatch(/areas\.0/);
   });
 
+  it("a closed ridge: 422, the area it encloses has no drain (outlets sit on walls)", () => {
+    // A loop round the L's inner part, and one starting and ending on a wall: neither encloses a
+    // wall, so neither inner area could hold an outlet or eaves (docs/roof-method-plans.md P4).
+    for (const line of [
+      [
+        [2, 2],
+        [6, 2],
+        [6, 6],
+        [2, 6],
+        [2, 2],
+      ],
+      [
+        [4, 0],
+        [6, 3],
+        [2, 3],
+        [4, 0],
+      ],
+    ]) {
+      const r = refused({ ...lSpec, ridges: [{ line }] });
+      expect(r.status).toBe(422);
+      expect(r.error.issues[0].path).toBe("ridges.0.line");
+      expect(r.error.issues[0].message).toMatch(/closed: the area inside it touches no wall/);
+    }
+  });
+
   it("a malformed ridge: 400 with its field", () => {
     const r = refused({ ...lSpec, ridges: [{ line: [[1, 2]] }] });
     expect(r.status).toBe(400);
