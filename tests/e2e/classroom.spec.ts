@@ -83,9 +83,7 @@ test("a follower sees the presenter's outlet move within a second, and catches u
 }) => {
   test.setTimeout(120_000);
   const trainer = await signedIn(browser, "trainer@tidemark.example");
-  await trainer.page.goto("/classes");
-  const href = await trainer.page.getByRole("link", { name: "Parapet roofs, spring cohort" }).getAttribute("href");
-  const classId = href!.split("/").pop()!;
+  const classId = await demoClass(trainer.page);
 
   await trainer.page.goto(`/classes/${classId}/present`);
   await expect(trainer.page.getByRole("heading", { level: 1 })).not.toHaveText("No roofs to present");
@@ -168,10 +166,25 @@ test("a follower sees the presenter's outlet move within a second, and catches u
   await trainee.context.close();
 });
 
+/**
+ * The demo class's id, with any live session an earlier test left behind ended first (a presenter's
+ * page that closes without "Stop presenting" leaves its session paused, to be resumed), so each
+ * test starts from "ended".
+ */
 async function demoClass(page: Page) {
   await page.goto("/classes");
   const href = await page.getByRole("link", { name: "Parapet roofs, spring cohort" }).getAttribute("href");
-  return href!.split("/").pop()!;
+  const classId = href!.split("/").pop()!;
+  const ended = await page.evaluate(async (id) => {
+    const res = await fetch(`/classes/${id}/live`, {
+      method: "POST",
+      headers: { "Content-Type": "application/json", Accept: "application/json" },
+      body: JSON.stringify({ phase: "ended" }),
+    });
+    return res.status;
+  }, classId);
+  expect(ended).toBeLessThan(500);
+  return classId;
 }
 
 const status = (page: Page) => page.locator('[role="status"][data-state]').first();
@@ -321,4 +334,29 @@ test("followers: waiting, live, paused, ended; the caption follows the trainer's
   await expect(marco.page.getByRole("button", { name: "Hand up" })).toBeDisabled();
 
   for (const c of [trainer, tess, marco]) await c.context.close();
+});
+
+test("a presenter's tab that goes elsewhere without Stop pauses the session; coming back finds it paused", async ({
+  browser,
+}) => {
+  test.setTimeout(180_000);
+  const trainer = await signedIn(browser, "trainer@tidemark.example");
+  const classId = await demoClass(trainer.page);
+  const tess = await signedIn(browser, "trainee@tidemark.example");
+  await tess.page.goto(`/classes/${classId}/follow`);
+  await trainer.page.goto(`/classes/${classId}/present`);
+  await expect(trainer.page.getByRole("status").filter({ hasText: "the class sees this" })).toBeVisible();
+  await expect(status(tess.page)).toHaveText("Live · connected", { timeout: 15_000 });
+
+  // The trainer's tab leaves present mode by a full navigation, not by "Stop presenting".
+  await trainer.page.goto("/lessons");
+  await expect(status(tess.page)).toHaveText("Paused by the trainer", { timeout: 15_000 });
+
+  // Back in present mode the session is there, paused, and resumes with one press.
+  await trainer.page.goto(`/classes/${classId}/present`);
+  await trainer.page.getByRole("button", { name: "Resume" }).click();
+  await expect(status(tess.page)).toHaveText("Live · connected", { timeout: 15_000 });
+  await trainer.page.getByRole("button", { name: "Stop presenting" }).click();
+  await expect(status(tess.page)).toHaveAttribute("data-state", "ended", { timeout: 15_000 });
+  for (const c of [trainer, tess]) await c.context.close();
 });

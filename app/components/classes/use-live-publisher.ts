@@ -150,5 +150,22 @@ export function useLivePublisher(classId: string, liveSeq: number | null = null)
     [],
   );
 
+  // The presenter's tab closes or goes elsewhere without "Stop presenting": the session is paused,
+  // so followers are not left reading "live" under a screen nobody drives. `keepalive` lets the
+  // request outlive the page. Coming back (or reloading) finds it paused, ready to resume.
+  useEffect(() => {
+    const onHide = () => {
+      if (ended.current || (lastSent.current === 0 && liveSeq === null)) return;
+      void fetch(`/classes/${classId}/live`, {
+        method: "POST",
+        keepalive: true,
+        headers: { "Content-Type": "application/json", Accept: "application/json" },
+        body: JSON.stringify({ phase: "paused" }),
+      }).catch(() => undefined);
+    };
+    window.addEventListener("pagehide", onHide);
+    return () => window.removeEventListener("pagehide", onHide);
+  }, [classId, liveSeq]);
+
   return { publish, setPhase, end, status };
 }
