@@ -73,7 +73,10 @@ function Key({ children }: { children: React.ReactNode }) {
 export default function Present({ loaderData }: Route.ComponentProps) {
   const { cls, decks, live } = loaderData;
   const navigate = useNavigate();
-  const resumed = live?.state && decks.some((d) => d.key === live.state!.deck) ? live.state : null;
+  // A session still live or paused (a presenter who reloaded or came back) carries on where it was;
+  // after "Stop presenting" a new one starts from the first roof.
+  const resumed =
+    live?.state && live.phase !== "ended" && decks.some((d) => d.key === live.state!.deck) ? live.state : null;
   const [deckKey, setDeckKey] = useState(resumed?.deck ?? decks[0]?.key ?? "");
   const deck = decks.find((d) => d.key === deckKey) ?? decks[0];
   const count = deck?.roofs.length ?? 0;
