@@ -103,7 +103,9 @@ export function mergeAreas(
     if (s.flowTraces) {
       anyTraces = true;
       const base = traces.points.length / 3;
-      traces.points.push(...s.flowTraces.points);
+      // A loop, not push(...points): spreading tens of thousands of arguments is slow, and past
+      // the engine's argument limit it throws.
+      for (const c of s.flowTraces.points) traces.points.push(c);
       for (let k = 1; k < s.flowTraces.starts.length; k++) traces.starts.push(base + s.flowTraces.starts[k]);
       traces.ends.push(
         ...s.flowTraces.ends.map((e) => e.replace(/^pit-(\d+)$/, (_, d: string) => `pit-${offset + Number(d)}`)),
@@ -190,14 +192,28 @@ const shift = (k: number | null, by: number) => (k === null ? null : k + by);
 const pt = (p: [number, number]) => `(${p[0].toFixed(2)}, ${p[1].toFixed(2)})`;
 
 function joinMeshes(meshes: { mesh: Mesh | undefined; drainOf: (d: number) => number }[]): Mesh {
-  const out: Mesh = { positions: [], indices: [], faceRatio: [], faceDrain: [] };
-  for (const { mesh, drainOf } of meshes) {
-    if (!mesh) continue;
-    const base = out.positions.length / 3;
-    for (const p of mesh.positions) out.positions.push(p);
-    for (const i of mesh.indices) out.indices.push(base + i);
-    for (const r of mesh.faceRatio) out.faceRatio.push(r);
-    for (const d of mesh.faceDrain) out.faceDrain.push(drainOf(d));
+  const list = meshes.flatMap((m) => (m.mesh ? [{ mesh: m.mesh, drainOf: m.drainOf }] : []));
+  const size = (key: keyof Mesh) => list.reduce((s, m) => s + m.mesh[key].length, 0);
+  // Filled before writing, so the arrays stay packed (see meshArrays).
+  const out: Mesh = {
+    positions: new Array<number>(size("positions")).fill(0),
+    indices: new Array<number>(size("indices")).fill(0),
+    faceRatio: new Array<number>(size("faceRatio")).fill(0),
+    faceDrain: new Array<number>(size("faceDrain")).fill(0),
+  };
+  let v = 0,
+    i = 0,
+    f = 0;
+  for (const { mesh, drainOf } of list) {
+    for (let k = 0; k < mesh.positions.length; k++) out.positions[v + k] = mesh.positions[k];
+    for (let k = 0; k < mesh.indices.length; k++) out.indices[i + k] = v / 3 + mesh.indices[k];
+    for (let k = 0; k < mesh.faceRatio.length; k++) {
+      out.faceRatio[f + k] = mesh.faceRatio[k];
+      out.faceDrain[f + k] = drainOf(mesh.faceDrain[k]);
+    }
+    v += mesh.positions.length;
+    i += mesh.indices.length;
+    f += mesh.faceRatio.length;
   }
   return out;
 }

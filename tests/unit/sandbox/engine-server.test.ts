@@ -2,9 +2,10 @@ import { describe, expect, it } from "vitest";
 import { DEMO_ROOF } from "~/components/sandbox/state/demo-roof";
 import type { EngineRequest } from "~/components/sandbox/engine-bridge/engine-protocol";
 import type { EngineOutcome } from "~/components/sandbox/engine-bridge/analysis-outcome";
-import { handleEngineRequest } from "~/components/sandbox/engine-bridge/engine-handlers";
+import { handleEngineRequest, transferablesOf } from "~/components/sandbox/engine-bridge/engine-handlers";
 import { createEngineServer, isSuperseded, type EngineReply } from "~/components/sandbox/engine-bridge/engine-server";
-import { PREVIEW_MESH_VERTICES } from "~/engine";
+import { MessageChannel } from "node:worker_threads";
+import { analyse, parseSpec, PREVIEW_MESH_VERTICES } from "~/engine";
 import { BENCH_ROOFS } from "../../bench/bench";
 
 const spec = (k: number) => ({ ...DEMO_ROOF, baseFall: `1:${40 + k}` });
@@ -101,10 +102,42 @@ describe("engine handlers: the drag preview", () => {
     expect(preview.preview).toBe(true);
     expect("preview" in full).toBe(false);
     expect(preview.analysis.shaped.highLevel).toBe(full.analysis.shaped.highLevel);
-    const vertices = (a: typeof full.analysis) => (a.shaped.mesh?.positions.length ?? 0) / 3;
+    const vertices = (a: typeof full.analysis) => (a.shaped.meshBuffers?.positions.length ?? 0) / 3;
     expect(vertices(preview.analysis)).toBeLessThanOrEqual(1.5 * PREVIEW_MESH_VERTICES);
     expect(vertices(full.analysis)).toBeGreaterThan(4 * vertices(preview.analysis));
     // Its coarse mesh is chosen: no warning says so.
     expect(preview.analysis.warnings.map((w) => w.code)).not.toContain("mesh-coarsened");
+  });
+});
+
+describe("engine handlers: the mesh is handed over, not copied", () => {
+  it("answers typed arrays equal to the JSON mesh, and transfers their buffers through a message port", async () => {
+    const spec = BENCH_ROOFS[2].spec; // the medium roof with openings and ridges: merged areas
+    const answer = handleEngineRequest({ kind: "analyse", spec }) as EngineOutcome;
+    if (!answer.ok) throw new Error("not analysed");
+    const buffers = answer.analysis.shaped.meshBuffers!;
+    expect(answer.analysis.shaped.mesh).toBeUndefined();
+    const parsed = parseSpec(spec);
+    if (!parsed.ok) throw new Error(parsed.error.message);
+    const plain = analyse(parsed.spec).shaped.mesh!;
+    expect(Array.from(buffers.positions)).toEqual(plain.positions);
+    expect(Array.from(buffers.indices)).toEqual(plain.indices);
+    expect(Array.from(buffers.faceDrain)).toEqual(plain.faceDrain);
+    expect(Array.from(buffers.faceRatio)).toEqual(plain.faceRatio);
+
+    const transfer = transferablesOf(answer);
+    expect(transfer).toHaveLength(4);
+    const count = buffers.positions.length;
+    const { port1, port2 } = new MessageChannel();
+    const received = new Promise<EngineOutcome>((resolve) => port2.once("message", resolve));
+    port1.postMessage(answer, transfer);
+    const got = await received;
+    port1.close();
+    port2.close();
+    if (!got.ok) throw new Error("not analysed");
+    expect(got.analysis.shaped.meshBuffers!.positions.length).toBe(count);
+    // Handed over: the sender's arrays are now empty (detached), nothing was copied.
+    expect(buffers.positions.length).toBe(0);
+    expect(transferablesOf({ ok: false, error: { status: 422, message: "", issues: [] } })).toEqual([]);
   });
 });

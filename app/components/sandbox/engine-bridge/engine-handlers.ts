@@ -27,11 +27,17 @@ export async function prepareEngineRequest(request: EngineRequest): Promise<void
   if (needsFallUnits(holder)) await loadFallUnits();
 }
 
-/** The engine's side of the protocol: runs in the worker, or on the main thread when there is none. */
+/**
+ * The engine's side of the protocol: runs in the worker, or on the main thread when there is none.
+ * Analyses carry their mesh as typed arrays (`shaped.meshBuffers`), which the worker hands over
+ * without copying (see `transferablesOf`) and the 3D view uploads as they are.
+ */
 export function handleEngineRequest(request: EngineRequest): EngineAnswers[EngineRequest["kind"]] {
   switch (request.kind) {
     case "analyse":
-      return request.preview ? previewOutcome(request.spec) : analysisOutcome(request.spec, { parseSpec, analyse });
+      return request.preview
+        ? previewOutcome(request.spec)
+        : analysisOutcome(request.spec, { parseSpec, analyse }, { mesh: "typed" });
     case "parseFall":
       return parseFall(request.text);
     case "parseSpec":
@@ -47,8 +53,27 @@ export function handleEngineRequest(request: EngineRequest): EngineAnswers[Engin
  * when it applies).
  */
 function previewOutcome(spec: RoofSpec): EngineOutcome {
-  const outcome = analysisOutcome(spec, { parseSpec, analyse }, { maxMeshVertices: PREVIEW_MESH_VERTICES });
+  const outcome = analysisOutcome(
+    spec,
+    { parseSpec, analyse },
+    {
+      mesh: "typed",
+      maxMeshVertices: PREVIEW_MESH_VERTICES,
+    },
+  );
   if (!outcome.ok) return outcome;
   const warnings = outcome.analysis.warnings.filter((w) => w.code !== "mesh-coarsened");
   return { ok: true, preview: true, analysis: { ...outcome.analysis, warnings } };
+}
+
+/** The typed arrays an answer can hand over to the page instead of copying them. */
+export function transferablesOf(answer: unknown): ArrayBuffer[] {
+  const buffers = (answer as EngineOutcome | null)?.ok
+    ? (answer as Extract<EngineOutcome, { ok: true }>).analysis.shaped.meshBuffers
+    : undefined;
+  if (!buffers) return [];
+  const out = new Set<ArrayBuffer>();
+  for (const a of [buffers.positions, buffers.indices, buffers.faceRatio, buffers.faceDrain])
+    if (a.buffer instanceof ArrayBuffer) out.add(a.buffer);
+  return [...out];
 }

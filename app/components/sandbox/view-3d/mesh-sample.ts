@@ -1,4 +1,4 @@
-import type { Mesh, Point } from "~/engine";
+import type { Point } from "~/engine";
 
 /**
  * Levels read off a triangle mesh at plan points (for labels and lines drawn on the surface).
@@ -12,7 +12,7 @@ export class MeshSampler {
   private readonly minY: number;
   private readonly buckets: Int32Array[];
 
-  constructor(private readonly mesh: Pick<Mesh, "positions" | "indices">) {
+  constructor(private readonly mesh: { positions: ArrayLike<number>; indices: ArrayLike<number> }) {
     const p = mesh.positions;
     let minX = Infinity;
     let minY = Infinity;

@@ -73,7 +73,8 @@ export function ShapedScene({
   animate: boolean;
   section: { pose: SectionPose; plane: THREE.Plane } | null;
 }) {
-  const mesh = analysis.shaped.mesh;
+  // The worker's answer carries typed arrays; a loader's (from JSON) plain ones.
+  const mesh = analysis.shaped.meshBuffers ?? analysis.shaped.mesh;
   const sampler = useMemo(() => (mesh ? new MeshSampler(mesh) : null), [mesh]);
   const kinds = useMemo(() => edgeKindsOf(spec), [spec]);
   const exaggeration = view.exaggeration;
