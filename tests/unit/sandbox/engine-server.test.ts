@@ -138,6 +138,10 @@ describe("engine handlers: the mesh is handed over, not copied", () => {
     expect(got.analysis.shaped.meshBuffers!.positions.length).toBe(count);
     // Handed over: the sender's arrays are now empty (detached), nothing was copied.
     expect(buffers.positions.length).toBe(0);
+    // Other answers (a refusal, a parsed spec, rule sets) hand over nothing and do not throw.
     expect(transferablesOf({ ok: false, error: { status: 422, message: "", issues: [] } })).toEqual([]);
+    expect(transferablesOf(handleEngineRequest({ kind: "parseSpec", input: spec }))).toEqual([]);
+    expect(transferablesOf(handleEngineRequest({ kind: "ruleSets" }))).toEqual([]);
+    expect(transferablesOf(null)).toEqual([]);
   });
 });

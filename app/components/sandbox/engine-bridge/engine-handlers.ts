@@ -8,7 +8,7 @@ import {
   RULE_SETS,
 } from "~/engine/core";
 import type { EngineAnswers, EngineRequest } from "./engine-protocol";
-import type { RoofSpec } from "~/engine/core";
+import type { Analysis, RoofSpec } from "~/engine/core";
 import { analysisOutcome, type EngineOutcome } from "./analysis-outcome";
 
 /**
@@ -66,11 +66,10 @@ function previewOutcome(spec: RoofSpec): EngineOutcome {
   return { ok: true, preview: true, analysis: { ...outcome.analysis, warnings } };
 }
 
-/** The typed arrays an answer can hand over to the page instead of copying them. */
+/** The typed arrays an answer can hand over to the page instead of copying them (none for other answers). */
 export function transferablesOf(answer: unknown): ArrayBuffer[] {
-  const buffers = (answer as EngineOutcome | null)?.ok
-    ? (answer as Extract<EngineOutcome, { ok: true }>).analysis.shaped.meshBuffers
-    : undefined;
+  const analysis = (answer as { analysis?: Partial<Analysis> } | null)?.analysis;
+  const buffers = analysis?.shaped?.meshBuffers;
   if (!buffers) return [];
   const out = new Set<ArrayBuffer>();
   for (const a of [buffers.positions, buffers.indices, buffers.faceRatio, buffers.faceDrain])
