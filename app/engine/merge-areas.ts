@@ -44,7 +44,14 @@ export function mergeAreas(
   let mapArea = 0;
   let minBase: Analysis["advice"]["minimumBaseFall"] = null;
   const meshes: { mesh: Mesh | undefined; buffers: MeshBuffers | undefined; drainOf: (d: number) => number }[] = [];
-  const traces: NonNullable<Analysis["shaped"]["flowTraces"]> = { points: [], starts: [0], ends: [] };
+  const traceCoords = parts.reduce((n, { analysis }) => n + (analysis.shaped.flowTraces?.points.length ?? 0), 0);
+  // Filled before writing, so the array stays packed (see meshArrays in mesh-out.ts).
+  const traces: NonNullable<Analysis["shaped"]["flowTraces"]> = {
+    points: new Array<number>(traceCoords).fill(0),
+    starts: [0],
+    ends: [],
+  };
+  let traceAt = 0;
   let anyTraces = false;
 
   // Catchments first, so every mesh face can be pointed at the merged list.
@@ -102,10 +109,12 @@ export function mergeAreas(
     }
     if (s.flowTraces) {
       anyTraces = true;
-      const base = traces.points.length / 3;
+      const base = traceAt / 3;
       // A loop, not push(...points): spreading tens of thousands of arguments is slow, and past
       // the engine's argument limit it throws.
-      for (const c of s.flowTraces.points) traces.points.push(c);
+      const from = s.flowTraces.points;
+      for (let k = 0; k < from.length; k++) traces.points[traceAt + k] = from[k];
+      traceAt += from.length;
       for (let k = 1; k < s.flowTraces.starts.length; k++) traces.starts.push(base + s.flowTraces.starts[k]);
       traces.ends.push(
         ...s.flowTraces.ends.map((e) => e.replace(/^pit-(\d+)$/, (_, d: string) => `pit-${offset + Number(d)}`)),

@@ -1,7 +1,7 @@
 import { useEffect, useMemo } from "react";
 import * as THREE from "three";
 import { contourSegments } from "./contours";
-import type { SurfaceMesh } from "./roof-surface";
+import type { SurfaceMesh } from "./surface-attributes";
 import type { SceneFrame } from "./scene-frame";
 
 /** Contour lines of the surface at a level interval, one line draw. */

@@ -1,15 +1,8 @@
 import { useEffect, useMemo } from "react";
 import * as THREE from "three";
-import { fallColour, HATCH_INK, HATCH_MIX, SHADE_MIN } from "~/lib/fall-colour";
+import { HATCH_INK, HATCH_MIX, SHADE_MIN } from "~/lib/fall-colour";
 import type { SceneFrame } from "./scene-frame";
-
-const WALL_RGB: [number, number, number] = [120, 112, 98];
-
-export interface SurfaceMesh {
-  positions: ArrayLike<number>;
-  indices: ArrayLike<number>;
-  faceRatio: ArrayLike<number | null>;
-}
+import { surfaceAttributes, type SurfaceMesh } from "./surface-attributes";
 
 const vertexShader = /* glsl */ `
 #include <common>
@@ -76,29 +69,7 @@ export function RoofSurface({
   dim?: number;
 }) {
   const geometry = useMemo(() => {
-    const faces = mesh.indices.length / 3;
-    const pos = new Float32Array(faces * 9);
-    const col = new Float32Array(faces * 9);
-    const flat = new Float32Array(faces * 3);
-    const p = mesh.positions;
-    for (let f = 0; f < faces; f++) {
-      const ratio = mesh.faceRatio[f];
-      // A negative ratio marks a vertical face (a gutter side): neutral ink, never hatched.
-      const wall = ratio != null && ratio < 0;
-      const [r, g, b] = wall ? WALL_RGB : fallColour(ratio);
-      const flatter = !wall && (ratio == null || ratio > minRatio * (1 + 1e-9)) ? 1 : 0;
-      for (let k = 0; k < 3; k++) {
-        const v = mesh.indices[3 * f + k] * 3;
-        const o = (3 * f + k) * 3;
-        pos[o] = p[v] - frame.cx;
-        pos[o + 1] = p[v + 2];
-        pos[o + 2] = -(p[v + 1] - frame.cy);
-        col[o] = r / 255;
-        col[o + 1] = g / 255;
-        col[o + 2] = b / 255;
-        flat[3 * f + k] = flatter;
-      }
-    }
+    const { pos, col, flat } = surfaceAttributes(mesh, frame, minRatio);
     const g = new THREE.BufferGeometry();
     g.setAttribute("position", new THREE.BufferAttribute(pos, 3));
     g.setAttribute("faceColor", new THREE.BufferAttribute(col, 3));
