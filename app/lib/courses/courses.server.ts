@@ -77,8 +77,13 @@ export async function getCourseFor(
   if (!course) return null;
   const canManage = can(user.role, "courses:manage") && course.organisation_id === user.organisationId;
   if (canManage) return { ...course, canManage };
-  if (access === "view" && (await followedByMyClasses(user.id).where("k.course_id", course.id).first("k.id")))
-    return { ...course, canManage };
+  if (access === "view") {
+    const follows = await db()("classes as k")
+      .join("class_members as m", "m.class_id", "k.id")
+      .where({ "k.course_id": course.id, "m.user_id": user.id })
+      .first("k.id");
+    if (follows) return { ...course, canManage };
+  }
   return null;
 }
 
