@@ -17,6 +17,7 @@ import { clientIp } from "~/lib/rate-limit.server";
 import { appOrigin } from "~/lib/app-url";
 import type { AppLoadContext } from "react-router";
 import { followCourse } from "~/lib/courses/courses.server";
+import { issueCertificatesForClass } from "~/lib/certificates/certificates.server";
 
 export interface ClassActionResult {
   intent: string;
@@ -108,9 +109,10 @@ export async function handleClassAction(o: {
       const done = courseId === "" || isUuid(courseId) ? await followCourse(cls, courseId || null) : null;
       if (!done) return reply({ intent, courseError: "Choose one of your organisation's courses (courseId)." }, 400);
       if (!courseId) return reply({ intent, notice: "The class follows no course now; its assignments stay." });
+      const issued = await issueCertificatesForClass(cls.id);
       return reply({
         intent,
-        notice: `The class follows the course: ${done.assigned} lesson${done.assigned === 1 ? "" : "s"} assigned${cls.ends_on ? ", due dates spread over the class's dates" : ""}.`,
+        notice: `The class follows the course: ${done.assigned} lesson${done.assigned === 1 ? "" : "s"} assigned${cls.ends_on ? ", due dates spread over the class's dates" : ""}.${issued ? ` ${issued} trainee${issued === 1 ? " has" : "s have"} already passed every lesson and got the certificate.` : ""}`,
       });
     }
     default:

@@ -1,7 +1,7 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { useTestDatabase } from "../support/db";
-import { callRoute, formPost, get, sessionCookie } from "../support/accounts";
-import { demoClassId, ensureLesson } from "../support/classes";
+import { callRoute, formPost, get, sessionCookie, uniqueAddress } from "../support/accounts";
+import { demoClassId, ensureLesson, insertAttempt, makeTrainee } from "../support/classes";
 import * as coursesPage from "~/routes/courses._index";
 import * as coursePage from "~/routes/courses.$id";
 import * as classPage from "~/routes/classes.$id";
@@ -155,5 +155,34 @@ describe("courses", () => {
     const rows = await database.db()("assignments").where({ class_id: cls.id }).select("lesson_slug", "due_on");
     expect(rows).toHaveLength(2);
     expect(rows.every((r) => r.due_on === null)).toBe(true);
+  });
+});
+
+describe("following a course after the lessons were passed", () => {
+  it("a member who already passed every lesson gets the certificate when the class follows the course; one who did not gets none", async () => {
+    const org = (await database.db()("courses").where({ id: courseId }).first("organisation_id"))!.organisation_id;
+    const trainerId = (await database.db()("users").where({ email: "trainer@tidemark.example" }).first("id"))!.id;
+    const [cls] = await database
+      .db()("classes")
+      .insert({ organisation_id: org, trainer_id: trainerId, name: "Late follower class" })
+      .returning("id");
+    const done = await makeTrainee(uniqueAddress("late-done"), "Odile Farrant", cls.id);
+    const halfway = await makeTrainee(uniqueAddress("late-half"), "Piet Lanzerac", cls.id);
+    const lessons = await database.db()("course_lessons").where({ course_id: courseId }).pluck("lesson_slug");
+    expect(lessons.length).toBeGreaterThan(1);
+    for (const slug of lessons) await insertAttempt(done, slug, { score: 90, passed: true });
+    await insertAttempt(halfway, lessons[0], { score: 90, passed: true });
+
+    const res = await callRoute(
+      classPage.action,
+      formPost(`/classes/${cls.id}`, { intent: "course", courseId }, trainer),
+      { params: { id: cls.id } },
+    );
+    expect(res.status).toBe(200);
+    expect((res.data as { notice: string }).notice).toMatch(/1 trainee has already passed every lesson/);
+    expect(
+      await database.db()("certificates").where({ trainee_id: done, course_id: courseId }).count("* as n"),
+    ).toEqual([{ n: "1" }]);
+    expect(await database.db()("certificates").where({ trainee_id: halfway })).toEqual([]);
   });
 });

@@ -89,6 +89,21 @@ export async function issueCertificatesAfterGrade(traineeId: string, lessonSlug:
   }
 }
 
+/**
+ * When a class starts to follow a course, its members who have already passed every lesson of it
+ * get their certificate then: their last lesson was passed before the class followed the course.
+ */
+export async function issueCertificatesForClass(classId: string): Promise<number> {
+  const cls = await db()("classes").where({ id: classId }).first("course_id");
+  if (!cls?.course_id) return 0;
+  const first = await db()("course_lessons").where({ course_id: cls.course_id }).first("lesson_slug");
+  if (!first) return 0;
+  const members: string[] = await db()("class_members").where({ class_id: classId }).pluck("user_id");
+  let issued = 0;
+  for (const m of members) issued += (await issueCertificatesFor(m, first.lesson_slug)).length;
+  return issued;
+}
+
 const dayUtc = (col: string) => db().raw(`to_char(${col} at time zone 'UTC', 'YYYY-MM-DD')`);
 
 function certificateQuery() {
