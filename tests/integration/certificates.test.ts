@@ -14,6 +14,7 @@ import * as attemptsApi from "~/routes/api.v1.attempts";
 import * as certificatePage from "~/routes/certificates.$id";
 import * as certificatePdfRoute from "~/routes/certificates.$id-pdf";
 import * as verify from "~/routes/verify.$code";
+import * as myAttempts from "~/routes/attempts._index";
 import { getLesson } from "~/lib/lessons/catalogue.server";
 import { roofTaskOf, type Lesson } from "~/lib/lessons/schema";
 import { certificateLines } from "~/lib/certificates/certificate-text";
@@ -206,6 +207,11 @@ describe("certificates", () => {
     });
     expect((await open(trainer)).status).toBe(200);
     expect((await open(admin)).status).toBe(200);
+    // The trainee finds it on My attempts.
+    const listed = await callRoute(myAttempts.loader, get("/attempts", await cookieFor(traineeEmail)));
+    expect((listed.data as { certificates: { id: string; courseName: string }[] }).certificates).toEqual([
+      expect.objectContaining({ id: certificateId, courseName: "Falls to outlets, foundation" }),
+    ]);
     for (const other of ["trainee@tidemark.example", "designer@tidemark.example", "trainer2@tidemark.example"]) {
       expect((await open(await sessionCookie(other))).status, other).toBe(404);
     }
