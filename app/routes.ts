@@ -32,6 +32,8 @@ export default [
   route("classes/:id/hand-ups", "routes/classes.$id.hand-ups.ts"),
   route("classes/:id/gradebook.csv", "routes/classes.$id.gradebook-csv.ts"),
   route("classes/:id/present", "routes/classes.$id.present.tsx"),
+  // A dynamic segment with a literal suffix, as the check report's: /certificates/:id.pdf.
+  route("certificates/:id.pdf", "routes/certificates.$id-pdf.ts"),
   layout("routes/_shell.tsx", [
     index("routes/_index.tsx"),
     route("sandbox", "routes/sandbox.tsx"),
@@ -50,6 +52,10 @@ export default [
     route("classes/:id/gradebook", "routes/classes.$id.gradebook.tsx"),
     route("classes/:id/follow", "routes/classes.$id.follow.tsx"),
     route("gradebook", "routes/gradebook.tsx"),
+    route("courses", "routes/courses._index.tsx"),
+    route("courses/:id", "routes/courses.$id.tsx"),
+    route("certificates/:id", "routes/certificates.$id.tsx"),
+    route("verify/:code", "routes/verify.$code.tsx"),
     route("attempts/:id/review", "routes/attempts.$id.review.tsx"),
     route("login", "routes/login.tsx"),
     route("signup", "routes/signup.tsx"),

@@ -16,6 +16,7 @@ export const AUDIT_ACTIONS = {
   invitation_accepted: "Invitation accepted",
   signed_up: "Signed up",
   signup_setting_changed: "Open designer sign-up changed",
+  certificate_revoked: "Certificate revoked",
 } as const;
 
 export type AuditAction = keyof typeof AUDIT_ACTIONS;

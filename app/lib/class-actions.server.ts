@@ -16,6 +16,8 @@ import {
 import { clientIp } from "~/lib/rate-limit.server";
 import { appOrigin } from "~/lib/app-url";
 import type { AppLoadContext } from "react-router";
+import { followCourse } from "~/lib/courses/courses.server";
+import { issueCertificatesForClass } from "~/lib/certificates/certificates.server";
 
 export interface ClassActionResult {
   intent: string;
@@ -27,6 +29,7 @@ export interface ClassActionResult {
   /** What goes back into the invite box: the addresses that could not be read. */
   text?: string;
   assignmentErrors?: Record<string, string>;
+  courseError?: string;
 }
 
 const reply = (result: ClassActionResult, status = 200) => data(result, { status });
@@ -98,6 +101,18 @@ export async function handleClassAction(o: {
         notice: items.length
           ? `${items.length} lesson${items.length === 1 ? "" : "s"} assigned.`
           : "No lessons are assigned now.",
+      });
+    }
+    case "course": {
+      // The class follows a course: its lessons assigned in one step (docs/product.md capability 10).
+      const courseId = String(form.get("courseId") ?? "");
+      const done = courseId === "" || isUuid(courseId) ? await followCourse(cls, courseId || null) : null;
+      if (!done) return reply({ intent, courseError: "Choose one of your organisation's courses (courseId)." }, 400);
+      if (!courseId) return reply({ intent, notice: "The class follows no course now; its assignments stay." });
+      const issued = await issueCertificatesForClass(cls.id);
+      return reply({
+        intent,
+        notice: `The class follows the course: ${done.assigned} lesson${done.assigned === 1 ? "" : "s"} assigned${cls.ends_on ? ", due dates spread over the class's dates" : ""}.${issued ? ` ${issued} trainee${issued === 1 ? " has" : "s have"} already passed every lesson and got the certificate.` : ""}`,
       });
     }
     default:

@@ -96,6 +96,23 @@ export interface AuditLogRow {
 export type AuditLogInsert = Omit<AuditLogRow, "id" | "actor_id" | "subject_id" | "detail" | "ip" | "at"> &
   Partial<Pick<AuditLogRow, "id" | "actor_id" | "subject_id" | "detail" | "ip" | "at">>;
 
+export interface CertificateRow {
+  id: string;
+  trainee_id: string;
+  course_id: string;
+  organisation_id: string;
+  issued_at: Date;
+  code: string;
+  revoked_at: Date | null;
+  revoked_by: string | null;
+  revoke_reason: string | null;
+}
+export type CertificateInsert = Omit<
+  CertificateRow,
+  "id" | "issued_at" | "revoked_at" | "revoked_by" | "revoke_reason"
+> &
+  Partial<Pick<CertificateRow, "id" | "issued_at" | "revoked_at" | "revoked_by" | "revoke_reason">>;
+
 export interface ClassHandUpRow {
   id: string;
   class_id: string;
@@ -128,17 +145,55 @@ export interface ClassRow {
   created_at: Date;
   live_phase: LivePhase;
   wall_seq: number;
+  course_id: string | null;
 }
 export type ClassInsert = Omit<
   ClassRow,
-  "id" | "starts_on" | "ends_on" | "venue" | "live_state" | "live_seq" | "created_at" | "live_phase" | "wall_seq"
+  | "id"
+  | "starts_on"
+  | "ends_on"
+  | "venue"
+  | "live_state"
+  | "live_seq"
+  | "created_at"
+  | "live_phase"
+  | "wall_seq"
+  | "course_id"
 > &
   Partial<
     Pick<
       ClassRow,
-      "id" | "starts_on" | "ends_on" | "venue" | "live_state" | "live_seq" | "created_at" | "live_phase" | "wall_seq"
+      | "id"
+      | "starts_on"
+      | "ends_on"
+      | "venue"
+      | "live_state"
+      | "live_seq"
+      | "created_at"
+      | "live_phase"
+      | "wall_seq"
+      | "course_id"
     >
   >;
+
+export interface CourseLessonRow {
+  course_id: string;
+  lesson_slug: string;
+  position: number;
+}
+export type CourseLessonInsert = CourseLessonRow;
+
+export interface CourseRow {
+  id: string;
+  organisation_id: string;
+  name: string;
+  description: string;
+  created_by: string | null;
+  created_at: Date;
+  updated_at: Date;
+}
+export type CourseInsert = Omit<CourseRow, "id" | "description" | "created_by" | "created_at" | "updated_at"> &
+  Partial<Pick<CourseRow, "id" | "description" | "created_by" | "created_at" | "updated_at">>;
 
 export interface LessonVersionRow {
   slug: string;
@@ -334,6 +389,17 @@ export const TABLE_COLUMNS = {
     "idempotency_hash",
   ],
   audit_log: ["id", "actor_id", "subject_id", "action", "detail", "ip", "at"],
+  certificates: [
+    "id",
+    "trainee_id",
+    "course_id",
+    "organisation_id",
+    "issued_at",
+    "code",
+    "revoked_at",
+    "revoked_by",
+    "revoke_reason",
+  ],
   class_hand_ups: ["id", "class_id", "user_id", "title", "spec", "figures", "created_at"],
   class_members: ["class_id", "user_id", "joined_at"],
   classes: [
@@ -349,7 +415,10 @@ export const TABLE_COLUMNS = {
     "created_at",
     "live_phase",
     "wall_seq",
+    "course_id",
   ],
+  course_lessons: ["course_id", "lesson_slug", "position"],
+  courses: ["id", "organisation_id", "name", "description", "created_by", "created_at", "updated_at"],
   lesson_versions: ["slug", "version", "content", "first_seen_at"],
   lessons: ["slug", "title", "position", "version", "content", "synced_at"],
   organisations: ["id", "name", "open_designer_signup", "created_at"],
@@ -403,6 +472,11 @@ declare module "knex/types/tables" {
     >;
     attempts: Knex.CompositeTableType<AttemptRow, Writable<AttemptInsert>, Partial<Writable<AttemptRow>>>;
     audit_log: Knex.CompositeTableType<AuditLogRow, Writable<AuditLogInsert>, Partial<Writable<AuditLogRow>>>;
+    certificates: Knex.CompositeTableType<
+      CertificateRow,
+      Writable<CertificateInsert>,
+      Partial<Writable<CertificateRow>>
+    >;
     class_hand_ups: Knex.CompositeTableType<
       ClassHandUpRow,
       Writable<ClassHandUpInsert>,
@@ -414,6 +488,12 @@ declare module "knex/types/tables" {
       Partial<Writable<ClassMemberRow>>
     >;
     classes: Knex.CompositeTableType<ClassRow, Writable<ClassInsert>, Partial<Writable<ClassRow>>>;
+    course_lessons: Knex.CompositeTableType<
+      CourseLessonRow,
+      Writable<CourseLessonInsert>,
+      Partial<Writable<CourseLessonRow>>
+    >;
+    courses: Knex.CompositeTableType<CourseRow, Writable<CourseInsert>, Partial<Writable<CourseRow>>>;
     lesson_versions: Knex.CompositeTableType<
       LessonVersionRow,
       Writable<LessonVersionInsert>,

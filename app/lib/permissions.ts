@@ -16,6 +16,10 @@ export const PERMISSIONS = {
   "invite:staff": ["admin"],
   "users:manage": ["admin"],
   "outbox:view": ["admin"],
+  // Courses and certificates (docs/product.md capability 10): trainees see the courses their classes follow.
+  "courses:manage": ["admin", "trainer"],
+  "courses:view": ["admin", "trainer", "trainee"],
+  "certificates:revoke": ["admin", "trainer"],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Permission = keyof typeof PERMISSIONS;

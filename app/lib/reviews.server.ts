@@ -12,6 +12,7 @@ import { failedRequiredOf, type GradeResult } from "~/lib/lessons/grade";
 import { readGrade, type GradeReading } from "~/lib/lessons/grading-rule";
 import { sendNotice } from "~/lib/mail.server";
 import { can } from "~/lib/permissions";
+import { issueCertificatesAfterGrade } from "~/lib/certificates/certificates.server";
 
 /** See AttemptReview in ~/lib/gradebook (shared with the pages that show reviews). */
 export type ReviewView = AttemptReview;
@@ -145,6 +146,11 @@ export async function addReview(o: {
       reason: input.override?.reason ?? null,
     })
     .returning("id");
+  // An override that passes may complete a course; one that does not issues nothing (docs/product.md capability 10).
+  if (input.override) {
+    const a = await db()("attempts").where({ id: attempt.id }).first("trainee_id", "lesson_slug");
+    if (a) await issueCertificatesAfterGrade(a.trainee_id, a.lesson_slug);
+  }
   const who = reviewer.name || reviewer.email;
   const verdict = (passed: boolean) => (passed ? "passed" : "not passed");
   const paragraphs: string[] = [];

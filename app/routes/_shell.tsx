@@ -17,6 +17,7 @@ const NAV: { to: string; label: string; permission?: Permission; signedIn?: bool
   { to: "/roofs", label: "Roofs", permission: "roofs:own" },
   { to: "/lessons", label: "Lessons" },
   { to: "/classes", label: "Classes", permission: "classes:view" },
+  { to: "/courses", label: "Courses", permission: "courses:view" },
   { to: "/gradebook", label: "Gradebook", permission: "gradebook:view" },
   { to: "/admin", label: "Admin", permission: "users:manage" },
 ];

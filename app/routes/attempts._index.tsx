@@ -10,6 +10,8 @@ import { formatWhen } from "~/lib/when";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
 import { PassMark } from "~/components/lessons/results";
 import { formatScore } from "~/lib/gradebook";
+import { certificatesOf } from "~/lib/certificates/certificates.server";
+import { MyCertificates } from "~/components/courses/my-certificates";
 
 export const meta: Route.MetaFunction = () => [{ title: "My attempts · Fallwright" }];
 
@@ -17,7 +19,9 @@ export async function loader({ request }: Route.LoaderArgs) {
   const user = await requirePermission(request, "lessons:take");
   const attempts = await listAttempts(db(), user.id);
   const grades = await gradesOfAttempts(attempts.map((a) => a.id));
+  const certificates = await certificatesOf(user.id);
   return {
+    certificates,
     attempts: attempts.map((a) => ({
       grade: grades.get(a.id) ?? null,
       id: a.id,
@@ -37,7 +41,7 @@ const minutes = (s: number) => (s < 60 ? `${s} s` : `${Math.round(s / 60)} min`)
 
 export default function MyAttempts({ loaderData }: Route.ComponentProps) {
   const locale = useLocale();
-  const { attempts } = loaderData;
+  const { attempts, certificates } = loaderData;
   return (
     <div className="grid gap-6">
       <header>
@@ -52,6 +56,7 @@ export default function MyAttempts({ loaderData }: Route.ComponentProps) {
           to turn your roof in 3D.
         </p>
       </header>
+      <MyCertificates certificates={certificates} />
       {attempts.length === 0 ? (
         <div className="card">
           <p>No attempts yet. Pick a lesson, answer its questions, shape its roof and submit.</p>

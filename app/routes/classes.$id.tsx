@@ -11,6 +11,8 @@ import { ClassDetailsFields } from "~/components/classes/class-details-fields";
 import { InviteForm } from "~/components/classes/invite-form";
 import { PendingInvitations, RosterTable } from "~/components/classes/roster";
 import { FormError, FormNotice, SubmitButton } from "~/components/form-field";
+import { classCourseChoice } from "~/lib/courses/courses.server";
+import { FollowCourseForm } from "~/components/courses/follow-course-form";
 
 export const meta: Route.MetaFunction = ({ data }) => [
   { title: `${data?.cls.name ?? "Class"} · Classes · Fallwright` },
@@ -19,14 +21,15 @@ export const meta: Route.MetaFunction = ({ data }) => [
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requirePermission(request, "classes:manage");
   const cls = await findClassFor(user, params.id, "manage");
-  const [members, pending, assignments, lessons] = await Promise.all([
+  const [members, pending, assignments, lessons, course] = await Promise.all([
     classRoster(cls.id),
     pendingInvitations(cls.id),
     classAssignments(cls.id),
     listLessons(),
+    classCourseChoice(user, cls.id),
   ]);
   const created = new URL(request.url).searchParams.get("created") === "1";
-  return { cls, members, pending, assignments, lessons, created };
+  return { cls, members, pending, assignments, lessons, created, course };
 }
 
 export async function action({ request, params, context }: Route.ActionArgs) {
@@ -37,7 +40,7 @@ export async function action({ request, params, context }: Route.ActionArgs) {
 }
 
 export default function ClassPage({ loaderData, actionData }: Route.ComponentProps) {
-  const { cls, members, pending, assignments, lessons, created } = loaderData;
+  const { cls, members, pending, assignments, lessons, created, course } = loaderData;
   const result = actionData;
   const detailsFailed = result?.intent === "details" && !!result.errors;
   const notice =
@@ -126,6 +129,15 @@ export default function ClassPage({ loaderData, actionData }: Route.ComponentPro
           Tick the lessons this class must do and give each a due date. Trainees see them on their Classes page; the
           gradebook has a column for each.
         </p>
+        <div className="mt-3">
+          <FollowCourseForm
+            key={course.courseId ?? "none"}
+            courseId={course.courseId}
+            courses={course.courses}
+            hasDates={!!cls.ends_on}
+            error={result?.intent === "course" ? result.courseError : undefined}
+          />
+        </div>
         <div className="mt-3">
           <AssignmentsForm
             key={assignments.map((a) => `${a.lesson_slug}:${a.due_on}`).join()}

@@ -57,6 +57,7 @@ const ROLES: { role: string; email: string | null; screens: Record<string, Where
         "/invite/not-a-token",
         "/s/not-a-token",
         "/no-such-page",
+        "/verify/0000-0000-0000",
       ].map((p) => [p, p]),
     ),
   },
@@ -84,6 +85,7 @@ const ROLES: { role: string; email: string | null; screens: Record<string, Where
       "/classes/:id/gradebook": async (page) => (await link("/classes", CLASS)(page)) + "/gradebook",
       "/classes/:id/present": async (page) => (await link("/classes", CLASS)(page)) + "/present",
       "/gradebook": "/gradebook",
+      "/courses": "/courses",
       // Each graded cell of the gradebook links to that attempt's review, with the class to return to.
       "/attempts/:id/review": link("/gradebook", `/attempts/${UUID}/review\\?class=${UUID}`),
     },

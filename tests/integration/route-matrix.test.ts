@@ -210,6 +210,16 @@ const MATRIX: Record<string, Case[]> = {
     },
   ],
   "/gradebook": [{ path: "/gradebook", expect: s(302, 200, 200, 403, 403) }],
+  // Courses and certificates (docs/product.md capability 10)
+  "/courses": [
+    { path: "/courses", expect: s(302, 200, 200, 200, 403), why: "trainees see the courses their classes follow" },
+  ],
+  "/courses/:id": [{ path: "/courses/{uuid}", expect: s(302, 404, 404, 404, 403) }],
+  "/certificates/:id": [{ path: "/certificates/{uuid}", expect: SIGNED_IN(404) }],
+  "/certificates/:id.pdf": [{ path: "/certificates/{uuid}.pdf", expect: SIGNED_IN(404) }],
+  "/verify/:code": [
+    { path: "/verify/0000-0000-0000", expect: ALL(404), why: "public: a code no certificate has is 404 for everyone" },
+  ],
   "/*": [{ path: "/no-such-page/{uuid}", expect: ALL(404), why: "the 404 page inside the shell, with its navigation" }],
 };
 

@@ -2,6 +2,7 @@ import type { SessionUser } from "../auth.server";
 import { db } from "../db.server";
 import { createAttempt, submissionSchema, type CreateOutcome } from "./attempts.server";
 import { ensureLessonsSynced, getLesson } from "./catalogue.server";
+import { issueCertificatesAfterGrade } from "../certificates/certificates.server";
 
 export type SubmitOutcome =
   CreateOutcome | { status: 400; message: string; issues: { path: string; message: string }[] };
@@ -15,7 +16,10 @@ export async function submitAttempt(user: SessionUser, body: unknown): Promise<S
   if (!parsed.success)
     return { status: 400, message: "The attempt is malformed.", issues: issuesOf(parsed.error.issues) };
   await ensureLessonsSynced();
-  return createAttempt(db(), user.id, parsed.data, getLesson);
+  const outcome = await createAttempt(db(), user.id, parsed.data, getLesson);
+  // A new grade may complete a course (docs/product.md capability 10).
+  if (outcome.status === 201) await issueCertificatesAfterGrade(user.id, parsed.data.lesson);
+  return outcome;
 }
 
 /** The player's form, read into the API's body: answers from fields `q:<id>`, the roof from `spec` (JSON). */
