@@ -1,4 +1,5 @@
 import { describe, expect, it } from "vitest";
+import { ratioSpread } from "../bench/stats";
 import { longTaskTime, medianOf, ratio, serverTime, summarise, type LoadTiming } from "../bench/page-timing";
 
 const load = (over: Partial<LoadTiming>): LoadTiming => ({
@@ -61,5 +62,13 @@ describe("bench page timing", () => {
     expect(serverTime(log, "bbb")).toBe(40);
     expect(serverTime(log, "ccc")).toBeNull();
     expect(serverTime(log, undefined)).toBeNull();
+  });
+});
+
+describe("bench ratio spread", () => {
+  it("gives the median of the rounds' ratios with their middle half and range", () => {
+    const { median, note } = ratioSpread([0.9, 0.2, 0.5, 0.6, 0.4, 0.55, 0.45, 0.7]);
+    expect(median).toBeCloseTo(0.525);
+    expect(note).toBe("8 rounds, middle half 0.45–0.70, all 0.20–0.90");
   });
 });
