@@ -27,6 +27,8 @@ export interface LoadTiming {
 
 export interface PageSummary {
   loads: number;
+  /** Loads that never answered input, or (on a page with 3D) never drew: a row with any fails. */
+  missed: { hydrated: number; drawn: number };
   ttfb: number;
   dcl: number;
   hydrated: number | null;
@@ -50,6 +52,10 @@ export function summarise(loads: LoadTiming[]): PageSummary {
   const pick = (k: Exclude<keyof LoadTiming, "phases">) => medianOf(loads.map((l) => l[k]));
   return {
     loads: loads.length,
+    missed: {
+      hydrated: loads.filter((l) => l.hydrated == null).length,
+      drawn: loads.filter((l) => l.drawn == null).length,
+    },
     ttfb: pick("ttfb")!,
     dcl: pick("dcl")!,
     hydrated: pick("hydrated"),

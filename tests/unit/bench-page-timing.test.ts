@@ -28,6 +28,8 @@ describe("bench page timing", () => {
       load({ hydrated: 800, drawn: 5000, phases: { shaderMs: 200, gl: 10 } }),
     ]);
     expect(s.loads).toBe(3);
+    expect(s.missed).toEqual({ hydrated: 0, drawn: 0 });
+    expect(summarise([load({ hydrated: null }), load({ drawn: 5 })]).missed).toEqual({ hydrated: 1, drawn: 1 });
     expect(s.hydrated).toBe(800);
     expect(s.drawn).toBe(5000);
     expect(s.scriptKB).toBe(100);
