@@ -4,10 +4,15 @@ import { ArrowLeft } from "lucide-react";
 
 let hydrated = false;
 
-/** Called by the root: after hydration an error comes from a later request, whose id this page does not know. */
+/**
+ * Called by the root: after hydration an error comes from a later request, whose id this page does not know.
+ * Also marks the document (`<html data-hydrated>`) once the page answers input: the root's effect
+ * runs after every route's, so the bench (tests/bench/browser-section.ts) times the page from it.
+ */
 export function useMarkHydrated() {
   useEffect(() => {
     hydrated = true;
+    document.documentElement.dataset.hydrated = "";
   }, []);
 }
 

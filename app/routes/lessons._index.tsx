@@ -21,9 +21,11 @@ export const meta: Route.MetaFunction = () => [
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await getOptionalUser(request);
-  const progress: Record<string, Progress> = user ? await progressOf(db(), user.id) : {};
-  // Due dates from the classes the user belongs to (a trainer's own classes have no members' dates here).
-  const due: Record<string, LessonDue> = user ? await dueDatesForTrainee(user.id) : {};
+  // Progress, and due dates from the classes the user belongs to (a trainer's own classes have no
+  // members' dates here): independent, so asked for together.
+  const [progress, due]: [Record<string, Progress>, Record<string, LessonDue>] = user
+    ? await Promise.all([progressOf(db(), user.id), dueDatesForTrainee(user.id)])
+    : [{}, {}];
   return {
     signedIn: !!user,
     today: new Date().toISOString().slice(0, 10),

@@ -16,6 +16,12 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requirePermission(request, "roofs:own");
   const roof = await getRoofFor(user, params.id);
   if (!roof) throw data("No roof with that id in your library.", { status: 404 });
+  // The three lists are independent: asked for together, not one after another.
+  const [versions, shareLinks, checks] = await Promise.all([
+    roof.canEdit ? listVersions(roof.id) : [],
+    roof.canEdit ? listShareLinks(roof.id) : [],
+    listChecks(roof.id),
+  ]);
   return {
     roof: {
       id: roof.id,
@@ -28,9 +34,9 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     },
     underlay: roof.underlay,
     underlayUrl: roof.underlayId ? underlayUrl(roof.id, roof.underlayId) : null,
-    versions: roof.canEdit ? await listVersions(roof.id) : [],
-    shareLinks: roof.canEdit ? await listShareLinks(roof.id) : [],
-    checks: await listChecks(roof.id),
+    versions,
+    shareLinks,
+    checks,
   };
 }
 

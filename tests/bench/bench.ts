@@ -298,11 +298,14 @@ export async function main(sections: Section[] = SECTIONS): Promise<boolean> {
 if (import.meta.url === `file://${process.argv[1]}`) {
   const { apiSection } = await import("./api-section.ts");
   const { responsivenessSection } = await import("./responsiveness-section.ts");
+  const { browserSection } = await import("./browser-section.ts");
   const chosen = process.argv.includes("--engine-only")
     ? SECTIONS
     : process.argv.includes("--responsiveness-only")
       ? [responsivenessSection]
-      : [...SECTIONS, apiSection, responsivenessSection];
+      : process.argv.includes("--browser-only")
+        ? [browserSection]
+        : [...SECTIONS, apiSection, responsivenessSection, browserSection];
   main(chosen).then(
     (ok) => process.exit(ok ? 0 : 1),
     (error) => {
