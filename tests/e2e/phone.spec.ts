@@ -255,3 +255,24 @@ test("phone: the drop schedule is one card per joist, nothing scrolls sideways, 
   await page.getByLabel("Sort by").selectOption({ label: "Fall, steepest first" });
   await expect(top).toHaveText(steepest);
 });
+
+test("phone: the plan's hints say tap, not click, and the page hydrates without a mismatch", async ({ page }) => {
+  const errors: string[] = [];
+  page.on("console", (m) => {
+    if (m.type() === "error") errors.push(m.text());
+  });
+  page.on("pageerror", (e) => errors.push(e.message));
+  await openSandbox(page);
+  // The server cannot know the pointer; once mounted the page asks the browser (pointer: coarse).
+  expect(await page.evaluate(() => matchMedia("(pointer: coarse)").matches)).toBe(true);
+  const aside = page.getByTestId("plan-card").getByText(/an edge for an outlet/);
+  await expect(aside).toHaveText("drag corners · tap an edge for an outlet · double-tap to add a corner");
+  const hint = page.getByTestId("plan-tool-hint");
+  await page.getByTestId("draw-ridge").tap();
+  await expect(hint).toContainText("Drawing a ridge: tap a wall where it starts.");
+  await page.getByTestId("draw-opening").tap();
+  await expect(hint).toContainText("Drawing an opening: drag from one corner to the opposite one, or tap both.");
+  await expect(page.getByTestId("draw-opening")).toHaveAttribute("title", /drag or tap two corners/);
+  await expect(page.getByTestId("plan-card")).not.toContainText(/click/i);
+  expect(errors.filter((e) => /hydrat/i.test(e))).toEqual([]);
+});

@@ -58,7 +58,11 @@ test("plan by mouse: a ridge drawn by two clicks and its end dragged along a wal
   // Ridge tool: a click just inside the south wall starts the ridge on it, one just inside the
   // north wall ends it there (both snap onto the wall).
   await page.getByTestId("draw-ridge").click();
-  await expect(page.getByTestId("plan-tool-hint")).toContainText("click or tap a wall");
+  // A mouse (fine pointer): the hints say click; on a touch screen they say tap (phone.spec.ts).
+  await expect(page.getByTestId("plan-card")).toContainText(
+    "click an edge for an outlet · double-click to add a corner",
+  );
+  await expect(page.getByTestId("plan-tool-hint")).toContainText("Drawing a ridge: click a wall where it starts.");
   let at = await planScale(page);
   await page.mouse.click(...at(3.02, 0.1));
   await expect(page.getByTestId("plan-tool-hint")).toContainText("Ridge: 1 point");

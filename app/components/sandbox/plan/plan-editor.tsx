@@ -34,6 +34,7 @@ import {
 import { useSandbox, useSandboxStore } from "../state/store";
 import type { Underlay } from "./underlay";
 import { useFormat } from "../format";
+import { usePointerWords } from "~/components/use-pointer-words";
 
 type Drag =
   | { kind: "vertex"; index: number }
@@ -86,6 +87,7 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
   const hasError = useSandbox((s) => s.engineError !== null);
   const dragging = useSandbox((s) => s.gesture !== null);
   const { metres: len_, mm: level_ } = useFormat();
+  const { click, Click } = usePointerWords();
   const helpId = useId();
   const svgRef = useRef<SVGSVGElement>(null);
   const drag = useRef<Drag | null>(null);
@@ -545,15 +547,15 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
   }
 
   // ── drawing a new ridge or opening (a tap or click per point; the mouse may drag an opening out) ──
+  const openingHowTo = `drag from one corner to the opposite one, or ${click} both`;
   function chooseTool(next: Tool) {
     setDraft([]);
     setHover(null);
     setChoice(null);
     setTool((t) => (t === next ? "select" : next));
     if (next === "ridge" && tool !== "ridge")
-      announce("Drawing a ridge: click or tap a wall to start it, then each bend, and end it on a wall. Esc stops.");
-    if (next === "opening" && tool !== "opening")
-      announce("Drawing an opening: drag from one corner to the other, or tap both corners. Esc stops.");
+      announce(`Drawing a ridge: ${click} a wall to start it, then each bend, and end it on a wall. Esc stops.`);
+    if (next === "opening" && tool !== "opening") announce(`Drawing an opening: ${openingHowTo}. Esc stops.`);
   }
 
   function leaveTool() {
@@ -627,7 +629,7 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
     }
     if (dragged) return;
     if (draft.length === 0) {
-      if (!onWall) return announce("A ridge starts on a wall: click or tap on or near one.");
+      if (!onWall) return announce(`A ridge starts on a wall: ${click} on or near one.`);
       setDraft([point]);
       return announce(
         `Ridge started at x ${len_(point[0])}, y ${len_(point[1])}: now each bend, and end it on a wall.`,
@@ -909,11 +911,11 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
         <p className="mt-1 rounded border border-accent bg-paper px-2 py-1 text-sm" data-testid="plan-tool-hint">
           {tool === "ridge"
             ? draft.length === 0
-              ? "Drawing a ridge: click or tap a wall where it starts."
-              : `Ridge: ${draft.length} point${draft.length > 1 ? "s" : ""}. Click or tap each bend, and a wall to end it${draft.length >= 2 ? " (Enter ends it here)" : ""}.`
+              ? `Drawing a ridge: ${click} a wall where it starts.`
+              : `Ridge: ${draft.length} point${draft.length > 1 ? "s" : ""}. ${Click} each bend, and a wall to end it${draft.length >= 2 ? " (Enter ends it here)" : ""}.`
             : draft.length === 0
-              ? "Drawing an opening: drag from one corner to the opposite one, or tap both."
-              : "Opening: now click or tap the opposite corner."}{" "}
+              ? `Drawing an opening: ${openingHowTo}.`
+              : `Opening: now ${click} the opposite corner.`}{" "}
           Esc stops.
         </p>
       )}
@@ -939,7 +941,7 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
               type="button"
               className={`btn px-2 py-0.5 text-xs ${tool === "opening" ? "bg-accent text-sheet" : ""}`}
               aria-pressed={tool === "opening"}
-              title="Draw an opening (rooflight, hatch, plant base): drag or tap two corners"
+              title={`Draw an opening (rooflight, hatch, plant base): drag or ${click} two corners`}
               onClick={() => chooseTool("opening")}
               data-testid="draw-opening"
             >
