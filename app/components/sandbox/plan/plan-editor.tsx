@@ -2,6 +2,8 @@ import { useEffect, useId, useRef, useState, type KeyboardEvent, type PointerEve
 import { PLAN_SHORTCUTS, shortcutSentence, UNDO_SHORTCUTS } from "~/lib/shortcuts";
 import { Lock, Maximize2, SquareDashed, Spline, ZoomIn, ZoomOut } from "lucide-react";
 import type { Point, RoofSpec } from "~/engine";
+// The geometry module itself, not `~/engine`: the engine's face brings mathjs onto the page.
+import { pointsSignedArea } from "~/engine/geometry/area";
 import { PlanGrid } from "./plan-grid";
 import { PlanOverlays } from "./plan-overlays";
 import { DrawPreview, PlanFeatures } from "./plan-features";
@@ -29,7 +31,6 @@ import {
   projectOnSegment,
   setEdgeKind,
   setRidgePoint,
-  signedArea,
 } from "../state/spec-edit";
 import { useSandbox, useSandboxStore } from "../state/store";
 import type { Underlay } from "./underlay";
@@ -163,7 +164,7 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
   const px = box.w / size.w;
   const kinds = edgeKindsOf(spec);
   const n = spec.outline.length;
-  const ccw = signedArea(spec.outline) > 0;
+  const ccw = pointsSignedArea(spec.outline) > 0;
   const snap: SnapOptions = {
     grid: view.snapToGrid,
     step: view.gridStep,
