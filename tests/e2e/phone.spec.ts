@@ -267,6 +267,7 @@ test("phone: the plan's hints say tap, not click, and the page hydrates without 
   expect(await page.evaluate(() => matchMedia("(pointer: coarse)").matches)).toBe(true);
   const aside = page.getByTestId("plan-card").getByText(/an edge for an outlet/);
   await expect(aside).toHaveText("drag corners · tap an edge for an outlet · double-tap to add a corner");
+  await expect(page.getByTestId("fall-map-card")).toContainText("drag to turn · pinch to zoom");
   const hint = page.getByTestId("plan-tool-hint");
   await page.getByTestId("draw-ridge").tap();
   await expect(hint).toContainText("Drawing a ridge: tap a wall where it starts.");

@@ -213,7 +213,7 @@ function Layout({ underlay, toolbarExtra }: { underlay?: Underlay; toolbarExtra?
   const minRatio = useSandbox((s) => s.analysis?.minFall.ratio ?? 100);
   const readOnly = useSandbox((s) => s.readOnly);
   const mounted = useMounted();
-  const { click, doubleClick } = usePointerWords();
+  const { click, doubleClick, coarse } = usePointerWords();
   const [cameraReset, setCameraReset] = useState(0);
   const resetCamera = () => setCameraReset((n) => n + 1);
 
@@ -249,7 +249,7 @@ function Layout({ underlay, toolbarExtra }: { underlay?: Underlay; toolbarExtra?
           <Card
             title="Fall map"
             testId="fall-map-card"
-            aside={<span className="text-xs text-ink-soft">drag to turn · wheel to zoom</span>}
+            aside={<span className="text-xs text-ink-soft">drag to turn · {coarse ? "pinch" : "wheel"} to zoom</span>}
           >
             <ViewControls onReset={resetCamera} />
             <div className="mt-2 aspect-[4/3] w-full overflow-hidden rounded border border-rule bg-paper-deep">

@@ -930,30 +930,30 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
           <div className="flex shrink-0 gap-1" role="group" aria-label="Draw on the plan">
             <button
               type="button"
-              className={`btn px-2 py-0.5 text-xs ${tool === "ridge" ? "bg-accent text-sheet" : ""}`}
+              className={`btn px-2 py-1 text-sm ${tool === "ridge" ? "bg-accent text-sheet" : ""}`}
               aria-pressed={tool === "ridge"}
               title="Draw a ridge: from a wall, through its bends, to a wall"
               onClick={() => chooseTool("ridge")}
               data-testid="draw-ridge"
             >
-              <Spline size={14} aria-hidden="true" /> Ridge
+              <Spline size={16} aria-hidden="true" /> Ridge
             </button>
             <button
               type="button"
-              className={`btn px-2 py-0.5 text-xs ${tool === "opening" ? "bg-accent text-sheet" : ""}`}
+              className={`btn px-2 py-1 text-sm ${tool === "opening" ? "bg-accent text-sheet" : ""}`}
               aria-pressed={tool === "opening"}
               title={`Draw an opening (rooflight, hatch, plant base): drag or ${click} two corners`}
               onClick={() => chooseTool("opening")}
               data-testid="draw-opening"
             >
-              <SquareDashed size={14} aria-hidden="true" /> Opening
+              <SquareDashed size={16} aria-hidden="true" /> Opening
             </button>
           </div>
         )}
         <div className="flex shrink-0 gap-1" role="group" aria-label="Plan zoom">
           <button
             type="button"
-            className="btn px-2 py-0.5 text-xs"
+            className="btn px-2 py-1 text-sm"
             aria-label="Zoom in the plan"
             title="Zoom in (or pinch)"
             onClick={() => zoomBy(1.5)}
@@ -964,7 +964,7 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
           </button>
           <button
             type="button"
-            className="btn px-2 py-0.5 text-xs"
+            className="btn px-2 py-1 text-sm"
             aria-label="Zoom out of the plan"
             title="Zoom out (or pinch)"
             onClick={() => zoomBy(1 / 1.5)}
@@ -975,7 +975,7 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
           </button>
           <button
             type="button"
-            className="btn px-2 py-0.5 text-xs"
+            className="btn px-2 py-1 text-sm"
             title="Fit the roof in the plan"
             onClick={() => {
               setZoom(null);
