@@ -99,8 +99,8 @@ export function AsBuiltTaskPanel({ task, results }: { task: AsBuiltTaskView; res
         </figure>
       </div>
       <div className="card overflow-x-auto" tabIndex={0} aria-label="Survey table">
-        <table className="w-full text-sm tabular-nums" data-testid="survey-table">
-          <caption className="mb-2 text-left text-ink-soft">
+        <table className="data-table w-full tabular-nums" data-testid="survey-table">
+          <caption className="mb-2 text-left text-sm text-ink-soft">
             The survey: levels in mm above the outlet's level. Tolerance ±{mm(task.tolerance.deviation)} mm from the
             design; standing water allowed up to {mm(task.tolerance.pondDepth)} mm deep.
           </caption>
@@ -115,8 +115,11 @@ export function AsBuiltTaskPanel({ task, results }: { task: AsBuiltTaskView; res
           </thead>
           <tbody>
             {task.survey.map((p) => (
-              <tr key={p.label} className="border-t border-line">
-                <th scope="row" className="text-left font-medium">
+              <tr key={p.label}>
+                <th
+                  scope="row"
+                  className="whitespace-nowrap border-b border-rule text-sm font-medium normal-case tracking-normal"
+                >
                   {p.label}
                 </th>
                 <td>{p.at[0]}</td>
@@ -159,7 +162,7 @@ export function AsBuiltTaskPanel({ task, results }: { task: AsBuiltTaskView; res
                   id={`finding-${q.id}`}
                   name={name}
                   form="attempt-form"
-                  className="field mt-2 block w-full max-w-sm"
+                  className="field mt-2 block w-full max-w-lg"
                   placeholder={q.placeholder}
                   autoComplete="off"
                 />
