@@ -42,3 +42,43 @@ test("a trainee finds the low joist end, the pond and the verdict, and passes th
   await expect(summary.getByTestId("grade-score")).toHaveText("100 / 100");
   await expect(page.getByTestId("feedback-task-worst-fix")).toContainText("packed up 16 mm");
 });
+
+test("the survey's plan draws the roof and labels every point without one label running into another", async ({
+  page,
+}) => {
+  test.setTimeout(90_000);
+  await page.goto(`/login?redirectTo=${encodeURIComponent(`/lessons/${SLUG}`)}`);
+  await page.getByLabel("E-mail").fill("trainee@tidemark.example");
+  await page.getByLabel("Password").fill("fallwright-demo");
+  await page.getByRole("button", { name: "Sign in" }).click();
+  await expect(page).toHaveURL(new RegExp(`/lessons/${SLUG}$`));
+  const plan = page.getByRole("img", { name: /^Plan of the \d+ surveyed points$/ });
+  await plan.scrollIntoViewIfNeeded();
+  const count = Number((await plan.getAttribute("aria-label"))!.match(/\d+/)![0]);
+  // The roof's outline is drawn (it was given as path data it is not, and vanished).
+  const outline = (await plan.locator("polygon").boundingBox())!;
+  expect(outline.width).toBeGreaterThan(100);
+  const frame = (await plan.boundingBox())!;
+  const labels = plan.locator("text");
+  await expect(labels).toHaveCount(count);
+  const boxes = await labels.evaluateAll((els) =>
+    els.map((el) => {
+      const r = el.getBoundingClientRect();
+      return { text: el.textContent ?? "", x: r.x, y: r.y, w: r.width, h: r.height };
+    }),
+  );
+  for (const a of boxes) {
+    // Inside the figure, and big enough to read (at least 8 px).
+    expect(a.x, a.text).toBeGreaterThanOrEqual(frame.x - 0.5);
+    expect(a.x + a.w, a.text).toBeLessThanOrEqual(frame.x + frame.width + 0.5);
+    expect(a.y, a.text).toBeGreaterThanOrEqual(frame.y - 0.5);
+    expect(a.y + a.h, a.text).toBeLessThanOrEqual(frame.y + frame.height + 0.5);
+    expect(Math.min(a.w, a.h), a.text).toBeGreaterThanOrEqual(8);
+    for (const b of boxes) {
+      if (a === b) continue;
+      const overlap = Math.min(a.x + a.w, b.x + b.w) - Math.max(a.x, b.x);
+      const overlapY = Math.min(a.y + a.h, b.y + b.h) - Math.max(a.y, b.y);
+      expect(overlap > 0.5 && overlapY > 0.5, `${a.text} runs into ${b.text}`).toBe(false);
+    }
+  }
+});

@@ -1,4 +1,5 @@
 import { expect, test, type CDPSession, type Locator, type Page } from "@playwright/test";
+import fs from "node:fs";
 
 // A phone in portrait: touch only, 390 × 844 CSS px.
 test.use({ viewport: { width: 390, height: 844 }, hasTouch: true, isMobile: true });
@@ -180,4 +181,99 @@ test.describe("tablet", () => {
     }
     expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(820);
   });
+});
+
+test("phone: the drop schedule is one card per joist, nothing scrolls sideways, and it agrees with the CSV", async ({
+  page,
+}) => {
+  await openSandbox(page);
+  const schedule = page.getByTestId("drop-schedule");
+  await schedule.scrollIntoViewIfNeeded();
+  // The sortable table once it has loaded (it replaces the plain one when the schedule comes near).
+  const table = page.getByTestId("schedule-table");
+  await expect(table.locator("tbody tr")).toHaveCount(31);
+  const region = schedule.getByRole("region", { name: "Drop schedule rows" });
+  // Neither the schedule's own box nor the page is wider than the phone.
+  const overflow = await region.evaluate((el) => el.scrollWidth - el.clientWidth);
+  expect(overflow).toBeLessThanOrEqual(0);
+  expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
+  // The header row is hidden; each joist is a card inside the screen, its figures labelled.
+  await expect(table.locator("thead")).not.toBeInViewport();
+  const card = table.locator("tbody tr").first();
+  const box = (await card.boundingBox())!;
+  expect(box.x).toBeGreaterThanOrEqual(0);
+  expect(box.x + box.width).toBeLessThanOrEqual(390);
+  const figure = async (label: string) => {
+    const cell = card.locator(`td[data-label="${label}"]`);
+    await expect(cell).toBeInViewport();
+    return (await cell.textContent())!.trim();
+  };
+  // A start and its end sit side by side on one line of the card.
+  const [start, end] = [
+    (await card.locator('td[data-label="Start level (mm)"]').boundingBox())!,
+    (await card.locator('td[data-label="End level (mm)"]').boundingBox())!,
+  ];
+  expect(Math.abs(start.y - end.y)).toBeLessThan(1);
+  expect(end.x).toBeGreaterThan(start.x);
+
+  // The first joist's figures equal the first row of the CSV the page downloads.
+  const [download] = await Promise.all([page.waitForEvent("download"), page.getByTestId("download-csv").tap()]);
+  const text = fs.readFileSync((await download.path())!, "utf8").replace(/^\uFEFF/, "");
+  const [header, first] = text
+    .trim()
+    .split(/\r?\n,*\r?\n/)
+    .pop()!
+    .split(/\r?\n/)
+    .map((l) => l.split(","));
+  const csv = (name: string) => first[header.indexOf(name)];
+  expect(await figure("Joist")).toBe(csv("joist"));
+  expect(Number(await figure("Offset (m)"))).toBe(Number(csv("offset_m")));
+  expect(Number(await figure("Length (m)"))).toBe(Number(csv("length_m")));
+  expect(await figure("Start level (mm)")).toBe(csv("start_level_mm"));
+  expect(await figure("End level (mm)")).toBe(csv("end_level_mm"));
+  expect(await figure("Start drop below H (mm)")).toBe(csv("start_drop_below_H_mm"));
+  expect(await figure("End drop below H (mm)")).toBe(csv("end_drop_below_H_mm"));
+  expect(await figure("Fall")).toBe(csv("fall"));
+  // Not a roof where every figure is zero: the first joist falls towards its outlet.
+  expect(Number(csv("end_level_mm")) + Number(csv("start_level_mm"))).toBeGreaterThan(0);
+
+  // Sorting is still there: the phone's "Sort by" puts the flattest span (level, or the largest N of 1:N) first.
+  const rows = text
+    .trim()
+    .split(/\r?\n,*\r?\n/)
+    .pop()!
+    .split(/\r?\n/)
+    .slice(1);
+  const falls = rows.map((l) => l.split(",")[header.indexOf("fall")]);
+  const n = (fall: string) => (fall === "level" ? Infinity : Number(fall.replace(/^1:/, "")));
+  const flattest = falls.reduce((a, b) => (n(b) > n(a) ? b : a));
+  const steepest = falls.reduce((a, b) => (n(b) < n(a) ? b : a));
+  expect(flattest).not.toBe(steepest);
+  await page.getByLabel("Sort by").selectOption({ label: "Fall, flattest first" });
+  const top = table.locator("tbody tr").first().locator('td[data-label="Fall"]');
+  await expect(top).toHaveText(flattest);
+  await page.getByLabel("Sort by").selectOption({ label: "Fall, steepest first" });
+  await expect(top).toHaveText(steepest);
+});
+
+test("phone: the plan's hints say tap, not click, and the page hydrates without a mismatch", async ({ page }) => {
+  const errors: string[] = [];
+  page.on("console", (m) => {
+    if (m.type() === "error") errors.push(m.text());
+  });
+  page.on("pageerror", (e) => errors.push(e.message));
+  await openSandbox(page);
+  // The server cannot know the pointer; once mounted the page asks the browser (pointer: coarse).
+  expect(await page.evaluate(() => matchMedia("(pointer: coarse)").matches)).toBe(true);
+  const aside = page.getByTestId("plan-card").getByText(/an edge for an outlet/);
+  await expect(aside).toHaveText("drag corners · tap an edge for an outlet · double-tap to add a corner");
+  await expect(page.getByTestId("fall-map-card")).toContainText("drag to turn · pinch to zoom");
+  const hint = page.getByTestId("plan-tool-hint");
+  await page.getByTestId("draw-ridge").tap();
+  await expect(hint).toContainText("Drawing a ridge: tap a wall where it starts.");
+  await page.getByTestId("draw-opening").tap();
+  await expect(hint).toContainText("Drawing an opening: drag from one corner to the opposite one, or tap both.");
+  await expect(page.getByTestId("draw-opening")).toHaveAttribute("title", /drag or tap two corners/);
+  await expect(page.getByTestId("plan-card")).not.toContainText(/click/i);
+  expect(errors.filter((e) => /hydrat/i.test(e))).toEqual([]);
 });

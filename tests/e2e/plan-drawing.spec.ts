@@ -57,8 +57,17 @@ test("plan by mouse: a ridge drawn by two clicks and its end dragged along a wal
 
   // Ridge tool: a click just inside the south wall starts the ridge on it, one just inside the
   // north wall ends it there (both snap onto the wall).
+  // The drawing tools are targets a mouse hits easily too (WCAG 2.2 2.5.8: at least 24 × 24 px).
+  for (const id of ["draw-ridge", "draw-opening", "plan-zoom-in", "plan-fit"]) {
+    const box = (await page.getByTestId(id).boundingBox())!;
+    expect(Math.min(box.width, box.height), id).toBeGreaterThanOrEqual(24);
+  }
   await page.getByTestId("draw-ridge").click();
-  await expect(page.getByTestId("plan-tool-hint")).toContainText("click or tap a wall");
+  // A mouse (fine pointer): the hints say click; on a touch screen they say tap (phone.spec.ts).
+  await expect(page.getByTestId("plan-card")).toContainText(
+    "click an edge for an outlet · double-click to add a corner",
+  );
+  await expect(page.getByTestId("plan-tool-hint")).toContainText("Drawing a ridge: click a wall where it starts.");
   let at = await planScale(page);
   await page.mouse.click(...at(3.02, 0.1));
   await expect(page.getByTestId("plan-tool-hint")).toContainText("Ridge: 1 point");

@@ -27,6 +27,19 @@ const MIN_INTERVAL_MS = 100;
 const isPhase = (b: Body): b is PhaseBody => "phase" in b;
 
 /**
+ * The one request every message of this hook makes: POST /classes/:id/live with a JSON body.
+ * `keepalive` lets it outlive the page (a tab closing). Rejects only when nothing reached the server.
+ */
+function postLive(classId: string, body: Body, { keepalive = false }: { keepalive?: boolean } = {}) {
+  return fetch(`/classes/${classId}/live`, {
+    method: "POST",
+    keepalive,
+    headers: { "Content-Type": "application/json", Accept: "application/json" },
+    body: JSON.stringify(body),
+  });
+}
+
+/**
  * Sends the presenter's roof to /classes/:id/live. One request at a time, in order; roof updates
  * waiting behind a request collapse into the newest, so followers never see an older roof after a
  * newer one, while a pause or an end is never dropped. `liveSeq`: what is already live when the
@@ -48,11 +61,7 @@ export function useLivePublisher(classId: string, liveSeq: number | null = null)
     async (body: Body): Promise<boolean> => {
       setStatus((s) => ({ ...s, state: "sending" }));
       try {
-        const res = await fetch(`/classes/${classId}/live`, {
-          method: "POST",
-          headers: { "Content-Type": "application/json", Accept: "application/json" },
-          body: JSON.stringify(body),
-        });
+        const res = await postLive(classId, body);
         const json = (await res.json().catch(() => null)) as { seq?: number; error?: { message?: string } } | null;
         if (res.ok && typeof json?.seq === "number") {
           setStatus({ state: "sent", seq: json.seq, message: null });
@@ -128,11 +137,7 @@ export function useLivePublisher(classId: string, liveSeq: number | null = null)
     if (timer.current) clearTimeout(timer.current);
     timer.current = null;
     while (busy.current) await busy.current;
-    const res = await fetch(`/classes/${classId}/live`, {
-      method: "POST",
-      headers: { "Content-Type": "application/json", Accept: "application/json" },
-      body: JSON.stringify({ phase: "ended" }),
-    }).catch(() => null);
+    const res = await postLive(classId, { phase: "ended" }).catch(() => null);
     if (res?.ok) return true;
     ended.current = false;
     setStatus((s) => ({
@@ -156,12 +161,7 @@ export function useLivePublisher(classId: string, liveSeq: number | null = null)
   useEffect(() => {
     const onHide = () => {
       if (ended.current || (lastSent.current === 0 && liveSeq === null)) return;
-      void fetch(`/classes/${classId}/live`, {
-        method: "POST",
-        keepalive: true,
-        headers: { "Content-Type": "application/json", Accept: "application/json" },
-        body: JSON.stringify({ phase: "paused" }),
-      }).catch(() => undefined);
+      void postLive(classId, { phase: "paused" }, { keepalive: true }).catch(() => undefined);
     };
     window.addEventListener("pagehide", onHide);
     return () => window.removeEventListener("pagehide", onHide);

@@ -246,9 +246,11 @@ export function RoofFigure({ f }: { f: FigureData }) {
     );
   }
   return (
-    <figure className="card my-4 grid gap-3" data-testid="roof-figure">
+    // Plan and key side by side only where the figure itself is wide (a container query): in a
+    // half-width column the key's figures were squeezed to a word a line.
+    <figure className="card @container my-4 grid gap-3" data-testid="roof-figure">
       {f.view === "plan" || f.view === "catchments" || (f.view === "3d" && !live) ? (
-        <div className="grid gap-3 md:grid-cols-[3fr_2fr] md:items-start">
+        <div className="grid gap-3 @2xl:grid-cols-[3fr_2fr] @2xl:items-start">
           <div>
             <PlanSvg f={f} />
             {f.view !== "catchments" && <FallLegend minRatio={f.minRatio} />}

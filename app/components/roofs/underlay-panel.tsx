@@ -1,4 +1,5 @@
 import { useEffect, useId, useRef, useState, type KeyboardEvent, type MouseEvent } from "react";
+import { usePointerWords } from "../use-pointer-words";
 import { ImageUp, Ruler, Spline, Trash2 } from "lucide-react";
 import type { UnderlaySettings } from "~/lib/roof-file";
 import {
@@ -71,6 +72,7 @@ export function UnderlayPanel({
   const [open, setOpen] = useState(false);
   const svg = useRef<SVGSVGElement>(null);
   const id = useId();
+  const { click: clickWord, Click } = usePointerWords();
 
   useEffect(() => {
     setPoints([]);
@@ -100,7 +102,7 @@ export function UnderlayPanel({
         tone: "ok",
         text: body.keptCalibration
           ? "Image replaced; its scale and position were kept."
-          : "Image uploaded. Now set its scale: click two points a known distance apart.",
+          : `Image uploaded. Now set its scale: ${clickWord} two points a known distance apart.`,
       });
       if (!body.keptCalibration) setMode("scale");
     } catch {
@@ -262,7 +264,7 @@ export function UnderlayPanel({
       <div className="mt-3 space-y-3">
         <div className="flex flex-wrap items-center justify-between gap-2">
           <p className="text-sm text-ink-soft">
-            Trace over a drawing of the plan: set its scale, then click its corners.
+            Trace over a drawing of the plan: set its scale, then {clickWord} its corners.
           </p>
           {canEdit ? (
             <div className="flex flex-wrap gap-2">
@@ -374,12 +376,12 @@ export function UnderlayPanel({
             ) : null}
             {mode === "scale" ? (
               <p className="text-sm">
-                Click two points on the image whose real distance you know (a dimensioned wall, a grid line).{" "}
+                {Click} two points on the image whose real distance you know (a dimensioned wall, a grid line).{" "}
                 {points.length}/2 picked.
               </p>
             ) : mode === "trace" ? (
               <p className="text-sm">
-                Click the roof's corners in order. Enter or “Use as outline” finishes; Backspace removes the last
+                {Click} the roof's corners in order. Enter or “Use as outline” finishes; Backspace removes the last
                 corner; Escape cancels.
               </p>
             ) : null}
@@ -588,13 +590,14 @@ function TypedPoint({ onAdd, settings }: { onAdd: (p: Pt) => void; settings: Und
   const id = useId();
   const [x, setX] = useState("");
   const [y, setY] = useState("");
+  const { clicking } = usePointerWords();
   const nx = Number(x);
   const ny = Number(y);
   const valid =
     x.trim() !== "" && y.trim() !== "" && nx >= 0 && ny >= 0 && nx <= settings.widthPx && ny <= settings.heightPx;
   return (
     <details className="text-sm">
-      <summary className="cursor-pointer text-ink-soft">Type a point instead of clicking</summary>
+      <summary className="cursor-pointer text-ink-soft">Type a point instead of {clicking}</summary>
       <div className="mt-2 flex flex-wrap items-end gap-2">
         <div>
           <label className="label" htmlFor={`${id}-x`}>

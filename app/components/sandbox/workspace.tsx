@@ -1,4 +1,5 @@
 import { lazy, Suspense, useEffect, useState } from "react";
+import { usePointerWords } from "../use-pointer-words";
 import { PRESENT_SHORTCUTS } from "~/lib/shortcuts";
 import type { RoofSpec } from "~/engine";
 import { RoofUnits } from "~/components/units";
@@ -212,6 +213,7 @@ function Layout({ underlay, toolbarExtra }: { underlay?: Underlay; toolbarExtra?
   const minRatio = useSandbox((s) => s.analysis?.minFall.ratio ?? 100);
   const readOnly = useSandbox((s) => s.readOnly);
   const mounted = useMounted();
+  const { click, doubleClick, coarse } = usePointerWords();
   const [cameraReset, setCameraReset] = useState(0);
   const resetCamera = () => setCameraReset((n) => n + 1);
 
@@ -221,7 +223,7 @@ function Layout({ underlay, toolbarExtra }: { underlay?: Underlay; toolbarExtra?
       testId="plan-card"
       aside={
         <span className="text-xs text-ink-soft">
-          {readOnly ? "view only" : "drag corners · click an edge for an outlet · double-click to add a corner"}
+          {readOnly ? "view only" : `drag corners · ${click} an edge for an outlet · ${doubleClick} to add a corner`}
         </span>
       }
     >
@@ -247,7 +249,7 @@ function Layout({ underlay, toolbarExtra }: { underlay?: Underlay; toolbarExtra?
           <Card
             title="Fall map"
             testId="fall-map-card"
-            aside={<span className="text-xs text-ink-soft">drag to turn · wheel to zoom</span>}
+            aside={<span className="text-xs text-ink-soft">drag to turn · {coarse ? "pinch" : "wheel"} to zoom</span>}
           >
             <ViewControls onReset={resetCamera} />
             <div className="mt-2 aspect-[4/3] w-full overflow-hidden rounded border border-rule bg-paper-deep">

@@ -5,6 +5,7 @@ import { DEMO_ROOF } from "~/components/sandbox/state/demo-roof";
 import { decodeSpec, encodeSpec, sheetHref, SHEET_LINK_LIMIT } from "~/lib/sheet-link";
 import { readLinkedSpec } from "~/lib/linked-spec.server";
 import { formatIn } from "~/components/sandbox/format";
+import { scheduleColumns } from "~/components/sandbox/schedule/schedule-columns";
 import { scheduleRows } from "~/lib/pack/schedule-rows";
 import { analyse, parseSpec, type RoofSpec } from "~/engine";
 import { scheduleCsv } from "~/lib/pack/schedule-csv";
@@ -201,5 +202,58 @@ describe("a roof carried in a link (?spec=, as the classroom's copy link and the
       outlets: [],
     };
     expect(readLinkedSpec(url(encodeSpec(crossing)))).toMatchObject({ error: { status: 422 } });
+  });
+});
+
+describe("the screen's schedule columns (table and phone cards) against the CSV's", () => {
+  // The L-shape of tests/unit/engine/plans-areas.test.ts: a ridge from (10,10) to (0,10) makes two drainage areas.
+  const lShape = parseOk({
+    outline: [
+      [0, 0],
+      [20, 0],
+      [20, 10],
+      [10, 10],
+      [10, 20],
+      [0, 20],
+    ],
+    outlets: [{ at: [10, 0] }, { at: [5, 20] }],
+    baseFall: "1:40",
+    ridges: [
+      {
+        line: [
+          [10, 10],
+          [0, 10],
+        ],
+      },
+    ],
+  });
+  const csvHeader = (spec: RoofSpec) =>
+    tableOf(scheduleCsv(packOf(spec)))
+      .split("\r\n")[0]
+      .split(",");
+
+  it("shows the area where ridges divide the roof, as the CSV does, and heads each card with the joist", () => {
+    const a = analyse(lShape, { mesh: false, traces: false });
+    const rows = scheduleRows(a.shaped.joists);
+    const ids = scheduleColumns(rows, "metric").map((c) => c.id);
+    expect(csvHeader(lShape)).toContain("area");
+    expect(ids.slice(0, 2)).toEqual(["joist", "area"]);
+    const columns = scheduleColumns(rows, "metric");
+    expect(columns.find((c) => c.id === "joist")?.cardWide).toBe(true);
+    // The area's figure is the row's, for every span.
+    const area = columns.find((c) => c.id === "area")!;
+    expect(new Set(rows.map((r) => area.cell(r)))).toEqual(new Set([1, 2]));
+  });
+
+  it("leaves the area out of one undivided roof, as the CSV does; starts and ends pair up on the cards", () => {
+    const a = analyse(DEMO_ROOF, { mesh: false, traces: false });
+    const columns = scheduleColumns(scheduleRows(a.shaped.joists), "metric");
+    expect(csvHeader(DEMO_ROOF)).not.toContain("area");
+    expect(columns.map((c) => c.id)).not.toContain("area");
+    // Below the joist's full line, two figures a line: each start sits beside its end.
+    const paired = columns.filter((c) => !c.cardWide).map((c) => c.id);
+    expect(paired.indexOf("endLevel") - paired.indexOf("startLevel")).toBe(1);
+    expect(paired.indexOf("startLevel") % 2).toBe(0);
+    expect(paired.indexOf("startDrop") % 2).toBe(0);
   });
 });

@@ -1,4 +1,5 @@
-import { useEffect, useId, useRef, useState } from "react";
+import { useEffect, useRef, useState } from "react";
+import { FieldRow } from "~/components/field-row";
 import { fallDetail, useFormat } from "../format";
 import { useSandbox } from "../state/store";
 
@@ -20,7 +21,6 @@ const EXAMPLES = "such as 1:40, 1/4:12, 1/4 in/ft, 2°, 2.5% or 25 mm/m";
  * a bad one stays in the box with the reason, the roof keeping its last good fall.
  */
 export function FallField({ label, value, onCommit, optional, placeholder, disabled, testId }: Props) {
-  const id = useId();
   const engine = useSandbox((s) => s.engine);
   const { fall } = useFormat();
   const [text, setText] = useState(value == null ? "" : String(value));
@@ -62,32 +62,26 @@ export function FallField({ label, value, onCommit, optional, placeholder, disab
   }
 
   return (
-    <div>
-      <label htmlFor={id} className="label">
-        {label}
-      </label>
-      <input
-        id={id}
-        className={`field ${reading.error ? "border-bad" : ""}`}
-        value={text}
-        placeholder={placeholder}
-        disabled={disabled}
-        spellCheck={false}
-        autoComplete="off"
-        aria-invalid={reading.error ? true : undefined}
-        aria-describedby={`${id}-note`}
-        onChange={(e) => change(e.target.value)}
-        data-testid={testId}
-      />
-      {reading.error ? (
-        <p id={`${id}-note`} className="field-error text-xs" role="alert">
-          {reading.error}
-        </p>
-      ) : (
-        <p id={`${id}-note`} className="mt-1 text-xs tabular-nums text-ink-soft">
-          {text.trim() ? (reading.detail ?? " ") : optional ? "rule set default" : " "}
-        </p>
+    <FieldRow
+      label={label}
+      error={reading.error}
+      // The line under the box is always there (a space when empty), so the form does not jump.
+      hint={text.trim() ? (reading.detail ?? " ") : optional ? "rule set default" : " "}
+      hintClassName="tabular-nums"
+    >
+      {(control) => (
+        <input
+          {...control}
+          className={`field ${reading.error ? "border-bad" : ""}`}
+          value={text}
+          placeholder={placeholder}
+          disabled={disabled}
+          spellCheck={false}
+          autoComplete="off"
+          onChange={(e) => change(e.target.value)}
+          data-testid={testId}
+        />
       )}
-    </div>
+    </FieldRow>
   );
 }

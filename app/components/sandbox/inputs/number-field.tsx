@@ -1,4 +1,5 @@
-import { useId, useRef, useState } from "react";
+import { useRef, useState } from "react";
+import { FieldRow } from "~/components/field-row";
 import { useUnits } from "~/components/units";
 import {
   bareUnit,
@@ -93,7 +94,6 @@ export function NumberField({
   testId,
   length,
 }: Props) {
-  const id = useId();
   const system = useUnits();
   const unit = length ? (system === "us" && length === "length" ? "ft, in" : bareUnit(system, length)) : metricUnit;
   const [text, setText] = useState(() => showIn(value, scale, digits, length, system));
@@ -155,34 +155,27 @@ export function NumberField({
   }
 
   return (
-    <div className={compact ? "min-w-0" : ""}>
-      <label htmlFor={id} className={compact ? "sr-only" : "label"}>
-        {label}
-        {unit && !compact ? ` (${unit})` : ""}
-      </label>
-      <input
-        id={id}
-        className={`field tabular-nums ${error ? "border-bad" : ""} ${compact ? "px-1.5 py-1" : ""}`}
-        inputMode={length && system === "us" ? "text" : "decimal"}
-        value={text}
-        placeholder={placeholder}
-        disabled={disabled}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={error ? `${id}-error` : hint ? `${id}-hint` : undefined}
-        onChange={(e) => change(e.target.value)}
-        onFocus={length ? () => void loadLengthReader().catch(() => {}) : undefined}
-        data-testid={testId}
-      />
-      {error ? (
-        <p id={`${id}-error`} className="field-error text-xs" role="alert">
-          {compact ? `${label} ` : ""}
-          {error}
-        </p>
-      ) : hint && !compact ? (
-        <p id={`${id}-hint`} className="mt-1 text-xs text-ink-soft">
-          {hint}
-        </p>
-      ) : null}
-    </div>
+    <FieldRow
+      className={compact ? "min-w-0" : ""}
+      label={label}
+      unit={compact ? undefined : unit}
+      hideLabel={compact}
+      error={error && (compact ? `${label} ${error}` : error)}
+      hint={compact ? undefined : hint}
+    >
+      {(control) => (
+        <input
+          {...control}
+          className={`field tabular-nums ${error ? "border-bad" : ""} ${compact ? "px-1.5 py-1" : ""}`}
+          inputMode={length && system === "us" ? "text" : "decimal"}
+          value={text}
+          placeholder={placeholder}
+          disabled={disabled}
+          onChange={(e) => change(e.target.value)}
+          onFocus={length ? () => void loadLengthReader().catch(() => {}) : undefined}
+          data-testid={testId}
+        />
+      )}
+    </FieldRow>
   );
 }

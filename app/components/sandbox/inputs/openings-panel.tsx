@@ -1,4 +1,5 @@
 import type { RoofSpec } from "~/engine";
+import { FieldRow } from "~/components/field-row";
 import { NumberField } from "./number-field";
 import { addOpening, centreOf, deleteOpening, moveOpening, setOpening } from "../state/spec-edit";
 import { useSandbox, useSandboxStore } from "../state/store";
@@ -29,22 +30,24 @@ export function OpeningsPanel() {
         {openings.map((o, i) => (
           <li key={i} className="flex flex-wrap items-end gap-2 text-sm" data-testid={`opening-${i}`}>
             <span className="font-bold">{i + 1}</span>
-            <label className="grid">
-              <span className="label">Kind</span>
-              <select
-                className="field"
-                value={o.kind ?? "other"}
-                disabled={readOnly}
-                aria-label={`Opening ${i + 1} kind`}
-                onChange={(e) => edit((s) => setOpening(s, i, { kind: e.target.value as (typeof KINDS)[number] }))}
-              >
-                {KINDS.map((k) => (
-                  <option key={k} value={k}>
-                    {k}
-                  </option>
-                ))}
-              </select>
-            </label>
+            <FieldRow label="Kind">
+              {(control) => (
+                <select
+                  {...control}
+                  className="field"
+                  value={o.kind ?? "other"}
+                  disabled={readOnly}
+                  aria-label={`Opening ${i + 1} kind`}
+                  onChange={(e) => edit((s) => setOpening(s, i, { kind: e.target.value as (typeof KINDS)[number] }))}
+                >
+                  {KINDS.map((k) => (
+                    <option key={k} value={k}>
+                      {k}
+                    </option>
+                  ))}
+                </select>
+              )}
+            </FieldRow>
             <NumberField
               label="Upstand"
               unit="mm"

@@ -1,5 +1,6 @@
 import { Trash2 } from "lucide-react";
 import { useFormat } from "../format";
+import { usePointerWords } from "../../use-pointer-words";
 import { NumberField } from "./number-field";
 import { attachOutlet, deleteOutlet, setOutlet } from "../state/spec-edit";
 import { useSandbox, useSandboxStore } from "../state/store";
@@ -14,11 +15,12 @@ export function OutletTable() {
   const { system } = useFormat();
   const lengthUnit = system === "us" ? "ft, in" : "m";
   const levelUnit = system === "us" ? "in" : "mm";
+  const { Click } = usePointerWords();
   if (spec.outlets.length === 0) {
     return (
       <p className="rounded border border-dashed border-rule p-3 text-sm text-ink-soft" data-testid="no-outlets">
-        No outlets yet. Click a parapet edge on the plan (or use “+ outlet” in the outline table) to place one. Without
-        an outlet or an eaves edge the water has nowhere to go.
+        No outlets yet. {Click} a parapet edge on the plan (or use “+ outlet” in the outline table) to place one.
+        Without an outlet or an eaves edge the water has nowhere to go.
       </p>
     );
   }

@@ -1,4 +1,5 @@
 import type { RoofSpec, RuleSetId } from "~/engine";
+import { FieldRow } from "~/components/field-row";
 import { FallField } from "./fall-field";
 import { formatRatio, useFormat } from "../format";
 import { NumberField } from "./number-field";
@@ -201,29 +202,29 @@ export function SettingsPanel() {
           testId="rainfall"
           onCommit={(v) => edit((s) => ({ ...s, rainfall: v == null ? undefined : { intensity: v } }))}
         />
-        <div className="col-span-2">
-          <label className="label" htmlFor="rule-set">
-            Rule set
-          </label>
-          <select
-            id="rule-set"
-            className="field"
-            value={ruleSet}
-            disabled={readOnly}
-            data-testid="rule-set"
-            onChange={(e) => edit((s) => ({ ...s, ruleSet: e.target.value as RuleSetId }))}
-          >
-            {ruleSets.length === 0 && <option value={ruleSet}>{analysis?.ruleSet.name ?? ruleSet}</option>}
-            {ruleSets.map((r) => (
-              <option key={r.id} value={r.id}>
-                {r.name}
-              </option>
-            ))}
-          </select>
-          <p className="mt-1 text-xs text-ink-soft">
-            Empty fields above take this set's values; its sources are listed with the results.
-          </p>
-        </div>
+        <FieldRow
+          className="col-span-2"
+          label="Rule set"
+          hint="Empty fields above take this set's values; its sources are listed with the results."
+        >
+          {(control) => (
+            <select
+              {...control}
+              className="field"
+              value={ruleSet}
+              disabled={readOnly}
+              data-testid="rule-set"
+              onChange={(e) => edit((s) => ({ ...s, ruleSet: e.target.value as RuleSetId }))}
+            >
+              {ruleSets.length === 0 && <option value={ruleSet}>{analysis?.ruleSet.name ?? ruleSet}</option>}
+              {ruleSets.map((r) => (
+                <option key={r.id} value={r.id}>
+                  {r.name}
+                </option>
+              ))}
+            </select>
+          )}
+        </FieldRow>
       </Group>
     </div>
   );

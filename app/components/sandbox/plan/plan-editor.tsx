@@ -2,6 +2,8 @@ import { useEffect, useId, useRef, useState, type KeyboardEvent, type PointerEve
 import { PLAN_SHORTCUTS, shortcutSentence, UNDO_SHORTCUTS } from "~/lib/shortcuts";
 import { Lock, Maximize2, SquareDashed, Spline, ZoomIn, ZoomOut } from "lucide-react";
 import type { Point, RoofSpec } from "~/engine";
+// The geometry module itself, not `~/engine`: the engine's face brings mathjs onto the page.
+import { pointsSignedArea } from "~/engine/geometry/area";
 import { PlanGrid } from "./plan-grid";
 import { PlanOverlays } from "./plan-overlays";
 import { DrawPreview, PlanFeatures } from "./plan-features";
@@ -29,11 +31,11 @@ import {
   projectOnSegment,
   setEdgeKind,
   setRidgePoint,
-  signedArea,
 } from "../state/spec-edit";
 import { useSandbox, useSandboxStore } from "../state/store";
 import type { Underlay } from "./underlay";
 import { useFormat } from "../format";
+import { usePointerWords } from "~/components/use-pointer-words";
 
 type Drag =
   | { kind: "vertex"; index: number }
@@ -86,6 +88,7 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
   const hasError = useSandbox((s) => s.engineError !== null);
   const dragging = useSandbox((s) => s.gesture !== null);
   const { metres: len_, mm: level_ } = useFormat();
+  const { click, Click } = usePointerWords();
   const helpId = useId();
   const svgRef = useRef<SVGSVGElement>(null);
   const drag = useRef<Drag | null>(null);
@@ -161,7 +164,7 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
   const px = box.w / size.w;
   const kinds = edgeKindsOf(spec);
   const n = spec.outline.length;
-  const ccw = signedArea(spec.outline) > 0;
+  const ccw = pointsSignedArea(spec.outline) > 0;
   const snap: SnapOptions = {
     grid: view.snapToGrid,
     step: view.gridStep,
@@ -545,15 +548,15 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
   }
 
   // ── drawing a new ridge or opening (a tap or click per point; the mouse may drag an opening out) ──
+  const openingHowTo = `drag from one corner to the opposite one, or ${click} both`;
   function chooseTool(next: Tool) {
     setDraft([]);
     setHover(null);
     setChoice(null);
     setTool((t) => (t === next ? "select" : next));
     if (next === "ridge" && tool !== "ridge")
-      announce("Drawing a ridge: click or tap a wall to start it, then each bend, and end it on a wall. Esc stops.");
-    if (next === "opening" && tool !== "opening")
-      announce("Drawing an opening: drag from one corner to the other, or tap both corners. Esc stops.");
+      announce(`Drawing a ridge: ${click} a wall to start it, then each bend, and end it on a wall. Esc stops.`);
+    if (next === "opening" && tool !== "opening") announce(`Drawing an opening: ${openingHowTo}. Esc stops.`);
   }
 
   function leaveTool() {
@@ -627,7 +630,7 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
     }
     if (dragged) return;
     if (draft.length === 0) {
-      if (!onWall) return announce("A ridge starts on a wall: click or tap on or near one.");
+      if (!onWall) return announce(`A ridge starts on a wall: ${click} on or near one.`);
       setDraft([point]);
       return announce(
         `Ridge started at x ${len_(point[0])}, y ${len_(point[1])}: now each bend, and end it on a wall.`,
@@ -909,11 +912,11 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
         <p className="mt-1 rounded border border-accent bg-paper px-2 py-1 text-sm" data-testid="plan-tool-hint">
           {tool === "ridge"
             ? draft.length === 0
-              ? "Drawing a ridge: click or tap a wall where it starts."
-              : `Ridge: ${draft.length} point${draft.length > 1 ? "s" : ""}. Click or tap each bend, and a wall to end it${draft.length >= 2 ? " (Enter ends it here)" : ""}.`
+              ? `Drawing a ridge: ${click} a wall where it starts.`
+              : `Ridge: ${draft.length} point${draft.length > 1 ? "s" : ""}. ${Click} each bend, and a wall to end it${draft.length >= 2 ? " (Enter ends it here)" : ""}.`
             : draft.length === 0
-              ? "Drawing an opening: drag from one corner to the opposite one, or tap both."
-              : "Opening: now click or tap the opposite corner."}{" "}
+              ? `Drawing an opening: ${openingHowTo}.`
+              : `Opening: now ${click} the opposite corner.`}{" "}
           Esc stops.
         </p>
       )}
@@ -927,30 +930,30 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
           <div className="flex shrink-0 gap-1" role="group" aria-label="Draw on the plan">
             <button
               type="button"
-              className={`btn px-2 py-0.5 text-xs ${tool === "ridge" ? "bg-accent text-sheet" : ""}`}
+              className={`btn px-2 py-1 text-sm ${tool === "ridge" ? "bg-accent text-sheet" : ""}`}
               aria-pressed={tool === "ridge"}
               title="Draw a ridge: from a wall, through its bends, to a wall"
               onClick={() => chooseTool("ridge")}
               data-testid="draw-ridge"
             >
-              <Spline size={14} aria-hidden="true" /> Ridge
+              <Spline size={16} aria-hidden="true" /> Ridge
             </button>
             <button
               type="button"
-              className={`btn px-2 py-0.5 text-xs ${tool === "opening" ? "bg-accent text-sheet" : ""}`}
+              className={`btn px-2 py-1 text-sm ${tool === "opening" ? "bg-accent text-sheet" : ""}`}
               aria-pressed={tool === "opening"}
-              title="Draw an opening (rooflight, hatch, plant base): drag or tap two corners"
+              title={`Draw an opening (rooflight, hatch, plant base): drag or ${click} two corners`}
               onClick={() => chooseTool("opening")}
               data-testid="draw-opening"
             >
-              <SquareDashed size={14} aria-hidden="true" /> Opening
+              <SquareDashed size={16} aria-hidden="true" /> Opening
             </button>
           </div>
         )}
         <div className="flex shrink-0 gap-1" role="group" aria-label="Plan zoom">
           <button
             type="button"
-            className="btn px-2 py-0.5 text-xs"
+            className="btn px-2 py-1 text-sm"
             aria-label="Zoom in the plan"
             title="Zoom in (or pinch)"
             onClick={() => zoomBy(1.5)}
@@ -961,7 +964,7 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
           </button>
           <button
             type="button"
-            className="btn px-2 py-0.5 text-xs"
+            className="btn px-2 py-1 text-sm"
             aria-label="Zoom out of the plan"
             title="Zoom out (or pinch)"
             onClick={() => zoomBy(1 / 1.5)}
@@ -972,7 +975,7 @@ export function PlanEditor({ underlay }: { underlay?: Underlay }) {
           </button>
           <button
             type="button"
-            className="btn px-2 py-0.5 text-xs"
+            className="btn px-2 py-1 text-sm"
             title="Fit the roof in the plan"
             onClick={() => {
               setZoom(null);

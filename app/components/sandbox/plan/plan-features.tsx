@@ -1,5 +1,6 @@
 import type { KeyboardEvent, MouseEvent, PointerEvent } from "react";
 import type { Point, RoofSpec } from "~/engine";
+import { usePointerWords } from "../../use-pointer-words";
 
 /** A handle's touch area around an opening's corner, half its side in screen px (WCAG 2.2 2.5.8: 24 × 24). */
 const CORNER_HIT = 12;
@@ -35,6 +36,7 @@ export function PlanFeatures(props: {
   helpId: string;
 }) {
   const { spec, px, active, label: len_ } = props;
+  const { doubleClick } = usePointerWords();
   const drag = { onPointerMove: props.onMove, onPointerUp: props.onEnd, onPointerCancel: props.onEnd };
   const d = (pts: Point[], closed: boolean) =>
     pts.map((p, k) => `${k ? "L" : "M"}${p[0]} ${-p[1]}`).join("") + (closed ? "Z" : "");
@@ -120,7 +122,7 @@ export function PlanFeatures(props: {
               onDoubleClick={(e) => props.onRidgeDoubleClick(e, i, piece)}
               data-testid={`plan-ridge-${i}-piece-${piece}`}
             >
-              <title>{`Ridge ${i + 1}: double-click to add a bend here`}</title>
+              <title>{`Ridge ${i + 1}: ${doubleClick} to add a bend here`}</title>
             </path>
           ))}
           {r.line.map((q, j) => {

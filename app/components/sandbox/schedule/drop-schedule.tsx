@@ -24,7 +24,7 @@ function PlainSchedule({ rows, system }: { rows: ScheduleRow[]; system: UnitSyst
         role="region"
         aria-label="Drop schedule rows"
       >
-        <table className="data-table w-full" data-testid="schedule-table-plain">
+        <table className="data-table card-table w-full" data-testid="schedule-table-plain">
           <thead className="sticky top-0 bg-sheet">
             <tr>
               {columns.map((c) => (
@@ -38,7 +38,9 @@ function PlainSchedule({ rows, system }: { rows: ScheduleRow[]; system: UnitSyst
             {rows.map((r, i) => (
               <tr key={i} className={i < SCHEDULE_PAGE ? undefined : "hidden print:table-row"}>
                 {columns.map((c) => (
-                  <td key={c.id}>{c.cell(r)}</td>
+                  <td key={c.id} data-label={c.header} className={c.cardWide ? "card-wide" : undefined}>
+                    {c.cell(r)}
+                  </td>
                 ))}
               </tr>
             ))}

@@ -140,10 +140,6 @@ export function setOutlet(spec: RoofSpec, index: number, patch: Partial<RoofSpec
   return { ...spec, outlets: spec.outlets.map((o, k) => (k === index ? { ...o, ...patch } : o)) };
 }
 
-/** The plan editor's name for the engine's point-array shoelace area (positive counter-clockwise). */
-// The geometry module itself, not `~/engine`: the engine's face brings mathjs onto the page.
-export { pointsSignedArea as signedArea } from "~/engine/geometry/area";
-
 export function bounds(points: Point[]) {
   let minX = Infinity;
   let minY = Infinity;
