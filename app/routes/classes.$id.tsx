@@ -23,7 +23,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     classRoster(cls.id),
     pendingInvitations(cls.id),
     classAssignments(cls.id),
-    listLessons(),
+    listLessons(cls.organisation_id),
   ]);
   const created = new URL(request.url).searchParams.get("created") === "1";
   return { cls, members, pending, assignments, lessons, created };

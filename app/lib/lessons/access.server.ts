@@ -85,7 +85,7 @@ function builtInEntry(lesson: Lesson, number: number | null): LessonEntry {
 export async function visibleLessons(knex: Knex, viewer: LessonViewer): Promise<LessonEntry[]> {
   const builtIn = allLessons();
   const numbers = await builtInNumbers(knex, builtIn);
-  const own = viewer ? (await ownLessons(knex, viewer).orderBy([{ column: "l.position" }, { column: "l.slug" }])) : [];
+  const own = viewer ? await ownLessons(knex, viewer).orderBy([{ column: "l.position" }, { column: "l.slug" }]) : [];
   return [
     ...builtIn.map((l) => builtInEntry(l, numbers.get(l.slug) ?? null)),
     ...own.map((r: Row) => entryOf(r, viewer)),
@@ -105,4 +105,16 @@ export async function lessonForViewer(knex: Knex, slug: string, viewer: LessonVi
 export async function versionNumberOf(knex: Knex, slug: string, version: string): Promise<number | null> {
   const row = await knex("lesson_versions").where({ slug, version }).first("number");
   return row?.number ?? null;
+}
+
+/**
+ * Narrows a query on `lessons` (as `alias`) to what an organisation's classes may use: the
+ * built-in lessons and the organisation's published ones (never a draft, never another's).
+ */
+export function classUsableLessons<T extends Knex.QueryBuilder>(q: T, organisationId: string, alias = "lessons"): T {
+  return q.where((w) =>
+    w
+      .whereNull(`${alias}.organisation_id`)
+      .orWhere((o) => o.where(`${alias}.organisation_id`, organisationId).andWhere(`${alias}.status`, "published")),
+  ) as T;
 }
