@@ -11,8 +11,16 @@ import type { Knex } from "knex";
 import type { RoofSpec } from "../../engine";
 import { lessonForViewer, mayAuthor, type LessonEntry, type LessonViewer } from "./access.server";
 import { getLesson } from "./catalogue.server";
+import { CRITERION_KIND_IDS, CRITERION_KINDS } from "./criteria";
 import { gradeLesson, type Answers, type GradeResult } from "./grade";
-import { blankCriterion, blankQuestion, frontMatterFromForm, type FormIssue, type LessonForm } from "./lesson-form";
+import {
+  blankCriterion,
+  blankQuestion,
+  frontMatterFromForm,
+  type CatalogueEntry,
+  type FormIssue,
+  type LessonForm,
+} from "./lesson-form";
 import { lessonsDir, parseLessonFile } from "./load.server";
 import type { Lesson } from "./schema";
 import { nextVersionNumber } from "./sync.server";
@@ -20,8 +28,7 @@ import { nextVersionNumber } from "./sync.server";
 export type Author = NonNullable<LessonViewer>;
 
 export type Outcome<T> =
-  | { ok: true; value: T }
-  | { ok: false; status: 400 | 403 | 404 | 409 | 413; message: string; issues: FormIssue[] };
+  { ok: true; value: T } | { ok: false; status: 400 | 403 | 404 | 409 | 413; message: string; issues: FormIssue[] };
 
 const refuse = (status: 400 | 403 | 404 | 409 | 413, message: string, issues: FormIssue[] = []) =>
   ({ ok: false, status, message, issues }) as const;
@@ -402,4 +409,22 @@ export function previewLesson(lesson: Lesson): PreviewResult {
     return { reference: g, start: g };
   }
   return { reference: grade(lesson.task.reference), start: grade(lesson.task.start) };
+}
+
+const LIMIT_EXAMPLE: Record<string, string> = {
+  ratio: "1:80",
+  length: "150 mm",
+  area: "4 m^2",
+  flow: "2.5 L/s",
+  count: "1",
+  percent: "10",
+  none: "",
+};
+
+/** The engine's criteria, for the editor's choice list: id, what it says, the kind of value and an example. */
+export function criteriaCatalogue(): CatalogueEntry[] {
+  return CRITERION_KIND_IDS.map((id) => {
+    const k = CRITERION_KINDS[id];
+    return { id, label: k.label("…"), limit: k.limit, example: LIMIT_EXAMPLE[k.limit] ?? "" };
+  });
 }

@@ -161,6 +161,14 @@ const num = (s: string): number | string | undefined => {
 /** Limit kinds whose value is a number in the lesson file (counts and percentages). */
 const NUMBER_LIMITS = new Set(["maxOutlets", "minOutlets", "minEavesEdges", "flatShareAtMost"]);
 
+/** One criterion of the engine's catalogue, as the editor offers it. */
+export interface CatalogueEntry {
+  id: string;
+  label: string;
+  limit: string;
+  example: string;
+}
+
 export interface FormIssue {
   path: string;
   message: string;
