@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { useTestDatabase } from "../support/db";
-import { callRoute, get, sessionCookie } from "../support/accounts";
+import { callRoute, formPost, get, sessionCookie } from "../support/accounts";
 import { db } from "~/lib/db.server";
 import { lessonForViewer, visibleLessons, type LessonViewer } from "~/lib/lessons/access.server";
 import { createAttempt } from "~/lib/lessons/attempts.server";
@@ -20,6 +20,8 @@ import type { GradeResult } from "~/lib/lessons/grade";
 import * as lessonPage from "~/routes/lessons.$slug";
 import * as attemptPage from "~/routes/attempts.$id";
 import * as apiLessons from "~/routes/api.v1.lessons";
+import * as newLesson from "~/routes/lessons.new";
+import * as editLesson from "~/routes/lessons.$slug.edit";
 
 // Issue 17, items 1, 2 and 5 (docs/authoring.md): a trainer's lesson from draft to v2, who sees it.
 useTestDatabase();
@@ -292,5 +294,102 @@ describe("writing a lesson in the app", () => {
     if (!broken.ok) expect(broken.issues.map((i) => i.path)).toContain("passMark");
     const notYaml = await importLesson(db(), other, "x.md", "---\ntitle: [\n---\nbody");
     expect(notYaml.ok).toBe(false);
+  });
+});
+
+describe("the editor's pages answer bad input with 4xx by field, never 500", () => {
+  const fields = (f: LessonForm): Record<string, string> => {
+    const out: Record<string, string> = {
+      title: f.title,
+      summary: f.summary,
+      minutes: f.minutes,
+      objectives: f.objectives,
+      passMark: f.passMark,
+      body: f.body,
+      "task.title": f.task.title,
+      "task.goal": f.task.goal,
+      "task.start": f.task.start,
+      "task.reference": f.task.reference,
+      "task.hints": f.task.hints,
+    };
+    f.quiz.forEach((q, i) => {
+      for (const [k, v] of Object.entries(q)) out[`quiz.${i}.${k}`] = String(v);
+    });
+    f.task.criteria.forEach((c, i) => {
+      out[`task.criteria.${i}.kind`] = c.kind;
+      out[`task.criteria.${i}.value`] = c.value;
+      out[`task.criteria.${i}.weight`] = c.weight;
+    });
+    return out;
+  };
+
+  it("a bad form: 400, the message beside each field, what was typed kept; nothing saved", async () => {
+    const cookie = await sessionCookie("trainer@tidemark.example");
+    const bad = form({ title: "Typed title stays", passMark: "lots", minutes: "0" });
+    bad.task.start = "{ not json";
+    bad.quiz[1].kind = "single"; // two options are starred
+    const before = (await db()("lessons").count<{ count: string }[]>("* as count"))[0].count;
+    const r = await callRoute(newLesson.action, formPost("/lessons/new", { ...fields(bad), intent: "save" }, cookie));
+    expect(r.status).toBe(400);
+    const d = r.data as { fieldErrors: Record<string, string>; form: LessonForm };
+    expect(d.fieldErrors["task.start"]).toMatch(/not valid JSON/);
+    expect(d.fieldErrors["quiz.1.options"]).toMatch(/exactly one right option/);
+    expect(d.form.title).toBe("Typed title stays");
+    expect(d.form.passMark).toBe("lots");
+    // With the form's own problems fixed, the schema's turn: each field named.
+    bad.task.start = JSON.stringify(ROOF);
+    bad.quiz[1].kind = "multiple";
+    const r2 = await callRoute(newLesson.action, formPost("/lessons/new", { ...fields(bad), intent: "save" }, cookie));
+    expect(r2.status).toBe(400);
+    const e2 = (r2.data as { fieldErrors: Record<string, string> }).fieldErrors;
+    expect(Object.keys(e2)).toEqual(expect.arrayContaining(["passMark", "minutes"]));
+    expect((await db()("lessons").count<{ count: string }[]>("* as count"))[0].count).toBe(before);
+  });
+
+  it("preview answers 200 with trial grades and saves nothing; trainees get 403; another organisation's edit page is 404", async () => {
+    const cookie = await sessionCookie("trainer@tidemark.example");
+    const r = await callRoute(
+      newLesson.action,
+      formPost("/lessons/new", { ...fields(form({ title: "Previewed, never saved" })), intent: "preview" }, cookie),
+    );
+    expect(r.status).toBe(200);
+    const d = r.data as { preview: { reference: GradeResult; start: GradeResult } };
+    expect(d.preview.reference.passed).toBe(true);
+    expect(await db()("lessons").where({ title: "Previewed, never saved" })).toHaveLength(0);
+
+    const trainee = await sessionCookie("trainee@tidemark.example");
+    const t = await callRoute(
+      newLesson.action,
+      formPost("/lessons/new", { ...fields(form()), intent: "save" }, trainee),
+    );
+    expect(t.status).toBe(403);
+    const page = await callRoute(newLesson.loader, get("/lessons/new", trainee));
+    expect(page.status).toBe(403);
+
+    const own = await viewer("trainer@tidemark.example");
+    const created = await createLesson(db(), own, sourceFromForm(form({ title: "Only ours" })).source);
+    if (!created.ok) throw new Error("not created");
+    const admin = await sessionCookie("admin@tidemark.example");
+    const ok = await callRoute(editLesson.loader, get(`/lessons/${created.value.slug}/edit`, admin), {
+      params: { slug: created.value.slug },
+    });
+    expect(ok.status).toBe(200);
+    const other = await otherOrganisationTrainer();
+    const otherCookie = await sessionCookie((await db()("users").where({ id: other.id }).first("email"))!.email);
+    const hidden = await callRoute(editLesson.loader, get(`/lessons/${created.value.slug}/edit`, otherCookie), {
+      params: { slug: created.value.slug },
+    });
+    expect(hidden.status).toBe(404);
+  });
+
+  it("a broken lesson file on import: 400 listing the loader's problems", async () => {
+    const cookie = await sessionCookie("trainer@tidemark.example");
+    const r = await callRoute(
+      newLesson.action,
+      formPost("/lessons/new", { intent: "import", source: "---\ntitle: Half a lesson\n---\nNo figure.\n" }, cookie),
+    );
+    expect(r.status).toBe(400);
+    const paths = (r.data as { issues: { path: string }[] }).issues.map((i) => i.path);
+    expect(paths).toEqual(expect.arrayContaining(["summary", "minutes", "quiz", "task", "body"]));
   });
 });
