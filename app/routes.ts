@@ -23,6 +23,7 @@ export default [
   // A dynamic segment with a literal suffix: ranked above /roofs/:id/checks/:checkId.
   route("roofs/:id/checks/:checkId.pdf", "routes/roofs.$id.checks.$checkId-pdf.ts"),
   route("s/:token/:file", "routes/s.$token.$file.ts"),
+  route("lessons/:slug/export", "routes/lessons.$slug.export.ts"),
   route("logout", "routes/logout.ts"),
   route("sandbox/schedule.csv", "routes/sandbox.schedule-csv.ts"),
   route("sandbox/sheet.pdf", "routes/sandbox.sheet-pdf.ts"),
@@ -39,7 +40,9 @@ export default [
     route("sandbox", "routes/sandbox.tsx"),
     route("sandbox/sheet", "routes/sandbox.sheet.tsx"),
     route("lessons", "routes/lessons._index.tsx"),
+    route("lessons/new", "routes/lessons.new.tsx"),
     route("lessons/:slug", "routes/lessons.$slug.tsx"),
+    route("lessons/:slug/edit", "routes/lessons.$slug.edit.tsx"),
     route("attempts", "routes/attempts._index.tsx"),
     route("attempts/:id", "routes/attempts.$id.tsx"),
     route("roofs", "routes/roofs._index.tsx"),

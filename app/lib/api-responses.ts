@@ -274,6 +274,17 @@ export const lessonListSchema = z
     lessons: z.array(
       z.strictObject({
         ...lessonSummaryFields,
+        builtIn: z
+          .boolean()
+          .describe("A lesson of the built-in course (read-only); false: written by your organisation."),
+        status: z
+          .enum(["draft", "published"])
+          .describe("Drafts are listed for their organisation's trainers and admins only."),
+        versionNumber: z
+          .number()
+          .int()
+          .nullable()
+          .describe("The current version's readable number (v1 is 1); null for a draft never published."),
         progress: progress.nullable().optional().describe("Absent when signed out; null when no attempt yet."),
       }),
     ),

@@ -83,7 +83,7 @@ export async function handleClassAction(o: {
       return reply({ intent, notice: `The invitation to ${email} was withdrawn; its link no longer works.` });
     }
     case "assignments": {
-      const known = new Set((await listLessons()).map((l) => l.slug));
+      const known = new Set((await listLessons(cls.organisation_id)).map((l) => l.slug));
       const chosen = form
         .getAll("assign")
         .map(String)

@@ -7,6 +7,7 @@
 import { data } from "react-router";
 import type { SessionUser } from "~/lib/auth.server";
 import { db } from "~/lib/db.server";
+import { classUsableLessons } from "~/lib/lessons/access.server";
 import type { GradeCell } from "~/lib/gradebook";
 import { bestGrades, cellKey } from "~/lib/grades.server";
 
@@ -204,8 +205,9 @@ export interface LessonOption {
   position: number;
 }
 
-export async function listLessons(): Promise<LessonOption[]> {
-  return db()("lessons")
+/** The lessons a class of this organisation may be given (access.server.ts: built-in and its published ones). */
+export async function listLessons(organisationId: string): Promise<LessonOption[]> {
+  return classUsableLessons(db()("lessons"), organisationId)
     .select("slug", "title", "position")
     .orderBy([{ column: "position" }, { column: "slug" }]);
 }

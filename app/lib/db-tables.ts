@@ -200,9 +200,12 @@ export interface LessonVersionRow {
   version: string;
   content: unknown;
   first_seen_at: Date;
+  number: number;
+  created_by: string | null;
+  source: string | null;
 }
-export type LessonVersionInsert = Omit<LessonVersionRow, "first_seen_at"> &
-  Partial<Pick<LessonVersionRow, "first_seen_at">>;
+export type LessonVersionInsert = Omit<LessonVersionRow, "first_seen_at" | "created_by" | "source"> &
+  Partial<Pick<LessonVersionRow, "first_seen_at" | "created_by" | "source">>;
 
 export interface LessonRow {
   slug: string;
@@ -211,8 +214,20 @@ export interface LessonRow {
   version: string;
   content: unknown;
   synced_at: Date;
+  organisation_id: string | null;
+  status: string;
+  author_id: string | null;
+  source: string | null;
+  created_at: Date;
+  updated_at: Date;
 }
-export type LessonInsert = Omit<LessonRow, "synced_at"> & Partial<Pick<LessonRow, "synced_at">>;
+export type LessonInsert = Omit<
+  LessonRow,
+  "synced_at" | "organisation_id" | "status" | "author_id" | "source" | "created_at" | "updated_at"
+> &
+  Partial<
+    Pick<LessonRow, "synced_at" | "organisation_id" | "status" | "author_id" | "source" | "created_at" | "updated_at">
+  >;
 
 export interface OrganisationRow {
   id: string;
@@ -419,8 +434,21 @@ export const TABLE_COLUMNS = {
   ],
   course_lessons: ["course_id", "lesson_slug", "position"],
   courses: ["id", "organisation_id", "name", "description", "created_by", "created_at", "updated_at"],
-  lesson_versions: ["slug", "version", "content", "first_seen_at"],
-  lessons: ["slug", "title", "position", "version", "content", "synced_at"],
+  lesson_versions: ["slug", "version", "content", "first_seen_at", "number", "created_by", "source"],
+  lessons: [
+    "slug",
+    "title",
+    "position",
+    "version",
+    "content",
+    "synced_at",
+    "organisation_id",
+    "status",
+    "author_id",
+    "source",
+    "created_at",
+    "updated_at",
+  ],
   organisations: ["id", "name", "open_designer_signup", "created_at"],
   rate_limits: ["key", "window_start", "count"],
   roof_versions: ["roof_id", "version", "name", "spec", "saved_by", "saved_at", "kind"],

@@ -15,6 +15,8 @@ export interface GradeCell {
   overridden: boolean;
   attempts: number;
   submittedAt: string;
+  /** The readable lesson version the cell's attempt was graded on (v1 is 1), when known. */
+  versionNumber?: number | null;
 }
 
 export interface GradebookLesson {

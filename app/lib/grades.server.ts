@@ -14,6 +14,7 @@ interface AttemptGradeRow {
   override_reason: string | null;
   pass_mark: number | null;
   failed_required: string[] | null;
+  version_number: number | null;
 }
 
 /** Whose overrides count in a class's figures: the class's trainer and its organisation's admins. */
@@ -56,6 +57,10 @@ export function attemptsWithEffectiveGrade(scope?: OverrideScope) {
     )
     .select(
       db().raw(`(a.results->>'passMark')::float8 as pass_mark`),
+      // The readable version the attempt was graded on (v1, v2: docs/authoring.md, "Versions").
+      db().raw(
+        `(select v.number from lesson_versions v where v.slug = a.lesson_slug and v.version = a.lesson_version) as version_number`,
+      ),
       // The labels of required items not met: the grading rule reads them (grading-rule.ts).
       db().raw(
         `(select coalesce(jsonb_agg(i->>'label'), '[]'::jsonb)
@@ -85,6 +90,7 @@ function toCell(r: AttemptGradeRow): GradeCell {
     overridden,
     attempts: 1,
     submittedAt: new Date(r.submitted_at).toISOString(),
+    versionNumber: r.version_number ?? null,
   };
 }
 

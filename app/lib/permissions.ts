@@ -5,6 +5,8 @@ export type Role = (typeof ROLES)[number];
 export const PERMISSIONS = {
   "roofs:own": ["admin", "trainer", "trainee", "designer"],
   "lessons:take": ["admin", "trainer", "trainee", "designer"],
+  // Write, edit, publish, import and export the organisation's own lessons (drafts included).
+  "lessons:author": ["admin", "trainer"],
   "classes:manage": ["admin", "trainer"],
   // Who has a Classes page with something on it (designers belong to no class: no menu item).
   "classes:view": ["admin", "trainer", "trainee"],

@@ -1,6 +1,7 @@
 /** The roofs a trainer can step through in classroom mode: each lesson's figures and task roofs, and their own saved roofs. */
 import { classAssignments } from "~/lib/classes.server";
 import { db } from "~/lib/db.server";
+import { classUsableLessons } from "~/lib/lessons/access.server";
 import type { DeckGroup } from "~/lib/present-groups";
 
 /** A roof spec as JSON (checked by the engine when it is published). */
@@ -38,10 +39,10 @@ export function lessonRoofs(content: LessonContent): DeckRoof[] {
 }
 
 /** Assigned lessons first, then the rest of the course (each part in course order), then my saved roofs. */
-export async function presenterDecks(trainerId: string, classId: string): Promise<Deck[]> {
+export async function presenterDecks(trainerId: string, classId: string, organisationId: string): Promise<Deck[]> {
   const [assigned, lessons, roofs] = await Promise.all([
     classAssignments(classId),
-    db()("lessons")
+    classUsableLessons(db()("lessons"), organisationId)
       .select("slug", "title", "position", "content")
       .orderBy([{ column: "position" }, { column: "slug" }]),
     db()("roofs")

@@ -5,7 +5,7 @@ import type { RoofSpec } from "~/engine";
 import { requirePermission } from "~/lib/auth.server";
 import { db } from "~/lib/db.server";
 import { getAttempt, maySeeTraineeAttempts } from "~/lib/lessons/attempts.server";
-import { getLesson } from "~/lib/lessons/catalogue.server";
+import { versionNumberOf } from "~/lib/lessons/access.server";
 import { effectiveGrade, reviewsForAttempt } from "~/lib/reviews.server";
 import { formatScore } from "~/lib/gradebook";
 import { Caution } from "~/components/caution";
@@ -24,7 +24,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   if (!attempt || !(await maySeeTraineeAttempts(db(), user, attempt.traineeId)))
     throw data("No attempt with that id that you may see.", { status: 404 });
   const reviews = await reviewsForAttempt(attempt.id);
-  const current = getLesson(attempt.lesson);
+  const current = await db()("lessons").where({ slug: attempt.lesson }).first("version");
+  const versionNumber = await versionNumberOf(db(), attempt.lesson, attempt.lessonVersion);
   const grade = effectiveGrade(attempt, reviews);
   return {
     attempt,
@@ -37,6 +38,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     },
     mine: attempt.traineeId === user.id,
     outdated: !!current && current.version !== attempt.lessonVersion,
+    versionNumber,
     reviews: reviews.map((r) => ({
       id: r.id,
       reviewerName: r.reviewerName,
@@ -50,7 +52,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 }
 
 export default function AttemptPage({ loaderData }: Route.ComponentProps) {
-  const { attempt, grade, mine, outdated, reviews } = loaderData;
+  const { attempt, grade, mine, outdated, reviews, versionNumber } = loaderData;
   const r = attempt.results;
   return (
     <div className="grid gap-6">
@@ -68,7 +70,11 @@ export default function AttemptPage({ loaderData }: Route.ComponentProps) {
         <p className="text-sm text-ink-soft">
           Submitted <When iso={attempt.submittedAt} /> · time on the page {Math.round(attempt.timeSpentSeconds / 60)}{" "}
           min (measured in the browser, for information)
-          {outdated ? " · graded on an earlier version of this lesson" : ""}
+          {" · "}
+          <span data-testid="attempt-version">
+            graded on {versionNumber ? `v${versionNumber}` : "a version"} of this lesson
+            {outdated ? " (an earlier version; the lesson has changed since)" : ""}
+          </span>
         </p>
       </header>
       {grade.overridden ? (

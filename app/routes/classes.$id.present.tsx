@@ -23,7 +23,10 @@ export const meta: Route.MetaFunction = ({ data }) => [
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requirePermission(request, "classes:manage");
   const cls = await findClassFor(user, params.id, "manage");
-  const [decks, live] = await Promise.all([presenterDecks(user.id, cls.id), readLiveState(cls.id)]);
+  const [decks, live] = await Promise.all([
+    presenterDecks(user.id, cls.id, cls.organisation_id),
+    readLiveState(cls.id),
+  ]);
   return { cls: { id: cls.id, name: cls.name }, decks, live };
 }
 

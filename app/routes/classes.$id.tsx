@@ -25,7 +25,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     classRoster(cls.id),
     pendingInvitations(cls.id),
     classAssignments(cls.id),
-    listLessons(),
+    listLessons(cls.organisation_id),
     classCourseChoice(user, cls.id),
   ]);
   const created = new URL(request.url).searchParams.get("created") === "1";

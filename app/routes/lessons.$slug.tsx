@@ -8,7 +8,7 @@ import { db } from "~/lib/db.server";
 import { readFormCapped } from "~/lib/json-api.server";
 import { progressOf } from "~/lib/lessons/attempts.server";
 import { GRADING_RULE_LINES } from "~/lib/lessons/grading-rule";
-import { getLesson } from "~/lib/lessons/catalogue.server";
+import { lessonForViewer, mayAuthor } from "~/lib/lessons/access.server";
 import { submissionFromForm, submitAttempt } from "~/lib/lessons/submit.server";
 import { lessonView } from "~/lib/lessons/view.server";
 import { Caution } from "~/components/caution";
@@ -27,17 +27,26 @@ export const meta: Route.MetaFunction = ({ data }) => [
 ];
 
 export async function loader({ request, params }: Route.LoaderArgs) {
-  const lesson = getLesson(params.slug);
-  if (!lesson) throw data("No lesson with that name.", { status: 404 });
   const user = await getOptionalUser(request);
+  const entry = await lessonForViewer(db(), params.slug, user);
+  if (!entry) throw data("No lesson with that name.", { status: 404 });
+  const lesson = entry.lesson;
   const progress = user ? ((await progressOf(db(), user.id))[lesson.slug] ?? null) : null;
   // A fresh key per page view: a double click or a retry of this submit makes one attempt.
-  return { lesson: lessonView(lesson), signedIn: !!user, progress, idempotencyKey: crypto.randomUUID() };
+  return {
+    lesson: lessonView(lesson),
+    signedIn: !!user,
+    progress,
+    idempotencyKey: crypto.randomUUID(),
+    authoring: mayAuthor(user)
+      ? { editable: entry.editable, builtIn: entry.builtIn, status: entry.status, versionNumber: entry.versionNumber }
+      : null,
+  };
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
   const user = await requirePermission(request, "lessons:take");
-  if (!getLesson(params.slug)) throw data("No lesson with that name.", { status: 404 });
+  if (!(await lessonForViewer(db(), params.slug, user))) throw data("No lesson with that name.", { status: 404 });
   const read = await readFormCapped(request, 512 * 1024);
   if (!read.ok)
     return data({ attempt: null, error: "The submission could not be read. Try again." }, { status: read.status });
@@ -63,6 +72,40 @@ export async function action({ request, params }: Route.ActionArgs) {
 
 const FORM_ID = "attempt-form";
 
+/** For trainers and admins: this lesson's status and what they may do with it. */
+function AuthoringBar(p: {
+  slug: string;
+  editable: boolean;
+  builtIn: boolean;
+  status: "draft" | "published";
+  versionNumber: number | null;
+}) {
+  return (
+    <div className="flex flex-wrap items-center gap-3 text-sm" data-testid="authoring-bar">
+      <span className="font-medium">
+        {p.builtIn
+          ? "Built-in lesson (read-only)"
+          : p.status === "draft"
+            ? "Draft: not shown to trainees"
+            : `Published, v${p.versionNumber}`}
+      </span>
+      {p.editable && (
+        <Link className="btn" to={`/lessons/${p.slug}/edit`}>
+          Edit
+        </Link>
+      )}
+      <Form method="post" action={`/lessons/${p.slug}/edit`}>
+        <button className="btn" type="submit" name="intent" value="duplicate">
+          Duplicate to my organisation
+        </button>
+      </Form>
+      <a className="underline" href={`/lessons/${p.slug}/export`} download>
+        Export as a lesson file
+      </a>
+    </div>
+  );
+}
+
 function useTimeSpent() {
   const started = useRef(0);
   useEffect(() => {
@@ -72,7 +115,7 @@ function useTimeSpent() {
 }
 
 export default function LessonPlayer({ loaderData, actionData }: Route.ComponentProps) {
-  const { lesson, signedIn, progress, idempotencyKey } = loaderData;
+  const { lesson, signedIn, progress, idempotencyKey, authoring } = loaderData;
   const result = actionData;
   const navigation = useNavigation();
   const submitting = navigation.state === "submitting";
@@ -148,6 +191,7 @@ export default function LessonPlayer({ loaderData, actionData }: Route.Component
           <span className="text-ink-soft">/ lesson {lesson.position}</span>
         </p>
         <h1 className="text-display font-bold tracking-tight">{lesson.title}</h1>
+        {authoring && <AuthoringBar slug={lesson.slug} {...authoring} />}
         <p className="max-w-prose text-lg text-ink-soft">{lesson.summary}</p>
         <p className="flex flex-wrap items-center gap-x-4 gap-y-1 text-sm text-ink-soft">
           <span className="inline-flex items-center gap-1">

@@ -5,7 +5,7 @@ import { getOptionalUser } from "~/lib/auth.server";
 import { dueDatesForTrainee, type LessonDue } from "~/lib/classes.server";
 import { db } from "~/lib/db.server";
 import { progressOf, type Progress } from "~/lib/lessons/attempts.server";
-import { allLessons } from "~/lib/lessons/catalogue.server";
+import { mayAuthor, visibleLessons } from "~/lib/lessons/access.server";
 import { lessonSummary } from "~/lib/lessons/view.server";
 import { Day } from "~/components/dates";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
@@ -29,8 +29,13 @@ export async function loader({ request }: Route.LoaderArgs) {
   return {
     signedIn: !!user,
     today: new Date().toISOString().slice(0, 10),
-    lessons: allLessons().map((l) => ({
+    mayAuthor: mayAuthor(user),
+    lessons: (await visibleLessons(db(), user)).map(({ lesson: l, builtIn, status, versionNumber, editable }) => ({
       ...lessonSummary(l),
+      builtIn,
+      status,
+      versionNumber,
+      editable,
       progress: progress[l.slug] ?? null,
       due: due[l.slug] ?? null,
     })),
@@ -83,7 +88,7 @@ function DueLine({ due, late }: { due: LessonDue; late: boolean }) {
 }
 
 export default function Lessons({ loaderData }: Route.ComponentProps) {
-  const { lessons, signedIn, today } = loaderData;
+  const { lessons, signedIn, today, mayAuthor } = loaderData;
   const passed = lessons.filter((l) => l.progress?.passed).length;
   const next = lessons.find((l) => !l.progress?.passed);
   return (
@@ -111,6 +116,11 @@ export default function Lessons({ loaderData }: Route.ComponentProps) {
               <Link to="/attempts" className="btn">
                 My attempts
               </Link>
+              {mayAuthor && (
+                <Link to="/lessons/new" className="btn" data-testid="new-lesson">
+                  Write a lesson
+                </Link>
+              )}
             </p>
           </div>
         ) : (
@@ -158,6 +168,16 @@ export default function Lessons({ loaderData }: Route.ComponentProps) {
                   roof task, {l.criteria} checks
                 </span>
                 <span>pass mark {l.passMark}</span>
+                {!l.builtIn && (
+                  <span data-testid={`status-${l.slug}`}>
+                    {l.status === "draft" ? "draft, not shown to trainees" : `your organisation · v${l.versionNumber}`}
+                  </span>
+                )}
+                {l.editable && (
+                  <Link to={`/lessons/${l.slug}/edit`} className="underline">
+                    Edit
+                  </Link>
+                )}
               </p>
               {l.due && <DueLine due={l.due} late={!!l.due.dueOn && l.due.dueOn < today && !l.progress?.passed} />}
             </div>

@@ -30,6 +30,7 @@ import { ResetRoofButton } from "~/components/sandbox/inputs/reset-roof-button";
 import { SandboxWorkspace } from "~/components/sandbox/workspace";
 import { SaveToLibrary } from "~/components/roofs/save-to-library";
 import { can } from "~/lib/permissions";
+import { MakeTaskLink } from "~/components/lessons/make-task-link";
 import type { loader as shellLoader } from "./_shell";
 
 export const meta: Route.MetaFunction = () => [
@@ -44,6 +45,12 @@ export async function loader({ request }: Route.LoaderArgs) {
   const linked = readLinkedSpec(new URL(request.url));
   if (linked.error) return data({ linked: null, linkError: linked.error.message }, { status: linked.error.status });
   return { linked: linked.spec, linkError: null };
+}
+
+/** "Make this roof a task", for those who write lessons. */
+function AuthorTask() {
+  const shell = useRouteLoaderData<typeof shellLoader>("routes/_shell");
+  return can(shell?.user?.role, "lessons:author") ? <MakeTaskLink /> : null;
 }
 
 function StartOver() {
@@ -90,6 +97,7 @@ export default function Sandbox({ loaderData }: Route.ComponentProps) {
           <>
             <StartOver />
             <SaveToLibrary />
+            <AuthorTask />
           </>
         }
       />

@@ -4,6 +4,7 @@ import { callRoute, get, sessionCookie, userIdOf } from "../support/accounts";
 import { demoClassId } from "../support/classes";
 import { DECK_GROUP_LABELS } from "~/lib/present-groups";
 import { presenterDecks } from "~/lib/present.server";
+import { db } from "~/lib/db.server";
 import * as lessonsIndex from "~/routes/lessons._index";
 
 // Issue 16, item 8: the lessons list shows when the trainee's classes want each lesson done, and the
@@ -38,7 +39,9 @@ describe("the lessons list's due dates", () => {
 
 describe("the presenter's list of roofs", () => {
   it("puts the class's assigned lessons first and the other lessons after, each part in course order, in labelled groups", async () => {
-    const decks = await presenterDecks(await userIdOf("trainer@tidemark.example"), await demoClassId());
+    const classId = await demoClassId();
+    const org = (await db()("classes").where({ id: classId }).first("organisation_id"))!.organisation_id;
+    const decks = await presenterDecks(await userIdOf("trainer@tidemark.example"), classId, org);
     const groups = decks.map((d) => d.group);
     // Contiguous parts in the order assigned → course → roofs (a divider sits between each).
     expect(groups.join(",")).toMatch(/^(assigned,)*assigned(,course)+(,roofs)?$/);

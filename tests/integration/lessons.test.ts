@@ -9,7 +9,7 @@ import * as player from "~/routes/lessons.$slug";
 import * as attemptPage from "~/routes/attempts.$id";
 import { createAttempt } from "~/lib/lessons/attempts.server";
 import { allLessons, ensureLessonsSynced, getLesson } from "~/lib/lessons/catalogue.server";
-import { syncLessons } from "~/lib/lessons/sync.server";
+import { nextVersionNumber, syncLessons } from "~/lib/lessons/sync.server";
 import { roofTaskOf, type Lesson } from "~/lib/lessons/schema";
 
 const { db } = useTestDatabase();
@@ -210,7 +210,12 @@ describe("attempts API: grading on the server and statuses", () => {
       passMark: 10,
       task: { ...OUTLETS_TASK, criteria: OUTLETS_TASK.criteria.slice(1) },
     };
-    await db()("lesson_versions").insert({ slug: old.slug, version: old.version, content: JSON.stringify(old) });
+    await db()("lesson_versions").insert({
+      slug: old.slug,
+      version: old.version,
+      content: JSON.stringify(old),
+      number: nextVersionNumber(db(), old.slug) as unknown as number,
+    });
     const r = await post(body({ version: old.version }), cookie);
     expect(r.status).toBe(201);
     const a = (await r.json()).attempt;

@@ -164,6 +164,21 @@ const MATRIX: Record<string, Case[]> = {
     { path: "/lessons/{uuid}", expect: ALL(404) },
     { path: "/lessons/{lessonSlug}", expect: ALL(200), why: "lessons are public to read" },
   ],
+  "/lessons/new": [
+    { path: "/lessons/new", expect: s(302, 200, 200, 403, 403), why: "trainers and admins write lessons" },
+  ],
+  "/lessons/:slug/edit": [
+    { path: "/lessons/{uuid}/edit", expect: s(302, 404, 404, 403, 403) },
+    {
+      path: "/lessons/{lessonSlug}/edit",
+      expect: s(302, 200, 200, 403, 403),
+      why: "a built-in lesson's edit page offers only Duplicate",
+    },
+  ],
+  "/lessons/:slug/export": [
+    { path: "/lessons/{uuid}/export", expect: ALL(404) },
+    { path: "/lessons/{lessonSlug}/export", expect: ALL(200), why: "built-in lessons are public to read" },
+  ],
   "/attempts": [{ path: "/attempts", expect: SIGNED_IN(200) }],
   "/attempts/:id": [{ path: "/attempts/{uuid}", expect: SIGNED_IN(404) }],
   "/attempts/:id/review": [{ path: "/attempts/{uuid}/review", expect: SIGNED_IN(404) }],

@@ -103,6 +103,7 @@ export function GradebookTable({ book, classId }: { book: Gradebook; classId: st
                 <GradeMark cell={cell} />
                 <span className="block text-[11px] text-ink-soft">
                   {cell.attempts} attempt{cell.attempts === 1 ? "" : "s"}
+                  {cell.versionNumber ? ` · v${cell.versionNumber}` : ""}
                 </span>
               </Link>
             );

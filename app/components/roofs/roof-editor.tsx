@@ -1,12 +1,13 @@
 import { useCallback, useRef, useState } from "react";
-import { Link, useFetcher, useNavigate, useSearchParams } from "react-router";
-import { Download } from "lucide-react";
+import { Link, useFetcher, useNavigate, useRouteLoaderData, useSearchParams } from "react-router";
+import { Download, GraduationCap } from "lucide-react";
 import type { RoofSpec } from "~/engine";
 import type { CheckListItem } from "~/components/as-built/check-list";
 import { PackDownloads } from "~/components/pack/downloads";
 import type { SandboxStore } from "~/components/sandbox/state/store";
 import { newRequestKey } from "~/lib/request-key";
 import { ROOF_NAME_MAX, roofNameSchema, type UnderlaySettings } from "~/lib/roof-file";
+import { can, type Role } from "~/lib/permissions";
 import type { RoofPageActionData } from "~/lib/roof-page";
 import type { RoofVersionRow } from "~/lib/roofs.server";
 import type { ShareLinkRow } from "~/lib/share-links.server";
@@ -51,6 +52,9 @@ export function RoofEditor({
   checks,
 }: RoofEditorProps) {
   const navigate = useNavigate();
+  // Trainers and admins turn a saved roof into a lesson task (docs/authoring.md).
+  const shell = useRouteLoaderData("routes/_shell") as { user?: { role: Role } | null } | undefined;
+  const canAuthor = can(shell?.user?.role, "lessons:author");
   const [params] = useSearchParams();
   const autosave = useAutosave(roof.id, roof.version, { enabled: roof.canEdit });
   const queue = autosave.queue;
@@ -173,6 +177,11 @@ export function RoofEditor({
           <a className="btn" href={`/roofs/${roof.id}/export`} download>
             <Download aria-hidden="true" className="h-4 w-4" /> Export roof file
           </a>
+          {canAuthor ? (
+            <a className="btn" href={`/lessons/new?roof=${roof.id}`} data-testid="make-task">
+              <GraduationCap aria-hidden="true" className="h-4 w-4" /> Make this roof a task
+            </a>
+          ) : null}
         </div>
       </header>
       {roof.canEdit ? <h1 className="sr-only">{name}</h1> : null}

@@ -4,6 +4,7 @@
  * a trainee sees the courses their classes follow; anything else answers 404.
  */
 import type { Knex } from "knex";
+import { classUsableLessons } from "../lessons/access.server";
 import type { SessionUser } from "~/lib/auth.server";
 import { db } from "~/lib/db.server";
 import { isUuid } from "~/lib/input";
@@ -32,17 +33,19 @@ export interface CourseLesson extends LessonChoice {
 }
 
 /**
- * The lessons a course may include, for this viewer: today every row of `lessons` (all built-in
- * lessons). The one place that says so, so it can follow the lesson editor's visibility rule.
+ * The lessons a course may include, for this viewer: the built-in lessons and the published ones
+ * of the viewer's organisation (never drafts, never another organisation's), the same rule as a
+ * class's assignments (`classUsableLessons`).
  */
 export async function courseLessonChoices(
   knex: Knex,
   viewer: Pick<SessionUser, "id" | "organisationId">,
 ): Promise<LessonChoice[]> {
-  void viewer;
-  return knex("lessons")
-    .select("slug", "title")
-    .orderBy([{ column: "position" }, { column: "slug" }]);
+  // Built-in lessons and the organisation's published ones, as for a class's assignments.
+  return classUsableLessons(knex("lessons").select("slug", "title"), viewer.organisationId).orderBy([
+    { column: "position" },
+    { column: "slug" },
+  ]);
 }
 
 const COLUMNS = ["c.id", "c.organisation_id", "c.name", "c.description"];

@@ -1,5 +1,6 @@
 import matter from "gray-matter";
 import { marked } from "marked";
+import sanitizeHtml from "sanitize-html";
 import { figureSchema, type Block } from "./schema";
 
 export interface BodyIssue {
@@ -22,13 +23,50 @@ export function keepUnitsTogether(html: string): string {
   return html.replace(/(\d) (%|mm\b|m²|m\b|°)/g, "$1\u00a0$2");
 }
 
-/** Markdown rendered for the page. Lesson files are trusted repository content, written by trainers. */
+/**
+ * What rendered lesson Markdown may hold (docs/security.md, "Lesson bodies"): the tags Markdown
+ * makes, links to http(s) and mail only, no script, style, frames, SVG or event handlers. Lessons
+ * are written in the app by trainers of any organisation, so no lesson text is trusted.
+ */
+const SAFE_HTML: sanitizeHtml.IOptions = {
+  allowedTags: [
+    ...["p", "br", "hr", "h1", "h2", "h3", "h4", "h5", "h6", "blockquote", "pre", "code", "span", "div"],
+    ...["strong", "b", "em", "i", "del", "s", "sub", "sup", "kbd", "mark", "small", "abbr"],
+    ...["ul", "ol", "li", "dl", "dt", "dd", "a", "img"],
+    ...["table", "thead", "tbody", "tfoot", "tr", "th", "td", "caption"],
+    ...["input"],
+  ],
+  allowedAttributes: {
+    a: ["href", "title"],
+    img: ["src", "alt", "title", "width", "height"],
+    code: ["class"],
+    ol: ["start"],
+    th: ["align"],
+    td: ["align"],
+    abbr: ["title"],
+    // GFM task lists: a disabled checkbox.
+    input: ["type", "checked", "disabled"],
+  },
+  allowedClasses: { code: [/^language-[\w-]+$/] },
+  allowedSchemes: ["http", "https", "mailto"],
+  allowedSchemesByTag: { img: ["https"] },
+  allowProtocolRelative: false,
+  disallowedTagsMode: "discard",
+  exclusiveFilter: (frame) => frame.tag === "input" && frame.attribs.type !== "checkbox",
+};
+
+/** Rendered lesson HTML with everything outside SAFE_HTML taken out. */
+export function safeHtml(html: string): string {
+  return sanitizeHtml(html, SAFE_HTML);
+}
+
+/** Markdown rendered for the page, made safe: lessons are written by trainers in the app too. */
 export function renderMarkdown(md: string): string {
-  return keepUnitsTogether(marked.parse(md, { async: false, gfm: true }) as string);
+  return keepUnitsTogether(safeHtml(marked.parse(md, { async: false, gfm: true }) as string));
 }
 
 export function renderInline(md: string): string {
-  return keepUnitsTogether(marked.parseInline(md, { async: false, gfm: true }) as string);
+  return keepUnitsTogether(safeHtml(marked.parseInline(md, { async: false, gfm: true }) as string));
 }
 
 /**

@@ -1,7 +1,7 @@
 import type { SessionUser } from "../auth.server";
 import { db } from "../db.server";
 import { createAttempt, submissionSchema, type CreateOutcome } from "./attempts.server";
-import { ensureLessonsSynced, getLesson } from "./catalogue.server";
+import { lessonForViewer } from "./access.server";
 import { issueCertificatesAfterGrade } from "../certificates/certificates.server";
 
 export type SubmitOutcome =
@@ -15,8 +15,16 @@ export async function submitAttempt(user: SessionUser, body: unknown): Promise<S
   const parsed = submissionSchema.safeParse(body);
   if (!parsed.success)
     return { status: 400, message: "The attempt is malformed.", issues: issuesOf(parsed.error.issues) };
-  await ensureLessonsSynced();
-  const outcome = await createAttempt(db(), user.id, parsed.data, getLesson);
+  const entry = await lessonForViewer(db(), parsed.data.lesson, user);
+  if (!entry) return { status: 404, message: `There is no lesson "${parsed.data.lesson}".` };
+  if (entry.status === "draft")
+    return {
+      status: 409,
+      message: "This lesson is a draft: publish it before attempts are kept (Preview grades a trial attempt).",
+    };
+  const outcome = await createAttempt(db(), user.id, parsed.data, (slug) =>
+    slug === entry.lesson.slug ? entry.lesson : null,
+  );
   // A new grade may complete a course (docs/product.md capability 10).
   if (outcome.status === 201) await issueCertificatesAfterGrade(user.id, parsed.data.lesson);
   return outcome;

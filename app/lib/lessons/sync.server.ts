@@ -12,20 +12,26 @@ export async function syncLessons(knex: Knex, lessons: Lesson[]): Promise<{ chan
     for (const l of lessons) {
       const content = JSON.stringify(l);
       await trx("lesson_versions")
-        .insert({ slug: l.slug, version: l.version, content })
+        .insert({ slug: l.slug, version: l.version, content, number: nextVersionNumber(trx, l.slug) })
         .onConflict(["slug", "version"])
         .ignore();
       const rows = await trx("lessons")
         .insert({ slug: l.slug, title: l.title, position: l.position, version: l.version, content })
         .onConflict("slug")
         .merge({ title: l.title, position: l.position, version: l.version, content, synced_at: trx.fn.now() })
-        .where("lessons.version", "<>", l.version)
-        .orWhere("lessons.position", "<>", l.position)
+        // A lesson written in the app never takes a built-in file's changes (authoring.server.ts keeps slugs apart).
+        .where("lessons.organisation_id", null)
+        .andWhere((w) => w.where("lessons.version", "<>", l.version).orWhere("lessons.position", "<>", l.position))
         .returning("slug");
       if (rows.length) changed.push(l.slug);
     }
   });
   return { changed };
+}
+
+/** The next readable version number (v1, v2, ...) of a lesson, as a subquery for an insert. */
+export function nextVersionNumber(knex: Knex, slug: string): Knex.Raw {
+  return knex.raw("(select coalesce(max(number), 0) + 1 from lesson_versions where slug = ?)", [slug]);
 }
 
 /** A stored version of a lesson (for grading an attempt made on a page opened before an update). */

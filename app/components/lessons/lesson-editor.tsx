@@ -1,0 +1,383 @@
+import { useId, useState, type ReactNode } from "react";
+import { Form, useNavigation } from "react-router";
+import { Plus, Trash2 } from "lucide-react";
+import { FormError } from "~/components/form-field";
+import {
+  blankCriterion,
+  blankQuestion,
+  LOCKABLE,
+  MAX_CRITERIA,
+  MAX_QUESTIONS,
+  QUESTION_KINDS,
+  type CatalogueEntry,
+  type CriterionForm,
+  type LessonForm,
+  type QuestionForm,
+} from "~/lib/lessons/lesson-form";
+
+/** A labelled input or text area with its error beside it (the name is the lesson file's field). */
+function Input(p: {
+  label: string;
+  name: string;
+  value: string;
+  errors: Record<string, string>;
+  hint?: ReactNode;
+  rows?: number;
+  inputMode?: "numeric" | "decimal" | "text";
+  mono?: boolean;
+}) {
+  const id = useId();
+  const error = p.errors[p.name];
+  const common = {
+    id,
+    name: p.name,
+    defaultValue: p.value,
+    "aria-invalid": error ? true : undefined,
+    "aria-describedby": error ? `${id}-e` : p.hint ? `${id}-h` : undefined,
+    className: `field ${p.mono ? "font-mono text-sm" : ""}`,
+  };
+  return (
+    <div>
+      <label className="label" htmlFor={id}>
+        {p.label}
+      </label>
+      {p.rows ? <textarea rows={p.rows} {...common} /> : <input inputMode={p.inputMode} {...common} />}
+      {error ? (
+        <p id={`${id}-e`} className="field-error" data-testid={`error-${p.name}`}>
+          {error}
+        </p>
+      ) : p.hint ? (
+        <p id={`${id}-h`} className="mt-1 text-xs text-ink-soft">
+          {p.hint}
+        </p>
+      ) : null}
+    </div>
+  );
+}
+
+function Question({
+  q,
+  i,
+  errors,
+  onRemove,
+}: {
+  q: QuestionForm;
+  i: number;
+  errors: Record<string, string>;
+  onRemove: () => void;
+}) {
+  const [kind, setKind] = useState(q.kind);
+  const p = `quiz.${i}.`;
+  const choice = kind === "single" || kind === "multiple";
+  return (
+    <fieldset className="card grid gap-3" data-testid={`question-${i}`}>
+      <legend className="font-bold">Question {i + 1}</legend>
+      <input type="hidden" name={`${p}id`} value={q.id} />
+      <div>
+        <label className="label" htmlFor={`${p}kind`}>
+          Kind
+        </label>
+        <select
+          id={`${p}kind`}
+          name={`${p}kind`}
+          className="field"
+          value={kind}
+          onChange={(e) => setKind(e.target.value as QuestionForm["kind"])}
+        >
+          {QUESTION_KINDS.map((k) => (
+            <option key={k.id} value={k.id}>
+              {k.label}
+            </option>
+          ))}
+        </select>
+      </div>
+      <Input label="Question" name={`${p}prompt`} value={q.prompt} errors={errors} rows={2} />
+      {choice ? (
+        <Input
+          label="Options, one a line; start the right one(s) with *"
+          name={`${p}options`}
+          value={q.options}
+          errors={errors}
+          rows={4}
+          hint={kind === "single" ? "Exactly one line starts with *." : "Every right line starts with *."}
+        />
+      ) : (
+        <div className="grid gap-3 sm:grid-cols-2">
+          <Input
+            label={kind === "ratio" ? "Answer (1:N)" : "Answer with its unit"}
+            name={`${p}answer`}
+            value={q.answer}
+            errors={errors}
+            hint={kind === "ratio" ? "e.g. 1:80" : "e.g. 150 mm, 2.5 %, 3 L/s"}
+          />
+          <Input
+            label={kind === "ratio" ? "Tolerance on N (optional)" : "Tolerance (optional)"}
+            name={`${p}tolerance`}
+            value={q.tolerance}
+            errors={errors}
+            hint={kind === "ratio" ? "e.g. 2; default 1 % of N" : "same kind of unit, e.g. 2 mm; default 1 %"}
+          />
+        </div>
+      )}
+      <Input
+        label="Hint (teaches the way, never the answer)"
+        name={`${p}hint`}
+        value={q.hint}
+        errors={errors}
+        rows={2}
+      />
+      <Input
+        label="Explanation (shown after grading)"
+        name={`${p}explanation`}
+        value={q.explanation}
+        errors={errors}
+        rows={2}
+      />
+      <div className="flex flex-wrap items-end justify-between gap-3">
+        <div className="w-28">
+          <Input label="Weight" name={`${p}weight`} value={q.weight} errors={errors} inputMode="decimal" />
+        </div>
+        <button type="button" className="btn" onClick={onRemove}>
+          <Trash2 aria-hidden="true" className="h-4 w-4" /> Remove question {i + 1}
+        </button>
+      </div>
+    </fieldset>
+  );
+}
+
+function Criterion({
+  c,
+  i,
+  errors,
+  catalogue,
+  onRemove,
+}: {
+  c: CriterionForm;
+  i: number;
+  errors: Record<string, string>;
+  catalogue: CatalogueEntry[];
+  onRemove: () => void;
+}) {
+  const [kind, setKind] = useState(c.kind);
+  const entry = catalogue.find((k) => k.id === kind);
+  const p = `task.criteria.${i}.`;
+  return (
+    <fieldset className="grid gap-2 rounded border border-rule p-3" data-testid={`criterion-${i}`}>
+      <legend className="px-1 text-sm font-bold">Criterion {i + 1}</legend>
+      <div>
+        <label className="label" htmlFor={`${p}kind`}>
+          Check
+        </label>
+        <select
+          id={`${p}kind`}
+          name={`${p}kind`}
+          className="field"
+          value={kind}
+          onChange={(e) => setKind(e.target.value)}
+        >
+          {catalogue.map((k) => (
+            <option key={k.id} value={k.id}>
+              {k.label}
+            </option>
+          ))}
+        </select>
+        {errors[`${p}kind`] && <p className="field-error">{errors[`${p}kind`]}</p>}
+      </div>
+      <div className="grid gap-2 sm:grid-cols-3">
+        {entry?.limit !== "none" && (
+          <Input
+            label="Limit"
+            name={`${p}value`}
+            value={c.value}
+            errors={errors}
+            hint={entry ? `e.g. ${entry.example}` : undefined}
+          />
+        )}
+        <Input label="Weight" name={`${p}weight`} value={c.weight} errors={errors} inputMode="decimal" />
+        <label className="mt-6 flex items-center gap-2 text-sm">
+          <input type="checkbox" name={`${p}required`} defaultChecked={c.required} /> Must pass (required)
+        </label>
+      </div>
+      <Input label="Said when it fails (optional)" name={`${p}hint`} value={c.hint} errors={errors} />
+      <button type="button" className="btn justify-self-start" onClick={onRemove}>
+        <Trash2 aria-hidden="true" className="h-4 w-4" /> Remove criterion {i + 1}
+      </button>
+    </fieldset>
+  );
+}
+
+/** Lists that grow and shrink in the browser; each row keeps a stable key so typed values stay. */
+function useRows<T>(initial: T[]) {
+  const [rows, setRows] = useState(() => initial.map((value, n) => ({ key: n, value })));
+  const [next, setNext] = useState(initial.length);
+  return {
+    rows,
+    add: (value: T) => {
+      setRows((r) => [...r, { key: next, value }]);
+      setNext(next + 1);
+    },
+    remove: (key: number) => setRows((r) => r.filter((x) => x.key !== key)),
+  };
+}
+
+/**
+ * The lesson editor: every field of a lesson file as a form. The server writes the lesson file
+ * and checks it with the start-up loader; its errors come back by field name and the form keeps
+ * what was typed (it is re-mounted with the posted values).
+ */
+export function LessonEditor({
+  form,
+  errors,
+  formError,
+  catalogue,
+  status,
+  actions,
+}: {
+  form: LessonForm;
+  errors: Record<string, string>;
+  formError?: string | null;
+  catalogue: CatalogueEntry[];
+  status: ReactNode;
+  actions: { intent: string; label: string; primary?: boolean }[];
+}) {
+  const quiz = useRows(form.quiz);
+  const criteria = useRows(form.task.criteria);
+  const navigation = useNavigation();
+  const busy = navigation.state === "submitting";
+  return (
+    <Form method="post" className="grid gap-6" data-testid="lesson-editor">
+      <FormError message={formError} />
+      <section className="card grid gap-3" aria-labelledby="about-heading">
+        <h2 id="about-heading" className="text-lg font-bold">
+          The lesson
+        </h2>
+        {status}
+        <Input label="Title" name="title" value={form.title} errors={errors} />
+        <Input label="Summary (one line for the course list)" name="summary" value={form.summary} errors={errors} />
+        <div className="grid gap-3 sm:grid-cols-2">
+          <Input label="Minutes" name="minutes" value={form.minutes} errors={errors} inputMode="numeric" />
+          <Input label="Pass mark (0-100)" name="passMark" value={form.passMark} errors={errors} inputMode="decimal" />
+        </div>
+        <Input label="Objectives, one a line" name="objectives" value={form.objectives} errors={errors} rows={3} />
+        <Input
+          label="Body (Markdown)"
+          name="body"
+          value={form.body}
+          errors={errors}
+          rows={14}
+          mono
+          hint={
+            <>
+              Plain Markdown. A <code>```roof</code> block (caption, view, spec) draws a figure; one is needed. A{" "}
+              <code>```caution</code> block is a safety box. HTML is not allowed.
+            </>
+          }
+        />
+      </section>
+
+      <section className="grid gap-3" aria-labelledby="quiz-heading">
+        <h2 id="quiz-heading" className="text-lg font-bold">
+          Quiz
+        </h2>
+        {errors.quiz && <p className="field-error">{errors.quiz}</p>}
+        {quiz.rows.map((r, i) => (
+          <Question key={r.key} q={r.value} i={i} errors={errors} onRemove={() => quiz.remove(r.key)} />
+        ))}
+        <button
+          type="button"
+          className="btn justify-self-start"
+          disabled={quiz.rows.length >= MAX_QUESTIONS}
+          onClick={() => quiz.add({ ...blankQuestion(quiz.rows.length), id: `q${Date.now().toString(36)}` })}
+        >
+          <Plus aria-hidden="true" className="h-4 w-4" /> Add a question
+        </button>
+      </section>
+
+      <section className="card grid gap-3" aria-labelledby="task-heading">
+        <h2 id="task-heading" className="text-lg font-bold">
+          Roof task
+        </h2>
+        <Input label="Task title" name="task.title" value={form.task.title} errors={errors} />
+        <Input
+          label="Goal stated to the trainee (Markdown)"
+          name="task.goal"
+          value={form.task.goal}
+          errors={errors}
+          rows={3}
+        />
+        <fieldset>
+          <legend className="label">What the trainee may change (the rest is locked)</legend>
+          <div className="flex flex-wrap gap-x-4 gap-y-1">
+            {LOCKABLE.map((l) => (
+              <label key={l.id} className="flex items-center gap-1.5 text-sm">
+                <input
+                  type="checkbox"
+                  name="task.editable"
+                  value={l.id}
+                  defaultChecked={form.task.editable.includes(l.id)}
+                />
+                {l.label}
+              </label>
+            ))}
+          </div>
+          {errors["task.editable"] && <p className="field-error">{errors["task.editable"]}</p>}
+        </fieldset>
+        <h3 className="font-bold">Criteria</h3>
+        {errors["task.criteria"] && <p className="field-error">{errors["task.criteria"]}</p>}
+        {criteria.rows.map((r, i) => (
+          <Criterion
+            key={r.key}
+            c={r.value}
+            i={i}
+            errors={errors}
+            catalogue={catalogue}
+            onRemove={() => criteria.remove(r.key)}
+          />
+        ))}
+        <button
+          type="button"
+          className="btn justify-self-start"
+          disabled={criteria.rows.length >= MAX_CRITERIA}
+          onClick={() => criteria.add(blankCriterion())}
+        >
+          <Plus aria-hidden="true" className="h-4 w-4" /> Add a criterion
+        </button>
+        <Input label="Hints, one a line" name="task.hints" value={form.task.hints} errors={errors} rows={3} />
+        <details>
+          <summary className="cursor-pointer text-sm font-medium">
+            Roofs (JSON): the starting roof and one that passes
+          </summary>
+          <div className="mt-2 grid gap-3">
+            <Input label="Starting roof" name="task.start" value={form.task.start} errors={errors} rows={8} mono />
+            <Input
+              label="Reference roof (passes every criterion; never shown to trainees)"
+              name="task.reference"
+              value={form.task.reference}
+              errors={errors}
+              rows={8}
+              mono
+            />
+          </div>
+        </details>
+        {(errors["task.start"] || errors["task.reference"]) && (
+          <p className="field-error">{errors["task.start"] ?? errors["task.reference"]}</p>
+        )}
+      </section>
+
+      <div className="sticky bottom-0 flex flex-wrap gap-3 border-t border-rule bg-paper py-3">
+        {actions.map((a) => (
+          <button
+            key={a.intent}
+            type="submit"
+            name="intent"
+            value={a.intent}
+            className={a.primary ? "btn-primary" : "btn"}
+            disabled={busy}
+          >
+            {a.label}
+          </button>
+        ))}
+      </div>
+    </Form>
+  );
+}
