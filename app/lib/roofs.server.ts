@@ -100,6 +100,19 @@ export async function listMyRoofs(user: SessionUser, limit?: number): Promise<Ro
   return (await q).map(summary);
 }
 
+/** My newest roofs with their specs, for drawing a lesson figure from one (the lesson editor). */
+export async function listMyRoofSpecs(
+  user: SessionUser,
+  limit = 30,
+): Promise<{ id: string; name: string; spec: unknown }[]> {
+  return db()("roofs")
+    .where({ owner_id: user.id })
+    .whereNull("deleted_at")
+    .orderBy("updated_at", "desc")
+    .limit(limit)
+    .select("id", "name", "spec");
+}
+
 /** Roofs colleagues in my organisation have shared (read-only for me). */
 export async function listSharedWithMe(user: SessionUser): Promise<SharedRoofSummary[]> {
   const rows = await db()("roofs as r")

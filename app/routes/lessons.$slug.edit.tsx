@@ -8,6 +8,7 @@ import type { LessonForm } from "~/lib/lessons/lesson-form";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
 import { FormError } from "~/components/form-field";
 import { LessonEditor } from "~/components/lessons/lesson-editor";
+import { listMyRoofSpecs } from "~/lib/roofs.server";
 import { LessonPreview } from "~/components/lessons/lesson-preview";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `Edit: ${data?.title ?? "lesson"} · Fallwright` }];
@@ -34,6 +35,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     form: url.searchParams.get("mode") === "file" ? null : found.form,
     saved: url.searchParams.get("saved") === "1",
     catalogue: criteriaCatalogue(),
+    roofs: await listMyRoofSpecs(user),
   };
 }
 
@@ -113,6 +115,7 @@ export default function EditLesson({ loaderData, actionData }: Route.ComponentPr
               errors={a?.form ? a.fieldErrors : {}}
               formError={a?.form ? a.formError : null}
               catalogue={l.catalogue}
+              roofs={l.roofs}
               status={null}
               actions={[
                 { intent: "preview", label: "Preview" },

@@ -5,7 +5,7 @@ import { db } from "~/lib/db.server";
 import { criteriaCatalogue, newLessonForm } from "~/lib/lessons/authoring.server";
 import { lessonEditorAction } from "~/lib/lessons/editor-action.server";
 import { readLinkedSpec } from "~/lib/linked-spec.server";
-import { getRoofFor } from "~/lib/roofs.server";
+import { getRoofFor, listMyRoofSpecs } from "~/lib/roofs.server";
 import { isUuid } from "~/lib/input";
 import type { RoofSpec } from "~/engine";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
@@ -39,7 +39,12 @@ export async function loader({ request }: Route.LoaderArgs) {
     spec = roof.spec as RoofSpec;
     from = `your roof “${roof.name}”`;
   }
-  return { form: newLessonForm(spec, "The roof of this lesson"), from, catalogue: criteriaCatalogue() };
+  return {
+    form: newLessonForm(spec, "The roof of this lesson"),
+    from,
+    catalogue: criteriaCatalogue(),
+    roofs: await listMyRoofSpecs(user),
+  };
 }
 
 export async function action({ request }: Route.ActionArgs) {
@@ -81,6 +86,7 @@ export default function NewLesson({ loaderData, actionData }: Route.ComponentPro
         errors={a?.form ? a.fieldErrors : {}}
         formError={a?.form ? a.formError : null}
         catalogue={loaderData.catalogue}
+        roofs={loaderData.roofs}
         status={null}
         actions={[
           { intent: "preview", label: "Preview" },

@@ -49,6 +49,15 @@ test("sandbox roof → task → published → a trainee passes it → the gradeb
   await expect(editor.getByLabel("Title", { exact: true })).toHaveValue(title);
 
   await editor.getByLabel("Pass mark (0-100)").fill("70");
+  // A second figure, from one of the trainer's saved roofs, added without typing the block.
+  const body = editor.getByLabel("Body (Markdown)");
+  const figures = async () => ((await body.inputValue()).match(/^```roof$/gm) ?? []).length;
+  const before = await figures();
+  const picked = await editor.getByLabel("Figure from a saved roof").locator("option").first().textContent();
+  await editor.getByRole("button", { name: "Add the figure to the body" }).click();
+  expect(await figures()).toBe(before + 1);
+  expect(await body.inputValue()).toContain(`caption: ${JSON.stringify(picked)}`);
+  await expect(editor.getByText(`A figure of “${picked}” is at the end of the body.`)).toBeVisible();
   await editor.getByRole("button", { name: "Preview" }).click();
   await expect(trainer.getByTestId("preview-reference").getByTestId("score-summary")).toContainText("Passed");
 

@@ -1,4 +1,4 @@
-import { useId, useState, type ReactNode } from "react";
+import { useId, useRef, useState, type ReactNode, type RefObject } from "react";
 import { Form, useNavigation } from "react-router";
 import { Plus, Trash2 } from "lucide-react";
 import { FormError } from "~/components/form-field";
@@ -9,6 +9,7 @@ import {
   MAX_CRITERIA,
   MAX_QUESTIONS,
   QUESTION_KINDS,
+  roofFigureBlock,
   type CatalogueEntry,
   type CriterionForm,
   type LessonForm,
@@ -25,6 +26,7 @@ function Input(p: {
   rows?: number;
   inputMode?: "numeric" | "decimal" | "text";
   mono?: boolean;
+  textareaRef?: RefObject<HTMLTextAreaElement | null>;
 }) {
   const id = useId();
   const error = p.errors[p.name];
@@ -41,7 +43,11 @@ function Input(p: {
       <label className="label" htmlFor={id}>
         {p.label}
       </label>
-      {p.rows ? <textarea rows={p.rows} {...common} /> : <input inputMode={p.inputMode} {...common} />}
+      {p.rows ? (
+        <textarea ref={p.textareaRef} rows={p.rows} {...common} />
+      ) : (
+        <input inputMode={p.inputMode} {...common} />
+      )}
       {error ? (
         <p id={`${id}-e`} className="field-error" data-testid={`error-${p.name}`}>
           {error}
@@ -220,6 +226,59 @@ function useRows<T>(initial: T[]) {
   };
 }
 
+interface SavedRoof {
+  id: string;
+  name: string;
+  spec: unknown;
+}
+
+/**
+ * Adds a figure of one of the author's saved roofs at the end of the body (a ```roof block the
+ * app draws), so a figure need not be typed by hand. Says what it did in a live region.
+ */
+function RoofFigurePicker({ roofs, body }: { roofs: SavedRoof[]; body: RefObject<HTMLTextAreaElement | null> }) {
+  const id = useId();
+  const [chosen, setChosen] = useState(roofs[0]?.id ?? "");
+  const [said, setSaid] = useState("");
+  if (!roofs.length) {
+    return (
+      <p className="text-sm text-ink-soft">
+        Save a roof in your library to add figures of it here; or write a <code>```roof</code> block by hand.
+      </p>
+    );
+  }
+  const add = () => {
+    const roof = roofs.find((r) => r.id === chosen);
+    const area = body.current;
+    if (!roof || !area) return;
+    const text = area.value.replace(/\s*$/, "");
+    area.value = `${text}${text ? "\n\n" : ""}${roofFigureBlock(roof.name, roof.spec)}\n`;
+    setSaid(`A figure of “${roof.name}” is at the end of the body.`);
+  };
+  return (
+    <div className="flex flex-wrap items-end gap-2">
+      <div>
+        <label className="label" htmlFor={id}>
+          Figure from a saved roof
+        </label>
+        <select id={id} className="field" value={chosen} onChange={(e) => setChosen(e.target.value)}>
+          {roofs.map((r) => (
+            <option key={r.id} value={r.id}>
+              {r.name}
+            </option>
+          ))}
+        </select>
+      </div>
+      <button type="button" className="btn" onClick={add}>
+        <Plus aria-hidden="true" className="h-4 w-4" /> Add the figure to the body
+      </button>
+      <p role="status" className="text-sm text-ink-soft">
+        {said}
+      </p>
+    </div>
+  );
+}
+
 /**
  * The lesson editor: every field of a lesson file as a form. The server writes the lesson file
  * and checks it with the start-up loader; its errors come back by field name and the form keeps
@@ -230,6 +289,7 @@ export function LessonEditor({
   errors,
   formError,
   catalogue,
+  roofs = [],
   status,
   actions,
 }: {
@@ -237,6 +297,8 @@ export function LessonEditor({
   errors: Record<string, string>;
   formError?: string | null;
   catalogue: CatalogueEntry[];
+  /** The author's saved roofs, any of which can become a figure in the body. */
+  roofs?: SavedRoof[];
   status: ReactNode;
   actions: { intent: string; label: string; primary?: boolean }[];
 }) {
@@ -244,6 +306,7 @@ export function LessonEditor({
   const criteria = useRows(form.task.criteria);
   const navigation = useNavigation();
   const busy = navigation.state === "submitting";
+  const bodyRef = useRef<HTMLTextAreaElement>(null);
   return (
     <Form method="post" className="grid gap-6" data-testid="lesson-editor">
       <FormError message={formError} />
@@ -266,6 +329,7 @@ export function LessonEditor({
           errors={errors}
           rows={14}
           mono
+          textareaRef={bodyRef}
           hint={
             <>
               Plain Markdown. A <code>```roof</code> block (caption, view, spec) draws a figure; one is needed. A{" "}
@@ -273,6 +337,7 @@ export function LessonEditor({
             </>
           }
         />
+        <RoofFigurePicker roofs={roofs} body={bodyRef} />
       </section>
 
       <section className="grid gap-3" aria-labelledby="quiz-heading">

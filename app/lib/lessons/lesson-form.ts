@@ -264,3 +264,13 @@ export function fieldErrors(issues: FormIssue[]): Record<string, string> {
   for (const i of issues) out[fieldOf(i.path)] ??= i.message;
   return out;
 }
+
+/**
+ * A ```roof figure block for a lesson body (YAML: caption, view, spec), drawn by the app from the
+ * roof: the block a new lesson starts with, and the one "Add a figure from a saved roof" appends.
+ */
+export function roofFigureBlock(caption: string, spec: unknown): string {
+  return ["```roof", `caption: ${JSON.stringify(caption)}`, "view: plan", `spec: ${JSON.stringify(spec)}`, "```"].join(
+    "\n",
+  );
+}
