@@ -253,6 +253,38 @@ const SWEEP: Record<string, Probe[]> = {
   "/lessons/:slug/export": [
     { who: "anonymous", method: "GET", path: "/lessons/{lesson}/export", query: { probe: "1" } },
   ],
+  "/courses": [
+    { who: "trainer", method: "GET", path: "/courses", query: { probe: "1" } },
+    { who: "trainer", method: "POST", path: "/courses", form: { name: "Sweep course", description: "Two lessons" } },
+  ],
+  "/courses/:id": [
+    {
+      who: "trainer",
+      method: "POST",
+      path: "/courses/{course}",
+      form: { intent: "details", name: "Parapet roofs: the foundation course", description: "Five lessons" },
+    },
+    { who: "trainer", method: "POST", path: "/courses/{course}", form: { intent: "add", lesson: "{lesson}" } },
+    {
+      who: "trainer",
+      method: "POST",
+      path: "/courses/{course}",
+      form: { intent: "move", lesson: "reading-falls", direction: "down" },
+    },
+  ],
+  "/certificates/:id": [
+    { who: "trainer", method: "GET", path: "/certificates/{certificate}", query: { probe: "1" } },
+    {
+      who: "trainer",
+      method: "POST",
+      path: "/certificates/{certificate}",
+      form: { intent: "revoke", reason: "Issued in error" },
+    },
+  ],
+  "/certificates/:id.pdf": [
+    { who: "trainer", method: "GET", path: "/certificates/{certificate}.pdf", query: { probe: "1" } },
+  ],
+  "/verify/:code": [{ who: "anonymous", method: "GET", path: "/verify/{code}", query: { probe: "1" } }],
   "/attempts": [{ who: "trainee", method: "GET", path: "/attempts", query: { probe: "1" } }],
   "/attempts/:id": [{ who: "trainee", method: "GET", path: "/attempts/{attempt}" }],
   "/attempts/:id/review": [
@@ -440,6 +472,7 @@ beforeAll(async () => {
   values.roof = (await k("roofs").where({ name: "Library annex, Harrow Lane" }).first("id"))!.id;
   values.class = (await k("classes").where({ name: "Parapet roofs, spring cohort" }).first("id"))!.id;
   values.lesson = "outlets-and-overflows";
+  values.course = (await k("courses").where({ name: "Parapet roofs: the foundation course" }).first("id"))!.id;
   // A saved as-built check for the check's page and PDF (a survey in the roof's coordinates).
   const check = new FormData();
   for (const [k, v] of Object.entries({
