@@ -21,7 +21,9 @@ test("a trainer creates a course, a class follows it, and its lessons are assign
 }) => {
   const courseName = `Falls first ${unique()}`;
   const className = `Course cohort ${unique()}`;
-  await signIn(page, "trainer@tidemark.example");
+  // The second trainer: a class dated after the demo cohort would become the first trainer's
+  // default gradebook, which other tests read.
+  await signIn(page, "trainer2@tidemark.example");
 
   await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Courses" }).click();
   await expect(page).toHaveURL(/\/courses$/);
