@@ -14,7 +14,8 @@ describe("a figure block made from a saved roof", () => {
     expect(figures).toHaveLength(1);
     expect(figures[0].caption).toBe(name);
     expect(figures[0].view).toBe("plan");
-    expect(figures[0].spec.outline).toEqual(DEMO_ROOF.outline);
-    expect(figures[0].spec.outlets).toEqual(DEMO_ROOF.outlets);
+    const spec = figures[0].spec as typeof DEMO_ROOF;
+    expect(spec.outline).toEqual(DEMO_ROOF.outline);
+    expect(spec.outlets).toEqual(DEMO_ROOF.outlets);
   });
 });
