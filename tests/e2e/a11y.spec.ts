@@ -1,19 +1,12 @@
 import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type Page } from "@playwright/test";
+import { signIn } from "./support/session";
 
 // Every screen, as each role, through axe-core: no serious or critical violations.
 // Exceptions (rule, where, why): none so far. Add one here only with the reason it cannot be fixed.
 const EXCEPTIONS: { rule: string; path: RegExp; why: string }[] = [];
 
 test.describe.configure({ timeout: 180_000 });
-
-async function signIn(page: Page, email: string) {
-  await page.goto("/login");
-  await page.getByLabel("E-mail").fill(email);
-  await page.getByLabel("Password").fill("fallwright-demo");
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await expect(page).not.toHaveURL(/\/login/);
-}
 
 /** The first link on a page whose address matches, e.g. a roof's own page from the roof list. */
 async function firstLink(page: Page, from: string, pattern: RegExp): Promise<string | null> {

@@ -1,21 +1,13 @@
 import { fileURLToPath } from "node:url";
-import { expect, test, type Page } from "@playwright/test";
+import { expect, test } from "@playwright/test";
 import { getDocument } from "pdfjs-dist/legacy/build/pdf.mjs";
+import { signIn } from "./support/session";
 
-const PASSWORD = "fallwright-demo";
 const FONTS = fileURLToPath(new URL("../../node_modules/pdfjs-dist/standard_fonts/", import.meta.url));
 const unique = () => Math.random().toString(36).slice(2, 8);
 
 // A phone held upright.
 test.use({ viewport: { width: 390, height: 844 }, hasTouch: true, isMobile: true });
-
-async function signIn(page: Page, email = "designer@tidemark.example") {
-  await page.goto("/login");
-  await page.getByLabel("E-mail").fill(email);
-  await page.getByLabel("Password").fill(PASSWORD);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await expect(page).not.toHaveURL(/\/login/);
-}
 
 /** The PDF's text, read back with pdf.js. */
 async function pdfText(bytes: Buffer): Promise<string> {
@@ -34,7 +26,7 @@ test("on a phone: levels entered joist by joist survive a reload, then the check
   page,
 }) => {
   test.setTimeout(240_000);
-  await signIn(page);
+  await signIn(page, "designer@tidemark.example");
   const name = `Store roof ${unique()}`;
   const spec = {
     outline: [

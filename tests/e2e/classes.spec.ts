@@ -1,21 +1,13 @@
 import fs from "node:fs";
 import path from "node:path";
-import { expect, test, type Browser, type Page } from "@playwright/test";
+import { expect, test, type Browser } from "@playwright/test";
+import { signIn } from "./support/session";
 
 // Issue 7, "What it must show": create a class, invite two trainees by e-mail, they join, one
 // submits, the gradebook shows it, the trainer overrides it with a comment, the CSV holds the new grade.
-const PASSWORD = "fallwright-demo";
 const NEW_PASSWORD = "copper outlet heron 17";
 const LESSON = { slug: "reading-falls", title: "Reading and converting falls" };
 const unique = () => `${Date.now().toString(36)}${Math.random().toString(36).slice(2, 6)}`;
-
-async function signIn(page: Page, email: string) {
-  await page.goto("/login");
-  await page.getByLabel("E-mail").fill(email);
-  await page.getByLabel("Password").fill(PASSWORD);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await expect(page).not.toHaveURL(/\/login/);
-}
 
 interface Spooled {
   to: string[];

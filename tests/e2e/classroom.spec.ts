@@ -1,4 +1,5 @@
-import { expect, test, type Browser, type Page } from "@playwright/test";
+import { expect, test, type Page } from "@playwright/test";
+import { signedIn } from "./support/session";
 
 // Issue 7, classroom mode: the trainer moves an outlet in present mode and the follower's view
 // changes within a second; the follower's connection is cut and it catches up on reconnect.
@@ -6,20 +7,17 @@ import { expect, test, type Browser, type Page } from "@playwright/test";
 // the caption follows the roof on screen; trainees hand up roofs, the trainer shows one to everyone.
 // All of it in this one file, run on its own after the other suites: it drives the demo class's
 // one live session, which two files running side by side would fight over.
-const PASSWORD = "fallwright-demo";
 const RESULTS = `${process.env.TEST_RESULTS_DIR ?? ".data/test-results"}/screens`;
 
-async function signedIn(browser: Browser, email: string, viewport = { width: 1280, height: 800 }) {
-  // A modest window: the 3D view is drawn on the CPU here, and two of them share the machine.
-  const context = await browser.newContext({ viewport });
-  const page = await context.newPage();
-  await page.goto("/login");
-  await page.getByLabel("E-mail").fill(email);
-  await page.getByLabel("Password").fill(PASSWORD);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await expect(page).not.toHaveURL(/\/login/, { timeout: 30_000 });
-  return { context, page };
-}
+// Each person has a browser context of their own, in a modest window: the 3D view is drawn on the
+// CPU here (software WebGL), and up to three of them share this machine's two cores.
+const DESK = { viewport: { width: 1280, height: 800 }, timeout: 30_000 };
+// Followers ask for reduced motion, so their 3D views draw only when the roof changes. Their water
+// animation would otherwise redraw without pause, and every context of this one browser shares its
+// single GPU process: in a failed run the presenter's page painted nothing for 13 s after opening
+// present mode, while both followers painted every 0.3 s. In a real class each follower draws on
+// their own device, so only this test puts three views on one machine.
+const FOLLOWER = { ...DESK, reducedMotion: "reduce" as const };
 
 const outletX = (page: Page) => page.getByLabel("Outlet O1 x");
 
@@ -82,7 +80,7 @@ test("a follower sees the presenter's outlet move within a second, and catches u
   browser,
 }) => {
   test.setTimeout(120_000);
-  const trainer = await signedIn(browser, "trainer@tidemark.example");
+  const trainer = await signedIn(browser, "trainer@tidemark.example", DESK);
   const classId = await demoClass(trainer.page);
 
   await trainer.page.goto(`/classes/${classId}/present`);
@@ -91,7 +89,7 @@ test("a follower sees the presenter's outlet move within a second, and catches u
   await expect(trainer.page.getByRole("status").filter({ hasText: "the class sees this" })).toBeVisible();
   await expect(outletX(trainer.page)).toBeEditable();
 
-  const trainee = await signedIn(browser, "trainee@tidemark.example");
+  const trainee = await signedIn(browser, "trainee@tidemark.example", FOLLOWER);
   const follower = trainee.page;
   await follower.goto(`/classes/${classId}/follow`);
   await expect(follower.getByRole("status").filter({ hasText: "Live · connected" })).toBeVisible();
@@ -197,7 +195,7 @@ test("present mode fills a projector's screen: large 3D view, whole caption, lar
     { width: 1920, height: 1080 },
     { width: 1280, height: 720 },
   ]) {
-    const { context, page } = await signedIn(browser, "trainer@tidemark.example", viewport);
+    const { context, page } = await signedIn(browser, "trainer@tidemark.example", { ...DESK, viewport });
     const classId = await demoClass(page);
     await page.goto(`/classes/${classId}/present`);
     await expect(page.getByRole("status").filter({ hasText: "the class sees this" })).toBeVisible();
@@ -246,11 +244,11 @@ test("followers: waiting, live, paused, ended; the caption follows the trainer's
   browser,
 }) => {
   test.setTimeout(300_000);
-  const trainer = await signedIn(browser, "trainer@tidemark.example");
+  const trainer = await signedIn(browser, "trainer@tidemark.example", DESK);
   const classId = await demoClass(trainer.page);
   // A session left over from another test ends first, so the followers start from "ended".
-  const tess = await signedIn(browser, "trainee@tidemark.example");
-  const marco = await signedIn(browser, "trainee2@tidemark.example");
+  const tess = await signedIn(browser, "trainee@tidemark.example", FOLLOWER);
+  const marco = await signedIn(browser, "trainee2@tidemark.example", FOLLOWER);
   for (const f of [tess.page, marco.page]) await f.goto(`/classes/${classId}/follow`);
   await expect(status(tess.page)).toHaveAttribute("data-state", /waiting|ended|live/);
 
@@ -340,9 +338,9 @@ test("a presenter's tab that goes elsewhere without Stop pauses the session; com
   browser,
 }) => {
   test.setTimeout(180_000);
-  const trainer = await signedIn(browser, "trainer@tidemark.example");
+  const trainer = await signedIn(browser, "trainer@tidemark.example", DESK);
   const classId = await demoClass(trainer.page);
-  const tess = await signedIn(browser, "trainee@tidemark.example");
+  const tess = await signedIn(browser, "trainee@tidemark.example", FOLLOWER);
   await tess.page.goto(`/classes/${classId}/follow`);
   await trainer.page.goto(`/classes/${classId}/present`);
   await expect(trainer.page.getByRole("status").filter({ hasText: "the class sees this" })).toBeVisible();

@@ -1,20 +1,12 @@
-import { expect, test, type Page } from "@playwright/test";
+import { expect, test } from "@playwright/test";
+import { signIn } from "./support/session";
 
 // docs/product.md capability 10: a trainer builds a course, orders its lessons with the keyboard
 // reachable up/down buttons, a class follows it, and its lessons appear as assignments with due
 // dates spread over the class's dates.
-const PASSWORD = "fallwright-demo";
 const unique = () => `${Date.now().toString(36)}${Math.random().toString(36).slice(2, 6)}`;
 const FIRST = "Reading and converting falls";
 const SECOND = "Why water stands";
-
-async function signIn(page: Page, email: string) {
-  await page.goto("/login");
-  await page.getByLabel("E-mail").fill(email);
-  await page.getByLabel("Password").fill(PASSWORD);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await expect(page).not.toHaveURL(/\/login/);
-}
 
 test("a trainer creates a course, a class follows it, and its lessons are assigned with spread due dates", async ({
   page,

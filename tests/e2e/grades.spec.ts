@@ -1,7 +1,8 @@
 import fs from "node:fs";
 import path from "node:path";
 import matter from "gray-matter";
-import { expect, test, type Browser } from "@playwright/test";
+import { expect, test } from "@playwright/test";
+import { signedIn } from "./support/session";
 
 // Issue 16, item 1: one attempt's grade reads the same on the result, the attempts list, the
 // gradebook and its CSV; a failed required check is said first, in words, and caps the score.
@@ -11,17 +12,6 @@ const LESSON = {
   title: "Outlets, overflows and scuppers",
 };
 const TRAINEE = { email: "trainee3@tidemark.example", name: "Priya Santhorn" };
-
-async function signedIn(browser: Browser, email: string) {
-  const context = await browser.newContext();
-  const page = await context.newPage();
-  await page.goto("/login");
-  await page.getByLabel("E-mail").fill(email);
-  await page.getByLabel("Password").fill("fallwright-demo");
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await expect(page).not.toHaveURL(/\/login/);
-  return page;
-}
 
 test("a failed required check reads the same on the result, the attempts list, the gradebook and the CSV", async ({
   browser,
@@ -36,7 +26,7 @@ test("a failed required check reads the same on the result, the attempts list, t
   const spec = structuredClone(data.task.reference);
   spec.outline = spec.outline.map(([x, y]: [number, number]) => [x, y === 0 ? 0 : y + 0.5]);
 
-  const trainee = await signedIn(browser, TRAINEE.email);
+  const trainee = (await signedIn(browser, TRAINEE.email)).page;
   await trainee.goto(`/lessons/${LESSON.slug}`);
   const rule = trainee.getByTestId("grading-rule");
   await expect(rule).toContainText(`You pass at ${data.passMark} or more`);
@@ -68,7 +58,7 @@ test("a failed required check reads the same on the result, the attempts list, t
   await expect(row.getByTestId("attempt-result")).toContainText("required check not met");
 
   // The trainer's gradebook and its CSV.
-  const trainer = await signedIn(browser, "trainer@tidemark.example");
+  const trainer = (await signedIn(browser, "trainer@tidemark.example")).page;
   await trainer.goto("/classes");
   const href = await trainer.getByRole("link", { name: "Parapet roofs, spring cohort" }).first().getAttribute("href");
   const classId = /\/classes\/([0-9a-f-]{36})/.exec(href ?? "")?.[1];

@@ -1,27 +1,17 @@
-import { expect, test, type Browser } from "@playwright/test";
+import { expect, test } from "@playwright/test";
+import { signedIn } from "./support/session";
 
 // Issue 17, items 1, 2 and 5 (docs/authoring.md): a trainer turns the sandbox roof into a task,
 // publishes it, assigns it; a trainee passes it; the gradebook shows it with its version; the
 // exported file imports back as the same lesson.
 const TRAINEE = { email: "trainee2@tidemark.example", name: "Marco Ellery" };
 
-async function signedIn(browser: Browser, email: string) {
-  const context = await browser.newContext();
-  const page = await context.newPage();
-  await page.goto("/login");
-  await page.getByLabel("E-mail").fill(email);
-  await page.getByLabel("Password").fill("fallwright-demo");
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await expect(page).not.toHaveURL(/\/login/);
-  return page;
-}
-
 test("sandbox roof → task → published → a trainee passes it → the gradebook shows it; export and import give the same lesson", async ({
   browser,
 }) => {
   test.setTimeout(300_000);
   const title = `Outlets on the demo deck ${Date.now().toString(36)}`;
-  const trainer = await signedIn(browser, "trainer@tidemark.example");
+  const trainer = (await signedIn(browser, "trainer@tidemark.example")).page;
 
   // The sandbox's roof becomes the task's starting roof.
   await trainer.goto("/sandbox");
@@ -77,7 +67,7 @@ test("sandbox roof → task → published → a trainee passes it → the gradeb
   await expect(assign).toBeChecked();
 
   // The trainee passes it with the roof as it starts and the right answer.
-  const trainee = await signedIn(browser, TRAINEE.email);
+  const trainee = (await signedIn(browser, TRAINEE.email)).page;
   await trainee.goto("/lessons");
   await expect(trainee.getByTestId(`lesson-${slug}`)).toBeVisible();
   await trainee.goto(`/lessons/${slug}`);

@@ -1,22 +1,15 @@
-import { expect, test, type Page } from "@playwright/test";
+import { expect, test } from "@playwright/test";
+import { signIn } from "./support/session";
 
 // Issue 6, "What it must show": a trainee signs in, passes one quiz, fails then passes a roof task
 // by moving an outlet, and sees both attempts with their feedback.
 const LESSON = { slug: "outlets-and-overflows", title: "Outlets, overflows and scuppers" };
 
-async function signIn(page: Page, email: string) {
-  await page.goto(`/login?redirectTo=${encodeURIComponent(`/lessons/${LESSON.slug}`)}`);
-  await page.getByLabel("E-mail").fill(email);
-  await page.getByLabel("Password").fill("fallwright-demo");
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await expect(page).toHaveURL(new RegExp(`/lessons/${LESSON.slug}$`));
-}
-
 test("a trainee passes the quiz, fails the roof task, moves the outlet and passes; both attempts are kept with their feedback", async ({
   page,
 }) => {
   test.setTimeout(120_000);
-  await signIn(page, "trainee@tidemark.example");
+  await signIn(page, "trainee@tidemark.example", { to: `/lessons/${LESSON.slug}` });
   await expect(page.getByRole("heading", { level: 1, name: LESSON.title })).toBeVisible();
   // The lesson's figures are drawn by the app from the engine's output.
   await expect(page.getByTestId("roof-figure").first().getByRole("img")).toBeVisible();

@@ -1,20 +1,12 @@
 import { readFileSync } from "node:fs";
 import { createRequire } from "node:module";
 import { expect, test, type Page } from "@playwright/test";
+import { signIn } from "./support/session";
 
-const PASSWORD = "fallwright-demo";
 const require = createRequire(import.meta.url);
 const PDFJS = require.resolve("pdfjs-dist/build/pdf.min.mjs");
 const WORKER = require.resolve("pdfjs-dist/build/pdf.worker.min.mjs");
 const unique = () => Math.random().toString(36).slice(2, 8);
-
-async function signIn(page: Page, email = "designer@tidemark.example") {
-  await page.goto("/login");
-  await page.getByLabel("E-mail").fill(email);
-  await page.getByLabel("Password").fill(PASSWORD);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await expect(page).not.toHaveURL(/\/login/);
-}
 
 /** Draws page 1 of a PDF with pdf.js in the browser (served here, not from the app) and returns it as PNG. */
 async function renderPdf(page: Page, pdf: Buffer): Promise<Buffer> {
@@ -49,7 +41,7 @@ test("a shared link opens without signing in, shows the roof and its PDF, and st
   browser,
 }, testInfo) => {
   test.setTimeout(300_000);
-  await signIn(page);
+  await signIn(page, "designer@tidemark.example");
   const name = `Depot north bay ${unique()}`;
   const spec = {
     outline: [
@@ -117,7 +109,7 @@ test("the check sheet is titled with the roof's name, has one caution and the wh
   page,
 }) => {
   test.setTimeout(150_000);
-  await signIn(page);
+  await signIn(page, "designer@tidemark.example");
   const name = `Annex east ${unique()}`;
   const spec = {
     outline: [

@@ -1,17 +1,9 @@
 import { expect, test, type Browser, type Page } from "@playwright/test";
 import { makePdf } from "../support/pdf";
 import { makePng } from "../support/png";
+import { signIn } from "./support/session";
 
 // Saved roofs in the browser: save and reload, underlay scale by two clicks, two tabs and a 409.
-const PASSWORD = "fallwright-demo";
-
-async function signIn(page: Page, email = "designer@tidemark.example") {
-  await page.goto("/login");
-  await page.getByLabel("E-mail").fill(email);
-  await page.getByLabel("Password").fill(PASSWORD);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await expect(page).not.toHaveURL(/\/login/);
-}
 
 async function newRoof(page: Page, name: string, spec: unknown): Promise<string> {
   const res = await page.request.post("/api/v1/roofs", { data: { name, spec } });
@@ -39,7 +31,7 @@ const RECT = (w: number, h: number) => ({
 const unique = () => Math.random().toString(36).slice(2, 8);
 
 test("save a roof from the sandbox, reload, and it is back", async ({ page }) => {
-  await signIn(page);
+  await signIn(page, "designer@tidemark.example");
   await page.goto("/sandbox");
   await expect(page.getByTestId("sandbox-workspace")).toBeVisible();
   const name = `Saved from sandbox ${unique()}`;
@@ -86,7 +78,7 @@ test("save a roof from the sandbox, reload, and it is back", async ({ page }) =>
 });
 
 test("upload a plan image, set its scale by two clicks and a typed distance, trace the outline", async ({ page }) => {
-  await signIn(page);
+  await signIn(page, "designer@tidemark.example");
   const id = await newRoof(page, `Underlay ${unique()}`, RECT(24, 7.5));
   await page.goto(`/roofs/${id}`);
   await page.getByText("Plan underlay").click();
@@ -159,7 +151,7 @@ test("upload a plan image, set its scale by two clicks and a typed distance, tra
 test("a page of a PDF drawing becomes the underlay, drawn in the browser at 3000 px on its long side", async ({
   page,
 }) => {
-  await signIn(page);
+  await signIn(page, "designer@tidemark.example");
   const id = await newRoof(page, `PDF underlay ${unique()}`, RECT(12, 6));
   await page.goto(`/roofs/${id}`);
   await page.getByText("Plan underlay").click();
@@ -211,7 +203,7 @@ test("a page of a PDF drawing becomes the underlay, drawn in the browser at 3000
 async function openAs(browser: Browser, url?: string) {
   const context = await browser.newContext();
   const page = await context.newPage();
-  await signIn(page);
+  await signIn(page, "designer@tidemark.example");
   if (url) {
     await page.goto(url);
     await expect(page.getByTestId("save-status")).toHaveText("Saved · v1");
@@ -255,7 +247,7 @@ test("two tabs edit one roof: one saves, the other gets the 409 banner and keeps
 });
 
 test("a save that cannot reach the server says so, keeps the edit and retries on its own", async ({ page }) => {
-  await signIn(page);
+  await signIn(page, "designer@tidemark.example");
   const base = `Offline ${unique()}`;
   const id = await newRoof(page, base, RECT(8, 5));
   await page.goto(`/roofs/${id}`);

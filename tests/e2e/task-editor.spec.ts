@@ -1,17 +1,10 @@
 import { expect, test, type Page } from "@playwright/test";
+import { signIn } from "./support/session";
 
 // Issue 16, items 2 and 3: in lesson 3 the outlet sits on a corner; the task fixes the outline, so
 // the corner is locked (mouse and keyboard), the outlet wins the drag, a tap on the crowded spot
 // offers a choice, and the live checks turn met as the roof is fixed.
 const LESSON = { slug: "outlets-and-overflows", title: "Outlets, overflows and scuppers" };
-
-async function signIn(page: Page, email: string) {
-  await page.goto(`/login?redirectTo=${encodeURIComponent(`/lessons/${LESSON.slug}`)}`);
-  await page.getByLabel("E-mail").fill(email);
-  await page.getByLabel("Password").fill("fallwright-demo");
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await expect(page).toHaveURL(new RegExp(`/lessons/${LESSON.slug}$`), { timeout: 30_000 });
-}
 
 async function centre(page: Page, testId: string) {
   const box = await page.getByTestId(testId).boundingBox();
@@ -23,7 +16,7 @@ test("lesson 3: the locked outline stays put by mouse and keyboard; a tap on the
   page,
 }) => {
   test.setTimeout(300_000);
-  await signIn(page, "trainee4@tidemark.example");
+  await signIn(page, "trainee4@tidemark.example", { to: `/lessons/${LESSON.slug}`, timeout: 30_000 });
   const plan = page.getByTestId("plan");
   await expect(plan).toBeVisible();
   await expect(page.getByTestId("task-locks")).toContainText("Fixed by this task: the outline (corners)");
@@ -85,7 +78,7 @@ test("lesson 3 solved as hint 1 says: drag the outlet by mouse from the corner t
   page,
 }) => {
   test.setTimeout(300_000);
-  await signIn(page, "trainee3@tidemark.example");
+  await signIn(page, "trainee3@tidemark.example", { to: `/lessons/${LESSON.slug}`, timeout: 30_000 });
   await expect(page.getByTestId("plan")).toBeVisible();
   const fallLine = page.getByTestId("live-fall-line");
   await expect(fallLine).toHaveAttribute("data-state", "not-met", { timeout: 60_000 });
