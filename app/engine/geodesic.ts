@@ -1,34 +1,12 @@
 import { signedArea } from "./geometry/area";
+import { strictlyInside } from "./geometry/inside";
 import { orient } from "./geometry/segments";
 import type { Roof } from "./roof";
 
 /** True when local plan point (x, y) lies strictly inside an opening (its boundary is deck). */
 function inOpening(roof: Roof, x: number, y: number): boolean {
   const tol = roof.tol * 1000;
-  for (const h of roof.holes) {
-    const { xs, ys } = h;
-    const m = xs.length;
-    let inside = false;
-    for (let i = 0, j = m - 1; i < m; j = i++) {
-      const xi = xs[i],
-        yi = ys[i],
-        xj = xs[j],
-        yj = ys[j];
-      const dx = xi - xj,
-        dy = yi - yj;
-      const len2 = dx * dx + dy * dy;
-      let s = len2 > 0 ? ((x - xj) * dx + (y - yj) * dy) / len2 : 0;
-      s = s < 0 ? 0 : s > 1 ? 1 : s;
-      const cx = xj + s * dx - x,
-        cy = yj + s * dy - y;
-      if (cx * cx + cy * cy <= tol * tol) {
-        inside = false;
-        break;
-      }
-      if (yi > y !== yj > y && x < ((xj - xi) * (y - yi)) / (yj - yi) + xi) inside = !inside;
-    }
-    if (inside) return true;
-  }
+  for (const h of roof.holes) if (strictlyInside(h.xs, h.ys, x, y, tol)) return true;
   return false;
 }
 

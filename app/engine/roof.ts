@@ -1,6 +1,7 @@
 import type { Fall } from "./fall";
 import type { RuleSetId, UsedRule } from "./rule-sets";
 import type { Point } from "./types";
+import { strictlyInside } from "./geometry/inside";
 
 /** An outlet snapped onto its parapet edge, in the engine's local frame. */
 export interface Outlet {
@@ -114,31 +115,9 @@ export interface CricketLine {
 
 /** The opening holding frame point (u, v) strictly inside it, or -1 (its boundary is deck). */
 export function holeAt(roof: Roof, u: number, v: number): number {
-  for (let h = 0; h < roof.holes.length; h++) {
-    const { us, vs } = roof.holes[h];
-    const m = us.length;
-    let inside = false;
-    for (let i = 0, j = m - 1; i < m; j = i++) {
-      const ui = us[i],
-        vi = vs[i],
-        uj = us[j],
-        vj = vs[j];
-      // On the boundary: deck, not opening.
-      const du = ui - uj,
-        dv = vi - vj;
-      const len2 = du * du + dv * dv;
-      let s = len2 > 0 ? ((u - uj) * du + (v - vj) * dv) / len2 : 0;
-      s = s < 0 ? 0 : s > 1 ? 1 : s;
-      const cu = uj + s * du - u,
-        cv = vj + s * dv - v;
-      if (cu * cu + cv * cv <= roof.tol * roof.tol * 1e6) {
-        inside = false;
-        break;
-      }
-      if (vi > v !== vj > v && u < ((uj - ui) * (v - vi)) / (vj - vi) + ui) inside = !inside;
-    }
-    if (inside) return h;
-  }
+  const tol = roof.tol * 1000;
+  for (let h = 0; h < roof.holes.length; h++)
+    if (strictlyInside(roof.holes[h].us, roof.holes[h].vs, u, v, tol)) return h;
   return -1;
 }
 

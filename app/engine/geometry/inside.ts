@@ -9,3 +9,34 @@ export function insidePolygon(xs: ArrayLike<number>, ys: ArrayLike<number>, px: 
   }
   return inside;
 }
+
+/**
+ * True when p is inside the polygon and farther than `tol` from every edge: a point on or near the
+ * boundary is outside. Openings use it, since their edge is deck.
+ */
+export function strictlyInside(
+  xs: ArrayLike<number>,
+  ys: ArrayLike<number>,
+  px: number,
+  py: number,
+  tol: number,
+): boolean {
+  const n = xs.length;
+  let inside = false;
+  for (let i = 0, j = n - 1; i < n; j = i++) {
+    const xi = xs[i],
+      yi = ys[i],
+      xj = xs[j],
+      yj = ys[j];
+    const dx = xi - xj,
+      dy = yi - yj;
+    const len2 = dx * dx + dy * dy;
+    let s = len2 > 0 ? ((px - xj) * dx + (py - yj) * dy) / len2 : 0;
+    s = s < 0 ? 0 : s > 1 ? 1 : s;
+    const cx = xj + s * dx - px,
+      cy = yj + s * dy - py;
+    if (cx * cx + cy * cy <= tol * tol) return false;
+    if (yi > py !== yj > py && px < ((xj - xi) * (py - yi)) / (yj - yi) + xi) inside = !inside;
+  }
+  return inside;
+}
