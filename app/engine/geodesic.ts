@@ -1,5 +1,5 @@
 import { signedArea } from "./geometry/area";
-import { strictlyInside } from "./geometry/inside";
+import { pointAgainstPolygon, strictlyInside } from "./geometry/inside";
 import { orient } from "./geometry/segments";
 import type { Roof } from "./roof";
 
@@ -144,26 +144,9 @@ export class Geodesic {
     return true;
   }
 
-  /** Crossing-number test with the boundary counted inside (within tol). */
+  /** Inside the outline, its boundary (within tol) counted inside. */
   private insideOrOn(x: number, y: number): boolean {
-    const { xs, ys, n, tol } = this;
-    let inside = false;
-    for (let i = 0, j = n - 1; i < n; j = i++) {
-      const xi = xs[i],
-        yi = ys[i],
-        xj = xs[j],
-        yj = ys[j];
-      const dx = xi - xj,
-        dy = yi - yj;
-      const len2 = dx * dx + dy * dy;
-      let s = len2 > 0 ? ((x - xj) * dx + (y - yj) * dy) / len2 : 0;
-      s = s < 0 ? 0 : s > 1 ? 1 : s;
-      const cx = xj + s * dx - x,
-        cy = yj + s * dy - y;
-      if (cx * cx + cy * cy <= tol * tol) return true;
-      if (yi > y !== yj > y && x < ((xj - xi) * (y - yi)) / (yj - yi) + xi) inside = !inside;
-    }
-    return inside;
+    return pointAgainstPolygon(this.xs, this.ys, x, y, this.tol, this.n) >= 0;
   }
 
   private matrix(): Uint8Array {

@@ -4,10 +4,9 @@ import { requirePermission } from "~/lib/auth.server";
 import { db } from "~/lib/db.server";
 import { criteriaCatalogue, lessonForEditing } from "~/lib/lessons/authoring.server";
 import { lessonEditorAction } from "~/lib/lessons/editor-action.server";
-import type { LessonForm } from "~/lib/lessons/lesson-form";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
 import { FormError } from "~/components/form-field";
-import { LessonEditor } from "~/components/lessons/lesson-editor";
+import { LessonEditor, type EditorOutcome } from "~/components/lessons/lesson-editor";
 import { listMyRoofSpecs } from "~/lib/roofs.server";
 import { LessonPreview } from "~/components/lessons/lesson-preview";
 
@@ -44,18 +43,9 @@ export async function action({ request, params }: Route.ActionArgs) {
   return lessonEditorAction(request, user, params.slug);
 }
 
-type ActionData = {
-  form?: LessonForm | null;
-  fieldErrors: Record<string, string>;
-  formError?: string | null;
-  preview?: Parameters<typeof LessonPreview>[0] | null;
-  issues?: { path: string; message: string }[];
-  source?: string;
-};
-
 export default function EditLesson({ loaderData, actionData }: Route.ComponentProps) {
   const l = loaderData;
-  const a = actionData as ActionData | undefined;
+  const a = actionData as EditorOutcome | undefined;
   const form = a?.form ?? l.form;
   const status = l.builtIn
     ? "Built-in lesson: read-only."
@@ -110,13 +100,10 @@ export default function EditLesson({ loaderData, actionData }: Route.ComponentPr
           {a?.preview && <LessonPreview {...a.preview} />}
           {form ? (
             <LessonEditor
-              key={JSON.stringify(form).length + (a ? "a" : "l")}
               form={form}
-              errors={a?.form ? a.fieldErrors : {}}
-              formError={a?.form ? a.formError : null}
+              outcome={a}
               catalogue={l.catalogue}
               roofs={l.roofs}
-              status={null}
               actions={[
                 { intent: "preview", label: "Preview" },
                 { intent: "save", label: l.status === "draft" ? "Save draft" : "Save as a new version" },

@@ -10,7 +10,7 @@ import { isUuid } from "~/lib/input";
 import type { RoofSpec } from "~/engine";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
 import { FormError } from "~/components/form-field";
-import { LessonEditor } from "~/components/lessons/lesson-editor";
+import { LessonEditor, type EditorOutcome } from "~/components/lessons/lesson-editor";
 import { LessonPreview } from "~/components/lessons/lesson-preview";
 import { DEMO_ROOF } from "~/components/sandbox/state/demo-roof";
 
@@ -53,17 +53,7 @@ export async function action({ request }: Route.ActionArgs) {
 }
 
 export default function NewLesson({ loaderData, actionData }: Route.ComponentProps) {
-  const a = actionData as
-    | {
-        form?: typeof loaderData.form | null;
-        fieldErrors: Record<string, string>;
-        formError?: string | null;
-        preview?: Parameters<typeof LessonPreview>[0] | null;
-        issues?: { path: string; message: string }[];
-        source?: string;
-      }
-    | undefined;
-  const form = a?.form ?? loaderData.form;
+  const a = actionData as EditorOutcome | undefined;
   return (
     <div className="grid gap-6">
       <header className="grid gap-2">
@@ -81,13 +71,10 @@ export default function NewLesson({ loaderData, actionData }: Route.ComponentPro
       </header>
       {a?.preview && <LessonPreview {...a.preview} />}
       <LessonEditor
-        key={JSON.stringify(form).length + (a ? "a" : "l")}
-        form={form}
-        errors={a?.form ? a.fieldErrors : {}}
-        formError={a?.form ? a.formError : null}
+        form={loaderData.form}
+        outcome={a}
         catalogue={loaderData.catalogue}
         roofs={loaderData.roofs}
-        status={null}
         actions={[
           { intent: "preview", label: "Preview" },
           { intent: "save", label: "Save draft" },

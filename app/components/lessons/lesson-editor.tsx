@@ -1,7 +1,9 @@
 import { useId, useRef, useState, type ReactNode, type RefObject } from "react";
 import { Form, useNavigation } from "react-router";
 import { Plus, Trash2 } from "lucide-react";
+import { FieldRow } from "~/components/field-row";
 import { FormError } from "~/components/form-field";
+import type { LessonPreview } from "~/components/lessons/lesson-preview";
 import {
   blankCriterion,
   blankQuestion,
@@ -16,7 +18,7 @@ import {
   type QuestionForm,
 } from "~/lib/lessons/lesson-form";
 
-/** A labelled input or text area with its error beside it (the name is the lesson file's field). */
+/** A labelled input or text area with its error or hint (the name is the lesson file's field). */
 function Input(p: {
   label: string;
   name: string;
@@ -28,36 +30,54 @@ function Input(p: {
   mono?: boolean;
   textareaRef?: RefObject<HTMLTextAreaElement | null>;
 }) {
-  const id = useId();
-  const error = p.errors[p.name];
-  const common = {
-    id,
-    name: p.name,
-    defaultValue: p.value,
-    "aria-invalid": error ? true : undefined,
-    "aria-describedby": error ? `${id}-e` : p.hint ? `${id}-h` : undefined,
-    className: `field ${p.mono ? "font-mono text-sm" : ""}`,
-  };
+  const className = `field ${p.mono ? "font-mono text-sm" : ""}`;
   return (
-    <div>
-      <label className="label" htmlFor={id}>
-        {p.label}
-      </label>
-      {p.rows ? (
-        <textarea ref={p.textareaRef} rows={p.rows} {...common} />
-      ) : (
-        <input inputMode={p.inputMode} {...common} />
+    <FieldRow label={p.label} error={p.errors[p.name]} hint={p.hint}>
+      {(control) =>
+        p.rows ? (
+          <textarea
+            ref={p.textareaRef}
+            rows={p.rows}
+            name={p.name}
+            defaultValue={p.value}
+            className={className}
+            {...control}
+          />
+        ) : (
+          <input inputMode={p.inputMode} name={p.name} defaultValue={p.value} className={className} {...control} />
+        )
+      }
+    </FieldRow>
+  );
+}
+
+/** The select that picks a question's or a criterion's kind; the rest of its fieldset follows the choice. */
+function KindSelect<K extends string>(p: {
+  label: string;
+  name: string;
+  value: K;
+  options: readonly { id: string; label: string }[];
+  errors: Record<string, string>;
+  onChange: (kind: K) => void;
+}) {
+  return (
+    <FieldRow label={p.label} error={p.errors[p.name]}>
+      {(control) => (
+        <select
+          name={p.name}
+          className="field"
+          value={p.value}
+          onChange={(e) => p.onChange(e.target.value as K)}
+          {...control}
+        >
+          {p.options.map((k) => (
+            <option key={k.id} value={k.id}>
+              {k.label}
+            </option>
+          ))}
+        </select>
       )}
-      {error ? (
-        <p id={`${id}-e`} className="field-error" data-testid={`error-${p.name}`}>
-          {error}
-        </p>
-      ) : p.hint ? (
-        <p id={`${id}-h`} className="mt-1 text-xs text-ink-soft">
-          {p.hint}
-        </p>
-      ) : null}
-    </div>
+    </FieldRow>
   );
 }
 
@@ -79,24 +99,14 @@ function Question({
     <fieldset className="card grid gap-3" data-testid={`question-${i}`}>
       <legend className="font-bold">Question {i + 1}</legend>
       <input type="hidden" name={`${p}id`} value={q.id} />
-      <div>
-        <label className="label" htmlFor={`${p}kind`}>
-          Kind
-        </label>
-        <select
-          id={`${p}kind`}
-          name={`${p}kind`}
-          className="field"
-          value={kind}
-          onChange={(e) => setKind(e.target.value as QuestionForm["kind"])}
-        >
-          {QUESTION_KINDS.map((k) => (
-            <option key={k.id} value={k.id}>
-              {k.label}
-            </option>
-          ))}
-        </select>
-      </div>
+      <KindSelect
+        label="Kind"
+        name={`${p}kind`}
+        value={kind}
+        options={QUESTION_KINDS}
+        errors={errors}
+        onChange={setKind}
+      />
       <Input label="Question" name={`${p}prompt`} value={q.prompt} errors={errors} rows={2} />
       {choice ? (
         <Input
@@ -170,25 +180,7 @@ function Criterion({
   return (
     <fieldset className="grid gap-2 rounded border border-rule p-3" data-testid={`criterion-${i}`}>
       <legend className="px-1 text-sm font-bold">Criterion {i + 1}</legend>
-      <div>
-        <label className="label" htmlFor={`${p}kind`}>
-          Check
-        </label>
-        <select
-          id={`${p}kind`}
-          name={`${p}kind`}
-          className="field"
-          value={kind}
-          onChange={(e) => setKind(e.target.value)}
-        >
-          {catalogue.map((k) => (
-            <option key={k.id} value={k.id}>
-              {k.label}
-            </option>
-          ))}
-        </select>
-        {errors[`${p}kind`] && <p className="field-error">{errors[`${p}kind`]}</p>}
-      </div>
+      <KindSelect label="Check" name={`${p}kind`} value={kind} options={catalogue} errors={errors} onChange={setKind} />
       <div className="grid gap-2 sm:grid-cols-3">
         {entry?.limit !== "none" && (
           <Input
@@ -279,29 +271,53 @@ function RoofFigurePicker({ roofs, body }: { roofs: SavedRoof[]; body: RefObject
   );
 }
 
+/** What the editor's action answers (app/lib/lessons/editor-action.server.ts). */
+export interface EditorOutcome {
+  /** The posted form when the action read it (kept, so nothing typed is lost), else null. */
+  form?: LessonForm | null;
+  fieldErrors: Record<string, string>;
+  formError?: string | null;
+  preview?: Parameters<typeof LessonPreview>[0] | null;
+  issues?: { path: string; message: string }[];
+  source?: string;
+}
+
+interface EditorProps {
+  form: LessonForm;
+  catalogue: CatalogueEntry[];
+  /** The author's saved roofs, any of which can become a figure in the body. */
+  roofs?: SavedRoof[];
+  actions: { intent: string; label: string; primary?: boolean }[];
+}
+
 /**
  * The lesson editor: every field of a lesson file as a form. The server writes the lesson file
  * and checks it with the start-up loader; its errors come back by field name and the form keeps
- * what was typed (it is re-mounted with the posted values).
+ * what was typed: after a post it shows the posted form (`outcome.form`), re-mounted so the
+ * fields take the posted values.
  */
-export function LessonEditor({
+export function LessonEditor({ outcome, ...p }: EditorProps & { outcome?: EditorOutcome }) {
+  const posted = outcome?.form ? outcome : undefined;
+  const form = posted?.form ?? p.form;
+  return (
+    <EditorForm
+      key={JSON.stringify(form).length + (posted ? "a" : "l")}
+      {...p}
+      form={form}
+      errors={posted?.fieldErrors ?? {}}
+      formError={posted?.formError ?? null}
+    />
+  );
+}
+
+function EditorForm({
   form,
   errors,
   formError,
   catalogue,
   roofs = [],
-  status,
   actions,
-}: {
-  form: LessonForm;
-  errors: Record<string, string>;
-  formError?: string | null;
-  catalogue: CatalogueEntry[];
-  /** The author's saved roofs, any of which can become a figure in the body. */
-  roofs?: SavedRoof[];
-  status: ReactNode;
-  actions: { intent: string; label: string; primary?: boolean }[];
-}) {
+}: EditorProps & { errors: Record<string, string>; formError: string | null }) {
   const quiz = useRows(form.quiz);
   const criteria = useRows(form.task.criteria);
   const navigation = useNavigation();
@@ -314,7 +330,6 @@ export function LessonEditor({
         <h2 id="about-heading" className="text-lg font-bold">
           The lesson
         </h2>
-        {status}
         <Input label="Title" name="title" value={form.title} errors={errors} />
         <Input label="Summary (one line for the course list)" name="summary" value={form.summary} errors={errors} />
         <div className="grid gap-3 sm:grid-cols-2">

@@ -11,17 +11,18 @@ export function insidePolygon(xs: ArrayLike<number>, ys: ArrayLike<number>, px: 
 }
 
 /**
- * True when p is inside the polygon and farther than `tol` from every edge: a point on or near the
- * boundary is outside. Openings use it, since their edge is deck.
+ * Where p lies against the polygon's first `n` corners: 1 inside and farther than `tol` from every
+ * edge, 0 within `tol` of an edge, -1 outside. The crossing-number rule, with a distance test to
+ * each edge in the same pass.
  */
-export function strictlyInside(
+export function pointAgainstPolygon(
   xs: ArrayLike<number>,
   ys: ArrayLike<number>,
   px: number,
   py: number,
   tol: number,
-): boolean {
-  const n = xs.length;
+  n = xs.length,
+): 1 | 0 | -1 {
   let inside = false;
   for (let i = 0, j = n - 1; i < n; j = i++) {
     const xi = xs[i],
@@ -35,8 +36,19 @@ export function strictlyInside(
     s = s < 0 ? 0 : s > 1 ? 1 : s;
     const cx = xj + s * dx - px,
       cy = yj + s * dy - py;
-    if (cx * cx + cy * cy <= tol * tol) return false;
+    if (cx * cx + cy * cy <= tol * tol) return 0;
     if (yi > py !== yj > py && px < ((xj - xi) * (py - yi)) / (yj - yi) + xi) inside = !inside;
   }
-  return inside;
+  return inside ? 1 : -1;
+}
+
+/** Inside and clear of every edge by more than `tol` (an opening's edge is deck, not opening). */
+export function strictlyInside(
+  xs: ArrayLike<number>,
+  ys: ArrayLike<number>,
+  px: number,
+  py: number,
+  tol: number,
+): boolean {
+  return pointAgainstPolygon(xs, ys, px, py, tol) === 1;
 }

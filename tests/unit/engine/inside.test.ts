@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { insidePolygon, strictlyInside } from "~/engine/geometry/inside";
+import { insidePolygon, pointAgainstPolygon, strictlyInside } from "~/engine/geometry/inside";
 
 // A 4 × 2 rectangle and an L (a 4 × 4 square less its top-right 2 × 2), counter-clockwise.
 const rect = { xs: [0, 4, 4, 0], ys: [0, 0, 2, 2] };
@@ -24,5 +24,18 @@ describe("strictlyInside: inside and clear of every edge by more than the tolera
     expect(strictlyInside(ell.xs, ell.ys, 1.995, 1.995, 0.01)).toBe(false);
     expect(strictlyInside(ell.xs, ell.ys, 1.9, 1.9, 0.01)).toBe(true);
     expect(strictlyInside(ell.xs, ell.ys, 3, 3, 0.01)).toBe(false);
+  });
+});
+
+describe("pointAgainstPolygon: inside, on the boundary within the tolerance, or outside", () => {
+  it("names each case, and reads only the first n corners", () => {
+    expect(pointAgainstPolygon(rect.xs, rect.ys, 1, 1, 0.01)).toBe(1);
+    expect(pointAgainstPolygon(rect.xs, rect.ys, 4.005, 1, 0.01)).toBe(0);
+    expect(pointAgainstPolygon(rect.xs, rect.ys, 5, 1, 0.01)).toBe(-1);
+    // A longer buffer whose first four corners are the rectangle (as the engine's arena arrays are).
+    const xs = [...rect.xs, 99, 99],
+      ys = [...rect.ys, -99, 99];
+    expect(pointAgainstPolygon(xs, ys, 50, 0, 0.01, 4)).toBe(-1);
+    expect(pointAgainstPolygon(xs, ys, 1, 1, 0.01, 4)).toBe(1);
   });
 });
