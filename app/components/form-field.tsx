@@ -1,7 +1,8 @@
-import { useId, type ComponentProps, type ReactNode } from "react";
+import { type ComponentProps, type ReactNode } from "react";
+import { FieldRow } from "~/components/field-row";
 import { useNavigation } from "react-router";
 
-/** A labelled input with its hint or error wired up for screen readers. */
+/** A labelled input with its hint or error wired up for screen readers (a FieldRow holding an input). */
 export function Field({
   label,
   name,
@@ -9,31 +10,10 @@ export function Field({
   hint,
   ...input
 }: { label: string; name: string; error?: string; hint?: ReactNode } & ComponentProps<"input">) {
-  const id = useId();
-  const describedBy = error ? `${id}-error` : hint ? `${id}-hint` : undefined;
   return (
-    <div>
-      <label className="label" htmlFor={id}>
-        {label}
-      </label>
-      <input
-        id={id}
-        name={name}
-        className="field"
-        aria-invalid={error ? true : undefined}
-        aria-describedby={describedBy}
-        {...input}
-      />
-      {error ? (
-        <p id={`${id}-error`} className="field-error">
-          {error}
-        </p>
-      ) : hint ? (
-        <p id={`${id}-hint`} className="mt-1 text-xs text-ink-soft">
-          {hint}
-        </p>
-      ) : null}
-    </div>
+    <FieldRow label={label} error={error} hint={hint}>
+      {(control) => <input name={name} className="field" {...control} {...input} />}
+    </FieldRow>
   );
 }
 

@@ -1,5 +1,5 @@
-import { useId } from "react";
 import type { CourseField, CourseValues } from "~/lib/courses/course-form";
+import { FieldRow } from "~/components/field-row";
 import { Field } from "~/components/form-field";
 
 /** Name and description of a course: the create form and the edit form share them. */
@@ -10,7 +10,6 @@ export function CourseFields({
   values?: Partial<CourseValues> | null;
   errors?: Partial<Record<CourseField, string>> | null;
 }) {
-  const id = useId();
   return (
     <>
       <Field
@@ -22,25 +21,17 @@ export function CourseFields({
         defaultValue={values?.name ?? ""}
         error={errors?.name}
       />
-      <div>
-        <label className="label" htmlFor={id}>
-          Description
-        </label>
-        <textarea
-          id={id}
-          name="description"
-          className="field min-h-24"
-          maxLength={2000}
-          defaultValue={values?.description ?? ""}
-          aria-invalid={errors?.description ? true : undefined}
-          aria-describedby={errors?.description ? `${id}-error` : undefined}
-        />
-        {errors?.description ? (
-          <p id={`${id}-error`} className="field-error">
-            {errors.description}
-          </p>
-        ) : null}
-      </div>
+      <FieldRow label="Description" error={errors?.description}>
+        {(control) => (
+          <textarea
+            name="description"
+            className="field min-h-24"
+            maxLength={2000}
+            defaultValue={values?.description ?? ""}
+            {...control}
+          />
+        )}
+      </FieldRow>
     </>
   );
 }
