@@ -116,10 +116,7 @@ function ClassTable({ classes, showTrainer }: { classes: ClassSummary[]; showTra
         <tbody>
           {classes.map((c) => (
             <tr key={c.id}>
-              <th
-                scope="row"
-                className="border-b border-rule px-2 py-1 text-left text-sm font-medium normal-case tracking-normal"
-              >
+              <th scope="row">
                 <Link className="underline" to={`/classes/${c.id}`}>
                   {c.name}
                 </Link>

@@ -19,6 +19,10 @@ test("a trainer creates a course, a class follows it, and its lessons are assign
 
   await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Courses" }).click();
   await expect(page).toHaveURL(/\/courses$/);
+  // A course's name and description head its row in the row's own type, not as a column heading.
+  const rowHead = page.getByRole("rowheader").first();
+  await expect(rowHead).toHaveCSS("text-transform", "none");
+  await expect(page.getByRole("columnheader").first()).toHaveCSS("text-transform", "uppercase");
   // A nameless course is refused beside the field, keeping the description.
   await page.getByLabel("Description").fill("Two lessons to start with.");
   await page.getByRole("button", { name: "Create course" }).click();

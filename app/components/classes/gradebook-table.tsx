@@ -221,11 +221,7 @@ export function GradebookTable({ book, classId }: { book: Gradebook; classId: st
               <tr key={row.id} className="hover:bg-paper/60">
                 {row.getVisibleCells().map((cell, i) =>
                   i === 0 ? (
-                    <th
-                      key={cell.id}
-                      scope="row"
-                      className="sticky left-0 z-[1] border-b border-rule bg-sheet px-2 py-1 text-left text-sm font-normal normal-case tracking-normal"
-                    >
+                    <th key={cell.id} scope="row" className="sticky left-0 z-[1] bg-sheet font-normal">
                       {flexRender(cell.column.columnDef.cell, cell.getContext())}
                     </th>
                   ) : (

@@ -116,10 +116,7 @@ export function AsBuiltTaskPanel({ task, results }: { task: AsBuiltTaskView; res
           <tbody>
             {task.survey.map((p) => (
               <tr key={p.label}>
-                <th
-                  scope="row"
-                  className="whitespace-nowrap border-b border-rule text-sm font-medium normal-case tracking-normal"
-                >
+                <th scope="row" className="whitespace-nowrap">
                   {p.label}
                 </th>
                 <td>{p.at[0]}</td>

@@ -47,9 +47,7 @@ export function OutletTable() {
               key={k}
               className={selection?.kind === "outlet" && selection.index === k ? "bg-accent-wash" : undefined}
             >
-              <th scope="row" className="border-b border-rule text-sm font-medium normal-case">
-                O{k + 1}
-              </th>
+              <th scope="row">O{k + 1}</th>
               <td className="w-24" data-label={`x (${lengthUnit})`}>
                 <NumberField
                   compact

@@ -65,7 +65,7 @@ export function ComparisonFigures() {
           <tbody>
             {rows.map(([label, a, b, c]) => (
               <tr key={label}>
-                <th scope="row" className="border-b border-rule text-sm font-normal normal-case tracking-normal">
+                <th scope="row" className="font-normal">
                   {label}
                 </th>
                 <td className="text-right">{a}</td>

@@ -11,7 +11,7 @@ export function HeightBudget({ analysis }: { analysis: Analysis }) {
       <table className="data-table w-full">
         <tbody>
           <tr>
-            <th scope="row" className="border-b border-rule text-sm font-normal normal-case tracking-normal">
+            <th scope="row" className="font-normal">
               Shaped roof, high level H ({shaped.highLevelSource})
             </th>
             <td className="text-right font-bold" data-testid="height-shaped">
@@ -19,19 +19,19 @@ export function HeightBudget({ analysis }: { analysis: Analysis }) {
             </td>
           </tr>
           <tr>
-            <th scope="row" className="border-b border-rule text-sm font-normal normal-case tracking-normal">
+            <th scope="row" className="font-normal">
               Gutter layout
             </th>
             <td className="text-right">{gutter.comparable ? mm(gutter.highLevel) : "not comparable"}</td>
           </tr>
           <tr>
-            <th scope="row" className="border-b border-rule text-sm font-normal normal-case tracking-normal">
+            <th scope="row" className="font-normal">
               Open edge (one plane to edge {openEdge.edge + 1})
             </th>
             <td className="text-right">{mm(openEdge.highLevel)}</td>
           </tr>
           <tr>
-            <th scope="row" className="border-b border-rule text-sm font-normal normal-case tracking-normal">
+            <th scope="row" className="font-normal">
               Saved against the gutter layout
             </th>
             <td className="text-right">{comparison.heightSaved == null ? "–" : mm(comparison.heightSaved)}</td>
