@@ -58,6 +58,7 @@ export default [
     route("courses", "routes/courses._index.tsx"),
     route("courses/:id", "routes/courses.$id.tsx"),
     route("certificates/:id", "routes/certificates.$id.tsx"),
+    route("verify", "routes/verify._index.tsx"),
     route("verify/:code", "routes/verify.$code.tsx"),
     route("attempts/:id/review", "routes/attempts.$id.review.tsx"),
     route("login", "routes/login.tsx"),

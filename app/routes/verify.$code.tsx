@@ -1,10 +1,11 @@
-import { data, isRouteErrorResponse, Link, useRouteError } from "react-router";
+import { data, isRouteErrorResponse, useParams, useRouteError } from "react-router";
 import { BadgeCheck, Ban } from "lucide-react";
 import type { Route } from "./+types/verify.$code";
 import { verifyCertificate } from "~/lib/certificates/certificates.server";
 import { formatCode } from "~/lib/certificates/certificate-text";
 import { formatDay } from "~/lib/when";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
+import { VerifyForm } from "~/components/certificates/verify-form";
 
 export const meta: Route.MetaFunction = () => [
   { title: "Verify a certificate · Fallwright" },
@@ -60,18 +61,15 @@ export default function Verify({ loaderData: c }: Route.ComponentProps) {
 
 export function ErrorBoundary() {
   const error = useRouteError();
+  const params = useParams();
   if (!isRouteErrorResponse(error) || error.status !== 404) return <GeneralErrorBoundary />;
   return (
     <section className="card mx-auto grid max-w-2xl gap-3" role="alert" data-testid="verify-none">
       <title>No such certificate · Fallwright</title>
       <p className="text-xs font-medium uppercase tracking-widest text-accent">Certificate check</p>
       <h1 className="text-2xl font-bold tracking-tight">No such certificate</h1>
-      <p>No certificate has this code. Check the code on the certificate and type it again; letters and digits only.</p>
-      <p>
-        <Link className="underline" to="/">
-          Home
-        </Link>
-      </p>
+      <p>No certificate has this code. Check the code on the certificate and type it again.</p>
+      <VerifyForm typed={params.code ?? ""} />
     </section>
   );
 }

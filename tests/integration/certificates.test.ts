@@ -14,6 +14,7 @@ import * as attemptsApi from "~/routes/api.v1.attempts";
 import * as certificatePage from "~/routes/certificates.$id";
 import * as certificatePdfRoute from "~/routes/certificates.$id-pdf";
 import * as verify from "~/routes/verify.$code";
+import * as verifyEntry from "~/routes/verify._index";
 import * as myAttempts from "~/routes/attempts._index";
 import { getLesson } from "~/lib/lessons/catalogue.server";
 import { roofTaskOf, type Lesson } from "~/lib/lessons/schema";
@@ -279,6 +280,22 @@ describe("certificates", () => {
     expect(none.data).toBe("No such certificate.");
   });
 
+  it("/verify takes a code typed from paper: one that reads as a code opens its page, anything else stays with what was typed", async () => {
+    const typed = ` ${code.slice(0, 4)} ${code.slice(4, 8)}-${code.slice(8)} `.toLowerCase();
+    const go = await callRoute(verifyEntry.loader, get(`/verify?code=${encodeURIComponent(typed)}`));
+    expect(go.status).toBe(302);
+    expect(go.location).toBe(`/verify/${code.slice(0, 4)}-${code.slice(4, 8)}-${code.slice(8)}`);
+    const short = await callRoute(verifyEntry.loader, get(`/verify?code=${encodeURIComponent("7Q2K-9XPM")}`));
+    expect(short.status).toBe(400);
+    expect(short.data).toEqual({
+      typed: "7Q2K-9XPM",
+      error: "This cannot be a certificate code: a code is 12 letters and digits.",
+    });
+    const blank = await callRoute(verifyEntry.loader, get("/verify"));
+    expect(blank.status).toBe(200);
+    expect(blank.data).toEqual({ typed: "", error: null });
+  });
+
   it("revoking needs a trainer or admin and a reason; it is in the audit log and /verify says revoked", async () => {
     const revoke = (fields: Record<string, string>, cookie: string) =>
       callRoute(certificatePage.action, formPost(`/certificates/${certificateId}`, fields, cookie), {
@@ -342,5 +359,7 @@ describe("the public pages through the production server", () => {
     expect(none.status).toBe(404);
     const body = await none.text();
     expect(body).toContain("No such certificate");
+    // …with the code as typed in a field, to be put right and checked again.
+    expect(body).toMatch(/<input[^>]*name="code"[^>]*value="ABCD-EFGH-JKMN"/);
   });
 });

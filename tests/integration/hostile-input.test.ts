@@ -284,6 +284,7 @@ const SWEEP: Record<string, Probe[]> = {
   "/certificates/:id.pdf": [
     { who: "trainer", method: "GET", path: "/certificates/{certificate}.pdf", query: { probe: "1" } },
   ],
+  "/verify": [{ who: "anonymous", method: "GET", path: "/verify", query: { code: "7Q2K-9XPM-4RTA" } }],
   "/verify/:code": [{ who: "anonymous", method: "GET", path: "/verify/{code}", query: { probe: "1" } }],
   "/attempts": [{ who: "trainee", method: "GET", path: "/attempts", query: { probe: "1" } }],
   "/attempts/:id": [{ who: "trainee", method: "GET", path: "/attempts/{attempt}" }],

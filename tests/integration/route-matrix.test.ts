@@ -232,6 +232,10 @@ const MATRIX: Record<string, Case[]> = {
   "/courses/:id": [{ path: "/courses/{uuid}", expect: s(302, 404, 404, 404, 403) }],
   "/certificates/:id": [{ path: "/certificates/{uuid}", expect: SIGNED_IN(404) }],
   "/certificates/:id.pdf": [{ path: "/certificates/{uuid}.pdf", expect: SIGNED_IN(404) }],
+  "/verify": [
+    { path: "/verify", expect: ALL(200), why: "public: where a code from a printed certificate is typed" },
+    { path: "/verify?code=0000", expect: ALL(400), why: "what cannot be a code stays on the page with its error" },
+  ],
   "/verify/:code": [
     { path: "/verify/0000-0000-0000", expect: ALL(404), why: "public: a code no certificate has is 404 for everyone" },
   ],
