@@ -275,8 +275,8 @@ export default function AdminUsers({ loaderData, actionData }: Route.ComponentPr
               : "No users yet. Invite someone above."}
           </p>
         ) : (
-          <div className="card overflow-x-auto p-0">
-            <table className="data-table w-full">
+          <div className="card overflow-x-auto p-0 max-sm:p-2">
+            <table className="data-table card-table w-full">
               <thead>
                 <tr>
                   <th scope="col">Name</th>
@@ -294,12 +294,14 @@ export default function AdminUsers({ loaderData, actionData }: Route.ComponentPr
                   const self = u.id === me;
                   return (
                     <tr key={u.id} className={u.status === "deactivated" ? "text-ink-soft" : undefined}>
-                      <td className="font-medium">
+                      <td className="card-wide font-medium">
                         {u.name || <span className="text-ink-soft">—</span>}
                         {self ? <span className="ml-1 text-xs text-ink-soft">(you)</span> : null}
                       </td>
-                      <td>{u.email}</td>
-                      <td>
+                      <td className="card-wide break-all" data-label="E-mail">
+                        {u.email}
+                      </td>
+                      <td data-label="Role">
                         {self ? (
                           ROLE_LABELS[u.role]
                         ) : (
@@ -324,7 +326,7 @@ export default function AdminUsers({ loaderData, actionData }: Route.ComponentPr
                           </Form>
                         )}
                       </td>
-                      <td>
+                      <td data-label="Status">
                         <span
                           className={
                             u.status === "active" ? "text-ok" : u.status === "invited" ? "text-warn" : "text-bad"
@@ -333,9 +335,11 @@ export default function AdminUsers({ loaderData, actionData }: Route.ComponentPr
                           {STATUSES[u.status]}
                         </span>
                       </td>
-                      <td className="whitespace-nowrap">{u.lastSignInAt ? <When iso={u.lastSignInAt} /> : "never"}</td>
-                      <td>
-                        <div className="flex justify-end gap-1">
+                      <td className="whitespace-nowrap" data-label="Last sign-in">
+                        {u.lastSignInAt ? <When iso={u.lastSignInAt} /> : "never"}
+                      </td>
+                      <td className="card-wide">
+                        <div className="flex flex-wrap justify-end gap-1">
                           {u.status === "invited" ? (
                             <Form method="post">
                               <input type="hidden" name="userId" value={u.id} />

@@ -65,8 +65,8 @@ export default function MyAttempts({ loaderData }: Route.ComponentProps) {
           </Link>
         </div>
       ) : (
-        <div className="card overflow-x-auto p-0">
-          <table className="data-table w-full" data-testid="attempts-table">
+        <div className="card min-w-0 overflow-x-auto p-0 max-sm:p-2">
+          <table className="data-table card-table w-full" data-testid="attempts-table">
             <caption className="sr-only">My attempts</caption>
             <thead>
               <tr>
@@ -88,18 +88,18 @@ export default function MyAttempts({ loaderData }: Route.ComponentProps) {
             <tbody>
               {attempts.map((a) => (
                 <tr key={a.id} className="align-top">
-                  <td>
+                  <td className="card-wide">
                     <Link className="font-medium underline" to={`/lessons/${a.lesson}`}>
                       {a.lessonTitle}
                     </Link>
                   </td>
-                  <td className="whitespace-nowrap">
+                  <td className="whitespace-nowrap" data-label="Submitted">
                     <When iso={a.submittedAt} />
                   </td>
-                  <td className="text-right font-medium" data-testid="attempt-score">
+                  <td className="text-right font-medium" data-label="Score" data-testid="attempt-score">
                     {formatScore(a.grade?.score ?? a.score)}
                   </td>
-                  <td data-testid="attempt-result">
+                  <td data-label="Result" data-testid="attempt-result">
                     <span className="whitespace-nowrap">
                       <PassMark passed={a.grade?.passed ?? a.passed} />
                     </span>
@@ -112,7 +112,7 @@ export default function MyAttempts({ loaderData }: Route.ComponentProps) {
                       </div>
                     ) : null}
                   </td>
-                  <td className="max-w-sm text-xs text-ink-soft">
+                  <td className="max-w-sm text-xs text-ink-soft" data-label="Not met">
                     {!a.missedQuestions.length && !a.missedCriteria.length ? "nothing" : null}
                     {a.missedQuestions.length > 0 && (
                       <div>
@@ -123,10 +123,14 @@ export default function MyAttempts({ loaderData }: Route.ComponentProps) {
                       <div key={c}>{c}</div>
                     ))}
                   </td>
-                  <td className="whitespace-nowrap text-right" title="Measured in your browser; for information only">
+                  <td
+                    className="whitespace-nowrap text-right"
+                    data-label="Time"
+                    title="Measured in your browser; for information only"
+                  >
                     {minutes(a.timeSpentSeconds)}
                   </td>
-                  <td>
+                  <td className="card-wide">
                     <Link
                       className="btn whitespace-nowrap"
                       to={`/attempts/${a.id}`}

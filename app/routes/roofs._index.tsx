@@ -220,7 +220,7 @@ export default function RoofsPage({ loaderData }: Route.ComponentProps) {
           {rows.length === 0 ? (
             <p className="py-6 text-center text-ink-soft">No roof name contains “{query}”.</p>
           ) : (
-            <table className="data-table w-full">
+            <table className="data-table card-table w-full">
               <thead>
                 <tr>
                   <th aria-sort={ariaSort("name")}>{sortButton("name", "Name")}</th>
@@ -250,7 +250,7 @@ export default function RoofsPage({ loaderData }: Route.ComponentProps) {
         {shared.length === 0 ? (
           <p className="text-sm text-ink-soft">Nothing shared with you yet.</p>
         ) : (
-          <table className="data-table w-full">
+          <table className="data-table card-table w-full">
             <thead>
               <tr>
                 <th>Name</th>
@@ -262,16 +262,16 @@ export default function RoofsPage({ loaderData }: Route.ComponentProps) {
             <tbody>
               {shared.map((r) => (
                 <tr key={r.id}>
-                  <td>
+                  <td className="card-wide">
                     <Link className="font-medium underline" to={`/roofs/${r.id}`}>
                       {r.name}
                     </Link>
                   </td>
-                  <td>{r.ownerName}</td>
-                  <td>
+                  <td data-label="Owner">{r.ownerName}</td>
+                  <td data-label="Last saved">
                     <RelativeTime iso={r.updatedAt} />
                   </td>
-                  <td className="text-right">
+                  <td className="card-wide text-right">
                     <DuplicateButton id={r.id} name={r.name} label="Copy to my roofs" />
                   </td>
                 </tr>
@@ -326,7 +326,7 @@ function RoofRow({
   const pendingName = rename.formData?.get("name");
   return (
     <tr className={remove.state !== "idle" ? "opacity-40" : undefined}>
-      <td className="min-w-64">
+      <td className="card-wide sm:min-w-64">
         {renaming ? (
           <rename.Form
             method="post"
@@ -369,19 +369,19 @@ function RoofRow({
           </Link>
         )}
       </td>
-      <td>
+      <td data-label="Last saved">
         <RelativeTime iso={roof.updatedAt} />
       </td>
-      <td>v{roof.version}</td>
-      <td>
+      <td data-label="Version">v{roof.version}</td>
+      <td data-label="Sharing">
         {roof.shared ? (
           <span className="rounded bg-accent-wash px-1.5 py-0.5 text-xs font-medium">Shared</span>
         ) : (
           <span className="text-ink-soft">Private</span>
         )}
       </td>
-      <td>
-        <div className="flex justify-end gap-1">
+      <td className="card-wide">
+        <div className="flex flex-wrap justify-end gap-1">
           <button type="button" className="btn" onClick={() => setRenaming(true)} disabled={renaming}>
             <Pencil aria-hidden="true" className="h-4 w-4" /> Rename<span className="sr-only"> {roof.name}</span>
           </button>

@@ -2,7 +2,9 @@ import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type Page } from "@playwright/test";
 import { signIn } from "./support/session";
 
-// Every screen, as each role, through axe-core: no serious or critical violations.
+// Every screen, as each role, through axe-core: no serious or critical violations. Then the same
+// page at a phone's width (390 px) must not scroll sideways: a wide table scrolls in its own box or
+// becomes one card per row.
 // Exceptions (rule, where, why): none so far. Add one here only with the reason it cannot be fixed.
 const EXCEPTIONS: { rule: string; path: RegExp; why: string }[] = [];
 
@@ -50,6 +52,7 @@ const ROLES: { role: string; email: string | null; screens: Record<string, Where
         "/invite/not-a-token",
         "/s/not-a-token",
         "/no-such-page",
+        "/verify",
         "/verify/0000-0000-0000",
       ].map((p) => [p, p]),
     ),
@@ -79,6 +82,8 @@ const ROLES: { role: string; email: string | null; screens: Record<string, Where
       "/classes/:id/present": async (page) => (await link("/classes", CLASS)(page)) + "/present",
       "/gradebook": "/gradebook",
       "/courses": "/courses",
+      "/courses/:id": link("/courses", `/courses/${UUID}`),
+      "/lessons/new": "/lessons/new",
       // Each graded cell of the gradebook links to that attempt's review, with the class to return to.
       "/attempts/:id/review": link("/gradebook", `/attempts/${UUID}/review\\?class=${UUID}`),
     },
@@ -107,12 +112,20 @@ const ROLES: { role: string; email: string | null; screens: Record<string, Where
 
 for (const { role, email, screens } of ROLES) {
   for (const [name, where] of Object.entries(screens)) {
-    test(`accessibility: ${name} as ${role} has no serious or critical axe violations`, async ({ page }) => {
+    test(`accessibility: ${name} as ${role} has no serious or critical axe violations, and fits a phone`, async ({
+      page,
+    }) => {
       if (email) await signIn(page, email);
       const path = typeof where === "string" ? where : await where(page);
       // A missing link means the demo data changed: say so rather than audit less.
       expect(path, `a link to ${name}`).toMatch(/^\//);
       expect(await audit(page, path!)).toEqual([]);
+      await page.setViewportSize({ width: 390, height: 844 });
+      await expect
+        .poll(() => page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth), {
+          message: `${path} scrolls sideways at 390 px by`,
+        })
+        .toBeLessThanOrEqual(0);
     });
   }
 }

@@ -43,7 +43,7 @@ function Block({
 function Table({ t, testId }: { t: SheetTable; testId?: string }) {
   return (
     <>
-      <table className="data-table sheet-table w-full" data-testid={testId}>
+      <table className="data-table sheet-table card-table w-full" data-testid={testId}>
         <thead>
           <tr>
             {t.header.map((h, i) => (
@@ -57,7 +57,7 @@ function Table({ t, testId }: { t: SheetTable; testId?: string }) {
           {t.rows.map((r, k) => (
             <tr key={k}>
               {r.map((c, i) => (
-                <td key={i} className={t.numeric[i] ? "text-right tabular-nums" : ""}>
+                <td key={i} className={t.numeric[i] ? "text-right tabular-nums" : ""} data-label={t.header[i]}>
                   {c}
                 </td>
               ))}
