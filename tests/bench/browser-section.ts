@@ -276,6 +276,10 @@ export const browserSection: Section = {
           const presenter = await presenterContext.newPage();
           await presenter.goto(`${base}${cls}/present`);
           await presenter.locator("[data-drawn]").first().waitFor({ state: "attached", timeout: 90_000 });
+          // Its water animation would draw on this machine's CPU all the while: the tab is frozen
+          // (no pagehide, so the session stays live), which stops its script and frames.
+          const cdp = await presenterContext.newCDPSession(presenter);
+          await cdp.send("Page.setWebLifecycleState", { state: "frozen" });
           results.push({ page: follow, s: await measure(contexts.trainee, base, follow, log) });
         } finally {
           await presenterBrowser.close();
