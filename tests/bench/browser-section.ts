@@ -21,6 +21,15 @@ const LOADS = Math.max(5, Math.floor(Number(process.env.BENCH_BROWSER_LOADS ?? 5
 const PLAIN_MAX_MS = 1000;
 const SANDBOX_MAX_RATIO = 2;
 const LESSON = "outlets-and-overflows";
+const ARGS = [
+  "--disable-quic",
+  "--use-angle=swiftshader",
+  "--enable-unsafe-swiftshader",
+  "--ignore-gpu-blocklist",
+  "--disable-background-networking",
+  "--disable-component-update",
+  "--disable-sync",
+];
 
 /**
  * In the page before its scripts: note when it hydrates and first draws, and its long tasks. A
@@ -34,7 +43,7 @@ const WATCH = `(() => {
   }).observe(document, { subtree: true, attributes: true, attributeFilter: ["data-hydrated", "data-drawn"] });
   // Where the time to the first frame goes: the engine worker's start and first answer, the
   // WebGL context, and the time spent in shader compiling and in draw calls (drawn on the CPU).
-  b.phases = { worker: null, firstAnswer: null, gl: null, shaderMs: 0, drawMs: 0 };
+  b.phases = { worker: null, firstAnswer: null, gl: null, shaderMs: 0, drawMs: 0, contexts: 0, programs: 0 };
   const NativeWorker = window.Worker;
   window.Worker = class extends NativeWorker {
     constructor(...args) {
@@ -48,7 +57,9 @@ const WATCH = `(() => {
   const getContext = HTMLCanvasElement.prototype.getContext;
   HTMLCanvasElement.prototype.getContext = function (kind, ...rest) {
     if (/webgl/.test(kind) && b.phases.gl == null) b.phases.gl = performance.now();
-    return getContext.call(this, kind, ...rest);
+    const made = getContext.call(this, kind, ...rest);
+    if (/webgl/.test(kind) && made && !made.__counted && b.drawn == null) { made.__counted = true; b.phases.contexts++; }
+    return made;
   };
   const timed = (proto, names, key) => {
     for (const name of names) {
@@ -63,6 +74,11 @@ const WATCH = `(() => {
   const shaderCalls = ["compileShader", "linkProgram", "getProgramParameter", "getShaderParameter", "getProgramInfoLog", "getShaderInfoLog", "useProgram"];
   const drawCalls = ["drawElements", "drawArrays", "drawElementsInstanced", "drawArraysInstanced"];
   for (const proto of [window.WebGL2RenderingContext?.prototype, window.WebGLRenderingContext?.prototype].filter(Boolean)) {
+    const link = proto.linkProgram;
+    proto.linkProgram = function (...args) {
+      if (b.drawn == null) b.phases.programs++;
+      return link.apply(this, args);
+    };
     timed(proto, shaderCalls, "shaderMs");
     timed(proto, drawCalls, "drawMs");
   }
@@ -205,7 +221,7 @@ function detail(s: PageSummary): string {
 
 function phases(s: PageSummary): string {
   const p = s.phases;
-  return `last script in ${ms(p.lastScript)}, engine worker made ${ms(p.worker)}, first answer ${ms(p.firstAnswer)}, WebGL context ${ms(p.gl)}, shader calls ${ms(p.shaderMs)}, draw calls ${ms(p.drawMs)}`;
+  return `last script in ${ms(p.lastScript)}, engine worker made ${ms(p.worker)}, first answer ${ms(p.firstAnswer)}, WebGL context ${ms(p.gl)}, shader calls ${ms(p.shaderMs)} (${p.programs ?? "–"} programs linked in ${p.contexts ?? "–"} WebGL contexts), draw calls ${ms(p.drawMs)}`;
 }
 
 export const browserSection: Section = {
@@ -214,15 +230,7 @@ export const browserSection: Section = {
     const { server, stop } = await benchServer("fallwright_bench_browser", { API_RATE_LIMIT_PER_MINUTE: "100000000" });
     const browser = await chromium.launch({
       executablePath: "/usr/bin/chromium",
-      args: [
-        "--disable-quic",
-        "--use-angle=swiftshader",
-        "--enable-unsafe-swiftshader",
-        "--ignore-gpu-blocklist",
-        "--disable-background-networking",
-        "--disable-component-update",
-        "--disable-sync",
-      ],
+      args: ARGS,
     });
     try {
       const base = server.url;
@@ -257,15 +265,25 @@ export const browserSection: Section = {
         results.push({ page, s: await measure(contexts[page.context], base, page, log) });
       if (chosen(follow)) {
         // The follower's page, with the trainer's present page open (and live) in another tab.
-        const presenter = await contexts.trainer.newPage();
-        await presenter.goto(`${base}${cls}/present`);
-        await presenter.locator("[data-drawn]").first().waitFor({ state: "attached", timeout: 90_000 });
-        // In class the presenter's screen is another machine's: freeze this tab (no pagehide, so
-        // the session stays live) so its drawing does not share the browser with the follower's.
-        const cdp = await contexts.trainer.newCDPSession(presenter);
-        await cdp.send("Page.setWebLifecycleState", { state: "frozen" });
-        results.push({ page: follow, s: await measure(contexts.trainee, base, follow, log) });
-        await presenter.close({ runBeforeUnload: false });
+        // In class the presenter's screen is another machine's, so the present page runs in a
+        // browser of its own (its own GPU process). It used to be a frozen tab of the follower's
+        // browser: the follower's page then waited 10–12 s inside its shader calls (the same 11
+        // programs, one WebGL context) for the GPU process it shared with the frozen page, against
+        // 0.55 s with the presenter in another browser (README, Browser: causes found).
+        const presenterBrowser = await chromium.launch({ executablePath: "/usr/bin/chromium", args: ARGS });
+        try {
+          const presenterContext = await signedInContext(presenterBrowser, base, "trainer@tidemark.example");
+          const presenter = await presenterContext.newPage();
+          await presenter.goto(`${base}${cls}/present`);
+          await presenter.locator("[data-drawn]").first().waitFor({ state: "attached", timeout: 90_000 });
+          // Its water animation would draw on this machine's CPU all the while: the tab is frozen
+          // (no pagehide, so the session stays live), which stops its script and frames.
+          const cdp = await presenterContext.newCDPSession(presenter);
+          await cdp.send("Page.setWebLifecycleState", { state: "frozen" });
+          results.push({ page: follow, s: await measure(contexts.trainee, base, follow, log) });
+        } finally {
+          await presenterBrowser.close();
+        }
       }
 
       const baseline = results[0].s.hydrated;

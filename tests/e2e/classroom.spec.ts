@@ -76,6 +76,29 @@ function watchLanding(sceneBefore: string) {
   });
 }
 
+type GlWindow = { __gl: { contexts: number; programs: number } };
+
+/**
+ * Before the page's scripts: counts the WebGL contexts made and the shader programs linked, so a
+ * test can tell that a live update reused the 3D view's renderer and programs (on the CPU-drawn
+ * WebGL here, each program compiled again costs the follower a fraction of a second or more).
+ */
+const COUNT_GL = `(() => {
+  const gl = (window.__gl = { contexts: 0, programs: 0 });
+  const seen = new WeakSet();
+  const getContext = HTMLCanvasElement.prototype.getContext;
+  HTMLCanvasElement.prototype.getContext = function (kind, ...rest) {
+    const made = getContext.call(this, kind, ...rest);
+    if (/webgl/.test(kind) && made && !seen.has(made)) { seen.add(made); gl.contexts++; }
+    return made;
+  };
+  for (const proto of [window.WebGL2RenderingContext?.prototype, window.WebGLRenderingContext?.prototype]) {
+    if (!proto) continue;
+    const link = proto.linkProgram;
+    proto.linkProgram = function (...args) { gl.programs++; return link.apply(this, args); };
+  }
+})();`;
+
 test("a follower sees the presenter's outlet move within a second, and catches up after a dropped connection", async ({
   browser,
 }) => {
@@ -88,9 +111,14 @@ test("a follower sees the presenter's outlet move within a second, and catches u
   // Opening present mode puts its first roof live.
   await expect(trainer.page.getByRole("status").filter({ hasText: "the class sees this" })).toBeVisible();
   await expect(outletX(trainer.page)).toBeEditable();
+  // In class the presenter's screen is another machine; here both pages share one browser and its
+  // GPU process, where the follower's shader compiles would queue behind the presenter's first
+  // drawing (README, Browser: causes found). The presenter's first frame comes first, as in class.
+  await expect(trainer.page.getByTestId("view-3d")).toHaveAttribute("data-drawn", /\d/, { timeout: 60_000 });
 
   const trainee = await signedIn(browser, "trainee@tidemark.example", FOLLOWER);
   const follower = trainee.page;
+  await trainee.context.addInitScript({ content: COUNT_GL });
   await follower.goto(`/classes/${classId}/follow`);
   await expect(follower.getByRole("status").filter({ hasText: "Live · connected" })).toBeVisible();
   const title = await trainer.page.getByRole("heading", { level: 1 }).textContent();
@@ -103,6 +131,11 @@ test("a follower sees the presenter's outlet move within a second, and catches u
   // finish its first drawing (compiling its shaders takes seconds on the CPU-drawn WebGL here).
   await quiet(follower);
   await quiet(trainer.page);
+  await expect(follower.getByTestId("view-3d")).toHaveAttribute("data-drawn", /\d/);
+  const glBefore = await follower.evaluate(() => (window as unknown as GlWindow).__gl);
+  expect(glBefore.contexts).toBe(1);
+  expect(glBefore.programs).toBeGreaterThan(0);
+  await follower.locator('[data-testid="view-3d"] canvas').evaluate((c) => c.setAttribute("data-first-canvas", ""));
 
   // Move the outlet: within a second the follower's scene shows the moved roof. The times are taken
   // in the follower's page as the change lands there (the same machine clock as t0).
@@ -128,6 +161,10 @@ test("a follower sees the presenter's outlet move within a second, and catches u
   expect(inScene).toBeLessThan(1000);
   expect(inCanvas).toBeLessThan(1000);
   await expect(follower.getByTestId("roof-summary")).toContainText(`at (${newX}, 0)`);
+  // The new snapshot of the same roof was drawn by the same canvas, WebGL context and programs: the
+  // 3D view was not remounted and nothing was compiled again.
+  await expect(follower.locator('[data-testid="view-3d"] canvas[data-first-canvas]')).toHaveCount(1);
+  expect(await follower.evaluate(() => (window as unknown as GlWindow).__gl)).toEqual(glBefore);
 
   // Next roof: the step changes for the follower too.
   await trainer.page.getByRole("button", { name: /Next roof/ }).click();

@@ -25,10 +25,14 @@ import {
 import { Toolbar } from "./inputs/toolbar";
 import type { Underlay } from "./plan/underlay";
 import { useEngine } from "./engine-bridge/use-engine";
+import { startEngineWorker } from "./engine-bridge/engine-client";
 import { useSessionSpec } from "./state/use-session-spec";
 import { useUndoShortcuts } from "./state/use-shortcuts";
 import { ViewBoundary } from "./view-3d/view-boundary";
 import { ViewControls } from "./view-3d/view-controls";
+
+// Evaluated before React hydrates the page: the engine loads in its worker meanwhile.
+startEngineWorker();
 
 const RoofView3D = lazy(() => import("./view-3d/roof-view-3d"));
 const SideBySide = lazy(() => import("./view-3d/side-by-side"));

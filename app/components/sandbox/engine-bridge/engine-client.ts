@@ -6,6 +6,40 @@ import { createEngineServer, type EngineReply, type Superseded } from "./engine-
 
 type Kind = EngineRequest["kind"];
 
+const makeWorker = () => new Worker(new URL("./engine.worker.ts", import.meta.url), { type: "module" });
+
+/** A worker started ahead of the page's first EngineClient (startEngineWorker), and whether it failed meanwhile. */
+let early: { worker: Worker; failed: boolean } | null = null;
+
+/**
+ * Starts the engine's worker now, in the browser, so that it fetches and evaluates the engine
+ * while the page is still hydrating; the next EngineClient takes it instead of making its own.
+ * Called when the workspace's module is evaluated, which is before React hydrates the page (the
+ * worker was made in the workspace's effect, after hydration, and answered 0.4 s after that).
+ * Does nothing on the server or where workers are missing, or while one is already waiting.
+ */
+export function startEngineWorker() {
+  if (early || typeof Worker === "undefined" || typeof window === "undefined") return;
+  try {
+    const started = { worker: makeWorker(), failed: false };
+    // A failure before any client listens would be lost: kept, so the client falls back at once.
+    started.worker.addEventListener("error", () => (started.failed = true));
+    early = started;
+  } catch {
+    early = null;
+  }
+}
+
+/** The early worker if one is waiting (it is handed out once), else a new one. */
+function takeWorker(): Worker | null {
+  const taken = early;
+  early = null;
+  if (!taken) return makeWorker();
+  if (!taken.failed) return taken.worker;
+  taken.worker.terminate();
+  return null;
+}
+
 /**
  * The page's handle on the roof engine. The engine (with its units library and schema) lives in a
  * Web Worker, so it never weighs on the main thread or its bundle; where workers are missing or
@@ -21,7 +55,8 @@ export class EngineClient {
   constructor() {
     if (typeof Worker === "undefined") return;
     try {
-      this.worker = new Worker(new URL("./engine.worker.ts", import.meta.url), { type: "module" });
+      this.worker = takeWorker();
+      if (!this.worker) return;
       this.worker.addEventListener("message", (event: MessageEvent<EngineReply>) => this.answer(event.data));
       this.worker.addEventListener("error", () => this.fallBack());
     } catch {

@@ -64,7 +64,9 @@ export function useEngine(store: SandboxStore) {
       frame = requestAnimationFrame(() => send(store.getState().spec, false));
     };
 
-    request(store.getState().spec);
+    // The first roof is asked for at once, not on the next animation frame: hydration's work
+    // would hold that frame back, and nothing is there to coalesce with yet.
+    send(store.getState().spec, false);
     const unsubscribe = store.subscribe((state, previous) => {
       if (state.spec !== previous.spec) request(state.spec);
       else if (previous.gesture !== null && state.gesture === null) settle();
