@@ -1,6 +1,6 @@
 import { bestExtraOutlet, minimumBaseFall } from "./advice";
 import { Arena } from "./arena";
-import { CANDIDATE_MESH_VERTICES, joistDirectionAdvice } from "./joist-directions";
+import { CANDIDATE_MESH_VERTICES, joistDirectionAdvice, type CandidateFigures } from "./joist-directions";
 import { dropSchedule, joistPositions } from "./joists";
 import { edgeFalls } from "./edge-falls";
 import { formatRatio } from "./fall";
@@ -95,7 +95,7 @@ function analyseWithAdvice(memory: Arena, roof: Roof, options: AnalyseOptions): 
     maxMeshVertices: Math.min(options.maxMeshVertices ?? MAX_MESH_VERTICES, CANDIDATE_MESH_VERTICES),
   };
   analysis.advice.joistDirections = joistDirectionAdvice(roof, analysis, (turned) =>
-    analyseWith(memory, turned, light, true),
+    candidateWith(memory, turned, light),
   );
   return analysis;
 }
@@ -174,10 +174,44 @@ function areaJoistAdvice(
     const others = own.reduce((m, h, j) => (j === k ? m : Math.max(m, h)), -Infinity);
     const advice = joistDirectionAdvice(part.roof, analysis, (turned) => {
       const H = roof.highLevelGiven ?? Math.max(others, highLevelFor(drainSpans(turned), slope));
-      return analyseWith(memory, { ...turned, highLevelGiven: H }, light, true);
+      return candidateWith(memory, { ...turned, highLevelGiven: H }, light);
     });
     return advice.map((o) => ({ ...o, area: part.id }));
   });
+}
+
+/**
+ * The figures the joist direction advice compares for a candidate direction (high level, longest
+ * and worst fall line, area flatter than the minimum): the same steps as `analyseWith` up to them,
+ * without the drop schedule, catchments, warnings and other parts of an answer it never reads.
+ */
+function candidateWith(memory: Arena, roof: Roof, options: AnalyseOptions): CandidateFigures {
+  memory.reset();
+  const H = roof.highLevelGiven ?? highLevelFor(drainSpans(roof), 1 / roof.baseFall.ratio);
+  const levels = perimeterLevels(roof, H);
+  const joistU = joistPositions(roof);
+  const mesh = buildMesh(roof, levels, joistU, { maxVertices: options.maxMeshVertices ?? MAX_MESH_VERTICES, memory });
+  raiseCrickets(roof, levels, mesh);
+  const routing = routeWater(roof, mesh, memory);
+  const faces = faceData(mesh, routing.vertexDrain, routing.drains.length, memory);
+  const { longest, worst } = longestAndWorst(fallLines(roof, levels, mesh, routing, new Geodesic(roof)));
+  return {
+    highLevel: H,
+    longestFallRatio: longest ? longest.ratio : null,
+    worstFallRatio: worst ? worst.ratio : null,
+    flatterThanMinimumArea: fallMap(faces, roof.minFall.ratio, options.bandEdges ?? DEFAULT_BAND_EDGES)
+      .flatterThanMinimumArea,
+  };
+}
+
+function longestAndWorst(lines: FallLine[]): { longest: FallLine | null; worst: FallLine | null } {
+  let longest: FallLine | null = null;
+  let worst: FallLine | null = null;
+  for (const l of lines) {
+    if (!longest || l.length > longest.length) longest = l;
+    if (!worst || l.ratio > worst.ratio) worst = l;
+  }
+  return { longest, worst };
 }
 
 function analyseWith(memory: Arena, roof: Roof, options: AnalyseOptions, candidate: boolean): Analysis {
@@ -230,12 +264,7 @@ function analyseWith(memory: Arena, roof: Roof, options: AnalyseOptions, candida
   const geodesic = new Geodesic(roof);
 
   const lines = fallLines(roof, levels, mesh, routing, geodesic);
-  let longest: FallLine | null = null;
-  let worst: FallLine | null = null;
-  for (const l of lines) {
-    if (!longest || l.length > longest.length) longest = l;
-    if (!worst || l.ratio > worst.ratio) worst = l;
-  }
+  const { longest, worst } = longestAndWorst(lines);
   if (worst && worst.ratio > roof.minFall.ratio * (1 + 1e-9)) {
     warnings.push({
       code: "fall-line-too-flat",

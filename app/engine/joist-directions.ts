@@ -9,15 +9,34 @@ export const CANDIDATE_MESH_VERTICES = 30_000;
 /** Directions closer than this (1 − |cos|) are one candidate; a direction and its opposite give the same joist lines. */
 const SAME = 1e-9;
 
+/** What the advice reads of a candidate direction's analysis. */
+export interface CandidateFigures {
+  highLevel: number;
+  longestFallRatio: number | null;
+  worstFallRatio: number | null;
+  flatterThanMinimumArea: number;
+}
+
+/** The figures the advice reads, from a full analysis (the roof's own direction). */
+export function candidateFigures(a: Analysis): CandidateFigures {
+  return {
+    highLevel: a.shaped.highLevel,
+    longestFallRatio: a.shaped.longestFallLine ? a.shaped.longestFallLine.ratio : null,
+    worstFallRatio: a.shaped.worstFallRatio,
+    flatterThanMinimumArea: a.shaped.fallMap.flatterThanMinimumArea,
+  };
+}
+
 /**
  * Joist direction advice (docs/roof-method-plans.md P8): the inward normal of every edge that
  * holds an outlet or is eaves, and the roof's own direction, each analysed and listed side by
- * side; the best is flagged. `analyseWith` analyses the roof re-framed along a candidate.
+ * side; the best is flagged. `analyseWith` analyses the roof re-framed along a candidate, as far
+ * as the figures compared here.
  */
 export function joistDirectionAdvice(
   roof: Roof,
   current: Analysis,
-  analyseWith: (candidate: Roof) => Analysis,
+  analyseWith: (candidate: Roof) => CandidateFigures,
 ): JoistDirectionOption[] {
   const options: { dx: number; dy: number; edges: number[] }[] = [{ dx: roof.dx, dy: roof.dy, edges: [] }];
   const { n, xs, ys, len } = roof;
@@ -35,20 +54,20 @@ export function joistDirectionAdvice(
   const out: JoistDirectionOption[] = [];
   for (let k = 0; k < options.length; k++) {
     const o = options[k];
-    let a = current;
+    let a: CandidateFigures;
     if (k > 0) {
       const turned = withJoistDirection(roof, o.dx, o.dy);
       if (!turned) continue;
       a = analyseWith(turned);
-    }
-    const worst = a.shaped.worstFallRatio;
+    } else a = candidateFigures(current);
+    const worst = a.worstFallRatio;
     const direction: Point = [o.dx, o.dy];
     out.push({
       direction,
-      highLevel: a.shaped.highLevel,
-      longestFallRatio: a.shaped.longestFallLine ? a.shaped.longestFallLine.ratio : null,
+      highLevel: a.highLevel,
+      longestFallRatio: a.longestFallRatio,
       worstFallRatio: worst,
-      flatterThanMinimumArea: a.shaped.fallMap.flatterThanMinimumArea,
+      flatterThanMinimumArea: a.flatterThanMinimumArea,
       meetsMinimumFall: worst === null || worst <= roof.minFall.ratio * (1 + 1e-9),
       edges: o.edges.sort((p, q) => p - q),
       current: k === 0,

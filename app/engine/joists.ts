@@ -65,6 +65,11 @@ export function dropSchedule(roof: Roof, levels: PerimeterLevels, positions: Flo
       const length = v1 - v0;
       if (length <= roof.tol) return;
       const rise = Math.abs(z1 - z0);
+      // Not `ratio: rise > 1e-12 ? length / rise : null` in the literal below: V8 (Node 20) kept
+      // deoptimising that form and compiling it again, for ever, which made the schedule about
+      // fifteen times slower than this (README, Performance: API).
+      let ratio: number | null = null;
+      if (rise > 1e-12) ratio = length / rise;
       spans.push({
         start: toPlan(roof, u, v0),
         end: toPlan(roof, u, v1),
@@ -73,7 +78,7 @@ export function dropSchedule(roof: Roof, levels: PerimeterLevels, positions: Flo
         endLevel: z1,
         startDrop: H - z0,
         endDrop: H - z1,
-        ratio: rise > 1e-12 ? length / rise : null,
+        ratio,
       });
     };
     for (const breaks of pieces) {

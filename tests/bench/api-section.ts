@@ -11,6 +11,7 @@
  * pinned, anywhere when not, and that ratio is held to the same target.
  */
 import { spawnSync } from "node:child_process";
+import { readFileSync } from "node:fs";
 import { Worker } from "node:worker_threads";
 import autocannon from "autocannon";
 import type { BenchRow, Section } from "./bench.ts";
@@ -24,11 +25,55 @@ function pin(pid: number, core: number): boolean {
   return spawnSync("taskset", ["-a", "-p", "-c", String(core), String(pid)], { stdio: "ignore" }).status === 0;
 }
 
-async function rps(url: string, init: { method: "GET" | "POST"; headers?: Record<string, string>; body?: string }) {
+const TICKS_PER_SECOND = Number(spawnSync("getconf", ["CLK_TCK"], { encoding: "utf8" }).stdout) || 100;
+
+/**
+ * CPU time the server process has used so far (all its threads, the worker pool's included), in
+ * ms, from /proc; null where there is none. Unlike requests/s, CPU per request hardly moves when
+ * other work on the machine takes turns on the server's core.
+ */
+function serverCpuMs(pid: number): number | null {
+  try {
+    const stat = readFileSync(`/proc/${pid}/stat`, "utf8");
+    // Fields after the command's closing parenthesis start at field 3 (state); utime and stime are 14 and 15.
+    const fields = stat.slice(stat.lastIndexOf(")") + 2).split(" ");
+    return ((Number(fields[11]) + Number(fields[12])) * 1000) / TICKS_PER_SECOND;
+  } catch {
+    return null;
+  }
+}
+
+interface Window {
+  rps: number;
+  p99: number;
+  requests: number;
+  cpuMs: number | null;
+}
+
+async function rps(
+  url: string,
+  init: { method: "GET" | "POST"; headers?: Record<string, string>; body?: string },
+  pid: number,
+): Promise<Window> {
+  const before = serverCpuMs(pid);
   const r = await autocannon({ url, connections: 10, duration: Math.max(1, SECONDS / ROUNDS), ...init });
+  const after = serverCpuMs(pid);
   if (r.errors || r.timeouts || r.non2xx)
     throw new Error(`${init.method} ${url}: ${r.errors} errors, ${r.timeouts} timeouts, ${r.non2xx} non-2xx`);
-  return { rps: r.requests.average, p99: r.latency.p99 };
+  return {
+    rps: r.requests.average,
+    p99: r.latency.p99,
+    requests: r.requests.total,
+    cpuMs: before === null || after === null ? null : after - before,
+  };
+}
+
+/** Server CPU per request over all of a route's windows, as "x.xx ms CPU/request" (empty without /proc). */
+function cpuPerRequest(xs: Window[]): string {
+  if (xs.some((x) => x.cpuMs === null)) return "";
+  const cpu = xs.reduce((s, x) => s + x.cpuMs!, 0);
+  const n = xs.reduce((s, x) => s + x.requests, 0);
+  return n ? `; server ${(cpu / n).toFixed(2)} ms CPU/request` : "";
 }
 
 /** A thread that spins until stopped: the machine's other core kept busy. */
@@ -56,42 +101,55 @@ export const apiSection: Section = {
         headers: json,
         body: JSON.stringify(SMALL_ROOF),
       });
-      const trivials: Awaited<ReturnType<typeof rps>>[] = [];
+      const pid = server.proc.pid!;
+      const trivials: Window[] = [];
       const leans: typeof trivials = [];
       const fulls: typeof trivials = [];
       const busyTrivials: typeof trivials = [];
       const busyLeans: typeof trivials = [];
       for (let round = 0; round < ROUNDS; round++) {
-        trivials.push(await rps(`${server.url}/api/v1`, { method: "GET" }));
+        trivials.push(await rps(`${server.url}/api/v1`, { method: "GET" }, pid));
         leans.push(
-          await rps(`${server.url}/api/v1/analyses`, {
-            method: "POST",
-            headers: json,
-            body: JSON.stringify(SMALL_ROOF),
-          }),
-        );
-        fulls.push(
-          await rps(`${server.url}/api/v1/analyses?mesh=true&traces=true`, {
-            method: "POST",
-            headers: json,
-            body: JSON.stringify(SMALL_ROOF),
-          }),
-        );
-        const spinner = busyCore();
-        try {
-          busyTrivials.push(await rps(`${server.url}/api/v1`, { method: "GET" }));
-          busyLeans.push(
-            await rps(`${server.url}/api/v1/analyses`, {
+          await rps(
+            `${server.url}/api/v1/analyses`,
+            {
               method: "POST",
               headers: json,
               body: JSON.stringify(SMALL_ROOF),
-            }),
+            },
+            pid,
+          ),
+        );
+        fulls.push(
+          await rps(
+            `${server.url}/api/v1/analyses?mesh=true&traces=true`,
+            {
+              method: "POST",
+              headers: json,
+              body: JSON.stringify(SMALL_ROOF),
+            },
+            pid,
+          ),
+        );
+        const spinner = busyCore();
+        try {
+          busyTrivials.push(await rps(`${server.url}/api/v1`, { method: "GET" }, pid));
+          busyLeans.push(
+            await rps(
+              `${server.url}/api/v1/analyses`,
+              {
+                method: "POST",
+                headers: json,
+                body: JSON.stringify(SMALL_ROOF),
+              },
+              pid,
+            ),
           );
         } finally {
           await spinner.stop();
         }
       }
-      const mid = (xs: Awaited<ReturnType<typeof rps>>[]) => ({
+      const mid = (xs: Window[]) => ({
         rps: median(xs.map((x) => x.rps)),
         p99: median(xs.map((x) => x.p99)),
       });
@@ -111,7 +169,7 @@ export const apiSection: Section = {
           score: 1,
           target: "baseline",
           pass: true,
-          note: `p99 ${trivial.p99} ms; ${note}`,
+          note: `p99 ${trivial.p99} ms${cpuPerRequest(trivials)}; ${note}`,
         },
         {
           name: "POST /api/v1/analyses",
@@ -120,7 +178,7 @@ export const apiSection: Section = {
           score: leanRatio,
           target: "≥ 0.5 of baseline",
           pass: leanRatio >= 0.5,
-          note: `p99 ${lean.p99} ms; the default answer (figures, no mesh); ${spread}`,
+          note: `p99 ${lean.p99} ms${cpuPerRequest(leans)}; the default answer (figures, no mesh); ${spread}`,
         },
         {
           name: "…analyses, other core busy",
@@ -129,7 +187,7 @@ export const apiSection: Section = {
           score: busy.median,
           target: "≥ 0.5 of baseline",
           pass: busy.median >= 0.5,
-          note: `p99 ${busyLean.p99} ms; a thread spinning beside the load generator, trivial route ${mid(busyTrivials).rps.toFixed(0)} req/s; ${busy.note}`,
+          note: `p99 ${busyLean.p99} ms${cpuPerRequest(busyLeans)}; a thread spinning beside the load generator, trivial route ${mid(busyTrivials).rps.toFixed(0)} req/s${cpuPerRequest(busyTrivials)}; ${busy.note}`,
         },
         {
           name: "…?mesh=true&traces=true",
@@ -138,7 +196,7 @@ export const apiSection: Section = {
           score: fullRatio,
           target: "reported",
           pass: true,
-          note: `p99 ${full.p99} ms; with the 3D mesh and flow traces`,
+          note: `p99 ${full.p99} ms${cpuPerRequest(fulls)}; with the 3D mesh and flow traces`,
         },
       ];
     } finally {

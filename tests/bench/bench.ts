@@ -305,7 +305,9 @@ if (import.meta.url === `file://${process.argv[1]}`) {
       ? [responsivenessSection]
       : process.argv.includes("--browser-only")
         ? [browserSection]
-        : [...SECTIONS, apiSection, responsivenessSection, browserSection];
+        : process.argv.includes("--api-only")
+          ? [apiSection]
+          : [...SECTIONS, apiSection, responsivenessSection, browserSection];
   main(chosen).then(
     (ok) => process.exit(ok ? 0 : 1),
     (error) => {
