@@ -12,6 +12,7 @@
  */
 import { spawnSync } from "node:child_process";
 import { readFileSync } from "node:fs";
+import { availableParallelism } from "node:os";
 import { Worker } from "node:worker_threads";
 import autocannon from "autocannon";
 import type { BenchRow, Section } from "./bench.ts";
@@ -21,9 +22,12 @@ import { benchServer, SMALL_ROOF } from "./harness.ts";
 const SECONDS = Number(process.env.BENCH_API_SECONDS ?? 15);
 const ROUNDS = Math.max(1, Math.floor(Number(process.env.BENCH_API_ROUNDS ?? 30)));
 
-function pin(pid: number, core: number): boolean {
-  return spawnSync("taskset", ["-a", "-p", "-c", String(core), String(pid)], { stdio: "ignore" }).status === 0;
+function pin(pid: number, cores: number | string): boolean {
+  return spawnSync("taskset", ["-a", "-p", "-c", String(cores), String(pid)], { stdio: "ignore" }).status === 0;
 }
+
+/** Every core again for this process: the sections after this one, and what they start, inherit it. */
+const unpin = () => pin(process.pid, `0-${availableParallelism() - 1}`);
 
 const TICKS_PER_SECOND = Number(spawnSync("getconf", ["CLK_TCK"], { encoding: "utf8" }).stdout) || 100;
 
@@ -200,6 +204,7 @@ export const apiSection: Section = {
         },
       ];
     } finally {
+      unpin();
       await stop();
     }
   },
