@@ -13,6 +13,7 @@
  * 3D frame within 2× the plain page's load; no page without 3D over 1 s median.
  */
 import { chromium, type Browser, type BrowserContext } from "@playwright/test";
+import config from "../playwright.config.ts";
 import type { BenchRow, Section } from "./bench.ts";
 import { benchServer, signIn } from "./harness.ts";
 import { longTaskTime, ratio, serverTime, summarise, type LoadTiming, type PageSummary } from "./page-timing.ts";
@@ -21,15 +22,8 @@ const LOADS = Math.max(5, Math.floor(Number(process.env.BENCH_BROWSER_LOADS ?? 5
 const PLAIN_MAX_MS = 1000;
 const SANDBOX_MAX_RATIO = 2;
 const LESSON = "outlets-and-overflows";
-const ARGS = [
-  "--disable-quic",
-  "--use-angle=swiftshader",
-  "--enable-unsafe-swiftshader",
-  "--ignore-gpu-blocklist",
-  "--disable-background-networking",
-  "--disable-component-update",
-  "--disable-sync",
-];
+// The same chromium flags as the e2e tests (WebGL drawn on the CPU by SwiftShader).
+const ARGS = config.use?.launchOptions?.args ?? [];
 
 /**
  * In the page before its scripts: note when it hydrates and first draws, and its long tasks. A
