@@ -67,6 +67,20 @@ export function analyse(spec: RoofSpec, options: AnalyseOptions = {}): Analysis 
   return analyseRoof(prepared.roof, options);
 }
 
+/**
+ * About how many mesh stations an analysis of a one-area roof builds, whichever joist direction it
+ * is shaped or compared in: `buildMesh`'s own estimate (joist and vertex lines × stations per
+ * line) with the bounding box's diagonal for both extents. An analysis's work grows with it; the
+ * API analyses roofs under a threshold on the request's own thread (app/lib/analysis-request.server.ts).
+ * Multi-area roofs and crickets do more work per station and have no estimate here (Infinity).
+ */
+export function meshStationEstimate(roof: Roof): number {
+  if (roof.parts.length || roof.crickets.length) return Infinity;
+  const d = Math.hypot(roof.umax - roof.umin, roof.vmax - roof.vmin);
+  const lines = roof.n + roof.holes.reduce((sum, h) => sum + h.us.length, 0);
+  return (d / roof.spacing + 1 + lines) * (d / roof.spacing + 2);
+}
+
 // One analysis runs at a time on a thread; its mesh and routing arrays live here between runs.
 const arena = new Arena();
 

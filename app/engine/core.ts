@@ -3,8 +3,16 @@
  * reader only when a fall needs it (`needsFallUnits`, `loadFallUnits`). Everywhere else imports
  * `~/engine`, which is this with the reader installed (docs/decisions/0015-lazy-unit-reader.md).
  */
-export { analyse, analyseRoof, type AnalyseOptions, MAX_MESH_VERTICES, PREVIEW_MESH_VERTICES } from "./analyse";
+export {
+  analyse,
+  analyseRoof,
+  type AnalyseOptions,
+  MAX_MESH_VERTICES,
+  meshStationEstimate,
+  PREVIEW_MESH_VERTICES,
+} from "./analyse";
 export { parseSpec, parseRoofSpec, type ParseSpecResult, type ParseRoofResult } from "./parse-spec";
+export type { Roof } from "./roof";
 export { drainName, outletName } from "./names";
 export { pointsSignedArea } from "./geometry/area";
 export {

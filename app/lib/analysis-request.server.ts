@@ -4,6 +4,7 @@
  * at most 256 kB counted as it is read, answers never stored by caches.
  */
 import type { AppLoadContext } from "react-router";
+import { meshStationEstimate, type Roof } from "~/engine";
 import { jsonError, readJsonBody, type JsonBody } from "~/lib/json-api.server";
 import { limitApiRequest } from "~/lib/rate-limit.server";
 
@@ -44,4 +45,42 @@ export async function readAnalysisRequest(request: Request, context: AppLoadCont
       ),
     };
   }
+}
+
+/**
+ * The largest analyses run on the request's own thread instead of the engine pool. Handing a task
+ * to a worker thread and taking its answer back costs the server about 0.4 ms of CPU, as much as
+ * analysing a 15 × 10 m roof; for roofs this small the hand-off was most of the cost (README,
+ * Performance). The bounds keep the event loop's wait short: the most work they let in took about
+ * 2 ms here, checks and JSON included (`npm run bench`, "API, largest on the request thread").
+ * Anything larger, anything with the 3D mesh or flow traces, and every roof whose body is over
+ * 4 kB goes to the pool as before.
+ */
+export const ON_REQUEST_THREAD = {
+  /** Request body, in bytes: reading it fully on this thread stays trivial. */
+  bodyBytes: 4 * 1024,
+  /** Outline vertices: fall lines and the boundary grow with them. */
+  vertices: 16,
+  openings: 2,
+  outlets: 8,
+  /** meshStationEstimate(roof): a 30 × 30 m roof at 0.4 m joists is about 12,000. */
+  stations: 20_000,
+} as const;
+
+/** Whether an analysis of this already checked roof runs on the request's thread (ON_REQUEST_THREAD). */
+export function analysedOnRequestThread(
+  bodyBytes: number,
+  roof: Roof,
+  options: { mesh: boolean; traces: boolean },
+): boolean {
+  const limit = ON_REQUEST_THREAD;
+  return (
+    !options.mesh &&
+    !options.traces &&
+    bodyBytes <= limit.bodyBytes &&
+    roof.n <= limit.vertices &&
+    roof.holes.length <= limit.openings &&
+    roof.outlets.length <= limit.outlets &&
+    meshStationEstimate(roof) <= limit.stations
+  );
 }

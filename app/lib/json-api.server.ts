@@ -27,7 +27,8 @@ export async function readBodyCapped(request: Request, limit: number): Promise<U
   return readStreamCapped(request.body, limit, DRAIN_LIMIT);
 }
 
-export type JsonBody = { ok: true; value: unknown } | { ok: false; response: Response };
+/** The parsed body and its size in bytes, or the response that refuses it. */
+export type JsonBody = { ok: true; value: unknown; bytes: number } | { ok: false; response: Response };
 
 export async function readJsonBody(request: Request, limit: number): Promise<JsonBody> {
   const type = (request.headers.get("content-type") ?? "").split(";")[0].trim().toLowerCase();
@@ -37,7 +38,7 @@ export async function readJsonBody(request: Request, limit: number): Promise<Jso
   const bytes = await readBodyCapped(request, limit);
   if (!bytes) return { ok: false, response: jsonError(413, `The body is over ${Math.round(limit / 1024)} kB.`) };
   const json = parseJsonBytes(bytes);
-  if (json.ok) return json;
+  if (json.ok) return { ok: true, value: json.value, bytes: bytes.byteLength };
   return {
     ok: false,
     response: jsonError(400, "The body is not valid JSON.", [

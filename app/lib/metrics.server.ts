@@ -9,7 +9,7 @@ import "~/lib/pool.server";
 export interface AppMetrics {
   registry: client.Registry;
   httpDuration: client.Histogram<"method" | "route" | "status">;
-  analysisDuration: client.Histogram<"kind" | "outcome">;
+  analysisDuration: client.Histogram<"kind" | "outcome" | "thread">;
 }
 
 declare global {
@@ -34,8 +34,8 @@ function create(): AppMetrics {
   });
   const analysisDuration = new client.Histogram({
     name: "fallwright_analysis_duration_seconds",
-    help: "Time a roof analysis took in the worker pool (kind: api or csv; outcome: ok, too_large, failed)",
-    labelNames: ["kind", "outcome"] as const,
+    help: "Time a roof analysis took (kind: api or csv; outcome: ok, refused, too_large, failed, busy, timeout; thread: pool, or request for a small roof analysed on the request's thread)",
+    labelNames: ["kind", "outcome", "thread"] as const,
     buckets: [0.001, 0.005, 0.01, 0.025, 0.05, 0.1, 0.25, 0.5, 1, 2.5, 5],
     registers: [registry],
   });

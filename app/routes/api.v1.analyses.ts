@@ -1,8 +1,17 @@
 import type { Route } from "./+types/api.v1.analyses";
-import { NO_STORE, postOnly, readAnalysisRequest } from "~/lib/analysis-request.server";
+import { parseRoofSpec } from "~/engine";
+import { analysisAnswer } from "~/lib/analysis-answer";
+import {
+  analysedOnRequestThread,
+  NO_STORE,
+  ON_REQUEST_THREAD,
+  postOnly,
+  readAnalysisRequest,
+} from "~/lib/analysis-request.server";
 import { jsonError } from "~/lib/json-api.server";
 import { log } from "~/lib/log.server";
 import { metrics } from "~/lib/metrics.server";
+import type { PoolResult } from "~/lib/pool-tasks";
 import { PoolBusy, PoolTimeout, runInPool } from "~/lib/pool.server";
 import { chargeApiWork } from "~/lib/rate-limit.server";
 import { currentRequest } from "~/lib/request-context.server";
@@ -25,40 +34,49 @@ const mb = (bytes: number) => `${(bytes / 1024 / 1024).toFixed(1)} MB`;
  * (rate-limit.server.ts, limitApiRequest). 415 unless JSON, 413 over 256 kB (counted as it is
  * read), 400 malformed, 422 cannot be built or the answer would be over 10 MB, 429 budget spent,
  * 503 the engine's workers are saturated or the analysis ran past 30 s; never 500. The roof is
- * checked, analysed and serialised in the engine's worker pool, so the event loop stays free.
+ * checked, analysed and serialised in the engine's worker pool, so the event loop stays free; a
+ * small roof (ON_REQUEST_THREAD) is analysed on the request's thread, where it costs less than
+ * the hand-off to a worker.
  * The bulky 3D mesh and flow traces come only on request (`?mesh=true`, `?traces=true`).
  */
 export async function action({ request, context }: Route.ActionArgs) {
   const body = await readAnalysisRequest(request, context);
   if (!body.ok) return body.response;
   const query = new URL(request.url).searchParams;
+  const options = {
+    mesh: query.get("mesh") === "true",
+    traces: query.get("traces") === "true",
+    maxBytes: ANALYSIS_ANSWER_MAX_BYTES,
+  };
   const started = performance.now();
+  let thread: "request" | "pool" = "pool";
   const observe = (outcome: string) =>
-    metrics().analysisDuration.observe({ kind: "api", outcome }, (performance.now() - started) / 1000);
-  let result;
-  try {
-    result = await runInPool(
-      "engine",
-      {
-        kind: "analyse",
-        spec: body.value,
-        mesh: query.get("mesh") === "true",
-        traces: query.get("traces") === "true",
-        maxBytes: ANALYSIS_ANSWER_MAX_BYTES,
-      },
-      ANALYSIS_TIMEOUT_MS,
-    );
-  } catch (error) {
-    if (error instanceof PoolBusy || error instanceof PoolTimeout) {
-      observe(error instanceof PoolBusy ? "busy" : "timeout");
-      if (error instanceof PoolTimeout) chargeApiWork(context, ANALYSIS_TIMEOUT_MS);
-      const message =
-        error instanceof PoolBusy
-          ? "The server is analysing many roofs at once. Try again in a few seconds."
-          : `The analysis did not finish within ${ANALYSIS_TIMEOUT_MS / 1000} s. Try again, or send a simpler roof.`;
-      return jsonError(503, message, [], { ...NO_STORE, "Retry-After": "5" });
+    metrics().analysisDuration.observe({ kind: "api", outcome, thread }, (performance.now() - started) / 1000);
+  let result: PoolResult;
+  // A small request is checked here: small roofs are analysed on this thread (ON_REQUEST_THREAD),
+  // and a refused one needs no worker. Larger bodies are checked in the worker with the analysis.
+  const parsed = body.bytes <= ON_REQUEST_THREAD.bodyBytes ? parseRoofSpec(body.value) : null;
+  if (parsed && !parsed.ok) {
+    thread = "request";
+    result = { kind: "refused", status: parsed.status, error: parsed.error, ms: performance.now() - started };
+  } else if (parsed && analysedOnRequestThread(body.bytes, parsed.roof, options)) {
+    thread = "request";
+    result = analysisAnswer(parsed.roof, options, started);
+  } else {
+    try {
+      result = await runInPool("engine", { kind: "analyse", spec: body.value, ...options }, ANALYSIS_TIMEOUT_MS);
+    } catch (error) {
+      if (error instanceof PoolBusy || error instanceof PoolTimeout) {
+        observe(error instanceof PoolBusy ? "busy" : "timeout");
+        if (error instanceof PoolTimeout) chargeApiWork(context, ANALYSIS_TIMEOUT_MS);
+        const message =
+          error instanceof PoolBusy
+            ? "The server is analysing many roofs at once. Try again in a few seconds."
+            : `The analysis did not finish within ${ANALYSIS_TIMEOUT_MS / 1000} s. Try again, or send a simpler roof.`;
+        return jsonError(503, message, [], { ...NO_STORE, "Retry-After": "5" });
+      }
+      throw error;
     }
-    throw error;
   }
   chargeApiWork(context, result.ms);
   switch (result.kind) {

@@ -5,7 +5,8 @@
  */
 import { loadavg } from "node:os";
 import { performance } from "node:perf_hooks";
-import { analyse, parseSpec, PREVIEW_MESH_VERTICES, type RoofSpec } from "../../app/engine/index.ts";
+import { analyse, parseRoofSpec, parseSpec, PREVIEW_MESH_VERTICES, type RoofSpec } from "../../app/engine/index.ts";
+import { analysisAnswer } from "../../app/lib/analysis-answer.ts";
 import { median } from "./stats.ts";
 import { MeshSampler } from "../../app/components/sandbox/view-3d/mesh-sample.ts";
 import { sceneFrame } from "../../app/components/sandbox/view-3d/scene-frame.ts";
@@ -167,6 +168,59 @@ export const BENCH_ROOFS: { name: string; area: number; frames: number; spec: Ro
   },
 ];
 
+/**
+ * The most work the API's bounds let onto the request's own thread (ON_REQUEST_THREAD in
+ * app/lib/analysis-request.server.ts): a 40 × 32 m comb of 16 vertices, 8 outlets, 2 openings and
+ * a mesh estimate just under the 20,000 stations allowed. tests/unit/analysis-thread.test.ts holds
+ * it inside the bounds, so the row below times what it says.
+ */
+export const REQUEST_THREAD_ROOF: RoofSpec = {
+  outline: [
+    [0, 0],
+    [40, 0],
+    [40, 32],
+    [34, 32],
+    [34, 12],
+    [28, 12],
+    [28, 32],
+    [22, 32],
+    [22, 12],
+    [16, 12],
+    [16, 32],
+    [10, 32],
+    [10, 12],
+    [4, 12],
+    [4, 32],
+    [0, 32],
+  ],
+  outlets: [5, 15, 25, 35]
+    .map((x) => ({ at: [x, 0] as [number, number] }))
+    .concat([2, 13, 25, 37].map((x) => ({ at: [x, 32] as [number, number] }))),
+  baseFall: "1:60",
+  joists: { spacing: 0.4 },
+  openings: [
+    {
+      outline: [
+        [6, 4],
+        [8, 4],
+        [8, 6],
+        [6, 6],
+      ],
+    },
+    {
+      outline: [
+        [30, 4],
+        [32, 4],
+        [32, 6],
+        [30, 6],
+      ],
+    },
+  ],
+};
+
+/** Longest the event loop may be held by an analysis the API runs on the request's thread. */
+export const REQUEST_THREAD_FRAMES = 0.25;
+
 export { median };
 
 const cpuMs = () => {
@@ -262,6 +316,22 @@ export const engineSection: Section = {
       target: "≤ 1 frame",
       pass: preview.median <= FRAME_MS,
       note: `${preview.runs} runs; CPU ${preview.cpu.toFixed(2)} ms; analysis, surface attributes and level sampler`,
+    });
+    // The API's small analyses run on the request's thread, holding its event loop meanwhile: the
+    // most work its bounds let in, timed as the route runs it (checks, analysis, JSON bytes).
+    const onRequest = timeIt(() => {
+      const checked = parseRoofSpec(structuredClone(REQUEST_THREAD_ROOF));
+      if (!checked.ok) throw new Error(checked.error.message);
+      return analysisAnswer(checked.roof, { mesh: false, traces: false, maxBytes: Infinity }, performance.now());
+    });
+    rows.push({
+      name: "API, largest on the request thread",
+      value: onRequest.median,
+      unit: "ms",
+      score: onRequest.median / FRAME_MS,
+      target: `≤ ${REQUEST_THREAD_FRAMES} frame`,
+      pass: onRequest.median / FRAME_MS <= REQUEST_THREAD_FRAMES,
+      note: `${onRequest.runs} runs; CPU ${onRequest.cpu.toFixed(2)} ms; the event loop's longest wait on one (16 vertices, 8 outlets, 2 openings)`,
     });
     return rows;
   },

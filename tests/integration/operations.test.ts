@@ -160,6 +160,83 @@ describe("heavy analyses (defect 10)", () => {
   });
 });
 
+describe("small analyses on the request's thread (issue 18, API)", () => {
+  const spec = {
+    outline: [
+      [0, 0],
+      [15, 0],
+      [15, 10],
+      [0, 10],
+    ],
+    outlets: [{ at: [7.5, 0] }],
+    baseFall: "1:60",
+  };
+  const post = (body: string, ip: string) =>
+    fetch(`${server.url}/api/v1/analyses`, {
+      method: "POST",
+      headers: { "Content-Type": "application/json", "X-Forwarded-For": ip },
+      body,
+    });
+  /** Analyses answered so far, by the thread that made them (from /metrics). */
+  async function answered(outcome: string): Promise<{ request: number; pool: number }> {
+    const text = await (await fetch(`${server.url}/metrics`)).text();
+    const count = (thread: string) =>
+      Number(
+        text
+          .split("\n")
+          .find((l) =>
+            l.startsWith(
+              `fallwright_analysis_duration_seconds_count{kind="api",outcome="${outcome}",thread="${thread}"}`,
+            ),
+          )
+          ?.split(" ")
+          .pop() ?? 0,
+      );
+    return { request: count("request"), pool: count("pool") };
+  }
+  // Over 4 kB of white space after the same JSON sends the same roof to the worker pool.
+  const padded = (json: string) => json + " ".repeat(5000);
+
+  it("a small roof is analysed on the request's thread, byte for byte as the pool analyses it", async () => {
+    const before = await answered("ok");
+    const here = await post(JSON.stringify(spec), "198.51.100.31");
+    const afterHere = await answered("ok");
+    const pooled = await post(padded(JSON.stringify(spec)), "198.51.100.32");
+    const afterPool = await answered("ok");
+    expect(here.status).toBe(200);
+    expect(pooled.status).toBe(200);
+    expect(afterHere).toEqual({ request: before.request + 1, pool: before.pool });
+    expect(afterPool).toEqual({ request: afterHere.request, pool: afterHere.pool + 1 });
+    expect(await here.text()).toBe(await pooled.text());
+  });
+
+  it("a roof that cannot be built is refused the same way on either thread", async () => {
+    const crossed = JSON.stringify({
+      ...spec,
+      outline: [spec.outline[0], spec.outline[2], spec.outline[1], spec.outline[3]],
+    });
+    const before = await answered("refused");
+    const here = await post(crossed, "198.51.100.33");
+    const pooled = await post(padded(crossed), "198.51.100.34");
+    expect(here.status).toBe(422);
+    expect(pooled.status).toBe(422);
+    expect(await here.json()).toEqual(await pooled.json());
+    expect(await answered("refused")).toEqual({ request: before.request + 1, pool: before.pool + 1 });
+  });
+
+  it("the 3D mesh goes to the pool whatever the roof's size", async () => {
+    const before = await answered("ok");
+    const r = await fetch(`${server.url}/api/v1/analyses?mesh=true`, {
+      method: "POST",
+      headers: { "Content-Type": "application/json", "X-Forwarded-For": "198.51.100.35" },
+      body: JSON.stringify(spec),
+    });
+    expect(r.status).toBe(200);
+    expect((await r.json()).shaped.mesh).toBeDefined();
+    expect(await answered("ok")).toEqual({ request: before.request, pool: before.pool + 1 });
+  });
+});
+
 function logLines(): Record<string, unknown>[] {
   return server
     .output()

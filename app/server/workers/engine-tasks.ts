@@ -1,33 +1,19 @@
 /**
  * Roof analyses for the open API and the schedule CSV, in a worker thread of the engine pool
  * (app/lib/pool.server.ts), so a two-second analysis never delays other requests.
- * The analysis is serialised here too: turning a large answer into JSON is a large share of its
- * cost, and the bytes are handed back without a copy.
+ * The analysis is serialised here too (app/lib/analysis-answer.ts).
  */
-import { analyse, analyseRoof, asBuilt, parseRoofSpec, parseSpec } from "../../engine";
+import { analyse, asBuilt, parseRoofSpec, parseSpec } from "../../engine";
+import { analysisAnswer } from "../../lib/analysis-answer";
 import type { PoolTask, PoolResult } from "../../lib/pool-tasks";
-
-const encoder = new TextEncoder();
 
 function analyseTask(task: Extract<PoolTask, { kind: "analyse" }>): PoolResult {
   const started = performance.now();
   const parsed = parseRoofSpec(task.spec);
   if (!parsed.ok)
     return { kind: "refused", status: parsed.status, error: parsed.error, ms: performance.now() - started };
-  let json: string;
-  try {
-    json = JSON.stringify(analyseRoof(parsed.roof, { mesh: task.mesh, traces: task.traces }));
-  } catch (error) {
-    return { kind: "failed", message: (error as Error)?.message ?? String(error), ms: performance.now() - started };
-  }
-  // Length in UTF-16 units is at most the UTF-8 length for the ASCII-heavy answer; encode only what fits.
-  if (json.length > task.maxBytes)
-    return { kind: "too-large", bytes: Buffer.byteLength(json), ms: performance.now() - started };
-  const bytes = encoder.encode(json);
-  if (bytes.byteLength > task.maxBytes)
-    return { kind: "too-large", bytes: bytes.byteLength, ms: performance.now() - started };
-  // Cloned on the way back (a memcpy); piscina moves only a top-level transferable.
-  return { kind: "bytes", bytes, ms: performance.now() - started };
+  // The bytes are cloned on the way back (a memcpy); piscina moves only a top-level transferable.
+  return analysisAnswer(parsed.roof, task, started);
 }
 
 /** An analysis handed back as an object (structured clone keeps its typed arrays): the builder's pack files. */
