@@ -1,4 +1,5 @@
-import { Form, Link, NavLink, Outlet, useMatches } from "react-router";
+import { useEffect, useState } from "react";
+import { Form, Link, NavLink, Outlet, useLocation, useMatches } from "react-router";
 import type { Route } from "./+types/_shell";
 import { getOptionalUser } from "~/lib/auth.server";
 import { can, ROLE_LABELS, type Permission } from "~/lib/permissions";
@@ -27,6 +28,10 @@ export default function Shell({ loaderData }: Route.ComponentProps) {
   // A page that prints its own caution (the check sheet) keeps to one.
   const ownCaution = useMatches().some((m) => (m.handle as { ownCaution?: boolean } | undefined)?.ownCaution);
   const items = NAV.filter((n) => (n.permission ? can(user?.role, n.permission) : n.signedIn ? !!user : true));
+  // The phone menu closes once a link in it has taken the reader to another page.
+  const [menuOpen, setMenuOpen] = useState(false);
+  const { pathname } = useLocation();
+  useEffect(() => setMenuOpen(false), [pathname]);
   return (
     <UnitsProvider saved={user?.units ?? null} signedIn={!!user}>
       <div className="flex min-h-screen flex-col">
@@ -45,46 +50,61 @@ export default function Shell({ loaderData }: Route.ComponentProps) {
               </svg>
               Fallwright
             </Link>
-            <nav aria-label="Main" className="flex flex-wrap gap-1 text-sm">
-              {items.map((n) => (
-                <NavLink
-                  key={n.to}
-                  to={n.to}
-                  end={n.to === "/"}
-                  className={({ isActive }) =>
-                    `rounded px-2 py-1 ${isActive ? "bg-ink text-sheet" : "hover:bg-paper-deep"}`
-                  }
-                >
-                  {n.label}
-                </NavLink>
-              ))}
-            </nav>
-            <div className="ml-auto flex flex-wrap items-center gap-3 text-sm">
-              <UnitsSwitch />
-              {user ? (
-                <>
-                  <span>
-                    {user.name || user.email} <span className="text-ink-soft">· {ROLE_LABELS[user.role]}</span>
-                  </span>
+            {/* On a phone the links and the account sit behind one button, so the page starts at the top of the screen. */}
+            <button
+              type="button"
+              className="btn ml-auto md:hidden"
+              aria-expanded={menuOpen}
+              aria-controls="site-menu"
+              onClick={() => setMenuOpen((open) => !open)}
+            >
+              {menuOpen ? "Close menu" : "Menu"}
+            </button>
+            <div
+              id="site-menu"
+              className={`${menuOpen ? "flex" : "hidden"} w-full flex-col gap-3 md:flex md:w-auto md:flex-1 md:flex-row md:flex-wrap md:items-center md:gap-x-6`}
+            >
+              <nav aria-label="Main" className="flex flex-wrap gap-1 text-sm">
+                {items.map((n) => (
                   <NavLink
-                    to="/account"
+                    key={n.to}
+                    to={n.to}
+                    end={n.to === "/"}
                     className={({ isActive }) =>
-                      `rounded px-2 py-1 ${isActive ? "bg-ink text-sheet" : "hover:bg-paper-deep"}`
+                      `inline-flex min-h-11 items-center rounded px-3 md:min-h-0 md:px-2 md:py-1 ${isActive ? "bg-ink text-sheet" : "hover:bg-paper-deep"}`
                     }
                   >
-                    Account
+                    {n.label}
                   </NavLink>
-                  <Form method="post" action="/logout">
-                    <button className="btn" type="submit">
-                      Sign out
-                    </button>
-                  </Form>
-                </>
-              ) : (
-                <Link className="btn-primary" to="/login">
-                  Sign in
-                </Link>
-              )}
+                ))}
+              </nav>
+              <div className="flex flex-wrap items-center gap-3 text-sm md:ml-auto">
+                <UnitsSwitch />
+                {user ? (
+                  <>
+                    <span>
+                      {user.name || user.email} <span className="text-ink-soft">· {ROLE_LABELS[user.role]}</span>
+                    </span>
+                    <NavLink
+                      to="/account"
+                      className={({ isActive }) =>
+                        `inline-flex min-h-11 items-center rounded px-3 md:min-h-0 md:px-2 md:py-1 ${isActive ? "bg-ink text-sheet" : "hover:bg-paper-deep"}`
+                      }
+                    >
+                      Account
+                    </NavLink>
+                    <Form method="post" action="/logout">
+                      <button className="btn" type="submit">
+                        Sign out
+                      </button>
+                    </Form>
+                  </>
+                ) : (
+                  <Link className="btn-primary" to="/login">
+                    Sign in
+                  </Link>
+                )}
+              </div>
             </div>
           </div>
         </header>

@@ -1,5 +1,6 @@
 import { expect, test, type CDPSession, type Locator, type Page } from "@playwright/test";
 import fs from "node:fs";
+import { signIn } from "./support/session";
 
 // A phone in portrait: touch only, 390 × 844 CSS px.
 test.use({ viewport: { width: 390, height: 844 }, hasTouch: true, isMobile: true });
@@ -276,4 +277,32 @@ test("phone: the plan's hints say tap, not click, and the page hydrates without 
   await expect(page.getByTestId("draw-opening")).toHaveAttribute("title", /drag or tap two corners/);
   await expect(page.getByTestId("plan-card")).not.toContainText(/click/i);
   expect(errors.filter((e) => /hydrat/i.test(e))).toEqual([]);
+});
+
+test("phone: the header is one row; Menu opens the links and the account, and closes on the next page", async ({
+  page,
+}) => {
+  await signIn(page, "trainee@tidemark.example");
+  await page.goto("/lessons");
+  // The button works once React has hydrated the page (the root marks <html data-hydrated>).
+  await expect(page.locator("html[data-hydrated]")).toHaveCount(1);
+  const header = page.getByRole("banner");
+  const menu = page.getByRole("button", { name: "Menu" });
+  const nav = page.getByRole("navigation", { name: "Main" });
+  // Closed, the header is the name and the button: one row, not the four the links and account took.
+  await expect(menu).toHaveAttribute("aria-expanded", "false");
+  await expect(nav).toBeHidden();
+  await expect(page.getByRole("button", { name: "Sign out" })).toBeHidden();
+  expect((await header.boundingBox())!.height).toBeLessThan(90);
+  await menu.click();
+  await expect(page.getByRole("button", { name: "Close menu" })).toHaveAttribute("aria-expanded", "true");
+  await expect(nav).toBeVisible();
+  await expect(page.getByRole("button", { name: "Sign out" })).toBeVisible();
+  // Every link in it is a finger's size (44 px tall or more, WCAG 2.5.5).
+  for (const link of await nav.getByRole("link").all())
+    expect((await link.boundingBox())!.height).toBeGreaterThanOrEqual(44);
+  await nav.getByRole("link", { name: "Sandbox" }).click();
+  await expect(page).toHaveURL(/\/sandbox$/);
+  await expect(page.getByRole("button", { name: "Menu" })).toHaveAttribute("aria-expanded", "false");
+  await expect(nav).toBeHidden();
 });
