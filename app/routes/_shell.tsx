@@ -51,9 +51,15 @@ export default function Shell({ loaderData }: Route.ComponentProps) {
               Fallwright
             </Link>
             {/* On a phone the links and the account sit behind one button, so the page starts at the top of the screen. */}
+            {user ? null : (
+              // Signed out on a phone, signing in stays one tap away, beside the menu.
+              <Link className="btn-primary ml-auto md:hidden" to="/login">
+                Sign in
+              </Link>
+            )}
             <button
               type="button"
-              className="btn ml-auto md:hidden"
+              className={`btn md:hidden ${user ? "ml-auto" : ""}`}
               aria-expanded={menuOpen}
               aria-controls="site-menu"
               onClick={() => setMenuOpen((open) => !open)}
@@ -100,7 +106,7 @@ export default function Shell({ loaderData }: Route.ComponentProps) {
                     </Form>
                   </>
                 ) : (
-                  <Link className="btn-primary" to="/login">
+                  <Link className="btn-primary max-md:hidden" to="/login">
                     Sign in
                   </Link>
                 )}

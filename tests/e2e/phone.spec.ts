@@ -306,3 +306,13 @@ test("phone: the header is one row; Menu opens the links and the account, and cl
   await expect(page.getByRole("button", { name: "Menu" })).toHaveAttribute("aria-expanded", "false");
   await expect(nav).toBeHidden();
 });
+
+test("phone: signed out, Sign in stays beside the menu, once", async ({ page }) => {
+  await page.goto("/");
+  await expect(page.getByRole("button", { name: "Menu" })).toHaveAttribute("aria-expanded", "false");
+  const signIn = page.getByRole("banner").getByRole("link", { name: "Sign in" });
+  await expect(signIn).toHaveCount(1);
+  await expect(signIn).toBeVisible();
+  await signIn.click();
+  await expect(page).toHaveURL(/\/login$/);
+});
