@@ -9,6 +9,17 @@ import { startServer, type RunningServer } from "../support/server";
 let server: RunningServer;
 let dbUrl: string;
 const METRICS_TOKEN = "metrics-test-token-0123456789";
+/** A 15 × 10 m roof with one outlet: a small analysis, well inside every budget. */
+const SMALL_ROOF = {
+  outline: [
+    [0, 0],
+    [15, 0],
+    [15, 10],
+    [0, 10],
+  ],
+  outlets: [{ at: [7.5, 0] }],
+  baseFall: "1:60",
+};
 
 beforeAll(async () => {
   dbUrl = await createDatabaseFromTemplate();
@@ -89,16 +100,7 @@ describe("request bodies are capped while they stream (defect 4)", () => {
     const r = await fetch(`${server.url}/api/v1/analyses`, {
       method: "POST",
       headers: { "Content-Type": "application/json", "X-Forwarded-For": "198.51.100.40" },
-      body: JSON.stringify({
-        outline: [
-          [0, 0],
-          [15, 0],
-          [15, 10],
-          [0, 10],
-        ],
-        outlets: [{ at: [7.5, 0] }],
-        baseFall: "1:60",
-      }),
+      body: JSON.stringify(SMALL_ROOF),
     });
     expect(r.status).toBe(200);
     expect((await r.json()).shaped.joists.length).toBeGreaterThan(0);
@@ -135,21 +137,11 @@ describe("heavy analyses (defect 10)", () => {
   }, 90_000);
 
   it("charges the address's budget by work done: after the heavy one, a small analysis waits", async () => {
-    const small = {
-      outline: [
-        [0, 0],
-        [15, 0],
-        [15, 10],
-        [0, 10],
-      ],
-      outlets: [{ at: [7.5, 0] }],
-      baseFall: "1:60",
-    };
     const post = (ip: string) =>
       fetch(`${server.url}/api/v1/analyses`, {
         method: "POST",
         headers: { "Content-Type": "application/json", "X-Forwarded-For": ip },
-        body: JSON.stringify(small),
+        body: JSON.stringify(SMALL_ROOF),
       });
     // 198.51.100.7 spent well over its 20 units (one per 10 ms of engine time) on the heavy roof.
     const spent = await post("198.51.100.7");
@@ -161,16 +153,6 @@ describe("heavy analyses (defect 10)", () => {
 });
 
 describe("small analyses on the request's thread (issue 18, API)", () => {
-  const spec = {
-    outline: [
-      [0, 0],
-      [15, 0],
-      [15, 10],
-      [0, 10],
-    ],
-    outlets: [{ at: [7.5, 0] }],
-    baseFall: "1:60",
-  };
   const post = (body: string, ip: string) =>
     fetch(`${server.url}/api/v1/analyses`, {
       method: "POST",
@@ -199,9 +181,9 @@ describe("small analyses on the request's thread (issue 18, API)", () => {
 
   it("a small roof is analysed on the request's thread, byte for byte as the pool analyses it", async () => {
     const before = await answered("ok");
-    const here = await post(JSON.stringify(spec), "198.51.100.31");
+    const here = await post(JSON.stringify(SMALL_ROOF), "198.51.100.31");
     const afterHere = await answered("ok");
-    const pooled = await post(padded(JSON.stringify(spec)), "198.51.100.32");
+    const pooled = await post(padded(JSON.stringify(SMALL_ROOF)), "198.51.100.32");
     const afterPool = await answered("ok");
     expect(here.status).toBe(200);
     expect(pooled.status).toBe(200);
@@ -212,8 +194,8 @@ describe("small analyses on the request's thread (issue 18, API)", () => {
 
   it("a roof that cannot be built is refused the same way on either thread", async () => {
     const crossed = JSON.stringify({
-      ...spec,
-      outline: [spec.outline[0], spec.outline[2], spec.outline[1], spec.outline[3]],
+      ...SMALL_ROOF,
+      outline: [SMALL_ROOF.outline[0], SMALL_ROOF.outline[2], SMALL_ROOF.outline[1], SMALL_ROOF.outline[3]],
     });
     const before = await answered("refused");
     const here = await post(crossed, "198.51.100.33");
@@ -229,7 +211,7 @@ describe("small analyses on the request's thread (issue 18, API)", () => {
     const r = await fetch(`${server.url}/api/v1/analyses?mesh=true`, {
       method: "POST",
       headers: { "Content-Type": "application/json", "X-Forwarded-For": "198.51.100.35" },
-      body: JSON.stringify(spec),
+      body: JSON.stringify(SMALL_ROOF),
     });
     expect(r.status).toBe(200);
     expect((await r.json()).shaped.mesh).toBeDefined();

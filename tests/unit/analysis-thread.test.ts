@@ -2,18 +2,10 @@ import { describe, expect, it } from "vitest";
 import { analyse, parseRoofSpec, parseSpec, type RoofSpec } from "~/engine";
 import { analysisAnswer } from "~/lib/analysis-answer";
 import { analysedOnRequestThread, ON_REQUEST_THREAD } from "~/lib/analysis-request.server";
-import { REQUEST_THREAD_ROOF } from "../bench/bench";
+import { BENCH_ROOFS, REQUEST_THREAD_ROOF } from "../bench/bench";
 
-const SMALL: RoofSpec = {
-  outline: [
-    [0, 0],
-    [15, 0],
-    [15, 10],
-    [0, 10],
-  ],
-  outlets: [{ at: [7.5, 0] }],
-  baseFall: "1:60",
-};
+// The bench's 15 × 10 m roof with one outlet.
+const SMALL: RoofSpec = BENCH_ROOFS[0].spec;
 const DEFAULT = { mesh: false, traces: false };
 
 /** The gate's answer for a spec sent as compact JSON. */
