@@ -15,6 +15,7 @@
 import { chromium, type Browser, type BrowserContext } from "@playwright/test";
 import config from "../playwright.config.ts";
 import type { BenchRow, Section } from "./bench.ts";
+import { CHROMIUM, ensureChromium } from "../support/chromium.ts";
 import { benchServer, signIn } from "./harness.ts";
 import { longTaskTime, ratio, serverTime, summarise, type LoadTiming, type PageSummary } from "./page-timing.ts";
 
@@ -221,11 +222,9 @@ function phases(s: PageSummary): string {
 export const browserSection: Section = {
   title: `Browser: page loads in chromium, software WebGL (median ms from navigation; ratio to the plain sign-in page)`,
   async run(): Promise<BenchRow[]> {
+    ensureChromium();
     const { server, stop } = await benchServer("fallwright_bench_browser", { API_RATE_LIMIT_PER_MINUTE: "100000000" });
-    const browser = await chromium.launch({
-      executablePath: "/usr/bin/chromium",
-      args: ARGS,
-    });
+    const browser = await chromium.launch({ executablePath: CHROMIUM, args: ARGS });
     try {
       const base = server.url;
       const contexts = {
@@ -264,7 +263,7 @@ export const browserSection: Section = {
         // browser: the follower's page then waited 10–12 s inside its shader calls (the same 11
         // programs, one WebGL context) for the GPU process it shared with the frozen page, against
         // 0.55 s with the presenter in another browser (README, Browser: causes found).
-        const presenterBrowser = await chromium.launch({ executablePath: "/usr/bin/chromium", args: ARGS });
+        const presenterBrowser = await chromium.launch({ executablePath: CHROMIUM, args: ARGS });
         try {
           const presenterContext = await signedInContext(presenterBrowser, base, "trainer@tidemark.example");
           const presenter = await presenterContext.newPage();

@@ -5,7 +5,7 @@
  * Ends with `N passed, N failed` and a non-zero exit on any failure.
  * `npm test -- --only=lint|typecheck|vitest|e2e` runs one stage (the set-up still happens, except for lint).
  */
-import { execFileSync, spawn, spawnSync, type ChildProcess } from "node:child_process";
+import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import fs from "node:fs";
 import path from "node:path";
 import {
@@ -25,6 +25,7 @@ import {
   startFakes,
   waitForPort,
 } from "../../app/dev/services.ts";
+import { ensureChromium } from "./chromium.ts";
 
 const only = process.argv.find((a) => a.startsWith("--only="))?.split("=")[1];
 const profile = PROFILES.test;
@@ -44,17 +45,6 @@ function stage(name: string, cmd: string, args: string[], env: Record<string, st
   log(`── ${name}`);
   const r = spawnSync(cmd, args, { cwd: PROJECT_ROOT, stdio: "inherit", env: { ...process.env, ...env } });
   return r.status ?? 1;
-}
-
-function ensureChromium() {
-  if (fs.existsSync("/usr/bin/chromium")) return;
-  if (process.getuid?.() !== 0) throw new Error("Debian's chromium is missing: sudo apt-get install -y chromium");
-  log("installing Debian's chromium (once)...");
-  execFileSync("apt-get", ["update"], { stdio: "inherit" });
-  execFileSync("apt-get", ["install", "-y", "--no-install-recommends", "chromium", "fonts-dejavu-core"], {
-    stdio: "inherit",
-    env: { ...process.env, DEBIAN_FRONTEND: "noninteractive" },
-  });
 }
 
 async function main() {
