@@ -23,8 +23,12 @@ const LOADS = Math.max(5, Math.floor(Number(process.env.BENCH_BROWSER_LOADS ?? 5
 const PLAIN_MAX_MS = 1000;
 const SANDBOX_MAX_RATIO = 2;
 const LESSON = "outlets-and-overflows";
-// The same chromium flags as the e2e tests (WebGL drawn on the CPU by SwiftShader).
-const ARGS = config.use?.launchOptions?.args ?? [];
+// The same chromium flags as the e2e tests (WebGL drawn on the CPU by SwiftShader), and any in
+// BENCH_BROWSER_ARGS (space-separated, while investigating): README, Browser, compares
+// "--disable-gpu-compositing --disable-gpu-rasterization", as Chrome runs where the GPU is blocklisted.
+const ARGS = [...(config.use?.launchOptions?.args ?? []), ...(process.env.BENCH_BROWSER_ARGS?.split(" ") ?? [])].filter(
+  Boolean,
+);
 
 /**
  * In the page before its scripts: note when it hydrates and first draws, and its long tasks. A
