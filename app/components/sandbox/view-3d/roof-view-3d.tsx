@@ -8,6 +8,7 @@ import { drainCentre, frameKey, useStableFrame } from "./scene-frame";
 import { sectionJoistIndex } from "./section-joist";
 import { sectionPose, ShapedScene } from "./shaped-scene";
 import { useAnimationAllowed } from "./use-animation-allowed";
+import { WaterPaused } from "./water-paused";
 
 function Kick({ on }: { on: boolean }) {
   const invalidate = useThree((s) => s.invalidate);
@@ -44,7 +45,7 @@ export default function RoofView3D({ className = "", resetKey = 0 }: { className
   const spec = useSandbox((s) => s.analysedSpec);
   const view = useSandbox((s) => s.view);
   const wrapper = useRef<HTMLDivElement>(null);
-  const allowed = useAnimationAllowed(wrapper);
+  const { allowed, pausedIdle } = useAnimationAllowed(wrapper);
   const frame = useStableFrame(spec?.outline);
   const joist = analysis ? sectionJoistIndex(analysis.shaped.joists, view.sectionJoist) : -1;
   const section = useMemo(
@@ -53,10 +54,17 @@ export default function RoofView3D({ className = "", resetKey = 0 }: { className
   );
   const height = (analysis?.shaped.highLevel ?? 0) * view.exaggeration;
   const drains = useMemo(() => drainCentre(spec), [spec]);
-  const animate = view.showWater && allowed && view.camera !== "section";
+  const wouldMove = view.showWater && view.camera !== "section";
+  const animate = wouldMove && allowed;
+  const paused = wouldMove && pausedIdle;
 
   return (
-    <div ref={wrapper} className={`relative h-full w-full ${className}`} data-testid="view-3d">
+    <div
+      ref={wrapper}
+      className={`relative h-full w-full ${className}`}
+      data-testid="view-3d"
+      data-water={animate ? "moving" : paused ? "paused" : "still"}
+    >
       <SceneCanvas
         frameloop="demand"
         dpr={[1, 2]}
@@ -83,6 +91,7 @@ export default function RoofView3D({ className = "", resetKey = 0 }: { className
         <Kick on={animate} />
         <DrawnMark analysis={analysis} target={wrapper} />
       </SceneCanvas>
+      {paused && <WaterPaused className="absolute bottom-2 left-2 max-w-[calc(100%-1rem)]" />}
     </div>
   );
 }

@@ -10,6 +10,7 @@ import {
   type ReactNode,
 } from "react";
 import { getConsoleFunction, setConsoleFunction } from "three";
+import { noteRenderer } from "./cpu-drawing";
 import * as SCENE_ELEMENTS from "./scene-elements";
 
 // Only the elements the scenes use: the library's own <Canvas> registers the whole THREE
@@ -73,6 +74,7 @@ function CanvasRoot({ children, camera, dpr, frameloop, gl, onCreated, style, ..
     const created: typeof onCreated = (state) => {
       // Pointer events (and HTML labels) attach to the wrapper, as with the library's own canvas.
       state.events.connect?.(outer.current!);
+      noteRenderer(state.gl.getContext());
       onCreated?.(state);
     };
     root.current

@@ -11,6 +11,7 @@ import { LayoutScene } from "./layout-scene";
 import { drainCentre, frameKey, useStableFrame, type SceneFrame } from "./scene-frame";
 import { ShapedScene } from "./shaped-scene";
 import { useAnimationAllowed } from "./use-animation-allowed";
+import { WaterPaused } from "./water-paused";
 
 function Panel({
   title,
@@ -87,7 +88,7 @@ export default function SideBySide({ resetKey = 0 }: { resetKey?: number }) {
   const spec = useSandbox((s) => s.analysedSpec);
   const view = useSandbox((s) => s.view);
   const wrapper = useRef<HTMLDivElement>(null);
-  const allowed = useAnimationAllowed(wrapper);
+  const { allowed, pausedIdle } = useAnimationAllowed(wrapper);
   const link = useMemo(() => new CameraLink(), []);
   const frame = useStableFrame(spec?.outline);
   if (!analysis || !spec)
@@ -97,7 +98,13 @@ export default function SideBySide({ resetKey = 0 }: { resetKey?: number }) {
   const key = `${frameKey(frame)}|${resetKey}`;
   const drains = drainCentre(spec);
   return (
-    <div ref={wrapper} className="grid gap-3 md:grid-cols-3" data-testid="side-by-side">
+    <div
+      ref={wrapper}
+      className="grid gap-3 md:grid-cols-3"
+      data-testid="side-by-side"
+      data-water={view.showWater && allowed ? "moving" : view.showWater && pausedIdle ? "paused" : "still"}
+    >
+      {view.showWater && pausedIdle && <WaterPaused className="md:col-span-3" />}
       <Panel title="Shaped roof" figure={`H ${mm(analysis.shaped.highLevel)}`} testId="panel-shaped">
         <View
           label="Shaped roof in 3D"

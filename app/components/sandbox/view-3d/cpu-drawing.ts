@@ -1,0 +1,74 @@
+/**
+ * Whether this page's 3D views are drawn on the CPU (software WebGL: SwiftShader, llvmpipe and the
+ * like, as on a laptop without a graphics driver), and when its reader last touched it. On such a
+ * machine each frame of the water animation takes 70–150 ms of a core, so the animation stops
+ * after WATER_IDLE_MS without input and starts again at the next (use-animation-allowed.ts).
+ */
+
+/** No pointer, key, wheel or touch input on the page for this long pauses the water on a CPU-drawn view. */
+export const WATER_IDLE_MS = 30_000;
+
+const SOFTWARE = /swiftshader|llvmpipe|softpipe|software|basic render/i;
+
+/** The renderer's name names a software rasteriser (UNMASKED_RENDERER_WEBGL where the browser gives it). */
+export function drawnOnCpu(gl: Pick<WebGLRenderingContext, "getExtension" | "getParameter" | "RENDERER">): boolean {
+  const info = gl.getExtension("WEBGL_debug_renderer_info") as { UNMASKED_RENDERER_WEBGL: number } | null;
+  const name: unknown = gl.getParameter(info ? info.UNMASKED_RENDERER_WEBGL : gl.RENDERER);
+  return typeof name === "string" && SOFTWARE.test(name);
+}
+
+let cpu = false;
+const listeners = new Set<() => void>();
+
+/** Called by each 3D view once its WebGL context exists; every view of a page shares the answer. */
+export function noteRenderer(gl: Parameters<typeof drawnOnCpu>[0]): void {
+  const next = drawnOnCpu(gl);
+  if (next === cpu) return;
+  cpu = next;
+  for (const listener of listeners) listener();
+}
+
+export const cpuDrawing = {
+  get: () => cpu,
+  subscribe(listener: () => void) {
+    listeners.add(listener);
+    return () => listeners.delete(listener);
+  },
+};
+
+const INPUT = ["pointermove", "pointerdown", "keydown", "wheel", "touchstart"] as const;
+
+/**
+ * Calls `onIdle(true)` once `target` has had no input for `ms`, and `onIdle(false)` at the next
+ * input after that. One timer at a time: input only notes its time, and the timer, when it fires,
+ * waits out whatever is left. Returns the function that stops watching.
+ */
+export function watchIdle(target: EventTarget, ms: number, onIdle: (idle: boolean) => void): () => void {
+  let last = Date.now();
+  let idle = false;
+  let timer: ReturnType<typeof setTimeout> | null = null;
+  const check = () => {
+    const left = last + ms - Date.now();
+    if (left > 0) {
+      timer = setTimeout(check, left);
+      return;
+    }
+    timer = null;
+    idle = true;
+    onIdle(true);
+  };
+  const input = () => {
+    last = Date.now();
+    if (idle) {
+      idle = false;
+      onIdle(false);
+    }
+    timer ??= setTimeout(check, ms);
+  };
+  for (const type of INPUT) target.addEventListener(type, input, { passive: true });
+  timer = setTimeout(check, ms);
+  return () => {
+    for (const type of INPUT) target.removeEventListener(type, input);
+    if (timer) clearTimeout(timer);
+  };
+}

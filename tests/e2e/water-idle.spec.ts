@@ -1,0 +1,48 @@
+import { expect, test, type Page } from "@playwright/test";
+
+// Chromium here draws WebGL on the CPU (SwiftShader, tests/playwright.config.ts), as a laptop
+// without a graphics driver does; there each frame of the water animation costs a core, so the
+// sandbox rests the water after 30 s without input (app/components/sandbox/view-3d/cpu-drawing.ts).
+// The page's clock is Playwright's, so the 30 s pass at once.
+
+/** Counts draw calls in every WebGL context of the page, before its scripts run. */
+const COUNT_DRAWS = `(() => {
+  window.__draws = 0;
+  for (const proto of [WebGL2RenderingContext.prototype, WebGLRenderingContext.prototype]) {
+    for (const name of ["drawElements", "drawArrays", "drawElementsInstanced", "drawArraysInstanced"]) {
+      const f = proto[name];
+      if (typeof f === "function") proto[name] = function (...args) { window.__draws++; return f.apply(this, args); };
+    }
+  }
+})();`;
+
+const draws = (page: Page) => page.evaluate(() => (window as unknown as { __draws: number }).__draws);
+
+test("sandbox drawn on the CPU: the water rests after 30 s without input, says so, and moves again at the next input", async ({
+  page,
+}) => {
+  await page.addInitScript({ content: COUNT_DRAWS });
+  await page.clock.install();
+  await page.goto("/sandbox");
+  const view = page.getByTestId("view-3d");
+  await expect(view).toHaveAttribute("data-drawn", /^\d+$/, { timeout: 60_000 });
+  await expect(view).toHaveAttribute("data-water", "moving");
+  await expect(page.getByTestId("water-paused")).toHaveCount(0);
+  // Moving water draws frame after frame.
+  const before = await draws(page);
+  await expect.poll(() => draws(page), { timeout: 10_000 }).toBeGreaterThan(before + 2);
+
+  await page.clock.fastForward("00:31");
+  await expect(view).toHaveAttribute("data-water", "paused");
+  await expect(page.getByTestId("water-paused")).toContainText("press a key to restart it");
+  // Resting water draws nothing more (a frame already asked for may still come).
+  await page.waitForTimeout(500);
+  const rested = await draws(page);
+  await page.waitForTimeout(1500);
+  expect(await draws(page)).toBe(rested);
+
+  await page.mouse.move(300, 300);
+  await expect(view).toHaveAttribute("data-water", "moving");
+  await expect(page.getByTestId("water-paused")).toHaveCount(0);
+  await expect.poll(() => draws(page), { timeout: 10_000 }).toBeGreaterThan(rested + 2);
+});

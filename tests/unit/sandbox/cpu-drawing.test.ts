@@ -1,0 +1,77 @@
+import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
+import { drawnOnCpu, watchIdle } from "~/components/sandbox/view-3d/cpu-drawing";
+
+/** A WebGL context that answers only what drawnOnCpu asks. */
+function gl(renderer: string, masked = true) {
+  const UNMASKED_RENDERER_WEBGL = 0x9246;
+  const RENDERER = 0x1f01;
+  return {
+    RENDERER,
+    getExtension: (name: string) =>
+      masked && name === "WEBGL_debug_renderer_info" ? { UNMASKED_RENDERER_WEBGL } : null,
+    getParameter: (p: number) =>
+      p === UNMASKED_RENDERER_WEBGL || (!masked && p === RENDERER) ? renderer : "WebKit WebGL",
+  } as unknown as WebGLRenderingContext;
+}
+
+describe("drawnOnCpu", () => {
+  it("knows software rasterisers by the renderer's name", () => {
+    // Names as chromium and Firefox report them (from memory of their about:gpu pages).
+    expect(
+      drawnOnCpu(gl("ANGLE (Google, Vulkan 1.3.0 (SwiftShader Device (Subzero) (0x0000C0DE)), SwiftShader driver)")),
+    ).toBe(true);
+    expect(drawnOnCpu(gl("llvmpipe (LLVM 15.0.6, 256 bits)"))).toBe(true);
+    expect(drawnOnCpu(gl("ANGLE (Microsoft, Microsoft Basic Render Driver Direct3D11 vs_5_0 ps_5_0)"))).toBe(true);
+    expect(drawnOnCpu(gl("ANGLE (Intel, Mesa Intel(R) UHD Graphics 620 (KBL GT2), OpenGL 4.6)"))).toBe(false);
+    expect(drawnOnCpu(gl("Apple M2"))).toBe(false);
+  });
+
+  it("falls back to RENDERER where the unmasked name is withheld", () => {
+    expect(drawnOnCpu(gl("llvmpipe", false))).toBe(true);
+    expect(drawnOnCpu(gl("Mali-G78", false))).toBe(false);
+  });
+});
+
+describe("watchIdle", () => {
+  beforeEach(() => vi.useFakeTimers());
+  afterEach(() => vi.useRealTimers());
+
+  it("reports idle after the quiet time, and not idle at the next input", () => {
+    const target = new EventTarget();
+    const seen: boolean[] = [];
+    const stop = watchIdle(target, 1000, (idle) => seen.push(idle));
+    vi.advanceTimersByTime(999);
+    expect(seen).toEqual([]);
+    vi.advanceTimersByTime(1);
+    expect(seen).toEqual([true]);
+    target.dispatchEvent(new Event("pointermove"));
+    expect(seen).toEqual([true, false]);
+    vi.advanceTimersByTime(1000);
+    expect(seen).toEqual([true, false, true]);
+    stop();
+  });
+
+  it("counts the quiet time from the last input, whatever kind", () => {
+    const target = new EventTarget();
+    const seen: boolean[] = [];
+    const stop = watchIdle(target, 1000, (idle) => seen.push(idle));
+    for (const type of ["pointermove", "pointerdown", "keydown", "wheel", "touchstart"]) {
+      vi.advanceTimersByTime(800);
+      target.dispatchEvent(new Event(type));
+    }
+    vi.advanceTimersByTime(999);
+    expect(seen).toEqual([]);
+    vi.advanceTimersByTime(1);
+    expect(seen).toEqual([true]);
+    stop();
+  });
+
+  it("stops watching when asked", () => {
+    const target = new EventTarget();
+    const seen: boolean[] = [];
+    watchIdle(target, 1000, (idle) => seen.push(idle))();
+    vi.advanceTimersByTime(5000);
+    target.dispatchEvent(new Event("keydown"));
+    expect(seen).toEqual([]);
+  });
+});
