@@ -46,3 +46,28 @@ test("sandbox drawn on the CPU: the water rests after 30 s without input, says s
   await expect(page.getByTestId("water-paused")).toHaveCount(0);
   await expect.poll(() => draws(page), { timeout: 10_000 }).toBeGreaterThan(rested + 2);
 });
+
+test("side-by-side drawn on the CPU: the shaped roof's water rests too, its note over the shaped view so the panels keep their size", async ({
+  page,
+}) => {
+  // Three views drawn on the CPU at once.
+  test.setTimeout(150_000);
+  await page.clock.install();
+  await page.goto("/sandbox");
+  await expect(page.getByTestId("view-3d")).toHaveAttribute("data-drawn", /^\d+$/, { timeout: 60_000 });
+  await page.getByRole("button", { name: "Side-by-side" }).click();
+  const views = page.getByTestId("side-by-side");
+  await expect(views).toHaveAttribute("data-water", "moving", { timeout: 60_000 });
+  await views.scrollIntoViewIfNeeded();
+  const shaped = page.getByTestId("panel-shaped");
+  const before = await shaped.boundingBox();
+
+  await page.clock.fastForward("00:31");
+  await expect(views).toHaveAttribute("data-water", "paused");
+  await expect(shaped.getByTestId("water-paused")).toBeVisible();
+  expect(await shaped.boundingBox()).toEqual(before);
+
+  await page.keyboard.press("Shift");
+  await expect(views).toHaveAttribute("data-water", "moving");
+  await expect(page.getByTestId("water-paused")).toHaveCount(0);
+});

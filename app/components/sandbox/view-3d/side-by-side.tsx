@@ -18,11 +18,14 @@ function Panel({
   figure,
   children,
   testId,
+  note,
 }: {
   title: string;
   figure: string;
   children: React.ReactNode;
   testId: string;
+  /** Shown over the view's lower edge, so the panel keeps its size when it comes and goes. */
+  note?: React.ReactNode;
 }) {
   return (
     <figure className="flex min-w-0 flex-col overflow-hidden rounded border border-rule bg-sheet" data-testid={testId}>
@@ -30,7 +33,10 @@ function Panel({
         <span className="text-sm font-bold">{title}</span>
         <span className="text-sm tabular-nums text-ink-soft">{figure}</span>
       </figcaption>
-      <div className="h-64 md:h-56 lg:h-80">{children}</div>
+      <div className="relative h-64 md:h-56 lg:h-80">
+        {children}
+        {note}
+      </div>
     </figure>
   );
 }
@@ -104,8 +110,12 @@ export default function SideBySide({ resetKey = 0 }: { resetKey?: number }) {
       data-testid="side-by-side"
       data-water={view.showWater && allowed ? "moving" : view.showWater && pausedIdle ? "paused" : "still"}
     >
-      {view.showWater && pausedIdle && <WaterPaused className="md:col-span-3" />}
-      <Panel title="Shaped roof" figure={`H ${mm(analysis.shaped.highLevel)}`} testId="panel-shaped">
+      <Panel
+        title="Shaped roof"
+        figure={`H ${mm(analysis.shaped.highLevel)}`}
+        testId="panel-shaped"
+        note={view.showWater && pausedIdle && <WaterPaused className="absolute right-2 bottom-2 left-2" />}
+      >
         <View
           label="Shaped roof in 3D"
           frame={frame}
