@@ -39,6 +39,28 @@ export async function readStreamCapped(
   return out;
 }
 
+/**
+ * A body the input guard has already read and parsed, left on the Request it hands the route
+ * (app/server/input-guard.ts), so the route's reader (readJsonBody, readBodyCapped) takes it from
+ * there instead of reading and parsing the same bytes a second time. The key is a registered
+ * symbol because the host and the server build each load their own copy of this file.
+ */
+const READ_BODY = Symbol.for("fallwright.read-body");
+
+export interface ReadBody {
+  bytes: Uint8Array;
+  /** The bytes parsed as JSON the strict way (parseJsonBytes), when they were sent as JSON. */
+  json?: { ok: true; value: unknown } | { ok: false };
+}
+
+export function rememberBody(request: Request, read: ReadBody): void {
+  Object.defineProperty(request, READ_BODY, { value: read });
+}
+
+export function rememberedBody(request: Request): ReadBody | undefined {
+  return (request as unknown as Record<symbol, ReadBody | undefined>)[READ_BODY];
+}
+
 // Decoding without the stream option keeps no state between calls, so one decoder of each kind serves all.
 const STRICT = new TextDecoder("utf-8", { fatal: true });
 const LENIENT = new TextDecoder("utf-8");

@@ -4,7 +4,7 @@
  * bodies capped before they are parsed (413), 401 rather than a redirect when signed out.
  */
 import { requireApiUser, type SessionUser } from "~/lib/auth.server";
-import { parseJsonBytes, readStreamCapped } from "~/lib/body";
+import { parseJsonBytes, readStreamCapped, rememberedBody } from "~/lib/body";
 import { can, type Permission } from "~/lib/permissions";
 
 export interface ApiIssue {
@@ -23,6 +23,8 @@ const DRAIN_LIMIT = 16 * 1024 * 1024;
 export async function readBodyCapped(request: Request, limit: number): Promise<Uint8Array | null> {
   const declared = Number(request.headers.get("content-length") ?? "0");
   if (declared > limit) return null;
+  const read = rememberedBody(request);
+  if (read) return read.bytes.byteLength > limit ? null : read.bytes;
   if (!request.body) return new Uint8Array(0);
   return readStreamCapped(request.body, limit, DRAIN_LIMIT);
 }
@@ -37,7 +39,8 @@ export async function readJsonBody(request: Request, limit: number): Promise<Jso
   }
   const bytes = await readBodyCapped(request, limit);
   if (!bytes) return { ok: false, response: jsonError(413, `The body is over ${Math.round(limit / 1024)} kB.`) };
-  const json = parseJsonBytes(bytes);
+  // The input guard has usually parsed it already (rememberBody).
+  const json = rememberedBody(request)?.json ?? parseJsonBytes(bytes);
   if (json.ok) return { ok: true, value: json.value, bytes: bytes.byteLength };
   return {
     ok: false,

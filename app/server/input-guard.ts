@@ -8,7 +8,7 @@
  * so a new route is covered without remembering to call anything.
  */
 import type { ServerBuild } from "react-router";
-import { parseJsonBytes, readStreamCapped } from "../lib/body.ts";
+import { parseJsonBytes, readStreamCapped, rememberBody } from "../lib/body.ts";
 import { ID_FIELDS, isUuid, jsonProblem, textProblem, type InputProblem } from "../lib/input.ts";
 
 type DataFn = (args: { request: Request; params: Record<string, string | undefined>; context: unknown }) => unknown;
@@ -74,10 +74,15 @@ async function bodyProblem(
     signal: request.signal,
   });
   if (JSON_TYPE.test(type)) {
-    const json = parseJsonBytes(bytes, "lenient");
+    // Parsed once, the strict way the API reads it, and handed to the route with the bytes; only
+    // bytes that are not UTF-8 are parsed again, leniently, to check what a lenient reader would see.
+    const strict = parseJsonBytes(bytes);
+    rememberBody(copy, { bytes, json: strict });
+    const json = strict.ok ? strict : parseJsonBytes(bytes, "lenient");
     // Not JSON: the route answers "not valid JSON".
     return { request: copy, problem: json.ok ? jsonProblem(json.value) : null };
   }
+  rememberBody(copy, { bytes });
   let form: FormData;
   try {
     form = await new Response(bytes as Uint8Array<ArrayBuffer>, { headers: { "Content-Type": type } }).formData();
