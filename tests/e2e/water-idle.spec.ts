@@ -71,3 +71,45 @@ test("side-by-side drawn on the CPU: the shaped roof's water rests too, its note
   await expect(views).toHaveAttribute("data-water", "moving");
   await expect(page.getByTestId("water-paused")).toHaveCount(0);
 });
+
+/** Calls to clear() in every WebGL context of the page: three.js clears once per frame it draws. */
+const COUNT_FRAMES = `(() => {
+  window.__frames = 0;
+  for (const proto of [WebGL2RenderingContext.prototype, WebGLRenderingContext.prototype]) {
+    const f = proto.clear;
+    proto.clear = function (...args) { window.__frames++; return f.apply(this, args); };
+  }
+})();`;
+
+const frames = (page: Page) => page.evaluate(() => (window as unknown as { __frames: number }).__frames);
+const antialiased = (page: Page) =>
+  page
+    .getByTestId("view-3d")
+    .locator("canvas")
+    .evaluate((c: HTMLCanvasElement) => c.getContext("webgl2")?.getContextAttributes()?.antialias ?? null);
+
+test("drawn on the CPU: the next 3D view is made without multisampling, and the moving water asks for at most 8 frames a second", async ({
+  page,
+}) => {
+  await page.addInitScript({ content: COUNT_FRAMES });
+  await page.goto("/sandbox");
+  const view = page.getByTestId("view-3d");
+  await expect(view).toHaveAttribute("data-drawn", /^\d+$/, { timeout: 60_000 });
+  // The first 3D view in this browser cannot know its renderer before its context is made.
+  expect(await antialiased(page)).toBe(true);
+  expect(await page.evaluate(() => localStorage.getItem("fallwright:3d-drawn-on-cpu"))).toBe("1");
+
+  await page.reload();
+  await expect(view).toHaveAttribute("data-drawn", /^\d+$/, { timeout: 60_000 });
+  expect(await antialiased(page)).toBe(false);
+  await expect(view).toHaveAttribute("data-water", "moving");
+  // Input away from the view keeps the water awake without moving the camera; real time, 3 s.
+  await page.mouse.move(5, 5);
+  const before = await frames(page);
+  const started = Date.now();
+  await page.waitForTimeout(3000);
+  const drawn = (await frames(page)) - before;
+  const seconds = (Date.now() - started) / 1000;
+  expect(drawn).toBeGreaterThanOrEqual(2); // it still moves
+  expect(drawn / seconds).toBeLessThanOrEqual(8 + 1); // one frame of slack for the window's edges
+});

@@ -1,5 +1,12 @@
 import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
-import { drawnOnCpu, watchIdle } from "~/components/sandbox/view-3d/cpu-drawing";
+import {
+  drawnOnCpu,
+  noteRenderer,
+  ON_CPU_KEY,
+  rememberedOnCpu,
+  sceneGlOptions,
+  watchIdle,
+} from "~/components/sandbox/view-3d/cpu-drawing";
 
 /** A WebGL context that answers only what drawnOnCpu asks. */
 function gl(renderer: string, masked = true) {
@@ -73,5 +80,45 @@ describe("watchIdle", () => {
     vi.advanceTimersByTime(5000);
     target.dispatchEvent(new Event("keydown"));
     expect(seen).toEqual([]);
+  });
+});
+
+describe("the next view's WebGL options, from what the last view found", () => {
+  /** A localStorage of its own for each test. */
+  function stubStorage(refuse = false) {
+    const kept = new Map<string, string>();
+    vi.stubGlobal("localStorage", {
+      getItem: (k: string) => kept.get(k) ?? null,
+      setItem: (k: string, v: string) => {
+        if (refuse) throw new DOMException("refused", "SecurityError");
+        kept.set(k, v);
+      },
+    });
+    return kept;
+  }
+  afterEach(() => vi.unstubAllGlobals());
+
+  it("a browser that has shown no 3D yet gets antialiased views", () => {
+    stubStorage();
+    expect(rememberedOnCpu()).toBe(false);
+    expect(sceneGlOptions()).toEqual({ preserveDrawingBuffer: true, antialias: true });
+  });
+
+  it("after a view drawn on the CPU, the next is made without multisampling; after a graphics card, with it", () => {
+    const kept = stubStorage();
+    noteRenderer(gl("ANGLE (Google, Vulkan 1.3.0 (SwiftShader Device (Subzero)), SwiftShader driver)"));
+    expect(kept.get(ON_CPU_KEY)).toBe("1");
+    expect(sceneGlOptions().antialias).toBe(false);
+    noteRenderer(gl("ANGLE (Intel, Mesa Intel(R) UHD Graphics 620 (KBL GT2), OpenGL 4.6)"));
+    expect(kept.get(ON_CPU_KEY)).toBe("0");
+    expect(sceneGlOptions().antialias).toBe(true);
+  });
+
+  it("storage that refuses or is missing leaves every view antialiased, without an error", () => {
+    stubStorage(true);
+    expect(() => noteRenderer(gl("llvmpipe (LLVM 15.0.6, 256 bits)"))).not.toThrow();
+    expect(sceneGlOptions().antialias).toBe(true);
+    vi.stubGlobal("localStorage", undefined);
+    expect(rememberedOnCpu()).toBe(false);
   });
 });

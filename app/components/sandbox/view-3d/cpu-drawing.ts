@@ -17,12 +17,54 @@ export function drawnOnCpu(gl: Pick<WebGLRenderingContext, "getExtension" | "get
   return typeof name === "string" && SOFTWARE.test(name);
 }
 
+/**
+ * Frames a second the moving water asks for where the 3D is drawn on the CPU. There a frame of the
+ * sandbox costs SwiftShader's GPU process about 0.1 s of CPU without multisampling and 0.3 s with
+ * it, so uncapped the water kept both of this machine's cores busy (README, Performance).
+ */
+export const WATER_CPU_FPS = 8;
+
+/** Where this browser keeps what its last 3D view found (see rememberedOnCpu). */
+export const ON_CPU_KEY = "fallwright:3d-drawn-on-cpu";
+
+function storage(): Storage | null {
+  try {
+    return typeof localStorage === "undefined" ? null : localStorage;
+  } catch {
+    return null; // storage refused (privacy settings): every view is made as on a graphics card
+  }
+}
+
+/**
+ * Whether the last 3D view in this browser was drawn on the CPU. A WebGL context's antialiasing is
+ * fixed when it is made, before its renderer can be asked, so the next view's context is made
+ * without multisampling from what the last one found: on a CPU renderer that frame costs about a
+ * third as much. The first 3D view a browser shows is always made with it.
+ */
+export function rememberedOnCpu(): boolean {
+  try {
+    return storage()?.getItem(ON_CPU_KEY) === "1";
+  } catch {
+    return false;
+  }
+}
+
+/** The WebGL options of every 3D view: antialiased unless this browser draws 3D on the CPU (rememberedOnCpu). */
+export function sceneGlOptions(): { preserveDrawingBuffer: true; antialias: boolean } {
+  return { preserveDrawingBuffer: true, antialias: !rememberedOnCpu() };
+}
+
 let cpu = false;
 const listeners = new Set<() => void>();
 
 /** Called by each 3D view once its WebGL context exists; every view of a page shares the answer. */
 export function noteRenderer(gl: Parameters<typeof drawnOnCpu>[0]): void {
   const next = drawnOnCpu(gl);
+  try {
+    storage()?.setItem(ON_CPU_KEY, next ? "1" : "0");
+  } catch {
+    // full or refused: the next view is antialiased, as the first
+  }
   if (next === cpu) return;
   cpu = next;
   for (const listener of listeners) listener();

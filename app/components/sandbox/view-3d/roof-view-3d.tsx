@@ -1,9 +1,10 @@
 import { useFrame, useThree } from "@react-three/fiber";
 import { SceneCanvas } from "./scene-canvas";
-import { useEffect, useLayoutEffect, useMemo, useRef, type RefObject } from "react";
+import { useEffect, useLayoutEffect, useMemo, useRef, useState, type RefObject } from "react";
 import type { Analysis } from "~/engine";
 import { useSandbox } from "../state/store";
 import { CameraRig } from "./camera-rig";
+import { sceneGlOptions } from "./cpu-drawing";
 import { drainCentre, frameKey, useStableFrame } from "./scene-frame";
 import { sectionJoistIndex } from "./section-joist";
 import { sectionPose, ShapedScene } from "./shaped-scene";
@@ -45,6 +46,7 @@ export default function RoofView3D({ className = "", resetKey = 0 }: { className
   const spec = useSandbox((s) => s.analysedSpec);
   const view = useSandbox((s) => s.view);
   const wrapper = useRef<HTMLDivElement>(null);
+  const [gl] = useState(sceneGlOptions);
   const { allowed, pausedIdle } = useAnimationAllowed(wrapper);
   const frame = useStableFrame(spec?.outline);
   const joist = analysis ? sectionJoistIndex(analysis.shaped.joists, view.sectionJoist) : -1;
@@ -68,7 +70,7 @@ export default function RoofView3D({ className = "", resetKey = 0 }: { className
       <SceneCanvas
         frameloop="demand"
         dpr={[1, 2]}
-        gl={{ preserveDrawingBuffer: true, antialias: true }}
+        gl={gl}
         camera={{ fov: 35, near: 0.05, far: 20000, position: [10, 10, 10] }}
         onCreated={({ gl }) => {
           gl.localClippingEnabled = true;

@@ -1,5 +1,5 @@
 import { SceneCanvas } from "./scene-canvas";
-import { useMemo, useRef } from "react";
+import { useMemo, useRef, useState } from "react";
 import type { Analysis, RoofSpec } from "~/engine";
 import { useFormat } from "../format";
 import { gutterSurface, openEdgeKinds, openEdgeSurface } from "./layout-scenes";
@@ -7,6 +7,7 @@ import { edgeKindsOf } from "../state/spec-edit";
 import { useSandbox } from "../state/store";
 import { CameraLink } from "./camera-link";
 import { CameraRig } from "./camera-rig";
+import { sceneGlOptions } from "./cpu-drawing";
 import { LayoutScene } from "./layout-scene";
 import { drainCentre, frameKey, useStableFrame, type SceneFrame } from "./scene-frame";
 import { ShapedScene } from "./shaped-scene";
@@ -60,11 +61,12 @@ function View({
   preset: "orbit" | "plan";
   resetKey: string;
 }) {
+  const [gl] = useState(sceneGlOptions);
   return (
     <SceneCanvas
       frameloop="demand"
       dpr={[1, 2]}
-      gl={{ preserveDrawingBuffer: true, antialias: true }}
+      gl={gl}
       camera={{ fov: 35, near: 0.05, far: 20000, position: [10, 10, 10] }}
       aria-label={label}
       role="img"

@@ -1,9 +1,10 @@
 import { useFrame } from "@react-three/fiber";
-import { useEffect, useMemo, useRef } from "react";
+import { useEffect, useMemo, useRef, useSyncExternalStore } from "react";
 import * as THREE from "three";
 import { mergeGeometries } from "three/examples/jsm/utils/BufferGeometryUtils.js";
 import type { FlowTraces } from "~/engine";
 import { WATER_DARK, WATER_LIGHT } from "~/lib/fall-colour";
+import { cpuDrawing, WATER_CPU_FPS } from "./cpu-drawing";
 import type { SceneFrame } from "./scene-frame";
 
 const MAX_PARTICLES = 600;
@@ -169,10 +170,22 @@ export function WaterPaths({
     m.instanceMatrix.needsUpdate = true;
   }, [drops, exaggeration, tracks]);
 
+  // Drawn on the CPU, the water asks for WATER_CPU_FPS frames a second, not every display frame.
+  const onCpu = useSyncExternalStore(cpuDrawing.subscribe, cpuDrawing.get, () => false);
+  const nextFrame = useRef<ReturnType<typeof setTimeout> | null>(null);
+  useEffect(
+    () => () => {
+      if (nextFrame.current) clearTimeout(nextFrame.current);
+      nextFrame.current = null;
+    },
+    [],
+  );
+
   useFrame((state, delta) => {
     const m = mesh.current;
     if (!animate || !m || drops.track.length === 0) return;
-    const dt = Math.min(delta, 0.05);
+    // A long gap (a busy machine, a hidden tab) moves the drops at most this far at once.
+    const dt = Math.min(delta, onCpu ? 2 / WATER_CPU_FPS : 0.05);
     for (let i = 0; i < drops.track.length; i++) {
       const t = tracks[drops.track[i]];
       const seg = drops.segment[i];
@@ -184,7 +197,12 @@ export function WaterPaths({
       placeDrop(m, tracks, drops, i, exaggeration);
     }
     m.instanceMatrix.needsUpdate = true;
-    state.invalidate();
+    if (!onCpu) state.invalidate();
+    else
+      nextFrame.current ??= setTimeout(() => {
+        nextFrame.current = null;
+        state.invalidate();
+      }, 1000 / WATER_CPU_FPS);
   });
 
   return (
