@@ -47,7 +47,7 @@ export default function RoofView3D({ className = "", resetKey = 0 }: { className
   const view = useSandbox((s) => s.view);
   const wrapper = useRef<HTMLDivElement>(null);
   const [gl] = useState(sceneGlOptions);
-  const { allowed, pausedIdle } = useAnimationAllowed(wrapper);
+  const { animate, paused, water } = useAnimationAllowed(wrapper, view.showWater && view.camera !== "section");
   const frame = useStableFrame(spec?.outline);
   const joist = analysis ? sectionJoistIndex(analysis.shaped.joists, view.sectionJoist) : -1;
   const section = useMemo(
@@ -56,17 +56,9 @@ export default function RoofView3D({ className = "", resetKey = 0 }: { className
   );
   const height = (analysis?.shaped.highLevel ?? 0) * view.exaggeration;
   const drains = useMemo(() => drainCentre(spec), [spec]);
-  const wouldMove = view.showWater && view.camera !== "section";
-  const animate = wouldMove && allowed;
-  const paused = wouldMove && pausedIdle;
 
   return (
-    <div
-      ref={wrapper}
-      className={`relative h-full w-full ${className}`}
-      data-testid="view-3d"
-      data-water={animate ? "moving" : paused ? "paused" : "still"}
-    >
+    <div ref={wrapper} className={`relative h-full w-full ${className}`} data-testid="view-3d" data-water={water}>
       <SceneCanvas
         frameloop="demand"
         dpr={[1, 2]}

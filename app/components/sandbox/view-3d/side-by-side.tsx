@@ -96,7 +96,7 @@ export default function SideBySide({ resetKey = 0 }: { resetKey?: number }) {
   const spec = useSandbox((s) => s.analysedSpec);
   const view = useSandbox((s) => s.view);
   const wrapper = useRef<HTMLDivElement>(null);
-  const { allowed, pausedIdle } = useAnimationAllowed(wrapper);
+  const { animate, paused, water } = useAnimationAllowed(wrapper, view.showWater);
   const link = useMemo(() => new CameraLink(), []);
   const frame = useStableFrame(spec?.outline);
   if (!analysis || !spec)
@@ -106,17 +106,12 @@ export default function SideBySide({ resetKey = 0 }: { resetKey?: number }) {
   const key = `${frameKey(frame)}|${resetKey}`;
   const drains = drainCentre(spec);
   return (
-    <div
-      ref={wrapper}
-      className="grid gap-3 md:grid-cols-3"
-      data-testid="side-by-side"
-      data-water={view.showWater && allowed ? "moving" : view.showWater && pausedIdle ? "paused" : "still"}
-    >
+    <div ref={wrapper} className="grid gap-3 md:grid-cols-3" data-testid="side-by-side" data-water={water}>
       <Panel
         title="Shaped roof"
         figure={`H ${mm(analysis.shaped.highLevel)}`}
         testId="panel-shaped"
-        note={view.showWater && pausedIdle && <WaterPaused className="absolute right-2 bottom-2 left-2" />}
+        note={paused && <WaterPaused className="absolute right-2 bottom-2 left-2" />}
       >
         <View
           label="Shaped roof in 3D"
@@ -132,7 +127,7 @@ export default function SideBySide({ resetKey = 0 }: { resetKey?: number }) {
             spec={spec}
             frame={frame}
             view={{ ...view, camera: "orbit" }}
-            animate={view.showWater && allowed}
+            animate={animate}
             section={null}
           />
         </View>

@@ -2,17 +2,20 @@ import { useEffect, useState, useSyncExternalStore, type RefObject } from "react
 import { cpuDrawing, WATER_IDLE_MS, watchIdle } from "./cpu-drawing";
 
 export interface AnimationState {
-  /** The water may move now. */
-  allowed: boolean;
+  /** The water moves now. */
+  animate: boolean;
   /** It would, but is paused because the page's 3D is drawn on the CPU and nobody has touched it for a while. */
-  pausedIdle: boolean;
+  paused: boolean;
+  /** The same for the view's `data-water` attribute (tests and anyone timing the view read it). */
+  water: "moving" | "paused" | "still";
 }
 
 /**
- * Animate only while the view is on screen, the reader has not asked for reduced motion and, where
- * the 3D is drawn on the CPU, someone has used the page in the last WATER_IDLE_MS.
+ * The water of a view that `wouldMove` (shown, and not in a section) moves only while the view is
+ * on screen, the reader has not asked for reduced motion and, where the 3D is drawn on the CPU,
+ * someone has used the page in the last WATER_IDLE_MS.
  */
-export function useAnimationAllowed(ref: RefObject<HTMLElement | null>): AnimationState {
+export function useAnimationAllowed(ref: RefObject<HTMLElement | null>, wouldMove: boolean): AnimationState {
   const [visible, setVisible] = useState(true);
   const [calm, setCalm] = useState(false);
   const [idle, setIdle] = useState(false);
@@ -40,6 +43,8 @@ export function useAnimationAllowed(ref: RefObject<HTMLElement | null>): Animati
       setIdle(false);
     };
   }, [cpu]);
-  const other = visible && !calm;
-  return { allowed: other && !idle, pausedIdle: other && idle };
+  const may = wouldMove && visible && !calm;
+  const animate = may && !idle;
+  const paused = may && idle;
+  return { animate, paused, water: animate ? "moving" : paused ? "paused" : "still" };
 }
