@@ -100,18 +100,22 @@ export class BodyTooLarge extends Error {
 
 /**
  * Caps every request body by its path. A body that announces more (Content-Length) is refused
- * before anything reads it; a body without a length (chunked) or that lies about it is counted
- * as it streams in, and the moment it passes the cap the client gets 413, the app's reader gets
- * an error and the rest of the body is thrown away unread. The app reads `res.locals.body`
- * (handed to React Router by `withCountedBody`), never the raw request.
+ * before anything reads it, and one that announces less cannot send more (Node's parser reads
+ * what follows as the next request). A chunked body is counted as it streams in, and the moment
+ * it passes the cap the client gets 413, the app's reader gets an error and the rest of the body
+ * is thrown away unread. The app then reads `res.locals.body`
+ * (handed to React Router by `withCountedBody`), not the raw request.
  */
 export function capBodySize(caps: BodyCaps = BODY_CAPS) {
   return (req: Request, res: Response, next: NextFunction) => {
     const max = bodyCapFor(req.path, caps);
     const length = Number(req.get("content-length") ?? 0);
     if (length > max) return refuse(res, max);
-    const hasBody = req.get("transfer-encoding") !== undefined || length > 0;
-    if (!hasBody || SAFE.has(req.method)) return next();
+    // Only a chunked body is counted. A declared length within the cap needs no counting: Node's
+    // parser never hands on more body than Content-Length says (a request with both it and
+    // Transfer-Encoding is refused with 400).
+    const chunked = req.get("transfer-encoding") !== undefined;
+    if (!chunked || SAFE.has(req.method)) return next();
     let total = 0;
     const counted = new Transform({
       transform(chunk: Buffer, _enc, done) {

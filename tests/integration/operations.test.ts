@@ -1,4 +1,5 @@
 import http from "node:http";
+import net from "node:net";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createDatabaseFromTemplate, dropDatabase } from "../support/db";
 import { heavyRoofSpec } from "../support/heavy-roof";
@@ -96,6 +97,48 @@ describe("request bodies are capped while they stream (defect 4)", () => {
     },
     60_000,
   );
+
+  /** Writes `raw` to a fresh connection and resolves with all it is answered before the server closes or 5 s pass. */
+  function rawExchange(raw: Buffer | string, end = true): Promise<string> {
+    return new Promise((resolve, reject) => {
+      const url = new URL(server.url);
+      const socket = net.connect(Number(url.port), url.hostname);
+      let answer = "";
+      const done = () => {
+        socket.destroy();
+        resolve(answer);
+      };
+      socket.setTimeout(5000, done);
+      socket.on("data", (d) => (answer += d.toString("latin1")));
+      socket.on("close", done);
+      socket.on("error", (err) => (answer ? done() : reject(err)));
+      socket.write(raw);
+      if (end) socket.end();
+      else setTimeout(() => socket.destroy(), 200); // goes away mid-body
+    });
+  }
+
+  it("a body that declares a length within the cap is read to that length only; more is not body", async () => {
+    // 2 MB sent after a Content-Length of 40: the server reads 40 bytes as the body and the rest as
+    // the next request, which is not HTTP. No 500, and the JSON API never sees 2 MB.
+    const head = `POST /api/v1/analyses HTTP/1.1\r\nHost: x\r\nContent-Type: application/json\r\nX-Forwarded-For: 198.51.100.41\r\nContent-Length: 40\r\n\r\n`;
+    const answer = await rawExchange(Buffer.concat([Buffer.from(head), Buffer.alloc(2 * 1024 * 1024, "a")]));
+    const statuses = [...answer.matchAll(/HTTP\/1\.1 (\d{3})/g)].map((m) => Number(m[1]));
+    expect(statuses[0]).toBe(400); // 40 bytes of "aaaa…" are not JSON
+    expect(statuses.every((s) => s < 500)).toBe(true);
+  });
+
+  it("a client that declares a length and goes away mid-body leaves the server serving", async () => {
+    const head = `POST /api/v1/analyses HTTP/1.1\r\nHost: x\r\nContent-Type: application/json\r\nX-Forwarded-For: 198.51.100.42\r\nContent-Length: 4000\r\n\r\n{"outline": [[0, 0], `;
+    await rawExchange(head, false);
+    expect((await fetch(`${server.url}/healthz`)).status).toBe(200);
+    const r = await fetch(`${server.url}/api/v1/analyses`, {
+      method: "POST",
+      headers: { "Content-Type": "application/json", "X-Forwarded-For": "198.51.100.42" },
+      body: JSON.stringify(SMALL_ROOF),
+    });
+    expect(r.status).toBe(200);
+  });
 
   it("still serves after refusing, and a body under the cap goes through", async () => {
     const alive = await fetch(`${server.url}/healthz`);
