@@ -25,39 +25,29 @@ function response() {
 
 const cap = capBodySize({ upload: 12 * 1024 * 1024, api: 512 * 1024, other: 1024 * 1024 });
 
+/** A POST to the analyses endpoint with these headers, through the cap: its response and `next`. */
+function post(headers: Record<string, string>) {
+  const res = response();
+  const next = vi.fn();
+  cap(request("POST", "/api/v1/analyses", headers), res as unknown as Response, next as NextFunction);
+  return { res, next };
+}
+
 describe("capBodySize", () => {
   it("hands a body with a declared length within the cap on without a counting stream", () => {
-    const res = response();
-    const next = vi.fn();
-    cap(
-      request("POST", "/api/v1/analyses", { "content-length": "120" }),
-      res as unknown as Response,
-      next as NextFunction,
-    );
+    const { res, next } = post({ "content-length": "120" });
     expect(next).toHaveBeenCalledOnce();
     expect(res.locals.body).toBeUndefined();
   });
 
   it("counts a chunked body as it streams", () => {
-    const res = response();
-    const next = vi.fn();
-    cap(
-      request("POST", "/api/v1/analyses", { "transfer-encoding": "chunked" }),
-      res as unknown as Response,
-      next as NextFunction,
-    );
+    const { res, next } = post({ "transfer-encoding": "chunked" });
     expect(next).toHaveBeenCalledOnce();
     expect(res.locals.body).toBeDefined();
   });
 
   it("refuses a declared length over the path's cap before reading anything", () => {
-    const res = response();
-    const next = vi.fn();
-    cap(
-      request("POST", "/api/v1/analyses", { "content-length": String(512 * 1024 + 1) }),
-      res as unknown as Response,
-      next as NextFunction,
-    );
+    const { res, next } = post({ "content-length": String(512 * 1024 + 1) });
     expect(next).not.toHaveBeenCalled();
     expect(res.statusCode).toBe(413);
     expect(res.json).toHaveBeenCalledWith({ error: { message: "The request body is over 512 kB.", issues: [] } });
