@@ -91,7 +91,7 @@ function refuse(res: Response, max: number, close = true) {
 const LINGER_MS = 5_000;
 const LINGER_BYTES = 64 * 1024 * 1024;
 
-/** The body stream the app reads: a counted copy of the request's (see capBodySize). */
+/** What the counted body stream (see capBodySize) fails with once a chunked body passes its cap. */
 export class BodyTooLarge extends Error {
   constructor(readonly limit: number) {
     super(`request body over ${limit} bytes`);
