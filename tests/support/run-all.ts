@@ -26,6 +26,7 @@ import {
   waitForPort,
 } from "../../app/dev/services.ts";
 import { ensureChromium } from "./chromium.ts";
+import { playwrightFailures, vitestFailures } from "./failures.ts";
 
 const only = process.argv.find((a) => a.startsWith("--only="))?.split("=")[1];
 const profile = PROFILES.test;
@@ -35,6 +36,8 @@ fs.mkdirSync(results, { recursive: true });
 
 let passed = 0;
 let failed = 0;
+/** What failed, by name: printed again beside the summary, since a CI log is often read from its end. */
+const failures: string[] = [];
 const children: ChildProcess[] = [];
 
 function bin(name: string) {
@@ -53,7 +56,10 @@ async function main() {
     const a = stage("lint", bin("eslint"), ["."]);
     const b = stage("format", bin("prettier"), ["--check", "."]);
     if (a === 0 && b === 0) passed++;
-    else failed++;
+    else {
+      failed++;
+      failures.push(`lint: ${a === 0 ? "" : "ESLint "}${b === 0 ? "" : "Prettier"}`.trim());
+    }
     if (only === "lint") return;
   }
 
@@ -78,7 +84,10 @@ async function main() {
     ]);
     const b = a === 0 ? stage("typecheck", bin("tsc"), ["--noEmit"]) : 1;
     if (a === 0 && b === 0) passed++;
-    else failed++;
+    else {
+      failed++;
+      failures.push(a === 0 ? "typecheck: tsc" : "typecheck: route type generation");
+    }
   }
 
   if (!only || only === "build" || only === "e2e" || only === "vitest") {
@@ -87,6 +96,7 @@ async function main() {
       0
     ) {
       failed++;
+      failures.push("build");
       return;
     }
   }
@@ -100,8 +110,11 @@ async function main() {
       // A skipped test counts as failed: here it only happens when a file's set-up broke.
       failed += r.numFailedTests + r.numPendingTests + (r.numRuntimeErrorTestSuites ?? 0);
       if (!r.success && r.numFailedTests + r.numPendingTests === 0) failed++;
+      const named = vitestFailures(r, PROJECT_ROOT);
+      failures.push(...(named.length || r.success ? named : ["vitest: did not succeed (see its report above)"]));
     } else {
       failed++;
+      failures.push("vitest: wrote no report");
     }
   }
 
@@ -146,8 +159,10 @@ async function main() {
         );
       failed += r.stats.unexpected + (r.stats.skipped ?? 0);
       if (r.errors?.length) failed += r.errors.length;
+      failures.push(...playwrightFailures(r));
     } else {
       failed++;
+      failures.push("playwright: wrote no report");
     }
   }
 }
@@ -158,9 +173,11 @@ try {
 } catch (error) {
   console.error(error);
   failed++;
+  failures.push(`set-up: ${String(error).split("\n")[0]}`);
 } finally {
   for (const c of children) c.kill("SIGTERM");
 }
 if (failed > 0) code = 1;
+if (failures.length) console.log(`\nFailed:\n${failures.map((f) => `  ✘ ${f}`).join("\n")}`);
 console.log(`\n${passed} passed, ${failed} failed`);
 process.exit(code);
