@@ -3,6 +3,7 @@ import {
   drawnOnCpu,
   noteRenderer,
   ON_CPU_KEY,
+  probeOnCpu,
   rememberedOnCpu,
   sceneGlOptions,
   watchIdle,
@@ -98,10 +99,54 @@ describe("the next view's WebGL options, from what the last view found", () => {
   }
   afterEach(() => vi.unstubAllGlobals());
 
-  it("a browser that has shown no 3D yet gets antialiased views", () => {
-    stubStorage();
+  /** A document whose canvases give `context` (a 1 × 1 probe's), noting what was asked and whether it was given back. */
+  function stubDocument(context: ReturnType<typeof gl> | null) {
+    const asked: string[] = [];
+    let lost = 0;
+    const canvas = {
+      width: 300,
+      height: 150,
+      getContext: (kind: string) => {
+        asked.push(kind);
+        return (
+          context && {
+            ...context,
+            getExtension: (name: string) =>
+              name === "WEBGL_lose_context" ? { loseContext: () => lost++ } : context.getExtension(name),
+          }
+        );
+      },
+    };
+    vi.stubGlobal("document", { createElement: (tag: string) => (tag === "canvas" ? canvas : null) });
+    return { asked, canvas, lost: () => lost };
+  }
+
+  it("a browser that has shown no 3D yet asks a throwaway context: on the CPU its first view is made without multisampling", () => {
+    const kept = stubStorage();
+    const probe = stubDocument(gl("ANGLE (Google, Vulkan 1.3.0 (SwiftShader Device (Subzero)), SwiftShader driver)"));
     expect(rememberedOnCpu()).toBe(false);
-    expect(sceneGlOptions()).toEqual({ preserveDrawingBuffer: true, antialias: true });
+    expect(sceneGlOptions()).toEqual({ preserveDrawingBuffer: true, antialias: false });
+    expect(probe.asked).toEqual(["webgl2"]);
+    expect([probe.canvas.width, probe.canvas.height]).toEqual([1, 1]);
+    expect(probe.lost()).toBe(1);
+    // Remembered: the next view asks no context of its own.
+    expect(kept.get(ON_CPU_KEY)).toBe("1");
+    expect(sceneGlOptions().antialias).toBe(false);
+    expect(probe.asked).toHaveLength(1);
+  });
+
+  it("on a graphics card the first view is antialiased; with no WebGL or no document, too", () => {
+    const kept = stubStorage();
+    stubDocument(gl("ANGLE (Intel, Mesa Intel(R) UHD Graphics 620 (KBL GT2), OpenGL 4.6)"));
+    expect(sceneGlOptions().antialias).toBe(true);
+    expect(kept.get(ON_CPU_KEY)).toBe("0");
+
+    const none = stubStorage();
+    const probe = stubDocument(null);
+    expect(sceneGlOptions().antialias).toBe(true);
+    expect(probe.asked).toEqual(["webgl2", "webgl"]);
+    expect(none.has(ON_CPU_KEY)).toBe(false); // nothing learnt, nothing kept
+    expect(probeOnCpu(undefined)).toBeNull();
   });
 
   it("after a view drawn on the CPU, the next is made without multisampling; after a graphics card, with it", () => {

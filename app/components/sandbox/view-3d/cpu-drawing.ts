@@ -39,19 +39,61 @@ function storage(): Storage | null {
  * Whether the last 3D view in this browser was drawn on the CPU. A WebGL context's antialiasing is
  * fixed when it is made, before its renderer can be asked, so the next view's context is made
  * without multisampling from what the last one found: on a CPU renderer that frame costs about a
- * third as much. The first 3D view a browser shows is always made with it.
+ * third as much.
  */
 export function rememberedOnCpu(): boolean {
+  return remembered() === true;
+}
+
+/** What the last 3D view in this browser found: true on the CPU, false on a graphics card, null if none has said. */
+function remembered(): boolean | null {
   try {
-    return storage()?.getItem(ON_CPU_KEY) === "1";
+    const value = storage()?.getItem(ON_CPU_KEY);
+    return value === "1" ? true : value === "0" ? false : null;
   } catch {
-    return false;
+    return null;
   }
 }
 
-/** The WebGL options of every 3D view: antialiased unless this browser draws 3D on the CPU (rememberedOnCpu). */
+/**
+ * Asks a throwaway 1 × 1 context, made and given back at once, whether this browser draws WebGL on
+ * the CPU: null where there is no document or no WebGL. Only a browser that has shown no 3D view
+ * yet pays for it (one context made, no shader compiled), so that its first view, too, is made
+ * without multisampling on a CPU renderer, where multisampling is most of each frame's cost.
+ */
+export function probeOnCpu(doc: Pick<Document, "createElement"> | undefined = globalThis.document): boolean | null {
+  if (!doc) return null;
+  try {
+    const canvas = doc.createElement("canvas");
+    canvas.width = 1;
+    canvas.height = 1;
+    const gl = canvas.getContext("webgl2") ?? canvas.getContext("webgl");
+    if (!gl) return null;
+    const found = drawnOnCpu(gl);
+    gl.getExtension("WEBGL_lose_context")?.loseContext();
+    return found;
+  } catch {
+    return null;
+  }
+}
+
+/**
+ * The WebGL options of every 3D view: antialiased unless this browser draws 3D on the CPU, as its
+ * last view found (rememberedOnCpu) or, before any view, as a throwaway context says (probeOnCpu).
+ */
 export function sceneGlOptions(): { preserveDrawingBuffer: true; antialias: boolean } {
-  return { preserveDrawingBuffer: true, antialias: !rememberedOnCpu() };
+  let onCpu = remembered();
+  if (onCpu === null) {
+    onCpu = probeOnCpu();
+    if (onCpu !== null) {
+      try {
+        storage()?.setItem(ON_CPU_KEY, onCpu ? "1" : "0");
+      } catch {
+        // full or refused: the next view asks again
+      }
+    }
+  }
+  return { preserveDrawingBuffer: true, antialias: onCpu !== true };
 }
 
 let cpu = false;
