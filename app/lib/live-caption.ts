@@ -57,3 +57,15 @@ export function liveCaption(base: CaptionBase | null, shown: unknown): { title: 
   if (base && sameRoof(base.spec, shown)) return { title: base.caption, changed: false };
   return { title: `Changed live: ${describeRoof(shown)}`, changed: true };
 }
+
+/** Added to a live roof's source once the trainer has changed it (present mode). */
+export const CHANGED_LIVE = " · changed live";
+
+/**
+ * Which roof of the trainer's a live state shows, edits aside: the deck and step, or the roof
+ * handed up. The same while the trainer edits it; new at the next step or hand-up.
+ */
+export function liveRoofKey(state: { deck?: string; step?: { index: number } | null; source: string }): string {
+  const source = state.source.endsWith(CHANGED_LIVE) ? state.source.slice(0, -CHANGED_LIVE.length) : state.source;
+  return `${state.deck ?? ""}|${state.step?.index ?? ""}|${source}`;
+}

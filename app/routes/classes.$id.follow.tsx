@@ -6,6 +6,7 @@ import { requireUser } from "~/lib/auth.server";
 import { findClassFor, isMember } from "~/lib/classes.server";
 import { can } from "~/lib/permissions";
 import { readLiveState } from "~/lib/live.server";
+import { liveRoofKey } from "~/lib/live-caption";
 import { Caution } from "~/components/caution";
 import { GeneralErrorBoundary } from "~/components/error-boundary";
 import { LiveRoof, sandboxHrefFor } from "~/components/classes/live-roof";
@@ -13,6 +14,7 @@ import { HandUpPanel } from "~/components/classes/hand-up-panel";
 import { LiveStatus } from "~/components/classes/live-status";
 import { RoofSummary } from "~/components/classes/roof-summary";
 import { useLiveFeed } from "~/components/classes/use-live-feed";
+import { useSteadyHeight } from "~/components/classes/use-steady-height";
 
 export const meta: Route.MetaFunction = ({ data }) => [
   { title: `Follow live · ${data?.cls.name ?? "Class"} · Fallwright` },
@@ -51,6 +53,8 @@ export default function Follow({ loaderData }: Route.ComponentProps) {
   };
   const onMineChange = useCallback((spec: unknown) => setMine((m) => (m ? { ...m, spec } : m)), []);
   const restartMine = () => state && setMine((m) => ({ spec: state.spec, key: (m?.key ?? 0) + 1 }));
+  // One roof of the trainer's (a step, or a roof handed up): its caption block holds its height.
+  const heading = useSteadyHeight<HTMLDivElement>(state ? liveRoofKey(state) : "");
   return (
     <div className="grid gap-4">
       <header className="flex flex-wrap items-end justify-between gap-3">
@@ -103,7 +107,12 @@ export default function Follow({ loaderData }: Route.ComponentProps) {
         />
       ) : state ? (
         <section aria-labelledby="live-title" className="grid gap-3" data-seq={seq}>
-          <div className="flex flex-wrap items-end justify-between gap-3">
+          <div
+            ref={heading.ref}
+            style={heading.style}
+            className="flex flex-wrap items-end justify-between gap-3"
+            data-testid="live-heading"
+          >
             <div>
               <h2 id="live-title" className="text-2xl font-bold">
                 {state.title || "Untitled roof"}

@@ -5,7 +5,7 @@ import type { Route } from "./+types/classes.$id.present";
 import { requirePermission } from "~/lib/auth.server";
 import { findClassFor } from "~/lib/classes.server";
 import { readLiveState } from "~/lib/live.server";
-import { liveCaption, type CaptionBase } from "~/lib/live-caption";
+import { CHANGED_LIVE, liveCaption, type CaptionBase } from "~/lib/live-caption";
 import { presenterDecks } from "~/lib/present.server";
 import { DECK_GROUP_LABELS, type DeckGroup } from "~/lib/present-groups";
 import { Caution } from "~/components/caution";
@@ -105,7 +105,7 @@ export default function Present({ loaderData }: Route.ComponentProps) {
       return {
         spec: nextSpec,
         title: c.title,
-        source: o ? `${o.source}${c.changed ? " · changed live" : ""}` : "",
+        source: o ? `${o.source}${c.changed ? CHANGED_LIVE : ""}` : "",
         deck: d?.key ?? "",
         step: o?.step ?? null,
       };
@@ -234,13 +234,28 @@ export default function Present({ loaderData }: Route.ComponentProps) {
               <PublishState status={status} onDark />
             )}
           </div>
-          <h1
-            className="text-3xl font-bold leading-tight 2xl:text-4xl"
-            aria-live="polite"
-            data-changed={caption.changed}
-          >
-            {spec ? caption.title : "No roofs to present"}
-          </h1>
+          {/* The step's own caption, unseen, shares the heading's cell while an edit has replaced it,
+              so a shorter "Changed live" caption does not grow the 3D view below: each resize of
+              the view reallocates its drawing buffer and redraws it, which on a CPU-drawn machine
+              froze the page for over a second at the first edit. */}
+          <div className="grid">
+            <h1
+              className="text-3xl font-bold leading-tight [grid-area:1/1] 2xl:text-4xl"
+              aria-live="polite"
+              data-changed={caption.changed}
+            >
+              {spec ? caption.title : "No roofs to present"}
+            </h1>
+            {!!spec && caption.changed && origin && (
+              <p
+                aria-hidden="true"
+                className="invisible text-3xl font-bold leading-tight [grid-area:1/1] 2xl:text-4xl"
+                data-testid="caption-reserve"
+              >
+                {origin.caption}
+              </p>
+            )}
+          </div>
         </div>
         <nav aria-label="Steps" className="flex shrink-0 items-center gap-3">
           <button

@@ -79,7 +79,7 @@ function watchLanding(sceneBefore: string) {
 type GlWindow = { __gl: { contexts: number; programs: number } };
 
 /**
- * Before the page's scripts: counts the WebGL contexts made and the shader programs linked, so a
+ * Before the page's scripts: counts the 3D views' WebGL contexts and the shader programs linked, so a
  * test can tell that a live update reused the 3D view's renderer and programs (on the CPU-drawn
  * WebGL here, each program compiled again costs the follower a fraction of a second or more).
  */
@@ -89,7 +89,8 @@ const COUNT_GL = `(() => {
   const getContext = HTMLCanvasElement.prototype.getContext;
   HTMLCanvasElement.prototype.getContext = function (kind, ...rest) {
     const made = getContext.call(this, kind, ...rest);
-    if (/webgl/.test(kind) && made && !seen.has(made)) { seen.add(made); gl.contexts++; }
+    // A view's canvas is on the page; a throwaway 1 x 1 probe's (cpu-drawing.ts) is not.
+    if (/webgl/.test(kind) && made && this.isConnected && !seen.has(made)) { seen.add(made); gl.contexts++; }
     return made;
   };
   for (const proto of [window.WebGL2RenderingContext?.prototype, window.WebGLRenderingContext?.prototype]) {
@@ -143,15 +144,34 @@ test("a follower sees the presenter's outlet move within a second, and catches u
   await expect(scene).toContainText("longest fall line");
   const sceneBefore = (await scene.textContent())!;
   const newX = startX === "3" ? "4" : "3";
+  const presenterView = trainer.page.getByTestId("view-3d");
+  const viewBefore = await presenterView.boundingBox();
+  const followerViewBefore = await follower.getByTestId("view-3d").boundingBox();
   await follower.evaluate(watchLanding, sceneBefore);
   const t0 = Date.now();
   await outletX(trainer.page).fill(newX);
-  await expect(outletX(follower)).toHaveValue(newX, { timeout: 5000 });
-  await expect(scene).not.toHaveText(sceneBefore, { timeout: 5000 });
+  // Until it lands, wait on the page's own record only. Playwright's locators run in the follower's
+  // page: a trace of this test showed each check of the outlet's field (found by its label, over the
+  // whole read-only workspace) taking 40-150 ms of the follower's main thread, and two of them
+  // delaying the frame that showed the move by 200 ms. A watcher in class does not run them.
   await expect
-    .poll(() => follower.evaluate(() => (window as unknown as LandingWindow).__landed.drawn), { timeout: 5000 })
+    .poll(() => follower.evaluate(() => (window as unknown as LandingWindow).__landed.drawn), {
+      timeout: 5000,
+      intervals: [100],
+    })
     .toBeGreaterThan(0);
   const landed = await follower.evaluate(() => (window as unknown as LandingWindow).__landed);
+  // What landed is the move: the follower's field and scene show it.
+  await expect(outletX(follower)).toHaveValue(newX, { timeout: 5000 });
+  await expect(scene).not.toHaveText(sceneBefore, { timeout: 5000 });
+  // Both captions now describe the edited roof, and neither 3D view moved or changed size: a caption
+  // shorter than the step's no longer grows the presenter's view (a resize costs a full reallocation
+  // and redraw; at this first edit it froze the presenter's page for 1.5 s and delayed the follower's
+  // frame) or moves the follower's page up under its reader.
+  await expect(trainer.page.getByRole("heading", { level: 1 })).toHaveAttribute("data-changed", "true");
+  await expect(follower.locator("#live-title")).toHaveText(/^Changed live: /);
+  expect(await presenterView.boundingBox()).toEqual(viewBefore);
+  expect(await follower.getByTestId("view-3d").boundingBox()).toEqual(followerViewBefore);
   const [inStore, inScene, inCanvas] = [landed.roof - t0, landed.scene - t0, landed.drawn - t0];
   test.info().annotations.push({
     type: "live latency ms (roof, scene summary, canvas)",
