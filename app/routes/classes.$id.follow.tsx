@@ -110,7 +110,7 @@ export default function Follow({ loaderData }: Route.ComponentProps) {
           <div
             ref={heading.ref}
             style={heading.style}
-            className="flex flex-wrap items-end justify-between gap-3"
+            className="flex flex-wrap content-start items-end justify-between gap-3"
             data-testid="live-heading"
           >
             <div>
