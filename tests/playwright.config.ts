@@ -38,8 +38,8 @@ export default defineConfig({
     // Its trace keeps the steps and the network but takes no DOM snapshots or screencast: each
     // snapshot walks the whole page in the page's own main thread (about 2,300 elements on the
     // follow page, 40-150 ms each here), and a trace of the latency test showed them delaying the
-    // follower's next frame. Without them its canvas figure fell from about 515 to 390 ms (median of
-    // six moves each way).
+    // follower's next frame. With tracing off (a trial) its canvas figure fell from about 515 to
+    // 390 ms (median of six moves each way).
     {
       name: "timed",
       use: { browserName: "chromium", trace: { mode: "retain-on-failure", snapshots: false, screenshots: false } },

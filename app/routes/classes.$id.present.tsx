@@ -38,6 +38,9 @@ function typingIn(target: EventTarget | null) {
   return !!el && (el.isContentEditable || ["INPUT", "TEXTAREA", "SELECT"].includes(el.tagName));
 }
 
+/** The caption's type, shared by the heading and the unseen step caption that holds its height. */
+const CAPTION = "text-3xl font-bold leading-tight [grid-area:1/1] 2xl:text-4xl";
+
 /** What the caption was written for: a deck step's roof, or a roof a trainee handed up. */
 interface Origin extends CaptionBase {
   source: string;
@@ -239,19 +242,11 @@ export default function Present({ loaderData }: Route.ComponentProps) {
               the view reallocates its drawing buffer and redraws it, which on a CPU-drawn machine
               froze the page for over a second at the first edit. */}
           <div className="grid">
-            <h1
-              className="text-3xl font-bold leading-tight [grid-area:1/1] 2xl:text-4xl"
-              aria-live="polite"
-              data-changed={caption.changed}
-            >
+            <h1 className={CAPTION} aria-live="polite" data-changed={caption.changed}>
               {spec ? caption.title : "No roofs to present"}
             </h1>
             {!!spec && caption.changed && origin && (
-              <p
-                aria-hidden="true"
-                className="invisible text-3xl font-bold leading-tight [grid-area:1/1] 2xl:text-4xl"
-                data-testid="caption-reserve"
-              >
+              <p aria-hidden="true" className={`invisible ${CAPTION}`} data-testid="caption-reserve">
                 {origin.caption}
               </p>
             )}

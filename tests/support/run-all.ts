@@ -26,7 +26,7 @@ import {
   waitForPort,
 } from "../../app/dev/services.ts";
 import { ensureChromium } from "./chromium.ts";
-import { playwrightFailures, vitestFailures } from "./failures.ts";
+import { firstLine, playwrightFailures, vitestFailures } from "./failures.ts";
 
 const only = process.argv.find((a) => a.startsWith("--only="))?.split("=")[1];
 const profile = PROFILES.test;
@@ -173,7 +173,7 @@ try {
 } catch (error) {
   console.error(error);
   failed++;
-  failures.push(`set-up: ${String(error).split("\n")[0]}`);
+  failures.push(`set-up: ${firstLine(String(error))}`);
 } finally {
   for (const c of children) c.kill("SIGTERM");
 }
